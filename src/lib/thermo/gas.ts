@@ -1,0 +1,409 @@
+/**
+ * Ideal gases and ideal-gas mixtures from the NASA Glenn 9-coefficient polynomials.
+ *
+ * All quantities are SI: T in K, p in Pa, molar properties per mol, specific properties per kg.
+ * Enthalpies are absolute in the NASA sense: h(298.15 K) equals the enthalpy of formation from the
+ * reference elements, so reacting balances close without extra bookkeeping.
+ *
+ * Gas constant: CODATA 2018 exact value R = 8.314462618 J/(mol K). The NASA computed check values
+ * in docs/reference/check-values.md were evaluated with R = 8.314472 J/(mol K); the relative
+ * difference (1.1e-6) is far below the printed digits of those tables.
+ *
+ * @see McBride, Zehe & Gordon, NASA/TP-2002-211556 (2002), eqs. 4.9-4.11 (9-coefficient form).
+ */
+import { NoConvergenceError, ThermoRangeError, requireRange } from './errors';
+import { NASA_SPECIES, type Element, type NasaRange, type NasaSpeciesData } from './species-data';
+
+/** Molar gas constant [J/(mol K)], CODATA 2018 (exact). */
+export const R_J_per_molK = 8.314462618;
+/** Standard-state (reference) pressure of the NASA data and of the mixture entropy [Pa]. */
+export const P_REF_Pa = 1e5;
+/** Reference temperature of formation enthalpies [K]. */
+export const T_REF_K = 298.15;
+/** Validity range of the polynomials [K]. */
+export const T_MIN_K = 200;
+export const T_MAX_K = 6000;
+/** Pressure range accepted by entropy functions [Pa]; ideal-gas behaviour is the caller's judgement. */
+export const P_MIN_Pa = 1;
+export const P_MAX_Pa = 1e8;
+
+/** Names of the gas species with NASA data in the property core. */
+export type SpeciesName = keyof typeof NASA_SPECIES;
+export const SPECIES_NAMES = Object.keys(NASA_SPECIES) as SpeciesName[];
+
+/** One pure ideal-gas species. */
+export interface Species {
+  readonly name: SpeciesName;
+  /** molar mass [kg/mol] */
+  readonly M_kg_per_mol: number;
+  /** enthalpy of formation at 298.15 K [J/mol] */
+  readonly hf298_J_per_mol: number;
+  /** atoms per molecule */
+  readonly elements: Readonly<Partial<Record<Element, number>>>;
+  /** isobaric molar heat capacity [J/(mol K)] at T_K [K], 200..6000 K */
+  cpMolar(T_K: number): number;
+  /** absolute molar enthalpy [J/mol] (includes formation enthalpy) at T_K [K], 200..6000 K */
+  hMolar(T_K: number): number;
+  /** standard molar entropy at 1 bar [J/(mol K)] at T_K [K], 200..6000 K */
+  s0Molar(T_K: number): number;
+}
+
+/** Precombined polynomial of one temperature range, already scaled to the wanted unit. */
+interface ScaledRange {
+  /** cp = sum cpc[k] T^(k-2), k = 0..6 */
+  readonly cpc: Float64Array;
+  /** h = -cpc0/T + cpc1 ln T + cpc2 T + cpc3 T^2/2 + ... + b1 (stored as hc[0..7]) */
+  readonly hc: Float64Array;
+  /** s0 = -cpc0/(2T^2) - cpc1/T + cpc2 ln T + cpc3 T + ... + b2 (stored as sc[0..7]) */
+  readonly sc: Float64Array;
+}
+
+function scaleRange(a: readonly number[], b: readonly number[], factor: number): ScaledRange {
+  const cpc = new Float64Array(7);
+  const hc = new Float64Array(8);
+  const sc = new Float64Array(8);
+  for (let k = 0; k < 7; k++) cpc[k] = a[k] * factor;
+  hc[0] = -a[0] * factor;
+  hc[1] = a[1] * factor;
+  hc[2] = a[2] * factor;
+  hc[3] = (a[3] / 2) * factor;
+  hc[4] = (a[4] / 3) * factor;
+  hc[5] = (a[5] / 4) * factor;
+  hc[6] = (a[6] / 5) * factor;
+  hc[7] = b[0] * factor;
+  sc[0] = (-a[0] / 2) * factor;
+  sc[1] = -a[1] * factor;
+  sc[2] = a[2] * factor;
+  sc[3] = a[3] * factor;
+  sc[4] = (a[4] / 2) * factor;
+  sc[5] = (a[5] / 3) * factor;
+  sc[6] = (a[6] / 4) * factor;
+  sc[7] = b[1] * factor;
+  return { cpc, hc, sc };
+}
+
+function evalCp(r: ScaledRange, T: number): number {
+  const c = r.cpc;
+  const iT = 1 / T;
+  return c[0] * iT * iT + c[1] * iT + c[2] + T * (c[3] + T * (c[4] + T * (c[5] + T * c[6])));
+}
+
+function evalH(r: ScaledRange, T: number): number {
+  const c = r.hc;
+  return c[0] / T + c[1] * Math.log(T) + T * (c[2] + T * (c[3] + T * (c[4] + T * (c[5] + T * c[6])))) + c[7];
+}
+
+function evalS(r: ScaledRange, T: number): number {
+  const c = r.sc;
+  const iT = 1 / T;
+  return c[0] * iT * iT + c[1] * iT + c[2] * Math.log(T) + T * (c[3] + T * (c[4] + T * (c[5] + T * c[6]))) + c[7];
+}
+
+const T_MID_K = 1000;
+
+function checkT(T_K: number, context: string): void {
+  requireRange('T_K', T_K, T_MIN_K, T_MAX_K, 'K', context);
+}
+
+function checkP(p_Pa: number, context: string): void {
+  requireRange('p_Pa', p_Pa, P_MIN_Pa, P_MAX_Pa, 'Pa', context);
+}
+
+/** A pair of scaled ranges with the NASA breakpoint at 1000 K. */
+interface ScaledPolynomial {
+  readonly low: ScaledRange;
+  readonly high: ScaledRange;
+}
+
+function scalePolynomial(data: NasaSpeciesData, factor: number): ScaledPolynomial {
+  const [lo, hi] = data.ranges;
+  assertRanges(lo, hi);
+  return { low: scaleRange(lo.a, lo.b, factor), high: scaleRange(hi.a, hi.b, factor) };
+}
+
+function assertRanges(lo: NasaRange, hi: NasaRange): void {
+  if (lo.Tmin_K > T_MIN_K || lo.Tmax_K !== T_MID_K || hi.Tmin_K !== T_MID_K || hi.Tmax_K < T_MAX_K) {
+    throw new Error('NASA data block does not cover 200-1000-6000 K');
+  }
+}
+
+function pick(p: ScaledPolynomial, T: number): ScaledRange {
+  return T <= T_MID_K ? p.low : p.high;
+}
+
+function makeSpecies(name: SpeciesName): Species {
+  const data: NasaSpeciesData = NASA_SPECIES[name];
+  const poly = scalePolynomial(data, R_J_per_molK);
+  const ctx = `ideal gas ${name}`;
+  return Object.freeze({
+    name,
+    M_kg_per_mol: data.M_g_per_mol / 1000,
+    hf298_J_per_mol: data.hf298_J_per_mol,
+    elements: Object.freeze({ ...data.elements }),
+    cpMolar(T_K: number) {
+      checkT(T_K, ctx);
+      return evalCp(pick(poly, T_K), T_K);
+    },
+    hMolar(T_K: number) {
+      checkT(T_K, ctx);
+      return evalH(pick(poly, T_K), T_K);
+    },
+    s0Molar(T_K: number) {
+      checkT(T_K, ctx);
+      return evalS(pick(poly, T_K), T_K);
+    },
+  });
+}
+
+/** Pure-species data and property functions, keyed by species name. */
+export const species: Readonly<Record<SpeciesName, Species>> = Object.freeze(
+  Object.fromEntries(SPECIES_NAMES.map((n) => [n, makeSpecies(n)])) as Record<SpeciesName, Species>,
+);
+
+/**
+ * Isobaric molar heat capacity of a pure species.
+ * @param name species name
+ * @param T_K temperature [K], 200..6000
+ * @returns cp [J/(mol K)]
+ * @throws ThermoRangeError outside 200..6000 K
+ * @see NASA/TP-2002-211556 eq. 4.9
+ */
+export function cpMolar(name: SpeciesName, T_K: number): number {
+  return getSpecies(name).cpMolar(T_K);
+}
+
+/**
+ * Absolute molar enthalpy of a pure species (formation enthalpy at 298.15 K included).
+ * @param name species name
+ * @param T_K temperature [K], 200..6000
+ * @returns h [J/mol]
+ * @throws ThermoRangeError outside 200..6000 K
+ * @see NASA/TP-2002-211556 eq. 4.10
+ */
+export function hMolar(name: SpeciesName, T_K: number): number {
+  return getSpecies(name).hMolar(T_K);
+}
+
+/**
+ * Standard molar entropy (at p = 1 bar) of a pure species.
+ * @param name species name
+ * @param T_K temperature [K], 200..6000
+ * @returns s0 [J/(mol K)]
+ * @throws ThermoRangeError outside 200..6000 K
+ * @see NASA/TP-2002-211556 eq. 4.11
+ */
+export function s0Molar(name: SpeciesName, T_K: number): number {
+  return getSpecies(name).s0Molar(T_K);
+}
+
+function getSpecies(name: SpeciesName): Species {
+  const sp = (species as Record<string, Species | undefined>)[name];
+  if (!sp) throw new ThermoRangeError('species', NaN, `one of ${SPECIES_NAMES.join(', ')}`, `unknown species '${name}'`);
+  return sp;
+}
+
+/** Composition by species: mole or mass fractions [-]. */
+export type Composition = Partial<Record<SpeciesName, number>>;
+
+/** An ideal-gas mixture of fixed composition. Specific properties are per kg of mixture. */
+export interface GasMixture {
+  /** mole fractions [-], summing to 1, zero entries removed */
+  readonly moleFractions: Readonly<Composition>;
+  /** mass fractions [-], summing to 1, zero entries removed */
+  readonly massFractions: Readonly<Composition>;
+  /** molar mass [kg/mol] */
+  readonly M_kg_per_mol: number;
+  /** specific gas constant [J/(kg K)] */
+  readonly R_J_per_kgK: number;
+  /** isobaric specific heat capacity [J/(kg K)] at T_K [K] */
+  cp(T_K: number): number;
+  /** absolute specific enthalpy [J/kg] (formation enthalpies included) at T_K [K] */
+  h(T_K: number): number;
+  /** specific entropy [J/(kg K)] at T_K [K] and p_Pa [Pa], with the mixing term */
+  s(T_K: number, p_Pa: number): number;
+  /** isobaric molar heat capacity [J/(mol K)] */
+  cpMolar(T_K: number): number;
+  /** absolute molar enthalpy [J/mol] */
+  hMolar(T_K: number): number;
+  /** molar entropy [J/(mol K)], with the mixing term */
+  sMolar(T_K: number, p_Pa: number): number;
+  /** temperature [K] at which h(T) = h_J_per_kg (Newton iteration) */
+  T_h(h_J_per_kg: number): number;
+  /** temperature [K] at which s(T, p_Pa) = s_J_per_kgK (Newton iteration) */
+  T_ps(p_Pa: number, s_J_per_kgK: number): number;
+}
+
+/** Largest allowed deviation of the fraction sum from 1 before it is an error [-]. */
+export const FRACTION_SUM_TOLERANCE = 1e-6;
+
+/**
+ * Validates fractions and scales them to sum to exactly 1 (tiny drift only).
+ * @throws ThermoRangeError for unknown names, negative or non-finite entries, or a sum off by more than 1e-6
+ */
+export function normaliseFractions(fractions: Composition, what = 'fractions'): Composition {
+  let sum = 0;
+  for (const [name, x] of Object.entries(fractions)) {
+    if (!(name in NASA_SPECIES)) {
+      throw new ThermoRangeError(`${what}.${name}`, x ?? NaN, `a species of ${SPECIES_NAMES.join(', ')}`, 'unknown species');
+    }
+    if (x === undefined) continue;
+    if (!Number.isFinite(x) || x < 0) throw new ThermoRangeError(`${what}.${name}`, x, '0..1 [-]');
+    sum += x;
+  }
+  if (!(Math.abs(sum - 1) <= FRACTION_SUM_TOLERANCE)) {
+    throw new ThermoRangeError(`sum of ${what}`, sum, `1 ± ${FRACTION_SUM_TOLERANCE} [-]`);
+  }
+  const out: Composition = {};
+  for (const [name, x] of Object.entries(fractions) as [SpeciesName, number | undefined][]) {
+    if (x !== undefined && x > 0) out[name] = x / sum;
+  }
+  return out;
+}
+
+/**
+ * Builds an ideal-gas mixture. Coefficients are precombined, so h(T), cp(T) and s(T, p) each cost
+ * one polynomial evaluation.
+ *
+ * s(T, p) = sum_i x_i s0_i(T) - R sum_i x_i ln(x_i p / p_ref), p_ref = 1e5 Pa (per mol; divided by M).
+ *
+ * @param fractions mole or mass fractions [-] per species; must sum to 1 within 1e-6 (drift is normalised)
+ * @param basis 'mole' or 'mass'
+ * @returns a GasMixture valid for 200..6000 K and 1 Pa..100 MPa (ideal-gas model)
+ * @throws ThermoRangeError for unknown species, negative fractions, or a bad sum
+ * @see NASA/TP-2002-211556 eqs. 4.9-4.11; mixture entropy as an ideal solution of ideal gases
+ */
+export function mixture(fractions: Composition, basis: 'mole' | 'mass'): GasMixture {
+  const given = normaliseFractions(fractions, basis === 'mole' ? 'mole fractions' : 'mass fractions');
+  const names = Object.keys(given) as SpeciesName[];
+  const x: Composition = {};
+  const w: Composition = {};
+  if (basis === 'mole') {
+    let M = 0;
+    for (const n of names) M += given[n]! * species[n].M_kg_per_mol;
+    for (const n of names) {
+      x[n] = given[n]!;
+      w[n] = (given[n]! * species[n].M_kg_per_mol) / M;
+    }
+  } else {
+    let nTot = 0;
+    for (const n of names) nTot += given[n]! / species[n].M_kg_per_mol;
+    for (const n of names) {
+      w[n] = given[n]!;
+      x[n] = given[n]! / species[n].M_kg_per_mol / nTot;
+    }
+  }
+  let M = 0;
+  for (const n of names) M += x[n]! * species[n].M_kg_per_mol;
+
+  // Mole-weighted NASA coefficients of the mixture.
+  const combine = (r: 0 | 1) => {
+    const a = [0, 0, 0, 0, 0, 0, 0];
+    const b = [0, 0];
+    for (const n of names) {
+      const rr = NASA_SPECIES[n].ranges[r];
+      for (let k = 0; k < 7; k++) a[k] += x[n]! * rr.a[k];
+      b[0] += x[n]! * rr.b[0];
+      b[1] += x[n]! * rr.b[1];
+    }
+    return { a, b };
+  };
+  const lo = combine(0);
+  const hi = combine(1);
+  const molar: ScaledPolynomial = {
+    low: scaleRange(lo.a, lo.b, R_J_per_molK),
+    high: scaleRange(hi.a, hi.b, R_J_per_molK),
+  };
+  const perKg: ScaledPolynomial = {
+    low: scaleRange(lo.a, lo.b, R_J_per_molK / M),
+    high: scaleRange(hi.a, hi.b, R_J_per_molK / M),
+  };
+  let sumXlnX = 0;
+  for (const n of names) sumXlnX += x[n]! * Math.log(x[n]!);
+  const Rs = R_J_per_molK / M;
+  const ctx = 'ideal-gas mixture';
+
+  const mix: GasMixture = {
+    moleFractions: Object.freeze(x),
+    massFractions: Object.freeze(w),
+    M_kg_per_mol: M,
+    R_J_per_kgK: Rs,
+    cp(T_K) {
+      checkT(T_K, ctx);
+      return evalCp(pick(perKg, T_K), T_K);
+    },
+    h(T_K) {
+      checkT(T_K, ctx);
+      return evalH(pick(perKg, T_K), T_K);
+    },
+    s(T_K, p_Pa) {
+      checkT(T_K, ctx);
+      checkP(p_Pa, ctx);
+      return evalS(pick(perKg, T_K), T_K) - Rs * (Math.log(p_Pa / P_REF_Pa) + sumXlnX);
+    },
+    cpMolar(T_K) {
+      checkT(T_K, ctx);
+      return evalCp(pick(molar, T_K), T_K);
+    },
+    hMolar(T_K) {
+      checkT(T_K, ctx);
+      return evalH(pick(molar, T_K), T_K);
+    },
+    sMolar(T_K, p_Pa) {
+      checkT(T_K, ctx);
+      checkP(p_Pa, ctx);
+      return evalS(pick(molar, T_K), T_K) - R_J_per_molK * (Math.log(p_Pa / P_REF_Pa) + sumXlnX);
+    },
+    T_h(h_J_per_kg) {
+      const hLo = mix.h(T_MIN_K);
+      const hHi = mix.h(T_MAX_K);
+      if (!(h_J_per_kg >= hLo && h_J_per_kg <= hHi)) {
+        throw new ThermoRangeError('h_J_per_kg', h_J_per_kg, `${hLo}..${hHi} J/kg (200..6000 K)`, ctx);
+      }
+      return solveT((T) => mix.h(T) - h_J_per_kg, (T) => mix.cp(T), 'T(h) of an ideal-gas mixture');
+    },
+    T_ps(p_Pa, s_J_per_kgK) {
+      checkP(p_Pa, ctx);
+      const sLo = mix.s(T_MIN_K, p_Pa);
+      const sHi = mix.s(T_MAX_K, p_Pa);
+      if (!(s_J_per_kgK >= sLo && s_J_per_kgK <= sHi)) {
+        throw new ThermoRangeError('s_J_per_kgK', s_J_per_kgK, `${sLo}..${sHi} J/(kg K) (200..6000 K)`, ctx);
+      }
+      return solveT((T) => mix.s(T, p_Pa) - s_J_per_kgK, (T) => mix.cp(T) / T, 'T(p,s) of an ideal-gas mixture');
+    },
+  };
+  return Object.freeze(mix);
+}
+
+/** Safeguarded Newton iteration on [T_MIN_K, T_MAX_K] for a monotonically increasing f. */
+function solveT(f: (T: number) => number, df: (T: number) => number, what: string): number {
+  let lo = T_MIN_K;
+  let hi = T_MAX_K;
+  let T = 500;
+  let r = f(T);
+  for (let i = 0; i < 60; i++) {
+    if (r > 0) hi = T;
+    else lo = T;
+    let next = T - r / df(T);
+    if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
+    const step = Math.abs(next - T);
+    T = next;
+    r = f(T);
+    if (step < 1e-10 * T || r === 0) return T;
+  }
+  throw new NoConvergenceError(what, 60, r);
+}
+
+/**
+ * Standard dry air: the NASA thermo.inp 'Air' composition (Gordon 1982), mole fractions
+ * N2 0.78084, O2 0.209476, Ar 0.009365, CO2 0.000319; M = 28.9651 g/mol.
+ * @see docs/reference/check-values.md, section 2 'Dry air'
+ */
+export const DRY_AIR_MOLE_FRACTIONS: Readonly<Composition> = Object.freeze({
+  N2: 0.78084,
+  O2: 0.209476,
+  Ar: 0.009365,
+  CO2: 0.000319,
+});
+
+/** Standard dry air as an ideal-gas mixture (see DRY_AIR_MOLE_FRACTIONS). */
+export const dryAir: GasMixture = mixture(DRY_AIR_MOLE_FRACTIONS, 'mole');
