@@ -1,0 +1,28 @@
+import { z } from 'zod';
+
+/**
+ * Queue names and payload schemas, shared by the web side (which sends) and the worker (which works).
+ * Every payload is parsed again by the worker with the same schema.
+ */
+export const QUEUES = {
+  ingestFile: 'ingest-file',
+  computeUnitHours: 'compute-unit-hours',
+  checkDrift: 'check-drift',
+  sendMail: 'send-mail',
+} as const;
+
+export type QueueName = (typeof QUEUES)[keyof typeof QUEUES];
+
+export const IngestFilePayload = z.object({ uploadId: z.string().uuid() });
+export const ComputeUnitHoursPayload = z.object({
+  siteId: z.string().uuid(),
+  fromMs: z.number().int(),
+  toMs: z.number().int(),
+  unitIds: z.array(z.string().uuid()).optional(),
+});
+export const SendMailPayload = z.object({
+  to: z.string().email(),
+  subject: z.string().min(1),
+  text: z.string(),
+  html: z.string().optional(),
+});

@@ -1,0 +1,20 @@
+import type { Role } from './roles';
+
+/**
+ * The navigation, with the roles each entry is shown to. Only pages that exist are listed: a
+ * capability not built yet has no entry. Must agree with src/server/policy.ts (a test checks it).
+ */
+export interface NavItem {
+  href: string;
+  label: string;
+  roles: readonly Role[];
+}
+
+export const NAV: readonly NavItem[] = [
+  { href: '/', label: 'Overview', roles: ['admin', 'energy-lead', 'operator', 'planner'] },
+  { href: '/admin/users', label: 'People', roles: ['admin'] },
+];
+
+export function navFor(role: Role): NavItem[] {
+  return NAV.filter((n) => n.roles.includes(role));
+}

@@ -1,0 +1,93 @@
+import { ANY_ROLE, type Role } from '../lib/roles';
+
+/**
+ * Who may call what: the one table. Every route under src/pages/api (and every page) is listed here
+ * with the roles it admits, per HTTP method or for all methods ('*'). src/middleware.ts enforces it
+ * (401 when nobody is signed in, 403 for a role not admitted) and tests/foundation/policy.test.ts
+ * fails when a route file has no entry here, so no endpoint can forget to declare one.
+ *
+ * 'public' admits anyone, signed in or not. `apiToken: true` also admits a site API token
+ * (Authorization: Bearer ...) in place of a session; the endpoint then checks the token's site.
+ */
+export type Admit = 'public' | readonly Role[];
+export interface RoutePolicy {
+  methods: Partial<Record<'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE' | '*', Admit>>;
+  apiToken?: boolean;
+}
+
+const ADMIN: readonly Role[] = ['admin'];
+const LEADS: readonly Role[] = ['admin', 'energy-lead'];
+const UPLOADERS: readonly Role[] = ['admin', 'energy-lead', 'operator'];
+
+/** Route patterns as Astro spells its file routes: [param] for one segment, [...rest] for many. */
+export const API_POLICY: Record<string, RoutePolicy> = {
+  '/api/auth/[...all]': { methods: { '*': 'public' } },
+  '/api/health': { methods: { GET: 'public' } },
+  '/api/me': { methods: { GET: ANY_ROLE } },
+  '/api/admin/users': { methods: { GET: ADMIN, POST: ADMIN } },
+  '/api/admin/users/[userId]': { methods: { PATCH: ADMIN } },
+};
+
+/** Pages: the same rule, for GET. Pages not listed need a signed-in person of any role. */
+export const PAGE_POLICY: Record<string, Admit> = {
+  '/sign-in': 'public',
+  '/forgot-password': 'public',
+  '/set-password': 'public',
+  '/admin/users': ADMIN,
+};
+
+export { ADMIN, LEADS, UPLOADERS };
+
+interface Compiled {
+  pattern: string;
+  regex: RegExp;
+  specificity: number;
+}
+
+function compile(pattern: string): Compiled {
+  const parts = pattern.split('/').filter(Boolean);
+  let specificity = 0;
+  const body = parts
+    .map((p) => {
+      if (/^\[\.\.\.[^\]]+\]$/.test(p)) return '(?:/.*)?';
+      if (/^\[[^\]]+\]$/.test(p)) {
+        specificity += 1;
+        return '/[^/]+';
+      }
+      specificity += 10;
+      return '/' + p.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
+    })
+    .join('');
+  return { pattern, regex: new RegExp(`^${body}/?$`), specificity };
+}
+
+const compiledApi = Object.keys(API_POLICY)
+  .map(compile)
+  .sort((a, b) => b.specificity - a.specificity);
+const compiledPages = Object.keys(PAGE_POLICY)
+  .map(compile)
+  .sort((a, b) => b.specificity - a.specificity);
+
+/** The policy entry for an API path, or null when none matches (which the middleware refuses). */
+export function apiPolicyFor(pathname: string): { pattern: string; policy: RoutePolicy } | null {
+  const hit = compiledApi.find((c) => c.regex.test(pathname));
+  return hit ? { pattern: hit.pattern, policy: API_POLICY[hit.pattern]! } : null;
+}
+
+export function admitFor(policy: RoutePolicy, method: string): Admit | null {
+  const m = method.toUpperCase() as keyof RoutePolicy['methods'];
+  return policy.methods[m] ?? policy.methods['*'] ?? null;
+}
+
+export function pagePolicyFor(pathname: string): Admit {
+  const hit = compiledPages.find((c) => c.regex.test(pathname));
+  return hit ? PAGE_POLICY[hit.pattern]! : ANY_ROLE;
+}
+
+/** The outcome of a policy check, before any endpoint code runs. */
+export function decide(admit: Admit | null, role: Role | null): 'allow' | 401 | 403 | 405 {
+  if (admit === null) return 405;
+  if (admit === 'public') return 'allow';
+  if (!role) return 401;
+  return admit.includes(role) ? 'allow' : 403;
+}

@@ -1,0 +1,85 @@
+import { randomUUID } from 'node:crypto';
+import { and, asc, eq, ne, sql } from 'drizzle-orm';
+import { z } from 'zod';
+import { ROLES, type Role } from '../../lib/roles';
+import { auth } from '../auth';
+import { db } from '../db/client';
+import { invitations, session, user } from '../db/schema';
+
+export const InviteInput = z.object({
+  name: z.string().trim().min(1, 'Give the person a name.').max(120),
+  email: z.string().trim().toLowerCase().email('That does not look like an e-mail address.'),
+  role: z.enum(ROLES),
+});
+export const UpdateUserInput = z
+  .object({ role: z.enum(ROLES).optional(), deactivated: z.boolean().optional() })
+  .refine((v) => v.role !== undefined || v.deactivated !== undefined, 'Send a role, deactivated, or both.');
+
+export class UserRuleError extends Error {
+  constructor(readonly code: 'CONFLICT' | 'NOT_FOUND', message: string) {
+    super(message);
+  }
+}
+
+export async function listUsers() {
+  const rows = await db()
+    .select({
+      id: user.id,
+      name: user.name,
+      email: user.email,
+      role: user.role,
+      deactivated: user.deactivated,
+      createdAt: user.createdAt,
+      invitedAt: invitations.sentAt,
+      acceptedAt: invitations.acceptedAt,
+    })
+    .from(user)
+    .leftJoin(invitations, eq(invitations.userId, user.id))
+    .orderBy(asc(user.name));
+  return rows.map((r) => ({ ...r, pending: r.invitedAt !== null && r.acceptedAt === null }));
+}
+
+/**
+ * Invites a person: creates the account without a password and mails a link (a better-auth reset
+ * token) through which they set one. The e-mail goes to SMTP_URL (the local catcher here).
+ */
+export async function inviteUser(input: z.infer<typeof InviteInput>, invitedBy: string) {
+  const existing = await db().select({ id: user.id }).from(user).where(eq(user.email, input.email)).limit(1);
+  if (existing.length) throw new UserRuleError('CONFLICT', `${input.email} already has an account.`);
+  const id = randomUUID();
+  await db().transaction(async (tx) => {
+    await tx.insert(user).values({ id, name: input.name, email: input.email, role: input.role, emailVerified: false });
+    await tx.insert(invitations).values({ userId: id, invitedBy });
+  });
+  await auth().api.requestPasswordReset({ body: { email: input.email, redirectTo: '/set-password' } });
+  return { id };
+}
+
+async function adminCount(exceptUserId: string): Promise<number> {
+  const [row] = await db()
+    .select({ n: sql<number>`count(*)::int` })
+    .from(user)
+    .where(and(eq(user.role, 'admin'), eq(user.deactivated, false), ne(user.id, exceptUserId)));
+  return row?.n ?? 0;
+}
+
+/** Changes a role or (de)activates an account; deactivation ends the person's sessions at once. */
+export async function updateUser(userId: string, input: z.infer<typeof UpdateUserInput>, actingUserId: string) {
+  const [target] = await db().select().from(user).where(eq(user.id, userId)).limit(1);
+  if (!target) throw new UserRuleError('NOT_FOUND', 'No such account.');
+  const losesAdmin =
+    target.role === 'admin' && !target.deactivated && ((input.role && input.role !== 'admin') || input.deactivated === true);
+  if (losesAdmin && (await adminCount(userId)) === 0) {
+    throw new UserRuleError('CONFLICT', 'This is the last active admin: make someone else admin first.');
+  }
+  if (userId === actingUserId && input.deactivated) {
+    throw new UserRuleError('CONFLICT', 'You cannot deactivate your own account.');
+  }
+  const patch: Partial<{ role: Role; deactivated: boolean; updatedAt: Date }> = { updatedAt: new Date() };
+  if (input.role) patch.role = input.role;
+  if (input.deactivated !== undefined) patch.deactivated = input.deactivated;
+  await db().transaction(async (tx) => {
+    await tx.update(user).set(patch).where(eq(user.id, userId));
+    if (input.deactivated) await tx.delete(session).where(eq(session.userId, userId));
+  });
+}

@@ -1,0 +1,40 @@
+import { createHash, randomBytes } from 'node:crypto';
+import { and, eq, isNull } from 'drizzle-orm';
+import { isRole, type Role } from '../lib/roles';
+import { db } from './db/client';
+import { apiTokens } from './db/schema';
+
+const PREFIX = 'llt_';
+
+export function hashToken(secret: string): string {
+  return createHash('sha256').update(secret).digest('hex');
+}
+
+/** Issues a token for a site; the secret is returned once and only its hash is stored. */
+export async function issueApiToken(opts: { siteId: string; name: string; role: 'operator' | 'admin'; createdBy: string | null }) {
+  const secret = PREFIX + randomBytes(24).toString('base64url');
+  const [row] = await db()
+    .insert(apiTokens)
+    .values({ siteId: opts.siteId, name: opts.name, role: opts.role, createdBy: opts.createdBy, tokenHash: hashToken(secret), prefix: secret.slice(0, 10) })
+    .returning({ id: apiTokens.id });
+  return { id: row!.id, secret };
+}
+
+export async function revokeApiToken(id: string): Promise<boolean> {
+  const out = await db().update(apiTokens).set({ revokedAt: new Date() }).where(and(eq(apiTokens.id, id), isNull(apiTokens.revokedAt))).returning({ id: apiTokens.id });
+  return out.length > 0;
+}
+
+/** Resolves an Authorization header to a live token, or null. */
+export async function resolveApiToken(header: string | null): Promise<{ id: string; siteId: string; role: Role } | null> {
+  const m = header?.match(/^Bearer\s+(\S+)$/i);
+  if (!m || !m[1]!.startsWith(PREFIX)) return null;
+  const [row] = await db()
+    .select()
+    .from(apiTokens)
+    .where(and(eq(apiTokens.tokenHash, hashToken(m[1]!)), isNull(apiTokens.revokedAt)))
+    .limit(1);
+  if (!row) return null;
+  void db().update(apiTokens).set({ lastUsedAt: new Date() }).where(eq(apiTokens.id, row.id)).catch(() => undefined);
+  return { id: row.id, siteId: row.siteId, role: isRole(row.role) ? row.role : 'operator' };
+}

@@ -1,0 +1,30 @@
+/**
+ * The worker process: pg-boss job handlers that call src/lib and src/server. Started by
+ * docker-free-start.sh as `node --import tsx src/worker/main.ts`; SIGTERM stops it gracefully
+ * (the job in hand finishes or is left for retry).
+ */
+import { QUEUES, SendMailPayload } from '../jobs';
+import { closeDb } from '../server/db/client';
+import { sendMail } from '../server/mail';
+import { queue, stopQueue } from '../server/queue';
+import { registerHandlers } from './handlers';
+
+const boss = await queue();
+
+await boss.work(QUEUES.sendMail, { pollingIntervalSeconds: 1 }, async ([job]) => {
+  await sendMail(SendMailPayload.parse(job!.data));
+});
+await registerHandlers(boss);
+console.log('[worker] ready');
+
+let stopping = false;
+async function shutdown(signal: string) {
+  if (stopping) return;
+  stopping = true;
+  console.log(`[worker] ${signal}: stopping`);
+  await stopQueue();
+  await closeDb();
+  process.exit(0);
+}
+process.on('SIGTERM', () => void shutdown('SIGTERM'));
+process.on('SIGINT', () => void shutdown('SIGINT'));
