@@ -147,7 +147,7 @@ test_mode() {
   if [ -f dist/server/entry.mjs ]; then
     node --import tsx scripts/seed.ts
     spawn worker "$dir/worker.log" node --import tsx src/worker/main.ts
-    spawn web "$dir/web.log" node dist/server/entry.mjs
+    SIGN_IN_LIMIT_PER_MINUTE=60 spawn web "$dir/web.log" node dist/server/entry.mjs
     wait_port 4331 "The web server" "$dir/web.log"
     log "Playwright in Chromium"
     PLAYWRIGHT_JSON_OUTPUT_NAME="$dir/playwright.json" npx playwright test --reporter=list,json || failed=1

@@ -1,6 +1,7 @@
 import { APIError, betterAuth } from 'better-auth';
 import { drizzleAdapter } from 'better-auth/adapters/drizzle';
 import { eq } from 'drizzle-orm';
+import { CLIENT_IP_HEADER } from './client-ip';
 import { db } from './db/client';
 import * as schema from './db/schema';
 import { env } from './env';
@@ -79,7 +80,7 @@ function createAuth() {
       },
     },
     advanced: {
-      ipAddress: { ipAddressHeaders: ['x-forwarded-for', 'x-real-ip'] },
+      ipAddress: { ipAddressHeaders: [CLIENT_IP_HEADER] },
     },
     databaseHooks: {
       session: {

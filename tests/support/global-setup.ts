@@ -1,2 +1,16 @@
-// Replaced by the database setup once the foundation lands; pure tests need nothing.
-export default async function setup(): Promise<void> {}
+/**
+ * Runs once before the vitest suite. When a database is configured (docker-free-start.sh test starts
+ * a throwaway cluster and the fakes and exports their URLs), apply the migrations and seed the demo
+ * accounts, so integration tests run against a real PostgreSQL, S3 fake and SMTP catcher.
+ */
+export default async function setup(): Promise<void> {
+  if (!process.env.DATABASE_URL || !process.env.BETTER_AUTH_SECRET) return;
+  const { migrate } = await import('drizzle-orm/node-postgres/migrator');
+  const { db, closeDb } = await import('../../src/server/db/client');
+  await migrate(db(), { migrationsFolder: 'drizzle' });
+  const { seedAccounts } = await import('../../scripts/seed');
+  await seedAccounts();
+  const { ensureBucket } = await import('../../src/server/storage');
+  await ensureBucket();
+  await closeDb();
+}
