@@ -1,16 +1,12 @@
 import { sql } from 'drizzle-orm';
 import { index, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core';
 import { user } from './auth-schema';
+import { sites } from './plant-schema';
 
 export * from './auth-schema';
-
-/** A plant: its clock, its atmosphere and its dead state. Extended by the plant model. */
-export const sites = pgTable('sites', {
-  id: uuid('id').primaryKey().default(sql`gen_random_uuid()`),
-  name: text('name').notNull().unique(),
-  timeZone: text('time_zone').notNull().default('UTC'),
-  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
-});
+export * from './plant-schema';
+export * from './ingest-schema';
+export * from './results-schema';
 
 /** Invitations sent by admins; the link itself is a better-auth password-reset token. */
 export const invitations = pgTable(
