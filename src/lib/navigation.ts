@@ -12,6 +12,9 @@ export interface NavItem {
 
 export const NAV: readonly NavItem[] = [
   { href: '/', label: 'Overview', roles: ['admin', 'energy-lead', 'operator', 'planner'] },
+  // --- ingest ---
+  // --- plant model ---
+  // --- engine and insight ---
   { href: '/admin/users', label: 'People', roles: ['admin'] },
 ];
 

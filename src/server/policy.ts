@@ -26,6 +26,9 @@ export const API_POLICY: Record<string, RoutePolicy> = {
   '/api/me': { methods: { GET: ANY_ROLE } },
   '/api/admin/users': { methods: { GET: ADMIN, POST: ADMIN } },
   '/api/admin/users/[userId]': { methods: { PATCH: ADMIN } },
+  // --- ingest (uploads, API tokens, tag hours) ---
+  // --- plant model ---
+  // --- engine and insight ---
 };
 
 /** Pages: the same rule, for GET. Pages not listed need a signed-in person of any role. */
@@ -34,6 +37,9 @@ export const PAGE_POLICY: Record<string, Admit> = {
   '/forgot-password': 'public',
   '/set-password': 'public',
   '/admin/users': ADMIN,
+  // --- ingest ---
+  // --- plant model ---
+  // --- engine and insight ---
 };
 
 export { ADMIN, LEADS, UPLOADERS };
