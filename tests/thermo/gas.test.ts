@@ -304,3 +304,10 @@ describe('coefficient blocks', () => {
     expectClose(s0Molar('SO2', 298.15), 248.22, { rtol: 1e-3 });
   });
 });
+
+describe('gas constant', () => {
+  it('SI Brochure 9th ed. (2019), exact: R = N_A k = 6.02214076e23 * 1.380649e-23 J/(mol K) (CODATA 2018)', () => {
+    expectClose(R_J_per_molK, 6.02214076e23 * 1.380649e-23, { rtol: 1e-15 });
+    expectClose(R_J_per_molK, 8.314462618, { rtol: 1e-10 }); // as printed by CODATA 2018
+  });
+});

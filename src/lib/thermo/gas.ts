@@ -5,7 +5,7 @@
  * Enthalpies are absolute in the NASA sense: h(298.15 K) equals the enthalpy of formation from the
  * reference elements, so reacting balances close without extra bookkeeping.
  *
- * Gas constant: CODATA 2018 exact value R = 8.314462618 J/(mol K). The NASA computed check values
+ * Gas constant: the exact SI value R = N_A k = 8.31446261815324 J/(mol K) (CODATA 2018: 8.314462618). The NASA computed check values
  * in docs/reference/check-values.md were evaluated with R = 8.314472 J/(mol K); the relative
  * difference (1.1e-6) is far below the printed digits of those tables.
  *
@@ -14,8 +14,8 @@
 import { NoConvergenceError, ThermoRangeError, requireRange } from './errors';
 import { NASA_SPECIES, type Element, type NasaRange, type NasaSpeciesData } from './species-data';
 
-/** Molar gas constant [J/(mol K)], CODATA 2018 (exact). */
-export const R_J_per_molK = 8.314462618;
+/** Molar gas constant [J/(mol K)]: exact since the 2019 SI, N_A k = 8.314 462 618 153 24 (CODATA 2018 prints 8.314462618). */
+export const R_J_per_molK = 8.31446261815324;
 /** Standard-state (reference) pressure of the NASA data and of the mixture entropy [Pa]. */
 export const P_REF_Pa = 1e5;
 /** Reference temperature of formation enthalpies [K]. */
