@@ -1,0 +1,224 @@
+/**
+ * Drift detection on baseline residuals: tabular CUSUM and EWMA, both streaming (state in, state
+ * out), so the server can continue hour by hour from a saved state.
+ *
+ * Inputs are usually normalised residuals r = (y - yhat) / s of steady hours (mu0 = 0, sigma = 1,
+ * the defaults); mu0 and sigma may be given to run the charts on raw values.
+ *
+ * CUSUM (tabular form):  C+_i = max(0, x_i - (mu0 + K) + C+_{i-1}),  C-_i = max(0, (mu0 - K) - x_i + C-_{i-1}),
+ * K = k sigma, signal when C > H = h sigma. Defaults k = 0.5, h = 5 (docs/domain.md section 7:
+ * typical k = 0.5 sigma, h = 4-5 sigma). On a signal, the onset estimate is the step after the last
+ * step at which C was zero, and the shifted mean is estimated as mu0 + K + C+/N+ (up) or
+ * mu0 - K - C-/N- (down), N the number of consecutive steps with C > 0.
+ *
+ * EWMA:  z_i = lambda x_i + (1 - lambda) z_{i-1}, z_0 = mu0, with exact time-varying limits
+ * mu0 +- L sigma sqrt(lambda / (2 - lambda) (1 - (1 - lambda)^(2i))). Defaults lambda = 0.2, L = 3.
+ *
+ * Steps are numbered from 1 (the first observation is step 1). A non-finite x (an hour that was not
+ * steady) is counted as a step but leaves the statistics unchanged and is marked `skipped`.
+ *
+ * @see E. S. Page, "Continuous inspection schemes", Biometrika 41 (1954) 100-115.
+ * @see S. W. Roberts, "Control chart tests based on geometric moving averages", Technometrics 1 (1959) 239-250.
+ * @see D. C. Montgomery, Introduction to Statistical Quality Control, 6th ed. (Wiley, 2009), 9.1 (tabular
+ *      CUSUM, Example 9.1) and 9.2 (EWMA).
+ */
+
+export interface CusumOptions {
+  /** Reference value k in units of sigma [-]; default 0.5. */
+  k?: number;
+  /** Decision interval h in units of sigma [-]; default 5. */
+  h?: number;
+  /** In-control mean [x]; default 0. */
+  mu0?: number;
+  /** Standard deviation of x in control [x]; default 1. */
+  sigma?: number;
+  /** Restart C+ and C- at zero after a signal (after the cause has been dealt with); default false. */
+  resetOnSignal?: boolean;
+}
+
+/** Saved CUSUM state (JSON-friendly). */
+export interface CusumState {
+  /** Number of observations processed so far. */
+  step: number;
+  cPlus: number;
+  cMinus: number;
+  /** Consecutive steps with C+ > 0 (N+ in Montgomery's notation). */
+  nPlus: number;
+  nMinus: number;
+}
+
+export interface DriftSignal {
+  direction: 'up' | 'down';
+  /** Step at which the statistic first exceeded the decision interval. */
+  step: number;
+  /** Estimated first step of the shift (the step after C was last zero). */
+  onsetStep: number;
+  /** Estimated mean after the shift [x]. */
+  shiftedMean: number;
+  /** Estimated shift from mu0 in units of sigma [-] (signed). */
+  shift_sigma: number;
+}
+
+export interface CusumPoint {
+  step: number;
+  x: number;
+  cPlus: number;
+  cMinus: number;
+  nPlus: number;
+  nMinus: number;
+  skipped: boolean;
+  /** Signals raised at this step (a crossing of H upward by C+ or C-). */
+  signals: DriftSignal[];
+}
+
+/** A fresh CUSUM state (no observations yet). */
+export function cusumInit(): CusumState {
+  return { step: 0, cPlus: 0, cMinus: 0, nPlus: 0, nMinus: 0 };
+}
+
+function cusumParams(o: CusumOptions) {
+  const k = o.k ?? 0.5;
+  const h = o.h ?? 5;
+  const mu0 = o.mu0 ?? 0;
+  const sigma = o.sigma ?? 1;
+  if (!(k >= 0) || !(h > 0) || !(sigma > 0) || !Number.isFinite(mu0)) {
+    throw new RangeError(`CUSUM needs k >= 0, h > 0, sigma > 0 and finite mu0 (got k = ${k}, h = ${h}, sigma = ${sigma}, mu0 = ${mu0})`);
+  }
+  return { K: k * sigma, H: h * sigma, mu0, sigma, reset: o.resetOnSignal ?? false };
+}
+
+/**
+ * One CUSUM step.
+ * @param state state after the previous step (not modified)
+ * @param x new observation [x] (normalised residual by default)
+ * @param options k, h [-]; mu0, sigma [x]
+ * @returns the new state and the point for this step, with any signal
+ */
+export function cusumStep(state: CusumState, x: number, options: CusumOptions = {}): { state: CusumState; point: CusumPoint } {
+  const { K, H, mu0, sigma, reset } = cusumParams(options);
+  const step = state.step + 1;
+  if (!Number.isFinite(x)) {
+    const next = { ...state, step };
+    return { state: next, point: { step, x, cPlus: state.cPlus, cMinus: state.cMinus, nPlus: state.nPlus, nMinus: state.nMinus, skipped: true, signals: [] } };
+  }
+  const cPlus = Math.max(0, x - (mu0 + K) + state.cPlus);
+  const cMinus = Math.max(0, mu0 - K - x + state.cMinus);
+  const nPlus = cPlus > 0 ? state.nPlus + 1 : 0;
+  const nMinus = cMinus > 0 ? state.nMinus + 1 : 0;
+  const signals: DriftSignal[] = [];
+  if (cPlus > H && !(state.cPlus > H)) {
+    const shiftedMean = mu0 + K + cPlus / nPlus;
+    signals.push({ direction: 'up', step, onsetStep: step - nPlus + 1, shiftedMean, shift_sigma: (shiftedMean - mu0) / sigma });
+  }
+  if (cMinus > H && !(state.cMinus > H)) {
+    const shiftedMean = mu0 - K - cMinus / nMinus;
+    signals.push({ direction: 'down', step, onsetStep: step - nMinus + 1, shiftedMean, shift_sigma: (shiftedMean - mu0) / sigma });
+  }
+  const point: CusumPoint = { step, x, cPlus, cMinus, nPlus, nMinus, skipped: false, signals };
+  const next: CusumState =
+    reset && signals.length > 0 ? { step, cPlus: 0, cMinus: 0, nPlus: 0, nMinus: 0 } : { step, cPlus, cMinus, nPlus, nMinus };
+  return { state: next, point };
+}
+
+/**
+ * Runs CUSUM over a sequence, continuing from a saved state.
+ * @param xs observations [x]
+ * @param options k, h [-]; mu0, sigma [x]
+ * @param state saved state (default: fresh)
+ */
+export function cusumRun(
+  xs: ArrayLike<number>,
+  options: CusumOptions = {},
+  state: CusumState = cusumInit(),
+): { points: CusumPoint[]; signals: DriftSignal[]; state: CusumState } {
+  const points: CusumPoint[] = [];
+  let s = state;
+  for (let i = 0; i < xs.length; i++) {
+    const r = cusumStep(s, xs[i], options);
+    s = r.state;
+    points.push(r.point);
+  }
+  return { points, signals: points.flatMap((p) => p.signals), state: s };
+}
+
+export interface EwmaOptions {
+  /** Smoothing weight lambda, 0 < lambda <= 1 [-]; default 0.2. */
+  lambda?: number;
+  /** Width of the limits in sigma of the EWMA statistic [-]; default 3. */
+  L?: number;
+  /** In-control mean [x]; default 0. */
+  mu0?: number;
+  /** Standard deviation of x in control [x]; default 1. */
+  sigma?: number;
+}
+
+/** Saved EWMA state (JSON-friendly). `steps` counts the observations that updated z (for the limits). */
+export interface EwmaState {
+  step: number;
+  /** Updates of z so far (skipped steps excluded); enters the exact limits. */
+  updates: number;
+  z: number;
+}
+
+export interface EwmaPoint {
+  step: number;
+  x: number;
+  z: number;
+  lcl: number;
+  ucl: number;
+  skipped: boolean;
+  /** 'up' above the upper limit, 'down' below the lower one, else null. */
+  signal: 'up' | 'down' | null;
+}
+
+/** A fresh EWMA state: z_0 = mu0. */
+export function ewmaInit(options: EwmaOptions = {}): EwmaState {
+  return { step: 0, updates: 0, z: options.mu0 ?? 0 };
+}
+
+/**
+ * One EWMA step with exact time-varying limits.
+ * @param state state after the previous step (not modified)
+ * @param x new observation [x]
+ * @param options lambda, L [-]; mu0, sigma [x]
+ */
+export function ewmaStep(state: EwmaState, x: number, options: EwmaOptions = {}): { state: EwmaState; point: EwmaPoint } {
+  const lambda = options.lambda ?? 0.2;
+  const L = options.L ?? 3;
+  const mu0 = options.mu0 ?? 0;
+  const sigma = options.sigma ?? 1;
+  if (!(lambda > 0 && lambda <= 1) || !(L > 0) || !(sigma > 0)) {
+    throw new RangeError(`EWMA needs 0 < lambda <= 1, L > 0, sigma > 0 (got lambda = ${lambda}, L = ${L}, sigma = ${sigma})`);
+  }
+  const step = state.step + 1;
+  const skipped = !Number.isFinite(x);
+  const updates = skipped ? state.updates : state.updates + 1;
+  const z = skipped ? state.z : lambda * x + (1 - lambda) * state.z;
+  const i = Math.max(updates, 1);
+  const w = L * sigma * Math.sqrt((lambda / (2 - lambda)) * (1 - (1 - lambda) ** (2 * i)));
+  const lcl = mu0 - w;
+  const ucl = mu0 + w;
+  const signal = skipped ? null : z > ucl ? 'up' : z < lcl ? 'down' : null;
+  return { state: { step, updates, z }, point: { step, x, z, lcl, ucl, skipped, signal } };
+}
+
+/**
+ * Runs EWMA over a sequence, continuing from a saved state.
+ * @param xs observations [x]
+ * @param options lambda, L [-]; mu0, sigma [x]
+ * @param state saved state (default: fresh, z_0 = mu0)
+ */
+export function ewmaRun(
+  xs: ArrayLike<number>,
+  options: EwmaOptions = {},
+  state: EwmaState = ewmaInit(options),
+): { points: EwmaPoint[]; state: EwmaState } {
+  const points: EwmaPoint[] = [];
+  let s = state;
+  for (let i = 0; i < xs.length; i++) {
+    const r = ewmaStep(s, xs[i], options);
+    s = r.state;
+    points.push(r.point);
+  }
+  return { points, state: s };
+}

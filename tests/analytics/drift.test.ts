@@ -1,0 +1,115 @@
+import { describe, expect, it } from 'vitest';
+import { expectClose } from '../support/expect-close';
+import { cusumInit, cusumRun, cusumStep, ewmaInit, ewmaRun, ewmaStep } from '../../src/lib/analytics/drift';
+
+// From memory: Montgomery ISQC 6th ed. Example 9.1 (and Table 9.1): 30 observations, the first 20
+// from N(10, 1), the last 10 from N(11, 1); mu0 = 10, sigma = 1, k = 0.5, h = 5.
+const MONTGOMERY_9_1 = [
+  9.45, 7.99, 9.29, 11.66, 12.16, 10.18, 8.04, 11.46, 9.2, 10.34, 9.03, 11.47, 10.51, 9.4, 10.08, 9.37, 10.62, 10.31,
+  8.52, 10.84, 10.9, 9.33, 12.29, 11.5, 10.6, 11.08, 10.38, 11.62, 11.31, 10.52,
+];
+const SRC_9_1 = 'from memory: Montgomery ISQC 6th ed. Example 9.1';
+
+describe('tabular CUSUM', () => {
+  it(`${SRC_9_1}: first signal at observation 29, C+ = 5.28, N+ = 7, shift after 22, mean 11.25`, () => {
+    const run = cusumRun(MONTGOMERY_9_1, { mu0: 10, sigma: 1, k: 0.5, h: 5 });
+    expect(run.signals).toHaveLength(1);
+    const s = run.signals[0];
+    expect(s.direction).toBe('up');
+    expect(s.step).toBe(29);
+    expect(s.onsetStep).toBe(23); // the process shifted after period 22
+    expectClose(run.points[28].cPlus, 5.28, { atol: 0.005 }); // printed to 2 decimals
+    expect(run.points[28].nPlus).toBe(7);
+    expectClose(s.shiftedMean, 11.25, { atol: 0.005 }); // 10 + 0.5 + 5.28/7
+    expectClose(s.shift_sigma, 1.25, { atol: 0.005 });
+    // the lower side never comes near H
+    expect(Math.max(...run.points.map((p) => p.cMinus))).toBeLessThan(2);
+  });
+
+  it(`${SRC_9_1} mirrored about mu0: the lower CUSUM signals at 29 with mean 8.75 (self-consistency)`, () => {
+    const run = cusumRun(
+      MONTGOMERY_9_1.map((x) => 20 - x),
+      { mu0: 10, sigma: 1 },
+    );
+    expect(run.signals.map((s) => [s.direction, s.step, s.onsetStep])).toEqual([['down', 29, 23]]);
+    expectClose(run.signals[0].shiftedMean, 8.75, { atol: 0.005 });
+  });
+
+  it('hand-worked normalised residuals, k = 0.5, h = 4: every C+ value', () => {
+    // x:   0     1     2     3     2.5   2
+    // C+1 = max(0, 0   - 0.5 + 0  ) = 0      N+ = 0
+    // C+2 = max(0, 1   - 0.5 + 0  ) = 0.5    N+ = 1
+    // C+3 = max(0, 2   - 0.5 + 0.5) = 2.0    N+ = 2
+    // C+4 = max(0, 3   - 0.5 + 2.0) = 4.5    N+ = 3  > h = 4: signal; onset 4 - 3 + 1 = 2; shift 0.5 + 4.5/3 = 2.0
+    // C+5 = max(0, 2.5 - 0.5 + 4.5) = 6.5    N+ = 4  (still above h: no new signal)
+    // C+6 = max(0, 2   - 0.5 + 6.5) = 8.0    N+ = 5
+    // C- stays 0: every -x - 0.5 is negative.
+    const run = cusumRun([0, 1, 2, 3, 2.5, 2], { k: 0.5, h: 4 });
+    expect(run.points.map((p) => p.cPlus)).toEqual([0, 0.5, 2, 4.5, 6.5, 8]);
+    expect(run.points.map((p) => p.nPlus)).toEqual([0, 1, 2, 3, 4, 5]);
+    expect(run.points.map((p) => p.cMinus)).toEqual([0, 0, 0, 0, 0, 0]);
+    expect(run.signals).toEqual([{ direction: 'up', step: 4, onsetStep: 2, shiftedMean: 2, shift_sigma: 2 }]);
+  });
+
+  it('self-consistency: streaming in two parts through a saved JSON state equals one run', () => {
+    const whole = cusumRun(MONTGOMERY_9_1, { mu0: 10 });
+    const first = cusumRun(MONTGOMERY_9_1.slice(0, 17), { mu0: 10 });
+    const saved = JSON.parse(JSON.stringify(first.state));
+    const second = cusumRun(MONTGOMERY_9_1.slice(17), { mu0: 10 }, saved);
+    expect([...first.points, ...second.points]).toEqual(whole.points);
+    expect(second.state).toEqual(whole.state);
+  });
+
+  it('self-consistency: a non-steady hour (NaN) is counted but leaves C unchanged; reset after a signal', () => {
+    const a = cusumStep(cusumInit(), 2);
+    const b = cusumStep(a.state, NaN);
+    expect(b.point.skipped).toBe(true);
+    expect(b.state).toEqual({ ...a.state, step: 2 });
+    const r = cusumRun([3, 3, 3], { h: 4, resetOnSignal: true });
+    // C+ = 2.5, 5.0 (signal, then reset), 2.5
+    expect(r.points.map((p) => p.cPlus)).toEqual([2.5, 5, 2.5]);
+    expect(r.state.cPlus).toBe(2.5);
+    expect(() => cusumStep(cusumInit(), 1, { h: 0 })).toThrow(/h > 0/);
+  });
+});
+
+describe('EWMA with exact limits', () => {
+  it('hand-worked, lambda = 0.2, L = 3, mu0 = 0, sigma = 1', () => {
+    // z_i = 0.2 x_i + 0.8 z_{i-1};  w_i = 3 sqrt(0.2/1.8 (1 - 0.8^(2i)))
+    // i=1 x=1:  z = 0.2                      w = 3 sqrt(0.111111 x 0.36)       = 0.6
+    // i=2 x=-1: z = -0.2 + 0.16   = -0.04    w = 3 sqrt(0.111111 x 0.5904)     = 0.768375
+    // i=3 x=2:  z = 0.4 - 0.032   = 0.368    w = 3 sqrt(0.111111 x 0.737856)   = 0.858986
+    // i=4 x=3:  z = 0.6 + 0.2944  = 0.8944   w = 3 sqrt(0.111111 x 0.83222784) = 0.912265
+    // i=5 x=3:  z = 0.6 + 0.71552 = 1.31552  w = 3 sqrt(0.111111 x 0.89262582) = 0.944789 -> signal up
+    const run = ewmaRun([1, -1, 2, 3, 3]);
+    const z = [0.2, -0.04, 0.368, 0.8944, 1.31552];
+    const w = [0.6, 0.768375, 0.858986, 0.912265, 0.944789];
+    run.points.forEach((p, i) => {
+      expectClose(p.z, z[i], { rtol: 1e-12, label: `z${i + 1}` });
+      expectClose(p.ucl, w[i], { rtol: 1e-6, label: `ucl${i + 1}` });
+      expectClose(p.lcl, -w[i], { rtol: 1e-6, label: `lcl${i + 1}` });
+    });
+    expect(run.points.map((p) => p.signal)).toEqual([null, null, null, null, 'up']);
+  });
+
+  it('from memory: Montgomery ISQC 6th ed. Example 9.2 (lambda = 0.1, L = 2.7): z1 = 9.945, UCL1 = 10.27; z2 = 9.7495, UCL2 = 10.36', () => {
+    const run = ewmaRun(MONTGOMERY_9_1, { lambda: 0.1, L: 2.7, mu0: 10, sigma: 1 });
+    expectClose(run.points[0].z, 9.945, { rtol: 1e-12 });
+    expectClose(run.points[0].ucl, 10.27, { atol: 0.005 });
+    expectClose(run.points[1].z, 9.7495, { rtol: 1e-12 });
+    expectClose(run.points[1].ucl, 10.36, { atol: 0.005 });
+  });
+
+  it('self-consistency: limits approach the asymptote L sigma sqrt(lambda/(2 - lambda)); streaming equals one run', () => {
+    const xs = Array.from({ length: 200 }, (_, i) => Math.sin(i) * 0.5);
+    const whole = ewmaRun(xs);
+    expectClose(whole.points[199].ucl, 3 * Math.sqrt(0.2 / 1.8), { rtol: 1e-12 });
+    const a = ewmaRun(xs.slice(0, 50));
+    const b = ewmaRun(xs.slice(50), {}, JSON.parse(JSON.stringify(a.state)));
+    expect([...a.points, ...b.points]).toEqual(whole.points);
+    const skip = ewmaStep(ewmaInit(), NaN);
+    expect(skip.point.skipped).toBe(true);
+    expect(skip.state.z).toBe(0);
+    expect(() => ewmaStep(ewmaInit(), 1, { lambda: 0 })).toThrow(/lambda/);
+  });
+});
