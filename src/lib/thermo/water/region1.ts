@@ -65,7 +65,7 @@ export const TSTAR1_K = 1386;
 export function h1(p_Pa: number, T_K: number): number {
   const tau = TSTAR1_K / T_K;
   gibbs1(p_Pa / PSTAR1_PA, tau);
-  return R * TSTAR1_K * G1[3];
+  return R * T_K * tau * G1[3]; // same expression as props1, so both agree to the bit
 }
 
 /** Specific entropy [J/(kg K)] in region 1 at p [Pa], T [K]; no range check. */
@@ -77,8 +77,7 @@ export function s1(p_Pa: number, T_K: number): number {
 
 /** Specific volume [m3/kg] in region 1 at p [Pa], T [K]; no range check. */
 export function v1(p_Pa: number, T_K: number): number {
-  const pi = p_Pa / PSTAR1_PA;
-  gibbs1(pi, TSTAR1_K / T_K);
+  gibbs1(p_Pa / PSTAR1_PA, TSTAR1_K / T_K);
   return (R * T_K * G1[1]) / PSTAR1_PA;
 }
 

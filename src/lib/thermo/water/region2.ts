@@ -91,7 +91,7 @@ export function gibbs2(pi: number, tau: number): void {
 export function h2(p_Pa: number, T_K: number): number {
   const tau = TSTAR2_K / T_K;
   gibbs2(p_Pa / PSTAR2_PA, tau);
-  return R * TSTAR2_K * (G2[1] + G2[6]);
+  return R * T_K * tau * (G2[1] + G2[6]); // same expression as props2
 }
 
 /** Specific entropy [J/(kg K)] in region 2 at p [Pa], T [K]; no range check. */

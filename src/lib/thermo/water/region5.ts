@@ -76,8 +76,9 @@ export function gibbs5(pi: number, tau: number): void {
 
 /** Specific enthalpy [J/kg] in region 5 at p [Pa], T [K]; no range check. */
 export function h5(p_Pa: number, T_K: number): number {
-  gibbs5(p_Pa / PSTAR5_PA, TSTAR5_K / T_K);
-  return R * TSTAR5_K * (G5[1] + G5[6]);
+  const tau = TSTAR5_K / T_K;
+  gibbs5(p_Pa / PSTAR5_PA, tau);
+  return R * T_K * tau * (G5[1] + G5[6]); // same expression as props5
 }
 
 /** Specific entropy [J/(kg K)] in region 5 at p [Pa], T [K]; no range check. */

@@ -103,7 +103,8 @@ export function rho3_pT(p_Pa: number, T_K: number, rho0: number, side: 1 | -1 = 
     const dfd = delta * F3[1];
     F = rho * RT * dfd - p_Pa;
     const dp = RT * (2 * dfd + delta * delta * F3[2]);
-    if (F === 0 || Math.abs(F) <= 1e-15 * p_Pa) return rho;
+    // rounding noise of p is a few 1e-16 p; near the critical point (dp/drho -> 0) it limits rho
+    if (F === 0 || Math.abs(F) <= 1e-15 * p_Pa || (it >= 50 && Math.abs(F) <= 1e-12 * p_Pa)) return rho;
     let next: number;
     if (dp > 0) {
       if (F < 0) lo = Math.max(lo, rho);
@@ -151,21 +152,56 @@ function propsPT(p_Pa: number, T_K: number): 1 | 2 | 3 | 5 {
 let satKeyP = NaN;
 let satKeyT = NaN;
 
-/** Fills LIQ and VAP with the saturated liquid and vapour at p = psat(T) [Pa], T [K]. */
+/**
+ * Width [K] of the band below the critical temperature in which the saturated phases are scaled
+ * toward the critical point instead of solved. Within about 5e-5 K of Tc the region 3 isotherm
+ * at p = psat(T) has no vapour root at all (IF97's region 3 and saturation equations meet the
+ * critical point only within their tolerances), and just outside that the two roots are too close
+ * to separate reliably, so inside the band each saturated property y follows
+ * y = y_c + (y(Tb) - y_c) sqrt((Tc - T)/(Tc - Tb)) with Tb = Tc - 10 mK (the mean-field shape of
+ * an analytic equation of state near its critical point); cp and w are NaN there.
+ */
+const T_BAND_K = 0.01;
+const BAND_LIQ = new Float64Array(13);
+const BAND_VAP = new Float64Array(13);
+const CRIT = new Float64Array(13);
+let bandReady = false;
+
+/** Saturated liquid and vapour densities of region 3 at T [K], p = psat(T) [Pa], into liq/vap. */
+function sat3(p_Pa: number, T_K: number, liq: Float64Array, vap: Float64Array): void {
+  const rl = rho3_pT(p_Pa, T_K, 1 / v3SatBackward(p_Pa, T_K, 0), 1);
+  const rv = rho3_pT(p_Pa, T_K, 1 / v3SatBackward(p_Pa, T_K, 1), -1);
+  if (!(rl > RHOC_KG_PER_M3 && rv < RHOC_KG_PER_M3)) {
+    throw new NoConvergenceError(`saturated densities at T_K = ${T_K} (liquid ${rl}, vapour ${rv})`, 0, rl - rv);
+  }
+  props3(rl, T_K, liq);
+  props3(rv, T_K, vap);
+}
+
+/** Fills LIQ and VAP with the saturated liquid and vapour at p = psat(T) [Pa], T = Tsat(p) [K]. */
 function satProps(p_Pa: number, T_K: number): void {
   if (p_Pa === satKeyP && T_K === satKeyT) return;
-  if (T_K <= T_13_K) {
+  if (p_Pa <= P_SAT_623_PA) {
     props1(p_Pa, T_K, LIQ);
     props2(p_Pa, T_K, VAP);
-  } else if (T_K >= TC_K || p_Pa >= PC_PA) {
-    props3(RHOC_KG_PER_M3, TC_K, LIQ);
-    VAP.set(LIQ);
+  } else if (TC_K - T_K >= T_BAND_K) {
+    sat3(p_Pa, T_K, LIQ, VAP);
   } else {
-    const rl = rho3_pT(p_Pa, T_K, 1 / v3SatBackward(p_Pa, T_K, 0), 1);
-    const rv = rho3_pT(p_Pa, T_K, 1 / v3SatBackward(p_Pa, T_K, 1), -1);
-    if (!(rl > rv)) throw new NoConvergenceError(`saturated densities at T_K = ${T_K} (liquid ${rl}, vapour ${rv})`, 0, rl - rv);
-    props3(rl, T_K, LIQ);
-    props3(rv, T_K, VAP);
+    if (!bandReady) {
+      const Tb = TC_K - T_BAND_K;
+      sat3(psatRaw(Tb), Tb, BAND_LIQ, BAND_VAP);
+      props3(RHOC_KG_PER_M3, TC_K, CRIT);
+      bandReady = true;
+    }
+    const f = T_K >= TC_K ? 0 : Math.sqrt((TC_K - T_K) / T_BAND_K);
+    for (let k = 0; k < 6; k++) {
+      LIQ[k] = CRIT[k] + f * (BAND_LIQ[k] - CRIT[k]);
+      VAP[k] = CRIT[k] + f * (BAND_VAP[k] - CRIT[k]);
+    }
+    // v is scaled through density, the variable in which the coexistence curve is symmetric
+    LIQ[2] = 1 / (RHOC_KG_PER_M3 + f * (1 / BAND_LIQ[2] - RHOC_KG_PER_M3));
+    VAP[2] = 1 / (RHOC_KG_PER_M3 + f * (1 / BAND_VAP[2] - RHOC_KG_PER_M3));
+    LIQ[3] = LIQ[4] = VAP[3] = VAP[4] = NaN;
   }
   satKeyP = p_Pa;
   satKeyT = T_K;
@@ -193,6 +229,11 @@ type Props = (p_Pa: number, T_K: number, out: Float64Array) => void;
 const IDX_H = 0;
 const IDX_S = 1;
 
+/** Converged when |h - target| <= 1e-13 (|h| + 100 kJ/kg), or likewise for s with 100 J/(kg K). */
+function residualTol(target: number, idx: number): number {
+  return 1e-13 * (Math.abs(target) + (idx === IDX_H ? 1e5 : 1e2));
+}
+
 /**
  * Newton iteration on T at constant p of the forward equation `fn` (region 1, 2 or 5) so that
  * property `idx` (h or s) equals `target`, bracketed by [lo, hi]; leaves OUT at the returned T.
@@ -200,16 +241,17 @@ const IDX_S = 1;
 function solveT(fn: Props, p: number, target: number, idx: number, T0: number, lo: number, hi: number): number {
   let T = T0 >= lo && T0 <= hi ? T0 : 0.5 * (lo + hi);
   let F = NaN;
+  const tol = residualTol(target, idx);
   for (let it = 0; it < 100; it++) {
     fn(p, T, OUT);
     F = OUT[idx] - target;
-    if (F === 0) return T;
+    if (Math.abs(F) <= tol) return T;
     if (F < 0) lo = T;
     else hi = T;
     const d = idx === IDX_H ? OUT[3] : OUT[3] / T;
     let next = T - F / d;
     if (!(next >= lo && next <= hi)) next = 0.5 * (lo + hi);
-    if (Math.abs(next - T) <= 1e-12 * T) return T;
+    if (Math.abs(next - T) <= 2e-15 * T) return T; // T resolved to its last bits
     T = next;
   }
   throw new NoConvergenceError(`IF97 T at p_Pa = ${p} for ${idx === IDX_H ? 'h' : 's'} = ${target}`, 100, F);
@@ -220,18 +262,19 @@ function solveT3(p: number, target: number, idx: number, T0: number, v0: number,
   let T = T0 >= lo && T0 <= hi ? T0 : 0.5 * (lo + hi);
   let rho = NaN;
   let F = NaN;
+  const tol = residualTol(target, idx);
   const vGuess = v0 > 0 ? v0 : v3Backward(p, T);
   for (let it = 0; it < 200; it++) {
     rho = it === 0 ? rho3_pT(p, T, 1 / vGuess, 1 / vGuess >= RHOC_KG_PER_M3 ? 1 : -1) : rho3_pT(p, T, rho);
     props3(rho, T, OUT);
     F = OUT[idx] - target;
-    if (F === 0) return T;
+    if (Math.abs(F) <= tol) return T;
     if (F < 0) lo = T;
     else hi = T;
     const d = idx === IDX_H ? OUT[3] : OUT[3] / T;
     let next = T - F / d;
     if (!(next >= lo && next <= hi)) next = 0.5 * (lo + hi);
-    if (Math.abs(next - T) <= 1e-12 * T) return T;
+    if (Math.abs(next - T) <= 2e-15 * T) return T; // T resolved to its last bits
     // a large jump restarts the density from the backward equation on the right side
     if (Math.abs(next - T) > 2) rho = 1 / v3Backward(p, next);
     T = next;
@@ -255,16 +298,27 @@ function solvePY(p: number, y: number, idx: number, ctx: string): WaterRegion {
   const at1 = isH ? h1 : s1;
   const at2 = isH ? h2 : s2;
   const at5 = isH ? h5 : s5;
+  // Bounds get a slack of 1e-9 of (|bound| + 1 kJ/kg or 1 J/(kg K)) so that a value computed at
+  // a corner of the range (e.g. s at 273.15 K) is not refused for its last rounding bits.
+  const slack = (b: number): number => 1e-9 * (Math.abs(b) + (isH ? 1e3 : 1));
   const low = (): number => (p >= P_SAT_MIN_PA ? at1(p, T_MIN_K) : at2(p, T_MIN_K));
   const high = (): number => (p <= P_MAX_R5_PA ? at5(p, T_MAX_K) : at2(p, T_25_K));
+  const below = (b: number): boolean => y < b - slack(b);
+  const above = (b: number): boolean => y > b + slack(b);
   const fail = (): ThermoRangeError => rangeErrorPX(name, y, low(), high(), unit, p, ctx);
   resX = NaN;
   if (!Number.isFinite(y)) throw fail();
 
   // region 5 above the 1073.15 K isotherm
+  // ties at a region boundary (within rounding) go to the lower region, as in water.pt
   const y25 = at2(p, T_25_K);
-  if (y > y25) {
-    if (p > P_MAX_R5_PA || y > at5(p, T_MAX_K)) throw fail();
+  if (above(y25)) {
+    if (p > P_MAX_R5_PA ? above(y25) : above(at5(p, T_MAX_K))) throw fail();
+    if (p > P_MAX_R5_PA) {
+      resT = T_25_K;
+      props2(p, T_25_K, OUT);
+      return 2;
+    }
     const T0 = isH ? T_25_K + (y - y25) / 2300 : T_25_K * Math.exp((y - y25) / 2300);
     resT = solveT(props5, p, y, idx, T0, T_25_K, T_MAX_K);
     return 5;
@@ -273,7 +327,7 @@ function solvePY(p: number, y: number, idx: number, ctx: string): WaterRegion {
   const T1guess = (): number => (isH ? T1_ph(p, y) : T1_ps(p, y));
 
   if (p < P_SAT_MIN_PA) {
-    if (y < at2(p, T_MIN_K)) throw fail();
+    if (below(at2(p, T_MIN_K))) throw fail();
     resT = solveT(props2, p, y, idx, T2guess(), T_MIN_K, T_25_K);
     return 2;
   }
@@ -281,7 +335,7 @@ function solvePY(p: number, y: number, idx: number, ctx: string): WaterRegion {
     const Ts = tsatRaw(p);
     satProps(p, Ts);
     if (y <= LIQ[idx]) {
-      if (y < at1(p, T_MIN_K)) throw fail();
+      if (below(at1(p, T_MIN_K))) throw fail();
       resT = solveT(props1, p, y, idx, T1guess(), T_MIN_K, Ts);
       return 1;
     }
@@ -296,13 +350,13 @@ function solvePY(p: number, y: number, idx: number, ctx: string): WaterRegion {
     return 2;
   }
   // p above psat(623.15 K): regions 1, 3 (with 4 below pc) and 2 split by the B23 line
-  if (y <= at1(p, T_13_K)) {
-    if (y < at1(p, T_MIN_K)) throw fail();
+  if (!above(at1(p, T_13_K))) {
+    if (below(at1(p, T_MIN_K))) throw fail();
     resT = solveT(props1, p, y, idx, T1guess(), T_MIN_K, T_13_K);
     return 1;
   }
   const TB = Math.max(T_13_K, tB23(p));
-  if (y >= at2(p, TB)) {
+  if (!below(at2(p, TB))) {
     resT = solveT(props2, p, y, idx, T2guess(), TB, T_25_K);
     return 2;
   }
@@ -357,7 +411,7 @@ function pt(p_Pa: number, T_K: number): WaterState {
  * State of water at pressure and specific enthalpy. Liquid, two-phase or vapour is decided from the
  * saturation properties at p; regions 1 and 2 start from the backward equations T(p,h), region 3
  * from SR3-03 T(p,h) and v(p,h), region 5 from a linear estimate; all are polished by Newton
- * iteration on the forward equation (|dT| <= 1e-12 T).
+ * iteration on the forward equation (|h(p,T) - h| <= 1e-13 (|h| + 100 kJ/kg)).
  * @param p_Pa pressure [Pa]; 0 < p <= 100 MPa
  * @param h_J_per_kg specific enthalpy [J/kg]; from h(p, 273.15 K) to h(p, 2273.15 K) (to
  *   h(p, 1073.15 K) above 50 MPa)
