@@ -27,6 +27,16 @@ export const API_POLICY: Record<string, RoutePolicy> = {
   '/api/admin/users': { methods: { GET: ADMIN, POST: ADMIN } },
   '/api/admin/users/[userId]': { methods: { PATCH: ADMIN } },
   // --- ingest (uploads, API tokens, tag hours) ---
+  '/api/sites/[siteId]/uploads': { methods: { GET: ANY_ROLE, POST: UPLOADERS } },
+  '/api/uploads/[uploadId]/complete': { methods: { POST: UPLOADERS } },
+  '/api/uploads/[uploadId]/retry': { methods: { POST: UPLOADERS } },
+  '/api/uploads/[uploadId]/layout': { methods: { POST: UPLOADERS } },
+  '/api/uploads/[uploadId]/rejects.csv': { methods: { GET: ANY_ROLE } },
+  '/api/sites/[siteId]/tokens': { methods: { GET: ADMIN, POST: ADMIN } },
+  '/api/tokens/[tokenId]': { methods: { DELETE: ADMIN } },
+  '/api/v1/sites/[siteId]/files': { methods: { POST: UPLOADERS }, apiToken: true },
+  '/api/v1/uploads/[uploadId]': { methods: { GET: ANY_ROLE }, apiToken: true },
+  '/api/v1/sites/[siteId]/tag-hours': { methods: { GET: ANY_ROLE }, apiToken: true },
   // --- plant model ---
   // --- engine and insight ---
 };
@@ -38,6 +48,8 @@ export const PAGE_POLICY: Record<string, Admit> = {
   '/set-password': 'public',
   '/admin/users': ADMIN,
   // --- ingest ---
+  '/uploads': UPLOADERS,
+  '/admin/tokens': ADMIN,
   // --- plant model ---
   // --- engine and insight ---
 };

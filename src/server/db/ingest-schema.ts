@@ -2,7 +2,6 @@ import { sql } from 'drizzle-orm';
 import {
   bigint,
   boolean,
-  customType,
   doublePrecision,
   index,
   integer,
@@ -16,8 +15,6 @@ import {
 } from 'drizzle-orm/pg-core';
 import { user } from './auth-schema';
 import { sites } from './plant-schema';
-
-const bytea = customType<{ data: Buffer }>({ dataType: () => 'bytea' });
 
 /** Upload states, in Lossline's words (also the API's). */
 export const UPLOAD_STATUSES = ['awaiting-file', 'queued', 'needs-review', 'processing', 'done', 'failed'] as const;
@@ -117,6 +114,11 @@ export const tagHours = pgTable(
     nonNumeric: integer('non_numeric').notNull().default(0),
     outOfRange: integer('out_of_range').notNull().default(0),
     flatline: boolean('flatline').notNull().default(false),
+    /** Seconds of the hour on which the signal is defined (coveredFraction x 3600). */
+    coveredSeconds: doublePrecision('covered_seconds').notNull().default(0),
+    /** Time of the first and last usable sample in the hour (for combining two files' parts). */
+    spanStart: timestamp('span_start', { withTimezone: true, precision: 3 }),
+    spanEnd: timestamp('span_end', { withTimezone: true, precision: 3 }),
     /** Uploads whose samples make this hour, newest first. */
     uploadIds: uuid('upload_ids').array().notNull(),
     flags: text('flags').array().notNull().default(sql`'{}'::text[]`),
@@ -140,23 +142,34 @@ export const tagHourHistory = pgTable(
 );
 
 /**
- * Raw samples of the hours at the edges of a file (its first and last hour per tag), the only hours
- * another file (the next shift's export) can share; kept so a shared hour is recombined exactly.
- * samples packs [timeMs, value] pairs as little-endian float64.
+ * Tag hours of an upload being read, written in batches while the file streams (so memory stays
+ * flat) and merged into tag_hours in one transaction when the file is read whole. Rows of an upload
+ * are deleted before a retry and after the merge, so a crash never leaves half a file in tag_hours.
  */
-export const tagHourEdges = pgTable(
-  'tag_hour_edges',
+export const tagHoursStage = pgTable(
+  'tag_hours_stage',
   {
-    tagId: uuid('tag_id')
-      .notNull()
-      .references(() => tags.id, { onDelete: 'cascade' }),
-    hourStart: timestamp('hour_start', { withTimezone: true }).notNull(),
     uploadId: uuid('upload_id')
       .notNull()
       .references(() => uploads.id, { onDelete: 'cascade' }),
-    samples: bytea('samples').notNull(),
+    tagName: text('tag_name').notNull(),
+    hourStart: timestamp('hour_start', { withTimezone: true }).notNull(),
+    mean: doublePrecision('mean'),
+    min: doublePrecision('min'),
+    max: doublePrecision('max'),
+    std: doublePrecision('std'),
+    first: doublePrecision('first'),
+    last: doublePrecision('last'),
+    samples: integer('samples').notNull(),
+    coveredSeconds: doublePrecision('covered_seconds').notNull(),
+    nonNumeric: integer('non_numeric').notNull(),
+    outOfRange: integer('out_of_range').notNull(),
+    flatline: boolean('flatline').notNull(),
+    spanStart: timestamp('span_start', { withTimezone: true, precision: 3 }),
+    spanEnd: timestamp('span_end', { withTimezone: true, precision: 3 }),
+    flags: text('flags').array().notNull(),
   },
-  (t) => [primaryKey({ columns: [t.tagId, t.hourStart, t.uploadId] })],
+  (t) => [primaryKey({ columns: [t.uploadId, t.tagName, t.hourStart] })],
 );
 
 /** Every rejected cell of an upload (not a number, bad quality, out of range ...), for its report. */
