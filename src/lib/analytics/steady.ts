@@ -1,0 +1,262 @@
+/**
+ * Hour state of a unit from its key tags' hourly statistics: steady, unsettled, idle or suspect.
+ *
+ * Precedence (the first that applies wins; every reason found is still reported):
+ *   1. suspect   - a key tag is missing or has no samples, is frozen (flatline), has values out of
+ *                  range, has poor time coverage or too many status words; or a balance closure
+ *                  (e.g. mass in vs out) misses its tolerance. The numbers cannot be trusted, so
+ *                  nothing else is concluded from them.
+ *   2. idle      - the load tag's hourly mean is below the unit's minimum load.
+ *   3. unsettled - a key tag's spread within the hour is above its limit (load or conditions swinging).
+ *   4. steady    - none of the above.
+ * Only steady hours enter efficiency trends, baselines and drift detection.
+ *
+ * Spread is the within-hour standard deviation, either relative to the hourly mean (maxRelSpread,
+ * for ratio-scale quantities: flow, power, absolute pressure) or absolute (maxStd, in the unit of
+ * the statistics; use it for temperatures, where a relative spread depends on the scale zero).
+ *
+ * The defaults are *common practice*, with no single published source (docs/domain.md section 6):
+ * they are configurable per unit and per tag. Performance test codes (ASME PTC 19.1 and the PTC of
+ * each equipment type) are the place to take site-specific limits from.
+ */
+
+/** Hourly statistics of one tag (field names as produced by the ingest's tag-hour aggregation). */
+export interface TagHourStats {
+  /** Hourly mean, or null when the hour has no usable sample. */
+  mean: number | null;
+  /** Within-hour standard deviation, or null. */
+  stdDev: number | null;
+  min?: number | null;
+  max?: number | null;
+  /** Usable samples in the hour. */
+  sampleCount: number;
+  /** Fraction of the hour covered by usable data [-]. */
+  coveredFraction: number;
+  /** The value stayed unchanged longer than the tag's flatline limit. */
+  flatline: boolean;
+  /** Samples rejected as out of the tag's valid range. */
+  outOfRangeCount: number;
+  /** Cells holding status words instead of numbers ("shutdown", "I/O fault"). */
+  nonNumericCount: number;
+  /** Samples with a bad quality flag, if the export carries one. */
+  badQualityCount?: number;
+}
+
+/** Per-tag spread limit. */
+export interface SpreadLimit {
+  /** Largest stdDev / |mean| [-]. */
+  maxRelSpread?: number;
+  /** Largest stdDev [unit of the statistics]. */
+  maxStd?: number;
+}
+
+/** A balance closure residual of the hour, e.g. (mDot_in - mDot_out) / mDot_in. */
+export interface BalanceClosure {
+  /** What is balanced ('mass', 'energy', 'feedwater vs steam' ...). */
+  name: string;
+  /** Relative residual [-]. */
+  residual: number;
+  /** Tolerance on |residual| [-]; default limits.maxBalanceResidual. */
+  tolerance?: number;
+}
+
+export interface SteadyLimits {
+  /** The tag whose hourly mean is the unit's load. */
+  loadTag: string;
+  /** Minimum load, in the unit of the load tag's statistics. */
+  minLoad: number;
+  /** Tags that must be sound for the hour to count; default: every tag given, plus the load tag. */
+  keyTags?: readonly string[];
+  /** Per-tag spread limits; tags without one use defaultMaxRelSpread. */
+  spread?: Readonly<Record<string, SpreadLimit>>;
+  /** Default relative spread limit [-]; 0.05. */
+  defaultMaxRelSpread?: number;
+  /** Least covered fraction of the hour per key tag [-]; 0.8. */
+  minCoveredFraction?: number;
+  /** Least usable samples per key tag; 2. */
+  minSamples?: number;
+  /** Largest share of status words among the hour's cells per key tag [-]; 0.1. */
+  maxNonNumericFraction?: number;
+  /** Largest number of out-of-range samples per key tag; 0. */
+  maxOutOfRangeCount?: number;
+  /** Default tolerance on |balance residual| [-]; 0.05. */
+  maxBalanceResidual?: number;
+}
+
+/** Defaults (common practice; configurable). */
+export const STEADY_DEFAULTS = {
+  defaultMaxRelSpread: 0.05,
+  minCoveredFraction: 0.8,
+  minSamples: 2,
+  maxNonNumericFraction: 0.1,
+  maxOutOfRangeCount: 0,
+  maxBalanceResidual: 0.05,
+} as const;
+
+export type HourStateName = 'steady' | 'unsettled' | 'idle' | 'suspect';
+
+export type HourReasonCode =
+  | 'TAG_MISSING'
+  | 'TAG_FROZEN'
+  | 'TAG_OUT_OF_RANGE'
+  | 'TAG_POOR_COVERAGE'
+  | 'TAG_STATUS_WORDS'
+  | 'BALANCE_NOT_CLOSED'
+  | 'BELOW_MIN_LOAD'
+  | 'SPREAD_HIGH';
+
+export interface HourReason {
+  code: HourReasonCode;
+  /** The state this reason implies on its own. */
+  state: Exclude<HourStateName, 'steady'>;
+  tag?: string;
+  balance?: string;
+  /** The offending value and its limit, when there is one. */
+  value?: number;
+  limit?: number;
+  message: string;
+}
+
+export interface HourState {
+  state: HourStateName;
+  /** Every reason found, most severe first. */
+  reasons: HourReason[];
+}
+
+const RANK: Record<HourStateName, number> = { suspect: 3, idle: 2, unsettled: 1, steady: 0 };
+
+/**
+ * Classifies one hour of one unit.
+ *
+ * @param input tags: hourly statistics by tag (null/undefined when the tag has no data); balances:
+ *        closure residuals of the hour [-]
+ * @param limits unit limits; see SteadyLimits for defaults
+ * @returns the hour state and every reason, most severe first
+ */
+export function classifyHour(
+  input: { tags: Readonly<Record<string, TagHourStats | null | undefined>>; balances?: readonly BalanceClosure[] },
+  limits: SteadyLimits,
+): HourState {
+  const lim = { ...STEADY_DEFAULTS, ...dropUndefined(limits) };
+  const keyTags = [...new Set([...(limits.keyTags ?? Object.keys(input.tags)), limits.loadTag])];
+  const reasons: HourReason[] = [];
+  const sound = new Set<string>();
+
+  for (const tag of keyTags) {
+    const st = input.tags[tag];
+    if (!st || st.mean === null || !Number.isFinite(st.mean) || st.sampleCount <= 0) {
+      reasons.push({ code: 'TAG_MISSING', state: 'suspect', tag, message: `${tag}: no usable value in this hour` });
+      continue;
+    }
+    let ok = true;
+    if (st.flatline) {
+      ok = false;
+      reasons.push({ code: 'TAG_FROZEN', state: 'suspect', tag, message: `${tag}: value unchanged for longer than its flatline limit (frozen transmitter?)` });
+    }
+    if (st.outOfRangeCount > lim.maxOutOfRangeCount) {
+      ok = false;
+      reasons.push({
+        code: 'TAG_OUT_OF_RANGE',
+        state: 'suspect',
+        tag,
+        value: st.outOfRangeCount,
+        limit: lim.maxOutOfRangeCount,
+        message: `${tag}: ${st.outOfRangeCount} sample(s) outside the valid range`,
+      });
+    }
+    if (st.coveredFraction < lim.minCoveredFraction || st.sampleCount < lim.minSamples) {
+      ok = false;
+      reasons.push({
+        code: 'TAG_POOR_COVERAGE',
+        state: 'suspect',
+        tag,
+        value: st.coveredFraction,
+        limit: lim.minCoveredFraction,
+        message: `${tag}: data cover ${(100 * st.coveredFraction).toFixed(0)} % of the hour with ${st.sampleCount} sample(s) (need ${(100 * lim.minCoveredFraction).toFixed(0)} % and ${lim.minSamples})`,
+      });
+    }
+    const cells = st.sampleCount + st.nonNumericCount + (st.badQualityCount ?? 0);
+    const statusShare = cells > 0 ? (st.nonNumericCount + (st.badQualityCount ?? 0)) / cells : 0;
+    if (statusShare > lim.maxNonNumericFraction) {
+      ok = false;
+      reasons.push({
+        code: 'TAG_STATUS_WORDS',
+        state: 'suspect',
+        tag,
+        value: statusShare,
+        limit: lim.maxNonNumericFraction,
+        message: `${tag}: ${(100 * statusShare).toFixed(0)} % of the hour's cells are status words or bad quality`,
+      });
+    }
+    if (ok) sound.add(tag);
+  }
+
+  for (const b of input.balances ?? []) {
+    const tol = b.tolerance ?? lim.maxBalanceResidual;
+    if (!Number.isFinite(b.residual) || Math.abs(b.residual) > tol) {
+      reasons.push({
+        code: 'BALANCE_NOT_CLOSED',
+        state: 'suspect',
+        balance: b.name,
+        value: b.residual,
+        limit: tol,
+        message: Number.isFinite(b.residual)
+          ? `${b.name} balance misses by ${(100 * b.residual).toFixed(1)} % (tolerance ${(100 * tol).toFixed(1)} %)`
+          : `${b.name} balance could not be computed`,
+      });
+    }
+  }
+
+  const load = input.tags[limits.loadTag];
+  if (sound.has(limits.loadTag) && load && load.mean !== null && load.mean < limits.minLoad) {
+    reasons.push({
+      code: 'BELOW_MIN_LOAD',
+      state: 'idle',
+      tag: limits.loadTag,
+      value: load.mean,
+      limit: limits.minLoad,
+      message: `load ${load.mean} is below the minimum load ${limits.minLoad}`,
+    });
+  }
+
+  for (const tag of keyTags) {
+    if (!sound.has(tag)) continue;
+    const st = input.tags[tag]!;
+    if (st.stdDev === null || !Number.isFinite(st.stdDev)) continue;
+    const own = limits.spread?.[tag];
+    const maxRel = own?.maxRelSpread ?? (own?.maxStd === undefined ? lim.defaultMaxRelSpread : undefined);
+    const mean = st.mean!;
+    if (maxRel !== undefined && mean !== 0) {
+      const rel = st.stdDev / Math.abs(mean);
+      if (rel > maxRel) {
+        reasons.push({
+          code: 'SPREAD_HIGH',
+          state: 'unsettled',
+          tag,
+          value: rel,
+          limit: maxRel,
+          message: `${tag}: spread ${(100 * rel).toFixed(1)} % of the mean (limit ${(100 * maxRel).toFixed(1)} %)`,
+        });
+        continue;
+      }
+    }
+    if (own?.maxStd !== undefined && st.stdDev > own.maxStd) {
+      reasons.push({
+        code: 'SPREAD_HIGH',
+        state: 'unsettled',
+        tag,
+        value: st.stdDev,
+        limit: own.maxStd,
+        message: `${tag}: standard deviation ${st.stdDev} within the hour (limit ${own.maxStd})`,
+      });
+    }
+  }
+
+  reasons.sort((a, b) => RANK[b.state] - RANK[a.state]);
+  const state: HourStateName = reasons.length > 0 ? reasons[0].state : 'steady';
+  return { state, reasons };
+}
+
+function dropUndefined<T extends object>(o: T): Partial<T> {
+  return Object.fromEntries(Object.entries(o).filter(([, v]) => v !== undefined)) as Partial<T>;
+}

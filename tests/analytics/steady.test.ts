@@ -1,0 +1,113 @@
+import { describe, expect, it } from 'vitest';
+import { classifyHour, STEADY_DEFAULTS, type SteadyLimits, type TagHourStats } from '../../src/lib/analytics/steady';
+
+// Invented tag hours of a steam turbine: power (kW), steam flow (kg/s), inlet temperature (K).
+function hour(mean: number, stdDev: number, extra: Partial<TagHourStats> = {}): TagHourStats {
+  return {
+    mean,
+    stdDev,
+    min: mean - 2 * stdDev,
+    max: mean + 2 * stdDev,
+    sampleCount: 360,
+    coveredFraction: 1,
+    flatline: false,
+    outOfRangeCount: 0,
+    nonNumericCount: 0,
+    ...extra,
+  };
+}
+
+const limits: SteadyLimits = {
+  loadTag: 'power',
+  minLoad: 2000,
+  spread: { T_in: { maxStd: 3 } },
+};
+
+const good = () => ({
+  power: hour(8000, 80),
+  steam: hour(10, 0.2),
+  T_in: hour(753, 1.5),
+});
+
+describe('classifyHour (common practice defaults, docs/domain.md section 6)', () => {
+  it('all key tags sound, above minimum load, small spread: steady with no reasons', () => {
+    expect(classifyHour({ tags: good() }, limits)).toEqual({ state: 'steady', reasons: [] });
+  });
+
+  it('a missing key tag makes the hour suspect', () => {
+    const tags = { ...good(), steam: null };
+    const r = classifyHour({ tags }, limits);
+    expect(r.state).toBe('suspect');
+    expect(r.reasons).toMatchObject([{ code: 'TAG_MISSING', tag: 'steam' }]);
+    // a key tag named in limits but absent from the input is missing too
+    expect(classifyHour({ tags: good() }, { ...limits, keyTags: ['steam', 'drum_level'] }).reasons[0]).toMatchObject({
+      code: 'TAG_MISSING',
+      tag: 'drum_level',
+    });
+  });
+
+  it('frozen, out-of-range, poorly covered and status-word tags are each suspect', () => {
+    const cases: [Partial<TagHourStats>, string][] = [
+      [{ flatline: true }, 'TAG_FROZEN'],
+      [{ outOfRangeCount: 3 }, 'TAG_OUT_OF_RANGE'],
+      [{ coveredFraction: 0.5 }, 'TAG_POOR_COVERAGE'],
+      [{ sampleCount: 1 }, 'TAG_POOR_COVERAGE'],
+      [{ nonNumericCount: 60, sampleCount: 300 }, 'TAG_STATUS_WORDS'], // 60/360 = 17 % > 10 %
+    ];
+    for (const [extra, code] of cases) {
+      const r = classifyHour({ tags: { ...good(), steam: hour(10, 0.2, extra) } }, limits);
+      expect(r.state, code).toBe('suspect');
+      expect(r.reasons.map((x) => x.code)).toContain(code);
+    }
+    // a few status words (5/365 = 1.4 %) are tolerated
+    expect(classifyHour({ tags: { ...good(), steam: hour(10, 0.2, { nonNumericCount: 5 }) } }, limits).state).toBe('steady');
+  });
+
+  it('a balance that does not close is suspect; within tolerance it is not', () => {
+    expect(classifyHour({ tags: good(), balances: [{ name: 'mass', residual: 0.08 }] }, limits)).toMatchObject({
+      state: 'suspect',
+      reasons: [{ code: 'BALANCE_NOT_CLOSED', balance: 'mass', value: 0.08, limit: STEADY_DEFAULTS.maxBalanceResidual }],
+    });
+    expect(classifyHour({ tags: good(), balances: [{ name: 'mass', residual: -0.02 }] }, limits).state).toBe('steady');
+    expect(classifyHour({ tags: good(), balances: [{ name: 'mass', residual: 0.02, tolerance: 0.01 }] }, limits).state).toBe('suspect');
+    expect(classifyHour({ tags: good(), balances: [{ name: 'mass', residual: NaN }] }, limits).state).toBe('suspect');
+  });
+
+  it('below minimum load is idle', () => {
+    const r = classifyHour({ tags: { ...good(), power: hour(1500, 10) } }, limits);
+    expect(r).toMatchObject({ state: 'idle', reasons: [{ code: 'BELOW_MIN_LOAD', value: 1500, limit: 2000 }] });
+  });
+
+  it('spread above the relative or absolute limit is unsettled', () => {
+    // steam: 0.8/10 = 8 % > default 5 %
+    expect(classifyHour({ tags: { ...good(), steam: hour(10, 0.8) } }, limits)).toMatchObject({
+      state: 'unsettled',
+      reasons: [{ code: 'SPREAD_HIGH', tag: 'steam' }],
+    });
+    // T_in has an absolute limit of 3 K: 4 K is too much even though 4/753 = 0.5 % is a small relative spread
+    expect(classifyHour({ tags: { ...good(), T_in: hour(753, 4) } }, limits)).toMatchObject({
+      state: 'unsettled',
+      reasons: [{ code: 'SPREAD_HIGH', tag: 'T_in', value: 4, limit: 3 }],
+    });
+    // a per-tag relative limit overrides the default
+    expect(classifyHour({ tags: { ...good(), steam: hour(10, 0.8) } }, { ...limits, spread: { steam: { maxRelSpread: 0.1 } } }).state).toBe(
+      'steady',
+    );
+  });
+
+  it('precedence: suspect > idle > unsettled, with every reason kept, most severe first', () => {
+    const tags = { power: hour(1500, 400), steam: hour(10, 0.2, { flatline: true }), T_in: hour(753, 1) };
+    const r = classifyHour({ tags }, limits);
+    expect(r.state).toBe('suspect');
+    expect(r.reasons.map((x) => x.code)).toEqual(['TAG_FROZEN', 'BELOW_MIN_LOAD', 'SPREAD_HIGH']);
+    const idleAndSwinging = classifyHour({ tags: { ...good(), power: hour(1500, 400) } }, limits);
+    expect(idleAndSwinging.state).toBe('idle');
+    expect(idleAndSwinging.reasons.map((x) => x.code)).toEqual(['BELOW_MIN_LOAD', 'SPREAD_HIGH']);
+  });
+
+  it('a suspect load tag gives no idle verdict (the load itself is not trusted)', () => {
+    const r = classifyHour({ tags: { ...good(), power: hour(0, 0, { flatline: true }) } }, limits);
+    expect(r.state).toBe('suspect');
+    expect(r.reasons.map((x) => x.code)).toEqual(['TAG_FROZEN']);
+  });
+});
