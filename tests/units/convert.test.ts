@@ -37,6 +37,11 @@ describe('parseUnit: spellings found in historian exports', () => {
     expect(parseUnit(text)).toBe(unit);
   });
 
+  it('single letters match exactly only: C, F, K, m are units, c, f, k, M are not', () => {
+    expect(['C', 'F', 'K', 'm', 'W'].map(parseUnit)).toEqual(['degC', 'degF', 'K', 'm', 'W']);
+    expect(['c', 'f', 'k', 'M', 'w'].map(parseUnit)).toEqual([null, null, null, null, null]);
+  });
+
   it.each(['', 'foo', 'barrels of joy', 'kg/cm3g', 'Mlb/h'])('unknown or ambiguous text %j -> null', (text) => {
     expect(parseUnit(text)).toBeNull();
   });
