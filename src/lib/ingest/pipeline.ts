@@ -1,0 +1,96 @@
+/**
+ * The whole ingest of one file as one streaming object: bytes in, tag hours out through onHour.
+ * The first 64 KiB of text are held to sniff the layout (unless a stored profile is given), then
+ * everything streams with flat memory.
+ */
+import { createHourAggregator } from './aggregate';
+import type { TagHour, TagOptions } from './aggregate';
+import { createDecoder } from './decode';
+import type { EncodingDecision } from './decode';
+import { IngestError } from './errors';
+import type { LayoutProfile } from './profile';
+import { createRowReader } from './reader';
+import type { ReadReport, RejectedCell, RowReader } from './reader';
+import { sniffLayout } from './sniff';
+
+export interface FileIngestOptions {
+  timeZone: string;
+  /** A stored (answered) profile for files of this shape; sniffed from the file when absent. */
+  profile?: LayoutProfile;
+  /** Called with the sniffed profile before reading starts; returns it with questions answered
+   *  (for example from the operator's earlier answers for the same fingerprint). */
+  answer?: (sniffed: LayoutProfile) => LayoutProfile;
+  tagOptions?: (tag: string) => Partial<TagOptions>;
+  maxGapSeconds?: number;
+  onHour: (hour: TagHour) => void;
+  onRejectedCell?: (cell: RejectedCell) => void;
+  /** Characters of text held for sniffing; default 65536. */
+  sampleChars?: number;
+  maxRecordChars?: number;
+}
+
+export interface FileIngestResult {
+  encoding: EncodingDecision;
+  profile: LayoutProfile;
+  report: ReadReport;
+}
+
+export interface FileIngest {
+  push(chunk: Uint8Array): void;
+  /** Ends the file: flushes every open hour. Throws IngestError for fatal problems. */
+  end(): FileIngestResult;
+}
+
+export function createFileIngest(options: FileIngestOptions): FileIngest {
+  const decoder = createDecoder();
+  const sampleChars = options.sampleChars ?? 65536;
+  const aggregator = createHourAggregator({
+    timeZone: options.timeZone,
+    tagOptions: options.tagOptions,
+    maxGapSeconds: options.maxGapSeconds,
+    onHour: options.onHour,
+  });
+  let held = '';
+  let profile: LayoutProfile | null = null;
+  let reader: RowReader | null = null;
+
+  function start(complete: boolean): void {
+    if (options.profile) profile = options.profile;
+    else {
+      const sniffed = sniffLayout(held, { complete, encoding: decoder.decision?.encoding ?? null });
+      profile = options.answer ? options.answer(sniffed) : sniffed;
+    }
+    reader = createRowReader(profile, {
+      timeZone: options.timeZone,
+      sink: aggregator,
+      onRejectedCell: options.onRejectedCell,
+      maxRecordChars: options.maxRecordChars,
+    });
+    reader.push(held);
+    held = '';
+  }
+
+  function feed(text: string): void {
+    if (text.length === 0) return;
+    if (reader) {
+      reader.push(text);
+      return;
+    }
+    held += text;
+    if (held.length >= sampleChars) start(false);
+  }
+
+  return {
+    push(chunk: Uint8Array): void {
+      feed(decoder.push(chunk));
+    },
+    end(): FileIngestResult {
+      feed(decoder.end());
+      if (!reader) start(true);
+      const report = reader!.end();
+      aggregator.flush();
+      if (!decoder.decision) throw new IngestError('EMPTY_FILE', 'The file is empty.');
+      return { encoding: decoder.decision, profile: profile!, report };
+    },
+  };
+}

@@ -1,0 +1,592 @@
+/**
+ * The streaming row reader: decoded text chunks in, samples out, memory flat.
+ *
+ * Wide files give one call per row with all tags' values in a reused Float64Array (no object per
+ * sample); long files give one call per sample. Cells that are not numbers are never dropped
+ * silently: each is marked in the status array, counted per tag and reason, and summarised (distinct
+ * texts with counts, first lines) in the read report.
+ *
+ * Fatal (throw IngestError): an invalid profile or time zone, an undecided date order, a record
+ * longer than the limit, a quote never closed, and a file without data rows (HEADER_ONLY).
+ * Per-row warnings (counted, first lines listed): ragged rows (missing cells read as blank, extra
+ * cells ignored), unreadable times (row skipped), duplicate times (kept: the later row wins in the
+ * aggregator), times going backwards (kept; the aggregator drops them per tag and counts them),
+ * readings in the daylight-saving gap or repeated hour (resolved by order, see LocalClock), unknown
+ * quality words, text after a closing quote.
+ */
+import { IngestError } from './errors';
+import { CsvTokenizer, fieldText } from './csv';
+import type { CsvRecord } from './csv';
+import { isBlankAt, parseNumberAt } from './numbers';
+import { LayoutProfileSchema } from './profile';
+import type { LayoutProfile } from './profile';
+import { classifyQuality, QualityClass } from './quality';
+import { assertTimeZone, dayFromScan, isoUtc, LocalClock, newScan, scanDateTime, scanTimeOnly, timeOfDayMs, wallMsFromScan, wallMsFromSerial } from './time';
+import type { DateOrder } from './time';
+
+/** Per-cell status codes passed with values. */
+export const CellStatus = {
+  /** A number, usable. */
+  Ok: 0,
+  /** Empty cell: no sample (ignored by the aggregator, counted by the reader). */
+  Blank: 1,
+  /** Text that is not a number ('Shutdown', 'I/O Timeout', '#N/A'): a rejected sample. */
+  Text: 2,
+  /** A number whose quality says bad: a rejected sample. */
+  BadQuality: 3,
+  /** A number whose quality says uncertain (or is unknown): used, and counted. */
+  Uncertain: 4,
+} as const;
+export type CellStatus = (typeof CellStatus)[keyof typeof CellStatus];
+
+/** Receives what the reader reads. The hour aggregator implements it. */
+export interface SampleSink {
+  /** Announces a tag before its first sample; indexes are dense from 0 in order of appearance. */
+  addTag(tagIndex: number, tag: string): void;
+  /** Wide files: one row; values[k] and status[k] belong to tag k (arrays are reused: copy if kept). */
+  addRow(timeMs: number, values: Float64Array, status: Uint8Array): void;
+  /** Long files: one sample. */
+  addSample(tagIndex: number, timeMs: number, value: number, status: number): void;
+}
+
+export interface RejectedCell {
+  tag: string;
+  timeMs: number;
+  line: number;
+  reason: 'text' | 'bad-quality';
+  text: string;
+}
+
+export interface RowReaderOptions {
+  /** The site's IANA time zone, for local times. */
+  timeZone: string;
+  sink: SampleSink;
+  /** Longest record accepted [characters]; default 1 048 576. */
+  maxRecordChars?: number;
+  /** Lines listed per warning at most; default 20. */
+  maxListedLines?: number;
+  /** Distinct rejected texts kept per tag at most; default 10. */
+  maxRejectedExamples?: number;
+  /** Called for every rejected cell (for a server that stores them); optional. */
+  onRejectedCell?: (cell: RejectedCell) => void;
+  /** Called for every data row whose time cannot be read (the row is skipped); optional. */
+  onTimeError?: (line: number, text: string) => void;
+}
+
+export type IngestWarningCode =
+  | 'RAGGED_ROWS'
+  | 'UNREADABLE_TIMES'
+  | 'DUPLICATE_TIMES'
+  | 'BACKWARDS_TIMES'
+  | 'DST_REPEATED_HOUR'
+  | 'DST_GAP'
+  | 'UNKNOWN_QUALITY'
+  | 'MALFORMED_QUOTES'
+  | 'BLANK_TAG_NAMES';
+
+export interface IngestWarning {
+  code: IngestWarningCode;
+  message: string;
+  count: number;
+  /** First lines affected (1-based physical lines), up to the cap. */
+  lines: number[];
+}
+
+export interface TagReadSummary {
+  tag: string;
+  /** Numeric cells (good or uncertain). */
+  valueCount: number;
+  blankCount: number;
+  textCount: number;
+  badQualityCount: number;
+  uncertainCount: number;
+  /** Distinct rejected texts with counts (up to the cap), most frequent first. */
+  rejectedTexts: { text: string; count: number }[];
+  /** First lines with a rejected cell. */
+  rejectedLines: number[];
+}
+
+export interface ReadReport {
+  dataRowCount: number;
+  headerRowCount: number;
+  /** Numeric cells over all tags. */
+  valueCount: number;
+  rejectedCount: number;
+  blankCount: number;
+  firstTimeMs: number | null;
+  lastTimeMs: number | null;
+  tags: TagReadSummary[];
+  warnings: IngestWarning[];
+}
+
+export interface RowReader {
+  push(text: string): void;
+  /** Ends the input and returns the report. Throws HEADER_ONLY when no data row was read. */
+  end(): ReadReport;
+  /** Tags known so far, by index. */
+  readonly tags: readonly string[];
+  /** During a sink call: the text of tag k's cell in the current row (wide) or of the value cell (long). */
+  cellText(k: number): string;
+  /** During a sink call: the time cell text of the current row (two cells joined by a space). */
+  timeText(): string;
+  /** During a sink call: the current line. */
+  readonly line: number;
+}
+
+class WarningCounter {
+  count = 0;
+  lines: number[] = [];
+  constructor(private readonly cap: number) {}
+  add(line: number): void {
+    this.count++;
+    if (this.lines.length < this.cap) this.lines.push(line);
+  }
+}
+
+interface TagState {
+  tag: string;
+  valueCount: number;
+  blankCount: number;
+  textCount: number;
+  badQualityCount: number;
+  uncertainCount: number;
+  texts: Map<string, number>;
+  rejectedLines: number[];
+}
+
+/** Validates a profile for reading; throws INVALID_PROFILE or DATE_ORDER_UNDECIDED. */
+export function checkProfile(profile: LayoutProfile): LayoutProfile {
+  const parsed = LayoutProfileSchema.safeParse(profile);
+  if (!parsed.success) {
+    throw new IngestError(
+      'INVALID_PROFILE',
+      `The layout profile is not valid: ${parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; ')}.`,
+      { issues: parsed.error.issues },
+    );
+  }
+  const p = parsed.data;
+  if (p.time.kind === 'text' && p.time.dateOrder === 'ambiguous') {
+    throw new IngestError(
+      'DATE_ORDER_UNDECIDED',
+      `The dates (for example ${p.time.example}) read both day-first and month-first. Answer the question 'time.dateOrder' ` +
+        "(set time.dateOrder to 'dmy' or 'mdy') before reading the file.",
+      { example: p.time.example },
+    );
+  }
+  if ((p.layout === 'wide') !== (p.wide !== null) || (p.layout === 'long') !== (p.long !== null)) {
+    throw new IngestError('INVALID_PROFILE', `The layout profile says '${p.layout}' but describes the columns of the other layout.`);
+  }
+  return p;
+}
+
+/**
+ * Creates a reader for one file.
+ * @param profile the (answered) layout profile of the file
+ */
+export function createRowReader(profile: LayoutProfile, options: RowReaderOptions): RowReader {
+  const p = checkProfile(profile);
+  assertTimeZone(options.timeZone);
+  const sink = options.sink;
+  const cap = options.maxListedLines ?? 20;
+  const maxExamples = options.maxRejectedExamples ?? 10;
+  const decCode = p.decimalMark.charCodeAt(0);
+  const thouCode = p.thousandsSeparator === '' ? -1 : p.thousandsSeparator.charCodeAt(0);
+  const clock = new LocalClock(options.timeZone, cap);
+  const scan = newScan();
+  const scan2 = newScan();
+  const order: DateOrder = p.time.dateOrder === 'ambiguous' ? 'dmy' : p.time.dateOrder;
+  const timeCols = p.time.columns;
+  const kind = p.time.kind;
+
+  const ragged = new WarningCounter(cap);
+  const badTime = new WarningCounter(cap);
+  const badTimeExamples: string[] = [];
+  const duplicates = new WarningCounter(cap);
+  const backwards = new WarningCounter(cap);
+  const unknownQuality = new WarningCounter(cap);
+  const unknownQualityTexts = new Set<string>();
+  const blankTags = new WarningCounter(cap);
+
+  const tagStates: TagState[] = [];
+  const tagNames: string[] = [];
+  const tagIndex = new Map<string, number>();
+  function addTag(name: string): number {
+    const k = tagStates.length;
+    tagStates.push({ tag: name, valueCount: 0, blankCount: 0, textCount: 0, badQualityCount: 0, uncertainCount: 0, texts: new Map(), rejectedLines: [] });
+    tagNames.push(name);
+    tagIndex.set(name, k);
+    sink.addTag(k, name);
+    return k;
+  }
+
+  let headerLeft = p.headerRowCount;
+  let dataRows = 0;
+  let firstTimeMs = Infinity;
+  let lastTimeMs = -Infinity;
+  let prevRowTimeMs = NaN;
+  let currentLine = 0;
+  let current: CsvRecord | null = null;
+
+  // wide
+  const valueCols = p.wide ? Int32Array.from(p.wide.columns.map((c) => c.index)) : new Int32Array(0);
+  const nWide = valueCols.length;
+  const values = new Float64Array(nWide);
+  const status = new Uint8Array(nWide);
+  if (p.wide) for (const c of p.wide.columns) addTag(c.tag);
+  // long: per-tag last time for order checks
+  let tagLastTime = new Float64Array(16).fill(NaN);
+  const qualityCache = new Map<string, number>();
+
+  function reject(k: number, rec: CsvRecord, col: number, timeMs: number, reason: 'text' | 'bad-quality'): void {
+    const st = tagStates[k];
+    const text = fieldText(rec, col).trim();
+    if (reason === 'text') st.textCount++;
+    else st.badQualityCount++;
+    const key = reason === 'text' ? text : `[bad quality] ${text}`;
+    const n = st.texts.get(key);
+    if (n !== undefined) st.texts.set(key, n + 1);
+    else if (st.texts.size < maxExamples) st.texts.set(key, 1);
+    if (st.rejectedLines.length < cap) st.rejectedLines.push(rec.line);
+    options.onRejectedCell?.({ tag: st.tag, timeMs, line: rec.line, reason, text });
+  }
+
+  /** UTC ms of the record's time, or NaN. */
+  function timeOf(rec: CsvRecord): number {
+    const c0 = timeCols[0];
+    if (c0 >= rec.count) return NaN;
+    let text = rec.text;
+    let s = rec.starts[c0];
+    let e = rec.ends[c0];
+    if (rec.quoted[c0] === 2) {
+      text = fieldText(rec, c0);
+      s = 0;
+      e = text.length;
+    }
+    if (kind === 'text') {
+      if (!scanDateTime(text, s, e, scan)) return NaN;
+      let wall: number;
+      let offset = scan.offsetMinutes;
+      if (timeCols.length === 2) {
+        const c1 = timeCols[1];
+        if (c1 >= rec.count) return NaN;
+        const t1 = fieldText(rec, c1);
+        if (scan.hasTime || !scanTimeOnly(t1, 0, t1.length, scan2)) return NaN;
+        const day = dayFromScan(scan, order);
+        const tod = timeOfDayMs(scan2);
+        wall = day * 86_400_000 + tod;
+        offset = scan2.offsetMinutes;
+      } else {
+        wall = wallMsFromScan(scan, order);
+      }
+      if (wall !== wall) return NaN;
+      if (offset === offset) {
+        const utc = wall - offset * 60_000;
+        clock.noteAbsolute(utc);
+        return utc;
+      }
+      return clock.toUtc(wall, rec.line);
+    }
+    const v = parseNumberAt(text, s, e, kind === 'serial' ? decCode : 46, -1);
+    if (v !== v) return NaN;
+    if (kind === 'unix-s') return Math.round(v * 1000);
+    if (kind === 'unix-ms') return Math.round(v);
+    return clock.toUtc(wallMsFromSerial(v), rec.line);
+  }
+
+  function isBlankRecord(rec: CsvRecord): boolean {
+    for (let i = 0; i < rec.count; i++) if (!isBlankAt(rec.text, rec.starts[i], rec.ends[i]) || rec.quoted[i] !== 0) return false;
+    return true;
+  }
+
+  function onRecord(rec: CsvRecord): void {
+    if (isBlankRecord(rec)) return;
+    if (headerLeft > 0) {
+      headerLeft--;
+      return;
+    }
+    current = rec;
+    currentLine = rec.line;
+    if (rec.count !== p.columnCount) ragged.add(rec.line);
+    const t = timeOf(rec);
+    if (t !== t) {
+      badTime.add(rec.line);
+      const text = timeCols.map((c) => fieldText(rec, c)).join(' ');
+      if (badTimeExamples.length < 3) badTimeExamples.push(text);
+      options.onTimeError?.(rec.line, text);
+      return;
+    }
+    dataRows++;
+    if (t < firstTimeMs) firstTimeMs = t;
+    if (t > lastTimeMs) lastTimeMs = t;
+    if (p.wide) {
+      if (t === prevRowTimeMs) duplicates.add(rec.line);
+      else if (t < prevRowTimeMs) backwards.add(rec.line);
+      prevRowTimeMs = t;
+      const text = rec.text;
+      const count = rec.count;
+      for (let k = 0; k < nWide; k++) {
+        const col = valueCols[k];
+        if (col >= count) {
+          values[k] = NaN;
+          status[k] = CellStatus.Blank;
+          tagStates[k].blankCount++;
+          continue;
+        }
+        const s = rec.starts[col];
+        const e = rec.ends[col];
+        const q = rec.quoted[col];
+        const v = q === 2 ? NaN : parseNumberAt(text, s, e, decCode, thouCode);
+        if (v === v) {
+          values[k] = v;
+          status[k] = CellStatus.Ok;
+        } else if (q !== 2 && isBlankAt(text, s, e)) {
+          values[k] = NaN;
+          status[k] = CellStatus.Blank;
+          tagStates[k].blankCount++;
+        } else {
+          const tx = fieldText(rec, col);
+          const v2 = parseNumberAt(tx, 0, tx.length, decCode, thouCode);
+          if (v2 === v2) {
+            values[k] = v2;
+            status[k] = CellStatus.Ok;
+          } else {
+            values[k] = NaN;
+            status[k] = CellStatus.Text;
+            reject(k, rec, col, t, 'text');
+          }
+        }
+      }
+      sink.addRow(t, values, status);
+      return;
+    }
+    // long
+    const L = p.long!;
+    const name = L.tagColumn < rec.count ? fieldText(rec, L.tagColumn).trim() : '';
+    if (name.length === 0) {
+      blankTags.add(rec.line);
+      return;
+    }
+    let k = tagIndex.get(name);
+    if (k === undefined) {
+      k = addTag(name);
+      if (k >= tagLastTime.length) {
+        const grown = new Float64Array(tagLastTime.length * 2).fill(NaN);
+        grown.set(tagLastTime);
+        tagLastTime = grown;
+      }
+    }
+    const prev = tagLastTime[k];
+    if (t === prev) duplicates.add(rec.line);
+    else if (t < prev) backwards.add(rec.line);
+    tagLastTime[k] = t;
+    const st = tagStates[k];
+    let qClass: number = QualityClass.Good;
+    if (L.qualityColumn !== null && L.qualityColumn < rec.count) {
+      const qt = fieldText(rec, L.qualityColumn);
+      let c = qualityCache.get(qt);
+      if (c === undefined) {
+        c = classifyQuality(qt);
+        if (qualityCache.size < 1000) qualityCache.set(qt, c);
+      }
+      qClass = c;
+      if (c === QualityClass.Unknown) {
+        unknownQuality.add(rec.line);
+        if (unknownQualityTexts.size < 10) unknownQualityTexts.add(qt.trim());
+        qClass = QualityClass.Uncertain;
+      }
+    }
+    const vc = L.valueColumn;
+    let value = NaN;
+    let cell: number = CellStatus.Blank;
+    if (vc < rec.count) {
+      const tx = rec.quoted[vc] === 2 ? fieldText(rec, vc) : null;
+      value = tx === null ? parseNumberAt(rec.text, rec.starts[vc], rec.ends[vc], decCode, thouCode) : parseNumberAt(tx, 0, tx.length, decCode, thouCode);
+      if (value === value) cell = qClass === QualityClass.Bad ? CellStatus.BadQuality : qClass === QualityClass.Uncertain ? CellStatus.Uncertain : CellStatus.Ok;
+      else if (tx === null && isBlankAt(rec.text, rec.starts[vc], rec.ends[vc])) cell = CellStatus.Blank;
+      else cell = CellStatus.Text;
+    }
+    if (cell === CellStatus.Blank) st.blankCount++;
+    else if (cell === CellStatus.Text) reject(k, rec, vc, t, 'text');
+    else if (cell === CellStatus.BadQuality) reject(k, rec, vc, t, 'bad-quality');
+    else {
+      st.valueCount++;
+      if (cell === CellStatus.Uncertain) st.uncertainCount++;
+    }
+    sink.addSample(k, t, cell === CellStatus.Ok || cell === CellStatus.Uncertain ? value : NaN, cell);
+  }
+
+  const tokenizer = new CsvTokenizer(p.separator, onRecord, { maxRecordChars: options.maxRecordChars });
+
+  function warnings(): IngestWarning[] {
+    const out: IngestWarning[] = [];
+    const add = (code: IngestWarningCode, c: WarningCounter, message: string) => {
+      if (c.count > 0) out.push({ code, message, count: c.count, lines: c.lines });
+    };
+    add('RAGGED_ROWS', ragged, `${ragged.count} row(s) do not have ${p.columnCount} fields; missing cells were read as blank, extra cells ignored.`);
+    add('UNREADABLE_TIMES', badTime, `${badTime.count} row(s) have a time that cannot be read (for example ${badTimeExamples.map((x) => `'${x}'`).join(', ')}); those rows were skipped.`);
+    add('DUPLICATE_TIMES', duplicates, `${duplicates.count} row(s) repeat the time of the row before (for the same tag); the later value wins.`);
+    add('BACKWARDS_TIMES', backwards, `${backwards.count} row(s) have a time earlier than the row before (for the same tag); the aggregator drops them.`);
+    const cs = clock.stats;
+    if (cs.repeatedFirstPassCount + cs.repeatedSecondPassCount > 0) {
+      out.push({
+        code: 'DST_REPEATED_HOUR',
+        message:
+          `${cs.repeatedFirstPassCount + cs.repeatedSecondPassCount} local time(s) fall in the hour repeated when clocks go back; resolved by order: ` +
+          `${cs.repeatedFirstPassCount} read as the first pass (summer offset), ${cs.repeatedSecondPassCount} as the second pass (after the time stepped back).` +
+          (cs.repeatedSecondPassCount === 0 ? ' No step back was seen, so none was read as the second pass; check those rows.' : ''),
+        count: cs.repeatedFirstPassCount + cs.repeatedSecondPassCount,
+        lines: cs.repeatedLines,
+      });
+    }
+    if (cs.gapCount > 0) {
+      out.push({
+        code: 'DST_GAP',
+        message: `${cs.gapCount} local time(s) fall in the hour skipped when clocks go forward, so they never happened on a correct clock; read with the offset before the change (02:30 as 03:30 summer time).`,
+        count: cs.gapCount,
+        lines: cs.gapLines,
+      });
+    }
+    add('UNKNOWN_QUALITY', unknownQuality, `${unknownQuality.count} quality cell(s) are not known words or codes (${[...unknownQualityTexts].map((x) => `'${x}'`).join(', ')}); their values were used as uncertain.`);
+    if (tokenizer.malformedQuoteCount > 0) {
+      out.push({ code: 'MALFORMED_QUOTES', message: `${tokenizer.malformedQuoteCount} quoted field(s) have text after the closing quote; it was kept.`, count: tokenizer.malformedQuoteCount, lines: [] });
+    }
+    add('BLANK_TAG_NAMES', blankTags, `${blankTags.count} row(s) have no tag name and were skipped.`);
+    return out;
+  }
+
+  return {
+    push(text: string): void {
+      tokenizer.push(text);
+    },
+    end(): ReadReport {
+      tokenizer.end();
+      if (dataRows === 0) {
+        throw new IngestError(
+          'HEADER_ONLY',
+          badTime.count > 0
+            ? `No row has a readable time (${badTime.count} tried, for example ${badTimeExamples.map((x) => `'${x}'`).join(', ')}). Check the time settings of the layout.`
+            : 'The file has header lines but no data rows. Export a time range that contains data.',
+          { unreadableTimes: badTime.count },
+        );
+      }
+      let valueCount = 0;
+      let rejectedCount = 0;
+      let blankCount = 0;
+      const tags: TagReadSummary[] = tagStates.map((st) => {
+        const valueCountK = p.wide ? dataRows - st.blankCount - st.textCount : st.valueCount;
+        valueCount += valueCountK;
+        rejectedCount += st.textCount + st.badQualityCount;
+        blankCount += st.blankCount;
+        return {
+          tag: st.tag,
+          valueCount: valueCountK,
+          blankCount: st.blankCount,
+          textCount: st.textCount,
+          badQualityCount: st.badQualityCount,
+          uncertainCount: st.uncertainCount,
+          rejectedTexts: [...st.texts].map(([text, count]) => ({ text, count })).sort((a, b) => b.count - a.count),
+          rejectedLines: st.rejectedLines,
+        };
+      });
+      return {
+        dataRowCount: dataRows,
+        headerRowCount: p.headerRowCount,
+        valueCount,
+        rejectedCount,
+        blankCount,
+        firstTimeMs: Number.isFinite(firstTimeMs) ? firstTimeMs : null,
+        lastTimeMs: Number.isFinite(lastTimeMs) ? lastTimeMs : null,
+        tags,
+        warnings: warnings(),
+      };
+    },
+    get tags() {
+      return tagNames;
+    },
+    cellText(k: number): string {
+      const rec = current;
+      if (!rec) return '';
+      const col = p.wide ? valueCols[k] : p.long!.valueColumn;
+      return col < rec.count ? fieldText(rec, col) : '';
+    },
+    timeText(): string {
+      const rec = current;
+      if (!rec) return '';
+      return timeCols.map((c) => (c < rec.count ? fieldText(rec, c).trim() : '')).join(' ');
+    },
+    get line() {
+      return currentLine;
+    },
+  };
+}
+
+export interface PreviewCell {
+  tag: string;
+  /** The number read, or null when the cell was blank or rejected. */
+  value: number | null;
+  /** The cell text when it was rejected (not a number, or bad quality). */
+  rejected: string | null;
+  status: CellStatus;
+}
+
+export interface PreviewRow {
+  line: number;
+  /** Time as ISO 8601 UTC, or null when it cannot be read (or the date order is undecided). */
+  timeIso: string | null;
+  /** Time cell text as written. */
+  timeText: string;
+  /** When the date order is undecided: the time read each way, for the operator to compare. */
+  timeChoices: { dmy: string | null; mdy: string | null } | null;
+  cells: PreviewCell[];
+}
+
+/**
+ * The first n data rows of a sample as the reader reads them, for a preview screen. Rows whose time
+ * cannot be read are included with timeIso null and no cells.
+ * @param options.timeZone the site's zone for local times (default 'UTC')
+ */
+export function previewRows(sampleText: string, profile: LayoutProfile, n: number, options: { timeZone?: string } = {}): PreviewRow[] {
+  if (profile.time.kind === 'text' && profile.time.dateOrder === 'ambiguous') {
+    const dmy = previewRows(sampleText, { ...profile, time: { ...profile.time, dateOrder: 'dmy' } }, n, options);
+    const mdy = previewRows(sampleText, { ...profile, time: { ...profile.time, dateOrder: 'mdy' } }, n, options);
+    const byLine = new Map(mdy.map((r) => [r.line, r.timeIso]));
+    return dmy.map((r) => ({ ...r, timeIso: null, timeChoices: { dmy: r.timeIso, mdy: byLine.get(r.line) ?? null } }));
+  }
+  const rows: PreviewRow[] = [];
+  const stop = {};
+  const tags: string[] = [];
+  const pushRow = (row: PreviewRow) => {
+    rows.push(row);
+    if (rows.length >= n) throw stop;
+  };
+  const cell = (k: number, tag: string, value: number, st: number): PreviewCell => ({
+    tag,
+    value: st === CellStatus.Ok || st === CellStatus.Uncertain ? value : null,
+    rejected: st === CellStatus.Text || st === CellStatus.BadQuality ? reader.cellText(k).trim() : null,
+    status: st as CellStatus,
+  });
+  const reader: RowReader = createRowReader(profile, {
+    timeZone: options.timeZone ?? 'UTC',
+    sink: {
+      addTag(k, tag) {
+        tags[k] = tag;
+      },
+      addRow(timeMs, values, status) {
+        const cells: PreviewCell[] = [];
+        for (let k = 0; k < values.length; k++) cells.push(cell(k, tags[k], values[k], status[k]));
+        pushRow({ line: reader.line, timeIso: isoUtc(timeMs), timeText: reader.timeText(), timeChoices: null, cells });
+      },
+      addSample(k, timeMs, value, st) {
+        pushRow({ line: reader.line, timeIso: isoUtc(timeMs), timeText: reader.timeText(), timeChoices: null, cells: [cell(k, tags[k], value, st)] });
+      },
+    },
+    onTimeError: (line, text) => pushRow({ line, timeIso: null, timeText: text, timeChoices: null, cells: [] }),
+  });
+  try {
+    reader.push(sampleText);
+    reader.end();
+  } catch (e) {
+    if (e !== stop && !(e instanceof IngestError && e.code === 'HEADER_ONLY' && rows.length > 0)) throw e;
+  }
+  return rows;
+}
