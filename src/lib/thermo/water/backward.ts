@@ -43,12 +43,24 @@ class Poly {
   }
 }
 
+/** x^k for k = lo..hi into buf[OFF + k], by four interleaved chains (x^k = x^(k-4) x^4). */
 function fill(buf: Float64Array, x: number, lo: number, hi: number): void {
+  const x2 = x * x;
+  const x4 = x2 * x2;
   buf[OFF] = 1;
-  for (let k = 1; k <= hi; k++) buf[OFF + k] = buf[OFF + k - 1] * x;
+  buf[OFF + 1] = x;
+  buf[OFF + 2] = x2;
+  buf[OFF + 3] = x2 * x;
+  for (let k = 4; k <= hi; k++) buf[OFF + k] = buf[OFF + k - 4] * x4;
   if (lo < 0) {
     const ix = 1 / x;
-    for (let k = -1; k >= lo; k--) buf[OFF + k] = buf[OFF + k + 1] * ix;
+    const ix2 = ix * ix;
+    const ix4 = ix2 * ix2;
+    buf[OFF - 1] = ix;
+    buf[OFF - 2] = ix2;
+    buf[OFF - 3] = ix2 * ix;
+    buf[OFF - 4] = ix4;
+    for (let k = -5; k >= lo; k--) buf[OFF + k] = buf[OFF + k + 4] * ix4;
   }
 }
 

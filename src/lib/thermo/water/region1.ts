@@ -31,12 +31,30 @@ export const G1 = new Float64Array(6);
 export function gibbs1(pi: number, tau: number): void {
   const a = 7.1 - pi;
   const b = tau - 1.222;
+  // powers by four interleaved multiplication chains (x^k = x^(k-4) x^4): short dependency
+  // chains let the CPU overlap the multiplications
+  const a2 = a * a;
+  const a4 = a2 * a2;
   PI_POW[0] = 1;
-  for (let k = 1; k < 33; k++) PI_POW[k] = PI_POW[k - 1] * a;
+  PI_POW[1] = a;
+  PI_POW[2] = a2;
+  PI_POW[3] = a2 * a;
+  for (let k = 4; k < 33; k++) PI_POW[k] = PI_POW[k - 4] * a4;
+  const b2 = b * b;
+  const b4 = b2 * b2;
   TAU_POW[41] = 1;
-  for (let k = 42; k < 59; k++) TAU_POW[k] = TAU_POW[k - 1] * b;
+  TAU_POW[42] = b;
+  TAU_POW[43] = b2;
+  TAU_POW[44] = b2 * b;
+  for (let k = 45; k < 59; k++) TAU_POW[k] = TAU_POW[k - 4] * b4;
   const ib = 1 / b;
-  for (let k = 40; k >= 0; k--) TAU_POW[k] = TAU_POW[k + 1] * ib;
+  const ib2 = ib * ib;
+  const ib4 = ib2 * ib2;
+  TAU_POW[40] = ib;
+  TAU_POW[39] = ib2;
+  TAU_POW[38] = ib2 * ib;
+  TAU_POW[37] = ib4;
+  for (let k = 36; k >= 0; k--) TAU_POW[k] = TAU_POW[k + 4] * ib4;
   let g = 0, gi = 0, gii = 0, gj = 0, gjj = 0, gij = 0;
   for (let k = 0; k < N; k++) {
     const t = PI_POW[II[k]] * TAU_POW[JO[k]];

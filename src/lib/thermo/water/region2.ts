@@ -63,10 +63,21 @@ export function gibbs2(pi: number, tau: number): void {
   G2[2] = g0tt * it * it;
   // residual part
   const b = tau - 0.5;
+  // powers by four interleaved multiplication chains (x^k = x^(k-4) x^4)
+  const p2 = pi * pi;
+  const p4 = p2 * p2;
   PI_POW[0] = 1;
-  for (let k = 1; k < 25; k++) PI_POW[k] = PI_POW[k - 1] * pi;
+  PI_POW[1] = pi;
+  PI_POW[2] = p2;
+  PI_POW[3] = p2 * pi;
+  for (let k = 4; k < 25; k++) PI_POW[k] = PI_POW[k - 4] * p4;
+  const b2 = b * b;
+  const b4 = b2 * b2;
   TAU_POW[0] = 1;
-  for (let k = 1; k < 59; k++) TAU_POW[k] = TAU_POW[k - 1] * b;
+  TAU_POW[1] = b;
+  TAU_POW[2] = b2;
+  TAU_POW[3] = b2 * b;
+  for (let k = 4; k < 59; k++) TAU_POW[k] = TAU_POW[k - 4] * b4;
   let g = 0, gi = 0, gii = 0, gj = 0, gjj = 0, gij = 0;
   for (let k = 0; k < N; k++) {
     const t = PI_POW[II[k]] * TAU_POW[JJ[k]];

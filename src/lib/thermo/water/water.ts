@@ -282,61 +282,84 @@ function solveT3(p: number, target: number, idx: number, T0: number, v0: number,
   throw new NoConvergenceError(`IF97 region 3 T at p_Pa = ${p} for ${idx === IDX_H ? 'h' : 's'} = ${target}`, 200, F);
 }
 
-function rangeErrorPX(name: string, value: number, lo: number, hi: number, unit: string, p: number, ctx: string): ThermoRangeError {
-  return new ThermoRangeError(name, value, `${lo}..${hi} ${unit} at p_Pa = ${p}`, ctx);
+// Helpers of solvePY as module-level functions: closures created per call would cost an
+// allocation each (and, under tsx/esbuild keepNames, a defineProperty call each).
+function y1(isH: boolean, p: number, T: number): number {
+  return isH ? h1(p, T) : s1(p, T);
+}
+function y2(isH: boolean, p: number, T: number): number {
+  return isH ? h2(p, T) : s2(p, T);
+}
+function y5(isH: boolean, p: number, T: number): number {
+  return isH ? h5(p, T) : s5(p, T);
+}
+/** Lowest h or s of IF97 at p (at 273.15 K). */
+function yLow(isH: boolean, p: number): number {
+  return p >= P_SAT_MIN_PA ? y1(isH, p, T_MIN_K) : y2(isH, p, T_MIN_K);
+}
+/** Highest h or s of IF97 at p (at 2273.15 K, or 1073.15 K above 50 MPa). */
+function yHigh(isH: boolean, p: number): number {
+  return p <= P_MAX_R5_PA ? y5(isH, p, T_MAX_K) : y2(isH, p, T_25_K);
+}
+/**
+ * Slack of a bound: 1e-9 of (|bound| + 1 kJ/kg or 1 J/(kg K)), so that a value computed at a
+ * corner of the range (e.g. s at 273.15 K) is not refused for its last rounding bits.
+ */
+function slack(isH: boolean, b: number): number {
+  return 1e-9 * (Math.abs(b) + (isH ? 1e3 : 1));
+}
+function below(isH: boolean, y: number, b: number): boolean {
+  return y < b - slack(isH, b);
+}
+function above(isH: boolean, y: number, b: number): boolean {
+  return y > b + slack(isH, b);
+}
+function rangeFail(isH: boolean, p: number, y: number, ctx: string): ThermoRangeError {
+  return new ThermoRangeError(
+    isH ? 'h_J_per_kg' : 's_J_per_kgK', y,
+    `${yLow(isH, p)}..${yHigh(isH, p)} ${isH ? 'J/kg' : 'J/(kg K)'} at p_Pa = ${p}`, ctx,
+  );
+}
+function T12guess(isH: boolean, region: 1 | 2, p: number, y: number): number {
+  if (region === 1) return isH ? T1_ph(p, y) : T1_ps(p, y);
+  return isH ? T2_ph(p, y) : T2_ps(p, y);
+}
+
+/** Region 2 from T_lo [K] up to 1073.15 K, else region 5 (h or s given at p). */
+function solveVapour(isH: boolean, p: number, y: number, idx: number, Tlo: number, ctx: string): 2 | 5 {
+  const y25 = y2(isH, p, T_25_K);
+  if (!above(isH, y, y25)) {
+    resT = solveT(props2, p, y, idx, T12guess(isH, 2, p, y), Tlo, T_25_K);
+    return 2;
+  }
+  if (p > P_MAX_R5_PA || above(isH, y, y5(isH, p, T_MAX_K))) throw rangeFail(isH, p, y, ctx);
+  // start from cp of about 2.3 kJ/(kg K) above 1073.15 K
+  const T0 = isH ? T_25_K + (y - y25) / 2300 : T_25_K * Math.exp((y - y25) / 2300);
+  resT = solveT(props5, p, y, idx, T0, T_25_K, T_MAX_K);
+  return 5;
 }
 
 /**
  * Core of ph and ps: fills OUT (h, s, v, cp, w, u), sets resT and resX, returns the region.
- * idx = IDX_H for (p, h), IDX_S for (p, s).
+ * idx = IDX_H for (p, h), IDX_S for (p, s). Ties at a region boundary (within rounding) go to
+ * the lower region, as in water.pt.
  */
 function solvePY(p: number, y: number, idx: number, ctx: string): WaterRegion {
   checkP(p, ctx);
   const isH = idx === IDX_H;
-  const name = isH ? 'h_J_per_kg' : 's_J_per_kgK';
-  const unit = isH ? 'J/kg' : 'J/(kg K)';
-  const at1 = isH ? h1 : s1;
-  const at2 = isH ? h2 : s2;
-  const at5 = isH ? h5 : s5;
-  // Bounds get a slack of 1e-9 of (|bound| + 1 kJ/kg or 1 J/(kg K)) so that a value computed at
-  // a corner of the range (e.g. s at 273.15 K) is not refused for its last rounding bits.
-  const slack = (b: number): number => 1e-9 * (Math.abs(b) + (isH ? 1e3 : 1));
-  const low = (): number => (p >= P_SAT_MIN_PA ? at1(p, T_MIN_K) : at2(p, T_MIN_K));
-  const high = (): number => (p <= P_MAX_R5_PA ? at5(p, T_MAX_K) : at2(p, T_25_K));
-  const below = (b: number): boolean => y < b - slack(b);
-  const above = (b: number): boolean => y > b + slack(b);
-  const fail = (): ThermoRangeError => rangeErrorPX(name, y, low(), high(), unit, p, ctx);
   resX = NaN;
-  if (!Number.isFinite(y)) throw fail();
-
-  // region 5 above the 1073.15 K isotherm
-  // ties at a region boundary (within rounding) go to the lower region, as in water.pt
-  const y25 = at2(p, T_25_K);
-  if (above(y25)) {
-    if (p > P_MAX_R5_PA ? above(y25) : above(at5(p, T_MAX_K))) throw fail();
-    if (p > P_MAX_R5_PA) {
-      resT = T_25_K;
-      props2(p, T_25_K, OUT);
-      return 2;
-    }
-    const T0 = isH ? T_25_K + (y - y25) / 2300 : T_25_K * Math.exp((y - y25) / 2300);
-    resT = solveT(props5, p, y, idx, T0, T_25_K, T_MAX_K);
-    return 5;
-  }
-  const T2guess = (): number => (isH ? T2_ph(p, y) : T2_ps(p, y));
-  const T1guess = (): number => (isH ? T1_ph(p, y) : T1_ps(p, y));
+  if (!Number.isFinite(y)) throw rangeFail(isH, p, y, ctx);
 
   if (p < P_SAT_MIN_PA) {
-    if (below(at2(p, T_MIN_K))) throw fail();
-    resT = solveT(props2, p, y, idx, T2guess(), T_MIN_K, T_25_K);
-    return 2;
+    if (below(isH, y, y2(isH, p, T_MIN_K))) throw rangeFail(isH, p, y, ctx);
+    return solveVapour(isH, p, y, idx, T_MIN_K, ctx);
   }
   if (p <= P_SAT_623_PA) {
     const Ts = tsatRaw(p);
     satProps(p, Ts);
     if (y <= LIQ[idx]) {
-      if (below(at1(p, T_MIN_K))) throw fail();
-      resT = solveT(props1, p, y, idx, T1guess(), T_MIN_K, Ts);
+      if (below(isH, y, y1(isH, p, T_MIN_K))) throw rangeFail(isH, p, y, ctx);
+      resT = solveT(props1, p, y, idx, T12guess(isH, 1, p, y), T_MIN_K, Ts);
       return 1;
     }
     if (y < VAP[idx]) {
@@ -346,20 +369,16 @@ function solvePY(p: number, y: number, idx: number, ctx: string): WaterRegion {
       resX = x;
       return 4;
     }
-    resT = solveT(props2, p, y, idx, T2guess(), Ts, T_25_K);
-    return 2;
+    return solveVapour(isH, p, y, idx, Ts, ctx);
   }
   // p above psat(623.15 K): regions 1, 3 (with 4 below pc) and 2 split by the B23 line
-  if (!above(at1(p, T_13_K))) {
-    if (below(at1(p, T_MIN_K))) throw fail();
-    resT = solveT(props1, p, y, idx, T1guess(), T_MIN_K, T_13_K);
+  if (!above(isH, y, y1(isH, p, T_13_K))) {
+    if (below(isH, y, y1(isH, p, T_MIN_K))) throw rangeFail(isH, p, y, ctx);
+    resT = solveT(props1, p, y, idx, T12guess(isH, 1, p, y), T_MIN_K, T_13_K);
     return 1;
   }
   const TB = Math.max(T_13_K, tB23(p));
-  if (!below(at2(p, TB))) {
-    resT = solveT(props2, p, y, idx, T2guess(), TB, T_25_K);
-    return 2;
-  }
+  if (!below(isH, y, y2(isH, p, TB))) return solveVapour(isH, p, y, idx, TB, ctx);
   const T3 = isH ? T3_ph(p, y) : T3_ps(p, y);
   const v3 = isH ? v3_ph(p, y) : v3_ps(p, y);
   if (p < PC_PA) {
