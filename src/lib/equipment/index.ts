@@ -1,0 +1,53 @@
+/**
+ * Public surface of the equipment balances: port states from measurements, one SPECO exergy balance
+ * per unit kind, and the flat-vector hourly evaluation with uncertainty. Pure: SI in, SI out.
+ * @see docs/domain.md sections 2, 3, 5, 6, 7
+ */
+export * from './errors';
+export {
+  SATURATION_TOLERANCE_K,
+  airMoleFractions,
+  buildFuel,
+  fluidOf,
+  fuelEnthalpy298_J_per_kg,
+  portState,
+  prepareFluid,
+} from './fluids';
+export type { Environment, Fluid, FluidSpec, FuelSpec, PortFlag, PortMeasurement, PortPhase, PortState } from './fluids';
+export { UNIT_KINDS, assemble, resolvePorts } from './balance';
+export type {
+  BalancePort,
+  HeatFlow,
+  PortFlowInput,
+  PortStateInput,
+  PowerFlow,
+  ResolvedPort,
+  TermRole,
+  UnitBalance,
+  UnitKind,
+  UnitTerm,
+} from './balance';
+export {
+  boilerBalance,
+  compressorBalance,
+  condenserBalance,
+  genericBalance,
+  heatExchangerBalance,
+  machineBalance,
+  mixerBalance,
+  turbineBalance,
+  valveBalance,
+} from './kinds';
+export type {
+  BoilerInput,
+  CompressorInput,
+  CondenserInput,
+  GenericHeat,
+  GenericInput,
+  GenericPower,
+  HeatExchangerInput,
+  MachineInput,
+  MixerInput,
+  PortBalanceInput,
+  TurbineInput,
+} from './kinds';
