@@ -157,8 +157,26 @@ test_mode() {
   return $failed
 }
 
+# For iterating on tests: services like a test run's (own folder and ports, so a full test run can go on
+# beside them), left up until Ctrl-C, with the variables to export.
+test_services_mode() {
+  install_deps
+  local dir="$ROOT/.dev-test-data"
+  trap cleanup EXIT
+  PG_FSYNC=off services "$dir" 54349 4589 1045 1100
+  node --import tsx scripts/seed.ts
+  cat <<EOF
+Test services are up. In another shell:
+  export DATABASE_URL=$DATABASE_URL S3_ENDPOINT=$S3_ENDPOINT SMTP_URL=$SMTP_URL MAIL_INBOX_URL=$MAIL_INBOX_URL
+  export BETTER_AUTH_SECRET=$BETTER_AUTH_SECRET PUBLIC_BASE_URL=http://127.0.0.1:4331 SIGN_IN_LIMIT_PER_MINUTE=5
+  npx vitest run tests/<area>
+EOF
+  wait
+}
+
 case "$MODE" in
   run|"") run_mode ;;
   test) test_mode ;;
+  test-services) test_services_mode ;;
   *) die "unknown mode '$MODE': use no argument to run Lossline, or 'test' to run every test" ;;
 esac

@@ -1,0 +1,389 @@
+import { GetObjectCommand } from '@aws-sdk/client-s3';
+import type { Readable } from 'node:stream';
+import { and, eq, sql } from 'drizzle-orm';
+import type pg from 'pg';
+import {
+  IngestError,
+  createDecoder,
+  createFileIngest,
+  previewRows,
+  sniffLayout,
+  type LayoutProfile,
+  type RejectedCell,
+  type TagHour,
+} from '../../lib/ingest';
+import { db, pgPool } from '../db/client';
+import { layoutProfiles, sites, tags, uploads } from '../db/schema';
+import { bucket, objectStream, s3 } from '../storage';
+
+/** Bytes read from the start of a file to decide its layout. */
+const SAMPLE_BYTES = 96 * 1024;
+/** Tag hours written to the staging table per statement. */
+const STAGE_BATCH = 4000;
+/** Rejected cells kept per upload for its report (the counts are always complete). */
+export const MAX_STORED_REJECTS = 100_000;
+/** How often progress is written while a file streams [ms]. */
+const PROGRESS_EVERY_MS = 500;
+/** Attempts before an upload that keeps failing for reasons outside the file is marked failed. */
+export const MAX_ATTEMPTS = 3;
+
+export type IngestOutcome =
+  | { kind: 'done'; summary: Record<string, unknown> }
+  | { kind: 'needs-review' }
+  | { kind: 'failed'; reason: string }
+  | { kind: 'skipped'; why: string };
+
+async function headBytes(key: string, n: number, size: number | null): Promise<Uint8Array> {
+  if (size === 0) throw new IngestError('EMPTY_FILE', 'The file is empty (0 bytes). Export the data again and upload the new file.');
+  const out = await s3().send(new GetObjectCommand({ Bucket: bucket(), Key: key, Range: `bytes=0-${n - 1}` }));
+  const chunks: Buffer[] = [];
+  for await (const c of out.Body as Readable) chunks.push(c as Buffer);
+  return new Uint8Array(Buffer.concat(chunks));
+}
+
+/** Decides the layout from the file's first bytes: a saved profile of the site, or a fresh sniff. */
+async function decideLayout(up: typeof uploads.$inferSelect, timeZone: string) {
+  if (up.profileId) {
+    const [p] = await db().select().from(layoutProfiles).where(eq(layoutProfiles.id, up.profileId));
+    if (p) return { profile: p.profile as unknown as LayoutProfile, saved: true as const };
+  }
+  const bytes = await headBytes(up.objectKey, SAMPLE_BYTES, up.sizeBytes);
+  const decoder = createDecoder();
+  const text = decoder.push(bytes) + (bytes.length < SAMPLE_BYTES ? decoder.end() : '');
+  const complete = bytes.length < SAMPLE_BYTES;
+  const sniffed = sniffLayout(text, { complete, encoding: decoder.decision?.encoding ?? null });
+  const [known] = await db()
+    .select()
+    .from(layoutProfiles)
+    .where(and(eq(layoutProfiles.siteId, up.siteId), eq(layoutProfiles.fingerprint, sniffed.fingerprint)));
+  if (known) return { profile: known.profile as unknown as LayoutProfile, saved: true as const, profileId: known.id };
+  let preview: unknown[] = [];
+  try {
+    preview = previewRows(text, sniffed, 8, { timeZone });
+  } catch {
+    preview = [];
+  }
+  return { profile: sniffed, saved: false as const, preview, encoding: decoder.decision };
+}
+
+/**
+ * Reads one upload: decides its layout, streams the raw object through the ingest core into the
+ * staging table, then merges its tag hours in one transaction. A per-upload advisory lock keeps two
+ * workers off the same file; a crash leaves only staging rows, which the next attempt deletes first.
+ */
+export async function ingestUpload(uploadId: string): Promise<IngestOutcome> {
+  const client = await pgPool().connect();
+  try {
+    const { rows } = await client.query('select pg_try_advisory_lock(hashtextextended($1, 0)) as ok', ['ingest:' + uploadId]);
+    if (!rows[0].ok) return { kind: 'skipped', why: 'another worker is reading this upload' };
+    try {
+      return await ingestLocked(uploadId, client);
+    } finally {
+      await client.query('select pg_advisory_unlock(hashtextextended($1, 0))', ['ingest:' + uploadId]);
+    }
+  } finally {
+    client.release();
+  }
+}
+
+async function ingestLocked(uploadId: string, client: pg.PoolClient): Promise<IngestOutcome> {
+  const [up] = await db().select().from(uploads).where(eq(uploads.id, uploadId));
+  if (!up) return { kind: 'skipped', why: 'no such upload' };
+  if (up.status !== 'queued' && up.status !== 'processing') return { kind: 'skipped', why: `upload is ${up.status}` };
+  const [site] = await db().select().from(sites).where(eq(sites.id, up.siteId));
+  const timeZone = site?.timeZone ?? 'UTC';
+
+  await db()
+    .update(uploads)
+    .set({ status: 'processing', attempts: sql`${uploads.attempts} + 1`, startedAt: new Date(), rowsRead: 0, bytesRead: 0, failureReason: null })
+    .where(eq(uploads.id, uploadId));
+  await client.query('delete from tag_hours_stage where upload_id = $1', [uploadId]);
+  await client.query('delete from upload_rejects where upload_id = $1', [uploadId]);
+
+  try {
+    const layout = await decideLayout(up, timeZone);
+    let profile = layout.profile;
+    let profileId = 'profileId' in layout ? layout.profileId : up.profileId;
+    if (!layout.saved) {
+      const blocking = profile.questions.some((q) => q.blocking);
+      if (up.source === 'browser' || blocking) {
+        await db()
+          .update(uploads)
+          .set({ status: 'needs-review', detection: { profile, preview: layout.preview, encoding: layout.encoding ?? null } as Record<string, unknown> })
+          .where(eq(uploads.id, uploadId));
+        return { kind: 'needs-review' };
+      }
+      // A machine upload of a shape the file itself decides: keep the decision as the site's profile.
+      const [saved] = await db()
+        .insert(layoutProfiles)
+        .values({ siteId: up.siteId, fingerprint: profile.fingerprint, name: `detected from ${up.fileName}`, profile: profile as unknown as Record<string, unknown> })
+        .onConflictDoUpdate({ target: [layoutProfiles.siteId, layoutProfiles.fingerprint], set: { fingerprint: profile.fingerprint } })
+        .returning();
+      profile = saved!.profile as unknown as LayoutProfile;
+      profileId = saved!.id;
+    }
+    const result = await streamIntoStage(up, profile, timeZone, client);
+    const summary = await mergeStage(up, profile, result, profileId ?? null, client);
+    return { kind: 'done', summary };
+  } catch (err) {
+    await client.query('delete from tag_hours_stage where upload_id = $1', [uploadId]).catch(() => undefined);
+    if (err instanceof IngestError) {
+      const where = err.line ? ` (line ${err.line})` : '';
+      const reason = `${err.message}${where}`;
+      await db().update(uploads).set({ status: 'failed', failureReason: reason, finishedAt: new Date(), summary: { code: err.code, details: err.details } }).where(eq(uploads.id, uploadId));
+      return { kind: 'failed', reason };
+    }
+    const [now] = await db().select({ attempts: uploads.attempts }).from(uploads).where(eq(uploads.id, uploadId));
+    if ((now?.attempts ?? MAX_ATTEMPTS) >= MAX_ATTEMPTS) {
+      const reason = `Reading stopped ${now?.attempts} times for a reason outside the file (${(err as Error).message}). The raw file is kept; retry when the service is back.`;
+      await db().update(uploads).set({ status: 'failed', failureReason: reason, finishedAt: new Date() }).where(eq(uploads.id, uploadId));
+      return { kind: 'failed', reason };
+    }
+    await db().update(uploads).set({ status: 'queued' }).where(eq(uploads.id, uploadId));
+    throw err;
+  }
+}
+
+interface StreamResult {
+  report: ReturnType<ReturnType<typeof createFileIngest>['end']>['report'];
+  encoding: string;
+  hours: number;
+  rejectsStored: number;
+  bytes: number;
+}
+
+async function streamIntoStage(up: typeof uploads.$inferSelect, profile: LayoutProfile, timeZone: string, client: pg.PoolClient): Promise<StreamResult> {
+  const known = await db().select().from(tags).where(eq(tags.siteId, up.siteId));
+  const byName = new Map(known.map((t) => [t.name, t]));
+
+  let batch: TagHour[] = [];
+  let rejects: RejectedCell[] = [];
+  let rejectsStored = 0;
+  let rejectSeq = 0;
+  let hours = 0;
+  let pending: Promise<unknown> = Promise.resolve();
+
+  const flushHours = () => {
+    if (!batch.length) return;
+    const rows = batch;
+    batch = [];
+    hours += rows.length;
+    pending = pending.then(() => insertStage(client, up.id, rows));
+  };
+  const flushRejects = () => {
+    if (!rejects.length) return;
+    const rows = rejects;
+    rejects = [];
+    const start = rejectSeq;
+    rejectSeq += rows.length;
+    pending = pending.then(() => insertRejects(client, up.id, start, rows));
+  };
+
+  const ingest = createFileIngest({
+    timeZone,
+    profile,
+    tagOptions: (tag) => {
+      const t = byName.get(tag);
+      if (!t) return {};
+      return {
+        kind: t.kind === 'status' ? 'status' : 'analog',
+        flatlineLimitSeconds: t.flatlineLimitSeconds,
+        validMin: t.validMin ?? undefined,
+        validMax: t.validMax ?? undefined,
+      };
+    },
+    onHour: (h) => {
+      batch.push(h);
+      if (batch.length >= STAGE_BATCH) flushHours();
+    },
+    onRejectedCell: (cell) => {
+      if (rejectsStored >= MAX_STORED_REJECTS) return;
+      rejectsStored++;
+      rejects.push(cell);
+      if (rejects.length >= STAGE_BATCH) flushRejects();
+    },
+  });
+
+  const stream = await objectStream(up.objectKey);
+  let bytes = 0;
+  let lastProgress = Date.now();
+  for await (const chunk of stream) {
+    const buf = chunk as Buffer;
+    bytes += buf.length;
+    ingest.push(new Uint8Array(buf.buffer, buf.byteOffset, buf.byteLength));
+    await pending; // back-pressure: the file is read no faster than its hours are written
+    if (Date.now() - lastProgress > PROGRESS_EVERY_MS) {
+      lastProgress = Date.now();
+      await client.query('update uploads set bytes_read = $2, rows_read = $3 where id = $1', [up.id, bytes, hours]);
+    }
+  }
+  const { report, encoding } = ingest.end();
+  flushHours();
+  flushRejects();
+  await pending;
+  await client.query('update uploads set bytes_read = $2, rows_read = $3 where id = $1', [up.id, bytes, report.dataRowCount]);
+  return { report, encoding: encoding.encoding, hours, rejectsStored, bytes };
+}
+
+const toIso = (ms: number | null) => (ms === null ? null : new Date(ms).toISOString());
+
+async function insertStage(client: pg.PoolClient, uploadId: string, rows: TagHour[]) {
+  const flags = (h: TagHour) => {
+    const f: string[] = [];
+    if (h.duplicateCount) f.push(`duplicate-times:${h.duplicateCount}`);
+    if (h.outOfOrderCount) f.push(`backwards-times:${h.outOfOrderCount}`);
+    if (h.badQualityCount) f.push(`bad-quality:${h.badQualityCount}`);
+    if (h.uncertainCount) f.push(`uncertain-quality:${h.uncertainCount}`);
+    return `{${f.map((x) => `"${x}"`).join(',')}}`;
+  };
+  await client.query(
+    `insert into tag_hours_stage (upload_id, tag_name, hour_start, mean, min, max, std, first, last, samples, covered_seconds,
+       non_numeric, out_of_range, flatline, span_start, span_end, flags)
+     select $1, n, h, mean, mn, mx, sd, fi, la, ns, cs, nn, oor, fl, ss, se, fg::text[]
+     from unnest($2::text[], $3::timestamptz[], $4::float8[], $5::float8[], $6::float8[], $7::float8[], $8::float8[],
+       $9::float8[], $10::int[], $11::float8[], $12::int[], $13::int[], $14::bool[], $15::timestamptz[], $16::timestamptz[], $17::text[])
+       as x(n, h, mean, mn, mx, sd, fi, la, ns, cs, nn, oor, fl, ss, se, fg)
+     on conflict (upload_id, tag_name, hour_start) do nothing`,
+    [
+      uploadId,
+      rows.map((h) => h.tag),
+      rows.map((h) => new Date(h.hourStartMs).toISOString()),
+      rows.map((h) => h.mean),
+      rows.map((h) => h.min),
+      rows.map((h) => h.max),
+      rows.map((h) => h.stdDev),
+      rows.map((h) => h.first),
+      rows.map((h) => h.last),
+      rows.map((h) => h.sampleCount),
+      rows.map((h) => h.coveredSeconds),
+      rows.map((h) => h.nonNumericCount + h.badQualityCount),
+      rows.map((h) => h.outOfRangeCount),
+      rows.map((h) => h.flatline),
+      rows.map((h) => toIso(h.firstMs)),
+      rows.map((h) => toIso(h.lastMs)),
+      rows.map(flags),
+    ],
+  );
+}
+
+async function insertRejects(client: pg.PoolClient, uploadId: string, startSeq: number, rows: RejectedCell[]) {
+  await client.query(
+    `insert into upload_rejects (upload_id, seq, line, tag, time, raw, reason)
+     select $1, * from unnest($2::int[], $3::bigint[], $4::text[], $5::text[], $6::text[], $7::text[])`,
+    [
+      uploadId,
+      rows.map((_, i) => startSeq + i),
+      rows.map((r) => r.line),
+      rows.map((r) => r.tag),
+      rows.map((r) => (Number.isFinite(r.timeMs) ? new Date(r.timeMs).toISOString() : null)),
+      rows.map((r) => r.text.slice(0, 500)),
+      rows.map((r) => (r.reason === 'text' ? 'not a number' : 'bad quality')),
+    ],
+  );
+}
+
+/**
+ * Merges the staged tag hours of an upload in one transaction.
+ *
+ * A tag hour already holding another file's figures (two shift exports sharing an hour) is combined:
+ * when the two files' sample spans in that hour do not overlap, the figures are pooled exactly (mean
+ * and spread weighted by covered time, extremes, counts); when they overlap, the same readings
+ * arrived twice and the newer file's figures replace the older ones for that hour. Either way the
+ * previous figures are kept in tag_hour_history with the upload that replaced them.
+ */
+async function mergeStage(up: typeof uploads.$inferSelect, profile: LayoutProfile, r: StreamResult, profileId: string | null, client: pg.PoolClient) {
+  const unitOf = new Map<string, string | null>();
+  for (const c of profile.wide?.columns ?? []) unitOf.set(c.tag, c.unit);
+  const descOf = new Map<string, string | null>();
+  for (const c of profile.wide?.columns ?? []) descOf.set(c.tag, c.description);
+  const names = r.report.tags.map((t) => t.tag);
+
+  await client.query('begin');
+  try {
+    const created = await client.query(
+      `insert into tags (site_id, name, unit_hint, description, last_upload_id)
+       select $1, n, u, d, $5 from unnest($2::text[], $3::text[], $4::text[]) as x(n, u, d)
+       on conflict (site_id, name) do update set last_upload_id = excluded.last_upload_id,
+         unit_hint = coalesce(tags.unit_hint, excluded.unit_hint), description = coalesce(tags.description, excluded.description)
+       returning (xmax = 0) as inserted`,
+      [up.siteId, names, names.map((n) => unitOf.get(n) ?? null), names.map((n) => descOf.get(n) ?? null), up.id],
+    );
+    const newTags = created.rows.filter((x: { inserted: boolean }) => x.inserted).length;
+
+    const history = await client.query(
+      `insert into tag_hour_history (tag_id, hour_start, replaced_by_upload_id, previous)
+       select th.tag_id, th.hour_start, $1, to_jsonb(th)
+       from tag_hours_stage s join tags t on t.site_id = $2 and t.name = s.tag_name
+       join tag_hours th on th.tag_id = t.id and th.hour_start = s.hour_start
+       where s.upload_id = $1`,
+      [up.id, up.siteId],
+    );
+
+    // o = existing row, e = this upload's; "ov" = the sample spans overlap (same readings twice).
+    await client.query(
+      `insert into tag_hours as o (tag_id, hour_start, mean, min, max, std, first, last, samples, covered_fraction, covered_seconds,
+         non_numeric, out_of_range, flatline, span_start, span_end, upload_ids, flags, updated_at)
+       select t.id, s.hour_start, s.mean, s.min, s.max, s.std, s.first, s.last, s.samples, s.covered_seconds / 3600.0, s.covered_seconds,
+         s.non_numeric, s.out_of_range, s.flatline, s.span_start, s.span_end, array[$1::uuid], s.flags, now()
+       from tag_hours_stage s join tags t on t.site_id = $2 and t.name = s.tag_name
+       where s.upload_id = $1
+       on conflict (tag_id, hour_start) do update set
+         mean = case when ${OVERLAP} then excluded.mean else ${POOLED_MEAN} end,
+         std = case when ${OVERLAP} then excluded.std else ${POOLED_STD} end,
+         min = case when ${OVERLAP} then excluded.min else least(o.min, excluded.min) end,
+         max = case when ${OVERLAP} then excluded.max else greatest(o.max, excluded.max) end,
+         first = case when ${OVERLAP} or excluded.span_start < o.span_start then excluded.first else o.first end,
+         last = case when ${OVERLAP} or excluded.span_end > o.span_end then excluded.last else o.last end,
+         samples = case when ${OVERLAP} then excluded.samples else o.samples + excluded.samples end,
+         covered_seconds = case when ${OVERLAP} then excluded.covered_seconds else least(3600, o.covered_seconds + excluded.covered_seconds) end,
+         covered_fraction = case when ${OVERLAP} then excluded.covered_fraction else least(1, (o.covered_seconds + excluded.covered_seconds) / 3600.0) end,
+         non_numeric = case when ${OVERLAP} then excluded.non_numeric else o.non_numeric + excluded.non_numeric end,
+         out_of_range = case when ${OVERLAP} then excluded.out_of_range else o.out_of_range + excluded.out_of_range end,
+         flatline = case when ${OVERLAP} then excluded.flatline else o.flatline or excluded.flatline end,
+         span_start = case when ${OVERLAP} then excluded.span_start else least(o.span_start, excluded.span_start) end,
+         span_end = case when ${OVERLAP} then excluded.span_end else greatest(o.span_end, excluded.span_end) end,
+         upload_ids = case when ${OVERLAP} then excluded.upload_ids else excluded.upload_ids || o.upload_ids end,
+         flags = case when ${OVERLAP} then array_append(excluded.flags, 'replaced-older-file') else array_append(excluded.flags || o.flags, 'combined-files') end,
+         updated_at = now()`,
+      [up.id, up.siteId],
+    );
+
+    await client.query('delete from tag_hours_stage where upload_id = $1', [up.id]);
+    const warnings = r.report.warnings.map((w) => ({ code: w.code, message: w.message, count: w.count, lines: w.lines }));
+    const summary = {
+      rows: r.report.dataRowCount,
+      tags: names.length,
+      newTags,
+      hours: r.hours,
+      values: r.report.valueCount,
+      rejected: r.report.rejectedCount,
+      rejectedStored: r.rejectsStored,
+      blank: r.report.blankCount,
+      replacedOrCombinedHours: history.rowCount ?? 0,
+      firstTime: toIso(r.report.firstTimeMs),
+      lastTime: toIso(r.report.lastTimeMs),
+      encoding: r.encoding,
+      layout: profile.layout,
+      warnings,
+      perTag: r.report.tags.map((t) => ({ tag: t.tag, values: t.valueCount, notNumbers: t.textCount, badQuality: t.badQualityCount, blank: t.blankCount, examples: t.rejectedTexts.slice(0, 3) })),
+    };
+    await client.query(
+      `update uploads set status = 'done', finished_at = now(), summary = $2, profile_id = $3, bytes_read = $4, rows_read = $5, detection = null where id = $1`,
+      [up.id, JSON.stringify(summary), profileId, r.bytes, r.report.dataRowCount],
+    );
+    await client.query('commit');
+    return summary;
+  } catch (err) {
+    await client.query('rollback');
+    throw err;
+  }
+}
+
+const OVERLAP = `(excluded.span_start is not null and o.span_start is not null and excluded.span_start <= o.span_end and o.span_start <= excluded.span_end)`;
+// Weights: covered seconds, or sample counts for hours with no covered time (lone samples).
+const W1 = `(case when o.covered_seconds + excluded.covered_seconds > 0 then o.covered_seconds else o.samples end)`;
+const W2 = `(case when o.covered_seconds + excluded.covered_seconds > 0 then excluded.covered_seconds else excluded.samples end)`;
+const POOLED_MEAN = `(case when o.mean is null then excluded.mean when excluded.mean is null then o.mean when ${W1} + ${W2} = 0 then excluded.mean
+  else (${W1} * o.mean + ${W2} * excluded.mean) / (${W1} + ${W2}) end)`;
+const POOLED_STD = `(case when o.mean is null or o.std is null then excluded.std when excluded.mean is null or excluded.std is null then o.std when ${W1} + ${W2} = 0 then excluded.std
+  else sqrt(greatest(0, (${W1} * (o.std ^ 2 + (o.mean - ${POOLED_MEAN}) ^ 2) + ${W2} * (excluded.std ^ 2 + (excluded.mean - ${POOLED_MEAN}) ^ 2)) / (${W1} + ${W2}))) end)`;
