@@ -487,13 +487,12 @@ export function sniffLayout(sampleText: string, options: SniffOptions = {}): Lay
     const cells = valueIdx.map((j) => r.fields[j] ?? '').filter((f) => !isBlank(f));
     return cells.length === 0 ? 0 : cells.filter(isUnitLike).length / cells.length;
   };
-  let unitRec: Rec | null = null;
-  for (const r of candidates) if (unitScore(r) >= 0.6 && (!unitRec || unitScore(r) > unitScore(unitRec))) unitRec = r;
+  // names row: the one naming the time column, else the first full, unique, non-unit row; rows
+  // before it are preamble, units and descriptions are looked for after it
   let tagRec: Rec | null = keywordRow >= 0 ? candidates[keywordRow] : null;
-  if (tagRec === unitRec) tagRec = null;
   if (!tagRec) {
     for (const r of candidates) {
-      if (r === unitRec) continue;
+      if (unitScore(r) >= 0.6) continue;
       const names = valueIdx.map((j) => (r.fields[j] ?? '').trim()).filter((f) => f.length > 0);
       if (names.length >= 0.8 * valueIdx.length && new Set(names).size === names.length) {
         tagRec = r;
@@ -501,9 +500,12 @@ export function sniffLayout(sampleText: string, options: SniffOptions = {}): Lay
       }
     }
   }
+  const after = tagRec ? candidates.slice(candidates.indexOf(tagRec) + 1) : candidates;
+  let unitRec: Rec | null = null;
+  for (const r of after) if (unitScore(r) >= 0.6 && (!unitRec || unitScore(r) > unitScore(unitRec))) unitRec = r;
   let descRec: Rec | null = null;
-  for (const r of candidates) {
-    if (r === tagRec || r === unitRec) continue;
+  for (const r of after) {
+    if (r === unitRec) continue;
     const filled = valueIdx.filter((j) => !isBlank(r.fields[j] ?? '')).length;
     if (filled >= 0.5 * valueIdx.length) {
       descRec = r;
