@@ -13,9 +13,12 @@ export interface NavItem {
 export const NAV: readonly NavItem[] = [
   { href: '/', label: 'Overview', roles: ['admin', 'energy-lead', 'operator', 'planner'] },
   // --- ingest ---
+  { href: '/uploads', label: 'Uploads', roles: ['admin', 'energy-lead', 'operator'] },
   // --- plant model ---
+  { href: '/plant', label: 'Plant model', roles: ['admin', 'energy-lead', 'operator', 'planner'] },
   // --- engine and insight ---
   { href: '/admin/users', label: 'People', roles: ['admin'] },
+  { href: '/admin/tokens', label: 'API tokens', roles: ['admin'] },
 ];
 
 export function navFor(role: Role): NavItem[] {

@@ -1,0 +1,90 @@
+import { useCallback, useEffect, useState } from 'react';
+
+interface Token {
+  id: string;
+  name: string;
+  prefix: string;
+  role: string;
+  createdAt: string;
+  lastUsedAt: string | null;
+  revokedAt: string | null;
+}
+
+/** Site API tokens for scheduled exports: issued (secret shown once), listed, revoked. */
+export default function TokensAdmin({ sites }: { sites: { id: string; name: string }[] }) {
+  const [siteId, setSiteId] = useState(sites[0]?.id ?? '');
+  const [tokens, setTokens] = useState<Token[]>([]);
+  const [name, setName] = useState('');
+  const [role, setRole] = useState<'operator' | 'admin'>('operator');
+  const [secret, setSecret] = useState<string | null>(null);
+  const [error, setError] = useState<string | null>(null);
+
+  const load = useCallback(async () => {
+    if (!siteId) return;
+    const res = await fetch(`/api/sites/${siteId}/tokens`);
+    if (res.ok) setTokens((await res.json()).tokens);
+  }, [siteId]);
+  useEffect(() => void load(), [load]);
+
+  async function issue(e: React.FormEvent) {
+    e.preventDefault();
+    setError(null);
+    const res = await fetch(`/api/sites/${siteId}/tokens`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ name, role }) });
+    const data = await res.json();
+    if (!res.ok) return setError(data?.error?.message ?? 'Not issued.');
+    setSecret(data.token);
+    setName('');
+    void load();
+  }
+  async function revoke(id: string) {
+    await fetch(`/api/tokens/${id}`, { method: 'DELETE', headers: { 'content-type': 'application/json' } });
+    void load();
+  }
+
+  return (
+    <div className="space-y-6">
+      <div>
+        <label className="label" htmlFor="tok-site">Site</label>
+        <select id="tok-site" className="field max-w-sm" value={siteId} onChange={(e) => { setSiteId(e.target.value); setSecret(null); }}>
+          {sites.map((s) => (<option key={s.id} value={s.id}>{s.name}</option>))}
+        </select>
+      </div>
+      <form onSubmit={issue} className="card grid gap-3 sm:grid-cols-4">
+        <div className="sm:col-span-2">
+          <label className="label" htmlFor="tok-name">What uses it</label>
+          <input id="tok-name" className="field" value={name} onChange={(e) => setName(e.target.value)} placeholder="nightly historian export" />
+        </div>
+        <div>
+          <label className="label" htmlFor="tok-role">May</label>
+          <select id="tok-role" className="field" value={role} onChange={(e) => setRole(e.target.value as 'operator' | 'admin')}>
+            <option value="operator">send files</option>
+            <option value="admin">send files and import the plant model</option>
+          </select>
+        </div>
+        <div className="flex items-end"><button className="btn btn-primary" type="submit">Issue token</button></div>
+      </form>
+      {error && <p role="alert" className="notice-error">{error}</p>}
+      {secret && (
+        <div className="notice-ok" role="status">
+          <p className="mb-1 font-medium">Copy this token now; it is shown only once.</p>
+          <code data-testid="new-token" className="select-all break-all">{secret}</code>
+        </div>
+      )}
+      <table className="grid-table">
+        <thead><tr><th>Name</th><th>Starts with</th><th>May</th><th>Issued</th><th>Last used</th><th></th></tr></thead>
+        <tbody>
+          {tokens.map((t) => (
+            <tr key={t.id}>
+              <td>{t.name}</td>
+              <td><code>{t.prefix}…</code></td>
+              <td>{t.role === 'admin' ? 'files and model' : 'files'}</td>
+              <td>{new Date(t.createdAt).toLocaleString()}</td>
+              <td>{t.lastUsedAt ? new Date(t.lastUsedAt).toLocaleString() : 'never'}</td>
+              <td className="text-right">{t.revokedAt ? 'revoked' : <button className="btn" type="button" onClick={() => revoke(t.id)}>Revoke</button>}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </div>
+  );
+}

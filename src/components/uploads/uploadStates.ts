@@ -1,0 +1,11 @@
+import type { MarkShape } from '../StateMark';
+
+/** How each upload state is shown: words and a shape, the colour only a third cue. */
+export const UPLOAD_STATE_LOOK: Record<string, { label: string; shape: MarkShape; className: string }> = {
+  'awaiting-file': { label: 'arriving', shape: 'ring', className: 'text-slate' },
+  queued: { label: 'waiting to be read', shape: 'ring', className: 'text-slate' },
+  'needs-review': { label: 'needs your review', shape: 'triangle', className: 'text-amber' },
+  processing: { label: 'being read', shape: 'bar', className: 'text-teal' },
+  done: { label: 'read', shape: 'circle', className: 'text-teal-deep' },
+  failed: { label: 'not read', shape: 'diamond', className: 'text-alert' },
+};
