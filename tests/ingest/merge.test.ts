@@ -1,0 +1,56 @@
+import { describe, expect, it } from 'vitest';
+import { aggregateSamples } from '../../src/lib/ingest/index';
+import type { Sample } from '../../src/lib/ingest/index';
+import { utc } from './helpers';
+
+const at = (hm: string) => utc(`2024-03-05T${hm}:00Z`);
+const series = (tag: string, from: string, to: string, stepMin: number, value: number): Sample[] => {
+  const out: Sample[] = [];
+  for (let t = at(from); t <= at(to); t += stepMin * 60_000) out.push({ tag, timeMs: t, value });
+  return out;
+};
+
+describe('aggregateSamples', () => {
+  it('recomputes an hour from one set of stored samples', () => {
+    const hours = aggregateSamples(series('B1.FT-101', '10:00', '11:00', 10, 7), { timeZone: 'UTC' });
+    expect(hours.map((h) => [h.hourStartMs, h.mean, h.coveredSeconds])).toEqual([
+      [at('10:00'), 7, 3600],
+      [at('11:00'), 7, 0],
+    ]);
+  });
+
+  it('the newer upload wins inside the span it covers; older samples elsewhere are kept', () => {
+    const older = { priority: 1, samples: series('B1.FT-101', '10:00', '11:00', 10, 10) };
+    const newer = { priority: 2, samples: series('B1.FT-101', '10:20', '10:40', 10, 20) };
+    const hours = aggregateSamples([older, newer], { timeZone: 'UTC', toMs: at('11:00') });
+    // kept: 10 at 10:00, 10:10 (older); 20 at 10:20, 10:30, 10:40 (newer); 10 at 10:50, 11:00 (older)
+    // trapezoids of 10 min: 10, 15, 20, 20, 15, 10 -> 90 / 6 = 15
+    expect(hours).toHaveLength(1);
+    expect(hours[0]).toMatchObject({ mean: 15, sampleCount: 6, min: 10, max: 20, coveredSeconds: 3600, duplicateCount: 0 });
+  });
+
+  it('an explicit span drops older samples even where the newer source has none', () => {
+    const older = { priority: 1, samples: series('B1.FT-101', '10:00', '11:00', 10, 10) };
+    const newer = { priority: 2, spanStartMs: at('10:00'), spanEndMs: at('10:35'), samples: series('B1.FT-101', '10:00', '10:30', 10, 30) };
+    const hours = aggregateSamples([older, newer], { timeZone: 'UTC', fromMs: at('10:00'), toMs: at('11:00') });
+    // kept: 30 at 10:00..10:30 (newer), 10 at 10:40, 10:50 (older; 10:40 is outside the span)
+    // pieces: 30,30,30 (30 min) then 10:30->10:40 30->10 (20), 10:40->10:50 (10), 10:50->11:00 (10)
+    // mean = (30*30 + 20*10 + 10*10 + 10*10) / 60 = 1300 / 60
+    expect(hours[0].mean).toBeCloseTo(1300 / 60, 12);
+  });
+
+  it('keeps tags apart, sorts hours by tag, and reads null values and quality', () => {
+    const samples: Sample[] = [
+      { tag: 'B1.TT-102', timeMs: at('10:00'), value: 480 },
+      { tag: 'B1.TT-102', timeMs: at('10:10'), value: null, raw: 'Shutdown' },
+      { tag: 'B1.FT-101', timeMs: at('10:00'), value: 5, quality: '192' },
+      { tag: 'B1.FT-101', timeMs: at('10:10'), value: 6, quality: 'Bad' },
+      { tag: 'B1.FT-101', timeMs: at('10:20'), value: null },
+    ];
+    const hours = aggregateSamples(samples, { timeZone: 'UTC' });
+    expect(hours.map((h) => [h.tag, h.sampleCount, h.nonNumericCount, h.badQualityCount])).toEqual([
+      ['B1.FT-101', 1, 0, 1],
+      ['B1.TT-102', 1, 1, 0],
+    ]);
+  });
+});
