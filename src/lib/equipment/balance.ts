@@ -188,20 +188,18 @@ export function resolvePorts(ports: BalancePort[], env: Environment, opts: Resol
   const fluids: Fluid[] = new Array(n);
   const states: (PortState | null)[] = new Array(n);
   const groups: string[] = new Array(n);
-  const names = new Set<string>();
   let flowUnknown = -1;
-  const unknownStates: number[] = [];
+  let nUnknownStates = 0;
   for (let i = 0; i < n; i++) {
     const p = ports[i];
-    if (names.has(p.name)) throw new BalanceInputError('INVALID_MODEL', p.name, 'two ports have the same name');
-    names.add(p.name);
+    for (let j = 0; j < i; j++) if (ports[j].name === p.name) throw new BalanceInputError('INVALID_MODEL', p.name, 'two ports have the same name');
     if (p.direction !== 'in' && p.direction !== 'out') {
       throw new BalanceInputError('INVALID_MODEL', p.name, `direction must be 'in' or 'out', got '${String(p.direction)}'`);
     }
     fluids[i] = fluidOf(p.fluid);
     states[i] = stateOfPort(p, fluids[i], env);
-    if (states[i] === null) unknownStates.push(i);
-    groups[i] = p.group ?? opts.defaultGroup?.(p) ?? 'main';
+    if (states[i] === null) nUnknownStates++;
+    groups[i] = p.group ?? (opts.defaultGroup ? opts.defaultGroup(p) : 'main');
     const f = p.mDot_kg_per_s;
     if (f === 'energy-balance') {
       if (flowUnknown >= 0) throw new BalanceInputError('INVALID_MODEL', p.name, `only one flow may come from the energy balance (also ${ports[flowUnknown].name})`);
@@ -209,107 +207,145 @@ export function resolvePorts(ports: BalancePort[], env: Environment, opts: Resol
     } else if (typeof f === 'number') {
       requireInput(`${p.name}.mDot_kg_per_s`, f, 0, 1e6, 'kg/s', 'mass flow');
     } else if (f === 'fuel-ratio') {
-      const v = opts.fuelRatioFlows?.[p.name];
-      if (v === undefined) throw new BalanceInputError('INVALID_MODEL', p.name, "a 'fuel-ratio' flow exists only for boiler air and flue gas");
+      if (opts.fuelRatioFlows?.[p.name] === undefined) throw new BalanceInputError('INVALID_MODEL', p.name, "a 'fuel-ratio' flow exists only for boiler air and flue gas");
     } else if (f !== 'mass-balance') {
       throw new BalanceInputError('MISSING_INPUT', `${p.name}.mDot_kg_per_s`, `a flow, 'mass-balance', 'energy-balance' or 'fuel-ratio' is needed, got ${String(f)}`);
     }
   }
-  if (flowUnknown >= 0 && unknownStates.length > 0) {
+  if (flowUnknown >= 0 && nUnknownStates > 0) {
     throw new BalanceInputError('INVALID_MODEL', ports[flowUnknown].name, 'a flow and a state cannot both come from the one energy balance');
   }
-  // Mass-balance ports per group.
-  const mbOf = new Map<string, number>();
+  // Mass-balance port of each port's group (-1: none).
+  const mbOf = new Int32Array(n).fill(-1);
   for (let i = 0; i < n; i++) {
-    if (ports[i].mDot_kg_per_s === 'mass-balance') {
-      if (mbOf.has(groups[i])) {
-        throw new BalanceInputError('INVALID_MODEL', ports[i].name, `group '${groups[i]}' has two 'mass-balance' flows (also ${ports[mbOf.get(groups[i])!].name})`);
+    if (ports[i].mDot_kg_per_s !== 'mass-balance') continue;
+    for (let j = 0; j < n; j++) {
+      if (groups[j] !== groups[i]) continue;
+      if (mbOf[j] >= 0 && mbOf[j] !== i) {
+        throw new BalanceInputError('INVALID_MODEL', ports[i].name, `group '${groups[i]}' has two 'mass-balance' flows (also ${ports[mbOf[j]].name})`);
       }
-      mbOf.set(groups[i], i);
+      mbOf[j] = i;
     }
   }
   const flows = new Float64Array(n);
-  const fillFlows = (u: number): void => {
-    for (let i = 0; i < n; i++) {
-      const f = ports[i].mDot_kg_per_s;
-      flows[i] = typeof f === 'number' ? f : f === 'energy-balance' ? u : f === 'fuel-ratio' ? opts.fuelRatioFlows![ports[i].name] : 0;
-    }
-    for (const [g, j] of mbOf) {
-      let net = 0; // in - out over the others of the group
-      for (let i = 0; i < n; i++) if (i !== j && groups[i] === g) net += ports[i].direction === 'in' ? flows[i] : -flows[i];
-      flows[j] = ports[j].direction === 'out' ? net : -net;
-    }
-  };
-  const energyResidual = (): number => {
-    let r = (opts.heat_W ?? 0) - opts.work_W;
-    for (let i = 0; i < n; i++) {
-      const st = states[i];
-      if (!st) continue;
-      r += (ports[i].direction === 'in' ? 1 : -1) * flows[i] * energyOf(st);
-    }
-    return r;
-  };
   let commonEta = NaN;
   if (flowUnknown >= 0) {
-    fillFlows(0);
-    const r0 = energyResidual();
-    fillFlows(1);
-    const r1 = energyResidual() - r0;
+    fillFlows(ports, groups, mbOf, opts.fuelRatioFlows, 0, flows);
+    const r0 = energyResidualOf(ports, states, flows, opts);
+    fillFlows(ports, groups, mbOf, opts.fuelRatioFlows, 1, flows);
+    const r1 = energyResidualOf(ports, states, flows, opts) - r0;
     if (!(Math.abs(r1) > 0)) throw new BalanceInputError('UNSOLVABLE', ports[flowUnknown].name, 'the energy balance does not depend on this flow');
     const u = -r0 / r1;
     if (!(u >= 0)) throw new BalanceInputError('IMPOSSIBLE_INPUT', `${ports[flowUnknown].name}.mDot_kg_per_s`, `the energy balance gives a negative flow (${u} kg/s)`);
-    fillFlows(u);
+    fillFlows(ports, groups, mbOf, opts.fuelRatioFlows, u, flows);
   } else {
-    fillFlows(0);
+    fillFlows(ports, groups, mbOf, opts.fuelRatioFlows, 0, flows);
   }
   for (let i = 0; i < n; i++) {
     if (!(flows[i] >= 0)) {
       throw new BalanceInputError('IMPOSSIBLE_INPUT', `${ports[i].name}.mDot_kg_per_s`, `the mass balance gives a negative flow (${flows[i]} kg/s)`);
     }
   }
-  if (unknownStates.length === 1) {
-    const j = unknownStates[0];
-    const r = energyResidual(); // without port j
+  if (nUnknownStates === 1) {
+    let j = 0;
+    while (states[j] !== null) j++;
+    const r = energyResidualOf(ports, states, flows, opts); // without port j
     if (!(flows[j] > 0)) throw new BalanceInputError('UNSOLVABLE', ports[j].name, 'a state from the energy balance needs a flow > 0');
     const e = (ports[j].direction === 'out' ? r : -r) / flows[j];
     states[j] = stateFromEnergy(ports[j], fluids[j], e, env);
-  } else if (unknownStates.length > 1) {
-    const inlets = ports.map((p, i) => i).filter((i) => ports[i].direction === 'in');
-    if (inlets.length !== 1 || unknownStates.some((j) => ports[j].direction !== 'out')) {
-      throw new BalanceInputError('INVALID_MODEL', ports[unknownStates[0]].name, 'several states from the energy balance need one inlet and unknown outlets only');
-    }
-    const inSt = states[inlets[0]]!;
-    const r = energyResidual(); // sum over unknown outlets of m_j e_j must equal r
-    let num = -r;
-    let den = 0;
-    const hs = unknownStates.map((j) => {
-      const m = ports[j].measured as { p_Pa: number; velocity_m_per_s?: number; elevation_m?: number };
-      const h_s = fluids[j].hIsentropic(m.p_Pa, inSt.s);
-      const ke = 0.5 * (m.velocity_m_per_s ?? 0) ** 2 + G_m_per_s2 * (m.elevation_m ?? 0);
-      num += flows[j] * (inSt.h + ke);
-      den += flows[j] * (inSt.h - h_s);
-      return h_s;
-    });
-    if (!(den > 0)) throw new BalanceInputError('UNSOLVABLE', ports[unknownStates[0]].name, 'no isentropic enthalpy drop to the unknown outlets');
-    commonEta = num / den;
-    unknownStates.forEach((j, k) => {
-      const m = ports[j].measured as { velocity_m_per_s?: number; elevation_m?: number };
-      const h = inSt.h - commonEta * (inSt.h - hs[k]);
-      states[j] = fluids[j].statePH((ports[j].measured as { p_Pa: number }).p_Pa, h, env, m.velocity_m_per_s ?? 0, m.elevation_m ?? 0);
-    });
+  } else if (nUnknownStates > 1) {
+    commonEta = solveCommonExpansion(ports, fluids, states, flows, env, energyResidualOf(ports, states, flows, opts));
   }
-  return {
-    ports: ports.map((p, i) => ({
-      name: p.name,
-      direction: p.direction,
-      fluid: fluids[i],
-      mDot: flows[i],
-      state: states[i]!,
-      role: p.role,
-      group: groups[i],
-    })),
-    commonExpansionEfficiency: commonEta,
-  };
+  const out: ResolvedPort[] = new Array(n);
+  for (let i = 0; i < n; i++) {
+    const p = ports[i];
+    out[i] = { name: p.name, direction: p.direction, fluid: fluids[i], mDot: flows[i], state: states[i]!, role: p.role, group: groups[i] };
+  }
+  return { ports: out, commonExpansionEfficiency: commonEta };
+}
+
+function fillFlows(
+  ports: BalancePort[],
+  groups: string[],
+  mbOf: Int32Array,
+  ratio: Record<string, number> | undefined,
+  u: number,
+  flows: Float64Array,
+): void {
+  const n = ports.length;
+  for (let i = 0; i < n; i++) {
+    const f = ports[i].mDot_kg_per_s;
+    flows[i] = typeof f === 'number' ? f : f === 'energy-balance' ? u : f === 'fuel-ratio' ? ratio![ports[i].name] : 0;
+  }
+  for (let j = 0; j < n; j++) {
+    if (mbOf[j] !== j) continue; // j is its group's mass-balance port
+    let net = 0; // in - out over the others of the group
+    for (let i = 0; i < n; i++) if (i !== j && groups[i] === groups[j]) net += ports[i].direction === 'in' ? flows[i] : -flows[i];
+    flows[j] = ports[j].direction === 'out' ? net : -net;
+  }
+}
+
+/** Q - W + sum_in m e - sum_out m e over the ports whose state is known [W]. */
+function energyResidualOf(ports: BalancePort[], states: (PortState | null)[], flows: Float64Array, opts: ResolveOptions): number {
+  let r = (opts.heat_W ?? 0) - opts.work_W;
+  for (let i = 0; i < ports.length; i++) {
+    const st = states[i];
+    if (st) r += (ports[i].direction === 'in' ? 1 : -1) * flows[i] * energyOf(st);
+  }
+  return r;
+}
+
+/** Several unknown outlet states on one expansion line of common isentropic efficiency (see resolvePorts). */
+function solveCommonExpansion(
+  ports: BalancePort[],
+  fluids: Fluid[],
+  states: (PortState | null)[],
+  flows: Float64Array,
+  env: Environment,
+  r: number,
+): number {
+  let inlet = -1;
+  let nIn = 0;
+  let first = -1;
+  for (let i = 0; i < ports.length; i++) {
+    if (ports[i].direction === 'in') {
+      nIn++;
+      inlet = i;
+    }
+    if (states[i] === null) {
+      if (first < 0) first = i;
+      if (ports[i].direction !== 'out') nIn = -99;
+    }
+  }
+  if (nIn !== 1 || !states[inlet]) {
+    throw new BalanceInputError('INVALID_MODEL', ports[first].name, 'several states from the energy balance need one inlet and unknown outlets only');
+  }
+  const inSt = states[inlet]!;
+  const hs = new Float64Array(ports.length);
+  let num = -r; // sum over unknown outlets of m_j e_j must equal r
+  let den = 0;
+  for (let j = 0; j < ports.length; j++) {
+    if (states[j] !== null) continue;
+    const m = ports[j].measured as { p_Pa: number; velocity_m_per_s?: number; elevation_m?: number };
+    hs[j] = fluids[j].hIsentropic(m.p_Pa, inSt.s);
+    const V = m.velocity_m_per_s ?? 0;
+    num += flows[j] * (inSt.h + 0.5 * V * V + G_m_per_s2 * (m.elevation_m ?? 0));
+    den += flows[j] * (inSt.h - hs[j]);
+  }
+  if (!(den > 0)) throw new BalanceInputError('UNSOLVABLE', ports[first].name, 'no isentropic enthalpy drop to the unknown outlets');
+  const eta = num / den;
+  for (let j = 0; j < ports.length; j++) {
+    if (states[j] !== null) continue;
+    const m = ports[j].measured as { p_Pa: number; velocity_m_per_s?: number; elevation_m?: number };
+    const h = inSt.h - eta * (inSt.h - hs[j]);
+    try {
+      states[j] = fluids[j].statePH(m.p_Pa, h, env, m.velocity_m_per_s ?? 0, m.elevation_m ?? 0);
+    } catch (err) {
+      if (err instanceof BalanceInputError) throw err;
+      throw new BalanceInputError('UNSOLVABLE', ports[j].name, `the expansion line gives h = ${h} J/kg at p = ${m.p_Pa} Pa, outside the property range (${(err as Error).message})`);
+    }
+  }
+  return eta;
 }
 
 function stateFromEnergy(port: BalancePort, fluid: Fluid, e: number, env: Environment): PortState {
@@ -371,22 +407,22 @@ export function streamExergy(p: ResolvedPort, chemical: boolean): number {
  */
 export function assemble(a: AssembleInput): UnitBalance {
   const T0 = a.env.T0_K;
-  const streams: BalanceStream[] = a.ports.map((p) => ({
-    mDot_kg_per_s: p.mDot,
-    h_J_per_kg: p.state.h,
-    s_J_per_kgK: p.state.s,
-    psi_J_per_kg: streamExergy(p, a.chemical),
-    direction: p.direction,
-    label: p.name,
-    velocity_m_per_s: p.state.velocity_m_per_s,
-    elevation_m: p.state.elevation_m,
-  }));
-  const cv = controlVolumeBalance({
-    T0_K: T0,
-    streams,
-    heat: a.heats.map((q) => ({ Q_W: q.Q_W, Tb_K: q.Tb_K, label: q.label })),
-    power_W: a.powers.map((w) => ({ power_W: w.power_W, label: w.label })),
-  });
+  const np = a.ports.length;
+  const streams: BalanceStream[] = new Array(np);
+  for (let i = 0; i < np; i++) {
+    const p = a.ports[i];
+    streams[i] = {
+      mDot_kg_per_s: p.mDot,
+      h_J_per_kg: p.state.h,
+      s_J_per_kgK: p.state.s,
+      psi_J_per_kg: streamExergy(p, a.chemical),
+      direction: p.direction,
+      label: p.name,
+      velocity_m_per_s: p.state.velocity_m_per_s,
+      elevation_m: p.state.elevation_m,
+    };
+  }
+  const cv = controlVolumeBalance({ T0_K: T0, streams, heat: a.heats, power_W: a.powers });
   let F = 0;
   let P = 0;
   let L = 0;
@@ -399,7 +435,7 @@ export function assemble(a: AssembleInput): UnitBalance {
   for (const p of a.ports) if (p.direction === 'in') throughput += p.mDot * Math.max(0, p.state.h - p.state.h0);
   for (const w of a.powers) if (w.power_W < 0) throughput -= w.power_W;
   for (const q of a.heats) if (q.Q_W > 0) throughput += q.Q_W;
-  const flags = [...(a.flags ?? [])];
+  const flags = a.flags ?? [];
   const ports: UnitBalance['ports'] = {};
   for (const p of a.ports) {
     ports[p.name] = { direction: p.direction, mDot_kg_per_s: p.mDot, state: p.state };
@@ -420,7 +456,7 @@ export function assemble(a: AssembleInput): UnitBalance {
     energyResidual_W: cv.energyResidual_W,
     energyClosure_pct: throughput > 0 ? (100 * cv.energyResidual_W) / throughput : 0,
     terms: a.terms,
-    extras: { ...(a.extras ?? {}), roleClosure_W: F - P - L - D },
+    extras: a.extras ?? {},
     flags,
     ports,
   };

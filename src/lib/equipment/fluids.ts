@@ -145,28 +145,28 @@ interface DeadValues {
   readonly eCh: number | null;
 }
 
-/** A small least-recently-used memo of up to three entries keyed by two numbers. */
+/** A small least-recently-used memo of up to three entries keyed by two numbers (no closures: hot path). */
 class Memo2<V> {
   private k0 = [NaN, NaN, NaN];
   private k1 = [NaN, NaN, NaN];
   private v: (V | undefined)[] = [undefined, undefined, undefined];
   private age = [0, 0, 0];
   private clock = 0;
-  get(a: number, b: number, make: () => V): V {
-    const k0 = this.k0;
-    const k1 = this.k1;
+  find(a: number, b: number): V | undefined {
     for (let i = 0; i < 3; i++) {
-      if (k0[i] === a && k1[i] === b) {
+      if (this.k0[i] === a && this.k1[i] === b) {
         this.age[i] = ++this.clock;
-        return this.v[i]!;
+        return this.v[i];
       }
     }
-    const value = make();
+    return undefined;
+  }
+  put(a: number, b: number, value: V): V {
     let j = 0;
     if (this.age[1] < this.age[j]) j = 1;
     if (this.age[2] < this.age[j]) j = 2;
-    k0[j] = a;
-    k1[j] = b;
+    this.k0[j] = a;
+    this.k1[j] = b;
     this.v[j] = value;
     this.age[j] = ++this.clock;
     return value;
@@ -202,6 +202,13 @@ export function buildFuel(spec: FuelSpec): Fuel {
   if ('ultimate' in spec) return condensedFuel(spec.ultimate, spec.LHV_J_per_kg, spec.label ?? 'fuel');
   if ('fuelType' in spec) return fuelByHeatingValue(spec.fuelType, spec.LHV_J_per_kg);
   throw new BalanceInputError('INVALID_MODEL', 'fuel', 'give composition, ultimate + LHV_J_per_kg, or fuelType + LHV_J_per_kg');
+}
+
+/** The FuelSpec of a fuel fluid ('fuel-gas' or 'fuel'), else undefined. */
+export function fuelSpecOf(spec: FluidSpec): FuelSpec | undefined {
+  if (spec.kind === 'fuel-gas') return { composition: spec.composition };
+  if (spec.kind === 'fuel') return spec.fuel;
+  return undefined;
 }
 
 /**
@@ -268,7 +275,7 @@ class WaterFluid implements Fluid {
     return this;
   }
   deadValues(env: Environment): DeadValues {
-    return this.memo.get(env.T0_K, env.p0_Pa, () => ({ dead: deadState.water(env.T0_K, env.p0_Pa), eCh: null }));
+    return this.memo.find(env.T0_K, env.p0_Pa) ?? this.memo.put(env.T0_K, env.p0_Pa, { dead: deadState.water(env.T0_K, env.p0_Pa), eCh: null });
   }
   state(m: PortMeasurement, env: Environment): PortState {
     const p = need(m, 'p_Pa', 'water');
@@ -319,7 +326,10 @@ class GasFluid implements Fluid {
     return this;
   }
   deadValues(env: Environment): DeadValues {
-    return this.memo.get(env.T0_K, env.p0_Pa, () => {
+    return this.memo.find(env.T0_K, env.p0_Pa) ?? this.memo.put(env.T0_K, env.p0_Pa, this.computeDead(env));
+  }
+  private computeDead(env: Environment): DeadValues {
+    {
       const mix = this.mixture;
       const dead: DeadState = Object.freeze({ ...deadState.gas(mix, env.T0_K, env.p0_Pa), h0: mix.h(env.T0_K) + this.hOffset });
       let eCh: number | null;
@@ -333,7 +343,7 @@ class GasFluid implements Fluid {
         }
       }
       return { dead, eCh };
-    });
+    }
   }
   state(m: PortMeasurement, env: Environment): PortState {
     const p = need(m, 'p_Pa', 'gas');
@@ -389,7 +399,7 @@ class LiquidFluid implements Fluid {
     return this;
   }
   deadValues(env: Environment): DeadValues {
-    return this.memo.get(env.T0_K, env.p0_Pa, () => ({ dead: deadState.liquid(this.liq, env.T0_K, env.p0_Pa), eCh: null }));
+    return this.memo.find(env.T0_K, env.p0_Pa) ?? this.memo.put(env.T0_K, env.p0_Pa, { dead: deadState.liquid(this.liq, env.T0_K, env.p0_Pa), eCh: null });
   }
   state(m: PortMeasurement, env: Environment): PortState {
     const p = need(m, 'p_Pa', 'liquid');
@@ -418,10 +428,10 @@ class FlueGasFamily implements Fluid {
   ) {}
   withO2(O2_fraction: number): GasFluid {
     requireInput('O2_fraction', O2_fraction, 0, 0.2, '[-]', `flue-gas O2 (${this.spec.o2Basis} basis)`);
-    return this.memo.get(O2_fraction, 0, () => {
-      const comb = combustionFromO2(this.fuel, { O2_fraction, basis: this.spec.o2Basis }, this.spec.air);
-      return new GasFluid(this.spec, comb.flueGas, { kind: 'mixture', strict: true }, 0, this.fuel, comb);
-    });
+    const hit = this.memo.find(O2_fraction, 0);
+    if (hit) return hit;
+    const comb = combustionFromO2(this.fuel, { O2_fraction, basis: this.spec.o2Basis }, this.spec.air);
+    return this.memo.put(O2_fraction, 0, new GasFluid(this.spec, comb.flueGas, { kind: 'mixture', strict: true }, 0, this.fuel, comb));
   }
   deadValues(): DeadValues {
     throw new BalanceInputError('MISSING_INPUT', 'O2_fraction', 'flue gas needs its measured O2 fraction');

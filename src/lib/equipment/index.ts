@@ -51,3 +51,15 @@ export type {
   PortBalanceInput,
   TurbineInput,
 } from './kinds';
+export { compileUnit, compiledUnit, evaluateUnitHour, inputNames, inputVector, unitHourWithUncertainty } from './model';
+export type {
+  CompiledUnit,
+  GenericTermSpec,
+  PortFlowMode,
+  PortSpec,
+  PortStateMode,
+  Uncertain,
+  UncertaintyOptions,
+  UnitHourUncertainty,
+  UnitModel,
+} from './model';

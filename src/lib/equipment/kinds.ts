@@ -23,13 +23,25 @@ import {
   type UnitTerm,
 } from './balance';
 import { BalanceInputError, requireInput } from './errors';
-import { fluidOf, prepareFluid, type Environment, type Fluid, type FluidSpec, type FuelSpec, type PortMeasurement } from './fluids';
+import { fluidOf, fuelSpecOf, prepareFluid, type Environment, type Fluid, type FluidSpec, type PortMeasurement } from './fluids';
 
 /** Common input of the port-based balances. */
 export interface PortBalanceInput {
   /** dead state: T0_K [K], p0_Pa [Pa] */
   env: Environment;
   ports: BalancePort[];
+  /** false skips companion figures (isentropic efficiency ...) that F, P, L, D do not need; default true */
+  companions?: boolean;
+}
+
+function roleGroup(p: BalancePort): string {
+  return p.role ?? 'main';
+}
+
+function termsOf(ports: ResolvedPort[], role: TermRole, chemical: boolean): UnitTerm[] {
+  const out: UnitTerm[] = new Array(ports.length);
+  for (let i = 0; i < ports.length; i++) out[i] = streamTerm(ports[i], role, chemical);
+  return out;
 }
 
 function checkEnv(env: Environment): void {
@@ -53,6 +65,25 @@ function requirePorts(kind: string, ports: BalancePort[], minIn: number, minOut:
   if (no < minOut || no > maxOut) {
     throw new BalanceInputError(no < minOut ? 'MISSING_INPUT' : 'INVALID_MODEL', 'ports', `a ${kind} needs ${maxOut === minOut ? minOut : `${minOut}..${maxOut}`} outlet port(s), got ${no}`);
   }
+}
+
+/**
+ * Checks that side a (always) and side b (when required, else when present) have an inlet and an
+ * outlet; returns whether side b is present.
+ */
+function requireSides(ports: BalancePort[], a: string, b: string, bRequired: boolean): boolean {
+  let aIn = 0;
+  let aOut = 0;
+  let bIn = 0;
+  let bOut = 0;
+  for (const p of ports) {
+    if (p.role === a) p.direction === 'in' ? aIn++ : aOut++;
+    else if (p.role === b) p.direction === 'in' ? bIn++ : bOut++;
+  }
+  if (aIn < 1 || aOut < 1) throw new BalanceInputError('MISSING_INPUT', a, `the ${a} side needs an inlet and an outlet`);
+  const hasB = bIn + bOut > 0;
+  if ((bRequired || hasB) && (bIn < 1 || bOut < 1)) throw new BalanceInputError('MISSING_INPUT', b, `the ${b} side needs an inlet and an outlet`);
+  return hasB;
 }
 
 function streamTerm(p: ResolvedPort, role: TermRole, chemical: boolean): UnitTerm {
@@ -100,13 +131,15 @@ export function turbineBalance(input: TurbineInput): UnitBalance {
     shaft = input.power_W / eta;
   }
   const res = resolvePorts(input.ports, input.env, { work_W: shaft });
-  const terms: UnitTerm[] = res.ports.map((p) => streamTerm(p, 'fuel', false));
+  const terms = termsOf(res.ports, 'fuel', false);
   terms.push({ label: 'shaft power', role: 'product', exergy_W: shaft });
   const extras: Record<string, number> = { shaftPower_W: shaft };
-  const inlets = res.ports.filter((p) => p.direction === 'in');
-  if (inlets.length === 1) {
-    const hin = inlets[0].state.h;
-    const sin = inlets[0].state.s;
+  let inlet: ResolvedPort | null = null;
+  let nIn = 0;
+  for (const p of res.ports) if (p.direction === 'in') (inlet = p), nIn++;
+  if (nIn === 1 && input.companions !== false) {
+    const hin = inlet!.state.h;
+    const sin = inlet!.state.s;
     let actual = 0;
     let ideal = 0;
     for (const p of res.ports) {
@@ -165,12 +198,12 @@ export function compressorBalance(input: CompressorInput): UnitBalance {
   const terms: UnitTerm[] = [{ label: 'shaft power', role: 'fuel', exergy_W: shaft }];
   for (const p of res.ports) terms.push(streamTerm(p, 'product', false));
   const extras: Record<string, number> = { shaftPower_W: shaft };
-  const ins = res.ports.filter((p) => p.direction === 'in');
-  const outs = res.ports.filter((p) => p.direction === 'out');
-  if (ins.length === 1 && outs.length === 1) {
-    const a = ins[0].state;
-    const b = outs[0].state;
-    const hs = outs[0].fluid.hIsentropic(b.p, a.s);
+  if (res.ports.length === 2 && input.companions !== false) {
+    const inP = res.ports[0].direction === 'in' ? res.ports[0] : res.ports[1];
+    const outP = inP === res.ports[0] ? res.ports[1] : res.ports[0];
+    const a = inP.state;
+    const b = outP.state;
+    const hs = outP.fluid.hIsentropic(b.p, a.s);
     extras.isentropicEfficiency = b.h !== a.h ? (hs - a.h) / (b.h - a.h) : NaN;
   }
   return assemble({ kind, env: input.env, ports: res.ports, chemical: false, powers: [{ label: 'shaft power', power_W: -shaft }], heats: [], terms, hasProduct: true, extras });
@@ -201,11 +234,8 @@ export function heatExchangerBalance(input: HeatExchangerInput): UnitBalance {
   for (const p of input.ports) {
     if (p.role !== 'hot' && p.role !== 'cold') throw new BalanceInputError('INVALID_MODEL', p.name, `a heat-exchanger port needs role 'hot' or 'cold', got '${p.role}'`);
   }
-  for (const side of ['hot', 'cold']) {
-    const ps = input.ports.filter((p) => p.role === side);
-    if (countDir(ps, 'in') < 1 || countDir(ps, 'out') < 1) throw new BalanceInputError('MISSING_INPUT', 'ports', `the ${side} side needs an inlet and an outlet`);
-  }
-  const res = resolvePorts(input.ports, input.env, { work_W: 0, defaultGroup: (p) => p.role! });
+  requireSides(input.ports, 'hot', 'cold', true);
+  const res = resolvePorts(input.ports, input.env, { work_W: 0, defaultGroup: roleGroup });
   const flags: string[] = [];
   for (const p of res.ports) {
     if (p.state.T < input.env.T0_K) {
@@ -219,7 +249,8 @@ export function heatExchangerBalance(input: HeatExchangerInput): UnitBalance {
       if (!flags.includes('below-dead-state-definitions')) flags.push('below-dead-state-definitions');
     }
   }
-  const terms = res.ports.map((p) => streamTerm(p, p.role === 'hot' ? 'fuel' : 'product', false));
+  const terms: UnitTerm[] = [];
+  for (const p of res.ports) terms.push(streamTerm(p, p.role === 'hot' ? 'fuel' : 'product', false));
   let dutyHot = 0;
   let dutyCold = 0;
   for (const p of res.ports) {
@@ -250,12 +281,6 @@ export function heatExchangerBalance(input: HeatExchangerInput): UnitBalance {
  * Air and flue-gas flows may be 'fuel-ratio': fuel flow times the combustion ratio from the O2.
  */
 export type BoilerInput = PortBalanceInput;
-
-function fuelSpecOf(spec: FluidSpec): FuelSpec | undefined {
-  if (spec.kind === 'fuel-gas') return { composition: spec.composition };
-  if (spec.kind === 'fuel') return spec.fuel;
-  return undefined;
-}
 
 function sameHumidity(a: AirSpec | undefined, b: AirSpec | undefined): boolean {
   const w = (s: AirSpec | undefined) => [s?.H2O_mol_per_molDryAir ?? null, s?.humidityRatio_kg_per_kg ?? null].join(',');
@@ -398,7 +423,7 @@ export function valveBalance(input: PortBalanceInput): UnitBalance {
   checkEnv(input.env);
   requirePorts('valve', input.ports, 1, 1, 1, 1);
   const res = resolvePorts(input.ports, input.env, { work_W: 0 });
-  const terms = res.ports.map((p) => streamTerm(p, 'fuel', false));
+  const terms = termsOf(res.ports, 'fuel', false);
   return assemble({ kind: 'valve', env: input.env, ports: res.ports, chemical: false, powers: [], heats: [], terms, hasProduct: false });
 }
 
@@ -428,10 +453,12 @@ export function mixerBalance(input: MixerInput): UnitBalance {
     const ok = p.direction === 'in' ? [undefined, 'hot', 'cold'] : [undefined, 'outlet', 'vent'];
     if (!ok.includes(p.role)) throw new BalanceInputError('INVALID_MODEL', p.name, `role '${p.role}' does not apply to a ${kind} ${p.direction === 'in' ? 'inlet' : 'outlet'} (use ${ok.slice(1).join(' or ')})`);
   }
-  const mains = input.ports.filter((p) => p.direction === 'out' && p.role !== 'vent');
-  if (mains.length !== 1) throw new BalanceInputError(mains.length ? 'INVALID_MODEL' : 'MISSING_INPUT', 'outlet', `a ${kind} needs exactly one main outlet (others are role 'vent'), got ${mains.length}`);
+  let nMain = 0;
+  let iMain = -1;
+  for (let i = 0; i < input.ports.length; i++) if (input.ports[i].direction === 'out' && input.ports[i].role !== 'vent') (nMain++, (iMain = i));
+  if (nMain !== 1) throw new BalanceInputError(nMain ? 'INVALID_MODEL' : 'MISSING_INPUT', 'outlet', `a ${kind} needs exactly one main outlet (others are role 'vent'), got ${nMain}`);
   const res = resolvePorts(input.ports, input.env, { work_W: 0 });
-  const out = res.ports.find((p) => p.name === mains[0].name)!;
+  const out = res.ports[iMain];
   const psiOut = out.state.psi;
   const terms: UnitTerm[] = [];
   let coldMass = 0;
@@ -474,20 +501,18 @@ export function condenserBalance(input: CondenserInput): UnitBalance {
   for (const p of input.ports) {
     if (p.role !== 'process' && p.role !== 'cooling') throw new BalanceInputError('INVALID_MODEL', p.name, `a ${kind} port needs role 'process' or 'cooling', got '${p.role}'`);
   }
-  const proc = input.ports.filter((p) => p.role === 'process');
-  const cool = input.ports.filter((p) => p.role === 'cooling');
-  if (countDir(proc, 'in') < 1 || countDir(proc, 'out') < 1) throw new BalanceInputError('MISSING_INPUT', 'process', 'the process side needs an inlet and an outlet');
-  if (cool.length > 0 && (countDir(cool, 'in') < 1 || countDir(cool, 'out') < 1)) throw new BalanceInputError('MISSING_INPUT', 'cooling', 'the cooling side needs an inlet and an outlet');
+  const hasCooling = requireSides(input.ports, 'process', 'cooling', false);
   const heats: HeatFlow[] = [];
   const flags: string[] = [];
-  const res = resolvePorts(input.ports, input.env, { work_W: 0, defaultGroup: (p) => p.role! });
-  if (cool.length === 0) {
+  const res = resolvePorts(input.ports, input.env, { work_W: 0, defaultGroup: roleGroup });
+  if (!hasCooling) {
     let q = 0;
     for (const p of res.ports) q += (p.direction === 'in' ? 1 : -1) * p.mDot * (p.state.h + 0.5 * p.state.velocity_m_per_s ** 2 + G_m_per_s2 * p.state.elevation_m);
     heats.push({ label: 'heat rejected at T0', Q_W: -q, Tb_K: input.env.T0_K });
     flags.push('loss-not-separated');
   }
-  const terms = res.ports.map((p) => streamTerm(p, p.role === 'process' ? 'fuel' : 'loss', false));
+  const terms: UnitTerm[] = [];
+  for (const p of res.ports) terms.push(streamTerm(p, p.role === 'process' ? 'fuel' : 'loss', false));
   let duty = 0;
   for (const p of res.ports) if (p.role === 'process') duty += (p.direction === 'in' ? 1 : -1) * p.mDot * p.state.h;
   return assemble({ kind, env: input.env, ports: res.ports, chemical: false, powers: [], heats, terms, hasProduct: false, extras: { duty_W: duty }, flags });
@@ -590,13 +615,15 @@ export function genericBalance(input: GenericInput): UnitBalance {
   let Q = 0;
   for (const q of heats) Q += q.Q_W;
   const res = resolvePorts(input.ports, input.env, { work_W: W, heat_W: Q });
-  const terms: UnitTerm[] = res.ports.map((p) => streamTerm(p, p.role as TermRole, chemical));
+  const terms: UnitTerm[] = [];
+  for (const p of res.ports) terms.push(streamTerm(p, p.role as TermRole, chemical));
   const T0 = input.env.T0_K;
   for (const w of powers) terms.push({ label: w.label, role: w.role, exergy_W: w.role === 'fuel' ? -w.power_W : w.power_W });
   for (const q of heats) {
     const x = (1 - T0 / q.Tb_K) * q.Q_W;
     terms.push({ label: q.label, role: q.role, exergy_W: q.role === 'fuel' ? x : -x });
   }
-  const hasProduct = terms.some((t) => t.role === 'product');
+  let hasProduct = false;
+  for (const t of terms) if (t.role === 'product') hasProduct = true;
   return assemble({ kind: 'generic', env: input.env, ports: res.ports, chemical, powers, heats, terms, hasProduct });
 }

@@ -1,0 +1,514 @@
+/**
+ * A unit's balance as one pure function of a flat vector of measurements, so that uncertainty can be
+ * propagated through the whole calculation (port states, combustion, mass and energy balances,
+ * fuel/product split) by central differences (JCGM 100:2008, GUM 5.1.3 and 5.1.2 eq. 10).
+ *
+ * The model (`UnitModel`, plain JSON-safe data) says which ports a unit has, which fluid each carries
+ * and how its state and flow are known; `inputNames(kind, model)` lists the vector's entries, all in SI,
+ * in this fixed order:
+ *
+ *   0 'T0_K'  [K]      dead-state temperature
+ *   1 'p0_Pa' [Pa]     dead-state pressure
+ *   then per port, in model order:
+ *     '<port>.mDot_kg_per_s' [kg/s]  when flow is 'measured' (the default)
+ *     '<port>.p_Pa' [Pa]             for states 'pT', 'px', 'ph', 'sat-liquid', 'sat-vapour', 'energy-balance'
+ *     '<port>.T_K' [K] ('pT') | '<port>.x' [-] ('px') | '<port>.h_J_per_kg' [J/kg] ('ph')
+ *     '<port>.O2_fraction' [-]       flue-gas ports (on the fluid's o2Basis)
+ *   then per kind:
+ *     turbine, expander:            'power_W' [W], and 'generatorEfficiency' [-] if powerMeasured is 'electric'
+ *     compressor, pump, fan:        'power_W' [W], and 'motorEfficiency' [-] if powerMeasured is 'electric'
+ *     motor, generator:             'powerIn_W' [W], 'powerOut_W' [W]
+ *     generic:                      '<power>.power_W' [W] per power, '<heat>.Q_W' [W] and '<heat>.Tb_K' [K] per heat
+ *
+ * Efficiencies are vector entries (not constants) so their uncertainty propagates too.
+ * @see JCGM 100:2008 (GUM) 5.1.2, 5.1.3, 6.2-6.3; docs/domain.md s.7
+ */
+import type { BalancePort, TermRole, UnitBalance, UnitKind } from './balance';
+import { UNIT_KINDS } from './balance';
+import { BalanceInputError } from './errors';
+import { fuelSpecOf, prepareFluid, type Environment, type Fluid, type FluidSpec, type PortMeasurement, type PortState } from './fluids';
+import {
+  boilerBalance,
+  compressorBalance,
+  condenserBalance,
+  genericBalance,
+  heatExchangerBalance,
+  machineBalance,
+  mixerBalance,
+  turbineBalance,
+  valveBalance,
+} from './kinds';
+
+/** How a port's state is known. */
+export type PortStateMode = 'pT' | 'px' | 'ph' | 'sat-liquid' | 'sat-vapour' | 'ambient' | 'energy-balance';
+/** How a port's mass flow is known. */
+export type PortFlowMode = 'measured' | 'mass-balance' | 'energy-balance' | 'fuel-ratio';
+
+/** A port of a unit model (plain data). */
+export interface PortSpec {
+  /** unique within the unit; prefixes the port's vector entries */
+  name: string;
+  direction: 'in' | 'out';
+  fluid: FluidSpec;
+  /** kind-specific role (see the balance functions) */
+  role?: string;
+  /** mass-balance group (defaults per kind) */
+  group?: string;
+  /** default 'pT' */
+  state?: PortStateMode;
+  /** default 'measured' */
+  flow?: PortFlowMode;
+  /** constant velocity [m/s] and elevation [m] of the port (kinetic and potential exergy), default 0 */
+  velocity_m_per_s?: number;
+  elevation_m?: number;
+}
+
+/** A power or heat term of a generic control volume (its values are vector entries). */
+export interface GenericTermSpec {
+  name: string;
+  role: TermRole;
+  /** power: 'out' of the volume or 'in'; heat: 'in' to the volume or 'out' */
+  direction: 'in' | 'out';
+}
+
+/** A unit model: ports and the kind's parameters (plain data). */
+export interface UnitModel {
+  ports?: PortSpec[];
+  /** turbine and compressor family: what the power meter measures, default 'shaft' */
+  powerMeasured?: 'shaft' | 'electric';
+  /** heat exchanger: 'refuse' (default) or 'flag' streams below T0 */
+  belowDeadState?: 'refuse' | 'flag';
+  /** generic: include chemical exergy */
+  chemical?: boolean;
+  /** generic: powers and heats */
+  powers?: GenericTermSpec[];
+  heats?: GenericTermSpec[];
+}
+
+const TURBINES = new Set<UnitKind>(['turbine', 'expander']);
+const COMPRESSORS = new Set<UnitKind>(['compressor', 'pump', 'fan']);
+const MACHINES = new Set<UnitKind>(['motor', 'generator']);
+
+/** Index of an entry, or -1. */
+interface CompiledPort {
+  spec: PortSpec;
+  fluid: Fluid;
+  iM: number;
+  iP: number;
+  iV: number;
+  iO2: number;
+  fixedX: number;
+  memo: StateMemo;
+}
+
+/** Memo of the three most recently used port states, keyed by five numbers. */
+class StateMemo {
+  private keys = new Float64Array(15).fill(NaN);
+  private vals: (PortState | undefined)[] = [undefined, undefined, undefined];
+  private age = [0, 0, 0];
+  private clock = 0;
+  find(a: number, b: number, c: number, d: number, e: number): PortState | undefined {
+    const k = this.keys;
+    for (let i = 0, o = 0; i < 3; i++, o += 5) {
+      if (k[o] === a && k[o + 1] === b && k[o + 2] === c && k[o + 3] === d && k[o + 4] === e) {
+        this.age[i] = ++this.clock;
+        return this.vals[i]!;
+      }
+    }
+    return undefined;
+  }
+  put(a: number, b: number, c: number, d: number, e: number, v: PortState): PortState {
+    const k = this.keys;
+    let j = 0;
+    if (this.age[1] < this.age[j]) j = 1;
+    if (this.age[2] < this.age[j]) j = 2;
+    const o = 5 * j;
+    k[o] = a;
+    k[o + 1] = b;
+    k[o + 2] = c;
+    k[o + 3] = d;
+    k[o + 4] = e;
+    this.vals[j] = v;
+    this.age[j] = ++this.clock;
+    return v;
+  }
+}
+
+/** A unit model compiled for fast repeated evaluation. */
+export interface CompiledUnit {
+  readonly kind: UnitKind;
+  readonly model: UnitModel;
+  /** names of the vector entries, in order (see the module comment) */
+  readonly names: readonly string[];
+  /**
+   * the balance at x (SI, in the order of names); lean = true skips companion figures (isentropic
+   * efficiency ...) that F, P, L and D do not need (the uncertainty sweep)
+   */
+  evaluate(x: ArrayLike<number>, lean?: boolean): UnitBalance;
+}
+
+function kindOk(kind: UnitKind): void {
+  if (!UNIT_KINDS.includes(kind)) throw new BalanceInputError('INVALID_MODEL', 'kind', `unknown unit kind '${kind}' (one of ${UNIT_KINDS.join(', ')})`);
+}
+
+/**
+ * Compiles a unit model: prepares fluids, fixes the vector layout, and memoises port states so that
+ * a central-difference sweep recomputes only the ports an input touches.
+ * @throws BalanceInputError for an unknown kind, duplicate names or a state mode the fluid cannot take
+ */
+export function compileUnit(kind: UnitKind, model: UnitModel): CompiledUnit {
+  kindOk(kind);
+  const names: string[] = ['T0_K', 'p0_Pa'];
+  const add = (n: string): number => {
+    if (names.includes(n)) throw new BalanceInputError('INVALID_MODEL', n, 'two vector entries have this name (port names must be unique)');
+    names.push(n);
+    return names.length - 1;
+  };
+  const portSpecs = model.ports ?? [];
+  if (MACHINES.has(kind) && portSpecs.length) throw new BalanceInputError('INVALID_MODEL', 'ports', `a ${kind} has no ports, only powerIn_W and powerOut_W`);
+  const fuelPortSpec = kind === 'boiler' ? portSpecs.find((p) => p.role === 'fuel') : undefined;
+  const ports: CompiledPort[] = portSpecs.map((spec) => {
+    const mode = spec.state ?? 'pT';
+    const flow = spec.flow ?? 'measured';
+    const fluid = prepareFluid(spec.fluid, fuelPortSpec ? fuelSpecOf(fuelPortSpec.fluid) : undefined);
+    const cp: CompiledPort = { spec, fluid, iM: -1, iP: -1, iV: -1, iO2: -1, fixedX: NaN, memo: new StateMemo() };
+    if (!['measured', 'mass-balance', 'energy-balance', 'fuel-ratio'].includes(flow)) {
+      throw new BalanceInputError('INVALID_MODEL', `${spec.name}.flow`, `unknown flow mode '${flow}'`);
+    }
+    if (flow === 'measured') cp.iM = add(`${spec.name}.mDot_kg_per_s`);
+    if (fluid.family === 'condensed-fuel' && mode !== 'ambient') {
+      throw new BalanceInputError('INVALID_MODEL', `${spec.name}.state`, "a condensed fuel is taken at the dead state: use state 'ambient'");
+    }
+    if (['px', 'sat-liquid', 'sat-vapour'].includes(mode) && fluid.family !== 'water') {
+      throw new BalanceInputError('INVALID_MODEL', `${spec.name}.state`, `state '${mode}' applies to water only`);
+    }
+    switch (mode) {
+      case 'pT':
+        cp.iP = add(`${spec.name}.p_Pa`);
+        cp.iV = add(`${spec.name}.T_K`);
+        break;
+      case 'px':
+        cp.iP = add(`${spec.name}.p_Pa`);
+        cp.iV = add(`${spec.name}.x`);
+        break;
+      case 'ph':
+        cp.iP = add(`${spec.name}.p_Pa`);
+        cp.iV = add(`${spec.name}.h_J_per_kg`);
+        break;
+      case 'sat-liquid':
+      case 'sat-vapour':
+        cp.iP = add(`${spec.name}.p_Pa`);
+        cp.fixedX = mode === 'sat-liquid' ? 0 : 1;
+        break;
+      case 'energy-balance':
+        cp.iP = add(`${spec.name}.p_Pa`);
+        break;
+      case 'ambient':
+        break;
+      default:
+        throw new BalanceInputError('INVALID_MODEL', `${spec.name}.state`, `unknown state mode '${mode}'`);
+    }
+    if (fluid.family === 'flue-gas') cp.iO2 = add(`${spec.name}.O2_fraction`);
+    return cp;
+  });
+  let iPower = -1;
+  let iEta = -1;
+  let iIn = -1;
+  let iOut = -1;
+  if (TURBINES.has(kind) || COMPRESSORS.has(kind)) {
+    iPower = add('power_W');
+    if (model.powerMeasured === 'electric') iEta = add(TURBINES.has(kind) ? 'generatorEfficiency' : 'motorEfficiency');
+  } else if (MACHINES.has(kind)) {
+    iIn = add('powerIn_W');
+    iOut = add('powerOut_W');
+  }
+  const powers = (model.powers ?? []).map((w) => ({ spec: w, i: add(`${w.name}.power_W`) }));
+  const heats = (model.heats ?? []).map((q) => ({ spec: q, iQ: add(`${q.name}.Q_W`), iT: add(`${q.name}.Tb_K`) }));
+  if (kind !== 'generic' && (powers.length || heats.length)) {
+    throw new BalanceInputError('INVALID_MODEL', 'powers', 'powers and heats are entries of a generic control volume only');
+  }
+  const nIn = names.length;
+
+  const portsOf = (x: ArrayLike<number>, env: Environment): BalancePort[] => {
+    const out: BalancePort[] = new Array(ports.length);
+    for (let k = 0; k < ports.length; k++) {
+      const cp = ports[k];
+      const spec = cp.spec;
+      const mode = spec.state ?? 'pT';
+      const flow = spec.flow ?? 'measured';
+      const V = spec.velocity_m_per_s ?? 0;
+      const z = spec.elevation_m ?? 0;
+      const mDot = cp.iM >= 0 ? x[cp.iM] : (flow as 'mass-balance' | 'energy-balance' | 'fuel-ratio');
+      const O2 = cp.iO2 >= 0 ? x[cp.iO2] : 0; // memo keys must not be NaN (NaN !== NaN)
+      let measured: BalancePort['measured'];
+      let state: PortState | undefined;
+      if (mode === 'energy-balance') {
+        measured = { fromEnergyBalance: true, p_Pa: x[cp.iP], velocity_m_per_s: V, elevation_m: z };
+      } else {
+        const m: PortMeasurement = { velocity_m_per_s: V, elevation_m: z };
+        let p: number;
+        let v = 0;
+        if (mode === 'ambient') {
+          p = env.p0_Pa;
+          m.T_K = env.T0_K;
+        } else {
+          p = x[cp.iP];
+          if (mode === 'pT') m.T_K = v = x[cp.iV];
+          else if (mode === 'px') m.x = v = x[cp.iV];
+          else if (mode === 'ph') m.h_J_per_kg = v = x[cp.iV];
+          else m.x = v = cp.fixedX;
+        }
+        m.p_Pa = p;
+        if (cp.iO2 >= 0) m.O2_fraction = O2;
+        measured = m;
+        const fl = cp.fluid;
+        state = cp.memo.find(p, v, O2, env.T0_K, env.p0_Pa) ?? cp.memo.put(p, v, O2, env.T0_K, env.p0_Pa, fl.state(m, env));
+      }
+      out[k] = { name: spec.name, direction: spec.direction, fluid: cp.fluid, mDot_kg_per_s: mDot, measured, state, role: spec.role, group: spec.group };
+    }
+    return out;
+  };
+
+  const genericPowers = (x: ArrayLike<number>) => {
+    const out = new Array(powers.length);
+    for (let k = 0; k < powers.length; k++) {
+      const { spec, i } = powers[k];
+      out[k] = { label: spec.name, role: spec.role, power_W: spec.direction === 'out' ? x[i] : -x[i] };
+    }
+    return out;
+  };
+  const genericHeats = (x: ArrayLike<number>) => {
+    const out = new Array(heats.length);
+    for (let k = 0; k < heats.length; k++) {
+      const { spec, iQ, iT } = heats[k];
+      out[k] = { label: spec.name, role: spec.role, Q_W: spec.direction === 'in' ? x[iQ] : -x[iQ], Tb_K: x[iT] };
+    }
+    return out;
+  };
+
+  const evaluate = (x: ArrayLike<number>, lean = false): UnitBalance => {
+    const companions = !lean;
+    if (x.length !== nIn) throw new BalanceInputError('INVALID_MODEL', 'x', `the ${kind} model has ${nIn} inputs (${names.join(', ')}), got ${x.length}`);
+    for (let i = 0; i < nIn; i++) {
+      if (!Number.isFinite(x[i])) throw new BalanceInputError(Number.isNaN(x[i]) ? 'MISSING_INPUT' : 'IMPOSSIBLE_INPUT', names[i], `needs a finite value, got ${x[i]}`);
+    }
+    const env: Environment = { T0_K: x[0], p0_Pa: x[1] };
+    if (MACHINES.has(kind)) return machineBalance({ env, powerIn_W: x[iIn], powerOut_W: x[iOut], kind: kind as 'motor' | 'generator' });
+    const bp = portsOf(x, env);
+    if (TURBINES.has(kind)) {
+      return turbineBalance({ env, ports: bp, companions, power_W: x[iPower], powerMeasured: model.powerMeasured, generatorEfficiency: iEta >= 0 ? x[iEta] : undefined, kind: kind as 'turbine' });
+    }
+    if (COMPRESSORS.has(kind)) {
+      return compressorBalance({ env, ports: bp, companions, power_W: x[iPower], powerMeasured: model.powerMeasured, motorEfficiency: iEta >= 0 ? x[iEta] : undefined, kind: kind as 'pump' });
+    }
+    switch (kind) {
+      case 'heat-exchanger':
+        return heatExchangerBalance({ env, ports: bp, belowDeadState: model.belowDeadState });
+      case 'boiler':
+        return boilerBalance({ env, ports: bp });
+      case 'valve':
+        return valveBalance({ env, ports: bp });
+      case 'mixer':
+      case 'deaerator':
+      case 'open-feedwater-heater':
+        return mixerBalance({ env, ports: bp, kind });
+      case 'condenser':
+      case 'cooler':
+        return condenserBalance({ env, ports: bp, kind });
+      default:
+        return genericBalance({
+          env,
+          ports: bp,
+          chemical: model.chemical,
+          powers: genericPowers(x),
+          heats: genericHeats(x),
+        });
+    }
+  };
+  return { kind, model, names: Object.freeze(names), evaluate };
+}
+
+const compiled = new WeakMap<UnitModel, Map<UnitKind, CompiledUnit>>();
+
+/** The compiled form of (kind, model), memoised per model object. */
+export function compiledUnit(kind: UnitKind, model: UnitModel): CompiledUnit {
+  let byKind = compiled.get(model);
+  if (!byKind) {
+    byKind = new Map();
+    compiled.set(model, byKind);
+  }
+  let c = byKind.get(kind);
+  if (!c) {
+    c = compileUnit(kind, model);
+    byKind.set(kind, c);
+  }
+  return c;
+}
+
+/**
+ * Names of the input vector of a unit, in order (see the module comment for units).
+ * @throws BalanceInputError for an invalid model
+ */
+export function inputNames(kind: UnitKind, model: UnitModel): readonly string[] {
+  return compiledUnit(kind, model).names;
+}
+
+/**
+ * Builds the input vector from named values.
+ * @param values SI values by input name (see inputNames)
+ * @throws BalanceInputError('MISSING_INPUT') naming the first absent entry
+ */
+export function inputVector(kind: UnitKind, model: UnitModel, values: Readonly<Record<string, number>>): Float64Array {
+  const names = inputNames(kind, model);
+  const x = new Float64Array(names.length);
+  names.forEach((n, i) => {
+    const v = values[n];
+    if (v === undefined) throw new BalanceInputError('MISSING_INPUT', n, `no value given (the ${kind} model needs ${names.join(', ')})`);
+    x[i] = v;
+  });
+  return x;
+}
+
+/**
+ * The balance of one unit for one hour, as a pure function of the flat input vector.
+ * @param kind unit kind
+ * @param model the unit model (compiled once per object and memoised)
+ * @param measurements SI values in the order of inputNames(kind, model)
+ * @returns the UnitBalance
+ * @throws BalanceInputError for missing or impossible inputs; ThermoRangeError outside property ranges
+ * @see docs/domain.md s.3
+ */
+export function evaluateUnitHour(kind: UnitKind, model: UnitModel, measurements: ArrayLike<number>): UnitBalance {
+  return compiledUnit(kind, model).evaluate(measurements);
+}
+
+/** Value with its standard (u) and expanded (U = k u) uncertainty, SI. */
+export interface Uncertain {
+  value: number;
+  u: number;
+  U: number;
+}
+
+/** A balance with the propagated uncertainty of its headline figures. */
+export interface UnitHourUncertainty {
+  balance: UnitBalance;
+  /** coverage factor [-] (2) */
+  k: number;
+  fuel_W: Uncertain;
+  product_W: Uncertain | null;
+  loss_W: Uncertain;
+  destruction_W: Uncertain;
+  efficiency: Uncertain | null;
+  /** input names and sensitivities d(output)/d(input) [SI/SI]; 0 for inputs with u = 0 */
+  names: readonly string[];
+  sensitivity: { efficiency: Float64Array; destruction_W: Float64Array };
+  /** inputs whose sensitivity could not be formed (both neighbours failed): uncertainty is NaN */
+  unavailable: string[];
+}
+
+export interface UncertaintyOptions {
+  /** coverage factor, default 2 (JCGM 100:2008 6.2-6.3) */
+  k?: number;
+  /** central-difference step relative to max(|x_i|, u_i), default 1e-6 (as analytics' propagate) */
+  relStep?: number;
+}
+
+const N_OUT = 5; // fuel, product, loss, destruction, efficiency
+
+function headline(b: UnitBalance, out: Float64Array, o: number): void {
+  out[o] = b.fuel_W;
+  out[o + 1] = b.product_W ?? NaN;
+  out[o + 2] = b.loss_W;
+  out[o + 3] = b.destruction_W;
+  out[o + 4] = b.efficiency ?? NaN;
+}
+
+/**
+ * The balance at x with the first-order uncertainty of F, P, L, D and efficiency propagated through
+ * the whole calculation: sensitivities c_i by central differences of evaluateUnitHour with step
+ * h_i = relStep max(|x_i|, u_i), u_c^2 = sum (c_i u_i)^2 for uncorrelated inputs, U = k u_c with k = 2.
+ * Inputs with u_i = 0 are skipped (they contribute nothing, and a fixed x = 0 or 1 must not be
+ * stepped outside its range). Where one neighbour is outside a property range, the one-sided difference
+ * of the other is used; where both fail the input is listed in `unavailable` and the uncertainty is NaN.
+ * Same method as src/lib/analytics/uncertainty.ts `propagate` (eq. 10), written here to skip zero
+ * uncertainties, fall back to one-sided differences and allocate nothing per evaluation.
+ * @param x input vector (SI, order of inputNames)
+ * @param u standard uncertainties of the inputs (SI, same order), >= 0
+ * @throws BalanceInputError for a bad vector; whatever evaluateUnitHour throws at x itself
+ * @see JCGM 100:2008 (GUM) 5.1.2 eq. 10, 5.1.3, 6.2-6.3; ASME PTC 19.1-2018
+ */
+export function unitHourWithUncertainty(
+  kind: UnitKind,
+  model: UnitModel,
+  x: ArrayLike<number>,
+  u: ArrayLike<number>,
+  options: UncertaintyOptions = {},
+): UnitHourUncertainty {
+  const c = compiledUnit(kind, model);
+  const n = c.names.length;
+  if (u.length !== n) throw new BalanceInputError('INVALID_MODEL', 'u', `needs ${n} uncertainties (one per input), got ${u.length}`);
+  for (let i = 0; i < n; i++) {
+    if (!(u[i] >= 0 && Number.isFinite(u[i]))) throw new BalanceInputError('IMPOSSIBLE_INPUT', `u(${c.names[i]})`, `a standard uncertainty must be a finite number >= 0, got ${u[i]}`);
+  }
+  const k = options.k ?? 2;
+  const relStep = options.relStep ?? 1e-6;
+  const balance = c.evaluate(x);
+  const y0 = new Float64Array(N_OUT);
+  headline(balance, y0, 0);
+  const xs = Float64Array.from(x as ArrayLike<number>);
+  const ys = new Float64Array(2 * N_OUT);
+  const variance = new Float64Array(N_OUT);
+  const sEff = new Float64Array(n);
+  const sD = new Float64Array(n);
+  const unavailable: string[] = [];
+  for (let i = 0; i < n; i++) {
+    const ui = u[i];
+    if (ui === 0) continue;
+    const xi = xs[i];
+    const h = relStep * Math.max(Math.abs(xi), ui);
+    let okP = true;
+    let okM = true;
+    xs[i] = xi + h;
+    try {
+      headline(c.evaluate(xs, true), ys, 0);
+    } catch {
+      okP = false;
+    }
+    xs[i] = xi - h;
+    try {
+      headline(c.evaluate(xs, true), ys, N_OUT);
+    } catch {
+      okM = false;
+    }
+    xs[i] = xi;
+    if (!okP && !okM) {
+      unavailable.push(c.names[i]);
+      for (let j = 0; j < N_OUT; j++) variance[j] = NaN;
+      sEff[i] = NaN;
+      sD[i] = NaN;
+      continue;
+    }
+    for (let j = 0; j < N_OUT; j++) {
+      const cj = okP && okM ? (ys[j] - ys[N_OUT + j]) / (2 * h) : okP ? (ys[j] - y0[j]) / h : (y0[j] - ys[N_OUT + j]) / h;
+      variance[j] += (cj * ui) ** 2;
+      if (j === 3) sD[i] = cj;
+      if (j === 4) sEff[i] = cj;
+    }
+  }
+  const unc = (j: number): Uncertain => {
+    const s = Math.sqrt(variance[j]);
+    return { value: y0[j], u: s, U: k * s };
+  };
+  return {
+    balance,
+    k,
+    fuel_W: unc(0),
+    product_W: balance.product_W === null ? null : unc(1),
+    loss_W: unc(2),
+    destruction_W: unc(3),
+    efficiency: balance.efficiency === null ? null : unc(4),
+    names: c.names,
+    sensitivity: { efficiency: sEff, destruction_W: sD },
+    unavailable,
+  };
+}
