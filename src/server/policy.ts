@@ -38,6 +38,17 @@ export const API_POLICY: Record<string, RoutePolicy> = {
   '/api/v1/uploads/[uploadId]': { methods: { GET: ANY_ROLE }, apiToken: true },
   '/api/v1/sites/[siteId]/tag-hours': { methods: { GET: ANY_ROLE }, apiToken: true },
   // --- plant model ---
+  '/api/sites': { methods: { GET: ANY_ROLE, POST: ADMIN } },
+  '/api/sites/from-model': { methods: { POST: ADMIN } },
+  '/api/sites/[siteId]': { methods: { GET: ANY_ROLE, PATCH: ADMIN, DELETE: ADMIN } },
+  '/api/sites/[siteId]/units': { methods: { GET: ANY_ROLE, POST: ADMIN } },
+  '/api/sites/[siteId]/units/[unitId]': { methods: { GET: ANY_ROLE, PATCH: ADMIN, DELETE: ADMIN } },
+  '/api/sites/[siteId]/units/[unitId]/ports': { methods: { POST: ADMIN } },
+  '/api/sites/[siteId]/units/[unitId]/ports/[portId]': { methods: { PATCH: ADMIN, DELETE: ADMIN } },
+  '/api/sites/[siteId]/links': { methods: { GET: ANY_ROLE, POST: ADMIN } },
+  '/api/sites/[siteId]/links/[linkId]': { methods: { DELETE: ADMIN } },
+  '/api/sites/[siteId]/tags': { methods: { GET: ANY_ROLE } },
+  '/api/v1/sites/[siteId]/model': { methods: { GET: ANY_ROLE, PUT: ADMIN }, apiToken: true },
   // --- engine and insight ---
 };
 
@@ -51,6 +62,8 @@ export const PAGE_POLICY: Record<string, Admit> = {
   '/uploads': UPLOADERS,
   '/admin/tokens': ADMIN,
   // --- plant model ---
+  '/plant': ANY_ROLE,
+  '/plant/[...rest]': ANY_ROLE,
   // --- engine and insight ---
 };
 

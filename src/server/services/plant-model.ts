@@ -1,0 +1,269 @@
+/**
+ * The plant model file in and out (format in src/lib/plant/model.ts, documented in
+ * docs/plant-model.md). An import replaces the site's model with the file's in one transaction: any
+ * problem is reported with its JSON path and nothing changes. Units, ports and link versions that the
+ * file leaves as they are keep their rows; each unit that changed gets a recompute of the hours the
+ * change touches.
+ */
+import { eq, inArray } from 'drizzle-orm';
+import {
+  checkModel,
+  linkInterval,
+  type LinkModel,
+  type ModelIssue,
+  type PlantModel,
+  type UnitModel,
+} from '../../lib/plant/model';
+import { defaultParameters, kindSpec } from '../../lib/plant/kinds';
+import { defaultUncertainty } from '../../lib/plant/uncertainty';
+import { db } from '../db/client';
+import { plantPorts, plantUnits, sites, tagLinks, tags } from '../db/schema';
+import { dataSpan, ensureTag, getSite, resolveAtmosphere, siteModel } from './plant';
+import { PlantRuleError, inTransaction, openEndMs, type RecomputeRequest, type Tx } from './plant-tx';
+
+/** The site's model file. */
+export async function exportModel(siteId: string): Promise<PlantModel> {
+  return (await siteModel(db(), siteId, 'all')).model;
+}
+
+function invalid(issues: ModelIssue[]): never {
+  throw new PlantRuleError('VALIDATION_FAILED', `The model file has ${issues.length} problem${issues.length === 1 ? '' : 's'}; nothing was changed.`, issues);
+}
+
+/** Fills defaults the file may leave out, so a stored unit always carries its full parameters and uncertainties. */
+function normaliseUnit(u: UnitModel): UnitModel {
+  return {
+    ...u,
+    parameters: { ...defaultParameters(u.kind), ...u.parameters },
+    links: u.links.map((l) => ({ ...l, uncertainty: l.uncertainty ?? defaultUncertainty(l.quantity, l.unit) })),
+  };
+}
+
+/** JSON with object keys sorted at every level, for comparing models whatever order jsonb kept. */
+export function canonicalJson(value: unknown): string {
+  return JSON.stringify(value, (_k, v) =>
+    v && typeof v === 'object' && !Array.isArray(v) ? Object.fromEntries(Object.entries(v).sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0))) : v,
+  );
+}
+
+const linkSignature = (l: LinkModel) => canonicalJson([l.port ?? null, l.quantity, l.tag, l.unit, l.basis ?? null, l.uncertainty ?? null, l.validMin ?? null, l.validMax ?? null, l.validFrom ?? null]);
+
+/**
+ * The earliest instant from which two versions of a unit's links differ, or null when equal.
+ * A version only in one of them differs from its validFrom; the same version with another end
+ * differs from the earlier end.
+ */
+export function firstLinkDifferenceMs(before: readonly LinkModel[], after: readonly LinkModel[]): number | null {
+  let first = Infinity;
+  const afterBySig = new Map<string, LinkModel[]>();
+  for (const l of after) afterBySig.set(linkSignature(l), [...(afterBySig.get(linkSignature(l)) ?? []), l]);
+  const matched = new Set<LinkModel>();
+  for (const b of before) {
+    const candidates = afterBySig.get(linkSignature(b)) ?? [];
+    const a = candidates.find((c) => !matched.has(c));
+    if (!a) {
+      first = Math.min(first, linkInterval(b)[0]);
+      continue;
+    }
+    matched.add(a);
+    const [, bTo] = linkInterval(b);
+    const [, aTo] = linkInterval(a);
+    if (bTo !== aTo) first = Math.min(first, bTo, aTo);
+  }
+  for (const a of after) if (!matched.has(a)) first = Math.min(first, linkInterval(a)[0]);
+  return first === Infinity ? null : first;
+}
+
+/** What to recompute after the model of a site changed from `before` to `after`. */
+async function recomputeFor(tx: Tx, siteId: string, before: PlantModel | null, after: PlantModel, ids: Map<string, string>): Promise<RecomputeRequest[]> {
+  const span = await dataSpan(tx, siteId);
+  if (!span) return []; // no tag hours yet: nothing to recompute
+  const end = Math.max(openEndMs(), span.toMs);
+  const physics = (m: PlantModel) => canonicalJson([m.site.p_atm_Pa, m.site.deadState]);
+  if (before && physics(before) !== physics(after)) return [{ siteId, fromMs: span.fromMs, toMs: span.toMs }];
+  const out: RecomputeRequest[] = [];
+  for (const unit of after.units) {
+    const id = ids.get(unit.name)!;
+    const old = before?.units.find((u) => u.name === unit.name);
+    const shape = (u: UnitModel) => canonicalJson([u.kind, u.parameters, u.fuel ?? null, u.ports]);
+    if (old && shape(old) !== shape(unit)) {
+      out.push({ siteId, fromMs: span.fromMs, toMs: span.toMs, unitIds: [id] });
+      continue;
+    }
+    const from = firstLinkDifferenceMs(old?.links ?? [], unit.links);
+    if (from !== null) out.push({ siteId, fromMs: from, toMs: Math.max(end, from + 3_600_000), unitIds: [id] });
+  }
+  return out;
+}
+
+/** Writes a checked model into a site inside the transaction (site row already exists). */
+async function writeModel(tx: Tx, siteId: string, model: PlantModel, recompute: (r: RecomputeRequest) => Promise<void>, before: PlantModel | null) {
+  const s = model.site;
+  await tx
+    .update(sites)
+    .set({
+      name: s.name,
+      timeZone: s.timeZone,
+      elevation_m: s.elevation_m ?? null,
+      p_atm_Pa: resolveAtmosphere(s),
+      T0_K: s.deadState.T0_K,
+      p0_Pa: s.deadState.p0_Pa,
+      t0TagId: s.deadState.T0Tag ? await ensureTag(tx, siteId, s.deadState.T0Tag.tag) : null,
+      t0TagUnit: s.deadState.T0Tag?.unit ?? null,
+      currency: s.currency,
+      prices: s.prices,
+      updatedAt: new Date(),
+    })
+    .where(eq(sites.id, siteId));
+
+  const existing = await tx.select().from(plantUnits).where(eq(plantUnits.siteId, siteId));
+  const keep = new Set(model.units.map((u) => u.name));
+  const gone = existing.filter((u) => !keep.has(u.name) || model.units.find((m) => m.name === u.name)!.kind !== u.kind);
+  if (gone.length) await tx.delete(plantUnits).where(inArray(plantUnits.id, gone.map((u) => u.id)));
+
+  const tagIds = new Map<string, string>();
+  const tagId = async (name: string) => {
+    if (!tagIds.has(name)) tagIds.set(name, await ensureTag(tx, siteId, name));
+    return tagIds.get(name)!;
+  };
+  const unitIds = new Map<string, string>();
+  for (const unit of model.units) {
+    const prior = existing.find((u) => u.name === unit.name && u.kind === unit.kind);
+    let id: string;
+    if (prior) {
+      id = prior.id;
+      await tx
+        .update(plantUnits)
+        .set({ description: unit.description ?? null, parameters: unit.parameters, fuel: unit.fuel ?? null, updatedAt: new Date() })
+        .where(eq(plantUnits.id, id));
+    } else {
+      const [row] = await tx
+        .insert(plantUnits)
+        .values({ siteId, name: unit.name, kind: unit.kind, description: unit.description ?? null, parameters: unit.parameters, fuel: unit.fuel ?? null })
+        .returning({ id: plantUnits.id });
+      id = row!.id;
+    }
+    unitIds.set(unit.name, id);
+
+    // Ports: update by name, add new, drop the rest (their links go with them).
+    const ports = await tx.select().from(plantPorts).where(eq(plantPorts.unitId, id));
+    const portIds = new Map<string, string>();
+    const wanted = new Set(unit.ports.map((p) => p.name));
+    const dropPorts = ports.filter((p) => !wanted.has(p.name) || unit.ports.find((q) => q.name === p.name)!.slot !== p.slot);
+    if (dropPorts.length) await tx.delete(plantPorts).where(inArray(plantPorts.id, dropPorts.map((p) => p.id)));
+    for (const [position, port] of unit.ports.entries()) {
+      const slot = kindSpec(unit.kind).ports.find((s) => s.slot === port.slot)!;
+      const values = {
+        fluid: port.fluid ?? null,
+        boundaryT_K: port.boundaryT_K ?? null,
+        account: port.account ?? null,
+        position,
+      };
+      const prior = ports.find((p) => p.name === port.name && p.slot === port.slot);
+      if (prior) {
+        await tx.update(plantPorts).set(values).where(eq(plantPorts.id, prior.id));
+        portIds.set(port.name, prior.id);
+      } else {
+        const [row] = await tx
+          .insert(plantPorts)
+          .values({ unitId: id, name: port.name, slot: port.slot, role: slot.role, stream: slot.stream, ...values })
+          .returning({ id: plantPorts.id });
+        portIds.set(port.name, row!.id);
+      }
+    }
+
+    // Links: keep rows equal to a version in the file, insert the others, delete what the file does not have.
+    const rows = await tx
+      .select({ row: tagLinks, tagName: tags.name, portName: plantPorts.name })
+      .from(tagLinks)
+      .innerJoin(tags, eq(tags.id, tagLinks.tagId))
+      .leftJoin(plantPorts, eq(plantPorts.id, tagLinks.portId))
+      .where(eq(tagLinks.unitId, id));
+    const unmatched = new Map(rows.map((r) => [r.row.id, r]));
+    for (const link of unit.links) {
+      const [fromMs, toMs] = linkInterval(link);
+      const portId = link.port !== undefined ? portIds.get(link.port)! : null;
+      const hit = [...unmatched.values()].find(
+        ({ row, tagName, portName }) =>
+          tagName === link.tag &&
+          (portName ?? undefined) === link.port &&
+          row.quantity === link.quantity &&
+          row.engUnit === link.unit &&
+          (row.basis ?? undefined) === link.basis &&
+          row.uncertaintyMode === link.uncertainty!.mode &&
+          row.uncertainty === link.uncertainty!.value &&
+          (row.validMin ?? undefined) === link.validMin &&
+          (row.validMax ?? undefined) === link.validMax &&
+          row.validFrom.getTime() === fromMs &&
+          (row.validTo ? row.validTo.getTime() : Infinity) === toMs,
+      );
+      if (hit) {
+        unmatched.delete(hit.row.id);
+        continue;
+      }
+      await tx.insert(tagLinks).values({
+        siteId,
+        unitId: id,
+        portId,
+        tagId: await tagId(link.tag),
+        quantity: link.quantity,
+        engUnit: link.unit,
+        basis: link.basis ?? null,
+        uncertaintyMode: link.uncertainty!.mode,
+        uncertainty: link.uncertainty!.value,
+        validMin: link.validMin ?? null,
+        validMax: link.validMax ?? null,
+        validFrom: new Date(fromMs),
+        validTo: toMs === Infinity ? null : new Date(toMs),
+      });
+    }
+    // Superseded empty versions are history, not in the file: keep them.
+    const stale = [...unmatched.values()].filter(({ row }) => !(row.validTo && row.validTo.getTime() === row.validFrom.getTime())).map(({ row }) => row.id);
+    if (stale.length) await tx.delete(tagLinks).where(inArray(tagLinks.id, stale));
+  }
+  for (const r of await recomputeFor(tx, siteId, before, model, unitIds)) await recompute(r);
+}
+
+function parseOrThrow(input: unknown): PlantModel {
+  const checked = checkModel(input);
+  if (!checked.ok) invalid(checked.issues);
+  return { ...checked.model, units: checked.model.units.map(normaliseUnit) };
+}
+
+async function siteNameIssue(tx: Tx, name: string, exceptId: string | null): Promise<ModelIssue[]> {
+  const rows = await tx.select({ id: sites.id }).from(sites).where(eq(sites.name, name));
+  return rows.some((r) => r.id !== exceptId) ? [{ path: '$.site.name', message: `Another site is named '${name}'.` }] : [];
+}
+
+/**
+ * Replaces a site's model with the file's. All or nothing: on any problem, PlantRuleError
+ * VALIDATION_FAILED with every issue's JSON path, and the database is as before.
+ */
+export async function importModel(siteId: string, input: unknown) {
+  const model = parseOrThrow(input);
+  return inTransaction(async (tx, recompute) => {
+    await getSite(siteId, tx);
+    const nameIssues = await siteNameIssue(tx, model.site.name, siteId);
+    if (nameIssues.length) invalid(nameIssues);
+    const before = (await siteModel(tx, siteId, 'all')).model;
+    const queued: RecomputeRequest[] = [];
+    await writeModel(tx, siteId, model, async (r) => {
+      queued.push(r);
+      await recompute(r);
+    }, before);
+    return { siteId, units: model.units.length, recompute: queued };
+  });
+}
+
+/** Creates a new site from a model file (all or nothing). */
+export async function createSiteFromModel(input: unknown) {
+  const model = parseOrThrow(input);
+  return inTransaction(async (tx, recompute) => {
+    const nameIssues = await siteNameIssue(tx, model.site.name, null);
+    if (nameIssues.length) invalid(nameIssues);
+    const [row] = await tx.insert(sites).values({ name: model.site.name, timeZone: model.site.timeZone }).returning({ id: sites.id });
+    await writeModel(tx, row!.id, model, recompute, null);
+    return { siteId: row!.id, units: model.units.length };
+  });
+}
+

@@ -1,0 +1,56 @@
+import { drizzle, type NodePgDatabase } from 'drizzle-orm/node-postgres';
+import type { z } from 'zod';
+import { ComputeUnitHoursPayload, QUEUES } from '../../jobs';
+import type { ModelIssue } from '../../lib/plant/model';
+import { pgPool } from '../db/client';
+import * as schema from '../db/schema';
+import { queue } from '../queue';
+
+export type Tx = NodePgDatabase<typeof schema>;
+export type RecomputeRequest = z.infer<typeof ComputeUnitHoursPayload>;
+
+/** A rule of the plant model was broken; code is one of src/server/errors.ts. */
+export class PlantRuleError extends Error {
+  constructor(
+    readonly code: 'NOT_FOUND' | 'CONFLICT' | 'VALIDATION_FAILED' | 'UNPROCESSABLE' | 'FORBIDDEN',
+    message: string,
+    readonly issues?: ModelIssue[],
+  ) {
+    super(message);
+  }
+}
+
+/** One hour [ms]. */
+export const HOUR_ms = 3_600_000;
+
+/** The end of the current hour [ms]: where an open-ended recompute stops (no later hour has data). */
+export function openEndMs(now = Date.now()): number {
+  return Math.ceil(now / HOUR_ms) * HOUR_ms;
+}
+
+/**
+ * Runs `fn` in one database transaction whose recompute jobs are enqueued in the same transaction
+ * (pg-boss with the transaction's connection): a model change and its recompute commit together or
+ * not at all.
+ */
+export async function inTransaction<T>(fn: (tx: Tx, recompute: (req: RecomputeRequest) => Promise<void>) => Promise<T>): Promise<T> {
+  const boss = await queue();
+  const client = await pgPool().connect();
+  try {
+    await client.query('BEGIN');
+    const tx = drizzle(client, { schema });
+    const recompute = async (req: RecomputeRequest) => {
+      const payload = ComputeUnitHoursPayload.parse(req);
+      if (payload.toMs <= payload.fromMs) return;
+      await boss.send(QUEUES.computeUnitHours, payload, { db: { executeSql: (text, values) => client.query(text, values) } });
+    };
+    const out = await fn(tx, recompute);
+    await client.query('COMMIT');
+    return out;
+  } catch (err) {
+    await client.query('ROLLBACK').catch(() => undefined);
+    throw err;
+  } finally {
+    client.release();
+  }
+}

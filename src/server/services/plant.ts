@@ -1,0 +1,559 @@
+/**
+ * The plant model's sites, units and ports, and the view of a site as a model (the same shape as the
+ * model file, src/lib/plant/model.ts) with each unit's completeness and conflicts.
+ * Tag links and their versions live in ./plant-links.ts; import and export in ./plant-model.ts.
+ */
+import { and, asc, eq, ilike, inArray, isNull, gt, lte, or, sql, notExists } from 'drizzle-orm';
+import { z } from 'zod';
+import {
+  FuelDefinitionSchema,
+  FluidSchema,
+  EnergyPriceSchema,
+  BEGINNING_MS,
+  PRESSURE_ATM_MAX_Pa,
+  PRESSURE_ATM_MIN_Pa,
+  T0_MAX_K,
+  T0_MIN_K,
+  checkParameter,
+  checkPort,
+  checkUnit,
+  isTimeZone,
+  type LinkModel,
+  type PlantModel,
+  type PortModel,
+  type SiteModel,
+  type UnitModel,
+} from '../../lib/plant/model';
+import { ELEVATION_MAX_m, ELEVATION_MIN_m, pressureAtElevation } from '../../lib/plant/atmosphere';
+import { UNIT_KINDS, defaultParameters, kindSpec, type ParamValue, type UnitKind } from '../../lib/plant/kinds';
+import { unitStatus, type UnitStatus } from '../../lib/plant/status';
+import { canConvert } from '../../lib/units/convert';
+import { db } from '../db/client';
+import { plantPorts, plantUnits, sites, tagLinks, tags } from '../db/schema';
+import { PlantRuleError, inTransaction, openEndMs, type Tx } from './plant-tx';
+
+type Reader = Tx | ReturnType<typeof db>;
+
+// ---- sites -------------------------------------------------------------------------------------
+
+const currency = z.string().regex(/^[A-Z]{3}$/, 'A currency is a three-letter ISO 4217 code in capitals (EUR, USD, GBP).');
+
+/** A site's settings as the screens and the API send them. */
+export const SiteInput = z.strictObject({
+  name: z.string().trim().min(1, 'Give the site a name.').max(120),
+  timeZone: z.string().refine(isTimeZone, 'Not an IANA time zone (e.g. Europe/Berlin, America/Chicago, UTC).'),
+  /** Elevation above sea level [m]; used for p_atm_Pa when that is not given. */
+  elevation_m: z.number().finite().min(ELEVATION_MIN_m).max(ELEVATION_MAX_m).nullable().optional(),
+  /** Atmospheric pressure [Pa] for gauge readings; from the elevation when left out. */
+  p_atm_Pa: z.number().finite().min(PRESSURE_ATM_MIN_Pa, 'Give p_atm_Pa in Pa (e.g. 101325).').max(PRESSURE_ATM_MAX_Pa).nullable().optional(),
+  T0_K: z.number().finite().min(T0_MIN_K).max(T0_MAX_K).default(298.15),
+  p0_Pa: z.number().finite().min(PRESSURE_ATM_MIN_Pa).max(PRESSURE_ATM_MAX_Pa).default(101325),
+  /** Ambient-temperature tag for an hourly T0 (T0_K is then the fallback); null for a fixed T0. */
+  T0Tag: z.strictObject({ tag: z.string().trim().min(1), unit: z.string().min(1) }).nullable().optional(),
+  currency: currency.default('EUR'),
+  prices: z.array(EnergyPriceSchema).default([]),
+});
+export type SiteInput = z.infer<typeof SiteInput>;
+
+/** Atmospheric pressure to store: as given, else from the elevation, else sea level. */
+export function resolveAtmosphere(input: { elevation_m?: number | null; p_atm_Pa?: number | null }): number {
+  if (input.p_atm_Pa != null) return input.p_atm_Pa;
+  if (input.elevation_m != null) return Math.round(pressureAtElevation(input.elevation_m) * 10) / 10;
+  return 101325;
+}
+
+export async function listSites() {
+  return db().select().from(sites).orderBy(asc(sites.name));
+}
+
+export async function getSite(siteId: string, r: Reader = db()) {
+  const [site] = await r.select().from(sites).where(eq(sites.id, siteId)).limit(1);
+  if (!site) throw new PlantRuleError('NOT_FOUND', 'No such site.');
+  return site;
+}
+
+/** The tag of a site by name, created (unlinked) when the site has none of that name yet. */
+export async function ensureTag(tx: Tx, siteId: string, name: string): Promise<string> {
+  await tx.insert(tags).values({ siteId, name }).onConflictDoNothing();
+  const [row] = await tx.select({ id: tags.id }).from(tags).where(and(eq(tags.siteId, siteId), eq(tags.name, name))).limit(1);
+  return row!.id;
+}
+
+async function siteValues(tx: Tx, siteId: string | null, input: SiteInput) {
+  if (input.T0Tag && !canConvert(input.T0Tag.unit, 'temperature')) {
+    throw new PlantRuleError('VALIDATION_FAILED', 'The ambient-temperature tag needs a temperature unit.', [
+      { path: '$.T0Tag.unit', message: `'${input.T0Tag.unit}' is not a temperature unit.` },
+    ]);
+  }
+  const names = new Set<string>();
+  for (const [i, p] of input.prices.entries()) {
+    if (names.has(p.name)) throw new PlantRuleError('VALIDATION_FAILED', 'Two prices share a name.', [{ path: `$.prices[${i}].name`, message: `Price name '${p.name}' is used twice.` }]);
+    names.add(p.name);
+  }
+  return {
+    name: input.name,
+    timeZone: input.timeZone,
+    elevation_m: input.elevation_m ?? null,
+    p_atm_Pa: resolveAtmosphere(input),
+    T0_K: input.T0_K,
+    p0_Pa: input.p0_Pa,
+    t0TagId: input.T0Tag && siteId ? await ensureTag(tx, siteId, input.T0Tag.tag) : null,
+    t0TagUnit: input.T0Tag?.unit ?? null,
+    currency: input.currency,
+    prices: input.prices,
+    updatedAt: new Date(),
+  };
+}
+
+async function nameTaken(tx: Tx, name: string, exceptId: string | null): Promise<boolean> {
+  const rows = await tx.select({ id: sites.id }).from(sites).where(eq(sites.name, name));
+  return rows.some((r) => r.id !== exceptId);
+}
+
+export async function createSite(input: SiteInput) {
+  return inTransaction(async (tx) => {
+    if (await nameTaken(tx, input.name, null)) throw new PlantRuleError('CONFLICT', `A site named '${input.name}' exists already.`);
+    const values = await siteValues(tx, null, { ...input, T0Tag: null });
+    const [row] = await tx.insert(sites).values(values).returning();
+    if (input.T0Tag) {
+      await tx.update(sites).set({ t0TagId: await ensureTag(tx, row!.id, input.T0Tag.tag), t0TagUnit: input.T0Tag.unit }).where(eq(sites.id, row!.id));
+    }
+    return row!;
+  });
+}
+
+/** Changes a site's settings; a changed atmosphere or dead state recomputes every hour that has data. */
+export async function updateSite(siteId: string, input: SiteInput) {
+  return inTransaction(async (tx, recompute) => {
+    const before = await getSite(siteId, tx);
+    if (await nameTaken(tx, input.name, siteId)) throw new PlantRuleError('CONFLICT', `A site named '${input.name}' exists already.`);
+    const values = await siteValues(tx, siteId, input);
+    await tx.update(sites).set(values).where(eq(sites.id, siteId));
+    const physics = (s: { p_atm_Pa: number; T0_K: number; p0_Pa: number; t0TagId: string | null; t0TagUnit: string | null }) =>
+      JSON.stringify([s.p_atm_Pa, s.T0_K, s.p0_Pa, s.t0TagId, s.t0TagUnit]);
+    if (physics(before) !== physics(values)) {
+      const span = await dataSpan(tx, siteId);
+      if (span) await recompute({ siteId, fromMs: span.fromMs, toMs: span.toMs });
+    }
+    return getSite(siteId, tx);
+  });
+}
+
+export async function deleteSite(siteId: string) {
+  const out = await db().delete(sites).where(eq(sites.id, siteId)).returning({ id: sites.id });
+  if (!out.length) throw new PlantRuleError('NOT_FOUND', 'No such site.');
+}
+
+/** First and last hour with tag data at the site [ms, ms + 1 h), or null when it has none. */
+export async function dataSpan(r: Reader, siteId: string): Promise<{ fromMs: number; toMs: number } | null> {
+  const res = await r.execute<{ lo: Date | string | null; hi: Date | string | null }>(
+    sql`select min(h.hour_start) as lo, max(h.hour_start) as hi from tag_hours h join tags t on t.id = h.tag_id where t.site_id = ${siteId}`,
+  );
+  const row = res.rows[0];
+  if (!row?.lo || !row.hi) return null;
+  return { fromMs: new Date(row.lo).getTime(), toMs: new Date(row.hi).getTime() + 3_600_000 };
+}
+
+// ---- units and ports ---------------------------------------------------------------------------
+
+export const UnitCreateInput = z.strictObject({
+  name: z.string().trim().min(1, 'Give the unit a name.').max(120),
+  kind: z.enum(UNIT_KINDS),
+  description: z.string().max(2000).optional(),
+  parameters: z.record(z.string(), z.union([z.number().finite(), z.string()])).optional(),
+  fuel: FuelDefinitionSchema.optional(),
+  /** Also add the kind's required ports, named after their slots. */
+  withPorts: z.boolean().optional(),
+});
+export const UnitUpdateInput = z.strictObject({
+  name: z.string().trim().min(1).max(120).optional(),
+  description: z.string().max(2000).nullable().optional(),
+  /** Values to set (SI); null resets a parameter to its default. */
+  parameters: z.record(z.string(), z.union([z.number().finite(), z.string(), z.null()])).optional(),
+  fuel: FuelDefinitionSchema.nullable().optional(),
+});
+export const PortInput = z.strictObject({
+  name: z.string().trim().min(1, 'Give the port a name.').max(120),
+  slot: z.string().min(1),
+  fluid: FluidSchema.nullable().optional(),
+  boundaryT_K: z.number().finite().positive().nullable().optional(),
+  account: z.enum(['fuel', 'product', 'loss']).nullable().optional(),
+});
+export const PortUpdateInput = PortInput.partial().omit({ slot: true });
+
+async function getUnit(tx: Reader, siteId: string, unitId: string) {
+  const [unit] = await tx.select().from(plantUnits).where(and(eq(plantUnits.id, unitId), eq(plantUnits.siteId, siteId))).limit(1);
+  if (!unit) throw new PlantRuleError('NOT_FOUND', 'No such unit at this site.');
+  return unit;
+}
+
+async function siteContext(tx: Reader, siteId: string) {
+  const site = await getSite(siteId, tx);
+  const boilers = await tx.select({ name: plantUnits.name }).from(plantUnits).where(and(eq(plantUnits.siteId, siteId), eq(plantUnits.kind, 'boiler')));
+  return { boilers: new Set(boilers.map((b) => b.name)), priceNames: new Set(site.prices.map((p) => p.name)) };
+}
+
+function rejectIssues(issues: { path: string; message: string }[], what: string) {
+  if (issues.length) throw new PlantRuleError('VALIDATION_FAILED', `${what}: ${issues[0]!.message}`, issues);
+}
+
+async function unitNameTaken(tx: Tx, siteId: string, name: string, exceptId: string | null) {
+  const rows = await tx.select({ id: plantUnits.id }).from(plantUnits).where(and(eq(plantUnits.siteId, siteId), eq(plantUnits.name, name)));
+  return rows.some((r) => r.id !== exceptId);
+}
+
+export async function createUnit(siteId: string, input: z.infer<typeof UnitCreateInput>) {
+  return inTransaction(async (tx) => {
+    const ctx = await siteContext(tx, siteId);
+    if (await unitNameTaken(tx, siteId, input.name, null)) throw new PlantRuleError('CONFLICT', `The site has a unit named '${input.name}' already.`);
+    const parameters = { ...defaultParameters(input.kind), ...(input.parameters ?? {}) };
+    if (input.kind === 'boiler') ctx.boilers.add(input.name);
+    rejectIssues(checkUnit({ name: input.name, kind: input.kind, parameters, fuel: input.fuel, ports: [], links: [] }, [], ctx), 'The unit is not valid');
+    const [unit] = await tx
+      .insert(plantUnits)
+      .values({ siteId, name: input.name, kind: input.kind, description: input.description ?? null, parameters, fuel: input.fuel ?? null })
+      .returning();
+    if (input.withPorts) {
+      let position = 0;
+      for (const slot of kindSpec(input.kind).ports) {
+        for (let i = 0; i < slot.min; i++) {
+          const fluid = slot.fluids.length === 1 ? { kind: slot.fluids[0]! } : null;
+          await tx.insert(plantPorts).values({
+            unitId: unit!.id,
+            name: slot.min > 1 ? `${slot.slot} ${i + 1}` : slot.slot,
+            slot: slot.slot,
+            role: slot.role,
+            stream: slot.stream,
+            fluid: fluid as PortModel['fluid'] ?? null,
+            position: position++,
+          });
+        }
+      }
+    }
+    return unit!;
+  });
+}
+
+/** Edits a unit; changed parameters or fuel recompute the unit's hours that have data. */
+export async function updateUnit(siteId: string, unitId: string, input: z.infer<typeof UnitUpdateInput>) {
+  return inTransaction(async (tx, recompute) => {
+    const unit = await getUnit(tx, siteId, unitId);
+    const ctx = await siteContext(tx, siteId);
+    if (input.name && input.name !== unit.name && (await unitNameTaken(tx, siteId, input.name, unitId))) {
+      throw new PlantRuleError('CONFLICT', `The site has a unit named '${input.name}' already.`);
+    }
+    const parameters: Record<string, ParamValue> = { ...unit.parameters };
+    const defaults = defaultParameters(unit.kind);
+    const issues = [];
+    for (const [key, value] of Object.entries(input.parameters ?? {})) {
+      if (value === null) {
+        if (defaults[key] !== undefined) parameters[key] = defaults[key]!;
+        else delete parameters[key];
+      } else {
+        issues.push(...checkParameter(unit.kind, key, value, ['parameters', key]));
+        parameters[key] = value;
+      }
+    }
+    const fuel = input.fuel === undefined ? unit.fuel : input.fuel;
+    if (input.fuel) issues.push(...checkUnit({ name: unit.name, kind: unit.kind, parameters: {}, fuel: input.fuel, ports: [], links: [] }, [], ctx));
+    rejectIssues(issues, 'The change is not valid');
+    const name = input.name ?? unit.name;
+    await tx
+      .update(plantUnits)
+      .set({ name, description: input.description === undefined ? unit.description : input.description, parameters, fuel, updatedAt: new Date() })
+      .where(eq(plantUnits.id, unitId));
+    if (name !== unit.name && unit.kind === 'boiler') await renameFuelSource(tx, siteId, unit.name, name);
+    if (JSON.stringify(parameters) !== JSON.stringify(unit.parameters) || JSON.stringify(fuel) !== JSON.stringify(unit.fuel)) {
+      const span = await dataSpan(tx, siteId);
+      if (span) await recompute({ siteId, fromMs: span.fromMs, toMs: span.toMs, unitIds: [unitId] });
+    }
+    return getUnit(tx, siteId, unitId);
+  });
+}
+
+/** Flue-gas ports name their boiler; keep them pointing at it when it is renamed. */
+async function renameFuelSource(tx: Tx, siteId: string, from: string, to: string) {
+  const rows = await tx
+    .select({ id: plantPorts.id, fluid: plantPorts.fluid })
+    .from(plantPorts)
+    .innerJoin(plantUnits, eq(plantUnits.id, plantPorts.unitId))
+    .where(and(eq(plantUnits.siteId, siteId), sql`${plantPorts.fluid}->>'fuelFrom' = ${from}`));
+  for (const r of rows) await tx.update(plantPorts).set({ fluid: { kind: 'flue-gas', fuelFrom: to } }).where(eq(plantPorts.id, r.id));
+}
+
+export async function deleteUnit(siteId: string, unitId: string) {
+  await getUnit(db(), siteId, unitId);
+  await db().delete(plantUnits).where(eq(plantUnits.id, unitId));
+}
+
+async function portChanged(tx: Tx, siteId: string, unitId: string, recompute: (r: { siteId: string; fromMs: number; toMs: number; unitIds: string[] }) => Promise<void>) {
+  await tx.update(plantUnits).set({ updatedAt: new Date() }).where(eq(plantUnits.id, unitId));
+  const span = await dataSpan(tx, siteId);
+  if (span) await recompute({ siteId, fromMs: span.fromMs, toMs: span.toMs, unitIds: [unitId] });
+}
+
+export async function createPort(siteId: string, unitId: string, input: z.infer<typeof PortInput>) {
+  return inTransaction(async (tx, recompute) => {
+    const unit = await getUnit(tx, siteId, unitId);
+    const ctx = await siteContext(tx, siteId);
+    const port: PortModel = {
+      name: input.name,
+      slot: input.slot,
+      ...(input.fluid ? { fluid: input.fluid } : {}),
+      ...(input.boundaryT_K != null ? { boundaryT_K: input.boundaryT_K } : {}),
+      ...(input.account ? { account: input.account } : {}),
+    };
+    rejectIssues(checkPort(unit.kind, port, [], ctx), 'The port is not valid');
+    const slot = kindSpec(unit.kind).ports.find((s) => s.slot === input.slot)!;
+    const existing = await tx.select().from(plantPorts).where(eq(plantPorts.unitId, unitId));
+    if (existing.some((p) => p.name === input.name)) throw new PlantRuleError('CONFLICT', `Unit '${unit.name}' has a port named '${input.name}' already.`);
+    if (slot.max !== null && existing.filter((p) => p.slot === slot.slot).length >= slot.max) {
+      throw new PlantRuleError('CONFLICT', `A ${unit.kind} has at most ${slot.max} '${slot.slot}' port${slot.max === 1 ? '' : 's'}.`);
+    }
+    const [row] = await tx
+      .insert(plantPorts)
+      .values({
+        unitId,
+        name: input.name,
+        slot: slot.slot,
+        role: slot.role,
+        stream: slot.stream,
+        fluid: input.fluid ?? null,
+        boundaryT_K: input.boundaryT_K ?? null,
+        account: input.account ?? null,
+        position: existing.reduce((m, p) => Math.max(m, p.position + 1), 0),
+      })
+      .returning();
+    await portChanged(tx, siteId, unitId, recompute);
+    return row!;
+  });
+}
+
+export async function updatePort(siteId: string, unitId: string, portId: string, input: z.infer<typeof PortUpdateInput>) {
+  return inTransaction(async (tx, recompute) => {
+    const unit = await getUnit(tx, siteId, unitId);
+    const [row] = await tx.select().from(plantPorts).where(and(eq(plantPorts.id, portId), eq(plantPorts.unitId, unitId))).limit(1);
+    if (!row) throw new PlantRuleError('NOT_FOUND', 'No such port on this unit.');
+    const next = {
+      name: input.name ?? row.name,
+      fluid: input.fluid === undefined ? row.fluid : input.fluid,
+      boundaryT_K: input.boundaryT_K === undefined ? row.boundaryT_K : input.boundaryT_K,
+      account: input.account === undefined ? row.account : input.account,
+    };
+    const port: PortModel = {
+      name: next.name,
+      slot: row.slot,
+      ...(next.fluid ? { fluid: next.fluid } : {}),
+      ...(next.boundaryT_K != null ? { boundaryT_K: next.boundaryT_K } : {}),
+      ...(next.account ? { account: next.account as PortModel['account'] } : {}),
+    };
+    rejectIssues(checkPort(unit.kind, port, [], await siteContext(tx, siteId)), 'The port is not valid');
+    if (next.name !== row.name) {
+      const clash = await tx.select({ id: plantPorts.id }).from(plantPorts).where(and(eq(plantPorts.unitId, unitId), eq(plantPorts.name, next.name)));
+      if (clash.length) throw new PlantRuleError('CONFLICT', `Unit '${unit.name}' has a port named '${next.name}' already.`);
+    }
+    await tx.update(plantPorts).set(next).where(eq(plantPorts.id, portId));
+    await portChanged(tx, siteId, unitId, recompute);
+  });
+}
+
+export async function deletePort(siteId: string, unitId: string, portId: string) {
+  return inTransaction(async (tx, recompute) => {
+    await getUnit(tx, siteId, unitId);
+    const out = await tx.delete(plantPorts).where(and(eq(plantPorts.id, portId), eq(plantPorts.unitId, unitId))).returning({ id: plantPorts.id });
+    if (!out.length) throw new PlantRuleError('NOT_FOUND', 'No such port on this unit.');
+    await portChanged(tx, siteId, unitId, recompute);
+  });
+}
+
+// ---- the site as a model -----------------------------------------------------------------------
+
+/** Ids behind the names of a model built from the database. */
+export interface ModelIds {
+  units: Map<string, { id: string; ports: Map<string, string> }>;
+}
+
+/** A link version as the model file writes it. */
+function linkModelOf(l: {
+  portName: string | null;
+  quantity: LinkModel['quantity'];
+  tagName: string;
+  engUnit: string;
+  basis: 'dry' | 'wet' | null;
+  uncertaintyMode: 'absolute' | 'relative';
+  uncertainty: number;
+  validMin: number | null;
+  validMax: number | null;
+  validFrom: Date;
+  validTo: Date | null;
+}): LinkModel {
+  return {
+    ...(l.portName !== null ? { port: l.portName } : {}),
+    quantity: l.quantity,
+    tag: l.tagName,
+    unit: l.engUnit,
+    ...(l.basis ? { basis: l.basis } : {}),
+    uncertainty: { mode: l.uncertaintyMode, value: l.uncertainty },
+    ...(l.validMin !== null ? { validMin: l.validMin } : {}),
+    ...(l.validMax !== null ? { validMax: l.validMax } : {}),
+    ...(l.validFrom.getTime() !== BEGINNING_MS ? { validFrom: l.validFrom.toISOString() } : {}),
+    ...(l.validTo ? { validTo: l.validTo.toISOString() } : {}),
+  };
+}
+
+function sortedObject<T>(o: Record<string, T>): Record<string, T> {
+  return Object.fromEntries(Object.entries(o).sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0)));
+}
+
+/**
+ * The site as a plant model file. links 'all': every version (superseded empty ones left out);
+ * 'current': only those holding at `at` (default now), for the completeness check.
+ */
+export async function siteModel(r: Reader, siteId: string, links: 'all' | 'current' = 'all', at = new Date()): Promise<{ model: PlantModel; ids: ModelIds }> {
+  const site = await getSite(siteId, r);
+  let T0Tag: SiteModel['deadState']['T0Tag'];
+  if (site.t0TagId) {
+    const [t] = await r.select({ name: tags.name }).from(tags).where(eq(tags.id, site.t0TagId)).limit(1);
+    if (t) T0Tag = { tag: t.name, unit: site.t0TagUnit ?? 'degC' };
+  }
+  const siteOut: SiteModel = {
+    name: site.name,
+    timeZone: site.timeZone,
+    ...(site.elevation_m !== null ? { elevation_m: site.elevation_m } : {}),
+    p_atm_Pa: site.p_atm_Pa,
+    deadState: { T0_K: site.T0_K, p0_Pa: site.p0_Pa, ...(T0Tag ? { T0Tag } : {}) },
+    currency: site.currency,
+    prices: site.prices.map((p) => ({ name: p.name, kind: p.kind, price_per_MWh: p.price_per_MWh, currency: p.currency })),
+  };
+  const unitRows = await r.select().from(plantUnits).where(eq(plantUnits.siteId, siteId)).orderBy(asc(plantUnits.name));
+  const unitIds = unitRows.map((u) => u.id);
+  const portRows = unitIds.length
+    ? await r.select().from(plantPorts).where(inArray(plantPorts.unitId, unitIds)).orderBy(asc(plantPorts.position), asc(plantPorts.name))
+    : [];
+  const linkWhere =
+    links === 'current'
+      ? and(eq(tagLinks.siteId, siteId), lte(tagLinks.validFrom, at), or(isNull(tagLinks.validTo), gt(tagLinks.validTo, at)))
+      : and(eq(tagLinks.siteId, siteId), or(isNull(tagLinks.validTo), gt(tagLinks.validTo, tagLinks.validFrom)));
+  const linkRows = await r
+    .select({
+      unitId: tagLinks.unitId,
+      portId: tagLinks.portId,
+      portName: plantPorts.name,
+      quantity: tagLinks.quantity,
+      tagName: tags.name,
+      engUnit: tagLinks.engUnit,
+      basis: tagLinks.basis,
+      uncertaintyMode: tagLinks.uncertaintyMode,
+      uncertainty: tagLinks.uncertainty,
+      validMin: tagLinks.validMin,
+      validMax: tagLinks.validMax,
+      validFrom: tagLinks.validFrom,
+      validTo: tagLinks.validTo,
+      portPosition: plantPorts.position,
+    })
+    .from(tagLinks)
+    .innerJoin(tags, eq(tags.id, tagLinks.tagId))
+    .leftJoin(plantPorts, eq(plantPorts.id, tagLinks.portId))
+    .where(linkWhere);
+  linkRows.sort(
+    (a, b) =>
+      (a.portPosition ?? -1) - (b.portPosition ?? -1) ||
+      (a.portName ?? '').localeCompare(b.portName ?? '') ||
+      a.quantity.localeCompare(b.quantity) ||
+      a.validFrom.getTime() - b.validFrom.getTime(),
+  );
+  const ids: ModelIds = { units: new Map() };
+  const units: UnitModel[] = unitRows.map((u) => {
+    const ports = portRows.filter((p) => p.unitId === u.id);
+    ids.units.set(u.name, { id: u.id, ports: new Map(ports.map((p) => [p.name, p.id])) });
+    return {
+      name: u.name,
+      kind: u.kind as UnitKind,
+      ...(u.description ? { description: u.description } : {}),
+      parameters: sortedObject(u.parameters),
+      ...(u.fuel ? { fuel: u.fuel } : {}),
+      ports: ports.map((p) => ({
+        name: p.name,
+        slot: p.slot,
+        ...(p.fluid ? { fluid: p.fluid } : {}),
+        ...(p.boundaryT_K !== null ? { boundaryT_K: p.boundaryT_K } : {}),
+        ...(p.account ? { account: p.account as PortModel['account'] } : {}),
+      })),
+      links: linkRows.filter((l) => l.unitId === u.id).map(linkModelOf),
+    };
+  });
+  return { model: { format: 'lossline-plant-model', version: 1, site: siteOut, units }, ids };
+}
+
+/** Each unit of a site with its completeness and conflicts now. */
+export async function siteStatus(siteId: string, r: Reader = db()): Promise<Map<string, UnitStatus>> {
+  const { model } = await siteModel(r, siteId, 'current');
+  const tagRows = await r.select({ name: tags.name, unitHint: tags.unitHint }).from(tags).where(eq(tags.siteId, siteId));
+  const tagHints = new Map(tagRows.map((t) => [t.name, t.unitHint]));
+  const siteLinks = model.units.flatMap((u) => u.links.map((l) => ({ unit: u.name, port: l.port, quantity: l.quantity, tag: l.tag })));
+  const boilers = new Set(model.units.filter((u) => u.kind === 'boiler').map((u) => u.name));
+  return new Map(model.units.map((u) => [u.name, unitStatus(u, { tagHints, siteLinks, boilers })]));
+}
+
+/** The site's units with ports, current links and status, for the screens. */
+export async function siteOverview(siteId: string) {
+  const r = db();
+  const site = await getSite(siteId, r);
+  const { model, ids } = await siteModel(r, siteId, 'current');
+  const status = await siteStatus(siteId, r);
+  return {
+    site,
+    units: model.units.map((u) => ({
+      id: ids.units.get(u.name)!.id,
+      ...u,
+      ports: u.ports.map((p) => ({ id: ids.units.get(u.name)!.ports.get(p.name)!, ...p })),
+      status: status.get(u.name)!,
+    })),
+  };
+}
+
+/** One unit with its ports, current links (with ids) and status. */
+export async function unitDetail(siteId: string, unitId: string) {
+  const overview = await siteOverview(siteId);
+  const unit = overview.units.find((u) => u.id === unitId);
+  if (!unit) throw new PlantRuleError('NOT_FOUND', 'No such unit at this site.');
+  return { site: overview.site, unit, unitNames: overview.units.map((u) => ({ id: u.id, name: u.name, kind: u.kind })) };
+}
+
+/**
+ * Tags of a site that have no current link (created by ingest when a file brings a new tag), with
+ * an optional search on name and description.
+ */
+export async function unlinkedTags(siteId: string, search?: string, limit = 200) {
+  const now = new Date();
+  const current = db()
+    .select({ one: sql`1` })
+    .from(tagLinks)
+    .where(and(eq(tagLinks.tagId, tags.id), lte(tagLinks.validFrom, now), or(isNull(tagLinks.validTo), gt(tagLinks.validTo, now))));
+  const q = search?.trim();
+  return db()
+    .select({ id: tags.id, name: tags.name, unitHint: tags.unitHint, description: tags.description, firstSeenAt: tags.firstSeenAt })
+    .from(tags)
+    .where(
+      and(
+        eq(tags.siteId, siteId),
+        notExists(current),
+        q ? or(ilike(tags.name, `%${q.replace(/[%_\\]/g, '\\$&')}%`), ilike(tags.description, `%${q.replace(/[%_\\]/g, '\\$&')}%`)) : undefined,
+      ),
+    )
+    .orderBy(asc(tags.name))
+    .limit(limit);
+}
+
+/** Every tag of a site (for choosing one), with whether it has a current link. */
+export async function siteTags(siteId: string, search?: string, limit = 200) {
+  const q = search?.trim();
+  return db()
+    .select({ id: tags.id, name: tags.name, unitHint: tags.unitHint, description: tags.description })
+    .from(tags)
+    .where(and(eq(tags.siteId, siteId), q ? ilike(tags.name, `%${q.replace(/[%_\\]/g, '\\$&')}%`) : undefined))
+    .orderBy(asc(tags.name))
+    .limit(limit);
+}
+
+export { openEndMs };
