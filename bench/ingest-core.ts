@@ -3,10 +3,11 @@
  * (43 200 rows, 8.64 million values). The CSV is generated in memory first (not timed), as UTF-8
  * byte chunks of 64 KiB, then decoded, sniffed, parsed and aggregated into local clock hours.
  *
- *   node --import tsx bench/ingest-core.ts
+ *   node --expose-gc --import tsx bench/ingest-core.ts
  *
  * Prints ingest_values_per_s (whole path from bytes) and aggregate_values_per_s (aggregation alone,
- * fed the same values as Float64Array rows).
+ * fed the same values as Float64Array rows). With --expose-gc it also prints the live heap the
+ * ingest holds after a quarter, half and all of the file (flat memory: these should not grow).
  */
 import { createFileIngest, createHourAggregator, CellStatus } from '../src/lib/ingest/index';
 
@@ -77,6 +78,30 @@ function runAggregateOnly(): { seconds: number; values: number } {
   return { seconds: (performance.now() - t0) / 1000, values: ROWS * TAGS };
 }
 
+/** Live heap held by a running ingest at 25 %, 50 % and 100 % of the file [MB]; needs --expose-gc. */
+function liveHeap(chunks: Uint8Array[]): number[] | null {
+  const gc = (globalThis as { gc?: () => void }).gc;
+  if (!gc) return null;
+  gc();
+  const base = process.memoryUsage().heapUsed;
+  const marks = [Math.floor(chunks.length / 4), Math.floor(chunks.length / 2), chunks.length - 1];
+  const out: number[] = [];
+  const ingest = createFileIngest({
+    timeZone: TIME_ZONE,
+    onHour: () => {},
+    answer: (p) => ({ ...p, time: { ...p.time, dateOrder: p.time.dateOrder === 'ambiguous' ? 'dmy' : p.time.dateOrder } }),
+  });
+  chunks.forEach((c, i) => {
+    ingest.push(c);
+    if (marks.includes(i)) {
+      gc();
+      out.push((process.memoryUsage().heapUsed - base) / 1e6);
+    }
+  });
+  ingest.end();
+  return out;
+}
+
 const chunks = generate();
 const megabytes = chunks.reduce((s, c) => s + c.length, 0) / 1e6;
 runIngest(chunks); // warm-up
@@ -90,3 +115,5 @@ console.log(`ingest_seconds ${best.seconds.toFixed(3)}`);
 console.log(`ingest_values_per_s ${Math.round(best.values / best.seconds)}`);
 console.log(`ingest_megabytes_per_s ${(megabytes / best.seconds).toFixed(1)}`);
 console.log(`aggregate_values_per_s ${Math.round(agg.values / agg.seconds)}`);
+const heap = liveHeap(chunks);
+if (heap) console.log(`live_heap_mb_at_25_50_100_percent ${heap.map((x) => x.toFixed(2)).join(' ')}`);

@@ -180,6 +180,14 @@ describe('previewRows', () => {
     expect(rows[0].timeText).toBe('2024-03-05 10:00:00');
   });
 
+  it('leaves out the last line of a sample that may have been cut', () => {
+    const text = fixtureText('wide-units.csv');
+    const cut = text.slice(0, text.indexOf('2024-03-05 11:00:00') + 14); // ends inside the last row
+    const profile = sniffLayout(text);
+    expect(previewRows(cut, profile, 10, { timeZone: 'UTC', complete: false }).map((r) => r.line)).toEqual([4, 5, 6, 7]);
+    expect(previewRows(cut, profile, 10, { timeZone: 'UTC', complete: true }).map((r) => r.line)).toEqual([4, 5, 6, 7, 8]);
+  });
+
   it('with an undecided date order shows both readings', () => {
     const text = fixtureText('ambiguous.csv');
     const rows = previewRows(text, sniffLayout(text), 1, { timeZone: 'UTC' });

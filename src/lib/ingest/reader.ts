@@ -544,8 +544,21 @@ export interface PreviewRow {
  * The first n data rows of a sample as the reader reads them, for a preview screen. Rows whose time
  * cannot be read are included with timeIso null and no cells.
  * @param options.timeZone the site's zone for local times (default 'UTC')
+ * @param options.complete true when the text is the whole file; default: true when shorter than
+ *   60 000 characters. An incomplete sample loses its last, possibly cut, line.
  */
-export function previewRows(sampleText: string, profile: LayoutProfile, n: number, options: { timeZone?: string } = {}): PreviewRow[] {
+export function previewRows(
+  sampleText: string,
+  profile: LayoutProfile,
+  n: number,
+  options: { timeZone?: string; complete?: boolean } = {},
+): PreviewRow[] {
+  if (!(options.complete ?? sampleText.length < 60000)) {
+    // the sample may end inside a line: leave that line out
+    const cut = Math.max(sampleText.lastIndexOf('\n'), sampleText.lastIndexOf('\r'));
+    sampleText = sampleText.slice(0, cut + 1);
+    options = { ...options, complete: true };
+  }
   if (profile.time.kind === 'text' && profile.time.dateOrder === 'ambiguous') {
     const dmy = previewRows(sampleText, { ...profile, time: { ...profile.time, dateOrder: 'dmy' } }, n, options);
     const mdy = previewRows(sampleText, { ...profile, time: { ...profile.time, dateOrder: 'mdy' } }, n, options);
