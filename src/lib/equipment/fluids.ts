@@ -137,6 +137,8 @@ export interface PortState {
 export const SATURATION_TOLERANCE_K = 1;
 
 const PC_Pa = 22.064e6;
+/** Lowest temperature of IAPWS-IF97 [K]. */
+const WATER_T_MIN_K = 273.15;
 const P_TRIPLE_Pa = 611.213;
 
 /** Dead-state values of one fluid: h0 [J/kg], s0 [J/(kg K)], chemical exergy eCh [J/kg] or null. */
@@ -275,7 +277,16 @@ class WaterFluid implements Fluid {
     return this;
   }
   deadValues(env: Environment): DeadValues {
-    return this.memo.find(env.T0_K, env.p0_Pa) ?? this.memo.put(env.T0_K, env.p0_Pa, { dead: deadState.water(env.T0_K, env.p0_Pa), eCh: null });
+    const hit = this.memo.find(env.T0_K, env.p0_Pa);
+    if (hit) return hit;
+    if (env.T0_K < WATER_T_MIN_K) {
+      throw new BalanceInputError(
+        'IMPOSSIBLE_INPUT',
+        'T0_K',
+        `= ${env.T0_K} K: water's dead state needs T0 >= ${WATER_T_MIN_K} K (IAPWS-IF97 has no liquid below 0 degC); use a fixed site T0 for water units in frost`,
+      );
+    }
+    return this.memo.put(env.T0_K, env.p0_Pa, { dead: deadState.water(env.T0_K, env.p0_Pa), eCh: null });
   }
   state(m: PortMeasurement, env: Environment): PortState {
     const p = need(m, 'p_Pa', 'water');
