@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { CellStatus, createRowReader, IngestError } from '../../src/lib/ingest/index';
+import { CellStatus, createRowReader, IngestError, sniffLayout } from '../../src/lib/ingest/index';
 import type { LayoutProfile, ReadReport, RejectedCell, SampleSink } from '../../src/lib/ingest/index';
 import { fixtureProfile, fixtureText } from './helpers';
 
@@ -165,6 +165,36 @@ describe('createRowReader', () => {
       code = (e as IngestError).code;
     }
     expect(code).toBe('HEADER_ONLY');
+  });
+
+  it('machine ISO times in every width read as Date.parse reads them (UTC site)', () => {
+    let text = 'Tag,Time,Value\n';
+    const expected: number[] = [];
+    let seed = 3;
+    const rand = () => (seed = (seed * 48271) % 2147483647) / 2147483647;
+    for (let i = 0; i < 400; i++) {
+      const ms = Date.UTC(1999, 0, 1) + Math.floor(rand() * 40 * 365) * 86_400_000 + Math.floor(rand() * 86_400) * 1000 + (i % 2 ? Math.floor(rand() * 1000) : 0);
+      const iso = new Date(ms).toISOString(); // YYYY-MM-DDThh:mm:ss.fffZ
+      const forms = [iso, iso.slice(0, 19) + 'Z', iso.slice(0, 19), iso.slice(0, 23), iso.slice(0, 16), iso.slice(0, 16) + 'Z', iso.slice(0, 19).replace('T', ' ')];
+      const form = forms[i % forms.length];
+      text += `B1.FT-101,${form},${i}\n`;
+      expected.push(Date.parse(/Z$/.test(form) ? form : form.replace(' ', 'T') + 'Z'));
+    }
+    const got: number[] = [];
+    const r = createRowReader(sniffLayout(text), { timeZone: 'UTC', sink: { addTag() {}, addRow() {}, addSample: (_k, t) => got.push(t) } });
+    r.push(text);
+    r.end();
+    expect(got).toEqual(expected);
+  });
+
+  it('long rows: the same tag in consecutive rows, quoted or spaced names, all map to one tag each', () => {
+    const text = 'Tag;Time;Value\nB1.FT-101;2024-03-05 10:00;1\n"B1.FT-101";2024-03-05 10:01;2\n B1.FT-101 ;2024-03-05 10:02;3\nB1.FT-1010;2024-03-05 10:02;4\nB1.FT-101;2024-03-05 10:03;5\n';
+    const g: string[] = [];
+    const r = createRowReader(sniffLayout(text), { timeZone: 'UTC', sink: { addTag: (_k, t) => g.push(t), addRow() {}, addSample() {} } });
+    r.push(text);
+    const report = r.end();
+    expect(g).toEqual(['B1.FT-101', 'B1.FT-1010']);
+    expect(report.tags.map((t) => t.valueCount)).toEqual([4, 1]);
   });
 
   it('refuses an invalid profile and an unknown time zone', () => {

@@ -10,7 +10,7 @@
  * longer than the limit, a quote never closed, and a file without data rows (HEADER_ONLY).
  * Per-row warnings (counted, first lines listed): ragged rows (missing cells read as blank, extra
  * cells ignored), unreadable times (row skipped), duplicate times (kept: the later row wins in the
- * aggregator), times going backwards (kept; the aggregator drops them per tag and counts them),
+ * aggregator, per tag; a blank cell in the later row keeps the earlier value), times going backwards (kept; the aggregator drops them per tag and counts them),
  * readings in the daylight-saving gap or repeated hour (resolved by order, see LocalClock), unknown
  * quality words, text after a closing quote.
  */
@@ -21,7 +21,7 @@ import { isBlankAt, parseNumberAt } from './numbers';
 import { LayoutProfileSchema } from './profile';
 import type { LayoutProfile } from './profile';
 import { classifyQuality, QualityClass } from './quality';
-import { assertTimeZone, dayFromScan, isoUtc, LocalClock, newScan, scanDateTime, scanTimeOnly, timeOfDayMs, wallMsFromScan, wallMsFromSerial } from './time';
+import { assertTimeZone, dayFromScan, daysFromCivil, isoUtc, LocalClock, newScan, scanDateTime, scanTimeOnly, timeOfDayMs, wallMsFromScan, wallMsFromSerial } from './time';
 import type { DateOrder } from './time';
 
 /** Per-cell status codes passed with values. */
@@ -133,6 +133,61 @@ export interface RowReader {
   readonly line: number;
 }
 
+let fastIsoOffset = NaN;
+
+function d2(text: string, i: number): number {
+  const a = text.charCodeAt(i) - 48;
+  const b = text.charCodeAt(i + 1) - 48;
+  return a >= 0 && a <= 9 && b >= 0 && b <= 9 ? a * 10 + b : -1;
+}
+
+/**
+ * Fast path for 'YYYY-MM-DD[T ]hh:mm[:ss[.fff]][Z]' (the commonest machine format): wall ms, or
+ * NaN to fall back to the general scanner. Sets fastIsoOffset to 0 for 'Z', NaN otherwise.
+ */
+function fastIsoWallMs(text: string, s: number, e: number): number {
+  const n = e - s;
+  if (n !== 16 && n !== 17 && n !== 19 && n !== 20 && n !== 23 && n !== 24) return NaN;
+  if (text.charCodeAt(s + 4) !== 45 || text.charCodeAt(s + 7) !== 45 || text.charCodeAt(s + 13) !== 58) return NaN;
+  const sepT = text.charCodeAt(s + 10);
+  if (sepT !== 84 && sepT !== 32) return NaN;
+  const y1 = d2(text, s);
+  const y2 = d2(text, s + 2);
+  const mo = d2(text, s + 5);
+  const d = d2(text, s + 8);
+  const h = d2(text, s + 11);
+  const mi = d2(text, s + 14);
+  if (y1 < 0 || y2 < 0 || mo < 1 || mo > 12 || d < 1 || d > 31 || h < 0 || h > 23 || mi < 0 || mi > 59) return NaN;
+  let p = s + 16;
+  let sec = 0;
+  let ms = 0;
+  if (p < e && text.charCodeAt(p) === 58) {
+    sec = d2(text, p + 1);
+    if (sec < 0 || sec > 59) return NaN;
+    p += 3;
+    if (p < e && text.charCodeAt(p) === 46) {
+      const a = d2(text, p + 1);
+      const c = text.charCodeAt(p + 3) - 48;
+      if (a < 0 || c < 0 || c > 9 || p + 4 > e) return NaN;
+      ms = a * 10 + c;
+      p += 4;
+    }
+  }
+  fastIsoOffset = NaN;
+  if (p < e) {
+    if (p + 1 === e && (text.charCodeAt(p) === 90 || text.charCodeAt(p) === 122)) fastIsoOffset = 0;
+    else return NaN;
+  }
+  const year = y1 * 100 + y2;
+  if (d > 28 && d > daysInMonthOf(year, mo)) return NaN;
+  return daysFromCivil(year, mo, d) * 86_400_000 + h * 3_600_000 + mi * 60_000 + sec * 1000 + ms;
+}
+
+function daysInMonthOf(year: number, month: number): number {
+  if (month === 2) return (year % 4 === 0 && year % 100 !== 0) || year % 400 === 0 ? 29 : 28;
+  return month === 4 || month === 6 || month === 9 || month === 11 ? 30 : 31;
+}
+
 class WarningCounter {
   count = 0;
   lines: number[] = [];
@@ -236,6 +291,10 @@ export function createRowReader(profile: LayoutProfile, options: RowReaderOption
   // long: per-tag last time for order checks
   let tagLastTime = new Float64Array(16).fill(NaN);
   const qualityCache = new Map<string, number>();
+  let lastTagIndex = -1;
+  let lastTagRaw = '\u0000';
+  let lastQualityRaw = '\u0000';
+  let lastQualityClass = 0;
 
   function reject(k: number, rec: CsvRecord, col: number, timeMs: number, reason: 'text' | 'bad-quality'): void {
     const st = tagStates[k];
@@ -263,6 +322,18 @@ export function createRowReader(profile: LayoutProfile, options: RowReaderOption
       e = text.length;
     }
     if (kind === 'text') {
+      if (timeCols.length === 1) {
+        const wall = fastIsoWallMs(text, s, e);
+        if (wall === wall) {
+          const offset = fastIsoOffset;
+          if (offset === offset) {
+            const utc = wall - offset * 60_000;
+            clock.noteAbsolute(utc);
+            return utc;
+          }
+          return clock.toUtc(wall, rec.line);
+        }
+      }
       if (!scanDateTime(text, s, e, scan)) return NaN;
       let wall: number;
       let offset = scan.offsetMinutes;
@@ -361,19 +432,35 @@ export function createRowReader(profile: LayoutProfile, options: RowReaderOption
     }
     // long
     const L = p.long!;
-    const name = L.tagColumn < rec.count ? fieldText(rec, L.tagColumn).trim() : '';
-    if (name.length === 0) {
-      blankTags.add(rec.line);
-      return;
-    }
-    let k = tagIndex.get(name);
-    if (k === undefined) {
-      k = addTag(name);
-      if (k >= tagLastTime.length) {
-        const grown = new Float64Array(tagLastTime.length * 2).fill(NaN);
-        grown.set(tagLastTime);
-        tagLastTime = grown;
+    // consecutive rows usually carry the same tag: compare in place before slicing
+    const tc = L.tagColumn;
+    let k: number | undefined;
+    if (
+      lastTagIndex >= 0 &&
+      tc < rec.count &&
+      rec.quoted[tc] === 0 &&
+      rec.ends[tc] - rec.starts[tc] === lastTagRaw.length &&
+      rec.text.startsWith(lastTagRaw, rec.starts[tc])
+    ) {
+      k = lastTagIndex;
+    } else {
+      const raw = tc < rec.count ? fieldText(rec, tc) : '';
+      const name = raw.trim();
+      if (name.length === 0) {
+        blankTags.add(rec.line);
+        return;
       }
+      k = tagIndex.get(name);
+      if (k === undefined) {
+        k = addTag(name);
+        if (k >= tagLastTime.length) {
+          const grown = new Float64Array(tagLastTime.length * 2).fill(NaN);
+          grown.set(tagLastTime);
+          tagLastTime = grown;
+        }
+      }
+      lastTagIndex = k;
+      lastTagRaw = rec.quoted[tc] === 0 ? raw : '\u0000'; // quoted names always take the slow path
     }
     const prev = tagLastTime[k];
     if (t === prev) duplicates.add(rec.line);
@@ -382,11 +469,24 @@ export function createRowReader(profile: LayoutProfile, options: RowReaderOption
     const st = tagStates[k];
     let qClass: number = QualityClass.Good;
     if (L.qualityColumn !== null && L.qualityColumn < rec.count) {
-      const qt = fieldText(rec, L.qualityColumn);
-      let c = qualityCache.get(qt);
-      if (c === undefined) {
-        c = classifyQuality(qt);
-        if (qualityCache.size < 1000) qualityCache.set(qt, c);
+      const qc = L.qualityColumn;
+      let c: number | undefined;
+      let qt = lastQualityRaw;
+      if (
+        rec.quoted[qc] === 0 &&
+        rec.ends[qc] - rec.starts[qc] === lastQualityRaw.length &&
+        rec.text.startsWith(lastQualityRaw, rec.starts[qc])
+      ) {
+        c = lastQualityClass;
+      } else {
+        qt = fieldText(rec, qc);
+        c = qualityCache.get(qt);
+        if (c === undefined) {
+          c = classifyQuality(qt);
+          if (qualityCache.size < 1000) qualityCache.set(qt, c);
+        }
+        lastQualityRaw = rec.quoted[qc] === 0 ? qt : '\u0000';
+        lastQualityClass = c;
       }
       qClass = c;
       if (c === QualityClass.Unknown) {
