@@ -224,6 +224,7 @@ export async function setLink(siteId: string, input: LinkInput, createdBy: strin
  * Queues a recompute of [at, the version's former end or the end of the current hour) for its unit.
  */
 export async function endLink(siteId: string, linkId: string, at: Date = new Date()) {
+  if (!/^[0-9a-f-]{36}$/i.test(linkId) || !/^[0-9a-f-]{36}$/i.test(siteId)) throw new PlantRuleError('NOT_FOUND', 'No such link at this site.');
   return inTransaction(async (tx, recompute) => {
     const [row] = await tx.select().from(tagLinks).where(and(eq(tagLinks.id, linkId), eq(tagLinks.siteId, siteId))).for('update').limit(1);
     if (!row) throw new PlantRuleError('NOT_FOUND', 'No such link at this site.');

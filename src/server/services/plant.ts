@@ -66,7 +66,14 @@ export async function listSites() {
   return db().select().from(sites).orderBy(asc(sites.name));
 }
 
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+/** Ids come from URLs: anything that is not a UUID is simply not found. */
+export function isId(id: string | undefined): id is string {
+  return typeof id === 'string' && UUID.test(id);
+}
+
 export async function getSite(siteId: string, r: Reader = db()) {
+  if (!isId(siteId)) throw new PlantRuleError('NOT_FOUND', 'No such site.');
   const [site] = await r.select().from(sites).where(eq(sites.id, siteId)).limit(1);
   if (!site) throw new PlantRuleError('NOT_FOUND', 'No such site.');
   return site;
@@ -140,6 +147,7 @@ export async function updateSite(siteId: string, input: SiteInput) {
 }
 
 export async function deleteSite(siteId: string) {
+  if (!isId(siteId)) throw new PlantRuleError('NOT_FOUND', 'No such site.');
   const out = await db().delete(sites).where(eq(sites.id, siteId)).returning({ id: sites.id });
   if (!out.length) throw new PlantRuleError('NOT_FOUND', 'No such site.');
 }
@@ -182,6 +190,7 @@ export const PortInput = z.strictObject({
 export const PortUpdateInput = PortInput.partial().omit({ slot: true });
 
 async function getUnit(tx: Reader, siteId: string, unitId: string) {
+  if (!isId(siteId) || !isId(unitId)) throw new PlantRuleError('NOT_FOUND', 'No such unit at this site.');
   const [unit] = await tx.select().from(plantUnits).where(and(eq(plantUnits.id, unitId), eq(plantUnits.siteId, siteId))).limit(1);
   if (!unit) throw new PlantRuleError('NOT_FOUND', 'No such unit at this site.');
   return unit;
@@ -332,6 +341,7 @@ export async function createPort(siteId: string, unitId: string, input: z.infer<
 export async function updatePort(siteId: string, unitId: string, portId: string, input: z.infer<typeof PortUpdateInput>) {
   return inTransaction(async (tx, recompute) => {
     const unit = await getUnit(tx, siteId, unitId);
+    if (!isId(portId)) throw new PlantRuleError('NOT_FOUND', 'No such port on this unit.');
     const [row] = await tx.select().from(plantPorts).where(and(eq(plantPorts.id, portId), eq(plantPorts.unitId, unitId))).limit(1);
     if (!row) throw new PlantRuleError('NOT_FOUND', 'No such port on this unit.');
     const next = {
@@ -360,6 +370,7 @@ export async function updatePort(siteId: string, unitId: string, portId: string,
 export async function deletePort(siteId: string, unitId: string, portId: string) {
   return inTransaction(async (tx, recompute) => {
     await getUnit(tx, siteId, unitId);
+    if (!isId(portId)) throw new PlantRuleError('NOT_FOUND', 'No such port on this unit.');
     const out = await tx.delete(plantPorts).where(and(eq(plantPorts.id, portId), eq(plantPorts.unitId, unitId))).returning({ id: plantPorts.id });
     if (!out.length) throw new PlantRuleError('NOT_FOUND', 'No such port on this unit.');
     await portChanged(tx, siteId, unitId, recompute);
@@ -503,6 +514,8 @@ export async function siteOverview(siteId: string) {
   const status = await siteStatus(siteId, r);
   return {
     site,
+    /** The site's settings as the model file writes them (ambient tag by name). */
+    settings: model.site,
     units: model.units.map((u) => ({
       id: ids.units.get(u.name)!.id,
       ...u,

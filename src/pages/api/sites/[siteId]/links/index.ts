@@ -2,9 +2,11 @@ import type { APIRoute } from 'astro';
 import { apiError } from '../../../../../server/errors';
 import { LinkInput, linksForRange, linksValidAt, setLink } from '../../../../../server/services/plant-links';
 import { parseBody, plantErrorResponse } from '../../../../../server/services/plant-http';
+import { isId } from '../../../../../server/services/plant';
 
 /** Links holding at ?at= (default now), or every version overlapping ?from=&to=. */
 export const GET: APIRoute = async ({ params, url }) => {
+  if (!isId(params.siteId)) return apiError('NOT_FOUND', 'No such site.');
   const q = url.searchParams;
   const date = (v: string | null) => (v === null ? null : new Date(/^\d+$/.test(v) ? Number(v) : v));
   const from = date(q.get('from'));

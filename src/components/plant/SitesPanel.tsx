@@ -1,0 +1,118 @@
+import { zodResolver } from '@hookform/resolvers/zod';
+import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { z } from 'zod';
+import { isTimeZone } from '../../lib/plant/model';
+import { Field, Notice, call, messageOf, type Message } from './common';
+
+export interface SiteSummary {
+  id: string;
+  name: string;
+  timeZone: string;
+  units: number;
+  complete: number;
+}
+
+const NewSite = z.object({
+  name: z.string().trim().min(1, 'Give the site a name.').max(120),
+  timeZone: z.string().trim().refine(isTimeZone, 'Not an IANA time zone (e.g. Europe/Berlin).'),
+  elevation: z
+    .string()
+    .trim()
+    .refine((v) => v === '' || (Number.isFinite(Number(v)) && Number(v) >= -500 && Number(v) <= 6000), 'An elevation in metres, -500 to 6000.'),
+});
+type NewSite = z.infer<typeof NewSite>;
+
+/** The list of sites; admins also create a site by hand or from a model file. */
+export default function SitesPanel({ sites, canEdit }: { sites: SiteSummary[]; canEdit: boolean }) {
+  const [message, setMessage] = useState<Message>(null);
+  const form = useForm<NewSite>({ resolver: zodResolver(NewSite), defaultValues: { name: '', timeZone: 'UTC', elevation: '' } });
+  const err = form.formState.errors;
+
+  async function create(v: NewSite) {
+    try {
+      const { site } = await call<{ site: { id: string } }>('/api/sites', 'POST', {
+        name: v.name,
+        timeZone: v.timeZone,
+        ...(v.elevation !== '' ? { elevation_m: Number(v.elevation) } : {}),
+      });
+      window.location.href = `/plant/${site.id}`;
+    } catch (e) {
+      setMessage(messageOf(e));
+    }
+  }
+
+  async function fromFile(file: File | undefined) {
+    if (!file) return;
+    try {
+      const out = await call<{ siteId: string }>('/api/sites/from-model', 'POST', await file.text());
+      window.location.href = `/plant/${out.siteId}`;
+    } catch (e) {
+      setMessage(messageOf(e));
+    }
+  }
+
+  return (
+    <div className="space-y-6">
+      <section className="card">
+        <h2 className="mb-3">Sites</h2>
+        {sites.length === 0 ? (
+          <p className="text-sm text-ink-faint">No site yet.</p>
+        ) : (
+          <table className="grid-table">
+            <thead>
+              <tr>
+                <th>Site</th>
+                <th>Time zone</th>
+                <th className="num">Units</th>
+                <th className="num">Complete</th>
+              </tr>
+            </thead>
+            <tbody>
+              {sites.map((s) => (
+                <tr key={s.id}>
+                  <td>
+                    <a href={`/plant/${s.id}`}>{s.name}</a>
+                  </td>
+                  <td>{s.timeZone}</td>
+                  <td className="num">{s.units}</td>
+                  <td className="num">{s.complete}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        )}
+      </section>
+      {canEdit && (
+        <>
+          <Notice message={message} />
+          <section className="card">
+            <h2 className="mb-3">New site</h2>
+            <form onSubmit={form.handleSubmit(create)} className="grid gap-3 sm:grid-cols-4" noValidate>
+              <Field id="site-name" label="Name" error={err.name?.message}>
+                <input id="site-name" className="field" {...form.register('name')} />
+              </Field>
+              <Field id="site-tz" label="Time zone" error={err.timeZone?.message}>
+                <input id="site-tz" className="field" {...form.register('timeZone')} />
+              </Field>
+              <Field id="site-elevation" label="Elevation [m]" error={err.elevation?.message}>
+                <input id="site-elevation" className="field" inputMode="decimal" {...form.register('elevation')} />
+              </Field>
+              <div className="flex items-end">
+                <button className="btn btn-primary" type="submit" disabled={form.formState.isSubmitting}>
+                  Create site
+                </button>
+              </div>
+            </form>
+            <div className="mt-4 border-t border-paper-edge pt-3">
+              <label className="label" htmlFor="site-from-file">
+                Or create a site from a model file (docs/plant-model.md)
+              </label>
+              <input id="site-from-file" type="file" accept="application/json,.json" onChange={(e) => fromFile(e.target.files?.[0])} />
+            </div>
+          </section>
+        </>
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,133 @@
+import { TZDate } from '@date-fns/tz';
+import { format } from 'date-fns';
+import type { ReactNode } from 'react';
+import { canConvert, fromSI, toSI, type Quantity } from '../../lib/units';
+
+export interface Issue {
+  path: string;
+  message: string;
+}
+
+/** An API error with the issues (JSON paths) the server sent. */
+export class ApiError extends Error {
+  constructor(
+    message: string,
+    readonly issues: Issue[] = [],
+  ) {
+    super(message);
+  }
+}
+
+export async function call<T = unknown>(url: string, method = 'GET', body?: unknown): Promise<T> {
+  const res = await fetch(url, {
+    method,
+    headers: body !== undefined ? { 'content-type': 'application/json' } : undefined,
+    body: body !== undefined ? (typeof body === 'string' ? body : JSON.stringify(body)) : undefined,
+  });
+  const data = await res.json().catch(() => ({}));
+  if (!res.ok) throw new ApiError(data?.error?.message ?? `The server answered ${res.status}.`, data?.error?.issues ?? []);
+  return data as T;
+}
+
+export type Message = { ok: boolean; text: string; issues?: Issue[] } | null;
+
+export function messageOf(e: unknown): Message {
+  if (e instanceof ApiError) return { ok: false, text: e.message, issues: e.issues };
+  return { ok: false, text: (e as Error).message };
+}
+
+/** A status line, and the JSON path of each issue when the server sent some. */
+export function Notice({ message }: { message: Message }) {
+  if (!message) return null;
+  return (
+    <div role={message.ok ? 'status' : 'alert'} className={message.ok ? 'notice-ok' : 'notice-error'}>
+      <p>{message.text}</p>
+      {message.issues && message.issues.length > 1 && (
+        <ul className="mt-1 list-disc pl-5 text-xs" data-testid="issues">
+          {message.issues.map((i, n) => (
+            <li key={n}>
+              <code>{i.path}</code>: {i.message}
+            </li>
+          ))}
+        </ul>
+      )}
+    </div>
+  );
+}
+
+export function FieldError({ text }: { text?: string }) {
+  return text ? <p className="mt-1 text-xs text-alert">{text}</p> : null;
+}
+
+export function Field({ id, label, error, children }: { id: string; label: string; error?: string; children: ReactNode }) {
+  return (
+    <div>
+      <label className="label" htmlFor={id}>
+        {label}
+      </label>
+      {children}
+      <FieldError text={error} />
+    </div>
+  );
+}
+
+/** SI value shown in a display unit, rounded for reading. */
+export function showSI(value_SI: number | undefined | null, unit: string, quantity: Quantity): string {
+  if (value_SI === undefined || value_SI === null) return '';
+  if (!canConvert(unit, quantity)) return String(value_SI);
+  return String(Number(fromSI(value_SI, unit, quantity).toPrecision(6)));
+}
+
+/** A number typed in a display unit, to SI. */
+export function readSI(text: string, unit: string, quantity: Quantity): number | null {
+  if (text.trim() === '') return null;
+  const v = Number(text.replace(',', '.'));
+  if (!Number.isFinite(v)) return NaN;
+  return toSI(v, unit, quantity);
+}
+
+/** An instant as 'yyyy-MM-dd HH:mm' in the site's time zone ('from the start' for the epoch). */
+export function showInstant(iso: string | null | undefined, timeZone: string): string {
+  if (!iso) return '';
+  const d = new Date(iso);
+  if (d.getTime() === 0) return 'from the start';
+  return format(new TZDate(d.getTime(), timeZone), 'yyyy-MM-dd HH:mm');
+}
+
+/** A 'yyyy-MM-ddTHH:mm' input read as wall time in the site's time zone, to an ISO instant. */
+export function wallTimeToIso(local: string, timeZone: string): string | null {
+  const m = /^(\d{4})-(\d{2})-(\d{2})(?:T(\d{2}):(\d{2}))?$/.exec(local.trim());
+  if (!m) return null;
+  const d = new TZDate(Number(m[1]), Number(m[2]) - 1, Number(m[3]), Number(m[4] ?? 0), Number(m[5] ?? 0), timeZone);
+  return new Date(d.getTime()).toISOString();
+}
+
+/** Now as a 'yyyy-MM-ddTHH:mm' wall time in the site's time zone. */
+export function nowWallTime(timeZone: string): string {
+  return format(new TZDate(Date.now(), timeZone), "yyyy-MM-dd'T'HH:mm");
+}
+
+/** 'CH4=0.93, C2H6=0.04' to { CH4: 0.93, C2H6: 0.04 }; null when it does not read. */
+export function parseComposition(text: string): Record<string, number> | null {
+  const out: Record<string, number> = {};
+  for (const part of text.split(/[,;\n]+/).map((p) => p.trim()).filter(Boolean)) {
+    const m = /^([A-Za-z0-9]+)\s*[=:]\s*([0-9.eE+-]+)$/.exec(part);
+    if (!m) return null;
+    out[m[1]!] = Number(m[2]);
+  }
+  return Object.keys(out).length ? out : null;
+}
+
+export function showComposition(c: Record<string, number> | undefined): string {
+  return c ? Object.entries(c).map(([k, v]) => `${k}=${v}`).join(', ') : '';
+}
+
+/** The caution of docs/domain.md section 8, in one line. */
+export function Caution() {
+  return (
+    <p className="caution text-xs">
+      Lossline is a monitoring aid, not a protective or control system. Any work on the plant follows the site's procedures, local codes
+      and the judgement of licensed engineers.
+    </p>
+  );
+}
