@@ -283,7 +283,7 @@ class WaterFluid implements Fluid {
       throw new BalanceInputError(
         'IMPOSSIBLE_INPUT',
         'T0_K',
-        `= ${env.T0_K} K: water's dead state needs T0 >= ${WATER_T_MIN_K} K (IAPWS-IF97 has no liquid below 0 degC); use a fixed site T0 for water units in frost`,
+        `water's dead state needs T0 >= ${WATER_T_MIN_K} K, got ${env.T0_K} K (IAPWS-IF97 has no liquid below 0 degC); use a fixed site T0 for water units in frost`,
       );
     }
     return this.memo.put(env.T0_K, env.p0_Pa, { dead: deadState.water(env.T0_K, env.p0_Pa), eCh: null });

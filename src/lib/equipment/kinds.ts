@@ -44,7 +44,11 @@ function termsOf(ports: ResolvedPort[], role: TermRole, chemical: boolean): Unit
   return out;
 }
 
-function checkEnv(env: Environment): void {
+/**
+ * Checks the dead state: T0 200..400 K, p0 50..120 kPa (the property core's range).
+ * @throws BalanceInputError('IMPOSSIBLE_INPUT') naming T0_K or p0_Pa
+ */
+export function checkEnv(env: Environment): void {
   requireInput('T0_K', env?.T0_K, 200, 400, 'K', 'dead-state temperature');
   requireInput('p0_Pa', env?.p0_Pa, 5e4, 1.2e5, 'Pa', 'dead-state pressure');
 }

@@ -29,6 +29,7 @@ import { BalanceInputError } from './errors';
 import { fuelSpecOf, prepareFluid, type Environment, type Fluid, type FluidSpec, type PortMeasurement, type PortState } from './fluids';
 import {
   boilerBalance,
+  checkEnv,
   compressorBalance,
   condenserBalance,
   genericBalance,
@@ -293,6 +294,7 @@ export function compileUnit(kind: UnitKind, model: UnitModel): CompiledUnit {
       if (!Number.isFinite(x[i])) throw new BalanceInputError(Number.isNaN(x[i]) ? 'MISSING_INPUT' : 'IMPOSSIBLE_INPUT', names[i], `needs a finite value, got ${x[i]}`);
     }
     const env: Environment = { T0_K: x[0], p0_Pa: x[1] };
+    checkEnv(env);
     if (MACHINES.has(kind)) return machineBalance({ env, powerIn_W: x[iIn], powerOut_W: x[iOut], kind: kind as 'motor' | 'generator' });
     const bp = portsOf(x, env);
     if (TURBINES.has(kind)) {
