@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { aggregateSamples } from '../../src/lib/ingest/index';
-import type { Sample } from '../../src/lib/ingest/index';
-import { utc } from './helpers';
+import { aggregateSamples, createHourAggregator, createRowReader, createSampleEmitter, teeSinks } from '../../src/lib/ingest/index';
+import type { RowReader, Sample, TagHour } from '../../src/lib/ingest/index';
+import { fixtureProfile, fixtureText, utc } from './helpers';
 
 const at = (hm: string) => utc(`2024-03-05T${hm}:00Z`);
 const series = (tag: string, from: string, to: string, stepMin: number, value: number): Sample[] => {
@@ -52,5 +52,34 @@ describe('aggregateSamples', () => {
       ['B1.FT-101', 1, 0, 1],
       ['B1.TT-102', 1, 1, 0],
     ]);
+  });
+});
+
+describe('createSampleEmitter and teeSinks', () => {
+  it('stored samples re-aggregate to exactly the hours of the streaming pass', () => {
+    for (const name of ['status-words.csv', 'long-quality.csv', 'duplicate-times.csv', 'dst-autumn-berlin.csv']) {
+      const samples: Sample[] = [];
+      const streamed: TagHour[] = [];
+      const agg = createHourAggregator({ timeZone: 'Europe/Berlin', onHour: (h) => streamed.push(h) });
+      let reader: RowReader | null = null;
+      const store = createSampleEmitter((s) => samples.push(s), { cellText: (k) => reader!.cellText(k) });
+      reader = createRowReader(fixtureProfile(name), { timeZone: 'Europe/Berlin', sink: teeSinks(agg, store) });
+      reader.push(fixtureText(name));
+      reader.end();
+      agg.flush();
+      const again = aggregateSamples(samples, { timeZone: 'Europe/Berlin' });
+      const order = (a: TagHour, b: TagHour) => a.tag.localeCompare(b.tag) || a.hourStartMs - b.hourStartMs;
+      expect(again.sort(order), name).toEqual(streamed.sort(order));
+    }
+  });
+
+  it('keeps the text of rejected cells', () => {
+    const samples: Sample[] = [];
+    let reader: RowReader | null = null;
+    const sink = createSampleEmitter((s) => samples.push(s), { cellText: (k) => reader!.cellText(k) });
+    reader = createRowReader(fixtureProfile('status-words.csv'), { timeZone: 'UTC', sink });
+    reader.push(fixtureText('status-words.csv'));
+    reader.end();
+    expect(samples.filter((s) => s.value === null).map((s) => s.raw)).toEqual(['Shutdown', 'I/O Timeout', 'Bad', '#N/A', 'Shutdown']);
   });
 });

@@ -11,9 +11,11 @@
 import { createHourAggregator } from './aggregate';
 import type { TagHour, TagOptions } from './aggregate';
 import { CellStatus } from './reader';
+import type { SampleSink } from './reader';
 import { classifyQuality, QualityClass } from './quality';
 
-/** One stored sample. value null = not a number (raw holds the text) or blank (no raw). */
+/** One stored sample. value null = not a number (raw holds the text) or blank (no raw); a bad
+ *  quality makes the sample rejected whatever its value. */
 export interface Sample {
   tag: string;
   /** UTC epoch ms. */
@@ -43,23 +45,25 @@ export interface AggregateSamplesOptions {
   toMs?: number;
 }
 
+/** Bad quality first (whatever the value), then no number (text if raw is given, else blank). */
 function statusOf(s: Sample): number {
+  const q = s.quality === undefined ? QualityClass.Good : classifyQuality(s.quality);
+  if (q === QualityClass.Bad) return CellStatus.BadQuality;
   if (s.value === null || !Number.isFinite(s.value)) return s.raw && s.raw.trim().length > 0 ? CellStatus.Text : CellStatus.Blank;
-  if (s.quality === undefined) return CellStatus.Ok;
-  const q = classifyQuality(s.quality);
-  return q === QualityClass.Bad ? CellStatus.BadQuality : q === QualityClass.Good ? CellStatus.Ok : CellStatus.Uncertain;
+  return q === QualityClass.Good ? CellStatus.Ok : CellStatus.Uncertain;
 }
 
 /**
  * Aggregates samples from one or several sources into tag hours (sorted by tag, then hour).
- * Pass a plain sample array for a single source.
+ * Pass a plain sample array for a single source. Each source's samples are taken in the order
+ * given (the order they were read), so stored samples re-aggregate to the hours of the first pass.
  */
 export function aggregateSamples(input: readonly Sample[] | readonly SampleSource[], options: AggregateSamplesOptions): TagHour[] {
   const sources: SampleSource[] =
     input.length > 0 && 'samples' in (input[0] as object) ? [...(input as readonly SampleSource[])] : [{ priority: 0, samples: input as readonly Sample[] }];
   sources.sort((a, b) => b.priority - a.priority);
-  // per tag: kept samples from all sources
-  const byTag = new Map<string, { s: Sample; priority: number }[]>();
+  // per tag and source: kept samples, in the order stored
+  const byTag = new Map<string, Sample[][]>();
   const spansByTag = new Map<string, [number, number][]>();
   for (const src of sources) {
     const perTag = new Map<string, Sample[]>();
@@ -70,16 +74,18 @@ export function aggregateSamples(input: readonly Sample[] | readonly SampleSourc
     }
     for (const [tag, list] of perTag) {
       const higher = spansByTag.get(tag) ?? [];
-      let kept = byTag.get(tag);
-      if (!kept) byTag.set(tag, (kept = []));
       let lo = Infinity;
       let hi = -Infinity;
+      const kept: Sample[] = [];
       for (const s of list) {
         if (s.timeMs < lo) lo = s.timeMs;
         if (s.timeMs > hi) hi = s.timeMs;
         if (higher.some(([a, b]) => s.timeMs >= a && s.timeMs <= b)) continue;
-        kept.push({ s, priority: src.priority });
+        kept.push(s);
       }
+      const lists = byTag.get(tag) ?? [];
+      lists.push(kept);
+      byTag.set(tag, lists);
       higher.push([src.spanStartMs ?? lo, src.spanEndMs ?? hi]);
       spansByTag.set(tag, higher);
     }
@@ -96,15 +102,67 @@ export function aggregateSamples(input: readonly Sample[] | readonly SampleSourc
     },
   });
   for (const tag of [...byTag.keys()].sort()) {
-    const list = byTag.get(tag)!;
-    // time order; within one source keep the given order (stable sort) so the later duplicate wins
-    list.sort((a, b) => a.s.timeMs - b.s.timeMs);
+    const lists = byTag.get(tag)!;
     const k = agg.tagIndex(tag);
-    for (const { s } of list) {
+    // merge the sources by time, keeping each source's own order: a sample stored earlier than the
+    // one before it stays out of order and is dropped and counted, as in the streaming pass
+    const heads = lists.map(() => 0);
+    for (;;) {
+      let best = -1;
+      for (let i = 0; i < lists.length; i++) {
+        if (heads[i] < lists[i].length && (best < 0 || lists[i][heads[i]].timeMs < lists[best][heads[best]].timeMs)) best = i;
+      }
+      if (best < 0) break;
+      const s = lists[best][heads[best]++];
       const st = statusOf(s);
       agg.addSample(k, s.timeMs, st === CellStatus.Ok || st === CellStatus.Uncertain ? (s.value as number) : NaN, st);
     }
   }
   agg.flush();
   return out;
+}
+
+/**
+ * A sink that turns what the reader reads into Sample objects (for a server that stores raw samples
+ * per upload). Blank cells give no sample; rejected cells give value null with their text as raw
+ * when `cellText` is given (pass the reader's cellText), else '?'; uncertain and bad values carry
+ * quality 'uncertain' / 'bad'. One object per sample: use it for storage, not in the hot path.
+ */
+export function createSampleEmitter(onSample: (sample: Sample) => void, options: { cellText?: (k: number) => string } = {}): SampleSink {
+  const tags: string[] = [];
+  const emit = (k: number, timeMs: number, value: number, status: number) => {
+    if (status === CellStatus.Blank) return;
+    const tag = tags[k];
+    if (status === CellStatus.Text || status === CellStatus.BadQuality) {
+      const raw = options.cellText ? options.cellText(k).trim() : '?';
+      if (status === CellStatus.Text) onSample({ tag, timeMs, value: null, raw });
+      else onSample({ tag, timeMs, value: Number.isFinite(value) ? value : null, raw, quality: 'bad' });
+      return;
+    }
+    onSample(status === CellStatus.Uncertain ? { tag, timeMs, value, quality: 'uncertain' } : { tag, timeMs, value });
+  };
+  return {
+    addTag(k, tag) {
+      tags[k] = tag;
+    },
+    addRow(timeMs, values, status) {
+      for (let k = 0; k < values.length; k++) emit(k, timeMs, values[k], status[k]);
+    },
+    addSample: emit,
+  };
+}
+
+/** Feeds every call to several sinks (for example the aggregator and a sample store). */
+export function teeSinks(...sinks: SampleSink[]): SampleSink {
+  return {
+    addTag(k, tag) {
+      for (const s of sinks) s.addTag(k, tag);
+    },
+    addRow(timeMs, values, status) {
+      for (const s of sinks) s.addRow(timeMs, values, status);
+    },
+    addSample(k, timeMs, value, status) {
+      for (const s of sinks) s.addSample(k, timeMs, value, status);
+    },
+  };
 }
