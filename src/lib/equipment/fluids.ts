@@ -483,8 +483,8 @@ export function prepareFluid(spec: FluidSpec, fuelOverride?: FuelSpec): Fluid {
       if (fuel.phase === 'condensed') return new CondensedFuelFluid(spec, fuel);
       const mix = mixture(fuel.moleFractions!, 'mole');
       // Heating-value fuels: the typical composition gives cp and s, the stated LHV gives h.
-      const hOffset = fuelEnthalpy298_J_per_kg(fuel) - mix.h(T_REF_K);
-      return new GasFluid(spec, mix, { kind: 'fuel', fuel }, Math.abs(hOffset) < 1e-9 * Math.abs(mix.h(T_REF_K)) ? 0 : hOffset, fuel);
+      const hOffset = fuel.fuelType ? fuelEnthalpy298_J_per_kg(fuel) - mix.h(T_REF_K) : 0;
+      return new GasFluid(spec, mix, { kind: 'fuel', fuel }, hOffset, fuel);
     }
     case 'flue-gas': {
       const fs = spec.fuel ?? fuelOverride;
