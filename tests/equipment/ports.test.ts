@@ -7,6 +7,8 @@ import { expectClose } from '../support/expect-close';
 import {
   PHI_NATURAL_GAS,
   combustionFromO2,
+  dryAir,
+  fuelChemicalExergy,
   gaseousFuel,
   liquid,
   liquidFlowExergy,
@@ -103,6 +105,32 @@ describe('gases, fuels, flue gas and liquids', () => {
     const spec = { kind: 'liquid' as const, cp_J_per_kgK: 3600, rho_kg_per_m3: 1040 };
     const st = portState(spec, { p_Pa: 5e5, T_K: 360 }, env);
     expectClose(st.psi, liquidFlowExergy(liquid(spec), 360, 5e5, env.T0_K, env.p0_Pa), { rtol: 1e-10 });
+  });
+});
+
+describe('boiler on a condensed fuel', () => {
+  it('self-consistency: F = fuel chemical exergy (property core correlation) + air; no entropy balance, flagged', () => {
+    const fuel = { fuelType: 'heavy-fuel-oil' as const, LHV_J_per_kg: 40.5e6 };
+    const model: UnitModel = {
+      ports: [
+        { name: 'oil', role: 'fuel', direction: 'in', fluid: { kind: 'fuel', fuel }, state: 'ambient' },
+        { name: 'stack', role: 'flue-gas', direction: 'out', fluid: { kind: 'flue-gas', o2Basis: 'dry' }, flow: 'fuel-ratio' },
+        { name: 'fw', role: 'water', direction: 'in', fluid: WATER },
+        { name: 'steam', role: 'water', direction: 'out', fluid: WATER, flow: 'mass-balance' },
+      ],
+    };
+    const b = evaluateUnitHour('boiler', model, inputVector('boiler', model, {
+      T0_K: 298.15, p0_Pa: 101325, 'oil.mDot_kg_per_s': 0.5, 'stack.p_Pa': 1.01e5, 'stack.T_K': 450, 'stack.O2_fraction': 0.035,
+      'fw.mDot_kg_per_s': 7, 'fw.p_Pa': 4.5e6, 'fw.T_K': 390, 'steam.p_Pa': 4e6, 'steam.T_K': 680,
+    }));
+    const eCh = fuelChemicalExergy(buildFuel(fuel), 298.15);
+    // the air port is implicit (ambient): its exergy is the chemical exergy of dry air
+    expectClose(b.fuel_W, 0.5 * eCh + b.ports.air.mDot_kg_per_s * mixtureChemicalExergy(dryAir.moleFractions, 298.15).J_per_kg, { rtol: 1e-12 });
+    expect(Number.isNaN(b.entropyGeneration_W_per_K)).toBe(true);
+    expect(b.flags).toContain('no-entropy-balance');
+    expect(b.efficiency!).toBeGreaterThan(0.2);
+    expect(b.efficiency!).toBeLessThan(0.6);
+    expectClose(b.fuel_W - b.product_W! - b.loss_W, b.destruction_W, { rtol: 1e-12 });
   });
 });
 
