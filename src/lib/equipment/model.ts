@@ -332,7 +332,10 @@ export function compileUnit(kind: UnitKind, model: UnitModel): CompiledUnit {
 
 const compiled = new WeakMap<UnitModel, Map<UnitKind, CompiledUnit>>();
 
-/** The compiled form of (kind, model), memoised per model object. */
+/**
+ * The compiled form of (kind, model), memoised per model object: keep one model object per unit and
+ * model version (and do not mutate it), so that fluids are prepared and port states memoised once.
+ */
 export function compiledUnit(kind: UnitKind, model: UnitModel): CompiledUnit {
   let byKind = compiled.get(model);
   if (!byKind) {
