@@ -174,9 +174,21 @@ EOF
   wait
 }
 
+# npm run bench:ingest: throwaway services (own folder and ports), then bench/ingest.ts, then cleanup.
+bench_ingest_mode() {
+  install_deps
+  apt_install python3-pandas
+  local dir="$ROOT/.bench-data"
+  rm -rf "$dir"; mkdir -p "$dir"
+  trap cleanup EXIT
+  PG_FSYNC=on services "$dir" 54359 4599 1055 1110
+  node --import tsx bench/ingest.ts
+}
+
 case "$MODE" in
   run|"") run_mode ;;
   test) test_mode ;;
   test-services) test_services_mode ;;
+  bench-ingest) bench_ingest_mode ;;
   *) die "unknown mode '$MODE': use no argument to run Lossline, or 'test' to run every test" ;;
 esac

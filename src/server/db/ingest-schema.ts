@@ -124,7 +124,7 @@ export const tagHours = pgTable(
     flags: text('flags').array().notNull().default(sql`'{}'::text[]`),
     updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [primaryKey({ columns: [t.tagId, t.hourStart] }), index('tag_hours_hour_idx').on(t.hourStart)],
+  (t) => [primaryKey({ columns: [t.tagId, t.hourStart] })],
 );
 
 /** Figures a later file replaced, kept with the upload that brought them. */
@@ -139,37 +139,6 @@ export const tagHourHistory = pgTable(
     replacedAt: timestamp('replaced_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [index('tag_hour_history_tag_idx').on(t.tagId, t.hourStart)],
-);
-
-/**
- * Tag hours of an upload being read, written in batches while the file streams (so memory stays
- * flat) and merged into tag_hours in one transaction when the file is read whole. Rows of an upload
- * are deleted before a retry and after the merge, so a crash never leaves half a file in tag_hours.
- */
-export const tagHoursStage = pgTable(
-  'tag_hours_stage',
-  {
-    uploadId: uuid('upload_id')
-      .notNull()
-      .references(() => uploads.id, { onDelete: 'cascade' }),
-    tagName: text('tag_name').notNull(),
-    hourStart: timestamp('hour_start', { withTimezone: true }).notNull(),
-    mean: doublePrecision('mean'),
-    min: doublePrecision('min'),
-    max: doublePrecision('max'),
-    std: doublePrecision('std'),
-    first: doublePrecision('first'),
-    last: doublePrecision('last'),
-    samples: integer('samples').notNull(),
-    coveredSeconds: doublePrecision('covered_seconds').notNull(),
-    nonNumeric: integer('non_numeric').notNull(),
-    outOfRange: integer('out_of_range').notNull(),
-    flatline: boolean('flatline').notNull(),
-    spanStart: timestamp('span_start', { withTimezone: true, precision: 3 }),
-    spanEnd: timestamp('span_end', { withTimezone: true, precision: 3 }),
-    flags: text('flags').array().notNull(),
-  },
-  (t) => [primaryKey({ columns: [t.uploadId, t.tagName, t.hourStart] })],
 );
 
 /** Every rejected cell of an upload (not a number, bad quality, out of range ...), for its report. */

@@ -18,8 +18,8 @@ import { bucket, objectStream, s3 } from '../storage';
 
 /** Bytes read from the start of a file to decide its layout. */
 const SAMPLE_BYTES = 96 * 1024;
-/** Tag hours written to the staging table per statement. */
-const STAGE_BATCH = 4000;
+/** Tag hours written per statement. */
+const STAGE_BATCH = 5000;
 /** Rejected cells kept per upload for its report (the counts are always complete). */
 export const MAX_STORED_REJECTS = 100_000;
 /** How often progress is written while a file streams [ms]. */
@@ -67,9 +67,9 @@ async function decideLayout(up: typeof uploads.$inferSelect, timeZone: string) {
 }
 
 /**
- * Reads one upload: decides its layout, streams the raw object through the ingest core into the
- * staging table, then merges its tag hours in one transaction. A per-upload advisory lock keeps two
- * workers off the same file; a crash leaves only staging rows, which the next attempt deletes first.
+ * Reads one upload: decides its layout, then streams the raw object through the ingest core and
+ * writes its tag hours in one transaction. A per-upload advisory lock keeps two workers off the same
+ * file; a crash rolls the transaction back, so the next attempt starts from the start.
  */
 export async function ingestUpload(uploadId: string): Promise<IngestOutcome> {
   const client = await pgPool().connect();
@@ -87,6 +87,7 @@ export async function ingestUpload(uploadId: string): Promise<IngestOutcome> {
 }
 
 async function ingestLocked(uploadId: string, client: pg.PoolClient): Promise<IngestOutcome> {
+  const startedMs = performance.now();
   const [up] = await db().select().from(uploads).where(eq(uploads.id, uploadId));
   if (!up) return { kind: 'skipped', why: 'no such upload' };
   if (up.status !== 'queued' && up.status !== 'processing') return { kind: 'skipped', why: `upload is ${up.status}` };
@@ -97,7 +98,6 @@ async function ingestLocked(uploadId: string, client: pg.PoolClient): Promise<In
     .update(uploads)
     .set({ status: 'processing', attempts: sql`${uploads.attempts} + 1`, startedAt: new Date(), rowsRead: 0, bytesRead: 0, failureReason: null })
     .where(eq(uploads.id, uploadId));
-  await client.query('delete from tag_hours_stage where upload_id = $1', [uploadId]);
   await client.query('delete from upload_rejects where upload_id = $1', [uploadId]);
 
   try {
@@ -122,11 +122,12 @@ async function ingestLocked(uploadId: string, client: pg.PoolClient): Promise<In
       profile = saved!.profile as unknown as LayoutProfile;
       profileId = saved!.id;
     }
-    const result = await streamIntoStage(up, profile, timeZone, client);
-    const summary = await mergeStage(up, profile, result, profileId ?? null, client);
+    const result = await readIntoTransaction(up, profile, timeZone, client);
+    const summary = await finish(up, profile, result, profileId ?? null, client);
+    if (process.env.LOSSLINE_INGEST_TIMING) console.log(`[ingest] ${uploadId}: read and committed in ${((performance.now() - startedMs) / 1000).toFixed(2)} s`);
     return { kind: 'done', summary };
   } catch (err) {
-    await client.query('delete from tag_hours_stage where upload_id = $1', [uploadId]).catch(() => undefined);
+    await client.query('rollback').catch(() => undefined);
     if (err instanceof IngestError) {
       const where = err.line ? ` (line ${err.line})` : '';
       const reason = `${err.message}${where}`;
@@ -148,27 +149,88 @@ interface StreamResult {
   report: ReturnType<ReturnType<typeof createFileIngest>['end']>['report'];
   encoding: string;
   hours: number;
+  replaced: number;
+  newTags: number;
   rejectsStored: number;
   bytes: number;
 }
 
-async function streamIntoStage(up: typeof uploads.$inferSelect, profile: LayoutProfile, timeZone: string, client: pg.PoolClient): Promise<StreamResult> {
+/** Batches in flight on the connection while the parser reads on (bounded, so memory stays flat). */
+const MAX_IN_FLIGHT = 3;
+
+/**
+ * Streams the raw object through the ingest core and writes its tag hours inside ONE transaction
+ * on a dedicated connection, batch by batch while the file is still being read; the transaction
+ * commits only when the whole file is read, so a failure or a killed worker leaves no tag hour of
+ * it behind. Progress goes through another connection, so the uploads page sees it live.
+ */
+async function readIntoTransaction(up: typeof uploads.$inferSelect, profile: LayoutProfile, timeZone: string, client: pg.PoolClient): Promise<StreamResult> {
   const known = await db().select().from(tags).where(eq(tags.siteId, up.siteId));
   const byName = new Map(known.map((t) => [t.name, t]));
+  const tagId = new Map(known.map((t) => [t.name, t.id]));
+  const unitOf = new Map<string, string | null>();
+  const descOf = new Map<string, string | null>();
+  for (const c of profile.wide?.columns ?? []) {
+    unitOf.set(c.tag, c.unit);
+    descOf.set(c.tag, c.description);
+  }
 
   let batch: TagHour[] = [];
   let rejects: RejectedCell[] = [];
   let rejectsStored = 0;
   let rejectSeq = 0;
   let hours = 0;
-  let pending: Promise<unknown> = Promise.resolve();
+  let replaced = 0;
+  let newTags = 0;
+  // Writes run one after another on the transaction's connection while the parser reads on; the
+  // parser waits when more than MAX_IN_FLIGHT batches are queued, so memory stays bounded.
+  let chain: Promise<unknown> = Promise.resolve();
+  let queued = 0;
+  let failure: unknown = null;
+  let writeMs = 0;
+  const enqueue = (work: () => Promise<unknown>) => {
+    queued++;
+    chain = chain.then(async () => {
+      if (failure) return;
+      const t0 = performance.now();
+      try {
+        await work();
+      } catch (err) {
+        failure ??= err;
+      } finally {
+        writeMs += performance.now() - t0;
+        queued--;
+      }
+    });
+  };
+
+  async function ensureTags(names: string[]) {
+    const missing = [...new Set(names)].filter((n) => !tagId.has(n));
+    if (!missing.length) return;
+    for (const n of missing) tagId.set(n, ''); // claimed; filled below
+    const res = await client.query(
+      `insert into tags (site_id, name, unit_hint, description, last_upload_id)
+       select $1, n, u, d, $5 from unnest($2::text[], $3::text[], $4::text[]) as x(n, u, d)
+       on conflict (site_id, name) do update set last_upload_id = excluded.last_upload_id
+       returning id, name, (xmax = 0) as inserted`,
+      [up.siteId, missing, missing.map((n) => unitOf.get(n) ?? null), missing.map((n) => descOf.get(n) ?? null), up.id],
+    );
+    for (const r of res.rows as { id: string; name: string; inserted: boolean }[]) {
+      tagId.set(r.name, r.id);
+      if (r.inserted) newTags++;
+    }
+  }
 
   const flushHours = () => {
     if (!batch.length) return;
     const rows = batch;
     batch = [];
     hours += rows.length;
-    pending = pending.then(() => insertStage(client, up.id, rows));
+    const names = rows.map((h) => h.tag);
+    enqueue(async () => {
+      await ensureTags(names);
+      replaced += await writeHours(client, up.id, rows, tagId);
+    });
   };
   const flushRejects = () => {
     if (!rejects.length) return;
@@ -176,7 +238,7 @@ async function streamIntoStage(up: typeof uploads.$inferSelect, profile: LayoutP
     rejects = [];
     const start = rejectSeq;
     rejectSeq += rows.length;
-    pending = pending.then(() => insertRejects(client, up.id, start, rows));
+    enqueue(() => insertRejects(client, up.id, start, rows));
   };
 
   const ingest = createFileIngest({
@@ -204,49 +266,120 @@ async function streamIntoStage(up: typeof uploads.$inferSelect, profile: LayoutP
     },
   });
 
+  await client.query('begin');
+  // One file of a site at a time writes tag hours, so shared hours are combined in a defined order.
+  await client.query('select pg_advisory_xact_lock(hashtextextended($1, 0))', ['ingest-site:' + up.siteId]);
   const stream = await objectStream(up.objectKey);
   let bytes = 0;
+  let lines = 0;
   let lastProgress = Date.now();
   for await (const chunk of stream) {
     const buf = chunk as Buffer;
     bytes += buf.length;
+    for (let i = buf.indexOf(10); i !== -1; i = buf.indexOf(10, i + 1)) lines++;
     ingest.push(new Uint8Array(buf.buffer, buf.byteOffset, buf.byteLength));
-    await pending; // back-pressure: the file is read no faster than its hours are written
+    if (queued > MAX_IN_FLIGHT) await chain;
+    if (failure) throw failure;
     if (Date.now() - lastProgress > PROGRESS_EVERY_MS) {
       lastProgress = Date.now();
-      await client.query('update uploads set bytes_read = $2, rows_read = $3 where id = $1', [up.id, bytes, hours]);
+      void db().update(uploads).set({ bytesRead: bytes, rowsRead: lines }).where(eq(uploads.id, up.id)).catch(() => undefined);
     }
   }
   const { report, encoding } = ingest.end();
   flushHours();
   flushRejects();
-  await pending;
-  await client.query('update uploads set bytes_read = $2, rows_read = $3 where id = $1', [up.id, bytes, report.dataRowCount]);
-  return { report, encoding: encoding.encoding, hours, rejectsStored, bytes };
+  await chain;
+  if (failure) throw failure;
+  if (process.env.LOSSLINE_INGEST_TIMING) console.log(`[ingest] ${up.id}: ${hours} tag hours, database writes ${(writeMs / 1000).toFixed(2)} s`);
+  return { report, encoding: encoding.encoding, hours, replaced, newTags, rejectsStored, bytes };
 }
 
 const toIso = (ms: number | null) => (ms === null ? null : new Date(ms).toISOString());
 
-async function insertStage(client: pg.PoolClient, uploadId: string, rows: TagHour[]) {
-  const flags = (h: TagHour) => {
-    const f: string[] = [];
-    if (h.duplicateCount) f.push(`duplicate-times:${h.duplicateCount}`);
-    if (h.outOfOrderCount) f.push(`backwards-times:${h.outOfOrderCount}`);
-    if (h.badQualityCount) f.push(`bad-quality:${h.badQualityCount}`);
-    if (h.uncertainCount) f.push(`uncertain-quality:${h.uncertainCount}`);
-    return `{${f.map((x) => `"${x}"`).join(',')}}`;
-  };
-  await client.query(
-    `insert into tag_hours_stage (upload_id, tag_name, hour_start, mean, min, max, std, first, last, samples, covered_seconds,
-       non_numeric, out_of_range, flatline, span_start, span_end, flags)
-     select $1, n, h, mean, mn, mx, sd, fi, la, ns, cs, nn, oor, fl, ss, se, fg::text[]
-     from unnest($2::text[], $3::timestamptz[], $4::float8[], $5::float8[], $6::float8[], $7::float8[], $8::float8[],
-       $9::float8[], $10::int[], $11::float8[], $12::int[], $13::int[], $14::bool[], $15::timestamptz[], $16::timestamptz[], $17::text[])
-       as x(n, h, mean, mn, mx, sd, fi, la, ns, cs, nn, oor, fl, ss, se, fg)
-     on conflict (upload_id, tag_name, hour_start) do nothing`,
-    [
+function flagsOf(h: TagHour): string {
+  const f: string[] = [];
+  if (h.duplicateCount) f.push(`duplicate-times:${h.duplicateCount}`);
+  if (h.outOfOrderCount) f.push(`backwards-times:${h.outOfOrderCount}`);
+  if (h.badQualityCount) f.push(`bad-quality:${h.badQualityCount}`);
+  if (h.uncertainCount) f.push(`uncertain-quality:${h.uncertainCount}`);
+  return `{${f.map((x) => `"${x}"`).join(',')}}`;
+}
+
+/**
+ * Writes a batch of an upload's tag hours. A tag hour already holding another file's figures (two
+ * shift exports sharing an hour) is combined: when the two files' sample spans in that hour do not
+ * overlap, the figures are pooled exactly (mean and spread weighted by covered time, extremes,
+ * counts); when they overlap, the same readings arrived twice and the newer file's figures replace
+ * the older ones for that hour. Either way the previous figures go to tag_hour_history with the
+ * upload that replaced them. Returns how many existing hours were touched.
+ */
+async function writeHours(client: pg.PoolClient, uploadId: string, rows: TagHour[], tagId: Map<string, string>): Promise<number> {
+  const params = hourParams(uploadId, rows, tagId);
+  // The usual case, new hours only, takes a plain insert; the site's ingest lock (held by this
+  // transaction) keeps another file from adding hours between this check and the insert.
+  const clash = await client.query(
+    `select 1 from tag_hours where tag_id = any($1::uuid[]) and hour_start between $2 and $3
+       and (tag_id, hour_start) in (select * from unnest($1::uuid[], $4::timestamptz[])) limit 1`,
+    [params[1], params[2].reduce((a, b) => (a! < b! ? a : b)), params[2].reduce((a, b) => (a! > b! ? a : b)), params[2]],
+  );
+  if (clash.rowCount === 0) {
+    await client.query(
+      `insert into tag_hours (tag_id, hour_start, mean, min, max, std, first, last, samples, covered_fraction, covered_seconds,
+         non_numeric, out_of_range, flatline, span_start, span_end, upload_ids, flags, updated_at)
+       select tag_id, hour_start, mean, min, max, std, first, last, samples, covered_seconds / 3600.0, covered_seconds,
+         non_numeric, out_of_range, flatline, span_start, span_end, array[$1::uuid], flags::text[], now()
+       from ${UNNEST_HOURS}`,
+      params,
+    );
+    return 0;
+  }
+  const res = await client.query(
+    `with s as (
+       select * from ${UNNEST_HOURS}
+     ), hist as (
+       insert into tag_hour_history (tag_id, hour_start, replaced_by_upload_id, previous)
+       select th.tag_id, th.hour_start, $1, to_jsonb(th) from tag_hours th join s on s.tag_id = th.tag_id and s.hour_start = th.hour_start
+       returning 1
+     ), ins as (
+       insert into tag_hours as o (tag_id, hour_start, mean, min, max, std, first, last, samples, covered_fraction, covered_seconds,
+         non_numeric, out_of_range, flatline, span_start, span_end, upload_ids, flags, updated_at)
+       select tag_id, hour_start, mean, min, max, std, first, last, samples, covered_seconds / 3600.0, covered_seconds,
+         non_numeric, out_of_range, flatline, span_start, span_end, array[$1::uuid], flags::text[], now()
+       from s
+       on conflict (tag_id, hour_start) do update set
+         mean = case when ${OVERLAP} then excluded.mean else ${POOLED_MEAN} end,
+         std = case when ${OVERLAP} then excluded.std else ${POOLED_STD} end,
+         min = case when ${OVERLAP} then excluded.min else least(o.min, excluded.min) end,
+         max = case when ${OVERLAP} then excluded.max else greatest(o.max, excluded.max) end,
+         first = case when ${OVERLAP} or excluded.span_start < o.span_start then excluded.first else o.first end,
+         last = case when ${OVERLAP} or excluded.span_end > o.span_end then excluded.last else o.last end,
+         samples = case when ${OVERLAP} then excluded.samples else o.samples + excluded.samples end,
+         covered_seconds = case when ${OVERLAP} then excluded.covered_seconds else least(3600, o.covered_seconds + excluded.covered_seconds) end,
+         covered_fraction = case when ${OVERLAP} then excluded.covered_fraction else least(1, (o.covered_seconds + excluded.covered_seconds) / 3600.0) end,
+         non_numeric = case when ${OVERLAP} then excluded.non_numeric else o.non_numeric + excluded.non_numeric end,
+         out_of_range = case when ${OVERLAP} then excluded.out_of_range else o.out_of_range + excluded.out_of_range end,
+         flatline = case when ${OVERLAP} then excluded.flatline else o.flatline or excluded.flatline end,
+         span_start = case when ${OVERLAP} then excluded.span_start else least(o.span_start, excluded.span_start) end,
+         span_end = case when ${OVERLAP} then excluded.span_end else greatest(o.span_end, excluded.span_end) end,
+         upload_ids = case when ${OVERLAP} then excluded.upload_ids else excluded.upload_ids || o.upload_ids end,
+         flags = case when ${OVERLAP} then array_append(excluded.flags, 'replaced-older-file') else array_append(excluded.flags || o.flags, 'combined-files') end,
+         updated_at = now()
+       returning 1
+     )
+     select (select count(*) from hist)::int as replaced, (select count(*) from ins)::int as written`,
+    params,
+  );
+  return (res.rows[0] as { replaced: number }).replaced;
+}
+
+const UNNEST_HOURS = `unnest($2::uuid[], $3::timestamptz[], $4::float8[], $5::float8[], $6::float8[], $7::float8[], $8::float8[],
+    $9::float8[], $10::int[], $11::float8[], $12::int[], $13::int[], $14::bool[], $15::timestamptz[], $16::timestamptz[], $17::text[])
+    as x(tag_id, hour_start, mean, min, max, std, first, last, samples, covered_seconds, non_numeric, out_of_range, flatline, span_start, span_end, flags)`;
+
+function hourParams(uploadId: string, rows: TagHour[], tagId: Map<string, string>) {
+  return [
       uploadId,
-      rows.map((h) => h.tag),
+      rows.map((h) => tagId.get(h.tag)),
       rows.map((h) => new Date(h.hourStartMs).toISOString()),
       rows.map((h) => h.mean),
       rows.map((h) => h.min),
@@ -261,9 +394,8 @@ async function insertStage(client: pg.PoolClient, uploadId: string, rows: TagHou
       rows.map((h) => h.flatline),
       rows.map((h) => toIso(h.firstMs)),
       rows.map((h) => toIso(h.lastMs)),
-      rows.map(flags),
-    ],
-  );
+      rows.map(flagsOf),
+  ] as [string, (string | undefined)[], string[], ...unknown[]];
 }
 
 async function insertRejects(client: pg.PoolClient, uploadId: string, startSeq: number, rows: RejectedCell[]) {
@@ -282,101 +414,32 @@ async function insertRejects(client: pg.PoolClient, uploadId: string, startSeq: 
   );
 }
 
-/**
- * Merges the staged tag hours of an upload in one transaction.
- *
- * A tag hour already holding another file's figures (two shift exports sharing an hour) is combined:
- * when the two files' sample spans in that hour do not overlap, the figures are pooled exactly (mean
- * and spread weighted by covered time, extremes, counts); when they overlap, the same readings
- * arrived twice and the newer file's figures replace the older ones for that hour. Either way the
- * previous figures are kept in tag_hour_history with the upload that replaced them.
- */
-async function mergeStage(up: typeof uploads.$inferSelect, profile: LayoutProfile, r: StreamResult, profileId: string | null, client: pg.PoolClient) {
-  const unitOf = new Map<string, string | null>();
-  for (const c of profile.wide?.columns ?? []) unitOf.set(c.tag, c.unit);
-  const descOf = new Map<string, string | null>();
-  for (const c of profile.wide?.columns ?? []) descOf.set(c.tag, c.description);
-  const names = r.report.tags.map((t) => t.tag);
-
-  await client.query('begin');
-  try {
-    const created = await client.query(
-      `insert into tags (site_id, name, unit_hint, description, last_upload_id)
-       select $1, n, u, d, $5 from unnest($2::text[], $3::text[], $4::text[]) as x(n, u, d)
-       on conflict (site_id, name) do update set last_upload_id = excluded.last_upload_id,
-         unit_hint = coalesce(tags.unit_hint, excluded.unit_hint), description = coalesce(tags.description, excluded.description)
-       returning (xmax = 0) as inserted`,
-      [up.siteId, names, names.map((n) => unitOf.get(n) ?? null), names.map((n) => descOf.get(n) ?? null), up.id],
-    );
-    const newTags = created.rows.filter((x: { inserted: boolean }) => x.inserted).length;
-
-    const history = await client.query(
-      `insert into tag_hour_history (tag_id, hour_start, replaced_by_upload_id, previous)
-       select th.tag_id, th.hour_start, $1, to_jsonb(th)
-       from tag_hours_stage s join tags t on t.site_id = $2 and t.name = s.tag_name
-       join tag_hours th on th.tag_id = t.id and th.hour_start = s.hour_start
-       where s.upload_id = $1`,
-      [up.id, up.siteId],
-    );
-
-    // o = existing row, e = this upload's; "ov" = the sample spans overlap (same readings twice).
-    await client.query(
-      `insert into tag_hours as o (tag_id, hour_start, mean, min, max, std, first, last, samples, covered_fraction, covered_seconds,
-         non_numeric, out_of_range, flatline, span_start, span_end, upload_ids, flags, updated_at)
-       select t.id, s.hour_start, s.mean, s.min, s.max, s.std, s.first, s.last, s.samples, s.covered_seconds / 3600.0, s.covered_seconds,
-         s.non_numeric, s.out_of_range, s.flatline, s.span_start, s.span_end, array[$1::uuid], s.flags, now()
-       from tag_hours_stage s join tags t on t.site_id = $2 and t.name = s.tag_name
-       where s.upload_id = $1
-       on conflict (tag_id, hour_start) do update set
-         mean = case when ${OVERLAP} then excluded.mean else ${POOLED_MEAN} end,
-         std = case when ${OVERLAP} then excluded.std else ${POOLED_STD} end,
-         min = case when ${OVERLAP} then excluded.min else least(o.min, excluded.min) end,
-         max = case when ${OVERLAP} then excluded.max else greatest(o.max, excluded.max) end,
-         first = case when ${OVERLAP} or excluded.span_start < o.span_start then excluded.first else o.first end,
-         last = case when ${OVERLAP} or excluded.span_end > o.span_end then excluded.last else o.last end,
-         samples = case when ${OVERLAP} then excluded.samples else o.samples + excluded.samples end,
-         covered_seconds = case when ${OVERLAP} then excluded.covered_seconds else least(3600, o.covered_seconds + excluded.covered_seconds) end,
-         covered_fraction = case when ${OVERLAP} then excluded.covered_fraction else least(1, (o.covered_seconds + excluded.covered_seconds) / 3600.0) end,
-         non_numeric = case when ${OVERLAP} then excluded.non_numeric else o.non_numeric + excluded.non_numeric end,
-         out_of_range = case when ${OVERLAP} then excluded.out_of_range else o.out_of_range + excluded.out_of_range end,
-         flatline = case when ${OVERLAP} then excluded.flatline else o.flatline or excluded.flatline end,
-         span_start = case when ${OVERLAP} then excluded.span_start else least(o.span_start, excluded.span_start) end,
-         span_end = case when ${OVERLAP} then excluded.span_end else greatest(o.span_end, excluded.span_end) end,
-         upload_ids = case when ${OVERLAP} then excluded.upload_ids else excluded.upload_ids || o.upload_ids end,
-         flags = case when ${OVERLAP} then array_append(excluded.flags, 'replaced-older-file') else array_append(excluded.flags || o.flags, 'combined-files') end,
-         updated_at = now()`,
-      [up.id, up.siteId],
-    );
-
-    await client.query('delete from tag_hours_stage where upload_id = $1', [up.id]);
-    const warnings = r.report.warnings.map((w) => ({ code: w.code, message: w.message, count: w.count, lines: w.lines }));
-    const summary = {
-      rows: r.report.dataRowCount,
-      tags: names.length,
-      newTags,
-      hours: r.hours,
-      values: r.report.valueCount,
-      rejected: r.report.rejectedCount,
-      rejectedStored: r.rejectsStored,
-      blank: r.report.blankCount,
-      replacedOrCombinedHours: history.rowCount ?? 0,
-      firstTime: toIso(r.report.firstTimeMs),
-      lastTime: toIso(r.report.lastTimeMs),
-      encoding: r.encoding,
-      layout: profile.layout,
-      warnings,
-      perTag: r.report.tags.map((t) => ({ tag: t.tag, values: t.valueCount, notNumbers: t.textCount, badQuality: t.badQualityCount, blank: t.blankCount, examples: t.rejectedTexts.slice(0, 3) })),
-    };
-    await client.query(
-      `update uploads set status = 'done', finished_at = now(), summary = $2, profile_id = $3, bytes_read = $4, rows_read = $5, detection = null where id = $1`,
-      [up.id, JSON.stringify(summary), profileId, r.bytes, r.report.dataRowCount],
-    );
-    await client.query('commit');
-    return summary;
-  } catch (err) {
-    await client.query('rollback');
-    throw err;
-  }
+/** Closes the upload's transaction with its summary: the file's tag hours become visible at once. */
+async function finish(up: typeof uploads.$inferSelect, profile: LayoutProfile, r: StreamResult, profileId: string | null, client: pg.PoolClient) {
+  const warnings = r.report.warnings.map((w) => ({ code: w.code, message: w.message, count: w.count, lines: w.lines }));
+  const summary = {
+    rows: r.report.dataRowCount,
+    tags: r.report.tags.length,
+    newTags: r.newTags,
+    hours: r.hours,
+    values: r.report.valueCount,
+    rejected: r.report.rejectedCount,
+    rejectedStored: r.rejectsStored,
+    blank: r.report.blankCount,
+    replacedOrCombinedHours: r.replaced,
+    firstTime: toIso(r.report.firstTimeMs),
+    lastTime: toIso(r.report.lastTimeMs),
+    encoding: r.encoding,
+    layout: profile.layout,
+    warnings,
+    perTag: r.report.tags.map((t) => ({ tag: t.tag, values: t.valueCount, notNumbers: t.textCount, badQuality: t.badQualityCount, blank: t.blankCount, examples: t.rejectedTexts.slice(0, 3) })),
+  };
+  await client.query(
+    `update uploads set status = 'done', finished_at = now(), summary = $2, profile_id = $3, bytes_read = $4, rows_read = $5, detection = null where id = $1`,
+    [up.id, JSON.stringify(summary), profileId, r.bytes, r.report.dataRowCount],
+  );
+  await client.query('commit');
+  return summary;
 }
 
 const OVERLAP = `(excluded.span_start is not null and o.span_start is not null and excluded.span_start <= o.span_end and o.span_start <= excluded.span_end)`;

@@ -1,0 +1,133 @@
+/**
+ * Ingest benchmark, run by `npm run bench:ingest` (which starts throwaway services first through
+ * `./docker-free-start.sh bench-ingest`). In one run it
+ *   1. generates a one-minute wide export: 200 tags x 30 days = 43 200 rows, 8.64 million values;
+ *   2. reads and aggregates it into tag hours in-process (the ingest core, file streamed from disk);
+ *   3. reads and aggregates the same file hourly with pandas (Debian's python3-pandas);
+ *   4. uploads it through the API path into the object store and times upload -> committed tag hours
+ *      with a real worker process, whose peak resident memory is read from /proc.
+ * Prints: ingest_values_per_s, vs_pandas (pandas time / ours), end_to_end_s, worker_peak_rss_mb.
+ */
+import { spawn, spawnSync } from 'node:child_process';
+import { createReadStream, mkdtempSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { eq } from 'drizzle-orm';
+import { createFileIngest } from '../src/lib/ingest';
+import { closeDb, db } from '../src/server/db/client';
+import { sites, uploads } from '../src/server/db/schema';
+import { stopQueue } from '../src/server/queue';
+import { receiveApiUpload } from '../src/server/services/uploads';
+
+const TAGS = 200;
+const DAYS = 30;
+const ROWS = DAYS * 24 * 60;
+const PYTHON = process.env.LOSSLINE_PYTHON ?? '/usr/bin/python3';
+
+function generate(path: string) {
+  const pad = (n: number) => String(n).padStart(2, '0');
+  const parts: string[] = [];
+  parts.push(['Timestamp', ...Array.from({ length: TAGS }, (_, j) => `NB.AI-${1000 + j}`)].join(',') + '\n');
+  const start = Date.UTC(2025, 5, 1);
+  for (let i = 0; i < ROWS; i++) {
+    const d = new Date(start + i * 60_000);
+    let line = `${d.getUTCFullYear()}-${pad(d.getUTCMonth() + 1)}-${pad(d.getUTCDate())} ${pad(d.getUTCHours())}:${pad(d.getUTCMinutes())}:00`;
+    for (let j = 0; j < TAGS; j++) line += ',' + (100 + j + 10 * Math.sin(i / 50 + j)).toFixed(3);
+    parts.push(line + '\n');
+  }
+  writeFileSync(path, parts.join(''));
+}
+
+async function inProcess(path: string) {
+  const t0 = performance.now();
+  let hours = 0;
+  const ingest = createFileIngest({ timeZone: 'UTC', onHour: () => hours++ });
+  for await (const chunk of createReadStream(path, { highWaterMark: 64 * 1024 })) ingest.push(chunk as Buffer);
+  const out = ingest.end();
+  return { seconds: (performance.now() - t0) / 1000, values: out.report.valueCount, hours };
+}
+
+function pandas(path: string) {
+  const script = `
+import sys, time, pandas as pd
+t0 = time.perf_counter()
+df = pd.read_csv(sys.argv[1], parse_dates=['Timestamp'], index_col='Timestamp')
+r = df.resample('1h')
+out = pd.concat({'mean': r.mean(), 'min': r.min(), 'max': r.max(), 'std': r.std(), 'first': r.first(), 'last': r.last(), 'count': r.count()}, axis=1)
+print(time.perf_counter() - t0, pd.__version__, out.shape[0] * ${TAGS})
+`;
+  const res = spawnSync(PYTHON, ['-c', script, path], { encoding: 'utf8' });
+  if (res.status !== 0) throw new Error(`pandas run failed: ${res.stderr}`);
+  const [seconds, version, hours] = res.stdout.trim().split(/\s+/);
+  return { seconds: Number(seconds), version: version!, hours: Number(hours) };
+}
+
+function peakRssMb(pid: number): number {
+  const status = readFileSync(`/proc/${pid}/status`, 'utf8');
+  const kb = Number(status.match(/VmHWM:\s+(\d+)/)?.[1] ?? 0);
+  return kb / 1024;
+}
+
+async function endToEnd(path: string) {
+  const worker = spawn(process.execPath, ['--import', 'tsx', 'src/worker/main.ts'], { stdio: ['ignore', 'pipe', 'inherit'], env: { ...process.env, LOSSLINE_INGEST_TIMING: '1' } });
+  await new Promise<void>((resolve, reject) => {
+    worker.stdout!.on('data', (d: Buffer) => {
+      const text = d.toString();
+      for (const line of text.split('\n')) if (line.startsWith('[ingest]')) console.log(line);
+      if (text.includes('[worker] ready')) resolve();
+    });
+    worker.on('exit', (code) => reject(new Error(`worker exited ${code}`)));
+  });
+  const [site] = await db().insert(sites).values({ name: `Bench site ${Date.now()}`, timeZone: 'UTC' }).returning();
+  const t0 = performance.now();
+  const { uploadId } = await receiveApiUpload(site!.id, 'bench.csv', createReadStream(path, { highWaterMark: 1024 * 1024 }), {});
+  const uploadedS = (performance.now() - t0) / 1000;
+  let status = '';
+  let peak = 0;
+  for (;;) {
+    const [u] = await db().select({ status: uploads.status, reason: uploads.failureReason }).from(uploads).where(eq(uploads.id, uploadId));
+    status = u!.status;
+    peak = Math.max(peak, peakRssMb(worker.pid!));
+    if (status === 'done' || status === 'failed' || status === 'needs-review') {
+      if (status !== 'done') throw new Error(`bench upload ended ${status}: ${u!.reason}`);
+      break;
+    }
+    await new Promise((r) => setTimeout(r, 100));
+  }
+  const seconds = (performance.now() - t0) / 1000;
+  const [u] = await db().select().from(uploads).where(eq(uploads.id, uploadId));
+  const queuedS = (u!.startedAt!.getTime() - u!.createdAt.getTime()) / 1000 - uploadedS;
+  console.log(`  upload into the store ${uploadedS.toFixed(2)} s, waiting for the worker ${queuedS.toFixed(2)} s, reading and committing ${((u!.finishedAt!.getTime() - u!.startedAt!.getTime()) / 1000).toFixed(2)} s`);
+  peak = Math.max(peak, peakRssMb(worker.pid!));
+  worker.kill('SIGTERM');
+  return { seconds, peakMb: peak };
+}
+
+const dir = mkdtempSync(join(tmpdir(), 'lossline-bench-'));
+const file = join(dir, 'export.csv');
+try {
+  generate(file);
+  const mb = statSync(file).size / 1e6;
+  await inProcess(file); // warm-up
+  const ours = await inProcess(file);
+  const pd = pandas(file);
+  console.log(`file_megabytes ${mb.toFixed(1)}`);
+  console.log(`values ${ours.values}`);
+  console.log(`tag_hours ${ours.hours} (pandas ${pd.hours}, pandas ${pd.version})`);
+  console.log(`in_process_s ${ours.seconds.toFixed(2)}`);
+  console.log(`pandas_s ${pd.seconds.toFixed(2)}`);
+  console.log(`ingest_values_per_s ${Math.round(ours.values / ours.seconds)}`);
+  console.log(`vs_pandas ${(pd.seconds / ours.seconds).toFixed(2)}`);
+  if (process.env.DATABASE_URL) {
+    const e2e = await endToEnd(file);
+    console.log(`end_to_end_s ${e2e.seconds.toFixed(2)}`);
+    console.log(`end_to_end_vs_in_process ${(e2e.seconds / ours.seconds).toFixed(2)}`);
+    console.log(`worker_peak_rss_mb ${e2e.peakMb.toFixed(0)}`);
+  } else {
+    console.log('end_to_end_s skipped: no DATABASE_URL (run npm run bench:ingest, which starts the services)');
+  }
+} finally {
+  rmSync(dir, { recursive: true, force: true });
+  await stopQueue().catch(() => undefined);
+  await closeDb();
+}

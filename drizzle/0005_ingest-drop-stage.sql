@@ -1,0 +1,1 @@
+DROP TABLE "tag_hours_stage" CASCADE;

@@ -1,0 +1,1 @@
+DROP INDEX "tag_hours_hour_idx";
