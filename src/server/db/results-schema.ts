@@ -1,2 +1,51 @@
-// Tables of the hourly exergy engine and insight (unit hours, baselines, drift notices).
-export {};
+import { sql } from 'drizzle-orm';
+import { doublePrecision, index, jsonb, pgTable, primaryKey, text, timestamp, uuid } from 'drizzle-orm/pg-core';
+import { plantUnits } from './plant-schema';
+
+/** Hour states, in Lossline's words (docs/design.md). Only steady hours feed trends, baselines, drift. */
+export const HOUR_STATES = ['steady', 'unsettled', 'idle', 'suspect'] as const;
+export type HourState = (typeof HOUR_STATES)[number];
+
+/**
+ * One unit's steady-state exergy balance for one local clock hour (hourStart = the UTC instant it
+ * starts). Stored with the model version and a hash of every input, so the same inputs always give
+ * the same row and a recompute rewrites only rows whose inputs changed. Powers in W, efficiency [-],
+ * expanded uncertainties U (k = 2) in the same units, cost per hour in the site's currency.
+ */
+export const unitHours = pgTable(
+  'unit_hours',
+  {
+    unitId: uuid('unit_id')
+      .notNull()
+      .references(() => plantUnits.id, { onDelete: 'cascade' }),
+    hourStart: timestamp('hour_start', { withTimezone: true }).notNull(),
+    state: text('state').$type<HourState>().notNull(),
+    /** Why the hour has its state: [{ code, message, tag? }], most severe first. */
+    reasons: jsonb('reasons').$type<{ code: string; message: string; tag?: string }[]>().notNull().default(sql`'[]'::jsonb`),
+    /** The unit's load measure for the hour (its kind decides: power, steam flow ...) [W or kg/s]. */
+    load: doublePrecision('load'),
+    loadUnit: text('load_unit'),
+    /** Dead state of the hour. */
+    T0_K: doublePrecision('t0_k'),
+    p0_Pa: doublePrecision('p0_pa'),
+    fuel_W: doublePrecision('fuel_w'),
+    product_W: doublePrecision('product_w'),
+    loss_W: doublePrecision('loss_w'),
+    destruction_W: doublePrecision('destruction_w'),
+    efficiency: doublePrecision('efficiency'),
+    /** Expanded (k = 2) uncertainties. */
+    efficiency_U: doublePrecision('efficiency_u'),
+    destruction_U_W: doublePrecision('destruction_u_w'),
+    /** First-law closure residual [% of energy throughput]. */
+    closure_pct: doublePrecision('closure_pct'),
+    entropyGeneration_W_per_K: doublePrecision('entropy_generation_w_per_k'),
+    /** Cost of the hour's destruction [currency per hour]. */
+    destructionCost_per_h: doublePrecision('destruction_cost_per_h'),
+    /** Everything needed to open the hour up: port states, terms, sensitivities, inputs used. */
+    detail: jsonb('detail').$type<Record<string, unknown>>(),
+    modelVersion: text('model_version').notNull(),
+    inputsHash: text('inputs_hash').notNull(),
+    computedAt: timestamp('computed_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [primaryKey({ columns: [t.unitId, t.hourStart] }), index('unit_hours_state_idx').on(t.unitId, t.state, t.hourStart)],
+);

@@ -7,6 +7,7 @@ export * from './auth-schema';
 export * from './plant-schema';
 export * from './ingest-schema';
 export * from './results-schema';
+export * from './insight-schema';
 
 /** Invitations sent by admins; the link itself is a better-auth password-reset token. */
 export const invitations = pgTable(
