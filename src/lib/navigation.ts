@@ -16,7 +16,9 @@ export const NAV: readonly NavItem[] = [
   { href: '/uploads', label: 'Uploads', roles: ['admin', 'energy-lead', 'operator'] },
   // --- plant model ---
   { href: '/plant', label: 'Plant model', roles: ['admin', 'energy-lead', 'operator', 'planner'] },
-  // --- engine and insight ---
+  // --- engine ---
+  // --- baselines and drift ---
+  // --- trends, ledger, reports ---
   { href: '/admin/users', label: 'People', roles: ['admin'] },
   { href: '/admin/tokens', label: 'API tokens', roles: ['admin'] },
 ];

@@ -49,7 +49,9 @@ export const API_POLICY: Record<string, RoutePolicy> = {
   '/api/sites/[siteId]/links/[linkId]': { methods: { DELETE: ADMIN } },
   '/api/sites/[siteId]/tags': { methods: { GET: ANY_ROLE } },
   '/api/v1/sites/[siteId]/model': { methods: { GET: ANY_ROLE, PUT: ADMIN }, apiToken: true },
-  // --- engine and insight ---
+  // --- engine ---
+  // --- baselines and drift ---
+  // --- trends, ledger, reports ---
 };
 
 /** Pages: the same rule, for GET. Pages not listed need a signed-in person of any role. */
@@ -64,7 +66,9 @@ export const PAGE_POLICY: Record<string, Admit> = {
   // --- plant model ---
   '/plant': ANY_ROLE,
   '/plant/[...rest]': ANY_ROLE,
-  // --- engine and insight ---
+  // --- engine ---
+  // --- baselines and drift ---
+  // --- trends, ledger, reports ---
 };
 
 export { ADMIN, LEADS, UPLOADERS };
