@@ -20,6 +20,13 @@ export const ComputeUnitHoursPayload = z.object({
   toMs: z.number().int(),
   unitIds: z.array(z.string().uuid()).optional(),
 });
+/** Sent by the engine after it stored unit hours: the drift check looks at these hours. */
+export const CheckDriftPayload = z.object({
+  siteId: z.string().uuid(),
+  fromMs: z.number().int(),
+  toMs: z.number().int(),
+  unitIds: z.array(z.string().uuid()).optional(),
+});
 export const SendMailPayload = z.object({
   to: z.string().email(),
   subject: z.string().min(1),

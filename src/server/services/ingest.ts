@@ -14,6 +14,8 @@ import {
 } from '../../lib/ingest';
 import { db, pgPool } from '../db/client';
 import { layoutProfiles, sites, tags, uploads } from '../db/schema';
+import { QUEUES } from '../../jobs';
+import { queue } from '../queue';
 import { bucket, objectStream, s3 } from '../storage';
 
 /** Bytes read from the start of a file to decide its layout. */
@@ -124,6 +126,7 @@ async function ingestLocked(uploadId: string, client: pg.PoolClient): Promise<In
     }
     const result = await readIntoTransaction(up, profile, timeZone, client);
     const summary = await finish(up, profile, result, profileId ?? null, client);
+    await queueRecompute(up.siteId, result.report.firstTimeMs, result.report.lastTimeMs);
     if (process.env.LOSSLINE_INGEST_TIMING) console.log(`[ingest] ${uploadId}: read and committed in ${((performance.now() - startedMs) / 1000).toFixed(2)} s`);
     return { kind: 'done', summary };
   } catch (err) {
@@ -412,6 +415,15 @@ async function insertRejects(client: pg.PoolClient, uploadId: string, startSeq: 
       rows.map((r) => (r.reason === 'text' ? 'not a number' : 'bad quality')),
     ],
   );
+}
+
+/** The hours a file brought get their unit balances (re)computed by the engine's job. */
+async function queueRecompute(siteId: string, firstMs: number | null, lastMs: number | null) {
+  if (firstMs === null || lastMs === null) return;
+  const HOUR = 3_600_000;
+  const payload = { siteId, fromMs: Math.floor(firstMs / HOUR) * HOUR - HOUR, toMs: Math.ceil(lastMs / HOUR) * HOUR + HOUR };
+  const boss = await queue();
+  await boss.send(QUEUES.computeUnitHours, payload, { retryLimit: 2, retryDelay: 10 });
 }
 
 /** Closes the upload's transaction with its summary: the file's tag hours become visible at once. */
