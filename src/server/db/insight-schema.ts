@@ -1,2 +1,195 @@
 // Tables of baselines, drift notices and reports (issue: insight). Owned by the insight work.
-export {};
+import { sql } from 'drizzle-orm';
+import { boolean, date, doublePrecision, index, integer, jsonb, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
+import type { BaselineModel, BaselineTerm } from '../../lib/analytics/baseline';
+import { user } from './auth-schema';
+import { plantUnits, sites } from './plant-schema';
+
+export const BASELINE_STATUSES = ['draft', 'active', 'discarded', 'retired'] as const;
+export type BaselineStatus = (typeof BASELINE_STATUSES)[number];
+
+/**
+ * A unit's baseline, versioned per unit: efficiency and exergy destruction regressed on load and
+ * ambient temperature (T0 of the hour) over a reference period of steady hours. A fit is saved as a
+ * draft; accepting it makes it active and retires the previous active one (at most one active per
+ * unit, enforced by a partial unique index). Models are the analytics library's JSON-friendly
+ * BaselineModel (coefficients, scaled basis, (Z^T Z)^-1 and fit statistics); efficiency is null for
+ * dissipative units (valves, coolers) that have no product.
+ */
+export const baselines = pgTable(
+  'baselines',
+  {
+    id: uuid('id').primaryKey().default(sql`gen_random_uuid()`),
+    unitId: uuid('unit_id')
+      .notNull()
+      .references(() => plantUnits.id, { onDelete: 'cascade' }),
+    version: integer('version').notNull(),
+    status: text('status').$type<BaselineStatus>().notNull().default('draft'),
+    /** Reference period [periodFrom, periodTo), hour starts. */
+    periodFrom: timestamp('period_from', { withTimezone: true }).notNull(),
+    periodTo: timestamp('period_to', { withTimezone: true }).notNull(),
+    terms: jsonb('terms').$type<BaselineTerm[]>().notNull(),
+    /** Steady hours fitted. */
+    hours: integer('hours').notNull(),
+    efficiencyModel: jsonb('efficiency_model').$type<BaselineModel>(),
+    destructionModel: jsonb('destruction_model').$type<BaselineModel>().notNull(),
+    loadUnit: text('load_unit'),
+    note: text('note'),
+    createdBy: text('created_by').references(() => user.id, { onDelete: 'set null' }),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+    decidedBy: text('decided_by').references(() => user.id, { onDelete: 'set null' }),
+    decidedAt: timestamp('decided_at', { withTimezone: true }),
+    retiredAt: timestamp('retired_at', { withTimezone: true }),
+  },
+  (t) => [
+    uniqueIndex('baselines_unit_version').on(t.unitId, t.version),
+    uniqueIndex('baselines_one_active').on(t.unitId).where(sql`status = 'active'`),
+  ],
+);
+
+/** Per-unit CUSUM settings (docs/domain.md section 7: k = 0.5, h = 5 by default); energy leads edit. */
+export const driftSettings = pgTable('drift_settings', {
+  unitId: uuid('unit_id')
+    .primaryKey()
+    .references(() => plantUnits.id, { onDelete: 'cascade' }),
+  k: doublePrecision('k').notNull().default(0.5),
+  h: doublePrecision('h').notNull().default(5),
+  updatedBy: text('updated_by').references(() => user.id, { onDelete: 'set null' }),
+  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+});
+
+/**
+ * The drift check's saved state, one row per steady hour after the active baseline's period: the
+ * residual of destruction against the baseline and the tabular CUSUM after that hour. Keyed by unit
+ * and hour, so a re-run over the same hours rewrites rather than adds; the last row is the state the
+ * next hour continues from.
+ */
+export const driftPoints = pgTable(
+  'drift_points',
+  {
+    unitId: uuid('unit_id')
+      .notNull()
+      .references(() => plantUnits.id, { onDelete: 'cascade' }),
+    hourStart: timestamp('hour_start', { withTimezone: true }).notNull(),
+    baselineId: uuid('baseline_id')
+      .notNull()
+      .references(() => baselines.id, { onDelete: 'cascade' }),
+    /** CUSUM step (1 = first steady hour after the reference period). */
+    step: integer('step').notNull(),
+    destruction_W: doublePrecision('destruction_w').notNull(),
+    expected_W: doublePrecision('expected_w').notNull(),
+    residual_W: doublePrecision('residual_w').notNull(),
+    /** Residual normalised by the baseline's residual spread s [-]. */
+    x: doublePrecision('x').notNull(),
+    cPlus: doublePrecision('c_plus').notNull(),
+    cMinus: doublePrecision('c_minus').notNull(),
+    nPlus: integer('n_plus').notNull(),
+    nMinus: integer('n_minus').notNull(),
+    destructionU_W: doublePrecision('destruction_u_w'),
+    /** Cost of the hour's destruction [currency per hour], for the unit's cost rate. */
+    destructionCost_per_h: doublePrecision('destruction_cost_per_h'),
+  },
+  (t) => [primaryKey({ columns: [t.unitId, t.hourStart] }), index('drift_points_step').on(t.unitId, t.step)],
+);
+
+export const NOTICE_STATUSES = ['open', 'acknowledged', 'closed'] as const;
+export type NoticeStatus = (typeof NOTICE_STATUSES)[number];
+
+/**
+ * A drift notice: a sustained shift of a unit's destruction from its expected value (a CUSUM
+ * signal). Figures at opening: extra destruction (mean residual from onset to signal), its cost per
+ * day, and the comparison with the measurement uncertainty. One notice per unit and direction is
+ * open (or acknowledged) at a time, enforced by a partial unique index.
+ */
+export const driftNotices = pgTable(
+  'drift_notices',
+  {
+    id: uuid('id').primaryKey().default(sql`gen_random_uuid()`),
+    siteId: uuid('site_id')
+      .notNull()
+      .references(() => sites.id, { onDelete: 'cascade' }),
+    unitId: uuid('unit_id')
+      .notNull()
+      .references(() => plantUnits.id, { onDelete: 'cascade' }),
+    baselineId: uuid('baseline_id').references(() => baselines.id, { onDelete: 'set null' }),
+    direction: text('direction').$type<'up' | 'down'>().notNull(),
+    status: text('status').$type<NoticeStatus>().notNull().default('open'),
+    onsetHour: timestamp('onset_hour', { withTimezone: true }).notNull(),
+    signalHour: timestamp('signal_hour', { withTimezone: true }).notNull(),
+    /** Latest hour at which the CUSUM signalled again while the notice was not closed. */
+    lastSignalHour: timestamp('last_signal_hour', { withTimezone: true }).notNull(),
+    /** Steady hours from onset to signal. */
+    hours: integer('hours').notNull(),
+    /** Mean measured minus expected destruction from onset to signal [W] (negative: less than expected). */
+    extra_W: doublePrecision('extra_w').notNull(),
+    expected_W: doublePrecision('expected_w').notNull(),
+    /** Shift in units of the baseline's residual spread [-]. */
+    shift_sigma: doublePrecision('shift_sigma').notNull(),
+    /** Cost per day of extra_W [currency/day]; null when no cost rate is known. */
+    extraCost_per_day: doublePrecision('extra_cost_per_day'),
+    currency: text('currency').notNull(),
+    cF_per_J: doublePrecision('cf_per_j'),
+    costBasis: text('cost_basis'),
+    /** Mean expanded (k = 2) uncertainty of one hour's destruction [W]. */
+    hourU_W: doublePrecision('hour_u_w'),
+    /** Uncertainty of the mean shift, hourU_W / sqrt(hours) [W]. */
+    shiftU_W: doublePrecision('shift_u_w'),
+    /** |extra_W| > shiftU_W; null when the hours carry no uncertainty. */
+    exceedsUncertainty: boolean('exceeds_uncertainty'),
+    k: doublePrecision('k').notNull(),
+    h: doublePrecision('h').notNull(),
+    openedAt: timestamp('opened_at', { withTimezone: true }).notNull().defaultNow(),
+    acknowledgedBy: text('acknowledged_by').references(() => user.id, { onDelete: 'set null' }),
+    acknowledgedAt: timestamp('acknowledged_at', { withTimezone: true }),
+    acknowledgeComment: text('acknowledge_comment'),
+    closedBy: text('closed_by').references(() => user.id, { onDelete: 'set null' }),
+    closedAt: timestamp('closed_at', { withTimezone: true }),
+    closeComment: text('close_comment'),
+  },
+  (t) => [
+    uniqueIndex('drift_notices_one_open').on(t.unitId, t.direction).where(sql`status <> 'closed'`),
+    index('drift_notices_status').on(t.status, t.openedAt),
+  ],
+);
+
+/**
+ * One row per notice and person mailed: the marker that makes "one mail when a notice opens" hold
+ * under retries and concurrent checks (insert ... on conflict do nothing, and the mail job is queued
+ * in the same transaction only for rows actually inserted).
+ */
+export const noticeMails = pgTable(
+  'notice_mails',
+  {
+    noticeId: uuid('notice_id')
+      .notNull()
+      .references(() => driftNotices.id, { onDelete: 'cascade' }),
+    userId: text('user_id')
+      .notNull()
+      .references(() => user.id, { onDelete: 'cascade' }),
+    queuedAt: timestamp('queued_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [primaryKey({ columns: [t.noticeId, t.userId] })],
+);
+
+/** Per-person notice settings: the optional daily digest of open notices. */
+export const noticePreferences = pgTable('notice_preferences', {
+  userId: text('user_id')
+    .primaryKey()
+    .references(() => user.id, { onDelete: 'cascade' }),
+  dailyDigest: boolean('daily_digest').notNull().default(false),
+  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+});
+
+/** One digest per person and day (UTC), whatever the number of scheduled runs. */
+export const noticeDigests = pgTable(
+  'notice_digests',
+  {
+    userId: text('user_id')
+      .notNull()
+      .references(() => user.id, { onDelete: 'cascade' }),
+    day: date('day').notNull(),
+    notices: integer('notices').notNull(),
+    queuedAt: timestamp('queued_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [primaryKey({ columns: [t.userId, t.day] })],
+);
