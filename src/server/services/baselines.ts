@@ -1,0 +1,479 @@
+/**
+ * Baselines per unit: efficiency and exergy destruction regressed on load and ambient temperature
+ * (the hour's T0) over a reference period of steady hours (ISO 50006; fit quality per ASHRAE
+ * Guideline 14-2014, hourly criteria), versioned per unit with the states draft, active, discarded
+ * and retired. The numbers come from src/lib/analytics/baseline.ts; this file only reads hours,
+ * stores versions and answers what is expected.
+ *
+ * Stable names other screens call: activeBaseline(unitId) and expectedFor(unitId, rows).
+ */
+import { TZDate } from '@date-fns/tz';
+import { format } from 'date-fns';
+import { and, asc, desc, eq, gte, isNotNull, lt, sql } from 'drizzle-orm';
+import { alias } from 'drizzle-orm/pg-core';
+import { z } from 'zod';
+import {
+  BaselineError,
+  QUADRATIC_TERMS,
+  fitBaseline,
+  meetsGuideline14,
+  predict,
+  predictionInterval,
+  type BaselineModel,
+  type BaselineTerm,
+  type Guideline14Check,
+} from '../../lib/analytics/baseline';
+import { db } from '../db/client';
+import { baselines, plantUnits, sites, unitHours, user, type BaselineStatus } from '../db/schema';
+import type { ErrorCode } from '../errors';
+
+/** A rule of baselines, drift or notices was broken; code is one of src/server/errors.ts. */
+export class InsightError extends Error {
+  constructor(
+    readonly code: ErrorCode,
+    message: string,
+  ) {
+    super(message);
+  }
+}
+
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+/** Ids come from URLs: anything that is not a UUID is simply not found. */
+export function isUuid(id: string | undefined | null): id is string {
+  return typeof id === 'string' && UUID.test(id);
+}
+
+/** Coverage factor of the expected band (docs/domain.md section 7: k = 2). */
+export const EXPECTED_BAND_K = 2;
+
+export const BaselineTermSchema = z.enum(QUADRATIC_TERMS as unknown as [BaselineTerm, ...BaselineTerm[]]);
+
+/** What an energy lead sends to fit a baseline. */
+export const FitInput = z.strictObject({
+  /** First hour of the reference period (ISO instant). */
+  periodFrom: z.coerce.date(),
+  /** End of the reference period, exclusive (ISO instant). */
+  periodTo: z.coerce.date(),
+  terms: z.array(BaselineTermSchema).min(1, 'Choose at least one term (load, T_amb ...).'),
+  note: z.string().trim().max(500).optional(),
+});
+export type FitInput = z.infer<typeof FitInput>;
+
+export interface ModelSummary {
+  coefficients: BaselineModel['coefficients'];
+  stats: { n: number; p: number; s: number; r2: number; ybar: number; cvRmse: number; nmbe: number };
+  guideline14: Guideline14Check;
+}
+
+/** A baseline version as screens and other services see it. */
+export interface BaselineSummary {
+  id: string;
+  unitId: string;
+  unitName: string;
+  unitKind: string;
+  siteId: string;
+  siteName: string;
+  timeZone: string;
+  version: number;
+  status: BaselineStatus;
+  periodFrom: string;
+  periodTo: string;
+  terms: BaselineTerm[];
+  hours: number;
+  loadUnit: string | null;
+  note: string | null;
+  efficiency: ModelSummary | null;
+  destruction: ModelSummary;
+  /** Both models meet the hourly Guideline 14 criteria (efficiency only when the unit has one). */
+  meetsGuideline14: boolean;
+  createdBy: string | null;
+  createdAt: string;
+  decidedBy: string | null;
+  decidedAt: string | null;
+  retiredAt: string | null;
+  /** How charts name it: 'Baseline v3 (2026-01-05 to 2026-02-01)', dates in the site's time zone. */
+  label: string;
+}
+
+function summariseModel(m: BaselineModel): ModelSummary {
+  const { n, p, s, r2, ybar, cvRmse, nmbe } = m.stats;
+  return { coefficients: m.coefficients, stats: { n, p, s, r2, ybar, cvRmse, nmbe }, guideline14: meetsGuideline14(m.stats, 'hourly') };
+}
+
+const day = (d: Date, tz: string) => format(new TZDate(d.getTime(), tz), 'yyyy-MM-dd');
+
+/** The label of a baseline on charts; the period end is shown as its last day (the end is exclusive). */
+export function baselineLabel(version: number, periodFrom: Date, periodTo: Date, timeZone: string): string {
+  return `Baseline v${version} (${day(periodFrom, timeZone)} to ${day(new Date(periodTo.getTime() - 1), timeZone)})`;
+}
+
+const creator = alias(user, 'creator');
+const decider = alias(user, 'decider');
+
+function summaryQuery() {
+  return db()
+    .select({
+      b: baselines,
+      unitName: plantUnits.name,
+      unitKind: plantUnits.kind,
+      siteId: sites.id,
+      siteName: sites.name,
+      timeZone: sites.timeZone,
+      createdByName: creator.name,
+      decidedByName: decider.name,
+    })
+    .from(baselines)
+    .innerJoin(plantUnits, eq(plantUnits.id, baselines.unitId))
+    .innerJoin(sites, eq(sites.id, plantUnits.siteId))
+    .leftJoin(creator, eq(creator.id, baselines.createdBy))
+    .leftJoin(decider, eq(decider.id, baselines.decidedBy));
+}
+
+type SummaryRow = Awaited<ReturnType<ReturnType<typeof summaryQuery>['execute']>>[number];
+
+function toSummary(r: SummaryRow): BaselineSummary {
+  const b = r.b;
+  const efficiency = b.efficiencyModel ? summariseModel(b.efficiencyModel) : null;
+  const destruction = summariseModel(b.destructionModel);
+  return {
+    id: b.id,
+    unitId: b.unitId,
+    unitName: r.unitName,
+    unitKind: r.unitKind,
+    siteId: r.siteId,
+    siteName: r.siteName,
+    timeZone: r.timeZone,
+    version: b.version,
+    status: b.status,
+    periodFrom: b.periodFrom.toISOString(),
+    periodTo: b.periodTo.toISOString(),
+    terms: b.terms,
+    hours: b.hours,
+    loadUnit: b.loadUnit,
+    note: b.note,
+    efficiency,
+    destruction,
+    meetsGuideline14: destruction.guideline14.meets && (efficiency ? efficiency.guideline14.meets : true),
+    createdBy: r.createdByName,
+    createdAt: b.createdAt.toISOString(),
+    decidedBy: r.decidedByName,
+    decidedAt: b.decidedAt?.toISOString() ?? null,
+    retiredAt: b.retiredAt?.toISOString() ?? null,
+    label: baselineLabel(b.version, b.periodFrom, b.periodTo, r.timeZone),
+  };
+}
+
+async function unitRow(unitId: string) {
+  if (!isUuid(unitId)) throw new InsightError('NOT_FOUND', 'No such unit.');
+  const [u] = await db()
+    .select({ id: plantUnits.id, name: plantUnits.name, kind: plantUnits.kind, siteId: sites.id, siteName: sites.name, timeZone: sites.timeZone })
+    .from(plantUnits)
+    .innerJoin(sites, eq(sites.id, plantUnits.siteId))
+    .where(eq(plantUnits.id, unitId));
+  if (!u) throw new InsightError('NOT_FOUND', 'No such unit.');
+  return u;
+}
+
+/** One version by id. */
+export async function getBaseline(baselineId: string): Promise<BaselineSummary> {
+  if (!isUuid(baselineId)) throw new InsightError('NOT_FOUND', 'No such baseline.');
+  const [r] = await summaryQuery().where(eq(baselines.id, baselineId));
+  if (!r) throw new InsightError('NOT_FOUND', 'No such baseline.');
+  return toSummary(r);
+}
+
+/** Every version of a unit, newest first. */
+export async function unitBaselines(unitId: string): Promise<BaselineSummary[]> {
+  await unitRow(unitId);
+  const rows = await summaryQuery().where(eq(baselines.unitId, unitId)).orderBy(desc(baselines.version));
+  return rows.map(toSummary);
+}
+
+/**
+ * The unit's active baseline (the one named on every chart), or null when none is accepted yet.
+ * @param unitId plant unit id
+ */
+export async function activeBaseline(unitId: string): Promise<BaselineSummary | null> {
+  if (!isUuid(unitId)) return null;
+  const [r] = await summaryQuery().where(and(eq(baselines.unitId, unitId), eq(baselines.status, 'active')));
+  return r ? toSummary(r) : null;
+}
+
+/** Expected value with its band, yhat +- 2 s sqrt(1 + x0' (X'X)^-1 x0) (analytics predictionInterval, k = 2). */
+export interface ExpectedBand {
+  expected: number;
+  lower: number;
+  upper: number;
+}
+
+export interface ExpectedRow {
+  hourStart: string;
+  /** Expected exergy efficiency [-]; null for units without one or hours without load or T0. */
+  efficiency: ExpectedBand | null;
+  /** Expected exergy destruction [W]; null for hours without load or T0. */
+  destruction_W: ExpectedBand | null;
+}
+
+function band(model: BaselineModel, load: number, T0_K: number): ExpectedBand {
+  const pi = predictionInterval(model, load, T0_K, { k: EXPECTED_BAND_K });
+  return { expected: pi.yhat, lower: pi.lower, upper: pi.upper };
+}
+
+/**
+ * What the unit's baseline expects for given hours (docs/design.md: "expected").
+ *
+ * @param unitId plant unit id
+ * @param rows hours with their load [the unit's load unit] and T0_K [K]
+ * @param options baselineId: use that version instead of the active one
+ * @returns the baseline used (null when the unit has none: every row is then null) and one row per input
+ */
+export async function expectedFor(
+  unitId: string,
+  rows: readonly { hourStart: Date | string; load: number | null; T0_K: number | null }[],
+  options: { baselineId?: string } = {},
+): Promise<{ baseline: BaselineSummary | null; rows: ExpectedRow[] }> {
+  let summary: BaselineSummary | null;
+  let models: { efficiency: BaselineModel | null; destruction: BaselineModel } | null = null;
+  if (options.baselineId) {
+    summary = await getBaseline(options.baselineId);
+    if (summary.unitId !== unitId) throw new InsightError('NOT_FOUND', 'That baseline belongs to another unit.');
+  } else {
+    summary = await activeBaseline(unitId);
+  }
+  if (summary) {
+    const [m] = await db()
+      .select({ efficiency: baselines.efficiencyModel, destruction: baselines.destructionModel })
+      .from(baselines)
+      .where(eq(baselines.id, summary.id));
+    models = m ?? null;
+  }
+  const out = rows.map((r) => {
+    const hourStart = new Date(r.hourStart).toISOString();
+    const ok = models && r.load !== null && r.T0_K !== null && Number.isFinite(r.load) && Number.isFinite(r.T0_K);
+    return {
+      hourStart,
+      efficiency: ok && models!.efficiency ? band(models!.efficiency, r.load!, r.T0_K!) : null,
+      destruction_W: ok ? band(models!.destruction, r.load!, r.T0_K!) : null,
+    };
+  });
+  return { baseline: summary, rows: out };
+}
+
+/** Steady hours of a unit with what a baseline needs, oldest first. */
+async function steadyHours(unitId: string, from: Date, to: Date) {
+  return db()
+    .select({
+      hourStart: unitHours.hourStart,
+      load: unitHours.load,
+      loadUnit: unitHours.loadUnit,
+      T0_K: unitHours.T0_K,
+      efficiency: unitHours.efficiency,
+      destruction_W: unitHours.destruction_W,
+    })
+    .from(unitHours)
+    .where(
+      and(
+        eq(unitHours.unitId, unitId),
+        eq(unitHours.state, 'steady'),
+        gte(unitHours.hourStart, from),
+        lt(unitHours.hourStart, to),
+        isNotNull(unitHours.load),
+        isNotNull(unitHours.T0_K),
+        isNotNull(unitHours.destruction_W),
+      ),
+    )
+    .orderBy(asc(unitHours.hourStart));
+}
+
+/** The span of a unit's hours, for proposing a reference period. */
+export async function unitHourSpan(unitId: string) {
+  await unitRow(unitId);
+  const [r] = await db()
+    .select({
+      first: sql<string | null>`min(${unitHours.hourStart})`,
+      last: sql<string | null>`max(${unitHours.hourStart})`,
+      hours: sql<number>`count(*)::int`,
+      steady: sql<number>`(count(*) filter (where ${unitHours.state} = 'steady'))::int`,
+    })
+    .from(unitHours)
+    .where(eq(unitHours.unitId, unitId));
+  return {
+    first: r?.first ? new Date(r.first).toISOString() : null,
+    last: r?.last ? new Date(r.last).toISOString() : null,
+    hours: r?.hours ?? 0,
+    steady: r?.steady ?? 0,
+  };
+}
+
+/** Fewest steady hours a baseline is fitted on (common practice: at least a full day of steady hours). */
+export const MIN_HOURS = 24;
+
+/**
+ * Fits efficiency and destruction on the unit's steady hours of the period and saves the result as a
+ * draft (the next version number of the unit).
+ * @throws InsightError UNPROCESSABLE when the hours do not support the chosen terms
+ */
+export async function fitDraft(unitId: string, input: FitInput, userId: string | null): Promise<BaselineSummary> {
+  const unit = await unitRow(unitId);
+  if (!(input.periodTo.getTime() > input.periodFrom.getTime())) throw new InsightError('VALIDATION_FAILED', 'The reference period must end after it starts.');
+  const hours = await steadyHours(unitId, input.periodFrom, input.periodTo);
+  if (hours.length < MIN_HOURS) {
+    throw new InsightError(
+      'UNPROCESSABLE',
+      `The period has ${hours.length} steady hours with load and T0 for ${unit.name}; a baseline needs at least ${MIN_HOURS}. Choose a longer period.`,
+    );
+  }
+  const terms = [...new Set(input.terms)];
+  let destructionModel: BaselineModel;
+  let efficiencyModel: BaselineModel | null = null;
+  try {
+    destructionModel = fitBaseline(
+      { load: hours.map((h) => h.load!), T_amb_K: hours.map((h) => h.T0_K!), y: hours.map((h) => h.destruction_W!) },
+      { terms },
+    );
+    const withEff = hours.filter((h) => h.efficiency !== null && Number.isFinite(h.efficiency));
+    // Efficiency only where the unit has one in (nearly) every steady hour: dissipative units have none.
+    if (withEff.length >= Math.max(MIN_HOURS, 0.9 * hours.length)) {
+      efficiencyModel = fitBaseline(
+        { load: withEff.map((h) => h.load!), T_amb_K: withEff.map((h) => h.T0_K!), y: withEff.map((h) => h.efficiency!) },
+        { terms },
+      );
+    }
+  } catch (err) {
+    if (err instanceof BaselineError) throw new InsightError('UNPROCESSABLE', `The fit failed: ${err.message}.`);
+    throw err;
+  }
+  const loadUnit = hours.find((h) => h.loadUnit)?.loadUnit ?? null;
+  const id = await db().transaction(async (tx) => {
+    await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${'baselines:' + unitId}))`);
+    const [{ next } = { next: 1 }] = await tx
+      .select({ next: sql<number>`coalesce(max(${baselines.version}), 0)::int + 1` })
+      .from(baselines)
+      .where(eq(baselines.unitId, unitId));
+    const [row] = await tx
+      .insert(baselines)
+      .values({
+        unitId,
+        version: next,
+        status: 'draft',
+        periodFrom: input.periodFrom,
+        periodTo: input.periodTo,
+        terms,
+        hours: hours.length,
+        efficiencyModel,
+        destructionModel,
+        loadUnit,
+        note: input.note ?? null,
+        createdBy: userId,
+      })
+      .returning({ id: baselines.id });
+    return row!.id;
+  });
+  return getBaseline(id);
+}
+
+/**
+ * Accepts a draft: it becomes the unit's active baseline and the previous active one is retired,
+ * in one transaction (the partial unique index keeps one active per unit even under a race).
+ */
+export async function acceptBaseline(baselineId: string, userId: string | null): Promise<BaselineSummary> {
+  const b = await getBaseline(baselineId);
+  await db().transaction(async (tx) => {
+    await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${'baselines:' + b.unitId}))`);
+    const [now] = await tx.select({ status: baselines.status }).from(baselines).where(eq(baselines.id, baselineId));
+    if (now?.status !== 'draft') throw new InsightError('CONFLICT', `Version ${b.version} is ${now?.status}; only a draft can be accepted.`);
+    await tx
+      .update(baselines)
+      .set({ status: 'retired', retiredAt: new Date() })
+      .where(and(eq(baselines.unitId, b.unitId), eq(baselines.status, 'active')));
+    await tx.update(baselines).set({ status: 'active', decidedBy: userId, decidedAt: new Date() }).where(eq(baselines.id, baselineId));
+  });
+  return getBaseline(baselineId);
+}
+
+/** Discards a draft (kept, for the record, but never used). */
+export async function discardBaseline(baselineId: string, userId: string | null): Promise<BaselineSummary> {
+  const b = await getBaseline(baselineId);
+  const updated = await db()
+    .update(baselines)
+    .set({ status: 'discarded', decidedBy: userId, decidedAt: new Date() })
+    .where(and(eq(baselines.id, baselineId), eq(baselines.status, 'draft')))
+    .returning({ id: baselines.id });
+  if (!updated.length) throw new InsightError('CONFLICT', `Version ${b.version} is ${b.status}; only a draft can be discarded.`);
+  return getBaseline(baselineId);
+}
+
+export interface FitPoint {
+  hourStart: string;
+  load: number;
+  T0_K: number;
+  efficiency: number | null;
+  destruction_W: number;
+  expectedEfficiency: number | null;
+  expectedDestruction_W: number;
+}
+
+/**
+ * The reference hours of a version with the fitted values, and the fitted curve against load at the
+ * period's mean T0, for the builder's scatter.
+ */
+export async function baselineFitView(baselineId: string): Promise<{
+  points: FitPoint[];
+  curve: { load: number; efficiency: number | null; destruction_W: number }[];
+  meanT0_K: number;
+}> {
+  if (!isUuid(baselineId)) throw new InsightError('NOT_FOUND', 'No such baseline.');
+  const [b] = await db().select().from(baselines).where(eq(baselines.id, baselineId));
+  if (!b) throw new InsightError('NOT_FOUND', 'No such baseline.');
+  const hours = await steadyHours(b.unitId, b.periodFrom, b.periodTo);
+  const points = hours.map((h) => ({
+    hourStart: h.hourStart.toISOString(),
+    load: h.load!,
+    T0_K: h.T0_K!,
+    efficiency: h.efficiency,
+    destruction_W: h.destruction_W!,
+    expectedEfficiency: b.efficiencyModel ? predict(b.efficiencyModel, h.load!, h.T0_K!) : null,
+    expectedDestruction_W: predict(b.destructionModel, h.load!, h.T0_K!),
+  }));
+  const meanT0_K = b.destructionModel.centre.T_amb_K;
+  const loads = points.map((p) => p.load);
+  const lo = Math.min(...loads);
+  const hi = Math.max(...loads);
+  const curve = Array.from({ length: 25 }, (_, i) => {
+    const load = lo + ((hi - lo) * i) / 24;
+    return {
+      load,
+      efficiency: b.efficiencyModel ? predict(b.efficiencyModel, load, meanT0_K) : null,
+      destruction_W: predict(b.destructionModel, load, meanT0_K),
+    };
+  });
+  return { points, curve, meanT0_K };
+}
+
+/** Every unit of every site with its active baseline and the count of each status, for /baselines. */
+export async function baselineOverview() {
+  const units = await db()
+    .select({ id: plantUnits.id, name: plantUnits.name, kind: plantUnits.kind, siteId: sites.id, siteName: sites.name, timeZone: sites.timeZone })
+    .from(plantUnits)
+    .innerJoin(sites, eq(sites.id, plantUnits.siteId))
+    .orderBy(asc(sites.name), asc(plantUnits.name));
+  const all = (await summaryQuery().orderBy(desc(baselines.version))).map(toSummary);
+  return units.map((u) => {
+    const versions = all.filter((b) => b.unitId === u.id);
+    return {
+      ...u,
+      active: versions.find((b) => b.status === 'active') ?? null,
+      drafts: versions.filter((b) => b.status === 'draft').map((b) => ({ id: b.id, version: b.version })),
+      versions: versions.length,
+    };
+  });
+}
+
+/** The units for the builder's picker (id, name, site). */
+export async function unitChoices() {
+  return db()
+    .select({ id: plantUnits.id, name: plantUnits.name, kind: plantUnits.kind, siteId: sites.id, siteName: sites.name, timeZone: sites.timeZone })
+    .from(plantUnits)
+    .innerJoin(sites, eq(sites.id, plantUnits.siteId))
+    .orderBy(asc(sites.name), asc(plantUnits.name));
+}
