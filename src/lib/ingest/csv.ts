@@ -1,34 +1,44 @@
 /**
- * A streaming CSV tokenizer (RFC 4180 quoting) that hands each record to a callback as field
- * boundaries inside the current text buffer, so the hot path reads numbers straight from char codes
- * without allocating a string per cell.
+ * Streaming CSV records through papaparse's own streaming parser (`Papa.Parser`), the way its chunk
+ * streamers use it: each piece of text is parsed with `ignoreLastRow`, complete rows are handed on
+ * and the unparsed rest (from `meta.cursor`) is carried into the next piece. papaparse picks its fast
+ * path (plain splits) by itself for pieces without a quote character.
  *
- * Why not papaparse here: papaparse returns one string per cell; parsing those strings afterwards
- * measured about 7 million values per second on a 200-tag wide export, below the 10 million the
- * ingest core targets. papaparse is kept as the independent reference the tests compare this
- * tokenizer against.
- *
- * Rules: a field is quoted only when its first character is a double quote; inside, "" is one quote
- * and separators and line breaks are literal. Characters between a closing quote and the next
- * separator are kept (lenient) and the field is marked malformed. Records end at LF, CR LF or a lone
- * CR. Completely empty lines are skipped. A record longer than `maxRecordChars` is an error, as is a
- * quote still open at the end of the file.
+ * What this wrapper adds around papaparse:
+ * - Line breaks: LF, CR LF and a lone CR. The file's break is decided from its first 64 KiB (a lone
+ *   CR when lone CRs outnumber LFs, otherwise LF); with LF, one CR before the break is removed, so LF
+ *   and CR LF lines may mix.
+ * - Completely empty lines are skipped; every record carries the 1-based physical line it starts on
+ *   (line breaks inside quoted fields count).
+ * - Text after a closing quote (`"12"5`): papaparse would run the quoted field on to a later quote.
+ *   Here the field ends at the next separator or line break, as before: its text is kept with lone
+ *   quotes dropped (`"12"5` -> `125`), the field is re-quoted in the unparsed text, the record is
+ *   parsed again, and the field is counted in `malformedQuoteCount`.
+ * - Memory: text is parsed in pieces of at most 64 KiB, and the carried rest of an unfinished record
+ *   may not exceed `maxRecordChars` (RECORD_TOO_LONG). A quote still open at the end of the file is
+ *   UNTERMINATED_QUOTE.
+ * - Quoted fields may have spaces between the closing quote and the separator (papaparse's rule);
+ *   the spaces are dropped.
  */
+import Papa from 'papaparse';
 import { IngestError } from './errors';
 
-const QUOTE = 34;
 const LF = 10;
 const CR = 13;
+const QUOTE = 34;
 
-/** One record, valid only during the callback: its fields are slices of `text`. */
+/** Text parsed per papaparse call at most [characters]. */
+const WINDOW = 65536;
+/** Text per call right after a repaired field, doubling back up to WINDOW (bounds repair work). */
+const SMALL_WINDOW = 1024;
+/** Text looked at to decide the line break [characters]. */
+const NEWLINE_PROBE = 65536;
+
+/** One record, valid only during the callback. */
 export interface CsvRecord {
-  text: string;
-  /** Start of each field's content (after the opening quote for quoted fields). */
-  starts: Int32Array;
-  /** End (exclusive) of each field's content (before the closing quote for clean quoted fields). */
-  ends: Int32Array;
-  /** 0 plain, 1 quoted (content may hold "" escapes), 2 quoted with text after the closing quote. */
-  quoted: Uint8Array;
+  /** Field texts: quotes removed and "" unescaped. */
+  fields: string[];
+  /** fields.length. */
   count: number;
   /** 1-based physical line where the record starts. */
   line: number;
@@ -39,50 +49,61 @@ export interface CsvTokenizerOptions {
   maxRecordChars?: number;
 }
 
-/** The text of field `i` with quotes removed and "" unescaped. */
+/** The text of field `i` ('' past the end of the record). */
 export function fieldText(rec: CsvRecord, i: number): string {
-  if (i >= rec.count) return '';
-  const q = rec.quoted[i];
-  const s = rec.text.slice(rec.starts[i], rec.ends[i]);
-  if (q === 0) return s;
-  if (q === 1) return s.indexOf('"') < 0 ? s : s.replace(/""/g, '"');
-  // Malformed: "abc"def -> abc"def is ambiguous; keep escaped quotes, drop the lone closing quote.
-  let out = '';
-  for (let k = 0; k < s.length; k++) {
-    const ch = s[k];
-    if (ch === '"') {
-      if (s[k + 1] === '"') {
-        out += '"';
-        k++;
-      }
-      continue;
-    }
-    out += ch;
-  }
-  return out;
+  return i < rec.count ? rec.fields[i] : '';
+}
+
+interface PapaError {
+  code: string;
+  row: number;
+  index: number;
+}
+
+interface PapaResult {
+  data: string[][];
+  errors: PapaError[];
+  meta: { cursor: number };
+}
+
+/** Lone quotes dropped, "" read as one quote: the text of a field with text after its closing quote. */
+function unquoteMalformed(s: string): string {
+  return s.replace(/"("?)/g, '$1');
+}
+
+function countChar(s: string, ch: string, from: number, to: number): number {
+  let n = 0;
+  for (let i = s.indexOf(ch, from); i >= 0 && i < to; i = s.indexOf(ch, i + 1)) n++;
+  return n;
 }
 
 export class CsvTokenizer {
-  private readonly sep: number;
+  private readonly sep: string;
   private readonly onRecord: (rec: CsvRecord) => void;
   private readonly maxRecordChars: number;
+  private parser: Papa.Parser | null = null;
+  private newline: '\n' | '\r' = '\n';
+  /** Unparsed start of the next record (its first line is `line`). */
   private carry = '';
-  private skipLeadingLF = false;
+  /** Pushed text not parsed yet. */
+  private pending = '';
+  private window = WINDOW;
+  /** Set when feed() stopped early after re-quoting a field. */
+  private repaired = false;
   private line = 1;
-  private readonly rec: CsvRecord;
+  private readonly rec: CsvRecord = { fields: [], count: 0, line: 1 };
   /** Records handed out so far. */
   recordCount = 0;
   /** Fields that had text after their closing quote. */
   malformedQuoteCount = 0;
 
   constructor(separator: string, onRecord: (rec: CsvRecord) => void, options: CsvTokenizerOptions = {}) {
-    if (separator.length !== 1 || separator === '"' || separator === '\n' || separator === '\r') {
+    if (separator.length !== 1 || separator === '"' || separator === '\n' || separator === '\r' || separator === '\ufeff') {
       throw new IngestError('INVALID_OPTIONS', `The separator must be one character other than a quote or line break, got ${JSON.stringify(separator)}.`);
     }
-    this.sep = separator.charCodeAt(0);
+    this.sep = separator;
     this.onRecord = onRecord;
     this.maxRecordChars = options.maxRecordChars ?? 1_048_576;
-    this.rec = { text: '', starts: new Int32Array(64), ends: new Int32Array(64), quoted: new Uint8Array(64), count: 0, line: 1 };
   }
 
   /** Physical line number the next record will start on. */
@@ -91,26 +112,22 @@ export class CsvTokenizer {
   }
 
   push(chunk: string): void {
-    this.run(chunk, false);
+    if (chunk.length === 0) return;
+    this.pending = this.pending.length ? this.pending + chunk : chunk;
+    // parse once the new text is as long as the carried rest (so a long record is not parsed again
+    // for every small push), or when together they exceed the record limit
+    const waiting = this.pending.length;
+    if (waiting >= this.carry.length || waiting + this.carry.length > this.maxRecordChars) this.drain(false);
+  }
+
+  /** Hands on every complete record pushed so far (a push may otherwise wait for more text). */
+  flush(): void {
+    if (this.pending.length > 0) this.drain(false);
   }
 
   /** Processes what is left; the last record may lack a line break. */
   end(): void {
-    this.run('', true);
-  }
-
-  private grow(): void {
-    const r = this.rec;
-    const n = r.starts.length * 2;
-    const s = new Int32Array(n);
-    s.set(r.starts);
-    const e = new Int32Array(n);
-    e.set(r.ends);
-    const q = new Uint8Array(n);
-    q.set(r.quoted);
-    r.starts = s;
-    r.ends = e;
-    r.quoted = q;
+    this.drain(true);
   }
 
   private tooLong(length: number, line: number): never {
@@ -123,214 +140,176 @@ export class CsvTokenizer {
     );
   }
 
-  private run(chunk: string, final: boolean): void {
-    let buf = this.carry.length ? this.carry + chunk : chunk;
-    this.carry = '';
-    const len = buf.length;
-    let pos = 0;
-    if (this.skipLeadingLF && len > 0) {
-      if (buf.charCodeAt(0) === LF) pos = 1;
-      this.skipLeadingLF = false;
+  /**
+   * LF or a lone CR, from the text so far outside quoted fields: LF unless lone CRs outnumber LFs.
+   * Null while no line break outside quotes is seen yet (and the file goes on).
+   */
+  private decideNewline(text: string, final: boolean): '\n' | '\r' | null {
+    let s = text.length > NEWLINE_PROBE ? text.slice(0, NEWLINE_PROBE) : text;
+    s = s.replace(/"[^"]*"/g, '');
+    const open = s.indexOf('"');
+    const cut = open >= 0;
+    if (cut) s = s.slice(0, open);
+    const lf = countChar(s, '\n', 0, s.length);
+    let lone = 0;
+    for (let i = s.indexOf('\r'); i >= 0; i = s.indexOf('\r', i + 1)) {
+      if (i + 1 < s.length ? s.charCodeAt(i + 1) !== LF : final && !cut) lone++;
     }
-    const sep = this.sep;
-    const sepStr = String.fromCharCode(sep);
-    const rec = this.rec;
-    rec.text = buf;
-    const max = this.maxRecordChars;
-    // Next positions of LF, CR, quote and separator at or after pos (len when none), found with
-    // indexOf (much faster than a char loop) and only searched again once pos has passed them.
-    let nextLF = -1;
-    let nextCR = -1;
-    let nextQ = -1;
-    let nextSep = -1;
+    if (lf === 0 && lone === 0 && !final && text.length < NEWLINE_PROBE) return null;
+    return lone > lf ? '\r' : '\n';
+  }
 
-    outer: while (pos < len) {
-      const recStart = pos;
-      let lines = 0; // line breaks inside quoted fields of this record
-      let nf = 0;
-      // Empty line: skip it.
-      const c0 = buf.charCodeAt(pos);
-      if (c0 === LF) {
-        pos++;
-        this.line++;
-        continue;
-      }
-      if (c0 === CR) {
-        if (pos + 1 < len) {
-          pos += buf.charCodeAt(pos + 1) === LF ? 2 : 1;
-        } else {
-          pos++;
-          if (!final) this.skipLeadingLF = true;
-        }
-        this.line++;
-        continue;
-      }
-      // Fast path: a line without quotes, ending in LF or CR LF (or at the end of the file).
-      if (nextLF < pos) {
-        nextLF = buf.indexOf('\n', pos);
-        if (nextLF < 0) nextLF = len;
-      }
-      if (nextQ < pos) {
-        nextQ = buf.indexOf('"', pos);
-        if (nextQ < 0) nextQ = len;
-      }
-      if (nextCR < pos) {
-        nextCR = buf.indexOf('\r', pos);
-        if (nextCR < 0) nextCR = len;
-      }
-      const nl = nextLF;
-      if (nextQ >= nl && nextCR >= nl - 1 && !(nl === len && nextCR < len) && (nl < len || final)) {
-        if (nl - recStart > max) this.tooLong(nl - recStart, this.line);
-        const lineEnd = nl > pos && buf.charCodeAt(nl - 1) === CR ? nl - 1 : nl;
-        let j = pos;
-        for (;;) {
-          if (nf === rec.starts.length) this.grow();
-          if (nextSep < j) {
-            nextSep = buf.indexOf(sepStr, j);
-            if (nextSep < 0) nextSep = len;
-          }
-          rec.quoted[nf] = 0;
-          rec.starts[nf] = j;
-          if (nextSep < lineEnd) {
-            rec.ends[nf++] = nextSep;
-            j = nextSep + 1;
-          } else {
-            rec.ends[nf++] = lineEnd;
-            break;
-          }
-        }
-        pos = nl < len ? nl + 1 : len;
-        rec.count = nf;
-        rec.line = this.line;
-        this.line++;
-        this.recordCount++;
-        this.onRecord(rec);
-        continue;
-      }
-      if (nl === len && !final && nextQ === len && nextCR === len) {
-        // incomplete plain line: wait for more text
-        if (len - recStart > max) this.tooLong(len - recStart, this.line);
-        this.carry = buf.slice(recStart);
+  private drain(final: boolean): void {
+    let text = this.pending;
+    this.pending = '';
+    if (!this.parser) {
+      const probe = this.carry + text;
+      const nl = this.decideNewline(probe, final);
+      if (nl === null) {
+        this.carry = probe;
+        if (probe.length > this.maxRecordChars) this.tooLong(probe.length, this.line);
         return;
       }
-      for (;;) {
-        if (nf === rec.starts.length) this.grow();
-        // pos is at the start of a field
-        if (pos < len && buf.charCodeAt(pos) === QUOTE) {
-          let j = pos + 1;
-          let close = -1;
-          for (;;) {
-            const q = buf.indexOf('"', j);
-            if (q < 0) break;
-            if (q + 1 < len) {
-              if (buf.charCodeAt(q + 1) === QUOTE) {
-                j = q + 2;
-                continue;
-              }
-              close = q;
-              break;
-            }
-            // quote is the last char of the buffer: closing only if no more text comes
-            if (final) close = q;
-            break;
-          }
-          if (close < 0) {
-            if (final) {
-              throw new IngestError(
-                'UNTERMINATED_QUOTE',
-                `A quoted field opened on line ${this.line + lines} is never closed before the end of the file. ` +
-                  'Check that the export quotes fields consistently.',
-                { line: this.line + lines },
-                this.line + lines,
-              );
-            }
-            if (len - recStart > max) this.tooLong(len - recStart, this.line);
-            this.carry = buf.slice(recStart);
-            return;
-          }
-          // count line breaks inside the quoted content
-          let nl = buf.indexOf('\n', pos + 1);
-          while (nl >= 0 && nl < close) {
-            lines++;
-            nl = buf.indexOf('\n', nl + 1);
-          }
-          rec.starts[nf] = pos + 1;
-          rec.ends[nf] = close;
-          rec.quoted[nf] = 1;
-          pos = close + 1;
-          if (pos < len) {
-            let c = buf.charCodeAt(pos);
-            if (c !== sep && c !== LF && c !== CR) {
-              rec.quoted[nf] = 2;
-              this.malformedQuoteCount++;
-              while (pos < len) {
-                c = buf.charCodeAt(pos);
-                if (c === sep || c === LF || c === CR) break;
-                pos++;
-              }
-              rec.ends[nf] = pos;
-            }
-          }
-        } else {
-          const start = pos;
-          while (pos < len) {
-            const c = buf.charCodeAt(pos);
-            if (c === sep || c === LF || c === CR) break;
-            pos++;
-          }
-          rec.starts[nf] = start;
-          rec.ends[nf] = pos;
-          rec.quoted[nf] = 0;
-        }
-        nf++;
-        if (pos >= len) {
-          if (!final) {
-            if (len - recStart > max) this.tooLong(len - recStart, this.line);
-            this.carry = buf.slice(recStart);
-            return;
-          }
-          break; // last record of the file, no line break
-        }
-        const c = buf.charCodeAt(pos);
-        if (c === sep) {
-          pos++;
-          if (pos >= len && !final) {
-            if (len - recStart > max) this.tooLong(len - recStart, this.line);
-            this.carry = buf.slice(recStart);
-            return;
-          }
-          if (pos >= len) {
-            // trailing separator at end of file: one more empty field
-            if (nf === rec.starts.length) this.grow();
-            rec.starts[nf] = pos;
-            rec.ends[nf] = pos;
-            rec.quoted[nf] = 0;
-            nf++;
-            break;
-          }
-          continue;
-        }
-        // line break ends the record
-        if (c === CR) {
-          if (pos + 1 < len) {
-            pos += buf.charCodeAt(pos + 1) === LF ? 2 : 1;
-          } else {
-            pos++;
-            if (!final) this.skipLeadingLF = true;
-          }
-        } else {
-          pos++;
-        }
-        lines++;
-        break;
+      this.newline = nl;
+      this.parser = new Papa.Parser({ delimiter: this.sep, newline: nl, quoteChar: '"' });
+      this.carry = '';
+      text = probe;
+    }
+    // a CR as the very last character ends the last line (papaparse would keep it in a quoted field's tail)
+    if (final && this.newline === '\n') {
+      const last = text.length ? text : this.carry;
+      if (last.length && last.charCodeAt(last.length - 1) === CR) text += '\n';
+    }
+    const n = text.length;
+    if (n === 0 && !final) return;
+    let o = 0;
+    for (;;) {
+      const size = Math.min(this.window, n - o);
+      this.repaired = false;
+      o += this.feed(text, o, size, final && o + size >= n);
+      if (!this.repaired && this.window < WINDOW) this.window *= 2;
+      if (o >= n && !this.repaired) break;
+    }
+  }
+
+  /**
+   * Parses carry + text[o, o + size), hands on the complete records and keeps the rest as carry.
+   * Returns the characters of text used: all of them, or fewer when a field was re-quoted (then
+   * `repaired` is set and the caller feeds the rest again).
+   */
+  private feed(text: string, o: number, size: number, final: boolean): number {
+    const piece = o === 0 && size === text.length ? text : text.slice(o, o + size);
+    const carryLength = this.carry.length;
+    const input = carryLength ? this.carry + piece : piece;
+    const parser = this.parser!;
+    const res = parser.parse(input, 0, !final) as PapaResult;
+    const rows = res.data.length;
+    const errors = res.errors;
+    if (errors.length > 0) {
+      const first = errors[0];
+      if (first.code === 'InvalidQuotes') {
+        const used = this.requote(input, first.index - 1, carryLength, final);
+        if (used >= 0) return used;
       }
-      if (pos - recStart > max) this.tooLong(pos - recStart, this.line);
-      rec.count = nf;
-      rec.line = this.line;
-      this.line += lines;
+      for (const e of errors) {
+        if (e.code === 'MissingQuotes') {
+          const lineAtStart = this.line;
+          this.deliver(res.data, e.row, input);
+          const quoteLine = lineAtStart + countChar(input, this.newline, 0, e.index - 1);
+          throw new IngestError(
+            'UNTERMINATED_QUOTE',
+            `A quoted field opened on line ${quoteLine} is never closed before the end of the file. ` +
+              'Check that the export quotes fields consistently.',
+            { line: quoteLine },
+            quoteLine,
+          );
+        }
+        // a quote followed by a line break of the other kind, read papaparse's way
+        if (e.code === 'InvalidQuotes' && e.row < rows) this.malformedQuoteCount++;
+      }
+    }
+    const cursor = res.meta.cursor;
+    this.deliver(res.data, rows, input, cursor);
+    this.carry = cursor === 0 ? input : cursor >= input.length ? '' : input.slice(cursor);
+    if (this.carry.length > this.maxRecordChars) this.tooLong(this.carry.length, this.line);
+    return size;
+  }
+
+  /**
+   * A quoted field opening at q0 has text after its closing quote. When the field's end (the next
+   * separator or line break) is known, re-quotes it in the carry, hands on the records before it and
+   * returns the characters of the current piece used; returns -1 to read the input as papaparse did.
+   */
+  private requote(input: string, q0: number, carryLength: number, final: boolean): number {
+    let close = -1;
+    for (let j = q0 + 1; ; ) {
+      const q = input.indexOf('"', j);
+      if (q < 0) break;
+      if (q + 1 < input.length && input.charCodeAt(q + 1) === QUOTE) {
+        j = q + 2;
+        continue;
+      }
+      close = q;
+      break;
+    }
+    if (close < 0) return -1;
+    let end = input.length;
+    for (const ch of [this.sep, '\n', '\r']) {
+      const i = input.indexOf(ch, close + 1);
+      if (i >= 0 && i < end) end = i;
+    }
+    if (end === input.length && !final) return -1; // the field may go on in the next piece: papaparse carries it
+    // only spaces before a line break of the other kind (a lone CR in an LF file): read papaparse's way
+    if (end < input.length && input.slice(close + 1, end).trim().length === 0) return -1;
+    // the records before this one are complete: papaparse gives them from the text before the quote
+    const before = this.parser!.parse(input.slice(0, q0), 0, true) as PapaResult;
+    this.deliver(before.data, before.data.length, input, before.meta.cursor);
+    const start = before.meta.cursor;
+    const fixed = '"' + unquoteMalformed(input.slice(q0 + 1, end)).replace(/"/g, '""') + '"';
+    this.malformedQuoteCount++;
+    this.carry = input.slice(start, q0) + fixed + (end < carryLength ? input.slice(end, carryLength) : '');
+    if (this.carry.length > this.maxRecordChars) this.tooLong(this.carry.length, this.line);
+    this.window = SMALL_WINDOW;
+    this.repaired = true;
+    return Math.max(0, end - carryLength);
+  }
+
+  /** Hands on rows [0, count): skips empty lines, removes a CR before LF, numbers lines. */
+  private deliver(data: string[][], count: number, input: string, consumed = -1): void {
+    if (count === 0) return;
+    const nl = this.newline;
+    const stripCR = nl === '\n';
+    // line breaks inside quoted fields: none when the consumed text has one break per row
+    let inside = false;
+    if (input.indexOf('"') >= 0) {
+      const upTo = consumed >= 0 ? consumed : input.length;
+      const breaks = countChar(input, nl, 0, upTo);
+      const endsWithBreak = upTo > 0 && input.charCodeAt(upTo - 1) === nl.charCodeAt(0);
+      inside = breaks !== (endsWithBreak ? count : count - 1);
+    }
+    const checkLength = input.length > this.maxRecordChars;
+    const rec = this.rec;
+    for (let r = 0; r < count; r++) {
+      const row = data[r];
+      const n = row.length;
+      const line = this.line;
+      this.line++;
+      if (inside) for (let i = 0; i < n; i++) if (row[i].length > 0) this.line += countChar(row[i], nl, 0, row[i].length);
+      if (stripCR) {
+        const f = row[n - 1];
+        if (f.length > 0 && f.charCodeAt(f.length - 1) === CR) row[n - 1] = f.slice(0, -1);
+      }
+      if (n === 1 && row[0].length === 0) continue;
+      if (checkLength) {
+        let length = n - 1;
+        for (let i = 0; i < n; i++) length += row[i].length;
+        if (length > this.maxRecordChars) this.tooLong(length, line);
+      }
+      rec.fields = row;
+      rec.count = n;
+      rec.line = line;
       this.recordCount++;
       this.onRecord(rec);
-      if (pos >= len) break outer;
     }
   }
 }
@@ -347,9 +326,7 @@ export function tokenizeAll(
   const t = new CsvTokenizer(
     separator,
     (rec) => {
-      const fields: string[] = new Array(rec.count);
-      for (let i = 0; i < rec.count; i++) fields[i] = fieldText(rec, i);
-      out.push({ fields, line: rec.line });
+      out.push({ fields: rec.fields, line: rec.line });
       if (out.length >= maxRecords) throw stop;
     },
     options,
@@ -357,6 +334,7 @@ export function tokenizeAll(
   try {
     t.push(text);
     if (options.final !== false) t.end();
+    else t.flush();
   } catch (e) {
     if (e !== stop) throw e;
   }

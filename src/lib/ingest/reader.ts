@@ -313,17 +313,11 @@ export function createRowReader(profile: LayoutProfile, options: RowReaderOption
   function timeOf(rec: CsvRecord): number {
     const c0 = timeCols[0];
     if (c0 >= rec.count) return NaN;
-    let text = rec.text;
-    let s = rec.starts[c0];
-    let e = rec.ends[c0];
-    if (rec.quoted[c0] === 2) {
-      text = fieldText(rec, c0);
-      s = 0;
-      e = text.length;
-    }
+    const text = rec.fields[c0];
+    const e = text.length;
     if (kind === 'text') {
       if (timeCols.length === 1) {
-        const wall = fastIsoWallMs(text, s, e);
+        const wall = fastIsoWallMs(text, 0, e);
         if (wall === wall) {
           const offset = fastIsoOffset;
           if (offset === offset) {
@@ -334,13 +328,13 @@ export function createRowReader(profile: LayoutProfile, options: RowReaderOption
           return clock.toUtc(wall, rec.line);
         }
       }
-      if (!scanDateTime(text, s, e, scan)) return NaN;
+      if (!scanDateTime(text, 0, e, scan)) return NaN;
       let wall: number;
       let offset = scan.offsetMinutes;
       if (timeCols.length === 2) {
         const c1 = timeCols[1];
         if (c1 >= rec.count) return NaN;
-        const t1 = fieldText(rec, c1);
+        const t1 = rec.fields[c1];
         if (scan.hasTime || !scanTimeOnly(t1, 0, t1.length, scan2)) return NaN;
         const day = dayFromScan(scan, order);
         const tod = timeOfDayMs(scan2);
@@ -357,7 +351,7 @@ export function createRowReader(profile: LayoutProfile, options: RowReaderOption
       }
       return clock.toUtc(wall, rec.line);
     }
-    const v = parseNumberAt(text, s, e, kind === 'serial' ? decCode : 46, -1);
+    const v = parseNumberAt(text, 0, e, kind === 'serial' ? decCode : 46, -1);
     if (v !== v) return NaN;
     if (kind === 'unix-s') return Math.round(v * 1000);
     if (kind === 'unix-ms') return Math.round(v);
@@ -365,7 +359,8 @@ export function createRowReader(profile: LayoutProfile, options: RowReaderOption
   }
 
   function isBlankRecord(rec: CsvRecord): boolean {
-    for (let i = 0; i < rec.count; i++) if (!isBlankAt(rec.text, rec.starts[i], rec.ends[i]) || rec.quoted[i] !== 0) return false;
+    const fields = rec.fields;
+    for (let i = 0; i < rec.count; i++) if (!isBlankAt(fields[i], 0, fields[i].length)) return false;
     return true;
   }
 
@@ -393,7 +388,7 @@ export function createRowReader(profile: LayoutProfile, options: RowReaderOption
       if (t === prevRowTimeMs) duplicates.add(rec.line);
       else if (t < prevRowTimeMs) backwards.add(rec.line);
       prevRowTimeMs = t;
-      const text = rec.text;
+      const fields = rec.fields;
       const count = rec.count;
       for (let k = 0; k < nWide; k++) {
         const col = valueCols[k];
@@ -403,28 +398,19 @@ export function createRowReader(profile: LayoutProfile, options: RowReaderOption
           tagStates[k].blankCount++;
           continue;
         }
-        const s = rec.starts[col];
-        const e = rec.ends[col];
-        const q = rec.quoted[col];
-        const v = q === 2 ? NaN : parseNumberAt(text, s, e, decCode, thouCode);
+        const f = fields[col];
+        const v = parseNumberAt(f, 0, f.length, decCode, thouCode);
         if (v === v) {
           values[k] = v;
           status[k] = CellStatus.Ok;
-        } else if (q !== 2 && isBlankAt(text, s, e)) {
+        } else if (isBlankAt(f, 0, f.length)) {
           values[k] = NaN;
           status[k] = CellStatus.Blank;
           tagStates[k].blankCount++;
         } else {
-          const tx = fieldText(rec, col);
-          const v2 = parseNumberAt(tx, 0, tx.length, decCode, thouCode);
-          if (v2 === v2) {
-            values[k] = v2;
-            status[k] = CellStatus.Ok;
-          } else {
-            values[k] = NaN;
-            status[k] = CellStatus.Text;
-            reject(k, rec, col, t, 'text');
-          }
+          values[k] = NaN;
+          status[k] = CellStatus.Text;
+          reject(k, rec, col, t, 'text');
         }
       }
       sink.addRow(t, values, status);
@@ -432,19 +418,13 @@ export function createRowReader(profile: LayoutProfile, options: RowReaderOption
     }
     // long
     const L = p.long!;
-    // consecutive rows usually carry the same tag: compare in place before slicing
+    // consecutive rows usually carry the same tag and quality text: compare before looking up
     const tc = L.tagColumn;
+    const raw = tc < rec.count ? rec.fields[tc] : '';
     let k: number | undefined;
-    if (
-      lastTagIndex >= 0 &&
-      tc < rec.count &&
-      rec.quoted[tc] === 0 &&
-      rec.ends[tc] - rec.starts[tc] === lastTagRaw.length &&
-      rec.text.startsWith(lastTagRaw, rec.starts[tc])
-    ) {
+    if (lastTagIndex >= 0 && raw === lastTagRaw) {
       k = lastTagIndex;
     } else {
-      const raw = tc < rec.count ? fieldText(rec, tc) : '';
       const name = raw.trim();
       if (name.length === 0) {
         blankTags.add(rec.line);
@@ -460,7 +440,7 @@ export function createRowReader(profile: LayoutProfile, options: RowReaderOption
         }
       }
       lastTagIndex = k;
-      lastTagRaw = rec.quoted[tc] === 0 ? raw : '\u0000'; // quoted names always take the slow path
+      lastTagRaw = raw;
     }
     const prev = tagLastTime[k];
     if (t === prev) duplicates.add(rec.line);
@@ -469,23 +449,17 @@ export function createRowReader(profile: LayoutProfile, options: RowReaderOption
     const st = tagStates[k];
     let qClass: number = QualityClass.Good;
     if (L.qualityColumn !== null && L.qualityColumn < rec.count) {
-      const qc = L.qualityColumn;
+      const qt = rec.fields[L.qualityColumn];
       let c: number | undefined;
-      let qt = lastQualityRaw;
-      if (
-        rec.quoted[qc] === 0 &&
-        rec.ends[qc] - rec.starts[qc] === lastQualityRaw.length &&
-        rec.text.startsWith(lastQualityRaw, rec.starts[qc])
-      ) {
+      if (qt === lastQualityRaw) {
         c = lastQualityClass;
       } else {
-        qt = fieldText(rec, qc);
         c = qualityCache.get(qt);
         if (c === undefined) {
           c = classifyQuality(qt);
           if (qualityCache.size < 1000) qualityCache.set(qt, c);
         }
-        lastQualityRaw = rec.quoted[qc] === 0 ? qt : '\u0000';
+        lastQualityRaw = qt;
         lastQualityClass = c;
       }
       qClass = c;
@@ -499,10 +473,10 @@ export function createRowReader(profile: LayoutProfile, options: RowReaderOption
     let value = NaN;
     let cell: number = CellStatus.Blank;
     if (vc < rec.count) {
-      const tx = rec.quoted[vc] === 2 ? fieldText(rec, vc) : null;
-      value = tx === null ? parseNumberAt(rec.text, rec.starts[vc], rec.ends[vc], decCode, thouCode) : parseNumberAt(tx, 0, tx.length, decCode, thouCode);
+      const tx = rec.fields[vc];
+      value = parseNumberAt(tx, 0, tx.length, decCode, thouCode);
       if (value === value) cell = qClass === QualityClass.Bad ? CellStatus.BadQuality : qClass === QualityClass.Uncertain ? CellStatus.Uncertain : CellStatus.Ok;
-      else if (tx === null && isBlankAt(rec.text, rec.starts[vc], rec.ends[vc])) cell = CellStatus.Blank;
+      else if (isBlankAt(tx, 0, tx.length)) cell = CellStatus.Blank;
       else cell = CellStatus.Text;
     }
     if (cell === CellStatus.Blank) st.blankCount++;
