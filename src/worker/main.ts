@@ -7,6 +7,7 @@ import { QUEUES, SendMailPayload } from '../jobs';
 import { closeDb } from '../server/db/client';
 import { sendMail } from '../server/mail';
 import { queue, stopQueue } from '../server/queue';
+import { resumeInterruptedUploads } from '../server/services/ingest';
 import { registerHandlers } from './handlers';
 
 const boss = await queue();
@@ -15,6 +16,8 @@ await boss.work(QUEUES.sendMail, { pollingIntervalSeconds: 1 }, async ([job]) =>
   await sendMail(SendMailPayload.parse(job!.data));
 });
 await registerHandlers(boss);
+const resumed = await resumeInterruptedUploads();
+if (resumed) console.log(`[worker] queued ${resumed} upload(s) again that a stopped worker left half-read`);
 console.log('[worker] ready');
 
 let stopping = false;

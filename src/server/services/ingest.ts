@@ -462,3 +462,27 @@ const POOLED_MEAN = `(case when o.mean is null then excluded.mean when excluded.
   else (${W1} * o.mean + ${W2} * excluded.mean) / (${W1} + ${W2}) end)`;
 const POOLED_STD = `(case when o.mean is null or o.std is null then excluded.std when excluded.mean is null or excluded.std is null then o.std when ${W1} + ${W2} = 0 then excluded.std
   else sqrt(greatest(0, (${W1} * (o.std ^ 2 + (o.mean - ${POOLED_MEAN}) ^ 2) + ${W2} * (excluded.std ^ 2 + (excluded.mean - ${POOLED_MEAN}) ^ 2)) / (${W1} + ${W2}))) end)`;
+
+/**
+ * At worker start: an upload left 'processing' by a worker that died (its transaction rolled back,
+ * its advisory lock released) is queued again, to be read from the start.
+ */
+export async function resumeInterruptedUploads(): Promise<number> {
+  const stuck = await db().select({ id: uploads.id }).from(uploads).where(eq(uploads.status, 'processing'));
+  let resumed = 0;
+  for (const { id } of stuck) {
+    const client = await pgPool().connect();
+    try {
+      const { rows } = await client.query('select pg_try_advisory_lock(hashtextextended($1, 0)) as ok', ['ingest:' + id]);
+      if (!rows[0].ok) continue; // another worker is reading it right now
+      await client.query('select pg_advisory_unlock(hashtextextended($1, 0))', ['ingest:' + id]);
+    } finally {
+      client.release();
+    }
+    await db().update(uploads).set({ status: 'queued' }).where(and(eq(uploads.id, id), eq(uploads.status, 'processing')));
+    const boss = await queue();
+    await boss.send(QUEUES.ingestFile, { uploadId: id }, { singletonKey: `${id}:resume:${Date.now()}`, retryLimit: 2, retryDelay: 5 });
+    resumed++;
+  }
+  return resumed;
+}
