@@ -1,6 +1,8 @@
 import { expect, type Page } from '@playwright/test';
 
 export const DEMO_PASSWORD = 'lossline-demo-1';
+/** The invented demo site the seed creates (Europe/London). */
+export const DEMO_SITE = 'Harrowgate Mills Energy Centre';
 export const DEMO = {
   admin: 'admin@demo.lossline.test',
   'energy-lead': 'lead@demo.lossline.test',

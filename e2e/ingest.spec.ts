@@ -1,5 +1,5 @@
 import { expect, test } from '@playwright/test';
-import { DEMO, signIn, watchConsole } from './helpers';
+import { DEMO, DEMO_SITE, signIn, watchConsole } from './helpers';
 
 const FIX = 'tests/fixtures/ingest-server';
 
@@ -8,6 +8,7 @@ test('an operator uploads a file, reviews the new layout, watches it being read 
   await signIn(page, DEMO.operator);
   await page.getByRole('link', { name: 'Uploads' }).click();
   await expect(page.getByRole('heading', { name: 'Uploads' })).toBeVisible();
+  await page.getByLabel('Site').selectOption({ label: `${DEMO_SITE} (Europe/London)` });
 
   // A shape this site has not seen yet: tag names unique to this run.
   const run = Date.now().toString(36).toUpperCase();
@@ -40,6 +41,7 @@ test('an operator uploads a file, reviews the new layout, watches it being read 
 test('a scheduled export posts a file with a site token; its status and tag hours come back over the API', async ({ page, request }) => {
   await signIn(page, DEMO.admin);
   await page.getByRole('link', { name: 'API tokens' }).click();
+  await page.getByLabel('Site').selectOption({ label: DEMO_SITE });
   await page.getByLabel('What uses it').fill('nightly export');
   await page.getByRole('button', { name: 'Issue token' }).click();
   const token = (await page.getByTestId('new-token').textContent())!.trim();
