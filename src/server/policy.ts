@@ -52,6 +52,12 @@ export const API_POLICY: Record<string, RoutePolicy> = {
   // --- engine ---
   // --- baselines and drift ---
   // --- trends, ledger, reports ---
+  '/api/units/[unitId]/trend': { methods: { GET: ANY_ROLE } },
+  '/api/sites/[siteId]/ledger': { methods: { GET: ANY_ROLE } },
+  '/api/sites/[siteId]/flow': { methods: { GET: ANY_ROLE } },
+  '/api/sites/[siteId]/reports': { methods: { GET: LEADS } },
+  '/api/sites/[siteId]/reports/[month]/report.pdf': { methods: { GET: LEADS } },
+  '/api/sites/[siteId]/reports/[month]/report.csv': { methods: { GET: LEADS } },
 };
 
 /** Pages: the same rule, for GET. Pages not listed need a signed-in person of any role. */

@@ -1,0 +1,158 @@
+/**
+ * The monthly report as CSV: one file, sections one after the other, each with its own head row and
+ * a blank line between them; units in the heads, numbers with a decimal point and no grouping. Every
+ * cell goes through csvCell, so text a spreadsheet would run as a formula (=, +, -, @ ...) is
+ * written as text (plain decimal numbers, negative ones included, stay numbers).
+ */
+import { csvCell } from './uploads';
+import type { ReportData } from './report';
+import { fixed, mwhDecimals } from './report-format';
+
+const STATES = ['steady', 'unsettled', 'idle', 'suspect'] as const;
+
+/**
+ * One cell. A plain decimal number (optionally negative) is written as it is, so a spreadsheet reads
+ * -1.25 as a number; anything else goes through csvCell, which turns a would-be formula into text.
+ */
+export function reportCell(v: unknown): string {
+  if (typeof v === 'number' && Number.isFinite(v)) return String(v);
+  if (typeof v === 'string' && /^-?\d+(\.\d+)?$/.test(v)) return v;
+  return csvCell(v);
+}
+
+/** The lines of the CSV, each already joined (CRLF is added by the writer). */
+export function reportCsvLines(r: ReportData): string[] {
+  const cur = r.site.currency;
+  const line = (...cells: unknown[]) => cells.map(reportCell).join(',');
+  const out: string[] = [];
+  const dMWh = mwhDecimals(Math.max(0, ...r.ledger.rows.map((x) => x.destruction_MWh), r.ledger.totals.destruction_MWh));
+
+  out.push(line('Lossline monthly site report'));
+  out.push(line('site', r.site.name));
+  out.push(line('month', r.month, r.period.label));
+  out.push(line('time zone', r.site.timeZone));
+  out.push(line('period start (UTC)', r.period.from));
+  out.push(line('period end (UTC; exclusive)', r.period.to));
+  out.push(line('generated (site time)', r.generated));
+  out.push(line('note', r.uncertaintyNote));
+  out.push('');
+
+  out.push(line('Loss ledger'));
+  out.push(
+    line(
+      'rank',
+      'unit',
+      'kind',
+      'destruction [MWh]',
+      'destruction U (k=2) [MWh]',
+      `cost of destruction [${cur}]`,
+      `cost U (k=2) [${cur}]`,
+      `share of site ${r.ledger.shareBasis} [%]`,
+      'efficiency mean [%]',
+      'efficiency U (k=2) [%]',
+      ...STATES.map((s) => `${s} [h]`),
+      'steady hours without cost [h]',
+    ),
+  );
+  for (const x of r.ledger.rows) {
+    out.push(
+      line(
+        x.rank,
+        x.name,
+        x.kindLabel,
+        fixed(x.destruction_MWh, dMWh),
+        fixed(x.destruction_U_MWh, dMWh),
+        fixed(x.cost, 2),
+        fixed(x.cost_U, 2),
+        fixed(x.share === null ? null : x.share * 100, 1),
+        fixed(x.efficiencyMean === null ? null : x.efficiencyMean * 100, 2),
+        fixed(x.efficiencyMean_U === null ? null : x.efficiencyMean_U * 100, 2),
+        ...STATES.map((s) => x.hours[s]),
+        x.hoursWithoutCost,
+      ),
+    );
+  }
+  const t = r.ledger.totals;
+  out.push(line('', 'site total', '', fixed(t.destruction_MWh, dMWh), fixed(t.destruction_U_MWh, dMWh), fixed(t.cost, 2), fixed(t.cost_U, 2), t.cost !== null || t.destruction_MWh > 0 ? '100.0' : '', '', '', ...STATES.map((s) => t.hours[s]), ''));
+  out.push('');
+
+  out.push(line('Efficiency against baseline (means over the steady hours that have an expected value)'));
+  out.push(
+    line(
+      'unit',
+      'kind',
+      'baseline',
+      'hours compared [h]',
+      'measured efficiency [%]',
+      'measured efficiency U (k=2) [%]',
+      'expected efficiency [%]',
+      'measured minus expected [percentage points]',
+      'measured destruction [kW]',
+      'measured destruction U (k=2) [kW]',
+      'expected destruction [kW]',
+    ),
+  );
+  for (const e of r.efficiency) {
+    const diff = e.measuredEfficiency !== null && e.expectedEfficiency !== null ? (e.measuredEfficiency - e.expectedEfficiency) * 100 : null;
+    out.push(
+      line(
+        e.name,
+        e.kindLabel,
+        e.baseline ?? 'no active baseline',
+        e.hoursCompared,
+        fixed(e.measuredEfficiency === null ? null : e.measuredEfficiency * 100, 2),
+        fixed(e.measuredEfficiency_U === null ? null : e.measuredEfficiency_U * 100, 2),
+        fixed(e.expectedEfficiency === null ? null : e.expectedEfficiency * 100, 2),
+        fixed(diff, 2),
+        fixed(e.measuredDestruction_W === null ? null : e.measuredDestruction_W / 1000, 1),
+        fixed(e.measuredDestruction_U_W === null ? null : e.measuredDestruction_U_W / 1000, 1),
+        fixed(e.expectedDestruction_W === null ? null : e.expectedDestruction_W / 1000, 1),
+      ),
+    );
+  }
+  out.push('');
+
+  out.push(line('Drift notices (opened in the month, or not closed)'));
+  out.push(
+    line('unit', 'direction', 'status', 'onset (site time)', 'signal (site time)', 'steady hours onset to signal [h]', 'extra destruction [kW]', 'shift U (k=2) [kW]', 'exceeds measurement uncertainty', `extra cost per day [${cur}]`),
+  );
+  if (!r.notices.length) out.push(line('none'));
+  for (const n of r.notices) {
+    const at = (ms: number) => new Intl.DateTimeFormat('sv-SE', { timeZone: r.site.timeZone, dateStyle: 'short', timeStyle: 'short' }).format(ms);
+    out.push(
+      line(
+        n.unitName,
+        n.direction === 'up' ? 'more destruction than expected' : 'less destruction than expected',
+        n.status,
+        at(n.onsetMs),
+        at(n.signalMs),
+        n.hours,
+        fixed(n.extra_W / 1000, 1),
+        fixed(n.shiftU_W === null ? null : n.shiftU_W / 1000, 1),
+        n.exceedsUncertainty === null ? 'unknown' : n.exceedsUncertainty ? 'yes' : 'no',
+        fixed(n.extraCost_per_day, 2),
+      ),
+    );
+  }
+  out.push('');
+
+  out.push(line('Data quality: hours by state'));
+  out.push(line('unit', ...STATES.map((s) => `${s} [h]`), 'no unit hour [h]'));
+  for (const q of r.quality.units) out.push(line(q.name, ...STATES.map((s) => q.hours[s]), q.noHour));
+  out.push('');
+
+  out.push(line('Data quality: most frequent reasons for hours that are not steady'));
+  out.push(line('reason code', 'example', 'hours [h]'));
+  if (!r.quality.reasons.length) out.push(line('none'));
+  for (const q of r.quality.reasons) out.push(line(q.code, q.example, q.hours));
+  out.push('');
+
+  out.push(line('Caution'));
+  out.push(line(r.caution));
+  return out;
+}
+
+/** The whole CSV as text (UTF-8 with CRLF line ends, as spreadsheets expect). */
+export function reportCsv(r: ReportData): string {
+  return reportCsvLines(r).join('\r\n') + '\r\n';
+}

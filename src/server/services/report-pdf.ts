@@ -1,0 +1,360 @@
+/**
+ * The monthly report as PDF (pdfkit), set in IBM Plex Sans embedded from @fontsource (WOFF files,
+ * which pdfkit's font reader takes). Warm paper page, ink text, copper for destruction and loss,
+ * teal for product; numbers right-aligned with their unit in the column head.
+ */
+import { existsSync } from 'node:fs';
+import { createRequire } from 'node:module';
+import { join } from 'node:path';
+import PDFDocument from 'pdfkit';
+import type { ReportData } from './report';
+import { fixed, kW, mwhDecimals, pct, pm } from './report-format';
+
+const C = {
+  paper: '#f7f3ea',
+  paperDeep: '#efe8d9',
+  edge: '#ddd3bf',
+  ink: '#22201c',
+  soft: '#4a463e',
+  faint: '#7a7366',
+  copper: '#b5562a',
+  copperPale: '#f3dccd',
+  teal: '#1f7a72',
+  amber: '#c98a12',
+  amberPale: '#f7e6bf',
+};
+
+const MARGIN = 40;
+
+/** Paths of the two weights of IBM Plex Sans, or null when the package files cannot be found. */
+export function plexFontFiles(): { regular: string; semibold: string } | null {
+  const file = (w: number) => `@fontsource/ibm-plex-sans/files/ibm-plex-sans-latin-${w}-normal.woff`;
+  try {
+    const req = createRequire(import.meta.url);
+    return { regular: req.resolve(file(400)), semibold: req.resolve(file(600)) };
+  } catch {
+    const base = join(process.cwd(), 'node_modules');
+    const regular = join(base, file(400));
+    const semibold = join(base, file(600));
+    return existsSync(regular) && existsSync(semibold) ? { regular, semibold } : null;
+  }
+}
+
+interface Col {
+  head: string;
+  width: number;
+  align?: 'left' | 'right';
+}
+
+class Writer {
+  readonly doc: PDFKit.PDFDocument;
+  readonly width: number;
+  private readonly regular: string;
+  private readonly bold: string;
+
+  constructor(readonly r: ReportData) {
+    this.doc = new PDFDocument({
+      size: 'A4',
+      margins: { top: MARGIN, bottom: MARGIN + 14, left: MARGIN, right: MARGIN },
+      bufferPages: true,
+      info: { Title: `Lossline monthly site report: ${r.site.name}, ${r.period.label}`, Author: 'Lossline', Subject: 'Exergy loss ledger and baselines' },
+    });
+    const fonts = plexFontFiles();
+    if (fonts) {
+      this.doc.registerFont('plex', fonts.regular);
+      this.doc.registerFont('plex-semibold', fonts.semibold);
+      this.regular = 'plex';
+      this.bold = 'plex-semibold';
+    } else {
+      // The package files are missing: fall back to the PDF standard font rather than fail the report.
+      this.regular = 'Helvetica';
+      this.bold = 'Helvetica-Bold';
+    }
+    this.width = this.doc.page.width - 2 * MARGIN;
+    this.paint();
+    this.doc.on('pageAdded', () => this.paint());
+  }
+
+  private paint() {
+    const { doc } = this;
+    doc.save().rect(0, 0, doc.page.width, doc.page.height).fill(C.paper).restore();
+    doc.save().rect(0, 0, doc.page.width, 6).fill(C.copper).restore();
+    doc.fillColor(C.ink);
+  }
+
+  font(weight: 'regular' | 'bold', size: number, color = C.ink) {
+    return this.doc.font(weight === 'bold' ? this.bold : this.regular).fontSize(size).fillColor(color);
+  }
+
+  get bottom() {
+    return this.doc.page.height - this.doc.page.margins.bottom;
+  }
+
+  ensure(h: number) {
+    if (this.doc.y + h > this.bottom) this.doc.addPage();
+  }
+
+  heading(text: string, sub?: string) {
+    this.ensure(60);
+    this.doc.moveDown(0.8);
+    this.font('bold', 12.5).text(text, MARGIN, this.doc.y, { width: this.width });
+    if (sub) this.font('regular', 8, C.faint).text(sub, MARGIN, this.doc.y + 1, { width: this.width });
+    this.doc.moveDown(0.4);
+  }
+
+  para(text: string, size = 8.5, color = C.soft) {
+    this.font('regular', size, color).text(text, MARGIN, this.doc.y, { width: this.width });
+  }
+
+  table(cols: Col[], rows: string[][], opts: { total?: string[]; bar?: { col: number; values: (number | null)[] } } = {}) {
+    const { doc } = this;
+    const pad = 3;
+    const size = 7.8;
+    const headSize = 7.2;
+    const head = () => {
+      this.font('bold', headSize, C.soft);
+      const h = Math.max(...cols.map((c) => doc.heightOfString(c.head, { width: c.width - 2 * pad }))) + 2 * pad;
+      this.ensure(h + 16);
+      const y = doc.y;
+      doc.save().rect(MARGIN, y, this.width, h).fill(C.paperDeep).restore();
+      let x = MARGIN;
+      for (const c of cols) {
+        this.font('bold', headSize, C.soft).text(c.head, x + pad, y + pad, { width: c.width - 2 * pad, align: c.align ?? 'left' });
+        x += c.width;
+      }
+      doc.y = y + h;
+    };
+    const row = (cells: string[], bold: boolean, i: number | null) => {
+      this.font(bold ? 'bold' : 'regular', size);
+      const h = Math.max(...cells.map((t, k) => doc.heightOfString(t || ' ', { width: cols[k]!.width - 2 * pad }))) + 2 * pad + (opts.bar && i !== null ? 2.5 : 0);
+      if (doc.y + h > this.bottom) {
+        doc.addPage();
+        head();
+      }
+      const y = doc.y;
+      let x = MARGIN;
+      cells.forEach((t, k) => {
+        const c = cols[k]!;
+        this.font(bold ? 'bold' : 'regular', size).text(t, x + pad, y + pad, { width: c.width - 2 * pad, align: c.align ?? 'left' });
+        if (opts.bar && i !== null && k === opts.bar.col) {
+          const v = opts.bar.values[i];
+          if (v !== null && v !== undefined && v > 0) {
+            const w = (c.width - 2 * pad) * Math.min(1, v);
+            doc.save().rect(x + c.width - pad - w, y + h - 3.2, w, 2).fill(C.copper).restore();
+          }
+        }
+        x += c.width;
+      });
+      doc.save().moveTo(MARGIN, y + h).lineTo(MARGIN + this.width, y + h).lineWidth(0.4).stroke(C.edge).restore();
+      doc.y = y + h;
+    };
+    head();
+    rows.forEach((cells, i) => row(cells, false, i));
+    if (opts.total) row(opts.total, true, null);
+    doc.x = MARGIN;
+  }
+}
+
+const STATES = ['steady', 'unsettled', 'idle', 'suspect'] as const;
+
+/** Writes the report; returns the pdfkit document (a readable stream), already ended. */
+export function reportPdf(r: ReportData): PDFKit.PDFDocument {
+  const w = new Writer(r);
+  const { doc } = w;
+  const cur = r.site.currency;
+
+  // Title block.
+  w.font('regular', 8, C.faint).text('LOSSLINE · MONTHLY SITE REPORT', MARGIN, MARGIN + 4, { characterSpacing: 0.6 });
+  w.font('bold', 20).text(r.site.name, MARGIN, doc.y + 2, { width: w.width });
+  w.font('regular', 12, C.soft).text(`${r.period.label}  ·  ${r.period.hours} hours  ·  time zone ${r.site.timeZone}`, { width: w.width });
+  w.font('regular', 8, C.faint).text(`Generated ${r.generated} (site time). Period ${r.period.from} to ${r.period.to} (UTC, end exclusive).`, { width: w.width });
+  doc.moveDown(0.5);
+  w.para(r.uncertaintyNote, 7.8, C.faint);
+
+  // Ledger.
+  const t = r.ledger.totals;
+  const rows = r.ledger.rows;
+  const dDec = mwhDecimals(Math.max(0, ...rows.map((x) => x.destruction_MWh), t.destruction_MWh));
+  w.heading(
+    'Loss ledger',
+    `Units ranked by the cost of their exergy destruction over steady hours. Share of the site's ${r.ledger.shareBasis}. Site total ${fixed(t.destruction_MWh, dDec)} MWh ± ${fixed(t.destruction_U_MWh, dDec)} MWh destroyed${t.cost !== null ? `, costing ${cur} ${fixed(t.cost, 0, true)} ± ${fixed(t.cost_U, 0, true)}` : ''}.`,
+  );
+  if (!rows.length) w.para('The site has no units.');
+  else
+    w.table(
+      [
+        { head: '#', width: 20, align: 'right' },
+        { head: 'Unit', width: 92 },
+        { head: 'Kind', width: 62 },
+        { head: 'Destruction [MWh]', width: 70, align: 'right' },
+        { head: `Cost [${cur}]`, width: 70, align: 'right' },
+        { head: 'Share [%]', width: 38, align: 'right' },
+        { head: 'Efficiency [%]', width: 63, align: 'right' },
+        { head: 'Steady [h]', width: 25, align: 'right' },
+        { head: 'Unsettled [h]', width: 25, align: 'right' },
+        { head: 'Idle [h]', width: 22, align: 'right' },
+        { head: 'Suspect [h]', width: 28.28, align: 'right' },
+      ],
+      rows.map((x) => [
+        String(x.rank),
+        x.name,
+        x.kindLabel,
+        pm(fixed(x.destruction_MWh, dDec), fixed(x.destruction_U_MWh, dDec)),
+        x.cost === null ? 'no price' : pm(fixed(x.cost, 0, true), fixed(x.cost_U, 0, true)),
+        fixed(x.share === null ? null : x.share * 100, 1),
+        x.efficiencyMean === null ? '—' : pm(pct(x.efficiencyMean), pct(x.efficiencyMean_U)),
+        ...STATES.map((s) => String(x.hours[s])),
+      ]),
+      {
+        bar: { col: 5, values: rows.map((x) => x.share) },
+        total: ['', 'Site total', '', pm(fixed(t.destruction_MWh, dDec), fixed(t.destruction_U_MWh, dDec)), t.cost === null ? '' : pm(fixed(t.cost, 0, true), fixed(t.cost_U, 0, true)), '100.0', '', ...STATES.map((s) => String(t.hours[s]))],
+      },
+    );
+
+  // Where each unit's fuel exergy went: a stacked band per unit (teal product, light copper loss, copper destruction).
+  const flows = rows.filter((x) => x.fuel_MWh > 0);
+  if (flows.length) {
+    w.heading('Where each unit’s fuel exergy went', 'Share of each unit’s fuel exergy over steady hours: product (teal, left), loss (light copper, hatched), destruction (copper, right).');
+    const labelW = 120;
+    const barW = w.width - labelW - 70;
+    for (const x of flows) {
+      w.ensure(16);
+      const y = doc.y;
+      w.font('regular', 7.8).text(x.name, MARGIN, y + 2, { width: labelW - 6, lineBreak: false, ellipsis: true });
+      const f = x.fuel_MWh;
+      const parts: [number, string, boolean][] = [
+        [x.product_MWh / f, C.teal, false],
+        [x.loss_MWh / f, C.copperPale, true],
+        [x.destruction_MWh / f, C.copper, false],
+      ];
+      let px = MARGIN + labelW;
+      for (const [share, color, hatch] of parts) {
+        const pw = Math.max(0, Math.min(1, share)) * barW;
+        if (pw <= 0) continue;
+        doc.save().rect(px, y + 1, pw, 10).fill(color).restore();
+        if (hatch) {
+          doc.save().rect(px, y + 1, pw, 10).clip();
+          for (let hx = px - 10; hx < px + pw; hx += 4) doc.moveTo(hx, y + 11).lineTo(hx + 10, y + 1);
+          doc.lineWidth(0.5).stroke(C.copper).restore();
+        }
+        px += pw;
+      }
+      w.font('regular', 7.2, C.soft).text(x.efficiencyMean === null ? 'dissipative' : `efficiency ${pct(x.efficiencyMean)} %`, MARGIN + labelW + barW + 6, y + 2, { width: 64, align: 'right' });
+      doc.y = y + 14;
+      doc.x = MARGIN;
+    }
+  }
+
+  // Efficiency against baseline.
+  w.heading('Efficiency against baseline', 'Measured mean against the active baseline’s expected mean over the same steady hours. Difference in percentage points.');
+  w.table(
+    [
+      { head: 'Unit', width: 92 },
+      { head: 'Baseline', width: 128 },
+      { head: 'Hours [h]', width: 36, align: 'right' },
+      { head: 'Measured efficiency [%]', width: 66, align: 'right' },
+      { head: 'Expected efficiency [%]', width: 52, align: 'right' },
+      { head: 'Difference [pp]', width: 44, align: 'right' },
+      { head: 'Measured destruction [kW]', width: 52.28, align: 'right' },
+      { head: 'Expected destruction [kW]', width: 45, align: 'right' },
+    ],
+    r.efficiency.map((e) => [
+      e.name,
+      e.baseline ?? 'no active baseline',
+      String(e.hoursCompared),
+      e.measuredEfficiency === null ? '—' : pm(pct(e.measuredEfficiency), pct(e.measuredEfficiency_U)),
+      e.expectedEfficiency === null ? '—' : pct(e.expectedEfficiency),
+      e.measuredEfficiency !== null && e.expectedEfficiency !== null ? fixed((e.measuredEfficiency - e.expectedEfficiency) * 100, 1) : '—',
+      e.measuredDestruction_W === null ? '—' : pm(kW(e.measuredDestruction_W), kW(e.measuredDestruction_U_W)),
+      e.expectedDestruction_W === null ? '—' : kW(e.expectedDestruction_W),
+    ]),
+  );
+
+  // Notices.
+  w.heading('Drift notices', 'Opened in the month, or not yet closed. A notice is a sustained shift from the expected value: a prompt to look, not an alarm.');
+  if (!r.notices.length) w.para('No drift notices.');
+  else {
+    const at = (ms: number) => new Intl.DateTimeFormat('sv-SE', { timeZone: r.site.timeZone, dateStyle: 'short', timeStyle: 'short' }).format(ms);
+    w.table(
+      [
+        { head: 'Unit', width: 92 },
+        { head: 'Shift', width: 82 },
+        { head: 'Status', width: 58 },
+        { head: 'Onset (site time)', width: 68 },
+        { head: 'Signal (site time)', width: 68 },
+        { head: 'Extra destruction [kW]', width: 72.28, align: 'right' },
+        { head: `Extra cost [${cur}/day]`, width: 75, align: 'right' },
+      ],
+      r.notices.map((n) => [
+        n.unitName,
+        n.direction === 'up' ? 'more destruction than expected' : 'less destruction than expected',
+        n.status,
+        at(n.onsetMs),
+        at(n.signalMs),
+        pm(kW(n.extra_W), n.shiftU_W === null ? '' : kW(n.shiftU_W)) + (n.exceedsUncertainty === false ? ' (within uncertainty)' : ''),
+        fixed(n.extraCost_per_day, 0, true),
+      ]),
+    );
+  }
+
+  // Data quality.
+  w.heading('Data quality', 'Hours of the month by state for each unit; “no unit hour” means no data or not computed.');
+  w.table(
+    [
+      { head: 'Unit', width: 175 },
+      { head: 'Steady [h]', width: 68, align: 'right' },
+      { head: 'Unsettled [h]', width: 68, align: 'right' },
+      { head: 'Idle [h]', width: 68, align: 'right' },
+      { head: 'Suspect [h]', width: 68, align: 'right' },
+      { head: 'No unit hour [h]', width: 68.28, align: 'right' },
+    ],
+    r.quality.units.map((q) => [q.name, ...STATES.map((s) => String(q.hours[s])), String(q.noHour)]),
+  );
+  doc.moveDown(0.6);
+  w.font('bold', 9).text('Most frequent reasons for hours that are not steady', MARGIN, doc.y, { width: w.width });
+  doc.moveDown(0.3);
+  if (!r.quality.reasons.length) w.para('None: every hour with data was steady.');
+  else
+    w.table(
+      [
+        { head: 'Reason', width: 110 },
+        { head: 'Example', width: 345.28 },
+        { head: 'Hours [h]', width: 60, align: 'right' },
+      ],
+      r.quality.reasons.map((q) => [q.code, q.example, String(q.hours)]),
+    );
+
+  // Caution.
+  w.ensure(80);
+  doc.moveDown(1);
+  const y = doc.y;
+  w.font('regular', 8.5);
+  const h = doc.heightOfString(r.caution, { width: w.width - 24 }) + 28;
+  doc.save().rect(MARGIN, y, w.width, h).fillAndStroke(C.amberPale, C.amber).restore();
+  w.font('bold', 9).text('Caution', MARGIN + 12, y + 8, { width: w.width - 24 });
+  w.font('regular', 8.5).text(r.caution, MARGIN + 12, doc.y + 2, { width: w.width - 24 });
+
+  // Footer on every page.
+  const range = doc.bufferedPageRange();
+  for (let i = range.start; i < range.start + range.count; i++) {
+    doc.switchToPage(i);
+    const fy = doc.page.height - MARGIN + 6;
+    const keep = doc.page.margins.bottom;
+    doc.page.margins.bottom = 0;
+    w.font('regular', 7, C.faint).text(`Lossline · ${r.site.name} · ${r.period.label} · page ${i + 1} of ${range.count}`, MARGIN, fy, { width: w.width, align: 'right', lineBreak: false });
+    doc.page.margins.bottom = keep;
+  }
+  doc.end();
+  return doc;
+}
+
+/** The whole PDF in memory (for tests and small sites). */
+export function reportPdfBuffer(r: ReportData): Promise<Buffer> {
+  const doc = reportPdf(r);
+  return new Promise((resolve, reject) => {
+    const chunks: Buffer[] = [];
+    doc.on('data', (c: Buffer) => chunks.push(c));
+    doc.on('end', () => resolve(Buffer.concat(chunks)));
+    doc.on('error', reject);
+  });
+}

@@ -1,0 +1,179 @@
+/**
+ * The monthly site report: the loss ledger, each unit's efficiency against its baseline (measured
+ * mean against expected mean over the same steady hours), drift notices, a data-quality summary
+ * (hours by state, the most frequent reasons) and the caution of docs/domain.md section 8.
+ * ./report-csv.ts and ./report-pdf.ts write it out; this file only gathers the figures.
+ */
+import { and, asc, eq, gte, lt, sql } from 'drizzle-orm';
+import { db } from '../db/client';
+import { plantUnits, sites, unitHours, type HourState } from '../db/schema';
+import { PlantRuleError } from './plant-tx';
+import { isId } from './plant';
+import { localStamp, monthPeriod, type Period } from './views-period';
+import { expectedBand, siteNotices, type NoticeMark } from './views-insight';
+import { kindLabel, ledgerFrom, unitAggregates, type LedgerAnswer, type StateCounts } from './views';
+
+/** docs/domain.md section 8, as every report carries it. */
+export const REPORT_CAUTION =
+  'Steam, hot water, compressed gas and fuel systems can kill. Lossline is a monitoring aid: its drift notices are not alarms, ' +
+  'it is not a protective or control system, and its figures depend on the instruments behind them. Any intervention follows ' +
+  "the site's procedures, local codes and the judgement of licensed engineers.";
+
+/** How the report's uncertainties are to be read. */
+export const REPORT_UNCERTAINTY_NOTE =
+  'Only steady hours count in sums and means. Uncertainties are expanded (k = 2); for sums and means the hourly ' +
+  'uncertainties are added as fully correlated (instrument bias does not average out), which is the cautious reading.';
+
+export interface EfficiencyVsBaseline {
+  unitId: string;
+  name: string;
+  kindLabel: string;
+  baseline: string | null;
+  /** Steady hours with an expected value (the hours compared). */
+  hoursCompared: number;
+  /** Means over the compared hours: efficiency [-], destruction [W]; measured U is the mean hourly U. */
+  measuredEfficiency: number | null;
+  measuredEfficiency_U: number | null;
+  expectedEfficiency: number | null;
+  measuredDestruction_W: number | null;
+  measuredDestruction_U_W: number | null;
+  expectedDestruction_W: number | null;
+}
+
+export interface ReportData {
+  site: { id: string; name: string; timeZone: string; currency: string };
+  month: string;
+  period: Period;
+  generated: string;
+  ledger: Pick<LedgerAnswer, 'rows' | 'totals' | 'shareBasis'>;
+  efficiency: EfficiencyVsBaseline[];
+  notices: NoticeMark[];
+  quality: {
+    units: { unitId: string; name: string; hours: StateCounts; noHour: number }[];
+    reasons: { code: string; example: string; hours: number }[];
+  };
+  caution: string;
+  uncertaintyNote: string;
+}
+
+async function siteRow(siteId: string) {
+  if (!isId(siteId)) throw new PlantRuleError('NOT_FOUND', 'No such site.');
+  const [site] = await db().select().from(sites).where(eq(sites.id, siteId)).limit(1);
+  if (!site) throw new PlantRuleError('NOT_FOUND', 'No such site.');
+  return site;
+}
+
+function monthOrError(month: string, timeZone: string): Period {
+  try {
+    return monthPeriod(month, timeZone);
+  } catch (err) {
+    throw new PlantRuleError('VALIDATION_FAILED', (err as Error).message);
+  }
+}
+
+const mean = (xs: number[]) => (xs.length ? xs.reduce((a, b) => a + b, 0) / xs.length : null);
+
+/** Every figure of a site's report for a calendar month 'yyyy-MM' of the site. */
+export async function reportData(siteId: string, month: string, nowMs = Date.now()): Promise<ReportData> {
+  const site = await siteRow(siteId);
+  const period = monthOrError(month, site.timeZone);
+  const aggs = await unitAggregates(site.id, period.fromMs, period.toMs);
+  const ledger = ledgerFrom(aggs);
+
+  const units = await db().select({ id: plantUnits.id, name: plantUnits.name, kind: plantUnits.kind }).from(plantUnits).where(eq(plantUnits.siteId, site.id)).orderBy(asc(plantUnits.name));
+  const efficiency: EfficiencyVsBaseline[] = [];
+  for (const u of units) {
+    const hours = await db()
+      .select({ hourStart: unitHours.hourStart, load: unitHours.load, T0_K: unitHours.T0_K, efficiency: unitHours.efficiency, efficiency_U: unitHours.efficiency_U, destruction_W: unitHours.destruction_W, destruction_U_W: unitHours.destruction_U_W })
+      .from(unitHours)
+      .where(and(eq(unitHours.unitId, u.id), eq(unitHours.state, 'steady'), gte(unitHours.hourStart, new Date(period.fromMs)), lt(unitHours.hourStart, new Date(period.toMs))))
+      .orderBy(asc(unitHours.hourStart));
+    const { baseline, expected } = await expectedBand(u.id, hours);
+    const paired = hours.map((h, i) => ({ h, e: expected[i] })).filter((p) => p.e);
+    const pick = (f: (p: (typeof paired)[number]) => number | null | undefined) => mean(paired.map(f).filter((v): v is number => v !== null && v !== undefined));
+    const effPairs = paired.filter((p) => p.h.efficiency !== null && p.e!.efficiency !== null);
+    const pickEff = (f: (p: (typeof paired)[number]) => number | null | undefined) => mean(effPairs.map(f).filter((v): v is number => v !== null && v !== undefined));
+    efficiency.push({
+      unitId: u.id,
+      name: u.name,
+      kindLabel: kindLabel(u.kind),
+      baseline: baseline?.label ?? null,
+      hoursCompared: paired.length,
+      measuredEfficiency: pickEff((p) => p.h.efficiency),
+      measuredEfficiency_U: pickEff((p) => p.h.efficiency_U),
+      expectedEfficiency: pickEff((p) => p.e!.efficiency),
+      measuredDestruction_W: pick((p) => p.h.destruction_W),
+      measuredDestruction_U_W: pick((p) => p.h.destruction_U_W),
+      expectedDestruction_W: pick((p) => p.e!.destruction_W),
+    });
+  }
+
+  // Notices opened in the month, and those still not closed however old.
+  const touching = await siteNotices({ siteId: site.id, fromMs: period.fromMs, toMs: period.toMs });
+  const stillOpen = await siteNotices({ siteId: site.id, openOnly: true });
+  const notices = [...new Map([...touching, ...stillOpen].map((n) => [n.id, n])).values()].sort((a, b) => a.onsetMs - b.onsetMs);
+
+  const from = new Date(period.fromMs).toISOString();
+  const to = new Date(period.toMs).toISOString();
+  const reasonRows = await db().execute<{ code: string; example: string; hours: number }>(sql`
+    select r->>'code' as code, min(r->>'message') as example, count(distinct (h.unit_id, h.hour_start))::int as hours
+    from unit_hours h
+    join plant_units u on u.id = h.unit_id
+    cross join lateral jsonb_array_elements(h.reasons) r
+    where u.site_id = ${site.id} and h.state <> 'steady' and h.hour_start >= ${from}::timestamptz and h.hour_start < ${to}::timestamptz
+    group by r->>'code'
+    order by hours desc, code
+    limit 10`);
+
+  return {
+    site: { id: site.id, name: site.name, timeZone: site.timeZone, currency: site.currency },
+    month,
+    period,
+    generated: localStamp(nowMs, site.timeZone),
+    ledger,
+    efficiency,
+    notices,
+    quality: {
+      units: aggs.map((a) => {
+        const hours: StateCounts = { steady: a.steady, unsettled: a.unsettled, idle: a.idle, suspect: a.suspect };
+        const counted = a.steady + a.unsettled + a.idle + a.suspect;
+        return { unitId: a.unit_id, name: a.name, hours, noHour: Math.max(0, period.hours - counted) };
+      }),
+      reasons: reasonRows.rows.map((r) => ({ code: String(r.code ?? 'unspecified'), example: String(r.example ?? ''), hours: Number(r.hours) })),
+    },
+    caution: REPORT_CAUTION,
+    uncertaintyNote: REPORT_UNCERTAINTY_NOTE,
+  };
+}
+
+/** Months (yyyy-MM, the site's calendar) with unit hours at a site, newest first, with hours by state. */
+export async function reportMonths(siteId: string): Promise<{ site: { id: string; name: string; timeZone: string }; months: { month: string; label: string; hours: Record<HourState, number> }[] }> {
+  const site = await siteRow(siteId);
+  const res = await db().execute<{ month: string; state: HourState; n: number }>(sql`
+    select to_char(h.hour_start at time zone ${site.timeZone}, 'YYYY-MM') as month, h.state, count(*)::int as n
+    from unit_hours h join plant_units u on u.id = h.unit_id
+    where u.site_id = ${site.id}
+    group by 1, 2`);
+  const byMonth = new Map<string, Record<HourState, number>>();
+  for (const r of res.rows) {
+    const m = byMonth.get(r.month) ?? { steady: 0, unsettled: 0, idle: 0, suspect: 0 };
+    m[r.state] = Number(r.n);
+    byMonth.set(r.month, m);
+  }
+  const months = [...byMonth.entries()]
+    .sort((a, b) => b[0].localeCompare(a[0]))
+    .map(([month, hours]) => ({ month, label: monthPeriod(month, site.timeZone).label, hours }));
+  return { site: { id: site.id, name: site.name, timeZone: site.timeZone }, months };
+}
+
+/** A file name for the report: letters, digits and dashes only. */
+export function reportFileName(siteName: string, month: string, ext: 'pdf' | 'csv'): string {
+  const slug = siteName
+    .normalize('NFKD')
+    .replace(/[^\w\s-]/g, '')
+    .trim()
+    .replace(/[\s_]+/g, '-')
+    .toLowerCase()
+    .slice(0, 60);
+  return `lossline-report-${slug || 'site'}-${month}.${ext}`;
+}

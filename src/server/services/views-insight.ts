@@ -1,0 +1,134 @@
+/**
+ * What the views take from the insight work: the active baseline's expected band (./baselines.ts,
+ * expectedFor with k = 2) and drift notices (drift_notices), shaped for charts and reports.
+ */
+import { and, asc, eq, gte, inArray, lt, ne, or, isNull, sql } from 'drizzle-orm';
+import { db } from '../db/client';
+import { driftNotices, plantUnits } from '../db/schema';
+import { expectedFor, type BaselineSummary } from './baselines';
+
+/** The baseline named on every chart. */
+export interface BaselineInfo {
+  id: string;
+  version: number;
+  /** 'Baseline v3 (2026-01-05 to 2026-02-01)', dates in the site's time zone. */
+  label: string;
+  loadUnit: string | null;
+  hasEfficiency: boolean;
+  meetsGuideline14: boolean;
+  /** CV(RMSE) of the fits [-]. */
+  efficiencyCvRmse: number | null;
+  destructionCvRmse: number;
+}
+
+/** The baseline's prediction for one hour with its k = 2 band. Efficiency [-], destruction [W]. */
+export interface ExpectedHour {
+  efficiency: number | null;
+  efficiencyLo: number | null;
+  efficiencyHi: number | null;
+  destruction_W: number | null;
+  destructionLo_W: number | null;
+  destructionHi_W: number | null;
+}
+
+export function baselineInfo(b: BaselineSummary): BaselineInfo {
+  return {
+    id: b.id,
+    version: b.version,
+    label: b.label,
+    loadUnit: b.loadUnit,
+    hasEfficiency: b.efficiency !== null,
+    meetsGuideline14: b.meetsGuideline14,
+    efficiencyCvRmse: b.efficiency?.stats.cvRmse ?? null,
+    destructionCvRmse: b.destruction.stats.cvRmse,
+  };
+}
+
+/** Expected band for the given hours from the unit's active baseline; nulls when it has none. */
+export async function expectedBand(
+  unitId: string,
+  rows: { hourStart: Date; load: number | null; T0_K: number | null }[],
+): Promise<{ baseline: BaselineInfo | null; expected: (ExpectedHour | null)[] }> {
+  const { baseline, rows: out } = await expectedFor(unitId, rows);
+  if (!baseline) return { baseline: null, expected: rows.map(() => null) };
+  return {
+    baseline: baselineInfo(baseline),
+    expected: out.map((r) =>
+      r.efficiency || r.destruction_W
+        ? {
+            efficiency: r.efficiency?.expected ?? null,
+            efficiencyLo: r.efficiency?.lower ?? null,
+            efficiencyHi: r.efficiency?.upper ?? null,
+            destruction_W: r.destruction_W?.expected ?? null,
+            destructionLo_W: r.destruction_W?.lower ?? null,
+            destructionHi_W: r.destruction_W?.upper ?? null,
+          }
+        : null,
+    ),
+  };
+}
+
+/** A drift notice as the time axis and the report show it. */
+export interface NoticeMark {
+  id: string;
+  unitId: string;
+  unitName: string;
+  direction: 'up' | 'down';
+  status: 'open' | 'acknowledged' | 'closed';
+  onsetMs: number;
+  signalMs: number;
+  hours: number;
+  /** Mean measured minus expected destruction [W]. */
+  extra_W: number;
+  /** Uncertainty of that mean shift [W]; null when unknown. */
+  shiftU_W: number | null;
+  exceedsUncertainty: boolean | null;
+  extraCost_per_day: number | null;
+  currency: string;
+}
+
+/**
+ * Notices of some units (or of a site) that touch [fromMs, toMs): opened before its end and not closed
+ * before its start. `openOnly` keeps those not closed.
+ */
+export async function siteNotices(q: { siteId?: string; unitIds?: string[]; fromMs?: number; toMs?: number; openOnly?: boolean }): Promise<NoticeMark[]> {
+  const where = [];
+  if (q.siteId) where.push(eq(driftNotices.siteId, q.siteId));
+  if (q.unitIds) {
+    if (!q.unitIds.length) return [];
+    where.push(inArray(driftNotices.unitId, q.unitIds));
+  }
+  if (q.toMs !== undefined) where.push(lt(driftNotices.onsetHour, new Date(q.toMs)));
+  if (q.fromMs !== undefined) where.push(or(isNull(driftNotices.closedAt), gte(driftNotices.closedAt, new Date(q.fromMs)))!);
+  if (q.openOnly) where.push(ne(driftNotices.status, 'closed'));
+  const rows = await db()
+    .select({ n: driftNotices, unitName: plantUnits.name })
+    .from(driftNotices)
+    .innerJoin(plantUnits, eq(plantUnits.id, driftNotices.unitId))
+    .where(and(...where))
+    .orderBy(asc(driftNotices.onsetHour));
+  return rows.map(({ n, unitName }) => ({
+    id: n.id,
+    unitId: n.unitId,
+    unitName,
+    direction: n.direction,
+    status: n.status,
+    onsetMs: n.onsetHour.getTime(),
+    signalMs: n.signalHour.getTime(),
+    hours: n.hours,
+    extra_W: n.extra_W,
+    shiftU_W: n.shiftU_W,
+    exceedsUncertainty: n.exceedsUncertainty,
+    extraCost_per_day: n.extraCost_per_day,
+    currency: n.currency,
+  }));
+}
+
+/** Notices of a site that are not closed (open or acknowledged). */
+export async function openNoticeCount(siteId: string): Promise<number> {
+  const [r] = await db()
+    .select({ n: sql<number>`count(*)::int` })
+    .from(driftNotices)
+    .where(and(eq(driftNotices.siteId, siteId), ne(driftNotices.status, 'closed')));
+  return r?.n ?? 0;
+}

@@ -1,0 +1,157 @@
+/**
+ * Periods of the trend, ledger, flow and report views, in the site's own clock: a "day" is the site's
+ * local day (in Asia/Kolkata it starts at 18:30 UTC the day before), a week runs Monday to Monday, a
+ * month and a year are calendar ones; a custom period runs from the start of its first local day to
+ * the end of its last. Daylight-saving days are 23 or 25 hours long, as the clock on site says.
+ *
+ * Pure: no I/O. Instants are UTC milliseconds; periods are half-open [fromMs, toMs).
+ */
+import { TZDate } from '@date-fns/tz';
+import { addDays, addMonths, addWeeks, addYears, format, startOfDay, startOfMonth, startOfWeek, startOfYear } from 'date-fns';
+import { z } from 'zod';
+
+export const RANGES = ['day', 'week', 'month', 'year', 'custom'] as const;
+export type Range = (typeof RANGES)[number];
+
+/** Longest custom period [days]: a little over a year, so one request stays small. */
+export const CUSTOM_MAX_DAYS = 400;
+
+const localDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Give a date as yyyy-MM-dd (the site’s local date).');
+
+/** The period part of a view's query string. */
+export const PeriodQuery = z
+  .object({
+    range: z.enum(RANGES).default('week'),
+    /** A local date inside the period (day, week, month, year); today on site when left out. */
+    anchor: localDate.optional(),
+    /** Custom period: first and last local day, both included. */
+    from: localDate.optional(),
+    to: localDate.optional(),
+  })
+  .superRefine((q, ctx) => {
+    if (q.range === 'custom' && (!q.from || !q.to)) {
+      ctx.addIssue({ code: 'custom', path: ['from'], message: 'A custom period needs both from and to (yyyy-MM-dd).' });
+    }
+  });
+export type PeriodQuery = z.infer<typeof PeriodQuery>;
+
+export interface Period {
+  range: Range;
+  timeZone: string;
+  fromMs: number;
+  toMs: number;
+  /** Start and end as ISO instants (UTC). */
+  from: string;
+  to: string;
+  /** Local date of the period's first day, and of its last day (included). */
+  firstDay: string;
+  lastDay: string;
+  /** How people on site would name it: "Mon 4 Mar 2024", "Week of 4 Mar 2024", "March 2024", "2024". */
+  label: string;
+  /** Anchors of the period before and after (same range). For custom: the same length shifted. */
+  prevAnchor: string;
+  nextAnchor: string;
+  /** Length of the period [h] (23 or 25 on daylight-saving days). */
+  hours: number;
+}
+
+/** A query string as an object for PeriodQuery (only the keys it knows). */
+export function periodParams(url: URL): Record<string, string> {
+  const out: Record<string, string> = {};
+  for (const k of ['range', 'anchor', 'from', 'to']) {
+    const v = url.searchParams.get(k);
+    if (v !== null && v !== '') out[k] = v;
+  }
+  return out;
+}
+
+function atLocalDay(date: string, timeZone: string): TZDate {
+  const [y, m, d] = date.split('-').map(Number) as [number, number, number];
+  const t = new TZDate(y, m - 1, d, timeZone);
+  if (Number.isNaN(t.getTime()) || format(t, 'yyyy-MM-dd') !== date) throw new RangeError(`${date} is not a calendar date`);
+  return t;
+}
+
+const day = (t: Date) => format(t, 'yyyy-MM-dd');
+
+/**
+ * The period a query asks for, in the site's time zone.
+ * @param nowMs "now" [ms since epoch], for the default anchor (today on site)
+ * @throws RangeError for a date that is not on the calendar, a custom period that ends before it starts
+ *         or one longer than CUSTOM_MAX_DAYS
+ */
+export function resolvePeriod(q: PeriodQuery, timeZone: string, nowMs = Date.now()): Period {
+  const anchor = q.anchor ? atLocalDay(q.anchor, timeZone) : startOfDay(new TZDate(nowMs, timeZone));
+  let start: TZDate;
+  let end: TZDate;
+  let label: string;
+  let prev: Date;
+  let next: Date;
+  switch (q.range) {
+    case 'day':
+      start = startOfDay(anchor);
+      end = addDays(start, 1);
+      label = format(start, 'EEE d MMM yyyy');
+      prev = addDays(start, -1);
+      next = end;
+      break;
+    case 'week':
+      start = startOfWeek(anchor, { weekStartsOn: 1 });
+      end = addWeeks(start, 1);
+      label = `Week of ${format(start, 'd MMM yyyy')}`;
+      prev = addWeeks(start, -1);
+      next = end;
+      break;
+    case 'month':
+      start = startOfMonth(anchor);
+      end = addMonths(start, 1);
+      label = format(start, 'MMMM yyyy');
+      prev = addMonths(start, -1);
+      next = end;
+      break;
+    case 'year':
+      start = startOfYear(anchor);
+      end = addYears(start, 1);
+      label = format(start, 'yyyy');
+      prev = addYears(start, -1);
+      next = end;
+      break;
+    case 'custom': {
+      start = atLocalDay(q.from!, timeZone);
+      const last = atLocalDay(q.to!, timeZone);
+      if (last.getTime() < start.getTime()) throw new RangeError('The custom period ends before it starts.');
+      end = addDays(last, 1);
+      const days = Math.round((end.getTime() - start.getTime()) / 86_400_000);
+      if (days > CUSTOM_MAX_DAYS) throw new RangeError(`A custom period may span at most ${CUSTOM_MAX_DAYS} days; this one spans ${days}.`);
+      label = `${format(start, 'd MMM yyyy')} – ${format(last, 'd MMM yyyy')}`;
+      prev = addDays(start, -days);
+      next = end;
+      break;
+    }
+  }
+  return {
+    range: q.range,
+    timeZone,
+    fromMs: start.getTime(),
+    toMs: end.getTime(),
+    from: new Date(start.getTime()).toISOString(),
+    to: new Date(end.getTime()).toISOString(),
+    firstDay: day(start),
+    lastDay: day(addDays(end, -1)),
+    label,
+    prevAnchor: day(prev),
+    nextAnchor: day(next),
+    hours: Math.round((end.getTime() - start.getTime()) / 3_600_000),
+  };
+}
+
+/** A calendar month 'yyyy-MM' of the site as a period. */
+export function monthPeriod(month: string, timeZone: string): Period {
+  if (!/^\d{4}-(0[1-9]|1[0-2])$/.test(month)) throw new RangeError('Give the month as yyyy-MM.');
+  return resolvePeriod({ range: 'month', anchor: `${month}-01` }, timeZone);
+}
+
+/** The local date (yyyy-MM-dd) and hour label of an instant on site. */
+export function localStamp(ms: number, timeZone: string, pattern = 'yyyy-MM-dd HH:mm'): string {
+  return format(new TZDate(ms, timeZone), pattern);
+}
