@@ -23,9 +23,11 @@ import {
   type BaselineTerm,
   type Guideline14Check,
 } from '../../lib/analytics/baseline';
+import { QUEUES } from '../../jobs';
 import { db } from '../db/client';
 import { baselines, plantUnits, sites, unitHours, user, type BaselineStatus } from '../db/schema';
 import type { ErrorCode } from '../errors';
+import { queue } from '../queue';
 
 /** A rule of baselines, drift or notices was broken; code is one of src/server/errors.ts. */
 export class InsightError extends Error {
@@ -388,6 +390,9 @@ export async function acceptBaseline(baselineId: string, userId: string | null):
       .where(and(eq(baselines.unitId, b.unitId), eq(baselines.status, 'active')));
     await tx.update(baselines).set({ status: 'active', decidedBy: userId, decidedAt: new Date() }).where(eq(baselines.id, baselineId));
   });
+  // The hours after the reference period are checked against the new baseline right away.
+  const boss = await queue();
+  await boss.send(QUEUES.checkDrift, { siteId: b.siteId, fromMs: new Date(b.periodTo).getTime(), toMs: Math.ceil(Date.now() / 3_600_000) * 3_600_000, unitIds: [b.unitId] });
   return getBaseline(baselineId);
 }
 
