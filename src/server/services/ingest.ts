@@ -1,5 +1,7 @@
 import { GetObjectCommand } from '@aws-sdk/client-s3';
-import type { Readable } from 'node:stream';
+import { Readable } from 'node:stream';
+import { pipeline } from 'node:stream/promises';
+import { from as copyFrom } from 'pg-copy-streams';
 import { and, eq, sql } from 'drizzle-orm';
 import type pg from 'pg';
 import {
@@ -326,14 +328,7 @@ async function writeHours(client: pg.PoolClient, uploadId: string, rows: TagHour
     [params[1], params[2].reduce((a, b) => (a! < b! ? a : b)), params[2].reduce((a, b) => (a! > b! ? a : b)), params[2]],
   );
   if (clash.rowCount === 0) {
-    await client.query(
-      `insert into tag_hours (tag_id, hour_start, mean, min, max, std, first, last, samples, covered_fraction, covered_seconds,
-         non_numeric, out_of_range, flatline, span_start, span_end, upload_ids, flags, updated_at)
-       select tag_id, hour_start, mean, min, max, std, first, last, samples, covered_seconds / 3600.0, covered_seconds,
-         non_numeric, out_of_range, flatline, span_start, span_end, array[$1::uuid], flags::text[], now()
-       from ${UNNEST_HOURS}`,
-      params,
-    );
+    await copyNewHours(client, uploadId, rows, tagId);
     return 0;
   }
   const res = await client.query(
@@ -373,6 +368,47 @@ async function writeHours(client: pg.PoolClient, uploadId: string, rows: TagHour
     params,
   );
   return (res.rows[0] as { replaced: number }).replaced;
+}
+
+const copyNum = (v: number | null) => (v === null || !Number.isFinite(v) ? '\\N' : String(v));
+const copyTime = (ms: number | null) => (ms === null ? '\\N' : new Date(ms).toISOString());
+
+/** New hours go in by COPY (PostgreSQL's bulk path): several times faster than an INSERT. */
+async function copyNewHours(client: pg.PoolClient, uploadId: string, rows: TagHour[], tagId: Map<string, string>) {
+  const now = new Date().toISOString();
+  const lines: string[] = [];
+  for (const h of rows) {
+    lines.push(
+      [
+        tagId.get(h.tag),
+        copyTime(h.hourStartMs),
+        copyNum(h.mean),
+        copyNum(h.min),
+        copyNum(h.max),
+        copyNum(h.stdDev),
+        copyNum(h.first),
+        copyNum(h.last),
+        h.sampleCount,
+        copyNum(h.coveredSeconds / 3600),
+        copyNum(h.coveredSeconds),
+        h.nonNumericCount + h.badQualityCount,
+        h.outOfRangeCount,
+        h.flatline ? 't' : 'f',
+        copyTime(h.firstMs),
+        copyTime(h.lastMs),
+        `{${uploadId}}`,
+        flagsOf(h),
+        now,
+      ].join('\t'),
+    );
+  }
+  const sink = client.query(
+    copyFrom(
+      `copy tag_hours (tag_id, hour_start, mean, min, max, std, first, last, samples, covered_fraction, covered_seconds,
+         non_numeric, out_of_range, flatline, span_start, span_end, upload_ids, flags, updated_at) from stdin`,
+    ),
+  );
+  await pipeline(Readable.from([lines.join('\n') + '\n']), sink);
 }
 
 const UNNEST_HOURS = `unnest($2::uuid[], $3::timestamptz[], $4::float8[], $5::float8[], $6::float8[], $7::float8[], $8::float8[],
