@@ -9,6 +9,8 @@ export const QUEUES = {
   computeUnitHours: 'compute-unit-hours',
   checkDrift: 'check-drift',
   sendMail: 'send-mail',
+  /** Scheduled daily: one digest of drift notices not yet closed to each person who opted in. */
+  noticeDigest: 'notice-digest',
 } as const;
 
 export type QueueName = (typeof QUEUES)[keyof typeof QUEUES];
@@ -27,6 +29,8 @@ export const CheckDriftPayload = z.object({
   toMs: z.number().int(),
   unitIds: z.array(z.string().uuid()).optional(),
 });
+/** The scheduled digest run; `day` (yyyy-MM-dd, UTC) only when sent by hand. */
+export const NoticeDigestPayload = z.object({ day: z.string().regex(/^\d{4}-\d{2}-\d{2}$/).optional() });
 export const SendMailPayload = z.object({
   to: z.string().email(),
   subject: z.string().min(1),

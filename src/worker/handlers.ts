@@ -1,5 +1,7 @@
 import type PgBoss from 'pg-boss';
-import { IngestFilePayload, QUEUES } from '../jobs';
+import { CheckDriftPayload, IngestFilePayload, NoticeDigestPayload, QUEUES } from '../jobs';
+import { checkDrift } from '../server/services/drift';
+import { sendNoticeDigests } from '../server/services/notices';
 import { ingestUpload } from '../server/services/ingest';
 
 /** Job handlers beyond mail; each capability registers its queue here. */
@@ -9,4 +11,15 @@ export async function registerHandlers(boss: PgBoss): Promise<void> {
     const out = await ingestUpload(uploadId);
     console.log(`[worker] ingest ${uploadId}: ${out.kind}${'reason' in out ? ' - ' + out.reason : ''}`);
   });
+  // --- baselines and drift ---
+  await boss.work(QUEUES.checkDrift, { pollingIntervalSeconds: 1, batchSize: 1 }, async ([job]) => {
+    const out = await checkDrift(CheckDriftPayload.parse(job!.data));
+    const opened = out.flatMap((u) => u.opened);
+    if (opened.length) console.log(`[worker] check-drift: ${opened.length} notice(s) opened`);
+  });
+  await boss.work(QUEUES.noticeDigest, { pollingIntervalSeconds: 5, batchSize: 1 }, async ([job]) => {
+    const { day } = NoticeDigestPayload.parse(job!.data ?? {});
+    await sendNoticeDigests(day ? new Date(`${day}T12:00:00Z`) : new Date());
+  });
+  await boss.schedule(QUEUES.noticeDigest, '0 6 * * *', {}, { tz: 'UTC' });
 }

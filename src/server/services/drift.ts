@@ -1,0 +1,243 @@
+/**
+ * The drift check (job "check-drift"): per unit with an active baseline, the tabular CUSUM of Page
+ * (1954) on the residuals of exergy destruction against the baseline, normalised by the baseline's
+ * residual spread s, continued hour by hour from the state saved in drift_points. A signal opens a
+ * drift notice (one open per unit and direction) and queues its mail in the same transaction.
+ *
+ * Re-runs are idempotent: every steady hour has one row keyed by unit and hour; a check over hours
+ * that were already seen deletes the rows from the first affected hour on and recomputes them from
+ * the state just before, so changed earlier hours flow through and unchanged ones give the same rows.
+ */
+import { and, asc, desc, eq, gt, gte, inArray, isNotNull, lt, ne, sql } from 'drizzle-orm';
+import { z } from 'zod';
+import { CheckDriftPayload, QUEUES } from '../../jobs';
+import { predict, type BaselineModel } from '../../lib/analytics/baseline';
+import { cusumInit, cusumStep, type CusumState, type DriftSignal } from '../../lib/analytics/drift';
+import { baselines, driftPoints, driftSettings, plantUnits, unitHours } from '../db/schema';
+import { queue } from '../queue';
+import { db } from '../db/client';
+import { InsightError, isUuid } from './baselines';
+import { inInsightTx, type Tx } from './drift-tx';
+import { openOrAbsorbSignal, type SignalFigures } from './notices';
+
+const HOUR_ms = 3_600_000;
+
+/** CUSUM defaults (docs/domain.md section 7: k = 0.5 sigma, h = 4-5 sigma; Lossline takes 5). */
+export const DRIFT_DEFAULTS = { k: 0.5, h: 5 } as const;
+
+export const DriftSettingsInput = z.strictObject({
+  /** Reference value k in units of the residual spread s [-]. */
+  k: z.number().finite().min(0, 'k cannot be negative.').max(3, 'k above 3 s would hide most shifts.'),
+  /** Decision interval h in units of s [-]. */
+  h: z.number().finite().gt(0, 'h must be above zero.').max(20, 'h above 20 s would hardly ever signal.'),
+});
+
+/** A unit's CUSUM settings (the defaults when nobody changed them). */
+export async function driftSettingsFor(unitId: string, r: Pick<Tx, 'select'> = db()) {
+  if (!isUuid(unitId)) throw new InsightError('NOT_FOUND', 'No such unit.');
+  const [u] = await r.select({ id: plantUnits.id }).from(plantUnits).where(eq(plantUnits.id, unitId));
+  if (!u) throw new InsightError('NOT_FOUND', 'No such unit.');
+  const [s] = await r.select().from(driftSettings).where(eq(driftSettings.unitId, unitId));
+  return s ? { k: s.k, h: s.h, isDefault: false, updatedAt: s.updatedAt.toISOString() } : { ...DRIFT_DEFAULTS, isDefault: true, updatedAt: null };
+}
+
+/**
+ * Changes a unit's k and h. The saved CUSUM no longer matches, so the unit's drift rows are dropped
+ * and a check over all its hours is queued (open notices stay as they are).
+ */
+export async function setDriftSettings(unitId: string, input: z.infer<typeof DriftSettingsInput>, userId: string | null) {
+  await driftSettingsFor(unitId);
+  const [unit] = await db().select({ siteId: plantUnits.siteId }).from(plantUnits).where(eq(plantUnits.id, unitId));
+  await inInsightTx(async (tx, exec) => {
+    await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${'drift:' + unitId}))`);
+    await tx
+      .insert(driftSettings)
+      .values({ unitId, k: input.k, h: input.h, updatedBy: userId, updatedAt: new Date() })
+      .onConflictDoUpdate({ target: driftSettings.unitId, set: { k: input.k, h: input.h, updatedBy: userId, updatedAt: new Date() } });
+    await tx.delete(driftPoints).where(eq(driftPoints.unitId, unitId));
+    const boss = await queue();
+    await boss.send(QUEUES.checkDrift, { siteId: unit!.siteId, fromMs: 0, toMs: Math.ceil(Date.now() / HOUR_ms) * HOUR_ms, unitIds: [unitId] }, { db: { executeSql: exec as never } });
+  });
+  return driftSettingsFor(unitId);
+}
+
+export interface UnitCheck {
+  unitId: string;
+  /** 'no-baseline' when the unit has no active baseline (nothing to compare with). */
+  outcome: 'checked' | 'no-baseline';
+  /** Steady hours (re)computed in this run. */
+  hours: number;
+  signals: number;
+  /** Notices opened by this run. */
+  opened: string[];
+}
+
+/**
+ * Checks the units of a site (or the listed ones) over the hours of the payload and everything after
+ * them. Safe to repeat and to run concurrently (a per-unit advisory lock orders two checks of a unit).
+ */
+export async function checkDrift(payload: z.infer<typeof CheckDriftPayload>): Promise<UnitCheck[]> {
+  const p = CheckDriftPayload.parse(payload);
+  const unitIds = p.unitIds?.length
+    ? (await db().select({ id: plantUnits.id }).from(plantUnits).where(and(eq(plantUnits.siteId, p.siteId), inArray(plantUnits.id, p.unitIds)))).map((u) => u.id)
+    : (await db().select({ id: plantUnits.id }).from(plantUnits).where(eq(plantUnits.siteId, p.siteId)).orderBy(asc(plantUnits.name))).map((u) => u.id);
+  const out: UnitCheck[] = [];
+  for (const unitId of unitIds) out.push(await checkUnit(unitId, p.fromMs));
+  return out;
+}
+
+interface PendingPoint {
+  hourStart: Date;
+  step: number;
+  state: CusumState;
+  signals: DriftSignal[];
+}
+
+/** One unit: resume from the last row before the first affected hour and run to the last hour. */
+export async function checkUnit(unitId: string, fromMs: number): Promise<UnitCheck> {
+  return inInsightTx(async (tx, exec) => {
+    await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${'drift:' + unitId}))`);
+    const [b] = await tx
+      .select({ id: baselines.id, periodTo: baselines.periodTo, model: baselines.destructionModel })
+      .from(baselines)
+      .where(and(eq(baselines.unitId, unitId), eq(baselines.status, 'active')));
+    if (!b) return { unitId, outcome: 'no-baseline', hours: 0, signals: 0, opened: [] };
+    const settings = await driftSettingsFor(unitId, tx);
+    const model = b.model as BaselineModel;
+    const s = model.stats.s;
+
+    // Rows of an earlier baseline say nothing about this one.
+    await tx.delete(driftPoints).where(and(eq(driftPoints.unitId, unitId), ne(driftPoints.baselineId, b.id)));
+    const from = new Date(Math.max(Math.floor(fromMs / HOUR_ms) * HOUR_ms, b.periodTo.getTime()));
+    const [prev] = await tx
+      .select()
+      .from(driftPoints)
+      .where(and(eq(driftPoints.unitId, unitId), lt(driftPoints.hourStart, from)))
+      .orderBy(desc(driftPoints.hourStart))
+      .limit(1);
+    await tx.delete(driftPoints).where(and(eq(driftPoints.unitId, unitId), gte(driftPoints.hourStart, from)));
+
+    const after = prev ? prev.hourStart : new Date(b.periodTo.getTime() - 1);
+    const hours = await tx
+      .select({
+        hourStart: unitHours.hourStart,
+        load: unitHours.load,
+        T0_K: unitHours.T0_K,
+        destruction_W: unitHours.destruction_W,
+        destructionU_W: unitHours.destruction_U_W,
+        destructionCost_per_h: unitHours.destructionCost_per_h,
+      })
+      .from(unitHours)
+      .where(
+        and(
+          eq(unitHours.unitId, unitId),
+          eq(unitHours.state, 'steady'),
+          gt(unitHours.hourStart, after),
+          gte(unitHours.hourStart, b.periodTo),
+          isNotNull(unitHours.load),
+          isNotNull(unitHours.T0_K),
+          isNotNull(unitHours.destruction_W),
+        ),
+      )
+      .orderBy(asc(unitHours.hourStart));
+
+    let state: CusumState = prev ? { step: prev.step, cPlus: prev.cPlus, cMinus: prev.cMinus, nPlus: prev.nPlus, nMinus: prev.nMinus } : cusumInit();
+    const options = { k: settings.k, h: settings.h, resetOnSignal: true };
+    const rows: (typeof driftPoints.$inferInsert)[] = [];
+    const pending: PendingPoint[] = [];
+    for (const h of hours) {
+      const expected_W = predict(model, h.load!, h.T0_K!);
+      const residual_W = h.destruction_W! - expected_W;
+      const x = residual_W / s;
+      const r = cusumStep(state, x, options);
+      state = r.state;
+      rows.push({
+        unitId,
+        hourStart: h.hourStart,
+        baselineId: b.id,
+        step: state.step,
+        destruction_W: h.destruction_W!,
+        expected_W,
+        residual_W,
+        x,
+        // The state the next hour continues from (after a reset on a signal); the crossing itself is
+        // in the notice.
+        cPlus: state.cPlus,
+        cMinus: state.cMinus,
+        nPlus: state.nPlus,
+        nMinus: state.nMinus,
+        destructionU_W: h.destructionU_W,
+        destructionCost_per_h: h.destructionCost_per_h,
+      });
+      if (r.point.signals.length) pending.push({ hourStart: h.hourStart, step: state.step, state, signals: r.point.signals });
+    }
+    for (let i = 0; i < rows.length; i += 1000) await tx.insert(driftPoints).values(rows.slice(i, i + 1000));
+
+    const opened: string[] = [];
+    let signals = 0;
+    for (const p of pending) {
+      for (const sig of p.signals) {
+        signals++;
+        const figures = await signalFigures(tx, unitId, sig, settings);
+        const id = await openOrAbsorbSignal(tx, exec, { unitId, baselineId: b.id, ...figures });
+        if (id) opened.push(id);
+      }
+    }
+    return { unitId, outcome: 'checked', hours: rows.length, signals, opened };
+  });
+}
+
+/**
+ * The figures of a signal from the hours between its onset and the signal: mean residual (the extra
+ * destruction), mean expected, the mean expanded uncertainty of one hour and of the mean.
+ */
+async function signalFigures(tx: Tx, unitId: string, sig: DriftSignal, settings: { k: number; h: number }): Promise<Omit<SignalFigures, 'unitId' | 'baselineId'>> {
+  const [a] = await tx
+    .select({
+      n: sql<number>`count(*)::int`,
+      onset: sql<string>`min(${driftPoints.hourStart})`,
+      signal: sql<string>`max(${driftPoints.hourStart})`,
+      extra_W: sql<number>`avg(${driftPoints.residual_W})`,
+      expected_W: sql<number>`avg(${driftPoints.expected_W})`,
+      measured_W: sql<number>`avg(${driftPoints.destruction_W})`,
+      hourU_W: sql<number | null>`case when count(${driftPoints.destructionU_W}) = count(*) then avg(${driftPoints.destructionU_W}) end`,
+      cost_per_h: sql<number | null>`sum(${driftPoints.destructionCost_per_h}) filter (where ${driftPoints.destructionCost_per_h} is not null)`,
+      costed_J: sql<number | null>`sum(${driftPoints.destruction_W} * 3600) filter (where ${driftPoints.destructionCost_per_h} is not null)`,
+    })
+    .from(driftPoints)
+    .where(and(eq(driftPoints.unitId, unitId), gte(driftPoints.step, sig.onsetStep), sql`${driftPoints.step} <= ${sig.step}`));
+  const n = a!.n;
+  const hourU_W = a!.hourU_W === null ? null : Number(a!.hourU_W);
+  return {
+    direction: sig.direction,
+    onsetHour: new Date(a!.onset),
+    signalHour: new Date(a!.signal),
+    hours: n,
+    extra_W: Number(a!.extra_W),
+    expected_W: Number(a!.expected_W),
+    measured_W: Number(a!.measured_W),
+    shift_sigma: sig.shift_sigma,
+    hourU_W,
+    unitCost: a!.cost_per_h !== null && Number(a!.costed_J) > 0 ? Number(a!.cost_per_h) / Number(a!.costed_J) : null,
+    k: settings.k,
+    h: settings.h,
+  };
+}
+
+/** The unit's drift rows in a window, oldest first (for the notice chart). */
+export async function driftSeries(unitId: string, from: Date, to: Date, limit = 600) {
+  return db()
+    .select({
+      hourStart: driftPoints.hourStart,
+      residual_W: driftPoints.residual_W,
+      x: driftPoints.x,
+      cPlus: driftPoints.cPlus,
+      cMinus: driftPoints.cMinus,
+      expected_W: driftPoints.expected_W,
+      destruction_W: driftPoints.destruction_W,
+    })
+    .from(driftPoints)
+    .where(and(eq(driftPoints.unitId, unitId), gte(driftPoints.hourStart, from), lt(driftPoints.hourStart, to)))
+    .orderBy(asc(driftPoints.hourStart))
+    .limit(limit);
+}
