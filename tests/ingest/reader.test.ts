@@ -197,6 +197,30 @@ describe('createRowReader', () => {
     expect(report.tags.map((t) => t.valueCount)).toEqual([4, 1]);
   });
 
+  it('a cell with text after its closing quote is read with the text kept and warned about', () => {
+    const text = 'Time,B1.FT-101,B1.TT-102\n2024-03-05 10:00:00,"12"5,"1,5"\n2024-03-05 10:01:00,"13"x,2\n2024-03-05 10:02:00,14,3\n';
+    const p = sniffLayout(text);
+    for (const chunk of [text.length, 5, 1]) {
+      const got: [number, number][] = [];
+      const rejected: RejectedCell[] = [];
+      const r = createRowReader(p, {
+        timeZone: 'UTC',
+        sink: { addTag() {}, addRow: (_t, values, status) => got.push([values[0], status[0]]), addSample() {} },
+        onRejectedCell: (c) => rejected.push(c),
+      });
+      for (let o = 0; o < text.length; o += chunk) r.push(text.slice(o, o + chunk));
+      const report = r.end();
+      expect(got, `chunks of ${chunk}`).toEqual([
+        [125, CellStatus.Ok],
+        [NaN, CellStatus.Text],
+        [14, CellStatus.Ok],
+      ]);
+      expect(rejected.map((c) => [c.line, c.text])).toEqual([[3, '13x']]);
+      expect(report.warnings.find((w) => w.code === 'MALFORMED_QUOTES')).toMatchObject({ count: 2 });
+      expect(report.dataRowCount).toBe(3);
+    }
+  });
+
   it('refuses an invalid profile and an unknown time zone', () => {
     const sink = { addTag() {}, addRow() {}, addSample() {} };
     const p = fixtureProfile('wide-units.csv');
