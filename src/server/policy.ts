@@ -51,6 +51,16 @@ export const API_POLICY: Record<string, RoutePolicy> = {
   '/api/v1/sites/[siteId]/model': { methods: { GET: ANY_ROLE, PUT: ADMIN }, apiToken: true },
   // --- engine ---
   // --- baselines and drift ---
+  '/api/units/[unitId]/baselines': { methods: { GET: ANY_ROLE, POST: LEADS } },
+  '/api/baselines/[baselineId]': { methods: { GET: ANY_ROLE } },
+  '/api/baselines/[baselineId]/accept': { methods: { POST: LEADS } },
+  '/api/baselines/[baselineId]/discard': { methods: { POST: LEADS } },
+  '/api/units/[unitId]/drift-settings': { methods: { GET: ANY_ROLE, PUT: LEADS } },
+  '/api/notices': { methods: { GET: ANY_ROLE } },
+  '/api/notices/preferences': { methods: { GET: ['admin', 'energy-lead', 'planner'], PUT: ['admin', 'energy-lead', 'planner'] } },
+  '/api/notices/[noticeId]': { methods: { GET: ANY_ROLE } },
+  '/api/notices/[noticeId]/acknowledge': { methods: { POST: ['admin', 'energy-lead', 'planner'] } },
+  '/api/notices/[noticeId]/close': { methods: { POST: ['admin', 'energy-lead', 'planner'] } },
   // --- trends, ledger, reports ---
   '/api/units/[unitId]/trend': { methods: { GET: ANY_ROLE } },
   '/api/sites/[siteId]/ledger': { methods: { GET: ANY_ROLE } },
@@ -74,6 +84,11 @@ export const PAGE_POLICY: Record<string, Admit> = {
   '/plant/[...rest]': ANY_ROLE,
   // --- engine ---
   // --- baselines and drift ---
+  '/baselines': ANY_ROLE,
+  '/baselines/new': LEADS,
+  '/baselines/[baselineId]': ANY_ROLE,
+  '/notices': ANY_ROLE,
+  '/notices/[noticeId]': ANY_ROLE,
   // --- trends, ledger, reports ---
 };
 

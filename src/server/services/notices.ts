@@ -6,14 +6,14 @@
  */
 import { TZDate } from '@date-fns/tz';
 import { format } from 'date-fns';
-import { and, asc, desc, eq, gte, inArray, ne, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, gte, inArray, lt, ne, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import { z } from 'zod';
 import { QUEUES } from '../../jobs';
 import { extraDestructionCost_per_day, fuelExergyCost_per_J } from '../../lib/analytics/cost';
 import type { Role } from '../../lib/roles';
 import { db } from '../db/client';
-import { baselines, driftNotices, noticeDigests, noticeMails, noticePreferences, plantUnits, sites, user, type NoticeStatus } from '../db/schema';
+import { baselines, driftNotices, driftPoints, noticeDigests, noticeMails, noticePreferences, plantUnits, sites, user, type NoticeStatus } from '../db/schema';
 import { env } from '../env';
 import { escapeHtml } from '../mail';
 import { queue } from '../queue';
@@ -267,6 +267,36 @@ export async function getNotice(noticeId: string): Promise<NoticeView> {
   const [r] = await noticeQuery().where(eq(driftNotices.id, noticeId));
   if (!r) throw new InsightError('NOT_FOUND', 'No such drift notice.');
   return toView(r);
+}
+
+/** Hours of context drawn before the onset and after the latest signal on a notice's chart. */
+const CHART_MARGIN_ms = 72 * 3_600_000;
+
+/**
+ * A notice with its caution and the unit's drift rows around it: residual [W], normalised residual
+ * and the CUSUM sums (in units of s) as saved after each hour.
+ */
+export async function noticeDetail(noticeId: string) {
+  const notice = await getNotice(noticeId);
+  const from = new Date(new Date(notice.onsetHour).getTime() - CHART_MARGIN_ms);
+  const to = new Date(new Date(notice.lastSignalHour).getTime() + CHART_MARGIN_ms);
+  const rows = await db()
+    .select({
+      hourStart: driftPoints.hourStart,
+      residual_W: driftPoints.residual_W,
+      x: driftPoints.x,
+      cPlus: driftPoints.cPlus,
+      cMinus: driftPoints.cMinus,
+    })
+    .from(driftPoints)
+    .where(and(eq(driftPoints.unitId, notice.unitId), gte(driftPoints.hourStart, from), lt(driftPoints.hourStart, to)))
+    .orderBy(asc(driftPoints.hourStart))
+    .limit(1000);
+  return {
+    notice,
+    caution: NOTICE_CAUTION,
+    series: rows.map((r) => ({ hourStart: r.hourStart.toISOString(), residual_W: r.residual_W, x: r.x, cPlus: r.cPlus, cMinus: r.cMinus })),
+  };
 }
 
 // ---- acting --------------------------------------------------------------------------------------
