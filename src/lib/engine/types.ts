@@ -1,0 +1,136 @@
+/**
+ * What the hourly engine takes and gives, as plain data. Pure: the server reads the plant model and
+ * the tag hours from the database and hands them over in these shapes.
+ */
+import type { EnergyPrice, Fluid as PlantFluid, FuelDefinition } from '../plant/model';
+import type { LinkQuantity, ParamValue, UnitKind as PlantKind } from '../plant/kinds';
+
+/** A unit of the plant model (src/lib/plant), parameters in SI keyed as in the catalogue. */
+export interface EngineUnit {
+  id: string;
+  name: string;
+  kind: PlantKind;
+  parameters: Readonly<Record<string, ParamValue>>;
+  /** boilers: the fuel definition */
+  fuel: FuelDefinition | null;
+  ports: readonly EnginePort[];
+}
+
+export interface EnginePort {
+  name: string;
+  /** the kind's port slot ('inlet', 'exhaust' ...) */
+  slot: string;
+  fluid: PlantFluid | null;
+  /** heat ports: fixed boundary temperature [K] */
+  boundaryT_K: number | null;
+  /** control volumes: 'fuel' | 'product' | 'loss' */
+  account: string | null;
+}
+
+/** A tag link version (src/server/services/plant-links.ts ResolvedLink, times in ms). */
+export interface EngineLink {
+  id: string;
+  /** null: a measurement of the unit itself (power) */
+  portName: string | null;
+  quantity: LinkQuantity;
+  tagName: string;
+  /** engineering unit of the tag ('barg', 'degC', 't/h' ...) */
+  engUnit: string;
+  basis: 'dry' | 'wet' | null;
+  /** 'absolute': in engUnit; 'relative': percent of reading */
+  uncertaintyMode: 'absolute' | 'relative';
+  uncertainty: number;
+  /** valid range in engUnit */
+  validMin: number | null;
+  validMax: number | null;
+  validFromMs: number;
+  /** null while current */
+  validToMs: number | null;
+}
+
+/** A tag's statistics for one hour, in the tag's engineering unit (src/server/db/ingest-schema.ts). */
+export interface TagHour {
+  mean: number | null;
+  min: number | null;
+  max: number | null;
+  std: number | null;
+  samples: number;
+  coveredFraction: number;
+  nonNumeric: number;
+  outOfRange: number;
+  flatline: boolean;
+}
+
+/** What of the site the engine needs. */
+export interface EngineSite {
+  /** atmospheric pressure for gauge readings [Pa] */
+  p_atm_Pa: number;
+  /** dead state: fixed, or the fallback when the ambient tag has no value [K], [Pa] */
+  T0_K: number;
+  p0_Pa: number;
+  /** ambient-temperature tag for an hourly T0 */
+  t0Tag: { name: string; engUnit: string } | null;
+  currency: string;
+  prices: readonly EnergyPrice[];
+}
+
+/** For a flue-gas port outside a boiler: the boiler it comes from (fuel and O2 link). */
+export interface FlueGasSource {
+  fuel: FuelDefinition | null;
+  o2Link: EngineLink | null;
+}
+
+/** The unit cost of a unit's fuel exergy for one hour, and where it comes from. */
+export interface CostBasis {
+  /** [currency/J] */
+  cF_per_J: number;
+  /** in words, for the audit trail */
+  basis: string;
+}
+
+/** Everything one unit hour needs. */
+export interface UnitHourInput {
+  unit: EngineUnit;
+  /** the unit's link versions holding at the hour's start */
+  links: readonly EngineLink[];
+  /** tag hours of the hour by tag name (the unit's tags, the ambient tag, flue-gas source O2 tags) */
+  tagHours: ReadonlyMap<string, TagHour>;
+  site: EngineSite;
+  hourStartMs: number;
+  /** null: no price to cost the destruction with */
+  cost: CostBasis | null;
+  /** flue-gas ports outside a boiler, by the boiler's name */
+  flueGasSources?: Readonly<Record<string, FlueGasSource>>;
+}
+
+export type EngineHourState = 'steady' | 'unsettled' | 'idle' | 'suspect';
+
+/** A reason for an hour's state, most severe first when listed. */
+export interface EngineReason {
+  code: string;
+  message: string;
+  tag?: string;
+}
+
+/** One unit hour as the engine computes it (the unit_hours row, src/server/db/results-schema.ts). */
+export interface UnitHourResult {
+  state: EngineHourState;
+  reasons: EngineReason[];
+  load: number | null;
+  loadUnit: 'W' | 'kg/s' | null;
+  T0_K: number;
+  p0_Pa: number;
+  fuel_W: number | null;
+  product_W: number | null;
+  loss_W: number | null;
+  destruction_W: number | null;
+  efficiency: number | null;
+  efficiency_U: number | null;
+  destruction_U_W: number | null;
+  closure_pct: number | null;
+  entropyGeneration_W_per_K: number | null;
+  destructionCost_per_h: number | null;
+  detail: Record<string, unknown>;
+  modelVersion: string;
+  inputsHash: string;
+}

@@ -1,0 +1,419 @@
+/**
+ * The hourly exergy engine's I/O: works the `compute-unit-hours` job. Reads the plant model, the link
+ * versions and the tag hours of a site month by month (one transaction per month, memory flat), runs
+ * the pure engine (src/lib/engine) per unit and hour, and writes only the unit hours whose inputs hash
+ * changed; then sends `check-drift` for the units and hours it touched.
+ *
+ * Order within an hour: boilers first, so that the steam's cost of that hour (the boilers' product
+ * cost, src/lib/engine/cost.ts) is known to the units downstream. A job that recomputes a boiler
+ * recomputes every unit of the site (their cost depends on it); unchanged hours are skipped anyway.
+ */
+import { and, asc, eq, gte, inArray, lt, sql } from 'drizzle-orm';
+import { CheckDriftPayload, ComputeUnitHoursPayload, QUEUES } from '../../jobs';
+import {
+  computeUnitHour,
+  costKindOf,
+  electricityCost,
+  fuelExergyCost,
+  steamCost,
+  type BoilerHour,
+  type CostBasis,
+  type EngineLink,
+  type EngineSite,
+  type EngineUnit,
+  type FlueGasSource,
+  type TagHour,
+  type UnitHourResult,
+} from '../../lib/engine';
+import type { UnitKind } from '../../lib/plant/kinds';
+import type { Fluid } from '../../lib/plant/model';
+import { db } from '../db/client';
+import { plantPorts, plantUnits, sites, tagHours, tags, unitHours } from '../db/schema';
+import { queue } from '../queue';
+import { linksForRange, type ResolvedLink } from './plant-links';
+import type { Tx } from './plant-tx';
+
+const HOUR_ms = 3_600_000;
+/** Rows per INSERT ... ON CONFLICT statement. */
+const WRITE_BATCH = 200;
+
+export interface ComputeOptions {
+  /** propagate uncertainties (default true) */
+  uncertainty?: boolean;
+  /** send check-drift for what was written (default true) */
+  sendDrift?: boolean;
+}
+
+export interface ComputeSummary {
+  siteId: string;
+  /** unit hours computed */
+  computed: number;
+  /** rows written (new or changed inputs) */
+  written: number;
+  /** rows whose inputs hash was unchanged (left as they were) */
+  unchanged: number;
+  /** months worked, each in its own transaction */
+  chunks: number;
+  /** hours written, as a range, and the units concerned; null when nothing changed */
+  touched: { fromMs: number; toMs: number; unitIds: string[] } | null;
+}
+
+/** The first instant of the UTC month after t [ms]. */
+function nextMonth(t: number): number {
+  const d = new Date(t);
+  return Date.UTC(d.getUTCFullYear(), d.getUTCMonth() + 1, 1);
+}
+
+function toEngineLink(l: ResolvedLink): EngineLink {
+  return {
+    id: l.id,
+    portName: l.portName,
+    quantity: l.quantity,
+    tagName: l.tagName,
+    engUnit: l.engUnit,
+    basis: l.basis,
+    uncertaintyMode: l.uncertaintyMode,
+    uncertainty: l.uncertainty,
+    validMin: l.validMin,
+    validMax: l.validMax,
+    validFromMs: l.validFrom.getTime(),
+    validToMs: l.validTo ? l.validTo.getTime() : null,
+  };
+}
+
+const holdsAt = (l: { validFromMs: number; validToMs: number | null }, t: number) => l.validFromMs <= t && (l.validToMs === null || l.validToMs > t);
+
+interface SiteContext {
+  site: typeof sites.$inferSelect;
+  engineSite: EngineSite;
+  t0Tag: { id: string; name: string } | null;
+  units: EngineUnit[];
+  unitIds: Set<string>;
+  boilers: EngineUnit[];
+}
+
+async function siteContext(siteId: string, r: Tx | ReturnType<typeof db> = db()): Promise<SiteContext | null> {
+  const [site] = await r.select().from(sites).where(eq(sites.id, siteId)).limit(1);
+  if (!site) return null;
+  const unitRows = await r.select().from(plantUnits).where(eq(plantUnits.siteId, siteId)).orderBy(asc(plantUnits.name));
+  const portRows = unitRows.length
+    ? await r
+        .select()
+        .from(plantPorts)
+        .where(inArray(plantPorts.unitId, unitRows.map((u) => u.id)))
+        .orderBy(asc(plantPorts.position), asc(plantPorts.name))
+    : [];
+  let t0Tag: SiteContext['t0Tag'] = null;
+  if (site.t0TagId) {
+    const [t] = await r.select({ id: tags.id, name: tags.name }).from(tags).where(eq(tags.id, site.t0TagId)).limit(1);
+    if (t) t0Tag = t;
+  }
+  const units: EngineUnit[] = unitRows.map((u) => ({
+    id: u.id,
+    name: u.name,
+    kind: u.kind as UnitKind,
+    parameters: u.parameters,
+    fuel: u.fuel ?? null,
+    ports: portRows
+      .filter((p) => p.unitId === u.id)
+      .map((p) => ({ name: p.name, slot: p.slot, fluid: (p.fluid as Fluid | null) ?? null, boundaryT_K: p.boundaryT_K, account: p.account })),
+  }));
+  return {
+    site,
+    engineSite: {
+      p_atm_Pa: site.p_atm_Pa,
+      T0_K: site.T0_K,
+      p0_Pa: site.p0_Pa,
+      t0Tag: t0Tag ? { name: t0Tag.name, engUnit: site.t0TagUnit ?? 'degC' } : null,
+      currency: site.currency,
+      prices: site.prices,
+    },
+    t0Tag,
+    units,
+    unitIds: new Set(units.map((u) => u.id)),
+    boilers: units.filter((u) => u.kind === 'boiler'),
+  };
+}
+
+/** [first, last] hour with tag hours or unit hours of the site within [from, to), or null. */
+async function dataSpan(siteId: string, unitIds: string[], fromMs: number, toMs: number): Promise<[number, number] | null> {
+  const from = new Date(fromMs);
+  const to = new Date(toMs);
+  const a = await db().execute<{ lo: Date | null; hi: Date | null }>(
+    sql`select min(th.hour_start) as lo, max(th.hour_start) as hi from tag_hours th join tags t on t.id = th.tag_id
+        where t.site_id = ${siteId} and th.hour_start >= ${from.toISOString()}::timestamptz and th.hour_start < ${to.toISOString()}::timestamptz`,
+  );
+  const b = unitIds.length
+    ? await db().execute<{ lo: Date | null; hi: Date | null }>(
+        sql`select min(hour_start) as lo, max(hour_start) as hi from unit_hours
+            where unit_id in (${sql.join(
+              unitIds.map((u) => sql`${u}::uuid`),
+              sql`, `,
+            )}) and hour_start >= ${from.toISOString()}::timestamptz and hour_start < ${to.toISOString()}::timestamptz`,
+      )
+    : { rows: [] };
+  const ts = [...a.rows, ...b.rows].flatMap((r) => [r.lo, r.hi]).filter((v): v is Date => v !== null).map((v) => new Date(v).getTime());
+  if (!ts.length) return null;
+  return [Math.min(...ts), Math.max(...ts) + 1];
+}
+
+type TagHourRow = TagHour & { hourStart: Date; tagId: string };
+
+/**
+ * Computes and stores the unit hours of a site over [fromMs, toMs) (hour starts), for the given units
+ * or all of them. Idempotent: an hour whose inputs hash is unchanged is not written again.
+ */
+export async function computeUnitHours(payload: { siteId: string; fromMs: number; toMs: number; unitIds?: string[] }, options: ComputeOptions = {}): Promise<ComputeSummary> {
+  const p = ComputeUnitHoursPayload.parse(payload);
+  const summary: ComputeSummary = { siteId: p.siteId, computed: 0, written: 0, unchanged: 0, chunks: 0, touched: null };
+  const ctx = await siteContext(p.siteId);
+  if (!ctx) return summary;
+  let targets = ctx.units;
+  if (p.unitIds?.length) {
+    const wanted = new Set(p.unitIds);
+    const touchesBoiler = ctx.boilers.some((b) => wanted.has(b.id));
+    targets = touchesBoiler ? ctx.units : ctx.units.filter((u) => wanted.has(u.id));
+  }
+  if (!targets.length) return summary;
+  // Boilers first: their hours price the steam of the units downstream.
+  targets = [...targets].sort((a, b) => Number(b.kind === 'boiler') - Number(a.kind === 'boiler'));
+  const span = await dataSpan(p.siteId, targets.map((u) => u.id), Math.floor(p.fromMs / HOUR_ms) * HOUR_ms, p.toMs);
+  if (!span) return summary;
+  const [lo, hi] = [Math.max(span[0], p.fromMs), Math.min(span[1], p.toMs)];
+  const touchedUnits = new Set<string>();
+  let tFrom = Infinity;
+  let tTo = -Infinity;
+  for (let a = lo; a < hi; ) {
+    const b = Math.min(nextMonth(a), hi);
+    const out = await computeChunk(ctx, targets, a, b, options.uncertainty ?? true);
+    summary.chunks++;
+    summary.computed += out.computed;
+    summary.written += out.written;
+    summary.unchanged += out.computed - out.written;
+    for (const u of out.units) touchedUnits.add(u);
+    if (out.written) {
+      tFrom = Math.min(tFrom, out.fromMs);
+      tTo = Math.max(tTo, out.toMs);
+    }
+    a = b;
+  }
+  if (touchedUnits.size) {
+    summary.touched = { fromMs: tFrom, toMs: tTo, unitIds: [...touchedUnits] };
+    if (options.sendDrift ?? true) {
+      const boss = await queue();
+      await boss.send(QUEUES.checkDrift, CheckDriftPayload.parse({ siteId: p.siteId, ...summary.touched }), { retryLimit: 2, retryDelay: 10 });
+    }
+  }
+  return summary;
+}
+
+/** One month of one site: read, compute, write in one transaction. */
+async function computeChunk(ctx: SiteContext, targets: EngineUnit[], fromMs: number, toMs: number, withU: boolean) {
+  return db().transaction(async (tx) => {
+    await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${'lossline-engine:' + ctx.site.id}))`);
+    const from = new Date(fromMs);
+    const to = new Date(toMs);
+    const all = await linksForRange(ctx.site.id, from, to, tx);
+    const linksByUnit = new Map<string, { link: EngineLink; tagId: string }[]>();
+    for (const l of all) {
+      const list = linksByUnit.get(l.unitId) ?? [];
+      list.push({ link: toEngineLink(l), tagId: l.tagId });
+      linksByUnit.set(l.unitId, list);
+    }
+    // Flue-gas ports outside boilers take the fuel and O2 of the boiler they come from.
+    const o2ByBoiler = new Map<string, { link: EngineLink; tagId: string }[]>();
+    for (const b of ctx.boilers) o2ByBoiler.set(b.name, (linksByUnit.get(b.id) ?? []).filter((x) => x.link.quantity === 'o2Fraction'));
+
+    const elec = electricityCost(ctx.site.prices, ctx.site.currency);
+    const fuelCostCache = new Map<string, CostBasis | null>();
+    const fuelCost = (b: EngineUnit, T0: number) => {
+      const k = `${b.id}|${T0}`;
+      if (!fuelCostCache.has(k)) fuelCostCache.set(k, fuelExergyCost(ctx.site.prices, b.fuel, ctx.site.currency, T0));
+      return fuelCostCache.get(k)!;
+    };
+    // Boiler hours of this month: computed below, or as stored when the job leaves the boilers alone.
+    const boilerHours = new Map<number, BoilerHour[]>();
+    const boilerIds = new Set(ctx.boilers.map((b) => b.id));
+    const stored = ctx.boilers.filter((b) => !targets.includes(b));
+    if (stored.length && targets.some((u) => costKindOf(u) === 'steam')) {
+      const rows = await tx
+        .select({ unitId: unitHours.unitId, hourStart: unitHours.hourStart, fuel_W: unitHours.fuel_W, product_W: unitHours.product_W, T0_K: unitHours.T0_K })
+        .from(unitHours)
+        .where(and(inArray(unitHours.unitId, stored.map((b) => b.id)), gte(unitHours.hourStart, from), lt(unitHours.hourStart, to)));
+      for (const r of rows) {
+        const b = stored.find((x) => x.id === r.unitId)!;
+        const list = boilerHours.get(r.hourStart.getTime()) ?? [];
+        list.push({ name: b.name, fuel_W: r.fuel_W, product_W: r.product_W, cF_per_J: fuelCost(b, r.T0_K ?? ctx.site.T0_K)?.cF_per_J ?? null });
+        boilerHours.set(r.hourStart.getTime(), list);
+      }
+    }
+    const firstBoiler = ctx.boilers[0];
+
+    let computed = 0;
+    let written = 0;
+    let wFrom = Infinity;
+    let wTo = -Infinity;
+    const units: string[] = [];
+    for (const unit of targets) {
+      const own = linksByUnit.get(unit.id) ?? [];
+      const flueGasSources: Record<string, FlueGasSource> = {};
+      const extraTagIds: string[] = [];
+      for (const port of unit.ports) {
+        const fluid = port.fluid;
+        if (fluid?.kind === 'flue-gas' && fluid.fuelFrom && unit.kind !== 'boiler') {
+          const src = ctx.boilers.find((b) => b.name === fluid.fuelFrom);
+          const o2 = src ? (o2ByBoiler.get(src.name) ?? []) : [];
+          flueGasSources[fluid.fuelFrom] = { fuel: src?.fuel ?? null, o2Link: o2[0]?.link ?? null };
+          extraTagIds.push(...o2.map((x) => x.tagId));
+        }
+      }
+      const ownTagIds = [...new Set(own.map((x) => x.tagId))];
+      const tagIds = [...new Set([...ownTagIds, ...extraTagIds, ...(ctx.t0Tag ? [ctx.t0Tag.id] : [])])];
+      const thRows: TagHourRow[] = tagIds.length
+        ? await tx
+            .select({
+              tagId: tagHours.tagId,
+              hourStart: tagHours.hourStart,
+              mean: tagHours.mean,
+              min: tagHours.min,
+              max: tagHours.max,
+              std: tagHours.std,
+              samples: tagHours.samples,
+              coveredFraction: tagHours.coveredFraction,
+              nonNumeric: tagHours.nonNumeric,
+              outOfRange: tagHours.outOfRange,
+              flatline: tagHours.flatline,
+            })
+            .from(tagHours)
+            .where(and(inArray(tagHours.tagId, tagIds), gte(tagHours.hourStart, from), lt(tagHours.hourStart, to)))
+        : [];
+      const existing = await tx
+        .select({ hourStart: unitHours.hourStart, inputsHash: unitHours.inputsHash })
+        .from(unitHours)
+        .where(and(eq(unitHours.unitId, unit.id), gte(unitHours.hourStart, from), lt(unitHours.hourStart, to)));
+      const known = new Map(existing.map((r) => [r.hourStart.getTime(), r.inputsHash]));
+      const tagName = new Map<string, string>();
+      for (const x of own) tagName.set(x.tagId, x.link.tagName);
+      for (const o of o2ByBoiler.values()) for (const x of o) tagName.set(x.tagId, x.link.tagName);
+      if (ctx.t0Tag) tagName.set(ctx.t0Tag.id, ctx.t0Tag.name);
+      const ownSet = new Set(ownTagIds);
+      const byHour = new Map<number, Map<string, TagHour>>();
+      const hours = new Set<number>(known.keys());
+      for (const r of thRows) {
+        const t = r.hourStart.getTime();
+        if (ownSet.has(r.tagId)) hours.add(t);
+        let m = byHour.get(t);
+        if (!m) byHour.set(t, (m = new Map()));
+        m.set(tagName.get(r.tagId)!, {
+          mean: r.mean,
+          min: r.min,
+          max: r.max,
+          std: r.std,
+          samples: r.samples,
+          coveredFraction: r.coveredFraction,
+          nonNumeric: r.nonNumeric,
+          outOfRange: r.outOfRange,
+          flatline: r.flatline,
+        });
+      }
+      const rows: (typeof unitHours.$inferInsert)[] = [];
+      const now = new Date();
+      for (const t of [...hours].sort((x, y) => x - y)) {
+        const links = own.filter((x) => holdsAt(x.link, t)).map((x) => x.link);
+        if (!links.length && !known.has(t)) continue;
+        const th = byHour.get(t) ?? new Map<string, TagHour>();
+        const srcs: Record<string, FlueGasSource> = {};
+        for (const [k, v] of Object.entries(flueGasSources)) {
+          const b = ctx.boilers.find((x) => x.name === k);
+          const o2 = b ? (o2ByBoiler.get(b.name) ?? []).find((x) => holdsAt(x.link, t)) : undefined;
+          srcs[k] = { fuel: v.fuel, o2Link: o2?.link ?? null };
+        }
+        // The fuel's exergy/LHV ratio is taken at the site's T0 (it moves by less than 0.1 % over the seasons).
+        const T0guess = ctx.engineSite.T0_K;
+        let cost: CostBasis | null = null;
+        const ck = costKindOf(unit);
+        if (ck === 'electricity') cost = elec;
+        else if (ck === 'own-fuel') cost = fuelCost(unit, T0guess);
+        else {
+          const fb = firstBoiler ? fuelCost(firstBoiler, T0guess) : null;
+          cost = ck === 'steam' ? steamCost(boilerHours.get(t) ?? [], fb, ctx.site.currency) : fb;
+        }
+        const res: UnitHourResult = computeUnitHour(
+          { unit, links, tagHours: th, site: ctx.engineSite, hourStartMs: t, cost, flueGasSources: Object.keys(srcs).length ? srcs : undefined },
+          { uncertainty: withU },
+        );
+        computed++;
+        if (boilerIds.has(unit.id)) {
+          const list = boilerHours.get(t) ?? [];
+          list.push({ name: unit.name, fuel_W: res.fuel_W, product_W: res.product_W, cF_per_J: cost?.cF_per_J ?? null });
+          boilerHours.set(t, list);
+        }
+        if (known.get(t) === res.inputsHash) continue;
+        rows.push({
+          unitId: unit.id,
+          hourStart: new Date(t),
+          state: res.state,
+          reasons: res.reasons,
+          load: res.load,
+          loadUnit: res.loadUnit,
+          T0_K: res.T0_K,
+          p0_Pa: res.p0_Pa,
+          fuel_W: res.fuel_W,
+          product_W: res.product_W,
+          loss_W: res.loss_W,
+          destruction_W: res.destruction_W,
+          efficiency: res.efficiency,
+          efficiency_U: res.efficiency_U,
+          destruction_U_W: res.destruction_U_W,
+          closure_pct: res.closure_pct,
+          entropyGeneration_W_per_K: res.entropyGeneration_W_per_K,
+          destructionCost_per_h: res.destructionCost_per_h,
+          detail: res.detail,
+          modelVersion: res.modelVersion,
+          inputsHash: res.inputsHash,
+          computedAt: now,
+        });
+        wFrom = Math.min(wFrom, t);
+        wTo = Math.max(wTo, t + HOUR_ms);
+      }
+      for (let i = 0; i < rows.length; i += WRITE_BATCH) {
+        await tx
+          .insert(unitHours)
+          .values(rows.slice(i, i + WRITE_BATCH))
+          .onConflictDoUpdate({
+            target: [unitHours.unitId, unitHours.hourStart],
+            set: {
+              state: sql`excluded.state`,
+              reasons: sql`excluded.reasons`,
+              load: sql`excluded.load`,
+              loadUnit: sql`excluded.load_unit`,
+              T0_K: sql`excluded.t0_k`,
+              p0_Pa: sql`excluded.p0_pa`,
+              fuel_W: sql`excluded.fuel_w`,
+              product_W: sql`excluded.product_w`,
+              loss_W: sql`excluded.loss_w`,
+              destruction_W: sql`excluded.destruction_w`,
+              efficiency: sql`excluded.efficiency`,
+              efficiency_U: sql`excluded.efficiency_u`,
+              destruction_U_W: sql`excluded.destruction_u_w`,
+              closure_pct: sql`excluded.closure_pct`,
+              entropyGeneration_W_per_K: sql`excluded.entropy_generation_w_per_k`,
+              destructionCost_per_h: sql`excluded.destruction_cost_per_h`,
+              detail: sql`excluded.detail`,
+              modelVersion: sql`excluded.model_version`,
+              inputsHash: sql`excluded.inputs_hash`,
+              computedAt: sql`excluded.computed_at`,
+            },
+          });
+      }
+      written += rows.length;
+      if (rows.length) units.push(unit.id);
+    }
+    return { computed, written, units, fromMs: wFrom, toMs: wTo };
+  });
+}
+
+/** The worker's handler of `compute-unit-hours`. */
+export async function handleComputeUnitHours(data: unknown): Promise<ComputeSummary> {
+  return computeUnitHours(ComputeUnitHoursPayload.parse(data));
+}
