@@ -1,6 +1,7 @@
 import type PgBoss from 'pg-boss';
 import { CheckDriftPayload, IngestFilePayload, NoticeDigestPayload, QUEUES } from '../jobs';
 import { checkDrift } from '../server/services/drift';
+import { handleComputeUnitHours } from '../server/services/engine';
 import { sendNoticeDigests } from '../server/services/notices';
 import { ingestUpload } from '../server/services/ingest';
 
@@ -10,6 +11,11 @@ export async function registerHandlers(boss: PgBoss): Promise<void> {
     const { uploadId } = IngestFilePayload.parse(job!.data);
     const out = await ingestUpload(uploadId);
     console.log(`[worker] ingest ${uploadId}: ${out.kind}${'reason' in out ? ' - ' + out.reason : ''}`);
+  });
+  // --- engine ---
+  await boss.work(QUEUES.computeUnitHours, { pollingIntervalSeconds: 1, batchSize: 1 }, async ([job]) => {
+    const out = await handleComputeUnitHours(job!.data);
+    if (out.computed) console.log(`[worker] compute-unit-hours ${out.siteId}: ${out.computed} unit hours, ${out.written} written, ${out.unchanged} unchanged`);
   });
   // --- baselines and drift ---
   await boss.work(QUEUES.checkDrift, { pollingIntervalSeconds: 1, batchSize: 1 }, async ([job]) => {
