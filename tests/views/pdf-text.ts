@@ -28,17 +28,18 @@ export function pdfText(pdf: Buffer): string {
   const cmapOf = new Map<number, Map<string, string>>();
   const parseCmap = (text: string) => {
     const map = new Map<string, string>();
-    const hexToStr = (h: string) => String.fromCodePoint(...(h.match(/.{4}/g) ?? []).map((x) => parseInt(x, 16)));
+    // A target may hold several code points, written with or without spaces: <0066 0069> is "fi".
+    const hexToStr = (h: string) => String.fromCodePoint(...(h.replace(/\s+/g, '').match(/.{4}/g) ?? []).map((x) => parseInt(x, 16)));
     for (const block of text.matchAll(/beginbfchar([\s\S]*?)endbfchar/g)) {
-      for (const p of block[1]!.matchAll(/<([0-9a-fA-F]+)>\s*<([0-9a-fA-F]+)>/g)) map.set(p[1]!.toLowerCase(), hexToStr(p[2]!));
+      for (const p of block[1]!.matchAll(/<([0-9a-fA-F]+)>\s*<([0-9a-fA-F\s]+)>/g)) map.set(p[1]!.toLowerCase(), hexToStr(p[2]!));
     }
     for (const block of text.matchAll(/beginbfrange([\s\S]*?)endbfrange/g)) {
-      for (const p of block[1]!.matchAll(/<([0-9a-fA-F]+)>\s*<([0-9a-fA-F]+)>\s*(<[0-9a-fA-F]+>|\[[^\]]*\])/g)) {
+      for (const p of block[1]!.matchAll(/<([0-9a-fA-F]+)>\s*<([0-9a-fA-F]+)>\s*(<[0-9a-fA-F\s]+>|\[[^\]]*\])/g)) {
         const a = parseInt(p[1]!, 16);
         const b = parseInt(p[2]!, 16);
         const width = p[1]!.length;
         if (p[3]!.startsWith('[')) {
-          const list = [...p[3]!.matchAll(/<([0-9a-fA-F]+)>/g)].map((x) => hexToStr(x[1]!));
+          const list = [...p[3]!.matchAll(/<([0-9a-fA-F\s]+)>/g)].map((x) => hexToStr(x[1]!));
           for (let i = a; i <= b; i++) map.set(i.toString(16).padStart(width, '0'), list[i - a] ?? '');
         } else {
           const first = parseInt(p[3]!.slice(1, -1), 16);

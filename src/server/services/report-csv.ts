@@ -76,12 +76,13 @@ export function reportCsvLines(r: ReportData): string[] {
   out.push(line('', 'site total', '', fixed(t.destruction_MWh, dMWh), fixed(t.destruction_U_MWh, dMWh), fixed(t.cost, 2), fixed(t.cost_U, 2), t.cost !== null || t.destruction_MWh > 0 ? '100.0' : '', '', '', ...STATES.map((s) => t.hours[s]), ''));
   out.push('');
 
-  out.push(line('Efficiency against baseline (means over the steady hours that have an expected value)'));
+  out.push(line('Efficiency against baseline (means over the steady hours that have an expected value; over all steady hours when the unit has no baseline)'));
   out.push(
     line(
       'unit',
       'kind',
       'baseline',
+      'steady hours [h]',
       'hours compared [h]',
       'measured efficiency [%]',
       'measured efficiency U (k=2) [%]',
@@ -99,6 +100,7 @@ export function reportCsvLines(r: ReportData): string[] {
         e.name,
         e.kindLabel,
         e.baseline ?? 'no active baseline',
+        e.steadyHours,
         e.hoursCompared,
         fixed(e.measuredEfficiency === null ? null : e.measuredEfficiency * 100, 2),
         fixed(e.measuredEfficiency_U === null ? null : e.measuredEfficiency_U * 100, 2),

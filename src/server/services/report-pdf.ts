@@ -110,7 +110,7 @@ class Writer {
     const { doc } = this;
     const pad = 3;
     const size = 7.8;
-    const headSize = 7.2;
+    const headSize = 6.8;
     const head = () => {
       this.font('bold', headSize, C.soft);
       const h = Math.max(...cols.map((c) => doc.heightOfString(c.head, { width: c.width - 2 * pad }))) + 2 * pad;
@@ -171,6 +171,17 @@ export function reportPdf(r: ReportData): PDFKit.PDFDocument {
   doc.moveDown(0.5);
   w.para(r.uncertaintyNote, 7.8, C.faint);
 
+  // Caution.
+  doc.moveDown(0.6);
+  const y = doc.y;
+  w.font('regular', 8.5);
+  const h = doc.heightOfString(r.caution, { width: w.width - 24 }) + 28;
+  doc.save().rect(MARGIN, y, w.width, h).fillAndStroke(C.amberPale, C.amber).restore();
+  w.font('bold', 9).text('Caution', MARGIN + 12, y + 8, { width: w.width - 24 });
+  w.font('regular', 8.5).text(r.caution, MARGIN + 12, doc.y + 2, { width: w.width - 24 });
+  doc.y = y + h;
+  doc.x = MARGIN;
+
   // Ledger.
   const t = r.ledger.totals;
   const rows = r.ledger.rows;
@@ -183,17 +194,17 @@ export function reportPdf(r: ReportData): PDFKit.PDFDocument {
   else
     w.table(
       [
-        { head: '#', width: 20, align: 'right' },
-        { head: 'Unit', width: 92 },
-        { head: 'Kind', width: 62 },
-        { head: 'Destruction [MWh]', width: 70, align: 'right' },
-        { head: `Cost [${cur}]`, width: 70, align: 'right' },
-        { head: 'Share [%]', width: 38, align: 'right' },
-        { head: 'Efficiency [%]', width: 63, align: 'right' },
-        { head: 'Steady [h]', width: 25, align: 'right' },
-        { head: 'Unsettled [h]', width: 25, align: 'right' },
-        { head: 'Idle [h]', width: 22, align: 'right' },
-        { head: 'Suspect [h]', width: 28.28, align: 'right' },
+        { head: '#', width: 16, align: 'right' },
+        { head: 'Unit', width: 88 },
+        { head: 'Kind', width: 54 },
+        { head: 'Destruction [MWh]', width: 64, align: 'right' },
+        { head: `Cost [${cur}]`, width: 54, align: 'right' },
+        { head: 'Share [%]', width: 34, align: 'right' },
+        { head: 'Efficiency [%]', width: 54.28, align: 'right' },
+        { head: 'Steady [h]', width: 37, align: 'right' },
+        { head: 'Unsettled [h]', width: 39, align: 'right' },
+        { head: 'Idle [h]', width: 36, align: 'right' },
+        { head: 'Suspect [h]', width: 39, align: 'right' },
       ],
       rows.map((x) => [
         String(x.rank),
@@ -251,7 +262,7 @@ export function reportPdf(r: ReportData): PDFKit.PDFDocument {
     [
       { head: 'Unit', width: 92 },
       { head: 'Baseline', width: 128 },
-      { head: 'Hours [h]', width: 36, align: 'right' },
+      { head: 'Hours compared [h]', width: 36, align: 'right' },
       { head: 'Measured efficiency [%]', width: 66, align: 'right' },
       { head: 'Expected efficiency [%]', width: 52, align: 'right' },
       { head: 'Difference [pp]', width: 44, align: 'right' },
@@ -260,8 +271,8 @@ export function reportPdf(r: ReportData): PDFKit.PDFDocument {
     ],
     r.efficiency.map((e) => [
       e.name,
-      e.baseline ?? 'no active baseline',
-      String(e.hoursCompared),
+      e.baseline ?? 'no active baseline (measured over all steady hours)',
+      `${e.hoursCompared} of ${e.steadyHours}`,
       e.measuredEfficiency === null ? '—' : pm(pct(e.measuredEfficiency), pct(e.measuredEfficiency_U)),
       e.expectedEfficiency === null ? '—' : pct(e.expectedEfficiency),
       e.measuredEfficiency !== null && e.expectedEfficiency !== null ? fixed((e.measuredEfficiency - e.expectedEfficiency) * 100, 1) : '—',
@@ -323,16 +334,6 @@ export function reportPdf(r: ReportData): PDFKit.PDFDocument {
       ],
       r.quality.reasons.map((q) => [q.code, q.example, String(q.hours)]),
     );
-
-  // Caution.
-  w.ensure(80);
-  doc.moveDown(1);
-  const y = doc.y;
-  w.font('regular', 8.5);
-  const h = doc.heightOfString(r.caution, { width: w.width - 24 }) + 28;
-  doc.save().rect(MARGIN, y, w.width, h).fillAndStroke(C.amberPale, C.amber).restore();
-  w.font('bold', 9).text('Caution', MARGIN + 12, y + 8, { width: w.width - 24 });
-  w.font('regular', 8.5).text(r.caution, MARGIN + 12, doc.y + 2, { width: w.width - 24 });
 
   // Footer on every page.
   const range = doc.bufferedPageRange();

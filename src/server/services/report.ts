@@ -29,9 +29,13 @@ export interface EfficiencyVsBaseline {
   name: string;
   kindLabel: string;
   baseline: string | null;
+  steadyHours: number;
   /** Steady hours with an expected value (the hours compared). */
   hoursCompared: number;
-  /** Means over the compared hours: efficiency [-], destruction [W]; measured U is the mean hourly U. */
+  /**
+   * Means over the compared hours (over every steady hour when there is no baseline): efficiency [-],
+   * destruction [W]; measured U is the mean hourly U.
+   */
   measuredEfficiency: number | null;
   measuredEfficiency_U: number | null;
   expectedEfficiency: number | null;
@@ -90,21 +94,23 @@ export async function reportData(siteId: string, month: string, nowMs = Date.now
       .orderBy(asc(unitHours.hourStart));
     const { baseline, expected } = await expectedBand(u.id, hours);
     const paired = hours.map((h, i) => ({ h, e: expected[i] })).filter((p) => p.e);
-    const pick = (f: (p: (typeof paired)[number]) => number | null | undefined) => mean(paired.map(f).filter((v): v is number => v !== null && v !== undefined));
-    const effPairs = paired.filter((p) => p.h.efficiency !== null && p.e!.efficiency !== null);
-    const pickEff = (f: (p: (typeof paired)[number]) => number | null | undefined) => mean(effPairs.map(f).filter((v): v is number => v !== null && v !== undefined));
+    // Without a baseline the measured means still stand, over every steady hour.
+    const basis = paired.length ? paired : hours.map((h) => ({ h, e: null }));
+    const m = (list: typeof basis, f: (p: (typeof basis)[number]) => number | null | undefined) => mean(list.map(f).filter((v): v is number => v !== null && v !== undefined));
+    const effBasis = basis.filter((p) => p.h.efficiency !== null && (!p.e || p.e.efficiency !== null));
     efficiency.push({
       unitId: u.id,
       name: u.name,
       kindLabel: kindLabel(u.kind),
       baseline: baseline?.label ?? null,
+      steadyHours: hours.length,
       hoursCompared: paired.length,
-      measuredEfficiency: pickEff((p) => p.h.efficiency),
-      measuredEfficiency_U: pickEff((p) => p.h.efficiency_U),
-      expectedEfficiency: pickEff((p) => p.e!.efficiency),
-      measuredDestruction_W: pick((p) => p.h.destruction_W),
-      measuredDestruction_U_W: pick((p) => p.h.destruction_U_W),
-      expectedDestruction_W: pick((p) => p.e!.destruction_W),
+      measuredEfficiency: m(effBasis, (p) => p.h.efficiency),
+      measuredEfficiency_U: m(effBasis, (p) => p.h.efficiency_U),
+      expectedEfficiency: m(effBasis, (p) => p.e?.efficiency),
+      measuredDestruction_W: m(basis, (p) => p.h.destruction_W),
+      measuredDestruction_U_W: m(basis, (p) => p.h.destruction_U_W),
+      expectedDestruction_W: m(basis, (p) => p.e?.destruction_W),
     });
   }
 
