@@ -17,7 +17,10 @@ export const NAV: readonly NavItem[] = [
   // --- plant model ---
   { href: '/plant', label: 'Plant model', roles: ['admin', 'energy-lead', 'operator', 'planner'] },
   // --- engine ---
+  { href: '/units', label: 'Unit results', roles: ['admin', 'energy-lead', 'operator', 'planner'] },
   // --- baselines and drift ---
+  { href: '/baselines', label: 'Baselines', roles: ['admin', 'energy-lead', 'operator', 'planner'] },
+  { href: '/notices', label: 'Drift notices', roles: ['admin', 'energy-lead', 'operator', 'planner'] },
   // --- trends, ledger, reports ---
   { href: '/admin/users', label: 'People', roles: ['admin'] },
   { href: '/admin/tokens', label: 'API tokens', roles: ['admin'] },

@@ -1,0 +1,153 @@
+import { useEffect, useState } from 'react';
+
+export type Range = 'day' | 'week' | 'month' | 'year' | 'custom';
+export interface PeriodValue {
+  range: Range;
+  anchor?: string;
+  from?: string;
+  to?: string;
+}
+/** What the server answered for the period (src/server/services/views-period.ts). */
+export interface PeriodInfo {
+  range: Range;
+  label: string;
+  firstDay: string;
+  lastDay: string;
+  prevAnchor: string;
+  nextAnchor: string;
+  hours: number;
+  timeZone: string;
+}
+
+const RANGES: { key: Range; label: string }[] = [
+  { key: 'day', label: 'Day' },
+  { key: 'week', label: 'Week' },
+  { key: 'month', label: 'Month' },
+  { key: 'year', label: 'Year' },
+  { key: 'custom', label: 'Custom' },
+];
+
+/** The period as query parameters of the views' API. */
+export function periodQuery(v: PeriodValue): string {
+  const p = new URLSearchParams({ range: v.range });
+  if (v.range === 'custom') {
+    if (v.from) p.set('from', v.from);
+    if (v.to) p.set('to', v.to);
+  } else if (v.anchor) p.set('anchor', v.anchor);
+  return p.toString();
+}
+
+/** Reads a period from the page's query string. */
+export function periodFromSearch(search: string, fallback: Range = 'week'): PeriodValue {
+  const p = new URLSearchParams(search);
+  const r = p.get('range');
+  const range: Range = r === 'day' || r === 'week' || r === 'month' || r === 'year' || r === 'custom' ? r : fallback;
+  return { range, anchor: p.get('anchor') ?? undefined, from: p.get('from') ?? undefined, to: p.get('to') ?? undefined };
+}
+
+/** Keeps the page's address in step with the chosen period (so a reload or a shared link shows the same). */
+export function syncSearch(extra: Record<string, string | undefined>, v: PeriodValue) {
+  const url = new URL(window.location.href);
+  for (const k of ['range', 'anchor', 'from', 'to']) url.searchParams.delete(k);
+  for (const [k, val] of new URLSearchParams(periodQuery(v))) url.searchParams.set(k, val);
+  for (const [k, val] of Object.entries(extra)) {
+    if (val) url.searchParams.set(k, val);
+    else url.searchParams.delete(k);
+  }
+  window.history.replaceState(null, '', url);
+}
+
+/** Day, week, month, year or custom, in the site's clock, with earlier and later steps. */
+export function PeriodPicker({ value, info, onChange }: { value: PeriodValue; info: PeriodInfo | null; onChange: (v: PeriodValue) => void }) {
+  const [from, setFrom] = useState(value.from ?? info?.firstDay ?? '');
+  const [to, setTo] = useState(value.to ?? info?.lastDay ?? '');
+  useEffect(() => {
+    if (value.range === 'custom') return;
+    if (info) {
+      setFrom(info.firstDay);
+      setTo(info.lastDay);
+    }
+  }, [info, value.range]);
+
+  const pick = (range: Range) => {
+    if (range === 'custom') onChange({ range, from: from || info?.firstDay, to: to || info?.lastDay });
+    else onChange({ range, anchor: value.range === 'custom' ? (value.from ?? info?.firstDay) : (value.anchor ?? info?.firstDay) });
+  };
+  const step = (dir: -1 | 1) => {
+    if (!info) return;
+    if (value.range === 'custom') {
+      const days = Math.round(info.hours / 24);
+      const shift = (d: string, n: number) => {
+        const t = new Date(`${d}T00:00:00Z`);
+        t.setUTCDate(t.getUTCDate() + n);
+        return t.toISOString().slice(0, 10);
+      };
+      onChange({ range: 'custom', from: shift(info.firstDay, dir * days), to: shift(info.lastDay, dir * days) });
+    } else onChange({ range: value.range, anchor: dir < 0 ? info.prevAnchor : info.nextAnchor });
+  };
+
+  return (
+    <div className="flex flex-wrap items-end gap-3" data-testid="period-picker">
+      <div role="group" aria-label="Range" className="inline-flex overflow-hidden rounded border border-ink/20">
+        {RANGES.map((r) => (
+          <button
+            key={r.key}
+            type="button"
+            aria-pressed={value.range === r.key}
+            onClick={() => pick(r.key)}
+            className={`px-3 py-1.5 text-sm font-medium ${value.range === r.key ? 'bg-ink text-paper' : 'bg-white text-ink hover:bg-paper-deep'}`}
+          >
+            {r.label}
+          </button>
+        ))}
+      </div>
+      <div className="inline-flex items-center gap-1">
+        <button type="button" className="btn" onClick={() => step(-1)} disabled={!info} aria-label="Earlier period">
+          ← Earlier
+        </button>
+        <button type="button" className="btn" onClick={() => step(1)} disabled={!info} aria-label="Later period">
+          Later →
+        </button>
+        {value.range !== 'custom' && (
+          <button type="button" className="btn" onClick={() => onChange({ range: value.range })}>
+            Now
+          </button>
+        )}
+      </div>
+      {value.range === 'custom' && (
+        <form
+          className="flex items-end gap-2"
+          onSubmit={(e) => {
+            e.preventDefault();
+            onChange({ range: 'custom', from, to });
+          }}
+        >
+          <div>
+            <label className="label" htmlFor="period-from">
+              From (first day)
+            </label>
+            <input id="period-from" type="date" className="field" value={from} onChange={(e) => setFrom(e.target.value)} required />
+          </div>
+          <div>
+            <label className="label" htmlFor="period-to">
+              To (last day)
+            </label>
+            <input id="period-to" type="date" className="field" value={to} onChange={(e) => setTo(e.target.value)} required />
+          </div>
+          <button type="submit" className="btn btn-primary">
+            Show
+          </button>
+        </form>
+      )}
+      <p className="ml-auto text-sm text-ink-soft" data-testid="period-label" aria-live="polite">
+        {info ? (
+          <>
+            <span className="font-semibold text-ink">{info.label}</span> · {info.hours} h · {info.timeZone}
+          </>
+        ) : (
+          ' '
+        )}
+      </p>
+    </div>
+  );
+}

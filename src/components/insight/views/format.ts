@@ -1,0 +1,88 @@
+/**
+ * Display formatting of the views: SI values from the API to the units people read (%, kW or MW,
+ * MWh), always with the unit and, where known, the expanded uncertainty; instants in the site's clock.
+ */
+import { TZDate } from '@date-fns/tz';
+import { format } from 'date-fns';
+
+export type HourState = 'steady' | 'unsettled' | 'idle' | 'suspect';
+
+export const STATE_LABELS: Record<HourState, string> = {
+  steady: 'steady',
+  unsettled: 'unsettled',
+  idle: 'idle',
+  suspect: 'suspect',
+};
+
+function dec(v: number, decimals: number): string {
+  return v.toLocaleString('en-GB', { minimumFractionDigits: decimals, maximumFractionDigits: decimals }).replace(/,/g, '\u2009');
+}
+
+/** Efficiency [-] as "71.3 %" or "71.3 % ± 1.2 %". */
+export function pct(v: number | null | undefined, U?: number | null, decimals = 1): string {
+  if (v === null || v === undefined || !Number.isFinite(v)) return '—';
+  const a = `${dec(v * 100, decimals)} %`;
+  return U !== null && U !== undefined && Number.isFinite(U) ? `${a} ± ${dec(U * 100, decimals)} %` : a;
+}
+
+/** A display unit for powers [W] of this size: kW below 10 MW, MW above. */
+export function powerUnit(maxAbs_W: number): { unit: 'kW' | 'MW'; factor: number } {
+  return maxAbs_W >= 1e7 ? { unit: 'MW', factor: 1e6 } : { unit: 'kW', factor: 1e3 };
+}
+
+function powerDecimals(v: number): number {
+  const a = Math.abs(v);
+  return a >= 100 ? 0 : a >= 10 ? 1 : 2;
+}
+
+/** Power [W] as "412 kW" or "412 kW ± 18 kW" in the given (or a fitting) unit. */
+export function power(v_W: number | null | undefined, U_W?: number | null, unit?: { unit: string; factor: number }): string {
+  if (v_W === null || v_W === undefined || !Number.isFinite(v_W)) return '—';
+  const u = unit ?? powerUnit(Math.abs(v_W));
+  const x = v_W / u.factor;
+  const d = powerDecimals(x);
+  const a = `${dec(x, d)} ${u.unit}`;
+  return U_W !== null && U_W !== undefined && Number.isFinite(U_W) ? `${a} ± ${dec(U_W / u.factor, d)} ${u.unit}` : a;
+}
+
+/** Energy [MWh] with about three significant figures. */
+export function mwh(v: number | null | undefined, decimals?: number): string {
+  if (v === null || v === undefined || !Number.isFinite(v)) return '—';
+  return dec(v, decimals ?? mwhDecimals(Math.abs(v)));
+}
+
+export function mwhDecimals(maxAbs: number): number {
+  return maxAbs >= 100 ? 0 : maxAbs >= 10 ? 1 : maxAbs >= 1 ? 2 : 3;
+}
+
+/** Money in the site's currency, whole units (cents below 100). */
+export function money(v: number | null | undefined, currency?: string): string {
+  if (v === null || v === undefined || !Number.isFinite(v)) return '—';
+  const s = dec(v, Math.abs(v) < 100 ? 2 : 0);
+  return currency ? `${s} ${currency}` : s;
+}
+
+export function num(v: number | null | undefined, decimals = 0): string {
+  if (v === null || v === undefined || !Number.isFinite(v)) return '—';
+  return dec(v, decimals);
+}
+
+/** An instant in the site's clock. */
+export function siteTime(ms: number, timeZone: string, pattern = 'EEE d MMM yyyy, HH:mm'): string {
+  return format(new TZDate(ms, timeZone), pattern);
+}
+
+/** A load with its unit as the engine reports it ('-' means a fraction of rating). */
+export function load(v: number | null | undefined, unit: string | null): string {
+  if (v === null || v === undefined || !Number.isFinite(v)) return '—';
+  if (!unit || unit === '-' || unit === '1') return `${dec(v * 100, 1)} % of rating`;
+  if (unit === 'W') return power(v);
+  return `${dec(v, Math.abs(v) >= 100 ? 0 : 2)} ${unit.replace('kg/s', 'kg/s')}`;
+}
+
+/** Axis label of the load for the scatter. */
+export function loadAxis(unit: string | null): { label: string; scale: number; suffix: string } {
+  if (!unit || unit === '-' || unit === '1') return { label: 'Load [% of rating]', scale: 100, suffix: ' %' };
+  if (unit === 'W') return { label: 'Load [kW]', scale: 1e-3, suffix: ' kW' };
+  return { label: `Load [${unit}]`, scale: 1, suffix: ` ${unit}` };
+}
