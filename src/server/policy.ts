@@ -50,6 +50,8 @@ export const API_POLICY: Record<string, RoutePolicy> = {
   '/api/sites/[siteId]/tags': { methods: { GET: ANY_ROLE } },
   '/api/v1/sites/[siteId]/model': { methods: { GET: ANY_ROLE, PUT: ADMIN }, apiToken: true },
   // --- engine ---
+  '/api/v1/units/[unitId]/hours': { methods: { GET: ANY_ROLE }, apiToken: true },
+  '/api/v1/units/[unitId]/hours/[hour]': { methods: { GET: ANY_ROLE }, apiToken: true },
   // --- baselines and drift ---
   '/api/units/[unitId]/baselines': { methods: { GET: ANY_ROLE, POST: LEADS } },
   '/api/baselines/[baselineId]': { methods: { GET: ANY_ROLE } },
@@ -83,6 +85,8 @@ export const PAGE_POLICY: Record<string, Admit> = {
   '/plant': ANY_ROLE,
   '/plant/[...rest]': ANY_ROLE,
   // --- engine ---
+  '/units': ANY_ROLE,
+  '/units/[unitId]': ANY_ROLE,
   // --- baselines and drift ---
   '/baselines': ANY_ROLE,
   '/baselines/new': LEADS,

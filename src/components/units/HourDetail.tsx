@@ -1,0 +1,418 @@
+import { useEffect, useState } from 'react';
+import { HourStateMark } from './HourStateMark';
+import { fmt, siteTime } from './format';
+import type { UnitInfo } from './UnitResults';
+
+/* The stored audit trail of one hour (src/lib/engine/compute.ts builds it). */
+interface Detail {
+  engine: string;
+  kind: string;
+  balanceKind: string | null;
+  deadState: { T0_K: number; p0_Pa: number; source: string; tag?: string };
+  load: { value: number | null; unit: string; label: string; tags: string[]; minLoad: number } | null;
+  plan: { name: string; slot: string; direction: string; fluid: string; state: string; flow: string }[];
+  inputs: { name: string; value: number | null; u: number; source: { kind: string; tag?: string; engUnit?: string; reading?: number; key?: string; what?: string; note?: string; of?: string } }[];
+  ports: {
+    name: string;
+    direction: string;
+    mDot_kg_per_s: number;
+    p_Pa: number;
+    T_K: number;
+    h_J_per_kg: number;
+    s_J_per_kgK: number;
+    x: number | null;
+    phase: string;
+    psi_J_per_kg: number;
+    eCh_J_per_kg: number | null;
+    exergy_W: number;
+    flags: string[];
+  }[];
+  terms: { label: string; role: string; exergy_W: number }[];
+  balance: null | {
+    fuel_W: number;
+    product_W: number | null;
+    loss_W: number;
+    destruction_W: number;
+    efficiency: number | null;
+    entropyGeneration_W_per_K: number | null;
+    T0Sgen_W: number | null;
+    gouyStodolaResidual_W: number | null;
+    massResidual_kg_per_s: number;
+    massClosureShare: number | null;
+    energyResidual_W: number;
+    energyClosure_pct: number;
+    extras: Record<string, number | null>;
+    flags: string[];
+  };
+  balanceError: { code: string; input: string; message: string } | null;
+  uncertainty: null | {
+    k: number;
+    method: string;
+    efficiency: { u: number | null; U: number | null } | null;
+    destruction_W: { u: number | null; U: number | null };
+    contributors: { input: string; tag?: string; u_SI: number; share_efficiency: number | null; share_destruction: number | null }[];
+    unavailable: string[];
+  };
+  tagHours: {
+    tag: string;
+    port?: string | null;
+    quantity?: string;
+    engUnit?: string;
+    role?: string;
+    uncertainty?: { mode: string; value: number };
+    validMin?: number | null;
+    validMax?: number | null;
+    validFromMs?: number;
+    validToMs?: number | null;
+    hour: null | { mean: number | null; min: number | null; max: number | null; samples: number; coveredFraction: number; nonNumeric: number; outOfRange: number; flatline: boolean };
+  }[];
+  cost: null | { cF_per_MWh: number; basis: string; currency: string };
+  notes: string[];
+}
+
+interface Hour {
+  hourStart: string;
+  state: string;
+  reasons: { code: string; message: string; tag?: string }[];
+  efficiency_U: number | null;
+  destruction_U_W: number | null;
+  destructionCost_per_h: number | null;
+  modelVersion: string;
+  inputsHash: string;
+  computedAt: string;
+  detail: Detail | null;
+}
+
+const kW = (w: number | null | undefined) => fmt(w, 1, 1e-3);
+const ROLE_WORD: Record<string, string> = { fuel: 'fuel F', product: 'product P', loss: 'loss L' };
+
+function sourceText(s: Detail['inputs'][number]['source']): string {
+  if (s.kind === 'tag') return `${s.tag} (${fmt(s.reading ?? null, 3)} ${s.engUnit})${s.note ? `; ${s.note}` : ''}`;
+  if (s.kind === 'parameter') return `parameter ${s.key}`;
+  if (s.kind === 'copy') return `${s.note} (${s.of})`;
+  return s.what ?? 'site';
+}
+
+/** One hour opened up: every port's state, every term, F P L D, uncertainty, reasons, the tag hours and links used. */
+export function HourDetail({ unit, hourStart, onClose }: { unit: UnitInfo; hourStart: string; onClose: () => void }) {
+  const [hour, setHour] = useState<Hour | null>(null);
+  const [error, setError] = useState<string | null>(null);
+  const tz = unit.timeZone;
+
+  useEffect(() => {
+    let live = true;
+    setHour(null);
+    setError(null);
+    void (async () => {
+      const res = await fetch(`/api/v1/units/${unit.id}/hours/${encodeURIComponent(hourStart)}`);
+      const data = await res.json().catch(() => ({}));
+      if (!live) return;
+      if (!res.ok) setError(data?.error?.message ?? `The hour could not be loaded (${res.status}).`);
+      else setHour(data.hour);
+    })();
+    return () => {
+      live = false;
+    };
+  }, [unit.id, hourStart]);
+
+  if (error) return <p className="notice-error">{error}</p>;
+  if (!hour) return <p className="text-sm text-ink-soft">Opening the hour…</p>;
+  const d = hour.detail;
+  const b = d?.balance ?? null;
+  const plan = new Map((d?.plan ?? []).map((p) => [p.name, p]));
+
+  return (
+    <section className="card space-y-5" aria-label="The hour opened up" data-testid="hour-detail">
+      <div className="flex flex-wrap items-center gap-3">
+        <h2>
+          {unit.name}, hour from {siteTime(hour.hourStart, tz)} ({tz})
+        </h2>
+        <HourStateMark state={hour.state} />
+        <button type="button" className="btn ml-auto" onClick={onClose}>
+          Close the hour
+        </button>
+      </div>
+
+      <p className="caution" role="note">
+        Steam, hot water, compressed gas and fuel systems can kill. Lossline is a monitoring aid: its figures are not alarms, it is not a
+        protective or control system, and they depend on the instruments behind them. Any intervention follows the site's procedures, local
+        codes and the judgement of licensed engineers.
+      </p>
+
+      <div>
+        <h3 className="mb-1 font-medium">Why this hour is {hour.state}</h3>
+        {hour.reasons.length === 0 ? (
+          <p className="text-sm text-ink-soft">Every key tag is sound and steady, the load is above the minimum, and the balances close within their tolerances.</p>
+        ) : (
+          <ul className="list-disc pl-5 text-sm" data-testid="hour-reasons">
+            {hour.reasons.map((r, i) => (
+              <li key={i}>
+                <span className="font-mono text-xs">{r.code}</span> {r.message}
+              </li>
+            ))}
+          </ul>
+        )}
+        {d?.balanceError && <p className="mt-1 text-sm text-ink-soft">Balance not formed: {d.balanceError.message}</p>}
+      </div>
+
+      {b && (
+        <div>
+          <h3 className="mb-1 font-medium">The balance</h3>
+          <table className="grid-table max-w-2xl" data-testid="hour-balance">
+            <tbody>
+              <tr>
+                <td>Fuel exergy F [kW]</td>
+                <td className="num">{kW(b.fuel_W)}</td>
+              </tr>
+              <tr>
+                <td className="text-teal-deep">Product exergy P [kW]</td>
+                <td className="num">{b.product_W === null ? 'none (dissipative unit)' : kW(b.product_W)}</td>
+              </tr>
+              <tr>
+                <td className="text-copper-deep">Exergy loss L [kW]</td>
+                <td className="num">{kW(b.loss_W)}</td>
+              </tr>
+              <tr>
+                <td className="text-copper-deep">Exergy destruction D [kW] ± U (k = 2)</td>
+                <td className="num">
+                  {kW(b.destruction_W)} ± {kW(hour.destruction_U_W)}
+                </td>
+              </tr>
+              <tr>
+                <td>Exergy efficiency P / F [%] ± U (k = 2)</td>
+                <td className="num">{b.efficiency === null ? 'none' : `${fmt(b.efficiency, 2, 100)} ± ${fmt(hour.efficiency_U, 2, 100)}`}</td>
+              </tr>
+              <tr>
+                <td>T0 Sgen from the entropy balance [kW]</td>
+                <td className="num">{kW(b.T0Sgen_W)}</td>
+              </tr>
+              <tr>
+                <td>D − T0 Sgen [kW]</td>
+                <td className="num">{kW(b.gouyStodolaResidual_W)}</td>
+              </tr>
+              <tr>
+                <td>First-law residual [kW] (closure [%])</td>
+                <td className="num">
+                  {kW(b.energyResidual_W)} ({fmt(b.energyClosure_pct, 2)})
+                </td>
+              </tr>
+              <tr>
+                <td>Mass residual [kg/s]{b.massClosureShare !== null ? ' (share of inflow [%])' : ''}</td>
+                <td className="num">
+                  {fmt(b.massResidual_kg_per_s, 4)}
+                  {b.massClosureShare !== null ? ` (${fmt(b.massClosureShare, 2, 100)})` : ''}
+                </td>
+              </tr>
+              <tr>
+                <td>Cost of destruction [{unit.currency}/h]</td>
+                <td className="num">{fmt(hour.destructionCost_per_h, 2)}</td>
+              </tr>
+              {Object.entries(b.extras)
+                .filter(([, v]) => v !== null)
+                .map(([k, v]) => (
+                  <tr key={k}>
+                    <td className="text-ink-soft">{k}</td>
+                    <td className="num text-ink-soft">{fmt(v, Math.abs(v!) < 10 ? 4 : 1)}</td>
+                  </tr>
+                ))}
+            </tbody>
+          </table>
+          {d?.cost && <p className="mt-1 text-xs text-ink-soft">Price of the fuel exergy: {d.cost.basis}.</p>}
+        </div>
+      )}
+
+      {d && d.ports.length > 0 && (
+        <div className="overflow-x-auto">
+          <h3 className="mb-1 font-medium">Port states</h3>
+          <table className="grid-table" data-testid="hour-ports">
+            <thead>
+              <tr>
+                <th>Port</th>
+                <th>Fluid</th>
+                <th>State from</th>
+                <th>Flow from</th>
+                <th className="num">Flow [kg/s]</th>
+                <th className="num">p [kPa]</th>
+                <th className="num">T [°C]</th>
+                <th className="num">h [kJ/kg]</th>
+                <th className="num">s [kJ/(kg K)]</th>
+                <th className="num">x [-]</th>
+                <th className="num">ψ [kJ/kg]</th>
+                <th className="num">Exergy flow [kW]</th>
+              </tr>
+            </thead>
+            <tbody>
+              {d.ports.map((p) => (
+                <tr key={p.name}>
+                  <td>
+                    {p.name} <span className="text-xs text-ink-faint">({p.direction})</span>
+                  </td>
+                  <td>{plan.get(p.name)?.fluid ?? (p.name === 'air' ? 'air (ambient)' : '')}</td>
+                  <td className="text-xs">{plan.get(p.name)?.state ?? 'at the dead state'}</td>
+                  <td className="text-xs">{plan.get(p.name)?.flow ?? 'from the combustion balance'}</td>
+                  <td className="num">{fmt(p.mDot_kg_per_s, 3)}</td>
+                  <td className="num">{fmt(p.p_Pa, 1, 1e-3)}</td>
+                  <td className="num">{fmt(p.T_K - 273.15, 2)}</td>
+                  <td className="num">{fmt(p.h_J_per_kg, 2, 1e-3)}</td>
+                  <td className="num">{fmt(p.s_J_per_kgK, 4, 1e-3)}</td>
+                  <td className="num">{p.x === null ? '–' : fmt(p.x, 4)}</td>
+                  <td className="num">{fmt(p.psi_J_per_kg, 2, 1e-3)}</td>
+                  <td className="num">{kW(p.exergy_W)}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+          {d.balanceKind === 'boiler' && <p className="mt-1 text-xs text-ink-soft">The boiler's exergy flows include the chemical exergy of fuel, air and flue gas.</p>}
+        </div>
+      )}
+
+      {d && d.terms.length > 0 && (
+        <div>
+          <h3 className="mb-1 font-medium">Terms of the balance (F = P + L + D)</h3>
+          <table className="grid-table max-w-2xl" data-testid="hour-terms">
+            <thead>
+              <tr>
+                <th>Term</th>
+                <th>Counts as</th>
+                <th className="num">Exergy [kW]</th>
+              </tr>
+            </thead>
+            <tbody>
+              {d.terms.map((t, i) => (
+                <tr key={i}>
+                  <td>{t.label}</td>
+                  <td>{ROLE_WORD[t.role] ?? t.role}</td>
+                  <td className="num">{kW(t.exergy_W)}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      )}
+
+      {d?.uncertainty && (
+        <div>
+          <h3 className="mb-1 font-medium">Biggest uncertainty contributors</h3>
+          <p className="mb-1 text-xs text-ink-soft">{d.uncertainty.method}; coverage factor k = {d.uncertainty.k}.</p>
+          <table className="grid-table max-w-3xl" data-testid="hour-contributors">
+            <thead>
+              <tr>
+                <th>Input</th>
+                <th>Tag</th>
+                <th className="num">Standard uncertainty u [SI]</th>
+                <th className="num">Share of the variance of the efficiency [%]</th>
+                <th className="num">Share of the variance of D [%]</th>
+              </tr>
+            </thead>
+            <tbody>
+              {d.uncertainty.contributors.map((c) => (
+                <tr key={c.input}>
+                  <td className="font-mono text-xs">{c.input}</td>
+                  <td>{c.tag ?? ''}</td>
+                  <td className="num">{c.u_SI.toPrecision(3)}</td>
+                  <td className="num">{fmt(c.share_efficiency, 1, 100)}</td>
+                  <td className="num">{fmt(c.share_destruction, 1, 100)}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      )}
+
+      {d && d.tagHours.length > 0 && (
+        <div className="overflow-x-auto">
+          <h3 className="mb-1 font-medium">Tag hours and links used</h3>
+          <table className="grid-table" data-testid="hour-tags">
+            <thead>
+              <tr>
+                <th>Tag</th>
+                <th>Measures</th>
+                <th>Unit</th>
+                <th className="num">Mean</th>
+                <th className="num">Min</th>
+                <th className="num">Max</th>
+                <th className="num">Samples</th>
+                <th className="num">Covered [%]</th>
+                <th>Quality</th>
+                <th>Link uncertainty</th>
+                <th>Link valid</th>
+              </tr>
+            </thead>
+            <tbody>
+              {d.tagHours.map((t) => (
+                <tr key={t.tag}>
+                  <td className="font-mono text-xs">{t.tag}</td>
+                  <td>{t.quantity ? `${t.quantity}${t.port ? ` at ${t.port}` : ' of the unit'}` : t.role}</td>
+                  <td>{t.engUnit ?? ''}</td>
+                  <td className="num">{fmt(t.hour?.mean ?? null, 3)}</td>
+                  <td className="num">{fmt(t.hour?.min ?? null, 3)}</td>
+                  <td className="num">{fmt(t.hour?.max ?? null, 3)}</td>
+                  <td className="num">{t.hour ? t.hour.samples : '–'}</td>
+                  <td className="num">{t.hour ? fmt(t.hour.coveredFraction, 0, 100) : '–'}</td>
+                  <td className="text-xs">
+                    {!t.hour
+                      ? 'no data this hour'
+                      : [t.hour.flatline ? 'frozen' : '', t.hour.outOfRange ? `${t.hour.outOfRange} out of range` : '', t.hour.nonNumeric ? `${t.hour.nonNumeric} status words` : '']
+                          .filter(Boolean)
+                          .join(', ') || 'sound'}
+                  </td>
+                  <td className="text-xs">{t.uncertainty ? (t.uncertainty.mode === 'relative' ? `${t.uncertainty.value} % of reading` : `${t.uncertainty.value} ${t.engUnit}`) : ''}</td>
+                  <td className="text-xs">
+                    {t.validFromMs !== undefined
+                      ? `${t.validFromMs === 0 ? 'from the start' : `from ${siteTime(new Date(t.validFromMs).toISOString(), tz)}`}${t.validToMs ? ` to ${siteTime(new Date(t.validToMs).toISOString(), tz)}` : ''}`
+                      : ''}
+                  </td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      )}
+
+      {d && d.inputs.length > 0 && (
+        <details>
+          <summary className="cursor-pointer font-medium">Input vector of the balance (SI)</summary>
+          <table className="grid-table mt-2 max-w-4xl" data-testid="hour-inputs">
+            <thead>
+              <tr>
+                <th>Entry</th>
+                <th className="num">Value [SI]</th>
+                <th className="num">u [SI]</th>
+                <th>From</th>
+              </tr>
+            </thead>
+            <tbody>
+              {d.inputs.map((i) => (
+                <tr key={i.name}>
+                  <td className="font-mono text-xs">{i.name}</td>
+                  <td className="num">{i.value === null ? '–' : i.value.toPrecision(7)}</td>
+                  <td className="num">{i.u ? i.u.toPrecision(3) : '0'}</td>
+                  <td className="text-xs">{sourceText(i.source)}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </details>
+      )}
+
+      <div className="text-xs text-ink-soft">
+        {d && (
+          <p>
+            Dead state T0 = {fmt(d.deadState.T0_K - 273.15, 2)} °C, p0 = {fmt(d.deadState.p0_Pa, 2, 1e-3)} kPa ({d.deadState.source}).
+            {d.load ? ` Load: ${d.load.label} ${d.load.value === null ? '–' : fmt(d.load.value, 2, d.load.unit === 'W' ? 1e-3 : 3.6)} ${d.load.unit === 'W' ? 'kW' : 't/h'}.` : ''}
+          </p>
+        )}
+        {d?.notes.length ? (
+          <ul className="list-disc pl-5">
+            {d.notes.map((n, i) => (
+              <li key={i}>{n}</li>
+            ))}
+          </ul>
+        ) : null}
+        <p>
+          Model version {hour.modelVersion}, inputs {hour.inputsHash}, computed {siteTime(hour.computedAt, tz, 'yyyy-MM-dd HH:mm:ss')} by {d?.engine ?? 'the engine'}.
+        </p>
+      </div>
+    </section>
+  );
+}

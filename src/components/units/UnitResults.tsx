@@ -1,0 +1,169 @@
+import { useCallback, useEffect, useState } from 'react';
+import { HourDetail } from './HourDetail';
+import { HourStateMark } from './HourStateMark';
+import { fmt, siteDay, siteDayStart, siteTime } from './format';
+
+export interface HourRow {
+  hourStart: string;
+  state: string;
+  reasons: { code: string; message: string; tag?: string }[];
+  load: number | null;
+  loadUnit: string | null;
+  T0_K: number | null;
+  fuel_W: number | null;
+  product_W: number | null;
+  loss_W: number | null;
+  destruction_W: number | null;
+  efficiency: number | null;
+  efficiency_U: number | null;
+  destruction_U_W: number | null;
+  closure_pct: number | null;
+  destructionCost_per_h: number | null;
+  modelVersion: string;
+  inputsHash: string;
+  computedAt: string;
+}
+
+export interface UnitInfo {
+  id: string;
+  name: string;
+  kind: string;
+  siteName: string;
+  timeZone: string;
+  currency: string;
+}
+
+const DAY_ms = 86_400_000;
+
+/**
+ * A unit's hours in a table over a date range (site-local days), one hour opened up below it.
+ * Reads GET /api/v1/units/{unitId}/hours and /hours/{hour}.
+ */
+export default function UnitResults({ unit, initialFrom, initialTo, initialHour }: { unit: UnitInfo; initialFrom: string; initialTo: string; initialHour: string | null }) {
+  const tz = unit.timeZone;
+  const [fromDay, setFromDay] = useState(siteDay(initialFrom, tz));
+  const [toDay, setToDay] = useState(siteDay(new Date(new Date(initialTo).getTime() - 1).toISOString(), tz));
+  const [rows, setRows] = useState<HourRow[] | null>(null);
+  const [error, setError] = useState<string | null>(null);
+  const [open, setOpen] = useState<string | null>(initialHour);
+
+  const range = useCallback(() => {
+    const from = siteDayStart(fromDay, tz);
+    const to = new Date(new Date(siteDayStart(toDay, tz)).getTime() + DAY_ms).toISOString();
+    return { from, to };
+  }, [fromDay, toDay, tz]);
+
+  const load = useCallback(async () => {
+    setRows(null);
+    setError(null);
+    const { from, to } = range();
+    if (!(to > from)) return setError('The last day must not be before the first.');
+    const res = await fetch(`/api/v1/units/${unit.id}/hours?from=${encodeURIComponent(from)}&to=${encodeURIComponent(to)}`);
+    const data = await res.json().catch(() => ({}));
+    if (!res.ok) return setError(data?.error?.message ?? `The hours could not be loaded (${res.status}).`);
+    setRows(data.hours);
+  }, [range, unit.id]);
+
+  useEffect(() => {
+    void load();
+  }, [load]);
+
+  const { from, to } = range();
+  const csvHref = `/api/v1/units/${unit.id}/hours?from=${encodeURIComponent(from)}&to=${encodeURIComponent(to)}&format=csv`;
+  const counts = (rows ?? []).reduce<Record<string, number>>((m, r) => ((m[r.state] = (m[r.state] ?? 0) + 1), m), {});
+  const cur = unit.currency;
+
+  return (
+    <div className="space-y-6">
+      <form
+        className="card flex flex-wrap items-end gap-4"
+        onSubmit={(e) => {
+          e.preventDefault();
+          void load();
+        }}
+      >
+        <label>
+          <span className="label">First day ({tz})</span>
+          <input className="field" type="date" value={fromDay} onChange={(e) => setFromDay(e.target.value)} data-testid="range-from" required />
+        </label>
+        <label>
+          <span className="label">Last day</span>
+          <input className="field" type="date" value={toDay} onChange={(e) => setToDay(e.target.value)} data-testid="range-to" required />
+        </label>
+        <button type="submit" className="btn btn-primary">
+          Show hours
+        </button>
+        <a className="btn" href={csvHref} download>
+          Download CSV
+        </a>
+        {rows && rows.length > 0 && (
+          <p className="text-sm text-ink-soft" data-testid="state-counts">
+            {rows.length} hours:{' '}
+            {(['steady', 'unsettled', 'idle', 'suspect'] as const)
+              .filter((s) => counts[s])
+              .map((s) => `${counts[s]} ${s}`)
+              .join(', ')}
+          </p>
+        )}
+      </form>
+
+      {error && <p className="notice-error">{error}</p>}
+      {!error && rows === null && <p className="text-sm text-ink-soft">Loading the hours…</p>}
+      {!error && rows !== null && rows.length === 0 && (
+        <p className="card text-sm text-ink-soft" data-testid="no-hours">
+          No computed hours in this range. Hours appear once files with this unit's tags have been read and its links are complete.
+        </p>
+      )}
+
+      {rows !== null && rows.length > 0 && (
+        <div className="card overflow-x-auto p-0">
+          <table className="grid-table" data-testid="unit-hours">
+            <thead>
+              <tr>
+                <th>Hour ({tz})</th>
+                <th>State</th>
+                <th className="num">Fuel F [kW]</th>
+                <th className="num">Product P [kW]</th>
+                <th className="num">Loss L [kW]</th>
+                <th className="num">Destruction D [kW]</th>
+                <th className="num">Efficiency [%] ± U (k = 2)</th>
+                <th className="num">First-law closure [%]</th>
+                <th className="num">Cost of D [{cur}/h]</th>
+                <th />
+              </tr>
+            </thead>
+            <tbody>
+              {rows.map((r) => {
+                const isOpen = open === r.hourStart;
+                return (
+                  <tr key={r.hourStart} className={isOpen ? 'bg-paper-deep' : undefined} data-hour={r.hourStart}>
+                    <td className="whitespace-nowrap tabular-nums">{siteTime(r.hourStart, tz)}</td>
+                    <td title={r.reasons.map((x) => x.message).join('\n')}>
+                      <HourStateMark state={r.state} />
+                    </td>
+                    <td className="num">{fmt(r.fuel_W, 1, 1e-3)}</td>
+                    <td className="num text-teal-deep">{fmt(r.product_W, 1, 1e-3)}</td>
+                    <td className="num text-copper-deep">{fmt(r.loss_W, 1, 1e-3)}</td>
+                    <td className="num text-copper-deep">{fmt(r.destruction_W, 1, 1e-3)}</td>
+                    <td className="num whitespace-nowrap">
+                      {r.efficiency === null ? '–' : `${fmt(r.efficiency, 1, 100)} ± ${fmt(r.efficiency_U, 1, 100)}`}
+                    </td>
+                    <td className="num">{fmt(r.closure_pct, 2)}</td>
+                    <td className="num">{fmt(r.destructionCost_per_h, 2)}</td>
+                    <td>
+                      <button type="button" className="btn px-2 py-0.5 text-xs" aria-expanded={isOpen} onClick={() => setOpen(isOpen ? null : r.hourStart)}>
+                        {isOpen ? 'Close' : 'Open hour'}
+                      </button>
+                    </td>
+                  </tr>
+                );
+              })}
+            </tbody>
+          </table>
+        </div>
+      )}
+
+      {open && <HourDetail unit={unit} hourStart={open} onClose={() => setOpen(null)} />}
+    </div>
+  );
+}

@@ -1,0 +1,14 @@
+import type { APIRoute } from 'astro';
+import { answer, siteAllowed, tokenForOtherSite } from '../../../../../../server/http';
+import { unitHeader, unitHourDetail } from '../../../../../../server/services/engine-results';
+
+/** One unit hour opened up: the stored audit trail (detail). The hour: ISO 8601 instant or ms. */
+export const GET: APIRoute = ({ params, locals }) =>
+  answer(async () => {
+    const unit = await unitHeader(params.unitId);
+    if (!siteAllowed(locals, unit.siteId)) return tokenForOtherSite();
+    const raw = decodeURIComponent(params.hour ?? '');
+    const at = /^\d+$/.test(raw) ? new Date(Number(raw)) : new Date(raw);
+    const hour = await unitHourDetail(unit.id, at);
+    return Response.json({ unit: { id: unit.id, name: unit.name, kind: unit.kind, siteId: unit.siteId, currency: unit.currency }, hour });
+  });

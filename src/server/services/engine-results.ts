@@ -1,0 +1,172 @@
+/**
+ * Reading the engine's unit hours: a unit's hours over a range (JSON or CSV, units in the field names),
+ * one hour opened up (the stored audit trail), and the units of every site with their latest hour.
+ */
+import { and, asc, desc, eq, gte, lt, sql } from 'drizzle-orm';
+import { db } from '../db/client';
+import { plantUnits, sites, unitHours } from '../db/schema';
+import { csvCell } from './uploads';
+
+export class EngineQueryError extends Error {
+  constructor(
+    readonly code: 'NOT_FOUND' | 'VALIDATION_FAILED',
+    message: string,
+  ) {
+    super(message);
+  }
+}
+
+/** Longest range one request may ask for: 400 days of hours. */
+export const MAX_RANGE_MS = 400 * 24 * 3_600_000;
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+
+/** A unit with its site, for the results API and page. */
+export async function unitHeader(unitId: string | undefined) {
+  if (!unitId || !UUID.test(unitId)) throw new EngineQueryError('NOT_FOUND', 'No such unit.');
+  const [row] = await db()
+    .select({
+      id: plantUnits.id,
+      name: plantUnits.name,
+      kind: plantUnits.kind,
+      description: plantUnits.description,
+      parameters: plantUnits.parameters,
+      siteId: sites.id,
+      siteName: sites.name,
+      timeZone: sites.timeZone,
+      currency: sites.currency,
+    })
+    .from(plantUnits)
+    .innerJoin(sites, eq(sites.id, plantUnits.siteId))
+    .where(eq(plantUnits.id, unitId))
+    .limit(1);
+  if (!row) throw new EngineQueryError('NOT_FOUND', 'No such unit.');
+  return row;
+}
+export type UnitHeader = Awaited<ReturnType<typeof unitHeader>>;
+
+/** The columns of a unit hour without its detail, as the API names them. */
+const LIST_COLUMNS = {
+  hourStart: unitHours.hourStart,
+  state: unitHours.state,
+  reasons: unitHours.reasons,
+  load: unitHours.load,
+  loadUnit: unitHours.loadUnit,
+  T0_K: unitHours.T0_K,
+  p0_Pa: unitHours.p0_Pa,
+  fuel_W: unitHours.fuel_W,
+  product_W: unitHours.product_W,
+  loss_W: unitHours.loss_W,
+  destruction_W: unitHours.destruction_W,
+  efficiency: unitHours.efficiency,
+  efficiency_U: unitHours.efficiency_U,
+  destruction_U_W: unitHours.destruction_U_W,
+  closure_pct: unitHours.closure_pct,
+  entropyGeneration_W_per_K: unitHours.entropyGeneration_W_per_K,
+  destructionCost_per_h: unitHours.destructionCost_per_h,
+  modelVersion: unitHours.modelVersion,
+  inputsHash: unitHours.inputsHash,
+  computedAt: unitHours.computedAt,
+};
+
+function range(from: Date, to: Date) {
+  if (!(to > from)) throw new EngineQueryError('VALIDATION_FAILED', '"to" must be after "from".');
+  if (to.getTime() - from.getTime() > MAX_RANGE_MS) throw new EngineQueryError('VALIDATION_FAILED', 'Ask for at most 400 days at a time.');
+}
+
+/** A unit's hours with hour start in [from, to), oldest first, without the detail. */
+export async function unitHoursOf(unitId: string, from: Date, to: Date) {
+  range(from, to);
+  const rows = await db()
+    .select(LIST_COLUMNS)
+    .from(unitHours)
+    .where(and(eq(unitHours.unitId, unitId), gte(unitHours.hourStart, from), lt(unitHours.hourStart, to)))
+    .orderBy(asc(unitHours.hourStart));
+  return rows.map((r) => ({ ...r, hourStart: r.hourStart.toISOString(), computedAt: r.computedAt.toISOString() }));
+}
+export type UnitHourRow = Awaited<ReturnType<typeof unitHoursOf>>[number];
+
+/** One hour of a unit with its audit trail (detail), or NOT_FOUND. */
+export async function unitHourDetail(unitId: string, hourStart: Date) {
+  if (Number.isNaN(hourStart.getTime())) throw new EngineQueryError('VALIDATION_FAILED', 'Give the hour as an ISO 8601 instant (with Z or an offset) or in ms.');
+  const [r] = await db()
+    .select({ ...LIST_COLUMNS, detail: unitHours.detail })
+    .from(unitHours)
+    .where(and(eq(unitHours.unitId, unitId), eq(unitHours.hourStart, hourStart)))
+    .limit(1);
+  if (!r) throw new EngineQueryError('NOT_FOUND', 'This unit has no computed hour starting then.');
+  return { ...r, hourStart: r.hourStart.toISOString(), computedAt: r.computedAt.toISOString() };
+}
+
+/** The latest hour start of a unit, or null. */
+export async function latestHourOf(unitId: string): Promise<Date | null> {
+  const [r] = await db().select({ h: unitHours.hourStart }).from(unitHours).where(eq(unitHours.unitId, unitId)).orderBy(desc(unitHours.hourStart)).limit(1);
+  return r?.h ?? null;
+}
+
+const CSV_FIELDS = [
+  'hourStart',
+  'state',
+  'reasons',
+  'load',
+  'loadUnit',
+  'T0_K',
+  'p0_Pa',
+  'fuel_W',
+  'product_W',
+  'loss_W',
+  'destruction_W',
+  'efficiency',
+  'efficiency_U',
+  'destruction_U_W',
+  'closure_pct',
+  'entropyGeneration_W_per_K',
+  'destructionCost_per_h',
+  'currency',
+  'modelVersion',
+  'inputsHash',
+  'computedAt',
+] as const;
+
+/**
+ * The hours as CSV (RFC 4180, CR LF), the JSON field names as the header; reasons as their codes
+ * separated by '; '. Cells a spreadsheet would run as a formula are neutralised (csvCell).
+ */
+export function unitHoursCsv(rows: readonly UnitHourRow[], currency: string): string {
+  const lines = [CSV_FIELDS.join(',')];
+  for (const r of rows) {
+    const rec: Record<(typeof CSV_FIELDS)[number], unknown> = { ...r, reasons: r.reasons.map((x) => x.code).join('; '), currency };
+    lines.push(CSV_FIELDS.map((f) => csvCell(rec[f])).join(','));
+  }
+  return lines.join('\r\n') + '\r\n';
+}
+
+/** Every site's units with the state of their latest computed hour, for the results index. */
+export async function unitsOverview() {
+  const res = await db().execute<{
+    site_id: string;
+    site_name: string;
+    unit_id: string;
+    unit_name: string;
+    kind: string;
+    last_hour: Date | null;
+    last_state: string | null;
+    hours: number;
+  }>(sql`
+    select s.id as site_id, s.name as site_name, u.id as unit_id, u.name as unit_name, u.kind,
+           l.hour_start as last_hour, l.state as last_state, coalesce(c.n, 0)::int as hours
+    from plant_units u
+    join sites s on s.id = u.site_id
+    left join lateral (select hour_start, state from unit_hours h where h.unit_id = u.id order by hour_start desc limit 1) l on true
+    left join lateral (select count(*) as n from unit_hours h where h.unit_id = u.id) c on true
+    order by s.name, u.name`);
+  return res.rows.map((r) => ({
+    siteId: r.site_id,
+    siteName: r.site_name,
+    unitId: r.unit_id,
+    unitName: r.unit_name,
+    kind: r.kind,
+    lastHour: r.last_hour ? new Date(r.last_hour).toISOString() : null,
+    lastState: r.last_state,
+    hours: Number(r.hours),
+  }));
+}
