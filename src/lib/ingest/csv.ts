@@ -5,9 +5,9 @@
  * path (plain splits) by itself for pieces without a quote character.
  *
  * What this wrapper adds around papaparse:
- * - Line breaks: LF, CR LF and a lone CR. The file's break is decided from its first 64 KiB (a lone
- *   CR when lone CRs outnumber LFs, otherwise LF); with LF, one CR before the break is removed, so LF
- *   and CR LF lines may mix.
+ * - Line breaks: LF, CR LF and a lone CR. The file's break is decided once one is seen outside quoted
+ *   fields, from at most the first 64 KiB: a lone CR when lone CRs outnumber LFs, otherwise LF. With
+ *   LF, one CR at the end of a record is removed (even inside quotes), so LF and CR LF lines may mix.
  * - Completely empty lines are skipped; every record carries the 1-based physical line it starts on
  *   (line breaks inside quoted fields count).
  * - Text after a closing quote (`"12"5`): papaparse would run the quoted field on to a later quote.
@@ -15,7 +15,8 @@
  *   quotes dropped (`"12"5` -> `125`), the field is re-quoted in the unparsed text, the record is
  *   parsed again, and the field is counted in `malformedQuoteCount`.
  * - Memory: text is parsed in pieces of at most 64 KiB, and the carried rest of an unfinished record
- *   may not exceed `maxRecordChars` (RECORD_TOO_LONG). A quote still open at the end of the file is
+ *   may not exceed `maxRecordChars` (RECORD_TOO_LONG), so a single enormous line (or a quote never
+ *   closed) stops early instead of being buffered. A quote still open at the end of the file is
  *   UNTERMINATED_QUOTE.
  * - Quoted fields may have spaces between the closing quote and the separator (papaparse's rule);
  *   the spaces are dropped.
