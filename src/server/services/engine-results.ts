@@ -129,13 +129,15 @@ const CSV_FIELDS = [
 
 /**
  * The hours as CSV (RFC 4180, CR LF), the JSON field names as the header; reasons as their codes
- * separated by '; '. Cells a spreadsheet would run as a formula are neutralised (csvCell).
+ * separated by '; '. Text cells a spreadsheet would run as a formula are neutralised (csvCell).
  */
 export function unitHoursCsv(rows: readonly UnitHourRow[], currency: string): string {
   const lines = [CSV_FIELDS.join(',')];
   for (const r of rows) {
     const rec: Record<(typeof CSV_FIELDS)[number], unknown> = { ...r, reasons: r.reasons.map((x) => x.code).join('; '), currency };
-    lines.push(CSV_FIELDS.map((f) => csvCell(rec[f])).join(','));
+    // Numbers are written as they are (a finite number is never a formula, and '-0.3' must stay a number);
+    // every text goes through csvCell, which neutralises a leading = + - @ or control character.
+    lines.push(CSV_FIELDS.map((f) => (typeof rec[f] === 'number' ? String(rec[f]) : csvCell(rec[f]))).join(','));
   }
   return lines.join('\r\n') + '\r\n';
 }
