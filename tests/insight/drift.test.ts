@@ -153,8 +153,10 @@ describeIntegration('drift check: CUSUM on residuals through the service, saved 
     expect(second[0]!.opened).toHaveLength(1);
     p = await points(u.unitId);
     expect(p.map((x) => x.step)).toEqual([1, 2, 3, 4, 5, 6, 7, 8, 9, 10]);
-    // Saved state after each step: the sums restart after the signal at step 8.
-    expect(p.map((x) => Number(x.cPlus.toFixed(9)))).toEqual([0, 0, 0, 0, 1.5, 3, 4.5, 0, 1.5, 3]);
+    // The sums after each step; the one that crossed h is marked, and the next step starts from zero.
+    expect(p.map((x) => Number(x.cPlus.toFixed(9)))).toEqual([0, 0, 0, 0, 1.5, 3, 4.5, 6, 1.5, 3]);
+    expect(p.map((x) => x.nPlus)).toEqual([0, 0, 0, 0, 1, 2, 3, 4, 1, 2]);
+    expect(p.map((x) => x.signal)).toEqual([null, null, null, null, null, null, null, 'up', null, null]);
 
     const [n] = await notices(u.unitId);
     expect(n!.direction).toBe('up');
@@ -190,7 +192,8 @@ describeIntegration('drift check: CUSUM on residuals through the service, saved 
     const changed = await checkDrift({ siteId: u.siteId, fromMs: hourOf(5).getTime(), toMs: hourOf(5).getTime() + HOUR });
     expect(changed[0]).toMatchObject({ hours: 6, signals: 1, opened: [] });
     p = await points(u.unitId);
-    expect(p.map((x) => Number(x.cPlus.toFixed(9)))).toEqual([0, 0, 0, 0, 0, 1.5, 3, 4.5, 0, 1.5]);
+    expect(p.map((x) => Number(x.cPlus.toFixed(9)))).toEqual([0, 0, 0, 0, 0, 1.5, 3, 4.5, 6, 1.5]);
+    expect(p.map((x) => x.signal)).toEqual([null, null, null, null, null, null, null, null, 'up', null]);
     const still = await notices(u.unitId);
     expect(still).toHaveLength(1);
     // The open notice takes the later signal as its latest one.

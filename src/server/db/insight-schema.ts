@@ -62,7 +62,7 @@ export const driftSettings = pgTable('drift_settings', {
  * The drift check's saved state, one row per steady hour after the active baseline's period: the
  * residual of destruction against the baseline and the tabular CUSUM after that hour. Keyed by unit
  * and hour, so a re-run over the same hours rewrites rather than adds; the last row is the state the
- * next hour continues from.
+ * next hour continues from (zero after a signal).
  */
 export const driftPoints = pgTable(
   'drift_points',
@@ -81,10 +81,13 @@ export const driftPoints = pgTable(
     residual_W: doublePrecision('residual_w').notNull(),
     /** Residual normalised by the baseline's residual spread s [-]. */
     x: doublePrecision('x').notNull(),
+    /** CUSUM sums after this hour (before the restart that follows a signal) [-]. */
     cPlus: doublePrecision('c_plus').notNull(),
     cMinus: doublePrecision('c_minus').notNull(),
     nPlus: integer('n_plus').notNull(),
     nMinus: integer('n_minus').notNull(),
+    /** The sums crossed h at this hour ('up', 'down' or 'both'); the next hour starts again from zero. */
+    signal: text('signal').$type<'up' | 'down' | 'both'>(),
     destructionU_W: doublePrecision('destruction_u_w'),
     /** Cost of the hour's destruction [currency per hour], for the unit's cost rate. */
     destructionCost_per_h: doublePrecision('destruction_cost_per_h'),

@@ -141,7 +141,12 @@ export async function checkUnit(unitId: string, fromMs: number): Promise<UnitChe
       )
       .orderBy(asc(unitHours.hourStart));
 
-    let state: CusumState = prev ? { step: prev.step, cPlus: prev.cPlus, cMinus: prev.cMinus, nPlus: prev.nPlus, nMinus: prev.nMinus } : cusumInit();
+    // After a signal the sums restart at zero (resetOnSignal); the row keeps the crossing for the chart.
+    let state: CusumState = !prev
+      ? cusumInit()
+      : prev.signal
+        ? { ...cusumInit(), step: prev.step }
+        : { step: prev.step, cPlus: prev.cPlus, cMinus: prev.cMinus, nPlus: prev.nPlus, nMinus: prev.nMinus };
     const options = { k: settings.k, h: settings.h, resetOnSignal: true };
     const rows: (typeof driftPoints.$inferInsert)[] = [];
     const pending: PendingPoint[] = [];
@@ -160,12 +165,11 @@ export async function checkUnit(unitId: string, fromMs: number): Promise<UnitChe
         expected_W,
         residual_W,
         x,
-        // The state the next hour continues from (after a reset on a signal); the crossing itself is
-        // in the notice.
-        cPlus: state.cPlus,
-        cMinus: state.cMinus,
-        nPlus: state.nPlus,
-        nMinus: state.nMinus,
+        cPlus: r.point.cPlus,
+        cMinus: r.point.cMinus,
+        nPlus: r.point.nPlus,
+        nMinus: r.point.nMinus,
+        signal: r.point.signals.length === 2 ? 'both' : (r.point.signals[0]?.direction ?? null),
         destructionU_W: h.destructionU_W,
         destructionCost_per_h: h.destructionCost_per_h,
       });
@@ -222,22 +226,4 @@ async function signalFigures(tx: Tx, unitId: string, sig: DriftSignal, settings:
     k: settings.k,
     h: settings.h,
   };
-}
-
-/** The unit's drift rows in a window, oldest first (for the notice chart). */
-export async function driftSeries(unitId: string, from: Date, to: Date, limit = 600) {
-  return db()
-    .select({
-      hourStart: driftPoints.hourStart,
-      residual_W: driftPoints.residual_W,
-      x: driftPoints.x,
-      cPlus: driftPoints.cPlus,
-      cMinus: driftPoints.cMinus,
-      expected_W: driftPoints.expected_W,
-      destruction_W: driftPoints.destruction_W,
-    })
-    .from(driftPoints)
-    .where(and(eq(driftPoints.unitId, unitId), gte(driftPoints.hourStart, from), lt(driftPoints.hourStart, to)))
-    .orderBy(asc(driftPoints.hourStart))
-    .limit(limit);
 }

@@ -1,0 +1,1 @@
+ALTER TABLE "drift_points" ADD COLUMN "signal" text;
