@@ -4,7 +4,8 @@ import { format } from 'date-fns';
 /** Numbers for the tables: fixed decimals, an en dash for nothing. */
 export function fmt(v: number | null | undefined, digits = 1, scale = 1): string {
   if (v === null || v === undefined || !Number.isFinite(v)) return '–';
-  return (v * scale).toLocaleString('en-GB', { minimumFractionDigits: digits, maximumFractionDigits: digits });
+  const text = (v * scale).toLocaleString('en-GB', { minimumFractionDigits: digits, maximumFractionDigits: digits });
+  return /^-[0.,]*$/.test(text) ? text.slice(1) : text; // a rounded zero shows without its sign
 }
 
 /** An instant as the site's clock shows it: 2024-03-01 10:00. */
