@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { Bar, CartesianGrid, ComposedChart, Legend, Line, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
 import { StateMark } from '../../StateMark';
 import { Notice as Message, call, messageOf, type Message as Msg } from '../../plant/common';
-import { at } from '../baselines/looks';
+import { at, sig } from '../baselines/looks';
 import { NOTICE_LOOK, money, signedKW, type Notice, type SeriesPoint } from './looks';
 
 function Figure({ label, value, unit, testId }: { label: string; value: string; unit?: string; testId?: string }) {
@@ -27,16 +27,16 @@ function DriftChart({ notice, series }: { notice: Notice; series: SeriesPoint[] 
         <ComposedChart data={data} margin={{ top: 8, right: 8, bottom: 8, left: 8 }}>
           <CartesianGrid stroke="#ddd3bf" strokeDasharray="3 3" />
           <XAxis dataKey="t" type="number" scale="time" domain={['dataMin', 'dataMax']} tickFormatter={tick} stroke="#4a463e" fontSize={11} />
-          <YAxis yAxisId="kW" stroke="#8e3f1c" fontSize={11} width={56} label={{ value: 'residual [kW]', angle: -90, position: 'insideLeft', fill: '#8e3f1c', fontSize: 11 }} />
-          <YAxis yAxisId="s" orientation="right" stroke="#22201c" fontSize={11} width={48} label={{ value: 'CUSUM [s]', angle: 90, position: 'insideRight', fill: '#22201c', fontSize: 11 }} />
+          <YAxis yAxisId="kW" tickFormatter={(v: number) => sig(v, 3)} stroke="#8e3f1c" fontSize={11} width={56} label={{ value: 'residual [kW]', angle: -90, position: 'insideLeft', fill: '#8e3f1c', fontSize: 11 }} />
+          <YAxis yAxisId="s" orientation="right" domain={[0, (max: number) => Math.max(max, notice.h * 1.25)]} tickFormatter={(v: number) => sig(v, 3)} stroke="#22201c" fontSize={11} width={48} label={{ value: 'CUSUM [s]', angle: 90, position: 'insideRight', fill: '#22201c', fontSize: 11 }} />
           <Tooltip labelFormatter={(t) => `${at(new Date(Number(t)).toISOString(), notice.timeZone)} (${notice.timeZone})`} formatter={(v) => Number(v).toFixed(2)} />
           <Legend verticalAlign="top" height={24} />
           <Bar yAxisId="kW" dataKey="residual" name="Measured − expected destruction [kW]" fill="#b5562a" isAnimationActive={false} />
           <Line yAxisId="s" dataKey="cPlus" name="C+ (more destruction) [s]" stroke="#22201c" dot={false} strokeWidth={2} isAnimationActive={false} />
           <Line yAxisId="s" dataKey="cMinus" name="C− (less destruction) [s]" stroke="#66707c" strokeDasharray="4 3" dot={false} strokeWidth={2} isAnimationActive={false} />
           <ReferenceLine yAxisId="s" y={notice.h} stroke="#22201c" strokeDasharray="2 4" label={{ value: `h = ${notice.h}`, position: 'right', fontSize: 11 }} />
-          <ReferenceLine yAxisId="s" x={new Date(notice.onsetHour).getTime()} stroke="#8e3f1c" label={{ value: 'onset', position: 'top', fontSize: 11 }} />
-          <ReferenceLine yAxisId="s" x={new Date(notice.signalHour).getTime()} stroke="#22201c" label={{ value: 'signal', position: 'top', fontSize: 11 }} />
+          <ReferenceLine yAxisId="s" x={new Date(notice.onsetHour).getTime()} stroke="#8e3f1c" label={{ value: 'onset', position: 'insideTopLeft', fontSize: 11 }} />
+          <ReferenceLine yAxisId="s" x={new Date(notice.signalHour).getTime()} stroke="#22201c" label={{ value: 'signal', position: 'insideTopRight', fontSize: 11 }} />
         </ComposedChart>
       </ResponsiveContainer>
     </div>

@@ -1,0 +1,160 @@
+import { randomInt, randomUUID } from 'node:crypto';
+import { eq, sql } from 'drizzle-orm';
+import { beforeAll, expect, it } from 'vitest';
+import { QUEUES, SendMailPayload } from '../../src/jobs';
+import { db } from '../../src/server/db/client';
+import { driftNotices, noticeDigests, unitHours, user } from '../../src/server/db/schema';
+import { sendMail } from '../../src/server/mail';
+import { queue } from '../../src/server/queue';
+import { acceptBaseline, fitDraft } from '../../src/server/services/baselines';
+import { checkDrift } from '../../src/server/services/drift';
+import {
+  NOTICE_CAUTION,
+  acknowledgeNotice,
+  closeNotice,
+  getNotice,
+  listNotices,
+  noticeDetail,
+  sendNoticeDigests,
+  setNoticePreferences,
+  shiftAgainstUncertainty,
+} from '../../src/server/services/notices';
+import { createSite, createUnit } from '../../src/server/services/plant';
+import { expectClose } from '../support/expect-close';
+import { caughtMail, describeIntegration, waitForMail } from '../support/integration';
+
+const HOUR = 3_600_000;
+const t0 = Date.UTC(2025, 6, 1, 0);
+let leadId: string;
+let plannerId: string;
+
+/**
+ * A unit whose reference hours follow destruction = 100 kW + 5 kW/MW x +- 2 kW (x = 1..24 MW; s as
+ * worked in tests/insight/baselines.test.ts), then one steady hour 60 kW above the line: about 29 s,
+ * so the CUSUM (k = 0.5, h = 5) signals at that very hour: C+ = 29 - 0.5 > 5. The hours carry no cost
+ * of their own; the site has a fuel price of 36 EUR/MWh (LHV).
+ */
+async function unitWithNotice(label: string, extraHourU_W: number | null = 4000) {
+  const site = await createSite({
+    name: `Notice site ${label} ${randomUUID().slice(0, 8)}`,
+    timeZone: 'Europe/Madrid',
+    T0_K: 298.15,
+    p0_Pa: 101325,
+    currency: 'EUR',
+    prices: [{ name: 'gas', kind: 'fuel', price_per_MWh: 36, currency: 'EUR' }],
+  });
+  const unit = await createUnit(site.id, { name: `Air compressor ${randomUUID().slice(0, 6)}`, kind: 'compressor' });
+  const rows: (typeof unitHours.$inferInsert)[] = [];
+  for (let i = 1; i <= 24; i++) {
+    rows.push({ unitId: unit.id, hourStart: new Date(t0 + (i - 1) * HOUR), state: 'steady', load: i, T0_K: 293.15, destruction_W: 100_000 + 5000 * i + (i % 2 ? 2000 : -2000), modelVersion: 't', inputsHash: `r${i}` });
+  }
+  const b = 5000 - 24000 / 1150;
+  const a = 162500 - b * 12.5;
+  rows.push({ unitId: unit.id, hourStart: new Date(t0 + 30 * HOUR), state: 'steady', load: 10, T0_K: 293.15, destruction_W: a + b * 10 + 60_000, destruction_U_W: extraHourU_W, modelVersion: 't', inputsHash: 'drift' });
+  await db().insert(unitHours).values(rows);
+  const draft = await fitDraft(unit.id, { periodFrom: new Date(t0), periodTo: new Date(t0 + 24 * HOUR), terms: ['load'] }, leadId);
+  await acceptBaseline(draft.id, leadId);
+  await checkDrift({ siteId: site.id, fromMs: t0, toMs: t0 + 31 * HOUR });
+  const opened = await db().select({ id: driftNotices.id }).from(driftNotices).where(eq(driftNotices.unitId, unit.id));
+  expect(opened).toHaveLength(1);
+  return { siteId: site.id, unitId: unit.id, unitName: unit.name, noticeId: opened[0]!.id };
+}
+
+describeIntegration('drift notices: figures, seen and closed, the daily digest', () => {
+  beforeAll(async () => {
+    const [lead] = await db().select().from(user).where(eq(user.email, 'lead@demo.lossline.test'));
+    const [planner] = await db().select().from(user).where(eq(user.email, 'planner@demo.lossline.test'));
+    leadId = lead!.id;
+    plannerId = planner!.id;
+    const boss = await queue();
+    await boss.work(QUEUES.sendMail, { pollingIntervalSeconds: 0.5 }, async ([job]) => {
+      await sendMail(SendMailPayload.parse(job!.data));
+    });
+  });
+
+  it('the uncertainty rule: |shift| against U(hour)/sqrt(n) (hand-worked: 3000 W / sqrt(4) = 1500 W)', () => {
+    expect(shiftAgainstUncertainty(4000, 3000, 4)).toEqual({ shiftU_W: 1500, exceeds: true });
+    expect(shiftAgainstUncertainty(-1400, 3000, 4)).toEqual({ shiftU_W: 1500, exceeds: false });
+    expect(shiftAgainstUncertainty(-1600, 3000, 4)).toEqual({ shiftU_W: 1500, exceeds: true });
+    expect(shiftAgainstUncertainty(4000, null, 4)).toEqual({ shiftU_W: null, exceeds: null });
+  });
+
+  it('a notice states its cost from the site fuel price when the hours carry none, and the caution with the chart rows', async () => {
+    const u = await unitWithNotice('cost');
+    const n = await getNotice(u.noticeId);
+    expect(n.status).toBe('open');
+    expect(n.statusWord).toBe('open');
+    expect(n.hours).toBe(1);
+    // The hour is 60 kW above the fitted line at x = 10 (the line is the baseline itself).
+    expectClose(n.extra_W, 60_000, { rtol: 1e-9 });
+    // Fallback cost: c_F = 36 EUR/MWh / 3.6e9 J/MWh / 1.04 (natural gas exergy/LHV, docs/domain.md section 4);
+    // per day: c_F * 60 000 W * 86 400 s = 36 / 3.6e9 / 1.04 * 60000 * 86400 = 49.846... EUR/day.
+    expectClose(n.extraCost_per_day!, (36 / 3.6e9 / 1.04) * 60000 * 86400, { rtol: 1e-9 });
+    expect(n.costBasis).toMatch(/site's fuel price 'gas'/);
+    // One hour, U = 4000 W: the shift of 60 kW exceeds it.
+    expect(n.shiftU_W).toBe(4000);
+    expect(n.exceedsUncertainty).toBe(true);
+    expect(n.url).toBe(`${process.env.PUBLIC_BASE_URL}/notices/${n.id}`);
+    // Period [2025-07-01 00:00Z, 2025-07-02 00:00Z) is 02:00 to 01:59 the next day in Madrid (UTC+2).
+    expect(n.baselineLabel).toBe('Baseline v1 (2025-07-01 to 2025-07-02)');
+    const d = await noticeDetail(u.noticeId);
+    expect(d.caution).toBe(NOTICE_CAUTION);
+    expect(d.caution).toMatch(/not an alarm/);
+    expect(d.caution).toMatch(/not a protective or control system/);
+    expect(d.caution).toMatch(/depend on the instruments/);
+    expect(d.caution).toMatch(/site's procedures, local codes and the judgement of licensed engineers/);
+    expect(d.series).toHaveLength(1);
+    expect(d.series[0]!.residual_W).toBeCloseTo(60_000, 6);
+  });
+
+  it('open -> seen -> closed with a comment; no second acknowledgement, no close without a comment; open ones listed first', async () => {
+    const u = await unitWithNotice('flow', null);
+    expect((await getNotice(u.noticeId)).exceedsUncertainty).toBeNull();
+    const other = await unitWithNotice('flow-2');
+    await closeNotice(other.noticeId, leadId, 'Filter changed.');
+
+    const seen = await acknowledgeNotice(u.noticeId, plannerId, 'Looking at it');
+    expect([seen.status, seen.statusWord, seen.acknowledgedBy, seen.acknowledgeComment]).toEqual(['acknowledged', 'seen', 'Pia Planner', 'Looking at it']);
+    const again = await acknowledgeNotice(u.noticeId, plannerId).catch((e) => e);
+    expect(again.code).toBe('CONFLICT');
+    const empty = await closeNotice(u.noticeId, plannerId, '   ').catch((e) => e);
+    expect(empty.code).toBe('VALIDATION_FAILED');
+
+    const list = await listNotices();
+    const rank = (id: string) => list.findIndex((n) => n.id === id);
+    expect(rank(u.noticeId)).toBeGreaterThanOrEqual(0);
+    expect(rank(u.noticeId)).toBeLessThan(rank(other.noticeId));
+    expect(list.slice(0, rank(other.noticeId)).every((n) => n.status !== 'closed')).toBe(true);
+
+    const closed = await closeNotice(u.noticeId, plannerId, 'Intercooler cleaned.');
+    expect([closed.status, closed.closedBy, closed.closeComment]).toEqual(['closed', 'Pia Planner', 'Intercooler cleaned.']);
+    expect((await closeNotice(u.noticeId, plannerId, 'twice').catch((e) => e)).code).toBe('CONFLICT');
+    expect((await listNotices({ status: 'not-closed' })).some((n) => n.id === u.noticeId)).toBe(false);
+  });
+
+  it('the daily digest goes once a day to those who opted in, listing the notices not closed, with the caution', async () => {
+    const u = await unitWithNotice('digest');
+    await setNoticePreferences(plannerId, { dailyDigest: true });
+    await setNoticePreferences(leadId, { dailyDigest: false });
+    // An invented day far ahead, so repeated local runs do not meet an earlier digest's marker.
+    const day = new Date(Date.UTC(2300, 0, 1) + randomInt(0, 300_000) * 86_400_000);
+    const dayText = day.toISOString().slice(0, 10);
+    const first = await sendNoticeDigests(day);
+    expect(first).toContain('planner@demo.lossline.test');
+    expect(first).not.toContain('lead@demo.lossline.test');
+    expect(await sendNoticeDigests(new Date(day.getTime() + 3 * HOUR))).toEqual([]);
+    const marks = await db().select().from(noticeDigests).where(eq(noticeDigests.day, dayText));
+    expect(marks.map((m) => m.userId)).toEqual([plannerId]);
+
+    const mail = await waitForMail('planner@demo.lossline.test', dayText);
+    expect(mail.text).toContain(u.unitName);
+    expect(mail.text).toContain(`/notices/${u.noticeId}`);
+    expect(mail.text).toContain('not an alarm');
+    await new Promise((r) => setTimeout(r, 1500));
+    expect((await caughtMail()).filter((m) => m.subject.includes(dayText))).toHaveLength(1);
+    await setNoticePreferences(plannerId, { dailyDigest: false });
+
+    const open = await db().select({ n: sql<number>`count(*)::int` }).from(driftNotices).where(sql`${driftNotices.status} <> 'closed'`);
+    expect(mail.subject).toContain(`${open[0]!.n} drift notice`);
+  });
+});
