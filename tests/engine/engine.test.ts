@@ -2,8 +2,10 @@
  * The pure hourly engine (src/lib/engine): a unit of the plant model, its links and invented tag hours
  * in; the unit hour out. Reference figures come from outside the engine (see ./cases.ts).
  */
+import { createHash } from 'node:crypto';
 import { describe, expect, it } from 'vitest';
 import { computeUnitHour, costKindOf, sha256Hex, canonicalJson, steamCost, ENGINE_VERSION } from '../../src/lib/engine';
+import { ByteHasher } from '../../src/lib/engine/hash';
 import { expectClose } from '../support/expect-close';
 import { ALL_CASES, boilerCase, heatExchangerCase, pumpCase, refCase, turbineCase, valveCase } from './cases';
 import { HOUR0, hoursOf, inputOf, linksOf, siteOf, unitOf } from './support';
@@ -233,6 +235,21 @@ describe('hashes', () => {
     expect(sha256Hex('abc')).toBe('ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad');
     expect(sha256Hex('')).toBe('e3b0c44298fc1c149afbf4c8996fb92427ae41e4649b934ca495991b7852b855');
     expect(sha256Hex('abcdbcdecdefdefgefghfghighijhijkijkljklmklmnlmnomnopnopq')).toBe('248d6a61d20638b8e5c026930c3e6039a33ce45964ff2167f6ecedd419db06c1');
+  });
+
+  it('SHA-256 agrees with node:crypto (an independent implementation) on texts of every length up to three blocks, ASCII or not', () => {
+    for (let n = 0; n < 200; n++) {
+      const t = Array.from({ length: n }, (_, i) => (i % 7 === 3 && n % 2 ? 'é°Ω' : 'abcXYZ09|=,'[(i * 7 + n) % 11])).join('');
+      expect(sha256Hex(t)).toBe(createHash('sha256').update(t, 'utf8').digest('hex'));
+    }
+  });
+
+  it('the byte hasher digests texts and binary64 numbers as documented (checked against node:crypto)', () => {
+    const parts: Buffer[] = [Buffer.from('TG_MW\u0000', 'utf8'), Buffer.from([1]), Buffer.alloc(8), Buffer.from([2]), Buffer.from([1]), Buffer.alloc(8), Buffer.from('Ω\u0000', 'utf8')];
+    parts[2]!.writeDoubleLE(11.92, 0);
+    parts[5]!.writeDoubleLE(0, 0); // -0 is written as 0
+    const want = createHash('sha256').update(Buffer.concat(parts)).digest('hex');
+    expect(new ByteHasher().reset().text('TG_MW').num(11.92).num(NaN).num(-0).text('Ω').digest()).toBe(want);
   });
 
   it('canonical JSON sorts keys and drops undefined members', () => {

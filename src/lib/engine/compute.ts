@@ -26,11 +26,10 @@
  */
 import { BalanceInputError, evaluateUnitHour, inputNames, unitHourWithUncertainty, type UnitBalance, type UnitModel } from '../equipment';
 import { classifyHour, destructionCost_per_hour, type BalanceClosure, type SpreadLimit, type TagHourStats } from '../analytics';
-import { converterFor } from '../units/convert';
 import { LINK_QUANTITIES } from '../plant/kinds';
-import { canonicalJson, hashOf } from './hash';
-import { mapUnitHour, unitParameters, type InputEntry, type MappedUnit } from './map';
-import type { EngineLink, EngineReason, EngineHourState, TagHour, UnitHourInput, UnitHourResult } from './types';
+import { ByteHasher, hashOf } from './hash';
+import { cachedConverter, mapUnitHour, unitParameters, type InputEntry, type MappedUnit } from './map';
+import type { EngineLink, EngineReason, EngineHourState, EngineUnit, TagHour, UnitHourInput, UnitHourResult } from './types';
 
 /** Bumped whenever the engine's method changes, so that every stored hour is recomputed once. */
 export const ENGINE_VERSION = 'lossline-engine-1';
@@ -53,18 +52,88 @@ export interface ComputeOptions {
   uncertainty?: boolean;
 }
 
-const models = new Map<string, UnitModel>();
-/** One model object per distinct model, so the equipment library's compiled form and memos are reused. */
-function sharedModel(kind: string, model: UnitModel): UnitModel {
-  const key = kind + canonicalJson(model);
-  let m = models.get(key);
-  if (!m) {
-    if (models.size > 2000) models.clear();
-    m = model;
-    models.set(key, m);
-  }
+const models = new WeakMap<object, Map<string, UnitModel>>();
+/**
+ * One model object per unit and distinct model, so that the equipment library's compiled form and
+ * its memoised port states are reused from hour to hour. The signature holds everything of a model
+ * that can change from one hour to the next for the same unit (state and flow modes, O2 basis, powers).
+ */
+function sharedModel(unit: EngineUnit, kind: string, model: UnitModel): UnitModel {
+  const sig = [
+    kind,
+    model.powerMeasured ?? '',
+    model.belowDeadState ?? '',
+    (model.ports ?? []).map((p) => [p.name, p.direction, p.role, p.group, p.state, p.flow, p.fluid.kind, 'o2Basis' in p.fluid ? p.fluid.o2Basis : ''].join(':')).join('|'),
+    (model.powers ?? []).map((w) => `${w.name}:${w.role}:${w.direction}`).join('|'),
+    (model.heats ?? []).map((q) => `${q.name}:${q.role}:${q.direction}`).join('|'),
+  ].join('#');
+  let byUnit = models.get(unit);
+  if (!byUnit) models.set(unit, (byUnit = new Map()));
+  let m = byUnit.get(sig);
+  if (!m) byUnit.set(sig, (m = model));
   return m;
 }
+
+const versions = new WeakMap<object, Map<string, string>>();
+const siteKeys = new WeakMap<object, number>();
+let siteSeq = 0;
+const linkKey = (l: EngineLink) => [l.id, l.portName, l.quantity, l.tagName, l.engUnit, l.basis, l.uncertaintyMode, l.uncertainty, l.validMin, l.validMax, l.validFromMs, l.validToMs];
+
+/**
+ * The model version of an hour: a hash of the method (ENGINE_VERSION), the unit (kind, parameters,
+ * fuel, ports), the link versions holding, the site's settings and the flue-gas sources. Kept per
+ * unit object and link set, since it is the same for every hour those links hold.
+ */
+function modelVersionOf(input: UnitHourInput, params: Record<string, unknown>): string {
+  let sk = siteKeys.get(input.site);
+  if (sk === undefined) siteKeys.set(input.site, (sk = ++siteSeq));
+  const fg = input.flueGasSources ? Object.entries(input.flueGasSources).map(([k, v]) => `${k}:${v.o2Link?.id ?? ''}:${v.o2Link?.validToMs ?? ''}`).join(',') : '';
+  const key = `${sk}|${input.links.map((l) => `${l.id}:${l.validFromMs}:${l.validToMs}`).join(',')}|${fg}`;
+  let byUnit = versions.get(input.unit);
+  if (!byUnit) versions.set(input.unit, (byUnit = new Map()));
+  let v = byUnit.get(key);
+  if (!v) {
+    const { unit, site } = input;
+    v = hashOf({
+      engine: ENGINE_VERSION,
+      unit: { kind: unit.kind, parameters: params, fuel: unit.fuel, ports: unit.ports },
+      links: [...input.links].sort((a, b) => (a.id < b.id ? -1 : 1)).map(linkKey),
+      site: { p_atm_Pa: site.p_atm_Pa, T0_K: site.T0_K, p0_Pa: site.p0_Pa, t0Tag: site.t0Tag },
+      flueGasSources: input.flueGasSources ? Object.fromEntries(Object.entries(input.flueGasSources).map(([k, s]) => [k, { fuel: s.fuel, o2: s.o2Link && linkKey(s.o2Link) }])) : null,
+    }).slice(0, 32);
+    if (byUnit.size > 1000) byUnit.clear();
+    byUnit.set(key, v);
+  }
+  return v;
+}
+
+/** The tags whose hours an input uses: the unit's, the ambient tag, flue-gas source O2 tags; sorted. */
+function usedTagsOf(input: UnitHourInput): string[] {
+  const used = new Set<string>(input.links.map((l) => l.tagName));
+  if (input.site.t0Tag) used.add(input.site.t0Tag.name);
+  for (const s of Object.values(input.flueGasSources ?? {})) if (s.o2Link) used.add(s.o2Link.tagName);
+  return [...used].sort();
+}
+
+
+/**
+ * The model version and the inputs hash of a unit hour, without computing it: the inputs hash covers
+ * the model version, every used tag's statistics, the cost basis and whether uncertainty is propagated.
+ * The same inputs always give the same hashes; the engine's caller skips an hour whose stored inputs
+ * hash is unchanged.
+ */
+export function unitHourHashes(input: UnitHourInput, options: ComputeOptions = {}): { modelVersion: string; inputsHash: string } {
+  const modelVersion = modelVersionOf(input, unitParameters(input.unit));
+  const h = hasher.reset().text(modelVersion).num(options.uncertainty ?? true).num(input.cost?.cF_per_J ?? null);
+  for (const t of usedTagsOf(input)) {
+    h.text(t);
+    const th = input.tagHours.get(t);
+    if (!th) h.text('none');
+    else h.num(th.mean).num(th.min).num(th.max).num(th.std).num(th.samples).num(th.coveredFraction).num(th.nonNumeric).num(th.outOfRange).num(th.flatline);
+  }
+  return { modelVersion, inputsHash: h.digest().slice(0, 32) };
+}
+const hasher = new ByteHasher();
 
 /** The dead state of the hour: the ambient tag's mean when it has one, else the site's fixed T0. */
 export function deadStateOf(input: Pick<UnitHourInput, 'site' | 'tagHours'>): { T0_K: number; p0_Pa: number; source: string; tag?: string } {
@@ -73,7 +142,7 @@ export function deadStateOf(input: Pick<UnitHourInput, 'site' | 'tagHours'>): { 
     const th = input.tagHours.get(site.t0Tag.name);
     if (th && th.mean !== null && Number.isFinite(th.mean) && th.samples > 0 && !th.flatline) {
       try {
-        const T = converterFor(site.t0Tag.engUnit, 'temperature').toSI(th.mean);
+        const T = cachedConverter(site.t0Tag.engUnit, 'temperature', site.p_atm_Pa).toSI(th.mean);
         if (T >= T0_RANGE_K[0] && T <= T0_RANGE_K[1]) return { T0_K: T, p0_Pa: site.p0_Pa, source: 'ambient tag', tag: site.t0Tag.name };
       } catch {
         /* falls back below */
@@ -90,7 +159,7 @@ function statsSI(link: EngineLink, th: TagHour | undefined, p_atm_Pa: number): T
   let factor = 1;
   let toSI = (v: number) => v;
   try {
-    const c = converterFor(link.engUnit, LINK_QUANTITIES[link.quantity].quantity, { p_atm_Pa });
+    const c = cachedConverter(link.engUnit, LINK_QUANTITIES[link.quantity].quantity, p_atm_Pa);
     factor = Math.abs(c.factor);
     toSI = c.toSI;
   } catch {
@@ -186,7 +255,7 @@ export function computeUnitHour(input: UnitHourInput, options: ComputeOptions = 
   let balanceError: { code: string; input: string; message: string } | null = null;
   const computed: EngineReason[] = [];
   if (mapped && problems.length === 0) {
-    const model = sharedModel(mapped.balanceKind, mapped.model);
+    const model = sharedModel(unit, mapped.balanceKind, mapped.model);
     try {
       names = inputNames(mapped.balanceKind, model);
       mapped.entries.set('T0_K', { name: 'T0_K', value: dead.T0_K, u: 0, source: dead.tag && dead.source === 'ambient tag' ? { kind: 'site', what: `dead state from the ambient tag ${dead.tag}` } : { kind: 'site', what: 'dead state' } });
@@ -194,9 +263,14 @@ export function computeUnitHour(input: UnitHourInput, options: ComputeOptions = 
       entries = names.map((n) => mapped!.entries.get(n) ?? { name: n, value: NaN, u: 0, source: { kind: 'site', what: 'missing' } as const });
       const missing = entries.filter((e) => !Number.isFinite(e.value));
       if (missing.length === 0) {
-        const x = Float64Array.from(entries, (e) => e.value);
+        const x = new Float64Array(entries.length);
+        const u = new Float64Array(entries.length);
+        for (let i = 0; i < entries.length; i++) {
+          x[i] = entries[i]!.value;
+          u[i] = entries[i]!.u;
+        }
         if (withU) {
-          unc = unitHourWithUncertainty(mapped.balanceKind, model, x, Float64Array.from(entries, (e) => e.u));
+          unc = unitHourWithUncertainty(mapped.balanceKind, model, x, u);
           balance = unc.balance;
         } else balance = evaluateUnitHour(mapped.balanceKind, model, x);
       } else {
@@ -318,21 +392,10 @@ export function computeUnitHour(input: UnitHourInput, options: ComputeOptions = 
   }
 
   // The hashes: the model version (unit, links, site settings, method) and every input of the row.
-  const linkKey = (l: EngineLink) => [l.id, l.portName, l.quantity, l.tagName, l.engUnit, l.basis, l.uncertaintyMode, l.uncertainty, l.validMin, l.validMax, l.validFromMs, l.validToMs];
-  const modelVersion = hashOf({
-    engine: ENGINE_VERSION,
-    unit: { kind: unit.kind, parameters: params, fuel: unit.fuel, ports: unit.ports },
-    links: [...input.links].sort((a, b) => (a.id < b.id ? -1 : 1)).map(linkKey),
-    site: { p_atm_Pa: site.p_atm_Pa, T0_K: site.T0_K, p0_Pa: site.p0_Pa, t0Tag: site.t0Tag },
-    flueGasSources: input.flueGasSources ? Object.fromEntries(Object.entries(input.flueGasSources).map(([k, v]) => [k, { fuel: v.fuel, o2: v.o2Link && linkKey(v.o2Link) }])) : null,
-  }).slice(0, 32);
-  const usedTags = new Set<string>([...input.links.map((l) => l.tagName), ...(site.t0Tag ? [site.t0Tag.name] : [])]);
-  for (const s of Object.values(input.flueGasSources ?? {})) if (s.o2Link) usedTags.add(s.o2Link.tagName);
-  const tagHourList = [...usedTags].sort().map((t) => {
-    const th = input.tagHours.get(t);
-    return [t, th ? [th.mean, th.min, th.max, th.std, th.samples, th.coveredFraction, th.nonNumeric, th.outOfRange, th.flatline] : null] as const;
-  });
-  const inputsHash = hashOf({ modelVersion, tagHours: tagHourList, cost: input.cost?.cF_per_J ?? null, uncertainty: withU }).slice(0, 32);
+  const { modelVersion, inputsHash } = unitHourHashes(input, options);
+  const usedTags = usedTagsOf(input);
+  const linkOfTag = new Map<string, EngineLink>();
+  for (const l of input.links) if (!linkOfTag.has(l.tagName)) linkOfTag.set(l.tagName, l);
 
   const detail: Record<string, unknown> = {
     engine: ENGINE_VERSION,
@@ -393,8 +456,8 @@ export function computeUnitHour(input: UnitHourInput, options: ComputeOptions = 
           unavailable: unc.unavailable,
         }
       : null,
-    tagHours: [...usedTags].sort().map((t) => {
-      const l = input.links.find((k) => k.tagName === t);
+    tagHours: usedTags.map((t) => {
+      const l = linkOfTag.get(t);
       const th = input.tagHours.get(t);
       return {
         tag: t,

@@ -37,8 +37,30 @@ const K = new Uint32Array([
   0x90befffa, 0xa4506ceb, 0xbef9a3f7, 0xc67178f2,
 ]);
 
-function utf8(s: string): Uint8Array {
-  return new TextEncoder().encode(s);
+const ENCODER = new TextEncoder();
+const W = new Uint32Array(64);
+const H = new Uint32Array(8);
+const H0 = [0x6a09e667, 0xbb67ae85, 0x3c6ef372, 0xa54ff53a, 0x510e527f, 0x9b05688c, 0x1f83d9ab, 0x5be0cd19];
+let buf = new Uint8Array(4096);
+
+/** UTF-8 bytes of a text into the shared buffer (ASCII without an encoder); returns the length. */
+function utf8Into(text: string): number {
+  const n = text.length;
+  if (buf.length < n * 3 + 72) buf = new Uint8Array(n * 3 + 72);
+  let ascii = true;
+  for (let i = 0; i < n; i++) {
+    const c = text.charCodeAt(i);
+    if (c > 127) {
+      ascii = false;
+      break;
+    }
+    buf[i] = c;
+  }
+  if (ascii) return n;
+  const bytes = ENCODER.encode(text);
+  if (buf.length < bytes.length + 72) buf = new Uint8Array(bytes.length + 72);
+  buf.set(bytes);
+  return bytes.length;
 }
 
 /**
@@ -46,18 +68,36 @@ function utf8(s: string): Uint8Array {
  * @see FIPS 180-4 section 6.2
  */
 export function sha256Hex(text: string): string {
-  const msg = utf8(text);
-  const bitLen = msg.length * 8;
-  const padded = new Uint8Array(Math.ceil((msg.length + 9) / 64) * 64);
-  padded.set(msg);
-  padded[msg.length] = 0x80;
-  const view = new DataView(padded.buffer);
-  view.setUint32(padded.length - 8, Math.floor(bitLen / 2 ** 32));
-  view.setUint32(padded.length - 4, bitLen >>> 0);
-  const H = new Uint32Array([0x6a09e667, 0xbb67ae85, 0x3c6ef372, 0xa54ff53a, 0x510e527f, 0x9b05688c, 0x1f83d9ab, 0x5be0cd19]);
-  const W = new Uint32Array(64);
-  for (let off = 0; off < padded.length; off += 64) {
-    for (let t = 0; t < 16; t++) W[t] = view.getUint32(off + 4 * t);
+  return digestBuffer(utf8Into(text));
+}
+
+/** SHA-256 of the first len bytes of the shared buffer (which it pads in place). */
+function digestBuffer(len: number): string {
+  if (buf.length < len + 72) {
+    const b = new Uint8Array(len + 72);
+    b.set(buf.subarray(0, len));
+    buf = b;
+  }
+  const total = Math.ceil((len + 9) / 64) * 64;
+  buf.fill(0, len, total);
+  buf[len] = 0x80;
+  const bitLen = len * 8;
+  const hi = Math.floor(bitLen / 2 ** 32);
+  const lo = bitLen >>> 0;
+  buf[total - 8] = hi >>> 24;
+  buf[total - 7] = (hi >>> 16) & 255;
+  buf[total - 6] = (hi >>> 8) & 255;
+  buf[total - 5] = hi & 255;
+  buf[total - 4] = lo >>> 24;
+  buf[total - 3] = (lo >>> 16) & 255;
+  buf[total - 2] = (lo >>> 8) & 255;
+  buf[total - 1] = lo & 255;
+  for (let i = 0; i < 8; i++) H[i] = H0[i]!;
+  for (let off = 0; off < total; off += 64) {
+    for (let t = 0; t < 16; t++) {
+      const o = off + 4 * t;
+      W[t] = ((buf[o]! << 24) | (buf[o + 1]! << 16) | (buf[o + 2]! << 8) | buf[o + 3]!) >>> 0;
+    }
     for (let t = 16; t < 64; t++) {
       const w15 = W[t - 15]!;
       const w2 = W[t - 2]!;
@@ -94,6 +134,62 @@ export function sha256Hex(text: string): string {
   let out = '';
   for (let i = 0; i < 8; i++) out += H[i]!.toString(16).padStart(8, '0');
   return out;
+}
+
+/**
+ * Builds a byte message for SHA-256 from texts and numbers without turning numbers into text: a number
+ * is a marker byte and its IEEE 754 binary64 bytes (-0 as 0; null, undefined, NaN and infinities as
+ * one marker), a text its UTF-8 bytes and a terminator. Deterministic: the same parts always give the
+ * same digest.
+ */
+export class ByteHasher {
+  private len = 0;
+  private view = new DataView(new ArrayBuffer(8));
+  private room(n: number) {
+    if (buf.length < this.len + n + 72) {
+      const b = new Uint8Array(Math.max(2 * buf.length, this.len + n + 72));
+      b.set(buf.subarray(0, this.len));
+      buf = b;
+    }
+  }
+  /** Starts a new message (the buffer is shared: finish one message before starting another). */
+  reset(): this {
+    this.len = 0;
+    return this;
+  }
+  text(t: string): this {
+    for (let i = 0; i < t.length; i++) {
+      const c = t.charCodeAt(i);
+      if (c > 127) return this.bytes(ENCODER.encode(t));
+    }
+    this.room(t.length + 1);
+    for (let i = 0; i < t.length; i++) buf[this.len++] = t.charCodeAt(i);
+    buf[this.len++] = 0;
+    return this;
+  }
+  private bytes(b: Uint8Array): this {
+    this.room(b.length + 1);
+    buf.set(b, this.len);
+    this.len += b.length;
+    buf[this.len++] = 0;
+    return this;
+  }
+  num(v: number | null | undefined | boolean): this {
+    this.room(9);
+    if (typeof v === 'boolean') v = v ? 1 : 0;
+    if (v === null || v === undefined || !Number.isFinite(v)) {
+      buf[this.len++] = 2;
+      return this;
+    }
+    buf[this.len++] = 1;
+    this.view.setFloat64(0, v === 0 ? 0 : v, true);
+    for (let i = 0; i < 8; i++) buf[this.len++] = this.view.getUint8(i);
+    return this;
+  }
+  /** The message's SHA-256 (hex). */
+  digest(): string {
+    return digestBuffer(this.len);
+  }
 }
 
 /** SHA-256 of the canonical JSON of a value (hex). */

@@ -9,6 +9,7 @@ export { canonicalJson, hashOf, sha256Hex } from './hash';
 export { mapUnitHour, unitParameters, fuelFluidOf, fuelSpecOfDefinition, type InputEntry, type InputSource, type MappedUnit, type PortPlan } from './map';
 export {
   computeUnitHour,
+  unitHourHashes,
   deadStateOf,
   ENGINE_VERSION,
   ENERGY_CLOSURE_TOLERANCE,

@@ -31,7 +31,7 @@ import {
 } from '../equipment';
 import { water } from '../thermo/water';
 import { mixture, dryAir } from '../thermo/gas';
-import { converterFor, uncertaintyToSI } from '../units/convert';
+import { converterFor, type Converter } from '../units/convert';
 import { MOLAR_GAS_CONSTANT_J_per_molK } from '../units/constants';
 import { LINK_QUANTITIES, defaultParameters, kindSpec, measurementsFor, type FluidKind, type LinkQuantity, type ParamValue } from '../plant/kinds';
 import type { Fluid as PlantFluid, FuelDefinition } from '../plant/model';
@@ -144,15 +144,32 @@ function linkAt(ctx: Ctx, port: string | null, ...qs: LinkQuantity[]): EngineLin
   return undefined;
 }
 
+const converters = new Map<string, Converter>();
+/**
+ * A converter per engineering unit, quantity and site atmosphere, kept (parsing a unit text is the
+ * slow part of a conversion). Uncertainties convert with the factor alone (no offset, no gauge shift),
+ * as src/lib/units uncertaintyToSI does.
+ */
+export function cachedConverter(engUnit: string, quantity: Parameters<typeof converterFor>[1], p_atm_Pa: number): Converter {
+  const key = `${engUnit}\u0000${quantity}\u0000${p_atm_Pa}`;
+  let c = converters.get(key);
+  if (!c) {
+    if (converters.size > 5000) converters.clear();
+    c = converterFor(engUnit, quantity, { p_atm_Pa });
+    converters.set(key, c);
+  }
+  return c;
+}
+
 /** A link's hourly mean in SI with its standard uncertainty in SI (NaN when the hour has no value). */
 function reading(ctx: Ctx, link: EngineLink): { value: number; u: number; reading: number } {
   const q = LINK_QUANTITIES[link.quantity].quantity;
   const th = ctx.tagHours.get(link.tagName);
   const mean = th?.mean;
   if (mean === null || mean === undefined || !Number.isFinite(mean)) return { value: NaN, u: 0, reading: NaN };
-  const conv = converterFor(link.engUnit, q, { p_atm_Pa: ctx.p_atm_Pa });
+  const conv = cachedConverter(link.engUnit, q, ctx.p_atm_Pa);
   const uEng = link.uncertaintyMode === 'relative' ? (Math.abs(mean) * link.uncertainty) / 100 : link.uncertainty;
-  return { value: conv.toSI(mean), u: uncertaintyToSI(uEng, link.engUnit, q), reading: mean };
+  return { value: conv.toSI(mean), u: Math.abs(uEng * conv.factor), reading: mean };
 }
 
 function put(ctx: Ctx, name: string, value: number, u: number, source: InputSource): void {
@@ -171,9 +188,17 @@ function fromLink(ctx: Ctx, name: string, link: EngineLink): number {
   }
 }
 
+const molarMasses = new WeakMap<object, number | null>();
 /** Molar mass of a gas port's fluid [kg/mol], or null when the fluid has none that is fixed. */
 function molarMass(ctx: Ctx, fluid: PlantFluid | null): number | null {
   if (!fluid) return null;
+  const key = fluid.kind === 'fuel' ? ctx.unit.fuel : fluid;
+  if (key && molarMasses.has(key)) return molarMasses.get(key)!;
+  const M = molarMassOf(ctx, fluid);
+  if (key) molarMasses.set(key, M);
+  return M;
+}
+function molarMassOf(ctx: Ctx, fluid: PlantFluid): number | null {
   switch (fluid.kind) {
     case 'air':
       return dryAir.M_kg_per_mol;
@@ -246,6 +271,14 @@ function flowEntry(ctx: Ctx, port: EnginePort, link: EngineLink, pT: { p: number
     }
   }
   put(ctx, name, mDot, Math.abs(mDot) * rel, { kind: 'tag', tag: link.tagName, linkId: link.id, quantity: link.quantity, engUnit: link.engUnit, reading: r.reading, ...(note ? { note } : {}) });
+}
+
+const condensedFuels = new WeakMap<object, boolean>();
+function isCondensed(def: FuelDefinition | null, fluid: FluidSpec): boolean {
+  if (def && condensedFuels.has(def)) return condensedFuels.get(def)!;
+  const c = prepareFluid(fluid).family === 'condensed-fuel';
+  if (def) condensedFuels.set(def, c);
+  return c;
 }
 
 function fluidSpecOf(ctx: Ctx, port: EnginePort, o2Basis: 'dry' | 'wet'): FluidSpec | null {
@@ -337,7 +370,7 @@ function planPort(ctx: Ctx, port: EnginePort, o: PortOptions): PortSpec | null {
   let stateWords = '';
   let p = NaN;
   let T = NaN;
-  const condensed = fluid.kind === 'fuel' && prepareFluid(fluid).family === 'condensed-fuel';
+  const condensed = fluid.kind === 'fuel' && isCondensed(ctx.unit.fuel, fluid);
   if (condensed) {
     spec.state = 'ambient';
     stateWords = 'at the dead state (a condensed fuel)';
@@ -443,6 +476,20 @@ function missingRequired(unit: EngineUnit, links: readonly EngineLink[]): Engine
   return out;
 }
 
+const missingCache = new WeakMap<object, Map<string, EngineReason[]>>();
+/** missingRequired, kept per unit object and link set (the same for every hour those links hold). */
+function missingRequiredCached(unit: EngineUnit, links: readonly EngineLink[]): EngineReason[] {
+  const key = links.map((l) => `${l.id}:${l.portName}:${l.quantity}`).join(',');
+  let byUnit = missingCache.get(unit);
+  if (!byUnit) missingCache.set(unit, (byUnit = new Map()));
+  let r = byUnit.get(key);
+  if (!r) {
+    if (byUnit.size > 1000) byUnit.clear();
+    byUnit.set(key, (r = missingRequired(unit, links)));
+  }
+  return r.map((x) => ({ ...x }));
+}
+
 const sumOf = (ctx: Ctx, names: string[]) => names.reduce((s, n) => s + (ctx.entries.get(n)?.value ?? NaN), 0);
 const tagsOf = (ctx: Ctx, names: string[]) =>
   names.map((n) => ctx.entries.get(n)?.source).flatMap((s) => (s?.kind === 'tag' ? [s.tag] : []));
@@ -466,7 +513,7 @@ export function mapUnitHour(
 ): MappedUnit {
   const params = unitParameters(unit);
   const ctx: Ctx = { unit, params, links, tagHours, p_atm_Pa, flueGasSources, entries: new Map(), problems: [], notes: [], plans: [] };
-  ctx.problems.push(...missingRequired(unit, links));
+  ctx.problems.push(...missingRequiredCached(unit, links));
   const keyLinks = [...links];
   const model: UnitModel = {};
   const specs: PortSpec[] = [];

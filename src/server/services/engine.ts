@@ -24,6 +24,7 @@ import {
   type FlueGasSource,
   type TagHour,
   type UnitHourResult,
+  unitHourHashes,
 } from '../../lib/engine';
 import type { UnitKind } from '../../lib/plant/kinds';
 import type { Fluid } from '../../lib/plant/model';
@@ -46,7 +47,7 @@ export interface ComputeOptions {
 
 export interface ComputeSummary {
   siteId: string;
-  /** unit hours computed */
+  /** unit hours looked at (their inputs hashed; computed when the hash changed) */
   computed: number;
   /** rows written (new or changed inputs) */
   written: number;
@@ -288,10 +289,11 @@ async function computeChunk(ctx: SiteContext, targets: EngineUnit[], fromMs: num
             .where(and(inArray(tagHours.tagId, tagIds), gte(tagHours.hourStart, from), lt(tagHours.hourStart, to)))
         : [];
       const existing = await tx
-        .select({ hourStart: unitHours.hourStart, inputsHash: unitHours.inputsHash })
+        .select({ hourStart: unitHours.hourStart, inputsHash: unitHours.inputsHash, fuel_W: unitHours.fuel_W, product_W: unitHours.product_W })
         .from(unitHours)
         .where(and(eq(unitHours.unitId, unit.id), gte(unitHours.hourStart, from), lt(unitHours.hourStart, to)));
       const known = new Map(existing.map((r) => [r.hourStart.getTime(), r.inputsHash]));
+      const knownRow = new Map(existing.map((r) => [r.hourStart.getTime(), r]));
       const tagName = new Map<string, string>();
       for (const x of own) tagName.set(x.tagId, x.link.tagName);
       for (const o of o2ByBoiler.values()) for (const x of o) tagName.set(x.tagId, x.link.tagName);
@@ -338,17 +340,24 @@ async function computeChunk(ctx: SiteContext, targets: EngineUnit[], fromMs: num
           const fb = firstBoiler ? fuelCost(firstBoiler, T0guess) : null;
           cost = ck === 'steam' ? steamCost(boilerHours.get(t) ?? [], fb, ctx.site.currency) : fb;
         }
-        const res: UnitHourResult = computeUnitHour(
-          { unit, links, tagHours: th, site: ctx.engineSite, hourStartMs: t, cost, flueGasSources: Object.keys(srcs).length ? srcs : undefined },
-          { uncertainty: withU },
-        );
+        const input = { unit, links, tagHours: th, site: ctx.engineSite, hourStartMs: t, cost, flueGasSources: Object.keys(srcs).length ? srcs : undefined };
         computed++;
+        // Same inputs, same row: an hour whose inputs hash is unchanged is neither computed nor written.
+        if (known.get(t) === unitHourHashes(input, { uncertainty: withU }).inputsHash) {
+          if (boilerIds.has(unit.id)) {
+            const k = knownRow.get(t)!;
+            const list = boilerHours.get(t) ?? [];
+            list.push({ name: unit.name, fuel_W: k.fuel_W, product_W: k.product_W, cF_per_J: cost?.cF_per_J ?? null });
+            boilerHours.set(t, list);
+          }
+          continue;
+        }
+        const res: UnitHourResult = computeUnitHour(input, { uncertainty: withU });
         if (boilerIds.has(unit.id)) {
           const list = boilerHours.get(t) ?? [];
           list.push({ name: unit.name, fuel_W: res.fuel_W, product_W: res.product_W, cF_per_J: cost?.cF_per_J ?? null });
           boilerHours.set(t, list);
         }
-        if (known.get(t) === res.inputsHash) continue;
         rows.push({
           unitId: unit.id,
           hourStart: new Date(t),
