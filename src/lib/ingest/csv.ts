@@ -10,10 +10,12 @@
  *   LF, one CR at the end of a record is removed (even inside quotes), so LF and CR LF lines may mix.
  * - Completely empty lines are skipped; every record carries the 1-based physical line it starts on
  *   (line breaks inside quoted fields count).
- * - Text after a closing quote (`"12"5`): papaparse would run the quoted field on to a later quote.
- *   Here the field ends at the next separator or line break, as before: its text is kept with lone
- *   quotes dropped (`"12"5` -> `125`), the field is re-quoted in the unparsed text, the record is
- *   parsed again, and the field is counted in `malformedQuoteCount`.
+ * - Text after a closing quote (`"12"5`): papaparse reports it (InvalidQuotes) and would run the
+ *   quoted field on to a later quote. Here the field ends at the next separator or line break, as
+ *   before: its text is kept with lone quotes dropped (`"12"5` -> `125`) and counted in
+ *   `malformedQuoteCount`. papaparse reads the record's fields before it, the wrapper keeps them and
+ *   papaparse goes on after the field, in small pieces at first (so each such field costs only the
+ *   text since the last one).
  * - Memory: text is parsed in pieces of at most 64 KiB, and the carried rest of an unfinished record
  *   may not exceed `maxRecordChars` (RECORD_TOO_LONG), so a single enormous line (or a quote never
  *   closed) stops early instead of being buffered. A quote still open at the end of the file is
@@ -30,8 +32,9 @@ const QUOTE = 34;
 
 /** Text parsed per papaparse call at most [characters]. */
 const WINDOW = 65536;
-/** Text per call right after a repaired field, doubling back up to WINDOW (bounds repair work). */
-const SMALL_WINDOW = 1024;
+/** Text per call right after a field with text after its closing quote, doubling back up to WINDOW
+ *  (papaparse reads on to the end of its input after such a field, so this bounds the work). */
+const SMALL_WINDOW = 64;
 /** Text looked at to decide the line break [characters]. */
 const NEWLINE_PROBE = 65536;
 
@@ -84,7 +87,7 @@ export class CsvTokenizer {
   private readonly maxRecordChars: number;
   private parser: Papa.Parser | null = null;
   private newline: '\n' | '\r' = '\n';
-  /** Unparsed start of the next record (its first line is `line`). */
+  /** Unparsed text from the start of the next record (or the rest of `partial`'s); it starts on `line`. */
   private carry = '';
   /** Pushed text not parsed yet. */
   private pending = '';
@@ -92,6 +95,10 @@ export class CsvTokenizer {
   /** Set when feed() stopped early after re-quoting a field. */
   private repaired = false;
   private line = 1;
+  /** Fields of a record read up to a field with text after its closing quote; the rest is in carry. */
+  private partial: string[] | null = null;
+  private partialLine = 0;
+  private partialChars = 0;
   private readonly rec: CsvRecord = { fields: [], count: 0, line: 1 };
   /** Records handed out so far. */
   recordCount = 0;
@@ -109,7 +116,7 @@ export class CsvTokenizer {
 
   /** Physical line number the next record will start on. */
   get currentLine(): number {
-    return this.line;
+    return this.partial ? this.partialLine : this.line;
   }
 
   push(chunk: string): void {
@@ -129,6 +136,13 @@ export class CsvTokenizer {
   /** Processes what is left; the last record may lack a line break. */
   end(): void {
     this.drain(true);
+    if (this.partial) {
+      // the file ends with a separator after a field with text after its closing quote: one more empty field
+      this.partial.push('');
+      this.emit(this.partial, this.partialLine);
+      this.partial = null;
+      this.partialChars = 0;
+    }
   }
 
   private tooLong(length: number, line: number): never {
@@ -139,6 +153,12 @@ export class CsvTokenizer {
       { line, length, maxRecordChars: this.maxRecordChars },
       line,
     );
+  }
+
+  /** The unfinished record (carry, and partial fields) may not exceed the limit. */
+  private checkCarry(): void {
+    const length = this.carry.length + this.partialChars;
+    if (length > this.maxRecordChars) this.tooLong(length, this.partial ? this.partialLine : this.line);
   }
 
   /**
@@ -168,7 +188,7 @@ export class CsvTokenizer {
       const nl = this.decideNewline(probe, final);
       if (nl === null) {
         this.carry = probe;
-        if (probe.length > this.maxRecordChars) this.tooLong(probe.length, this.line);
+        this.checkCarry();
         return;
       }
       this.newline = nl;
@@ -195,7 +215,7 @@ export class CsvTokenizer {
 
   /**
    * Parses carry + text[o, o + size), hands on the complete records and keeps the rest as carry.
-   * Returns the characters of text used: all of them, or fewer when a field was re-quoted (then
+   * Returns the characters of text used: all of them, or fewer when a field was re-read (then
    * `repaired` is set and the caller feeds the rest again).
    */
   private feed(text: string, o: number, size: number, final: boolean): number {
@@ -206,6 +226,7 @@ export class CsvTokenizer {
     const res = parser.parse(input, 0, !final) as PapaResult;
     const rows = res.data.length;
     const errors = res.errors;
+    const checkLength = input.length + this.partialChars > this.maxRecordChars;
     if (errors.length > 0) {
       const first = errors[0];
       if (first.code === 'InvalidQuotes') {
@@ -215,7 +236,7 @@ export class CsvTokenizer {
       for (const e of errors) {
         if (e.code === 'MissingQuotes') {
           const lineAtStart = this.line;
-          this.deliver(res.data, e.row, input);
+          this.deliver(res.data, e.row, false, checkLength);
           const quoteLine = lineAtStart + countChar(input, this.newline, 0, e.index - 1);
           throw new IngestError(
             'UNTERMINATED_QUOTE',
@@ -230,16 +251,26 @@ export class CsvTokenizer {
       }
     }
     const cursor = res.meta.cursor;
-    this.deliver(res.data, rows, input, cursor);
+    // one physical line per record unless quoted fields hold line breaks
+    let oneLineEach = true;
+    if (rows > 0 && input.indexOf('"') >= 0) {
+      const nl = this.newline;
+      const breaks = countChar(input, nl, 0, cursor);
+      const endsWithBreak = cursor > 0 && input.charCodeAt(cursor - 1) === nl.charCodeAt(0);
+      oneLineEach = breaks === (endsWithBreak ? rows : rows - 1);
+    }
+    this.deliver(res.data, rows, oneLineEach, checkLength);
     this.carry = cursor === 0 ? input : cursor >= input.length ? '' : input.slice(cursor);
-    if (this.carry.length > this.maxRecordChars) this.tooLong(this.carry.length, this.line);
+    this.checkCarry();
     return size;
   }
 
   /**
    * A quoted field opening at q0 has text after its closing quote. When the field's end (the next
-   * separator or line break) is known, re-quotes it in the carry, hands on the records before it and
-   * returns the characters of the current piece used; returns -1 to read the input as papaparse did.
+   * separator or line break) is in the input, hands on the records before it, keeps the fields of
+   * its record so far (this field read with the old rule) as `partial`, carries the text after it
+   * and returns the characters of the current piece used; returns -1 to read the input as papaparse
+   * did. Each such field costs the text from the previous one, not the whole record again.
    */
   private requote(input: string, q0: number, carryLength: number, final: boolean): number {
     let close = -1;
@@ -262,56 +293,78 @@ export class CsvTokenizer {
     if (end === input.length && !final) return -1; // the field may go on in the next piece: papaparse carries it
     // only spaces before a line break of the other kind (a lone CR in an LF file): read papaparse's way
     if (end < input.length && input.slice(close + 1, end).trim().length === 0) return -1;
-    // the records before this one are complete: papaparse gives them from the text before the quote
-    const before = this.parser!.parse(input.slice(0, q0), 0, true) as PapaResult;
-    this.deliver(before.data, before.data.length, input, before.meta.cursor);
-    const start = before.meta.cursor;
-    const fixed = '"' + unquoteMalformed(input.slice(q0 + 1, end)).replace(/"/g, '""') + '"';
+    // papaparse reads the text before the quote: whole records, then this record's fields so far
+    // (the last one empty: the field the quote opens)
+    const before = this.parser!.parse(input.slice(0, q0), 0, false) as PapaResult;
+    const rows = before.data;
+    const fields = rows.length > 0 ? rows.pop()! : [''];
+    this.deliver(rows, rows.length, false, true);
+    fields[fields.length - 1] = unquoteMalformed(input.slice(q0 + 1, end));
+    if (this.partial) for (const f of fields) this.partial.push(f);
+    else {
+      this.partial = fields;
+      this.partialLine = this.line;
+    }
+    const nl = this.newline;
+    for (const f of fields) {
+      this.partialChars += f.length + 1;
+      if (f.length > 0) this.line += countChar(f, nl, 0, f.length);
+    }
     this.malformedQuoteCount++;
-    this.carry = input.slice(start, q0) + fixed + (end < carryLength ? input.slice(end, carryLength) : '');
-    if (this.carry.length > this.maxRecordChars) this.tooLong(this.carry.length, this.line);
+    let next = end;
+    if (end < input.length && input.charCodeAt(end) === this.sep.charCodeAt(0)) next = end + 1;
+    else {
+      // the record ends with this field; its line break comes next in the carry
+      this.emit(this.partial, this.partialLine);
+      this.partial = null;
+      this.partialChars = 0;
+    }
+    this.carry = next < carryLength ? input.slice(next, carryLength) : '';
+    this.checkCarry();
     this.window = SMALL_WINDOW;
     this.repaired = true;
-    return Math.max(0, end - carryLength);
+    return Math.max(0, next - carryLength);
   }
 
-  /** Hands on rows [0, count): skips empty lines, removes a CR before LF, numbers lines. */
-  private deliver(data: string[][], count: number, input: string, consumed = -1): void {
-    if (count === 0) return;
+  /**
+   * Hands on rows [0, count): removes a CR before LF, skips empty lines, numbers lines (counting line
+   * breaks inside fields unless `oneLineEach`), joins the first row to `partial` fields.
+   */
+  private deliver(data: string[][], count: number, oneLineEach: boolean, checkLength: boolean): void {
     const nl = this.newline;
     const stripCR = nl === '\n';
-    // line breaks inside quoted fields: none when the consumed text has one break per row
-    let inside = false;
-    if (input.indexOf('"') >= 0) {
-      const upTo = consumed >= 0 ? consumed : input.length;
-      const breaks = countChar(input, nl, 0, upTo);
-      const endsWithBreak = upTo > 0 && input.charCodeAt(upTo - 1) === nl.charCodeAt(0);
-      inside = breaks !== (endsWithBreak ? count : count - 1);
-    }
-    const checkLength = input.length > this.maxRecordChars;
-    const rec = this.rec;
     for (let r = 0; r < count; r++) {
-      const row = data[r];
+      let row = data[r];
       const n = row.length;
-      const line = this.line;
+      let line = this.line;
       this.line++;
-      if (inside) for (let i = 0; i < n; i++) if (row[i].length > 0) this.line += countChar(row[i], nl, 0, row[i].length);
+      if (!oneLineEach) for (let i = 0; i < n; i++) if (row[i].length > 0) this.line += countChar(row[i], nl, 0, row[i].length);
       if (stripCR) {
         const f = row[n - 1];
         if (f.length > 0 && f.charCodeAt(f.length - 1) === CR) row[n - 1] = f.slice(0, -1);
       }
-      if (n === 1 && row[0].length === 0) continue;
+      if (this.partial) {
+        row = this.partial.concat(row);
+        line = this.partialLine;
+        this.partial = null;
+        this.partialChars = 0;
+      } else if (n === 1 && row[0].length === 0) continue;
       if (checkLength) {
-        let length = n - 1;
-        for (let i = 0; i < n; i++) length += row[i].length;
+        let length = row.length - 1;
+        for (let i = 0; i < row.length; i++) length += row[i].length;
         if (length > this.maxRecordChars) this.tooLong(length, line);
       }
-      rec.fields = row;
-      rec.count = n;
-      rec.line = line;
-      this.recordCount++;
-      this.onRecord(rec);
+      this.emit(row, line);
     }
+  }
+
+  private emit(fields: string[], line: number): void {
+    const rec = this.rec;
+    rec.fields = fields;
+    rec.count = fields.length;
+    rec.line = line;
+    this.recordCount++;
+    this.onRecord(rec);
   }
 }
 
