@@ -147,6 +147,19 @@ describe('CsvTokenizer (papaparse underneath)', () => {
     expect(recs[3].fields).toEqual(['last', '5']);
   });
 
+  it('numbers lines right when the end of the file parses several records at once', () => {
+    const { t, recs } = collector(',');
+    t.push('h,' + 'x'.repeat(100)); // no line break yet: held
+    t.push('\n"a\nb",1\nc,2\n'); // shorter than what is held: waits for the end
+    expect(recs).toEqual([]);
+    t.end();
+    expect(recs).toEqual([
+      { line: 1, fields: ['h', 'x'.repeat(100)] },
+      { line: 2, fields: ['a\nb', '1'] },
+      { line: 4, fields: ['c', '2'] },
+    ]);
+  });
+
   it('ends records at a lone CR too, when the file breaks its lines that way', () => {
     const expected: Rec[] = [
       { line: 1, fields: ['a', 'b'] },

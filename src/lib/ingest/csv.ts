@@ -251,14 +251,9 @@ export class CsvTokenizer {
       }
     }
     const cursor = res.meta.cursor;
-    // one physical line per record unless quoted fields hold line breaks
-    let oneLineEach = true;
-    if (rows > 0 && input.indexOf('"') >= 0) {
-      const nl = this.newline;
-      const breaks = countChar(input, nl, 0, cursor);
-      const endsWithBreak = cursor > 0 && input.charCodeAt(cursor - 1) === nl.charCodeAt(0);
-      oneLineEach = breaks === (endsWithBreak ? rows : rows - 1);
-    }
+    // one physical line per record unless quoted fields hold line breaks: every record papaparse
+    // gives ends with a line break, except the last one at the end of the file
+    const oneLineEach = rows === 0 || input.indexOf('"') < 0 || countChar(input, this.newline, 0, cursor) === (final ? rows - 1 : rows);
     this.deliver(res.data, rows, oneLineEach, checkLength);
     this.carry = cursor === 0 ? input : cursor >= input.length ? '' : input.slice(cursor);
     this.checkCarry();
