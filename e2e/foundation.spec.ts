@@ -1,5 +1,5 @@
 import { expect, test } from '@playwright/test';
-import { DEMO, inboxUrl, signIn, watchConsole } from './helpers';
+import { DEMO, inboxUrl, nav, signIn, watchConsole } from './helpers';
 
 const NAV_BY_ROLE: Record<keyof typeof DEMO, { shown: string[]; hidden: string[]; label: string }> = {
   admin: { shown: ['Overview', 'People'], hidden: [], label: 'Admin' },
@@ -13,9 +13,9 @@ for (const [role, expectNav] of Object.entries(NAV_BY_ROLE)) {
     const errors = watchConsole(page);
     await signIn(page, DEMO[role as keyof typeof DEMO]);
     await expect(page.getByTestId('signed-in-role')).toHaveText(expectNav.label);
-    const nav = page.getByRole('navigation', { name: 'Main' });
-    for (const label of expectNav.shown) await expect(nav.getByRole('link', { name: label })).toBeVisible();
-    for (const label of expectNav.hidden) await expect(nav.getByRole('link', { name: label })).toHaveCount(0);
+    const mainNav = page.getByRole('navigation', { name: 'Main' });
+    for (const label of expectNav.shown) await expect(mainNav.getByRole('link', { name: label, exact: true })).toBeVisible();
+    for (const label of expectNav.hidden) await expect(mainNav.getByRole('link', { name: label, exact: true })).toHaveCount(0);
     await page.getByRole('button', { name: 'Sign out' }).click();
     await expect(page).toHaveURL(/\/sign-in/);
     expect(errors).toEqual([]);
@@ -44,7 +44,7 @@ test('an operator calling an admin endpoint gets 403', async ({ page }) => {
 test('an invited person receives the e-mail, sets a password through its link, and signs in', async ({ page, request }) => {
   const email = `e2e-invitee-${Date.now()}@example.test`;
   await signIn(page, DEMO.admin);
-  await page.getByRole('link', { name: 'People' }).click();
+  await nav(page, 'People').click();
   await page.getByLabel('Name').fill('Erin Example');
   await page.getByLabel('E-mail').fill(email);
   await page.getByLabel('Role', { exact: true }).selectOption('planner');

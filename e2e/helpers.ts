@@ -18,6 +18,9 @@ export async function signIn(page: Page, email: string, password = DEMO_PASSWORD
   await expect(page.getByTestId('signed-in-user')).toBeVisible();
 }
 
+/** A link of the main navigation (pages may have links with the same words elsewhere). */
+export const nav = (page: Page, label: string) => page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: label, exact: true });
+
 export const inboxUrl = () => process.env.MAIL_INBOX_URL ?? 'http://127.0.0.1:1090';
 
 /** Collects console errors and failed page loads, for a check that a page rendered cleanly. */

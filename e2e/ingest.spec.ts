@@ -1,12 +1,12 @@
 import { expect, test } from '@playwright/test';
-import { DEMO, DEMO_SITE, signIn, watchConsole } from './helpers';
+import { DEMO, DEMO_SITE, nav, signIn, watchConsole } from './helpers';
 
 const FIX = 'tests/fixtures/ingest-server';
 
 test('an operator uploads a file, reviews the new layout, watches it being read and reads the report', async ({ page }) => {
   const errors = watchConsole(page);
   await signIn(page, DEMO.operator);
-  await page.getByRole('link', { name: 'Uploads' }).click();
+  await nav(page, 'Uploads').click();
   await expect(page.getByRole('heading', { name: 'Uploads' })).toBeVisible();
   await page.getByLabel('Site').selectOption({ label: `${DEMO_SITE} (Europe/London)` });
 
@@ -40,7 +40,7 @@ test('an operator uploads a file, reviews the new layout, watches it being read 
 
 test('a scheduled export posts a file with a site token; its status and tag hours come back over the API', async ({ page, request }) => {
   await signIn(page, DEMO.admin);
-  await page.getByRole('link', { name: 'API tokens' }).click();
+  await nav(page, 'API tokens').click();
   await page.getByLabel('Site').selectOption({ label: DEMO_SITE });
   await page.getByLabel('What uses it').fill('nightly export');
   await page.getByRole('button', { name: 'Issue token' }).click();
