@@ -50,6 +50,8 @@ const LOAD_KEY = 'load';
 export interface ComputeOptions {
   /** propagate the tags' uncertainties (GUM); default true */
   uncertainty?: boolean;
+  /** the hashes, when the caller has them already (unitHourHashes with the same input and options) */
+  hashes?: { modelVersion: string; inputsHash: string };
 }
 
 const models = new WeakMap<object, Map<string, UnitModel>>();
@@ -74,47 +76,50 @@ function sharedModel(unit: EngineUnit, kind: string, model: UnitModel): UnitMode
   return m;
 }
 
-const versions = new WeakMap<object, Map<string, string>>();
+const versions = new WeakMap<object, Map<string, LinkSet>>();
 const siteKeys = new WeakMap<object, number>();
 let siteSeq = 0;
 const linkKey = (l: EngineLink) => [l.id, l.portName, l.quantity, l.tagName, l.engUnit, l.basis, l.uncertaintyMode, l.uncertainty, l.validMin, l.validMax, l.validFromMs, l.validToMs];
 
+/** What is the same for every hour a set of link versions holds. */
+interface LinkSet {
+  /** hash of the method (ENGINE_VERSION), the unit, the links, the site's settings, the flue-gas sources */
+  modelVersion: string;
+  /** the tags whose hours the unit uses: its own, the ambient tag, flue-gas source O2 tags; sorted */
+  usedTags: string[];
+}
+
 /**
- * The model version of an hour: a hash of the method (ENGINE_VERSION), the unit (kind, parameters,
- * fuel, ports), the link versions holding, the site's settings and the flue-gas sources. Kept per
- * unit object and link set, since it is the same for every hour those links hold.
+ * The model version of an hour and the tags it reads, kept per unit object and link set (the same for
+ * every hour those links hold).
  */
-function modelVersionOf(input: UnitHourInput, params: Record<string, unknown>): string {
+function linkSetOf(input: UnitHourInput): LinkSet {
   let sk = siteKeys.get(input.site);
   if (sk === undefined) siteKeys.set(input.site, (sk = ++siteSeq));
   const fg = input.flueGasSources ? Object.entries(input.flueGasSources).map(([k, v]) => `${k}:${v.o2Link?.id ?? ''}:${v.o2Link?.validToMs ?? ''}`).join(',') : '';
-  const key = `${sk}|${input.links.map((l) => `${l.id}:${l.validFromMs}:${l.validToMs}`).join(',')}|${fg}`;
+  let key = `${sk}|${fg}`;
+  for (const l of input.links) key += `|${l.id}:${l.validFromMs}:${l.validToMs}`;
   let byUnit = versions.get(input.unit);
   if (!byUnit) versions.set(input.unit, (byUnit = new Map()));
   let v = byUnit.get(key);
   if (!v) {
     const { unit, site } = input;
-    v = hashOf({
+    const modelVersion = hashOf({
       engine: ENGINE_VERSION,
-      unit: { kind: unit.kind, parameters: params, fuel: unit.fuel, ports: unit.ports },
+      unit: { kind: unit.kind, parameters: unitParameters(unit), fuel: unit.fuel, ports: unit.ports },
       links: [...input.links].sort((a, b) => (a.id < b.id ? -1 : 1)).map(linkKey),
       site: { p_atm_Pa: site.p_atm_Pa, T0_K: site.T0_K, p0_Pa: site.p0_Pa, t0Tag: site.t0Tag },
       flueGasSources: input.flueGasSources ? Object.fromEntries(Object.entries(input.flueGasSources).map(([k, s]) => [k, { fuel: s.fuel, o2: s.o2Link && linkKey(s.o2Link) }])) : null,
     }).slice(0, 32);
+    const used = new Set<string>(input.links.map((l) => l.tagName));
+    if (site.t0Tag) used.add(site.t0Tag.name);
+    for (const s of Object.values(input.flueGasSources ?? {})) if (s.o2Link) used.add(s.o2Link.tagName);
+    v = { modelVersion, usedTags: [...used].sort() };
     if (byUnit.size > 1000) byUnit.clear();
     byUnit.set(key, v);
   }
   return v;
 }
-
-/** The tags whose hours an input uses: the unit's, the ambient tag, flue-gas source O2 tags; sorted. */
-function usedTagsOf(input: UnitHourInput): string[] {
-  const used = new Set<string>(input.links.map((l) => l.tagName));
-  if (input.site.t0Tag) used.add(input.site.t0Tag.name);
-  for (const s of Object.values(input.flueGasSources ?? {})) if (s.o2Link) used.add(s.o2Link.tagName);
-  return [...used].sort();
-}
-
 
 /**
  * The model version and the inputs hash of a unit hour, without computing it: the inputs hash covers
@@ -123,9 +128,9 @@ function usedTagsOf(input: UnitHourInput): string[] {
  * hash is unchanged.
  */
 export function unitHourHashes(input: UnitHourInput, options: ComputeOptions = {}): { modelVersion: string; inputsHash: string } {
-  const modelVersion = modelVersionOf(input, unitParameters(input.unit));
+  const { modelVersion, usedTags } = linkSetOf(input);
   const h = hasher.reset().text(modelVersion).num(options.uncertainty ?? true).num(input.cost?.cF_per_J ?? null);
-  for (const t of usedTagsOf(input)) {
+  for (const t of usedTags) {
     h.text(t);
     const th = input.tagHours.get(t);
     if (!th) h.text('none');
@@ -392,8 +397,8 @@ export function computeUnitHour(input: UnitHourInput, options: ComputeOptions = 
   }
 
   // The hashes: the model version (unit, links, site settings, method) and every input of the row.
-  const { modelVersion, inputsHash } = unitHourHashes(input, options);
-  const usedTags = usedTagsOf(input);
+  const { modelVersion, inputsHash } = options.hashes ?? unitHourHashes(input, options);
+  const usedTags = linkSetOf(input).usedTags;
   const linkOfTag = new Map<string, EngineLink>();
   for (const l of input.links) if (!linkOfTag.has(l.tagName)) linkOfTag.set(l.tagName, l);
 

@@ -343,7 +343,8 @@ async function computeChunk(ctx: SiteContext, targets: EngineUnit[], fromMs: num
         const input = { unit, links, tagHours: th, site: ctx.engineSite, hourStartMs: t, cost, flueGasSources: Object.keys(srcs).length ? srcs : undefined };
         computed++;
         // Same inputs, same row: an hour whose inputs hash is unchanged is neither computed nor written.
-        if (known.get(t) === unitHourHashes(input, { uncertainty: withU }).inputsHash) {
+        const hashes = unitHourHashes(input, { uncertainty: withU });
+        if (known.get(t) === hashes.inputsHash) {
           if (boilerIds.has(unit.id)) {
             const k = knownRow.get(t)!;
             const list = boilerHours.get(t) ?? [];
@@ -352,7 +353,7 @@ async function computeChunk(ctx: SiteContext, targets: EngineUnit[], fromMs: num
           }
           continue;
         }
-        const res: UnitHourResult = computeUnitHour(input, { uncertainty: withU });
+        const res: UnitHourResult = computeUnitHour(input, { uncertainty: withU, hashes });
         if (boilerIds.has(unit.id)) {
           const list = boilerHours.get(t) ?? [];
           list.push({ name: unit.name, fuel_W: res.fuel_W, product_W: res.product_W, cF_per_J: cost?.cF_per_J ?? null });
