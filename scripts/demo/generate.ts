@@ -109,24 +109,30 @@ function localTime(ms: number): LocalTime {
 // ------------------------------------------------------------------------------------ fault plan
 
 /**
- * The default fault plan for a period, scaled from the year's plan (day 42 TG1 inspection, day 112
- * end of the baseline period, day 126 E601 fouling, day 175 PRV1 passing, day 224 TG1 efficiency
- * step, day 150 frozen make-up water temperature transmitter).
+ * The default fault plan for a period, scaled from the year's plan: day 42 TG1 inspection (normal
+ * operation), day 150 frozen make-up water temperature transmitter, day 238 end of the reference
+ * period (baselines are fitted on the eight months before it, which see winter and summer), day 245
+ * E601 fouling starts, day 266 PRV1 starts passing, day 301 TG1 efficiency step.
  */
 export function defaultFaultPlan(startMs: number, days: number): FaultPlan {
   const s = days / 365;
-  const at = (day: number, hour: number) => startMs + Math.max(1, Math.round(day * s)) * DAY_ms + hour * HOUR_ms;
+  const startWall = startMs + siteOffsetMs(startMs);
+  /** hour o'clock (site time) on the day `day` of the year's plan, scaled to the period */
+  const at = (day: number, hour: number) => {
+    const date = new Date(startWall + Math.max(1, Math.round(day * s)) * DAY_ms).toISOString().slice(0, 10);
+    return siteMidnightMs(date) + hour * HOUR_ms;
+  };
   return {
-    baselineEndMs: at(112, 0),
+    baselineEndMs: at(238, 0),
     turbineOutage: { fromMs: at(42, 6), toMs: at(42, 6) + Math.max(0.5, 2.5 * s) * DAY_ms },
-    foulingStartMs: at(126, 0),
-    foulingTau_days: Math.max(1, 35 * s),
+    foulingStartMs: at(245, 0),
+    foulingTau_days: Math.max(1, 21 * s),
     foulingFinal: 1.3,
-    valvePassingStartMs: at(175, 10.5),
+    valvePassingStartMs: at(266, 10.5),
     valvePassingStart_tph: 0.8,
     valvePassingEnd_tph: 1.8,
-    valvePassingGrowth_days: Math.max(1, 60 * s),
-    turbineStepMs: at(224, 6),
+    valvePassingGrowth_days: Math.max(1, 45 * s),
+    turbineStepMs: at(301, 6),
     turbineStep: 0.04,
     frozenTransmitter: { fromMs: at(150, 2), toMs: at(150, 2) + 10 * HOUR_ms },
   };
@@ -146,6 +152,19 @@ export function resolvePlan(opts: GenerateOptions = {}): { startMs: number; days
   const base = defaultFaultPlan(startMs, days);
   const plan = opts.faults === 'none' ? noFaults(base) : { ...base, ...(opts.faults ?? {}) };
   return { startMs, days, seed, plan };
+}
+
+/** The weekly file names generateExports writes for these options, in order (no physics run). */
+export function plannedFileNames(opts: GenerateOptions = {}): string[] {
+  const { startMs, days } = resolvePlan(opts);
+  const startWall = startMs + siteOffsetMs(startMs);
+  const names: string[] = [];
+  for (let d = 0; d < days; d++) {
+    const wall = startWall + d * DAY_ms;
+    const dow = (((Math.floor(wall / DAY_ms) + 4) % 7) + 7) % 7;
+    if (d === 0 || dow === 1) names.push(`HM_weekly_${new Date(wall).toISOString().slice(0, 10)}.csv`);
+  }
+  return names;
 }
 
 // ------------------------------------------------------------------------------------ writing
@@ -196,13 +215,21 @@ interface DayEvents {
   blanks: { col: number; min: number }[];
 }
 
-/** Data-quality events of one day (a fixed number of draws per day). */
-function dayEvents(rng: ReturnType<typeof createRng>, nCols: number, clean: boolean): DayEvents {
+/** Days between historian gaps, and the day of the first. */
+export const GAP_EVERY_DAYS = 21;
+export const FIRST_GAP_DAY = 9;
+
+/**
+ * Data-quality events of one day (a fixed number of draws per day): an 'I/O Timeout' burst on one
+ * tag on about three days in ten, a historian gap (20 to 90 minutes without rows) every three weeks,
+ * and now and then a blank cell.
+ */
+function dayEvents(rng: ReturnType<typeof createRng>, day: number, nCols: number, clean: boolean): DayEvents {
   const u = Array.from({ length: 12 }, () => rng.uniform());
   if (clean) return { io: null, gap: null, blanks: [] };
   const io = u[0]! < 0.3 ? { col: Math.floor(u[1]! * nCols), fromMin: Math.floor(u[2]! * 1440), toMin: 0 } : null;
   if (io) io.toMin = io.fromMin + 2 + Math.floor(u[3]! * 9);
-  const gap = u[4]! < 1 / 45 ? { fromMin: Math.floor(u[5]! * 1380), toMin: 0 } : null;
+  const gap = day % GAP_EVERY_DAYS === FIRST_GAP_DAY ? { fromMin: Math.floor(u[5]! * 1350), toMin: 0 } : null;
   if (gap) gap.toMin = gap.fromMin + 20 + Math.floor(u[6]! * 70);
   const blanks = [0, 1].filter((i) => u[7 + 2 * i]! < 0.5).map((i) => ({ col: Math.floor(u[8 + 2 * i]! * nCols), min: Math.floor(u[11]! * 1440 * (i + 1)) % 1440 }));
   return { io, gap, blanks };
@@ -262,7 +289,7 @@ export function* generateExports(opts: GenerateOptions = {}, onMinute?: (ms: num
     const dayIdx = Math.floor((ms - startMs) / DAY_ms);
     if (dayIdx !== evDay) {
       evDay = dayIdx;
-      ev = dayEvents(events, n, clean);
+      ev = dayEvents(events, dayIdx, n, clean);
     }
     const minOfDay = Math.floor((ms - startMs - dayIdx * DAY_ms) / MINUTE_ms);
 

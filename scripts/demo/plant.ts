@@ -10,10 +10,12 @@
  *          the loop heated by effectiveness 1 - exp(-UA / (m cp))
  *   DA1    adiabatic mixer: sum of m h in = m h out, outlet 1.2 K below saturation
  *   FWP1   h_dis = h_suc + (h_s(p_dis, s_suc) - h_suc) / eta_p,  W_el = m (h_dis - h_suc) / eta_motor
- *   B1     m_fuel (h_fuel(T_amb) + a h_air(T_amb) - f h_flue(T_stack) - r LHV) = m_steam (h_steam - h_fw),
+ *   B1     m_fuel (h_fuel(T0) + a h_air(T0) - f h_flue(T_stack) - r LHV) = m_steam (h_steam - h_fw),
  *          a and f the air and flue gas per kg fuel from the O2 (first law with absolute enthalpies;
  *          r LHV the casing loss)
- *   AC1    W_el = m (h_s(p_out, s_in) - h_in) / (eta_s eta_motor); the oil cooler takes the rest
+ *   AC1    W_el = m (h_s(p_out, s_in) - h_in) / (eta_s eta_motor); dry compression: the air takes the
+ *          shaft work less a 1.5 % casing loss
+ *   B1 burns boiler-house air at the site's T0 (the intake temperature)
  *
  * True values are SI (Pa absolute, K, kg/s, W, mol/s for normal volume flows); ./generate.ts adds the
  * instrument noise and writes them in the export's units. Random draws per minute are fixed in
@@ -79,7 +81,9 @@ export const DESIGN = Object.freeze({
   e601ShellCapBelowLp_Pa: 0.35 * BAR,
   e601Subcooling_K: 4,
   ac1RatedFlow_Nm3_per_h: 1300,
-  ac1OutSet_barg: 7.0,
+  ac1OutSet_barg: 3.0,
+  /** share of AC1's shaft power lost through its casing (the rest heats the air) [-] */
+  ac1CasingLoss: 0.015,
 });
 
 /** Normal cubic metre: 0 degC, 101.325 kPa (molar volume of an ideal gas there) [m3/mol]. */
@@ -219,7 +223,7 @@ export class DemoPlant {
   tgEta(m_kg_per_s: number, ms: number): number {
     const r = m_kg_per_s / DESIGN.tgDesignFlow_kg_per_s - 1;
     const step = this.plan.turbineStepMs !== null && ms >= this.plan.turbineStepMs ? this.plan.turbineStep : 0;
-    return DESIGN.tgEtaDesign - 0.12 * r * r - step;
+    return DESIGN.tgEtaDesign - 0.05 * r * r - step;
   }
 
   /** The true state of the plant over the minute starting at `ms` (UTC) with local time `lt`. */
@@ -247,6 +251,9 @@ export class DemoPlant {
     const Tamb_C = season_C + diurnal + wx;
     const Tamb = Tamb_C + K0;
     v[I['ambient.T']!] = Tamb;
+    // boiler house air intake (the site's T0): the house warms the air it draws in
+    const Tbh = K0 + 14 + 0.55 * Tamb_C;
+    v[I['b1.air.T']!] = Tbh;
 
     // ---- campus demand
     const prod = production(lt);
@@ -401,7 +408,7 @@ export class DemoPlant {
     const hSuc = water.h_pt(pSuc, Tsuc);
     const sSuc = water.s_pt(pSuc, Tsuc);
     const rq = mFw / (23 * TPH) - 1;
-    const etaP = 0.68 - 0.35 * rq * rq;
+    const etaP = 0.68 - 0.15 * rq * rq;
     const hDis = hSuc + (water.h_ps(pDis, sSuc) - hSuc) / etaP;
     const Tdis = water.T_ph(pDis, hDis);
     const Wpump = (mFw * (hDis - hSuc)) / PUMP_DRIVE_EFFICIENCY;
@@ -414,7 +421,7 @@ export class DemoPlant {
     const Tstack = K0 + 118 + 48 * load + 0.15 * (Tamb_C - 10) + 0.5 * stw;
     const casingLoss = 0.0055 / Math.max(load, 0.15);
     const perKgFuel =
-      FUEL_GAS.h(Tamb) + comb.air_kg_per_kgFuel * comb.combustionAir.h(Tamb) - comb.flue_kg_per_kgFuel * comb.flueGas.h(Tstack) - casingLoss * FUEL.LHV_J_per_kg;
+      FUEL_GAS.h(Tbh) + comb.air_kg_per_kgFuel * comb.combustionAir.h(Tbh) - comb.flue_kg_per_kgFuel * comb.flueGas.h(Tstack) - casingLoss * FUEL.LHV_J_per_kg;
     const Qw = mB * (hB - hDis);
     const mFuel = Qw / perKgFuel;
     const nFuel_mol_per_s = mFuel / FUEL.M_kg_per_mol!;
@@ -422,7 +429,7 @@ export class DemoPlant {
     // ---- AC1
     const compressorRunning = !(lt.dow === 0 || (lt.dow === 1 && lt.hour < 5));
     const pAcIn = P_ATM - 1500;
-    const TacIn = Tamb + 6;
+    const TacIn = Tbh + 3;
     let Vac = 0;
     let Wac = 0;
     let TacOut: number;
@@ -438,14 +445,16 @@ export class DemoPlant {
       const hIs = dryAir.h(dryAir.T_ps(pAcOut, sIn));
       const lf = Vac / DESIGN.ac1RatedFlow_Nm3_per_h;
       const etaAc = 0.74 - 0.35 * (1 - lf) * (1 - lf);
-      Wac = (mAir * (hIs - hIn)) / (etaAc * COMPRESSOR_DRIVE_EFFICIENCY);
-      TacOut = K0 + 84 + 0.35 * (TacIn - K0 - 15);
+      const Wshaft = (mAir * (hIs - hIn)) / etaAc;
+      Wac = Wshaft / COMPRESSOR_DRIVE_EFFICIENCY;
+      // dry compression: the air takes the shaft work but for the casing loss
+      TacOut = dryAir.T_h(hIn + (Wshaft * (1 - DESIGN.ac1CasingLoss)) / mAir);
       this.acOutIdle_K = TacOut;
       this.acOutIdle_Pa = pAcOut;
     } else {
       const a = Math.exp(-1 / 90);
       this.acOutIdle_K = TacIn + (this.acOutIdle_K - TacIn) * a;
-      const pRest = P_ATM + 5.2 * BAR;
+      const pRest = P_ATM + 2.2 * BAR;
       this.acOutIdle_Pa = pRest + (this.acOutIdle_Pa - pRest) * Math.exp(-1 / 240);
       TacOut = this.acOutIdle_K;
       pAcOut = this.acOutIdle_Pa;

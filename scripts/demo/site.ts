@@ -73,6 +73,7 @@ export const DEMO_TAGS: readonly DemoTag[] = [
   t('b1.gas.V', 'HM_B1_FI121', 'Boiler B1 natural gas flow', 'Nm3/h', 'standardVolumeFlow', 1, { abs: 1, rel: 0.003 }),
   t('b1.stack.T', 'HM_B1_TI131', 'Boiler B1 stack temperature', 'degC', 'temperature', 1, { abs: 0.3 }),
   t('b1.stack.O2', 'HM_B1_AI132', 'Boiler B1 flue gas O2 (dry, extractive)', '%', 'fraction', 2, { abs: 0.02 }),
+  t('b1.air.T', 'HM_B1_TI141', 'Boiler house combustion air intake temperature', 'degC', 'temperature', 2, { abs: 0.08 }),
   // HP header
   t('hp.p', 'HM_HP_PI201', 'HP steam header pressure at TG1 stop valve', 'bar(g)', 'pressure', 2, { abs: 0.02 }),
   t('hp.T', 'HM_HP_TI202', 'HP steam header temperature at TG1 stop valve', 'degC', 'temperature', 1, { abs: 0.25 }),
@@ -122,7 +123,7 @@ export const DEMO_TAGS: readonly DemoTag[] = [
   t('ac1.in.T', 'HM_AC1_TI702', 'Air compressor AC1 inlet air temperature', 'degC', 'temperature', 2, { abs: 0.15 }),
   t('ac1.V', 'HM_AC1_FI703', 'Air compressor AC1 free air delivery', 'Nm3/h', 'standardVolumeFlow', 1, { abs: 1, rel: 0.003 }),
   t('ac1.out.p', 'HM_AC1_PI711', 'Air compressor AC1 discharge pressure', 'bar(g)', 'pressure', 3, { abs: 0.006 }),
-  t('ac1.out.T', 'HM_AC1_TI712', 'Air compressor AC1 discharge temperature', 'degC', 'temperature', 1, { abs: 0.25 }),
+  t('ac1.out.T', 'HM_AC1_TI712', 'Air compressor AC1 air-end discharge temperature', 'degC', 'temperature', 1, { abs: 0.25 }),
   t('ac1.W', 'HM_AC1_JI720', 'Air compressor AC1 motor power', 'kW', 'power', 1, { abs: 0.2, rel: 0.003 }),
 ];
 
@@ -277,8 +278,8 @@ function units(): UnitModel[] {
     {
       name: 'AC1',
       kind: 'compressor',
-      description: 'Oil-injected rotary-screw air compressor with variable-speed drive, 7 bar(g); stopped on Sundays',
-      parameters: { minLoad_W: 20_000, ratedPower_W: 160_000, powerBasis: 'electric', driveEfficiency: COMPRESSOR_DRIVE_EFFICIENCY },
+      description: 'Oil-free rotary-screw compressor with variable-speed drive, 3 bar(g) conveying air for the bakery (flour and sugar); discharge measured at the air end, before the aftercooler; stopped on Sundays',
+      parameters: { minLoad_W: 15_000, ratedPower_W: 110_000, powerBasis: 'electric', driveEfficiency: COMPRESSOR_DRIVE_EFFICIENCY },
       ports: [
         { name: 'air inlet', slot: 'inlet', fluid: { kind: 'air' } },
         { name: 'discharge', slot: 'outlet', fluid: { kind: 'air' } },
@@ -287,9 +288,9 @@ function units(): UnitModel[] {
         link('ac1.in.p', 'pressure', 'air inlet', { ...abs(0.002), ...range(-0.2, 0.2) }),
         link('ac1.in.T', 'temperature', 'air inlet', { ...abs(0.5), ...range(-30, 60) }),
         link('ac1.V', 'standardVolumeFlow', 'air inlet', { ...rel(2), ...range(-50, 2500) }),
-        link('ac1.out.p', 'pressure', 'discharge', { ...rel(0.25), ...range(0, 12) }),
-        link('ac1.out.T', 'temperature', 'discharge', { ...abs(1), ...range(-30, 130) }),
-        link('ac1.W', 'power', undefined, { ...rel(0.5), ...range(-5, 200) }),
+        link('ac1.out.p', 'pressure', 'discharge', { ...rel(0.25), ...range(0, 6) }),
+        link('ac1.out.T', 'temperature', 'discharge', { ...abs(1), ...range(-30, 280) }),
+        link('ac1.W', 'power', undefined, { ...rel(0.5), ...range(-5, 140) }),
       ],
     },
   ];
@@ -305,7 +306,9 @@ export function demoModel(): PlantModel {
       timeZone: DEMO_TIME_ZONE,
       elevation_m: DEMO_ELEVATION_m,
       p_atm_Pa: DEMO_P_ATM_Pa,
-      deadState: { T0_K: 283.15, p0_Pa: DEMO_P_ATM_Pa, T0Tag: { tag: tagOf('ambient.T').tag, unit: tagOf('ambient.T').unit } },
+      // T0 from the boiler house's air intake: the air the boiler burns with, and never below 0 degC
+      // (IAPWS-IF97 has no liquid water below it); the weather station tag is exported but not linked
+      deadState: { T0_K: 288.15, p0_Pa: DEMO_P_ATM_Pa, T0Tag: { tag: tagOf('b1.air.T').tag, unit: tagOf('b1.air.T').unit } },
       currency: 'GBP',
       prices: [
         { name: 'pipeline gas', kind: 'fuel', price_per_MWh: 38.5, currency: 'GBP' },
