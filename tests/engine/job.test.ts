@@ -187,4 +187,21 @@ describeIntegration('compute-unit-hours on a real database', () => {
     expect(row.reasons.map((r) => r.code)).toContain('TAG_MISSING');
     expect(row.destruction_W).toBeNull();
   });
+
+  it('works a range month by month, one transaction each, and skips months without data', async () => {
+    const pump = unitId.get('pump')!;
+    const c = cases.find((x) => x.id === 'pump')!;
+    const a = Date.UTC(2024, 2, 31, 23);
+    const b = Date.UTC(2024, 3, 1, 0);
+    for (const l of c.links) for (const h of [a, b]) await writeHour(siteId, l.tag, h, steadyHour(l.reading));
+    const out = await handleComputeUnitHours({ siteId, fromMs: Date.UTC(2024, 2, 1), toMs: Date.UTC(2024, 5, 1), unitIds: [pump] });
+    expect(out.chunks).toBe(2); // March (from its first hour of data) and April (to its last)
+    expect(out.written).toBe(2);
+    expect(out.touched).toEqual({ fromMs: a, toMs: b + H, unitIds: [pump] });
+    const rows = (await rowsOf(pump)).filter((r) => r.hourStart.getTime() >= a);
+    expect(rows.map((r) => [r.hourStart.getTime(), r.state])).toEqual([
+      [a, 'steady'],
+      [b, 'steady'],
+    ]);
+  });
 });
