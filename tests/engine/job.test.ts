@@ -188,7 +188,7 @@ describeIntegration('compute-unit-hours on a real database', () => {
     expect(row.destruction_W).toBeNull();
   });
 
-  it('works a range month by month, one transaction each, and skips months without data', async () => {
+  it('works a range month by month, one transaction each, clamped to the hours that have data', async () => {
     const pump = unitId.get('pump')!;
     const c = cases.find((x) => x.id === 'pump')!;
     const a = Date.UTC(2024, 2, 31, 23);
