@@ -208,7 +208,8 @@ describe('CsvTokenizer (papaparse underneath)', () => {
     for (const pieces of everySplit('"u"  ')) expect(tokenizePieces(pieces, ',')).toEqual({ recs: [{ line: 1, fields: ['u  '] }], malformed: 1 });
   });
 
-  it('a record of many fields with text after the closing quote costs no more than one pass per field', () => {
+  // Its speed (linear in the number of such fields) is measured by bench/ingest-core.ts, not here.
+  it('a record of many fields with text after the closing quote: every record intact, each field counted once', () => {
     let text = '';
     const expected: Rec[] = [];
     for (let i = 0; i < 300; i++) {
@@ -222,13 +223,10 @@ describe('CsvTokenizer (papaparse underneath)', () => {
       expected.push({ line: i + 1, fields });
     }
     const { t, recs } = collector(';');
-    const started = performance.now();
     for (let o = 0; o < text.length; o += 65536) t.push(text.slice(o, o + 65536));
     t.end();
-    const ms = performance.now() - started;
     expect(recs).toEqual(expected);
     expect(t.malformedQuoteCount).toBe(60_000);
-    expect(ms).toBeLessThan(5000); // linear: about 0.3 s here; re-reading each record from its start for every such field took about 3 s
   });
 
   it('many malformed fields in one big push: every record intact, each field counted once', () => {
