@@ -241,7 +241,7 @@ async function main() {
 }
 
 if (isMainThread) {
-  await main();
+  if (process.argv[1]?.endsWith('engine.ts')) await main();
 } else {
   const { part, threads, hours } = workerData as { part: number; threads: number; hours: number };
   const mine = buildSite().filter((_, i) => i % threads === part);

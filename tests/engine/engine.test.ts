@@ -245,11 +245,11 @@ describe('hashes', () => {
   });
 
   it('the byte hasher digests texts and binary64 numbers as documented (checked against node:crypto)', () => {
-    const parts: Buffer[] = [Buffer.from('TG_MW\u0000', 'utf8'), Buffer.from([1]), Buffer.alloc(8), Buffer.from([2]), Buffer.from([1]), Buffer.alloc(8), Buffer.from('Ω\u0000', 'utf8')];
+    const parts: Buffer[] = [Buffer.from('TG_MW\u0000', 'utf8'), Buffer.from([1]), Buffer.alloc(8), Buffer.from([2]), Buffer.from([1]), Buffer.alloc(8), Buffer.from('Ω\u0000', 'utf8'), Buffer.from([3, 0, 0, 1, 44, 7])];
     parts[2]!.writeDoubleLE(11.92, 0);
     parts[5]!.writeDoubleLE(0, 0); // -0 is written as 0
     const want = createHash('sha256').update(Buffer.concat(parts)).digest('hex');
-    expect(new ByteHasher().reset().text('TG_MW').num(11.92).num(NaN).num(-0).text('Ω').digest()).toBe(want);
+    expect(new ByteHasher().reset().text('TG_MW').num(11.92).num(NaN).num(-0).text('Ω').int(300).byte(7).digest()).toBe(want);
   });
 
   it('canonical JSON sorts keys and drops undefined members', () => {

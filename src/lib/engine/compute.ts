@@ -130,11 +130,11 @@ function linkSetOf(input: UnitHourInput): LinkSet {
 export function unitHourHashes(input: UnitHourInput, options: ComputeOptions = {}): { modelVersion: string; inputsHash: string } {
   const { modelVersion, usedTags } = linkSetOf(input);
   const h = hasher.reset().text(modelVersion).num(options.uncertainty ?? true).num(input.cost?.cF_per_J ?? null);
+  // The tags come in the model version's fixed order, so their names need not be hashed again.
   for (const t of usedTags) {
-    h.text(t);
     const th = input.tagHours.get(t);
-    if (!th) h.text('none');
-    else h.num(th.mean).num(th.min).num(th.max).num(th.std).num(th.samples).num(th.coveredFraction).num(th.nonNumeric).num(th.outOfRange).num(th.flatline);
+    if (!th) h.byte(0);
+    else h.byte(1).num(th.mean).num(th.min).num(th.max).num(th.std).num(th.coveredFraction).int(th.samples).int(th.nonNumeric).int(th.outOfRange).byte(th.flatline ? 1 : 0);
   }
   return { modelVersion, inputsHash: h.digest().slice(0, 32) };
 }
