@@ -22,6 +22,9 @@ export const NAV: readonly NavItem[] = [
   { href: '/baselines', label: 'Baselines', roles: ['admin', 'energy-lead', 'operator', 'planner'] },
   { href: '/notices', label: 'Drift notices', roles: ['admin', 'energy-lead', 'operator', 'planner'] },
   // --- trends, ledger, reports ---
+  { href: '/trends', label: 'Trends', roles: ['admin', 'energy-lead', 'operator', 'planner'] },
+  { href: '/ledger', label: 'Loss ledger', roles: ['admin', 'energy-lead', 'operator', 'planner'] },
+  { href: '/reports', label: 'Reports', roles: ['admin', 'energy-lead'] },
   { href: '/admin/users', label: 'People', roles: ['admin'] },
   { href: '/admin/tokens', label: 'API tokens', roles: ['admin'] },
 ];

@@ -94,6 +94,10 @@ export const PAGE_POLICY: Record<string, Admit> = {
   '/notices': ANY_ROLE,
   '/notices/[noticeId]': ANY_ROLE,
   // --- trends, ledger, reports ---
+  '/trends': ANY_ROLE,
+  '/trends/[unitId]': ANY_ROLE,
+  '/ledger': ANY_ROLE,
+  '/reports': LEADS,
 };
 
 export { ADMIN, LEADS, UPLOADERS };

@@ -53,6 +53,9 @@ describeIntegration('unit trend', () => {
     const draft = await fitDraft(unitId, { periodFrom: new Date(ref), periodTo: new Date(ref + 60 * HOUR), terms: ['load', 'T_amb'] }, null);
     await acceptBaseline(draft.id, null);
     await addHours(unitId, Array.from({ length: 27 }, (_, i) => hour(base + i * HOUR, i, stateOf(i))));
+    // 12 March (local): five idle hours and one steady one, from 08:00 local (02:30 UTC).
+    const mar12 = Date.parse('2024-03-12T02:30:00Z');
+    await addHours(unitId, Array.from({ length: 6 }, (_, i) => hour(mar12 + i * HOUR, 200 + i, i === 5 ? 'steady' : 'idle')));
     await db().insert(driftNotices).values([
       {
         siteId,
@@ -157,6 +160,9 @@ describeIntegration('unit trend', () => {
     expect(day.states).toEqual({ steady: 21, unsettled: 1, idle: 2, suspect: 0 });
     // The local day before holds index 0 only (17:30 UTC = 23:00 local on 9 March).
     expect(t.points.find((p) => p.t === dayStart - 24 * HOUR)!.states.steady).toBe(1);
+    // Days are shaded only when most of their hours are not steady: 10 March (21 of 24 steady) is not;
+    // 12 March (5 idle, 1 steady) is, from its local midnight (11 March 18:30 UTC) for one day.
+    expect(t.context).toEqual([{ state: 'idle', fromMs: Date.parse('2024-03-11T18:30:00Z'), toMs: Date.parse('2024-03-12T18:30:00Z'), hours: 6 }]);
   });
 
   it('answers 404 for an unknown unit and 400 for an unknown range', async () => {

@@ -83,7 +83,10 @@ export interface TrendPoint {
   reasons?: string[];
 }
 
-/** A run of hours of one non-steady state, shaded on the charts. */
+/**
+ * A run of hours of one non-steady state, shaded on the charts (for day buckets: a run of days most
+ * of whose hours with data were of that state).
+ */
 export interface ContextSpan {
   state: Exclude<HourState, 'steady'>;
   fromMs: number;
@@ -111,10 +114,10 @@ export interface TrendAnswer {
     expectedDestructionMean_W: number | null;
   };
   loadUnit: string | null;
-  /** Steady hours for the scatter of efficiency against load. */
-  scatter: { t: number; load: number; efficiency: number; efficiency_U: number | null }[];
-  /** The baseline's curve over the load range at the period's mean ambient temperature. */
-  curve: { load: number; efficiency: number | null; lo: number | null; hi: number | null }[];
+  /** Steady hours for the scatter against load (efficiency null for dissipative units). */
+  scatter: { t: number; load: number; efficiency: number | null; efficiency_U: number | null; destruction_W: number | null }[];
+  /** The baseline's curve over the load range at the period's mean ambient temperature, with its k = 2 band. */
+  curve: { load: number; efficiency: number | null; lo: number | null; hi: number | null; destruction_W: number | null; dLo_W: number | null; dHi_W: number | null }[];
   baseline: BaselineInfo | null;
   notices: NoticeMark[];
 }
@@ -224,6 +227,25 @@ export async function unitTrend(unitId: string, q: PeriodQuery, nowMs?: number):
     }
   }
 
+  // Per local day, hourly runs would be slivers: shade a day by its most frequent state when most of
+  // its hours with data are not steady.
+  const shading: ContextSpan[] = bucket === 'hour' ? context : [];
+  if (bucket === 'day') {
+    points.forEach((p, i) => {
+      const end = points[i + 1]?.t ?? period.toMs;
+      const other = (['unsettled', 'idle', 'suspect'] as const).map((s) => [s, p.states[s]] as const).sort((a, b) => b[1] - a[1]);
+      const notSteady = other.reduce((a, [, n]) => a + n, 0);
+      if (notSteady === 0 || notSteady <= p.states.steady) return;
+      const state = other[0]![0];
+      const last = shading[shading.length - 1];
+      const hours = p.states.steady + notSteady;
+      if (last && last.state === state && last.toMs === p.t) {
+        last.toMs = end;
+        last.hours += hours;
+      } else shading.push({ state, fromMs: p.t, toMs: end, hours });
+    });
+  }
+
   const effs = steady.map((r) => r.efficiency).filter((v): v is number => v !== null);
   const effU = steady.map((r) => r.efficiency_U).filter((v): v is number => v !== null);
   const ds = steady.map((r) => r.destruction_W).filter((v): v is number => v !== null);
@@ -231,8 +253,8 @@ export async function unitTrend(unitId: string, q: PeriodQuery, nowMs?: number):
   const exAll = [...expectedAt.values()];
 
   const scatter = steady
-    .filter((r) => r.load !== null && r.efficiency !== null)
-    .map((r) => ({ t: r.hourStart.getTime(), load: r.load!, efficiency: r.efficiency!, efficiency_U: r.efficiency_U }));
+    .filter((r) => r.load !== null && (r.efficiency !== null || r.destruction_W !== null))
+    .map((r) => ({ t: r.hourStart.getTime(), load: r.load!, efficiency: r.efficiency, efficiency_U: r.efficiency_U, destruction_W: r.destruction_W }));
 
   let curve: TrendAnswer['curve'] = [];
   if (baseline && scatter.length >= 2) {
@@ -248,6 +270,9 @@ export async function unitTrend(unitId: string, q: PeriodQuery, nowMs?: number):
       efficiency: band.expected[i]?.efficiency ?? null,
       lo: band.expected[i]?.efficiencyLo ?? null,
       hi: band.expected[i]?.efficiencyHi ?? null,
+      destruction_W: band.expected[i]?.destruction_W ?? null,
+      dLo_W: band.expected[i]?.destructionLo_W ?? null,
+      dHi_W: band.expected[i]?.destructionHi_W ?? null,
     }));
   }
 
@@ -257,7 +282,7 @@ export async function unitTrend(unitId: string, q: PeriodQuery, nowMs?: number):
     period,
     bucket,
     points,
-    context,
+    context: shading,
     stateHours,
     missingHours: Math.max(0, period.hours - rows.length),
     summary: {
@@ -545,20 +570,30 @@ export interface OverviewSite {
     destructionMean_U_W: number | null;
     cost: number | null;
   }[];
+  /** The 24-hour window shown, in the site's clock. */
+  windowFrom: string;
+  windowTo: string;
+  /** Start of the latest unit hour, site clock; null when the site has none. */
   lastHour: string | null;
-  openNotices: number | null;
+  /** Drift notices not closed (open or acknowledged). */
+  openNotices: number;
 }
 
-/** Every site with its units over the last 24 hours (steady hours only), for the overview page. */
+/**
+ * Every site with its units over the 24 hours up to its latest unit hour (steady hours only), for the
+ * overview page: with historian files uploaded in batches, "the last 24 hours" means the last day
+ * with data, and the page says which.
+ */
 export async function overview(nowMs = Date.now()): Promise<OverviewSite[]> {
   const all = await db().select().from(sites).orderBy(asc(sites.name));
   const out: OverviewSite[] = [];
   for (const site of all) {
-    const aggs = await unitAggregates(site.id, nowMs - 24 * HOUR_ms, nowMs);
     const last = await db().execute<{ last: string | null }>(
-      sql`select max(h.hour_start)::text as last from unit_hours h join plant_units u on u.id = h.unit_id where u.site_id = ${site.id}`,
+      sql`select max(h.hour_start)::text as last from unit_hours h join plant_units u on u.id = h.unit_id where u.site_id = ${site.id} and h.hour_start <= ${new Date(nowMs).toISOString()}::timestamptz`,
     );
     const lastRaw = last.rows[0]?.last;
+    const endMs = lastRaw ? Date.parse(lastRaw) + HOUR_ms : nowMs;
+    const aggs = await unitAggregates(site.id, endMs - 24 * HOUR_ms, endMs);
     out.push({
       id: site.id,
       name: site.name,
@@ -575,9 +610,36 @@ export async function overview(nowMs = Date.now()): Promise<OverviewSite[]> {
         destructionMean_U_W: a.steady > 0 && a.du_w !== null ? a.du_w / a.steady : null,
         cost: a.cost_hours > 0 ? a.cost : null,
       })),
+      windowFrom: localStamp(endMs - 24 * HOUR_ms, site.timeZone),
+      windowTo: localStamp(endMs, site.timeZone),
       lastHour: lastRaw ? localStamp(Date.parse(lastRaw), site.timeZone) : null,
       openNotices: await openNoticeCount(site.id),
     });
   }
   return out;
+}
+
+// ---- page headers ------------------------------------------------------------------------------
+
+/** A unit with its site, for a page's heading; null when there is no such unit. */
+export async function unitHeading(unitId: string) {
+  try {
+    const { unit, site } = await unitWithSite(unitId);
+    return { unit: { id: unit.id, name: unit.name, kind: unit.kind, kindLabel: kindLabel(unit.kind) }, site: { id: site.id, name: site.name, timeZone: site.timeZone } };
+  } catch {
+    return null;
+  }
+}
+
+/** Every site with its units (name, kind), for the pickers of the views. */
+export async function sitesWithUnits() {
+  const all = await db().select().from(sites).orderBy(asc(sites.name));
+  const units = await db().select({ id: plantUnits.id, siteId: plantUnits.siteId, name: plantUnits.name, kind: plantUnits.kind }).from(plantUnits).orderBy(asc(plantUnits.name));
+  return all.map((s) => ({
+    id: s.id,
+    name: s.name,
+    timeZone: s.timeZone,
+    currency: s.currency,
+    units: units.filter((u) => u.siteId === s.id).map((u) => ({ id: u.id, name: u.name, kind: u.kind, kindLabel: kindLabel(u.kind) })),
+  }));
 }

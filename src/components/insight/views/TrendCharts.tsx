@@ -1,0 +1,404 @@
+/**
+ * The trend charts: measured (steady hours only) against the expected band, hours that are not
+ * steady shaded by state (colour and pattern, named in the legend), drift notices marked on the time
+ * axis, and the scatter against load with the baseline's curve.
+ */
+import { TZDate } from '@date-fns/tz';
+import { addDays, addHours, addMonths, format } from 'date-fns';
+import {
+  Area,
+  CartesianGrid,
+  ComposedChart,
+  Line,
+  ReferenceArea,
+  ReferenceLine,
+  ResponsiveContainer,
+  Scatter,
+  Tooltip,
+  XAxis,
+  YAxis,
+} from 'recharts';
+import { COLORS, HourStateMark, STATE_LOOK } from './common';
+import { load as showLoad, loadAxis, pct, power, powerUnit, siteTime, type HourState } from './format';
+
+export interface ExpectedHour {
+  efficiency: number | null;
+  efficiencyLo: number | null;
+  efficiencyHi: number | null;
+  destruction_W: number | null;
+  destructionLo_W: number | null;
+  destructionHi_W: number | null;
+}
+export interface TrendPoint {
+  t: number;
+  states: Record<HourState, number>;
+  efficiency: number | null;
+  efficiency_U: number | null;
+  destruction_W: number | null;
+  destruction_U_W: number | null;
+  load: number | null;
+  T0_K: number | null;
+  expected: ExpectedHour | null;
+  state?: HourState | null;
+  reasons?: string[];
+}
+export interface ContextSpan {
+  state: Exclude<HourState, 'steady'>;
+  fromMs: number;
+  toMs: number;
+  hours: number;
+}
+export interface NoticeMark {
+  id: string;
+  direction: 'up' | 'down';
+  status: string;
+  onsetMs: number;
+  signalMs: number;
+  hours: number;
+  extra_W: number;
+  shiftU_W: number | null;
+  extraCost_per_day: number | null;
+  currency: string;
+}
+
+/** Fill patterns of the shaded states: idle lines, unsettled hatching, suspect dots. */
+export function StatePatterns({ prefix }: { prefix: string }) {
+  return (
+    <defs>
+      <pattern id={`${prefix}-idle`} width="6" height="6" patternUnits="userSpaceOnUse">
+        <rect width="6" height="6" fill={STATE_LOOK.idle.fill} />
+        <path d="M0 3 H6" stroke={STATE_LOOK.idle.stroke} strokeWidth="0.8" strokeOpacity="0.7" />
+      </pattern>
+      <pattern id={`${prefix}-unsettled`} width="6" height="6" patternUnits="userSpaceOnUse" patternTransform="rotate(45)">
+        <rect width="6" height="6" fill={STATE_LOOK.unsettled.fill} />
+        <path d="M0 0 V6" stroke={STATE_LOOK.unsettled.stroke} strokeWidth="1" strokeOpacity="0.8" />
+      </pattern>
+      <pattern id={`${prefix}-suspect`} width="6" height="6" patternUnits="userSpaceOnUse">
+        <rect width="6" height="6" fill={STATE_LOOK.suspect.fill} />
+        <circle cx="3" cy="3" r="1" fill={STATE_LOOK.suspect.stroke} fillOpacity="0.8" />
+      </pattern>
+    </defs>
+  );
+}
+
+const shade = (prefix: string, state: ContextSpan['state']) =>
+  function ShadeShape(props: { x?: number; y?: number; width?: number; height?: number }) {
+    const { x = 0, y = 0, width = 0, height = 0 } = props;
+    return (
+      <g data-shade={state}>
+        <StatePatterns prefix={`${prefix}-${state}-area`} />
+        <rect x={x} y={y} width={Math.max(width, 1)} height={height} fill={`url(#${prefix}-${state}-area-${state})`} fillOpacity={0.75} />
+      </g>
+    );
+  };
+
+function NoticeLabel(props: { viewBox?: { x?: number; y?: number; height?: number } }) {
+  const x = props.viewBox?.x ?? 0;
+  const y = (props.viewBox?.y ?? 0) + (props.viewBox?.height ?? 0);
+  return (
+    <g data-notice-mark="">
+      <path d={`M${x} ${y - 11} L${x + 6} ${y - 1} L${x - 6} ${y - 1} Z`} fill={COLORS.copper} stroke={COLORS.copperDeep} />
+      <text x={x + 8} y={y - 3} fontSize={10} fill={COLORS.copperDeep}>
+        notice
+      </text>
+    </g>
+  );
+}
+
+/** Tick instants on the site's clock for a period. */
+export function timeTicks(fromMs: number, toMs: number, timeZone: string): { ticks: number[]; pattern: string } {
+  const hours = (toMs - fromMs) / 3_600_000;
+  const start = new TZDate(fromMs, timeZone);
+  const out: number[] = [];
+  let pattern = 'HH:mm';
+  let next: (d: TZDate, i: number) => TZDate;
+  if (hours <= 50) next = (d, i) => addHours(d, 3 * i);
+  else if (hours <= 24 * 16) {
+    pattern = 'EEE d';
+    next = (d, i) => addDays(d, i);
+  } else if (hours <= 24 * 70) {
+    pattern = 'd MMM';
+    next = (d, i) => addDays(d, 7 * i);
+  } else {
+    pattern = 'MMM';
+    next = (d, i) => addMonths(d, i);
+  }
+  for (let i = 0; i < 400; i++) {
+    const t = next(start, i).getTime();
+    if (t > toMs) break;
+    out.push(t);
+  }
+  return { ticks: out, pattern };
+}
+
+interface ChartRow {
+  t: number;
+  measured: number | null;
+  expected: number | null;
+  band: [number, number] | null;
+  point: TrendPoint;
+}
+
+type Kind = 'efficiency' | 'destruction';
+
+function TrendTooltip({ active, payload, kind, timeZone, bucket, loadUnit }: { active?: boolean; payload?: { payload: ChartRow }[]; kind: Kind; timeZone: string; bucket: 'hour' | 'day'; loadUnit: string | null }) {
+  if (!active || !payload?.length) return null;
+  const p = payload[0]!.payload.point;
+  const when = bucket === 'hour' ? `${siteTime(p.t, timeZone)}–${siteTime(p.t + 3_600_000, timeZone, 'HH:mm')}` : siteTime(p.t, timeZone, 'EEE d MMM yyyy');
+  const states = (Object.keys(p.states) as HourState[]).filter((s) => p.states[s] > 0);
+  const e = p.expected;
+  return (
+    <div className="rounded border border-paper-edge bg-white px-3 py-2 text-xs shadow" data-testid="trend-tooltip">
+      <p className="font-semibold">{when}</p>
+      <div className="mt-1 flex flex-wrap gap-2">
+        {states.length === 0 ? <span className="text-ink-faint">no unit hour</span> : states.map((s) => <HourStateMark key={s} state={s} count={bucket === 'day' ? p.states[s] : undefined} />)}
+      </div>
+      {kind === 'efficiency' ? (
+        <>
+          <p className="mt-1">
+            Efficiency{bucket === 'day' ? ' (mean of steady hours)' : ''}: <b>{pct(p.efficiency, p.efficiency_U)}</b>
+          </p>
+          {e && e.efficiency !== null && (
+            <p>
+              Expected: {pct(e.efficiency)} (band {pct(e.efficiencyLo)} to {pct(e.efficiencyHi)}, k = 2)
+            </p>
+          )}
+        </>
+      ) : (
+        <>
+          <p className="mt-1">
+            Destruction{bucket === 'day' ? ' (mean of steady hours)' : ''}: <b>{power(p.destruction_W, p.destruction_U_W)}</b>
+          </p>
+          {e && e.destruction_W !== null && (
+            <p>
+              Expected: {power(e.destruction_W)} (band {power(e.destructionLo_W)} to {power(e.destructionHi_W)}, k = 2)
+            </p>
+          )}
+        </>
+      )}
+      {p.load !== null && <p>Load: {showLoad(p.load, loadUnit)}</p>}
+      {p.T0_K !== null && <p>T0: {(p.T0_K - 273.15).toFixed(1)} °C</p>}
+      {p.reasons && p.reasons.length > 0 && <p className="mt-1 max-w-xs text-ink-soft">{p.reasons.join('; ')}</p>}
+    </div>
+  );
+}
+
+export function TimeChart({
+  kind,
+  points,
+  context,
+  notices,
+  fromMs,
+  toMs,
+  timeZone,
+  bucket,
+  loadUnit,
+}: {
+  kind: Kind;
+  points: TrendPoint[];
+  context: ContextSpan[];
+  notices: NoticeMark[];
+  fromMs: number;
+  toMs: number;
+  timeZone: string;
+  bucket: 'hour' | 'day';
+  loadUnit: string | null;
+}) {
+  const maxD = Math.max(0, ...points.map((p) => Math.abs(p.destruction_W ?? 0)), ...points.map((p) => Math.abs(p.expected?.destructionHi_W ?? 0)));
+  const pu = powerUnit(maxD);
+  const rows: ChartRow[] = points.map((p) => {
+    const e = p.expected;
+    if (kind === 'efficiency') {
+      return {
+        t: p.t,
+        measured: p.efficiency === null ? null : p.efficiency * 100,
+        expected: e?.efficiency == null ? null : e.efficiency * 100,
+        band: e?.efficiencyLo == null || e?.efficiencyHi == null ? null : [e.efficiencyLo * 100, e.efficiencyHi * 100],
+        point: p,
+      };
+    }
+    return {
+      t: p.t,
+      measured: p.destruction_W === null ? null : p.destruction_W / pu.factor,
+      expected: e?.destruction_W == null ? null : e.destruction_W / pu.factor,
+      band: e?.destructionLo_W == null || e?.destructionHi_W == null ? null : [e.destructionLo_W / pu.factor, e.destructionHi_W / pu.factor],
+      point: p,
+    };
+  });
+  const { ticks, pattern } = timeTicks(fromMs, toMs, timeZone);
+  const prefix = `${kind}-pat`;
+  const line = kind === 'efficiency' ? COLORS.teal : COLORS.copper;
+  const bandFill = kind === 'efficiency' ? COLORS.tealPale : COLORS.copperPale;
+  return (
+    <div className="h-72 w-full" data-testid={`chart-${kind}`} role="img" aria-label={kind === 'efficiency' ? 'Exergy efficiency over time against the expected band' : 'Exergy destruction over time against the expected band'}>
+      <ResponsiveContainer width="100%" height="100%">
+        <ComposedChart data={rows} margin={{ top: 8, right: 16, bottom: 4, left: 8 }}>
+          <CartesianGrid stroke={COLORS.edge} strokeDasharray="2 4" />
+          <XAxis
+            dataKey="t"
+            type="number"
+            scale="time"
+            domain={[fromMs, toMs]}
+            ticks={ticks}
+            tickFormatter={(t: number) => format(new TZDate(t, timeZone), pattern)}
+            tick={{ fontSize: 11, fill: COLORS.soft }}
+            allowDataOverflow
+          />
+          <YAxis
+            tick={{ fontSize: 11, fill: COLORS.soft }}
+            width={56}
+            domain={['auto', 'auto']}
+            label={{ value: kind === 'efficiency' ? 'Efficiency [%]' : `Destruction [${pu.unit}]`, angle: -90, position: 'insideLeft', style: { fontSize: 11, fill: COLORS.soft, textAnchor: 'middle' } }}
+          />
+          {context.map((c) => (
+            <ReferenceArea key={`${c.state}-${c.fromMs}`} x1={Math.max(c.fromMs, fromMs)} x2={Math.min(c.toMs, toMs)} ifOverflow="hidden" shape={shade(prefix, c.state)} />
+          ))}
+          <Area type="linear" dataKey="band" stroke="none" fill={bandFill} fillOpacity={0.85} isAnimationActive={false} connectNulls={false} name="expected band (k = 2)" />
+          <Line type="linear" dataKey="expected" stroke={COLORS.ink} strokeDasharray="5 4" strokeWidth={1.2} dot={false} isAnimationActive={false} connectNulls={false} name="expected" />
+          <Line
+            type="linear"
+            dataKey="measured"
+            stroke={line}
+            strokeWidth={2}
+            dot={rows.length <= 60 ? { r: 2.5, fill: line } : false}
+            isAnimationActive={false}
+            connectNulls={false}
+            name="measured"
+          />
+          {notices
+            .filter((n) => n.onsetMs >= fromMs && n.onsetMs <= toMs)
+            .map((n) => (
+              <ReferenceLine key={n.id} x={n.onsetMs} stroke={COLORS.copper} strokeDasharray="3 3" label={<NoticeLabel />} ifOverflow="extendDomain" />
+            ))}
+          <Tooltip content={<TrendTooltip kind={kind} timeZone={timeZone} bucket={bucket} loadUnit={loadUnit} />} isAnimationActive={false} />
+        </ComposedChart>
+      </ResponsiveContainer>
+    </div>
+  );
+}
+
+/** The legend, in words and shapes: states never by colour alone. */
+export function TrendLegend({ kind, shown }: { kind: Kind; shown: Set<string> }) {
+  const line = kind === 'efficiency' ? COLORS.teal : COLORS.copper;
+  const band = kind === 'efficiency' ? COLORS.tealPale : COLORS.copperPale;
+  const sw = (content: React.ReactNode) => (
+    <svg width="26" height="12" viewBox="0 0 26 12" aria-hidden="true">
+      {content}
+    </svg>
+  );
+  const prefix = `legend-${kind}`;
+  return (
+    <ul className="mt-2 flex flex-wrap gap-x-4 gap-y-1 text-xs text-ink-soft" aria-label="Legend">
+      <li className="inline-flex items-center gap-1.5">{sw(<path d="M1 6 H25" stroke={line} strokeWidth="2.5" />)}measured (steady hours)</li>
+      <li className="inline-flex items-center gap-1.5">{sw(<path d="M1 6 H25" stroke={COLORS.ink} strokeWidth="1.2" strokeDasharray="5 4" />)}expected</li>
+      <li className="inline-flex items-center gap-1.5">{sw(<rect x="1" y="1" width="24" height="10" fill={band} />)}expected band (k = 2)</li>
+      {(['idle', 'unsettled', 'suspect'] as const).map((s) => (
+        <li key={s} className={`inline-flex items-center gap-1.5 ${shown.has(s) ? '' : 'opacity-60'}`} data-legend={s}>
+          {sw(
+            <>
+              <StatePatterns prefix={`${prefix}-${s}`} />
+              <rect x="1" y="1" width="24" height="10" fill={`url(#${prefix}-${s}-${s})`} stroke={STATE_LOOK[s].stroke} strokeWidth="0.6" />
+            </>,
+          )}
+          <HourStateMark state={s} /> hours (shaded)
+        </li>
+      ))}
+      <li className="inline-flex items-center gap-1.5">
+        {sw(<path d="M13 1 L19 11 L7 11 Z" fill={COLORS.copper} stroke={COLORS.copperDeep} />)}drift notice (onset)
+      </li>
+    </ul>
+  );
+}
+
+export interface ScatterPoint {
+  t: number;
+  load: number;
+  efficiency: number | null;
+  efficiency_U: number | null;
+  destruction_W: number | null;
+}
+export interface CurvePoint {
+  load: number;
+  efficiency: number | null;
+  lo: number | null;
+  hi: number | null;
+  destruction_W: number | null;
+  dLo_W: number | null;
+  dHi_W: number | null;
+}
+
+function ScatterTooltip({ active, payload, kind, timeZone, loadUnit }: { active?: boolean; payload?: { payload: Record<string, unknown> }[]; kind: Kind; timeZone: string; loadUnit: string | null }) {
+  if (!active || !payload?.length) return null;
+  const d = payload[0]!.payload as { s?: ScatterPoint; c?: CurvePoint };
+  if (d.s) {
+    return (
+      <div className="rounded border border-paper-edge bg-white px-3 py-2 text-xs shadow">
+        <p className="font-semibold">{siteTime(d.s.t, timeZone)}</p>
+        <p>Load: {showLoad(d.s.load, loadUnit)}</p>
+        {kind === 'efficiency' ? <p>Efficiency: {pct(d.s.efficiency, d.s.efficiency_U)}</p> : <p>Destruction: {power(d.s.destruction_W)}</p>}
+      </div>
+    );
+  }
+  if (d.c) {
+    return (
+      <div className="rounded border border-paper-edge bg-white px-3 py-2 text-xs shadow">
+        <p className="font-semibold">Baseline at load {showLoad(d.c.load, loadUnit)}</p>
+        {kind === 'efficiency' ? (
+          <p>
+            Expected {pct(d.c.efficiency)} (band {pct(d.c.lo)} to {pct(d.c.hi)}, k = 2)
+          </p>
+        ) : (
+          <p>
+            Expected {power(d.c.destruction_W)} (band {power(d.c.dLo_W)} to {power(d.c.dHi_W)}, k = 2)
+          </p>
+        )}
+      </div>
+    );
+  }
+  return null;
+}
+
+/** Efficiency (or, for dissipative units, destruction) of steady hours against load, with the baseline's curve. */
+export function LoadScatter({ kind, scatter, curve, loadUnit, timeZone }: { kind: Kind; scatter: ScatterPoint[]; curve: CurvePoint[]; loadUnit: string | null; timeZone: string }) {
+  const ax = loadAxis(loadUnit);
+  const pu = powerUnit(Math.max(0, ...scatter.map((s) => Math.abs(s.destruction_W ?? 0))));
+  const y = (v: number | null) => (v === null ? null : kind === 'efficiency' ? v * 100 : v / pu.factor);
+  const pts = scatter.map((s) => ({ x: s.load * ax.scale, y: y(kind === 'efficiency' ? s.efficiency : s.destruction_W), s })).filter((p) => p.y !== null);
+  const cur = curve.map((c) => ({
+    x: c.load * ax.scale,
+    y: y(kind === 'efficiency' ? c.efficiency : c.destruction_W),
+    band: (kind === 'efficiency' ? c.lo !== null && c.hi !== null : c.dLo_W !== null && c.dHi_W !== null) ? [y(kind === 'efficiency' ? c.lo : c.dLo_W)!, y(kind === 'efficiency' ? c.hi : c.dHi_W)!] : null,
+    c,
+  }));
+  const dot = kind === 'efficiency' ? COLORS.teal : COLORS.copper;
+  return (
+    <div className="h-72 w-full" data-testid="chart-scatter" role="img" aria-label="Steady hours against load with the baseline's curve">
+      <ResponsiveContainer width="100%" height="100%">
+        <ComposedChart margin={{ top: 8, right: 16, bottom: 18, left: 8 }}>
+          <CartesianGrid stroke={COLORS.edge} strokeDasharray="2 4" />
+          <XAxis
+            dataKey="x"
+            type="number"
+            domain={['auto', 'auto']}
+            tick={{ fontSize: 11, fill: COLORS.soft }}
+            tickFormatter={(v: number) => String(Number(v.toPrecision(3)))}
+            label={{ value: ax.label, position: 'insideBottom', offset: -10, style: { fontSize: 11, fill: COLORS.soft } }}
+            allowDuplicatedCategory={false}
+          />
+          <YAxis
+            dataKey="y"
+            type="number"
+            domain={['auto', 'auto']}
+            tick={{ fontSize: 11, fill: COLORS.soft }}
+            width={56}
+            label={{ value: kind === 'efficiency' ? 'Efficiency [%]' : `Destruction [${pu.unit}]`, angle: -90, position: 'insideLeft', style: { fontSize: 11, fill: COLORS.soft, textAnchor: 'middle' } }}
+          />
+          {cur.length > 0 && <Area data={cur} dataKey="band" type="monotone" stroke="none" fill={kind === 'efficiency' ? COLORS.tealPale : COLORS.copperPale} isAnimationActive={false} />}
+          {cur.length > 0 && <Line data={cur} dataKey="y" type="monotone" stroke={COLORS.ink} strokeDasharray="5 4" dot={false} isAnimationActive={false} />}
+          <Scatter data={pts} dataKey="y" fill={dot} fillOpacity={0.7} shape="circle" isAnimationActive={false} />
+          <Tooltip content={<ScatterTooltip kind={kind} timeZone={timeZone} loadUnit={loadUnit} />} isAnimationActive={false} />
+        </ComposedChart>
+      </ResponsiveContainer>
+    </div>
+  );
+}

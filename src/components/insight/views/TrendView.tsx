@@ -1,0 +1,203 @@
+/**
+ * A unit's trend island: fetches /api/units/:id/trend for the chosen period of the site's clock and
+ * draws efficiency and destruction against the expected band, the scatter against load, and the
+ * notices of the period.
+ */
+import { useEffect, useMemo, useState } from 'react';
+import { ErrorNote, HourStateMark, Loading, useJson } from './common';
+import { pct, power, siteTime, type HourState } from './format';
+import { PeriodPicker, periodFromSearch, periodQuery, syncSearch, type PeriodInfo, type PeriodValue } from './PeriodPicker';
+import { LoadScatter, TimeChart, TrendLegend, type ContextSpan, type CurvePoint, type NoticeMark, type ScatterPoint, type TrendPoint } from './TrendCharts';
+
+interface TrendAnswer {
+  unit: { id: string; name: string; kind: string; kindLabel: string };
+  site: { id: string; name: string; timeZone: string; currency: string };
+  period: PeriodInfo & { fromMs: number; toMs: number };
+  bucket: 'hour' | 'day';
+  points: TrendPoint[];
+  context: ContextSpan[];
+  stateHours: Record<HourState, number>;
+  missingHours: number;
+  summary: {
+    steadyHours: number;
+    efficiencyMean: number | null;
+    efficiencyMean_U: number | null;
+    destructionMean_W: number | null;
+    destructionMean_U_W: number | null;
+    expectedEfficiencyMean: number | null;
+    expectedDestructionMean_W: number | null;
+  };
+  loadUnit: string | null;
+  scatter: ScatterPoint[];
+  curve: CurvePoint[];
+  baseline: { id: string; label: string; meetsGuideline14: boolean; efficiencyCvRmse: number | null; destructionCvRmse: number } | null;
+  notices: NoticeMark[];
+}
+
+function BaselineName({ b }: { b: TrendAnswer['baseline'] }) {
+  return (
+    <p className="text-xs text-ink-soft" data-testid="baseline-name">
+      {b ? (
+        <>
+          Expected from <span className="font-semibold text-ink">{b.label}</span>
+          {!b.meetsGuideline14 && <span className="ml-1 text-amber">(fit outside ASHRAE Guideline 14 hourly limits: read the band with care)</span>}
+        </>
+      ) : (
+        <>No active baseline for this unit yet: the expected band is not shown.</>
+      )}
+    </p>
+  );
+}
+
+function Stat({ label, value, sub, testId }: { label: string; value: string; sub?: string; testId?: string }) {
+  return (
+    <div className="card" data-testid={testId}>
+      <p className="text-xs font-medium uppercase tracking-wide text-ink-faint">{label}</p>
+      <p className="mt-1 text-lg font-semibold tabular-nums">{value}</p>
+      {sub && <p className="text-xs text-ink-soft">{sub}</p>}
+    </div>
+  );
+}
+
+export default function TrendView({ unitId, initialSearch }: { unitId: string; initialSearch: string }) {
+  const [value, setValue] = useState<PeriodValue>(() => periodFromSearch(initialSearch, 'week'));
+  const url = `/api/units/${unitId}/trend?${periodQuery(value)}`;
+  const { data, error, loading } = useJson<TrendAnswer>(url);
+  const [info, setInfo] = useState<PeriodInfo | null>(null);
+  useEffect(() => {
+    if (data) setInfo({ ...data.period, timeZone: data.site.timeZone });
+  }, [data]);
+  const change = (v: PeriodValue) => {
+    setValue(v);
+    syncSearch({}, v);
+  };
+  const shown = useMemo(() => new Set(data?.context.map((c) => c.state) ?? []), [data]);
+  const total = data ? Object.values(data.stateHours).reduce((a, b) => a + b, 0) : 0;
+  const hasEfficiency = !!data?.points.some((p) => p.efficiency !== null);
+
+  return (
+    <div className="space-y-4" data-testid="trend-view">
+      <PeriodPicker value={value} info={info} onChange={change} />
+      {error && <ErrorNote text={error} />}
+      {loading && <Loading what="hours" />}
+      {data && !loading && total === 0 && (
+        <div className="card text-sm text-ink-soft" data-testid="trend-empty">
+          <p className="font-medium text-ink">No unit hours in {data.period.label}.</p>
+          <p>Pick another period, or upload historian exports for this site; hours appear once the balances are computed.</p>
+        </div>
+      )}
+      {data && !loading && total > 0 && (
+        <>
+          <div className="grid grid-cols-2 gap-3 md:grid-cols-4">
+            <Stat
+              testId="stat-hours"
+              label="Steady hours"
+              value={`${data.summary.steadyHours} h of ${data.period.hours} h`}
+              sub={data.missingHours ? `${data.missingHours} h without a unit hour` : 'every hour has a unit hour'}
+            />
+            <Stat
+              testId="stat-efficiency"
+              label="Mean efficiency"
+              value={hasEfficiency ? pct(data.summary.efficiencyMean, data.summary.efficiencyMean_U) : 'none (dissipative)'}
+              sub={data.summary.expectedEfficiencyMean !== null ? `expected ${pct(data.summary.expectedEfficiencyMean)}` : undefined}
+            />
+            <Stat
+              testId="stat-destruction"
+              label="Mean destruction"
+              value={power(data.summary.destructionMean_W, data.summary.destructionMean_U_W)}
+              sub={data.summary.expectedDestructionMean_W !== null ? `expected ${power(data.summary.expectedDestructionMean_W)}` : undefined}
+            />
+            <div className="card">
+              <p className="text-xs font-medium uppercase tracking-wide text-ink-faint">Hours by state</p>
+              <div className="mt-1 flex flex-col gap-0.5" data-testid="state-hours">
+                {(Object.keys(data.stateHours) as HourState[]).map((s) => (
+                  <HourStateMark key={s} state={s} count={data.stateHours[s]} />
+                ))}
+              </div>
+            </div>
+          </div>
+
+          {hasEfficiency && (
+            <section className="card">
+              <h2>Exergy efficiency</h2>
+              <BaselineName b={data.baseline} />
+              <TimeChart
+                kind="efficiency"
+                points={data.points}
+                context={data.context}
+                notices={data.notices}
+                fromMs={data.period.fromMs}
+                toMs={data.period.toMs}
+                timeZone={data.site.timeZone}
+                bucket={data.bucket}
+                loadUnit={data.loadUnit}
+              />
+              <TrendLegend kind="efficiency" shown={shown} />
+            </section>
+          )}
+
+          <section className="card">
+            <h2>Exergy destruction</h2>
+            <BaselineName b={data.baseline} />
+            <TimeChart
+              kind="destruction"
+              points={data.points}
+              context={data.context}
+              notices={data.notices}
+              fromMs={data.period.fromMs}
+              toMs={data.period.toMs}
+              timeZone={data.site.timeZone}
+              bucket={data.bucket}
+              loadUnit={data.loadUnit}
+            />
+            <TrendLegend kind="destruction" shown={shown} />
+            {data.bucket === 'day' && <p className="mt-1 text-xs text-ink-faint">Long periods are drawn per local day: each point is the mean of that day's steady hours.</p>}
+          </section>
+
+          <section className="card">
+            <h2>{hasEfficiency ? 'Efficiency' : 'Destruction'} against load</h2>
+            <BaselineName b={data.baseline} />
+            {data.scatter.length === 0 ? (
+              <p className="py-4 text-sm text-ink-faint">No steady hours with a load in this period.</p>
+            ) : (
+              <LoadScatter kind={hasEfficiency ? 'efficiency' : 'destruction'} scatter={data.scatter} curve={data.curve} loadUnit={data.loadUnit} timeZone={data.site.timeZone} />
+            )}
+            <p className="mt-1 text-xs text-ink-faint">
+              Dots: steady hours of the period. Dashed line and band: the baseline at the period's mean ambient temperature (k = 2).
+            </p>
+          </section>
+
+          <section className="card" data-testid="trend-notices">
+            <h2>Drift notices in the period</h2>
+            {data.notices.length === 0 ? (
+              <p className="text-sm text-ink-faint">None.</p>
+            ) : (
+              <table className="grid-table mt-2">
+                <thead>
+                  <tr>
+                    <th>Onset (site time)</th>
+                    <th>Shift</th>
+                    <th>Status</th>
+                    <th className="num">Extra destruction [kW]</th>
+                    <th className="num">Extra cost [{data.site.currency}/day]</th>
+                  </tr>
+                </thead>
+                <tbody>
+                  {data.notices.map((n) => (
+                    <tr key={n.id}>
+                      <td>{siteTime(n.onsetMs, data.site.timeZone)}</td>
+                      <td>{n.direction === 'up' ? 'more destruction than expected' : 'less destruction than expected'}</td>
+                      <td>{n.status}</td>
+                      <td className="num">{power(n.extra_W, n.shiftU_W, { unit: 'kW', factor: 1e3 }).replace(/ kW/g, '')}</td>
+                      <td className="num">{n.extraCost_per_day === null ? '—' : n.extraCost_per_day.toFixed(0)}</td>
+                    </tr>
+                  ))}
+                </tbody>
+              </table>
+            )}
+          </section>
+        </>
+      )}
+    </div>
+  );
+}
