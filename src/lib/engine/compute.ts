@@ -87,13 +87,28 @@ interface LinkSet {
   modelVersion: string;
   /** the tags whose hours the unit uses: its own, the ambient tag, flue-gas source O2 tags; sorted */
   usedTags: string[];
+  /** the unit's links, one per tag, the steady-state test's key tags (with the load) and spread limits */
+  linksUsed: EngineLink[];
+  keyTags: string[];
+  spread: Record<string, SpreadLimit>;
+  relLimit: number;
+  linkOfTag: Map<string, EngineLink>;
 }
 
 /**
  * The model version of an hour and the tags it reads, kept per unit object and link set (the same for
  * every hour those links hold).
  */
+const byLinksArray = new WeakMap<object, { unit: object; site: object; sources: unknown; set: LinkSet }>();
 function linkSetOf(input: UnitHourInput): LinkSet {
+  // The caller usually hands over the same links array for every hour a link set holds.
+  const hit = byLinksArray.get(input.links);
+  if (hit && hit.unit === input.unit && hit.site === input.site && hit.sources === input.flueGasSources) return hit.set;
+  const set = linkSetByKey(input);
+  byLinksArray.set(input.links, { unit: input.unit, site: input.site, sources: input.flueGasSources, set });
+  return set;
+}
+function linkSetByKey(input: UnitHourInput): LinkSet {
   let sk = siteKeys.get(input.site);
   if (sk === undefined) siteKeys.set(input.site, (sk = ++siteSeq));
   const fg = input.flueGasSources ? Object.entries(input.flueGasSources).map(([k, v]) => `${k}:${v.o2Link?.id ?? ''}:${v.o2Link?.validToMs ?? ''}`).join(',') : '';
@@ -114,7 +129,17 @@ function linkSetOf(input: UnitHourInput): LinkSet {
     const used = new Set<string>(input.links.map((l) => l.tagName));
     if (site.t0Tag) used.add(site.t0Tag.name);
     for (const s of Object.values(input.flueGasSources ?? {})) if (s.o2Link) used.add(s.o2Link.tagName);
-    v = { modelVersion, usedTags: [...used].sort() };
+    const params = unitParameters(unit);
+    const relLimit = num(params.spreadLimit, 0.05);
+    const linkOfTag = new Map<string, EngineLink>();
+    const spread: Record<string, SpreadLimit> = { [LOAD_KEY]: { maxRelSpread: Infinity } };
+    for (const l of input.links) {
+      if (linkOfTag.has(l.tagName)) continue;
+      linkOfTag.set(l.tagName, l);
+      spread[l.tagName] = l.quantity === 'o2Fraction' ? { maxStd: SPREAD_O2_ABS } : l.quantity === 'vapourFraction' ? { maxStd: SPREAD_X_ABS } : { maxRelSpread: relLimit };
+    }
+    const linksUsed = [...linkOfTag.values()];
+    v = { modelVersion, usedTags: [...used].sort(), linksUsed, keyTags: [...linksUsed.map((l) => l.tagName), LOAD_KEY], spread, relLimit, linkOfTag };
     if (byUnit.size > 1000) byUnit.clear();
     byUnit.set(key, v);
   }
@@ -224,18 +249,10 @@ export function computeUnitHour(input: UnitHourInput, options: ComputeOptions = 
   }
 
   // Key tags for the steady-state test, in SI.
+  const set = linkSetOf(input);
+  const { spread, linksUsed, relLimit } = set;
   const tags: Record<string, TagHourStats | null> = {};
-  const spread: Record<string, SpreadLimit> = {};
-  const relLimit = num(params.spreadLimit, 0.05);
-  const linksUsed: EngineLink[] = [];
-  for (const l of input.links) {
-    if (l.tagName in tags) continue;
-    linksUsed.push(l);
-    tags[l.tagName] = statsSI(l, input.tagHours.get(l.tagName), site.p_atm_Pa);
-    if (l.quantity === 'o2Fraction') spread[l.tagName] = { maxStd: SPREAD_O2_ABS };
-    else if (l.quantity === 'vapourFraction') spread[l.tagName] = { maxStd: SPREAD_X_ABS };
-    else spread[l.tagName] = { maxRelSpread: relLimit };
-  }
+  for (const l of linksUsed) tags[l.tagName] = statsSI(l, input.tagHours.get(l.tagName), site.p_atm_Pa);
   const load = mapped?.load.value ?? NaN;
   const minLoad = mapped?.minLoad ?? 0;
   tags[LOAD_KEY] = {
@@ -247,7 +264,6 @@ export function computeUnitHour(input: UnitHourInput, options: ComputeOptions = 
     outOfRangeCount: 0,
     nonNumericCount: 0,
   };
-  spread[LOAD_KEY] = { maxRelSpread: Infinity };
   // A unit at no load is idle even when its minimum load is 0.
   const effMin = minLoad > 0 ? minLoad : Number.MIN_VALUE;
   const idleCandidate = Number.isFinite(load) && load < effMin;
@@ -343,7 +359,7 @@ export function computeUnitHour(input: UnitHourInput, options: ComputeOptions = 
     {
       loadTag: LOAD_KEY,
       minLoad: effMin,
-      keyTags: [...linksUsed.map((l) => l.tagName), LOAD_KEY],
+      keyTags: set.keyTags,
       spread,
       defaultMaxRelSpread: relLimit,
       minCoveredFraction: num(params.minCoverage, 0.75),
@@ -398,9 +414,8 @@ export function computeUnitHour(input: UnitHourInput, options: ComputeOptions = 
 
   // The hashes: the model version (unit, links, site settings, method) and every input of the row.
   const { modelVersion, inputsHash } = options.hashes ?? unitHourHashes(input, options);
-  const usedTags = linkSetOf(input).usedTags;
-  const linkOfTag = new Map<string, EngineLink>();
-  for (const l of input.links) if (!linkOfTag.has(l.tagName)) linkOfTag.set(l.tagName, l);
+  const usedTags = set.usedTags;
+  const linkOfTag = set.linkOfTag;
 
   const detail: Record<string, unknown> = {
     engine: ENGINE_VERSION,

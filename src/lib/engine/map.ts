@@ -478,7 +478,15 @@ function missingRequired(unit: EngineUnit, links: readonly EngineLink[]): Engine
 
 const missingCache = new WeakMap<object, Map<string, EngineReason[]>>();
 /** missingRequired, kept per unit object and link set (the same for every hour those links hold). */
+const missingByArray = new WeakMap<object, { unit: object; r: EngineReason[] }>();
 function missingRequiredCached(unit: EngineUnit, links: readonly EngineLink[]): EngineReason[] {
+  const hit = missingByArray.get(links);
+  if (hit && hit.unit === unit) return hit.r.map((x) => ({ ...x }));
+  const r = missingRequiredByKey(unit, links);
+  missingByArray.set(links, { unit, r });
+  return r.map((x) => ({ ...x }));
+}
+function missingRequiredByKey(unit: EngineUnit, links: readonly EngineLink[]): EngineReason[] {
   const key = links.map((l) => `${l.id}:${l.portName}:${l.quantity}`).join(',');
   let byUnit = missingCache.get(unit);
   if (!byUnit) missingCache.set(unit, (byUnit = new Map()));
@@ -487,7 +495,7 @@ function missingRequiredCached(unit: EngineUnit, links: readonly EngineLink[]): 
     if (byUnit.size > 1000) byUnit.clear();
     byUnit.set(key, (r = missingRequired(unit, links)));
   }
-  return r.map((x) => ({ ...x }));
+  return r;
 }
 
 const sumOf = (ctx: Ctx, names: string[]) => names.reduce((s, n) => s + (ctx.entries.get(n)?.value ?? NaN), 0);

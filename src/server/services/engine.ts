@@ -322,9 +322,14 @@ async function computeChunk(ctx: SiteContext, targets: EngineUnit[], fromMs: num
         });
       }
       const rows: (typeof unitHours.$inferInsert)[] = [];
+      const linkSets = new Map<string, EngineLink[]>();
       const now = new Date();
       for (const t of [...hours].sort((x, y) => x - y)) {
-        const links = own.filter((x) => holdsAt(x.link, t)).map((x) => x.link);
+        // The same array for every hour the same link versions hold (the engine keeps per-set work by it).
+        const current = own.filter((x) => holdsAt(x.link, t)).map((x) => x.link);
+        const setKey = current.map((l) => l.id).join(',');
+        let links = linkSets.get(setKey);
+        if (!links) linkSets.set(setKey, (links = current));
         if (!links.length && !known.has(t)) continue;
         const th = byHour.get(t) ?? new Map<string, TagHour>();
         const srcs: Record<string, FlueGasSource> = {};
