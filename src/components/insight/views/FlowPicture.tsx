@@ -184,7 +184,7 @@ export function FlowPicture({ flow }: { flow: FlowAnswer }) {
             return (
               <g key={`dn-${u.unitId}`}>
                 <rect x={COL.out} y={n.y} width={NODE_W} height={Math.max(n.h, 1)} fill={COLORS.copper} />
-                {label(COL.out + NODE_W + 6, mid(n), `Destroyed in ${u.name}`, `${mwh(u.destruction_MWh, d)} MWh ± ${mwh(u.destruction_U_MWh, d)} MWh`, 'start', COLORS.copperDeep)}
+                {label(COL.out + NODE_W + 6, mid(n), `Destroyed in ${u.name}`, `${mwh(u.destruction_MWh)} MWh ± ${mwh(u.destruction_U_MWh, mwhDecimals(u.destruction_MWh))} MWh`, 'start', COLORS.copperDeep)}
               </g>
             );
           })}

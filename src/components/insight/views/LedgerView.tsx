@@ -145,7 +145,7 @@ export default function LedgerView({ sites, initialSiteId, initialSearch }: { si
                     </td>
                     <td className="text-ink-soft">{r.kindLabel}</td>
                     <td className="num">
-                      {mwh(r.destruction_MWh, d)} ± {mwh(r.destruction_U_MWh, d)}
+                      {mwh(r.destruction_MWh, Math.max(d, mwhDecimals(r.destruction_MWh)))} ± {mwh(r.destruction_U_MWh, Math.max(d, mwhDecimals(r.destruction_MWh)))}
                     </td>
                     <td className="num" title={r.hoursWithoutCost ? `${r.hoursWithoutCost} steady hours have no price for the unit's fuel` : undefined}>
                       {r.cost === null ? (r.hours.steady ? 'no price' : '—') : `${money(r.cost)} ± ${money(r.cost_U)}`}

@@ -105,6 +105,27 @@ function NoticeLabel(props: { viewBox?: { x?: number; y?: number; height?: numbe
   );
 }
 
+/** A round axis: about five ticks at 1, 2, 2.5 or 5 times a power of ten, covering every value. */
+export function niceTicks(values: (number | null | undefined)[]): { domain: [number, number]; ticks: number[] } | null {
+  const v = values.filter((x): x is number => x !== null && x !== undefined && Number.isFinite(x));
+  if (!v.length) return null;
+  let lo = Math.min(...v);
+  let hi = Math.max(...v);
+  if (hi - lo < 1e-9) {
+    const pad = Math.abs(lo) * 0.05 || 1;
+    lo -= pad;
+    hi += pad;
+  }
+  const raw = (hi - lo) / 4;
+  const mag = 10 ** Math.floor(Math.log10(raw));
+  const step = [1, 2, 2.5, 5, 10].map((m) => m * mag).find((s) => s >= raw)!;
+  const from = Math.floor(lo / step) * step;
+  const to = Math.ceil(hi / step) * step;
+  const ticks: number[] = [];
+  for (let t = from; t <= to + step / 2; t += step) ticks.push(Number(t.toPrecision(12)));
+  return { domain: [ticks[0]!, ticks[ticks.length - 1]!], ticks };
+}
+
 /** Tick instants on the site's clock for a period. */
 export function timeTicks(fromMs: number, toMs: number, timeZone: string): { ticks: number[]; pattern: string } {
   const hours = (toMs - fromMs) / 3_600_000;
@@ -226,6 +247,7 @@ export function TimeChart({
     };
   });
   const { ticks, pattern } = timeTicks(fromMs, toMs, timeZone);
+  const yAxis = niceTicks(rows.flatMap((r) => [r.measured, r.expected, ...(r.band ?? [])]));
   const prefix = `${kind}-pat`;
   const line = kind === 'efficiency' ? COLORS.teal : COLORS.copper;
   const bandFill = kind === 'efficiency' ? COLORS.tealPale : COLORS.copperPale;
@@ -247,7 +269,9 @@ export function TimeChart({
           <YAxis
             tick={{ fontSize: 11, fill: COLORS.soft }}
             width={56}
-            domain={['auto', 'auto']}
+            domain={yAxis?.domain ?? ['auto', 'auto']}
+            ticks={yAxis?.ticks}
+            allowDataOverflow
             label={{ value: kind === 'efficiency' ? 'Efficiency [%]' : `Destruction [${pu.unit}]`, angle: -90, position: 'insideLeft', style: { fontSize: 11, fill: COLORS.soft, textAnchor: 'middle' } }}
           />
           {context.map((c) => (
@@ -371,6 +395,8 @@ export function LoadScatter({ kind, scatter, curve, loadUnit, timeZone }: { kind
     c,
   }));
   const dot = kind === 'efficiency' ? COLORS.teal : COLORS.copper;
+  const xAxis = niceTicks([...pts.map((p) => p.x), ...cur.map((c) => c.x)]);
+  const yAxis = niceTicks([...pts.map((p) => p.y), ...cur.flatMap((c) => [c.y, ...(c.band ?? [])])]);
   return (
     <div className="h-72 w-full" data-testid="chart-scatter" role="img" aria-label="Steady hours against load with the baseline's curve">
       <ResponsiveContainer width="100%" height="100%">
@@ -379,7 +405,8 @@ export function LoadScatter({ kind, scatter, curve, loadUnit, timeZone }: { kind
           <XAxis
             dataKey="x"
             type="number"
-            domain={['auto', 'auto']}
+            domain={xAxis?.domain ?? ['auto', 'auto']}
+            ticks={xAxis?.ticks}
             tick={{ fontSize: 11, fill: COLORS.soft }}
             tickFormatter={(v: number) => String(Number(v.toPrecision(3)))}
             label={{ value: ax.label, position: 'insideBottom', offset: -10, style: { fontSize: 11, fill: COLORS.soft } }}
@@ -388,7 +415,8 @@ export function LoadScatter({ kind, scatter, curve, loadUnit, timeZone }: { kind
           <YAxis
             dataKey="y"
             type="number"
-            domain={['auto', 'auto']}
+            domain={yAxis?.domain ?? ['auto', 'auto']}
+            ticks={yAxis?.ticks}
             tick={{ fontSize: 11, fill: COLORS.soft }}
             width={56}
             label={{ value: kind === 'efficiency' ? 'Efficiency [%]' : `Destruction [${pu.unit}]`, angle: -90, position: 'insideLeft', style: { fontSize: 11, fill: COLORS.soft, textAnchor: 'middle' } }}
