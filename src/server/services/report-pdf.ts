@@ -194,17 +194,17 @@ export function reportPdf(r: ReportData): PDFKit.PDFDocument {
   else
     w.table(
       [
-        { head: '#', width: 16, align: 'right' },
-        { head: 'Unit', width: 88 },
-        { head: 'Kind', width: 54 },
-        { head: 'Destruction [MWh]', width: 64, align: 'right' },
-        { head: `Cost [${cur}]`, width: 54, align: 'right' },
-        { head: 'Share [%]', width: 34, align: 'right' },
-        { head: 'Efficiency [%]', width: 54.28, align: 'right' },
-        { head: 'Steady [h]', width: 37, align: 'right' },
-        { head: 'Unsettled [h]', width: 39, align: 'right' },
-        { head: 'Idle [h]', width: 36, align: 'right' },
-        { head: 'Suspect [h]', width: 39, align: 'right' },
+        { head: '#', width: 14, align: 'right' },
+        { head: 'Unit', width: 80 },
+        { head: 'Kind', width: 50 },
+        { head: 'Destruction [MWh]', width: 62, align: 'right' },
+        { head: `Cost [${cur}]`, width: 90, align: 'right' },
+        { head: 'Share [%]', width: 32, align: 'right' },
+        { head: 'Efficiency [%]', width: 52, align: 'right' },
+        { head: 'Steady [h]', width: 33, align: 'right' },
+        { head: 'Unsettled [h]', width: 38, align: 'right' },
+        { head: 'Idle [h]', width: 29, align: 'right' },
+        { head: 'Suspect [h]', width: 35.28, align: 'right' },
       ],
       rows.map((x) => [
         String(x.rank),
@@ -261,8 +261,8 @@ export function reportPdf(r: ReportData): PDFKit.PDFDocument {
   w.table(
     [
       { head: 'Unit', width: 92 },
-      { head: 'Baseline', width: 128 },
-      { head: 'Hours compared [h]', width: 36, align: 'right' },
+      { head: 'Baseline', width: 118 },
+      { head: 'Hours compared [h]', width: 46, align: 'right' },
       { head: 'Measured efficiency [%]', width: 66, align: 'right' },
       { head: 'Expected efficiency [%]', width: 52, align: 'right' },
       { head: 'Difference [pp]', width: 44, align: 'right' },
