@@ -262,7 +262,7 @@ export function* generateExports(opts: GenerateOptions = {}, onMinute?: (ms: num
   const lastText: string[] = new Array(n).fill('');
   const cells: string[] = new Array(n + 1);
   let prev: MinuteTruth | null = null;
-  let shutdownLeft = { ac: 0, loop: 0, tg: 0 };
+  const shutdownLeft = { ac: 0, loop: 0, tg: 0 };
   let evDay = -1;
   let ev: DayEvents = { io: null, gap: null, blanks: [] };
 
@@ -336,7 +336,6 @@ export function* generateExports(opts: GenerateOptions = {}, onMinute?: (ms: num
   }
   const f = flush();
   if (f) yield f;
-  shutdownLeft = { ac: 0, loop: 0, tg: 0 };
 }
 
 /** Writes the exports of a period into a folder; returns the file names in order. */

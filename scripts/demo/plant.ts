@@ -164,7 +164,7 @@ export interface MinuteTruth {
 export class DemoPlant {
   private readonly rng: Rng;
   private readonly weather = new Ar1(2.5 * 1440, 2.8);
-  private readonly demand = new Ar1(240, 0.02);
+  private readonly demand = new Ar1(240, 0.015);
   private readonly loop = new Ar1(240, 0.025);
   private readonly air = new Ar1(240, 0.025);
   private readonly hpWobble = new Ar1(10, 0.12 * BAR);
@@ -223,7 +223,7 @@ export class DemoPlant {
   tgEta(m_kg_per_s: number, ms: number): number {
     const r = m_kg_per_s / DESIGN.tgDesignFlow_kg_per_s - 1;
     const step = this.plan.turbineStepMs !== null && ms >= this.plan.turbineStepMs ? this.plan.turbineStep : 0;
-    return DESIGN.tgEtaDesign - 0.05 * r * r - step;
+    return DESIGN.tgEtaDesign - 0.025 * r * r - step;
   }
 
   /** The true state of the plant over the minute starting at `ms` (UTC) with local time `lt`. */
@@ -444,7 +444,7 @@ export class DemoPlant {
       const hIn = dryAir.h(TacIn);
       const hIs = dryAir.h(dryAir.T_ps(pAcOut, sIn));
       const lf = Vac / DESIGN.ac1RatedFlow_Nm3_per_h;
-      const etaAc = 0.74 - 0.35 * (1 - lf) * (1 - lf);
+      const etaAc = 0.74 - 0.15 * (1 - lf) * (1 - lf);
       const Wshaft = (mAir * (hIs - hIn)) / etaAc;
       Wac = Wshaft / COMPRESSOR_DRIVE_EFFICIENCY;
       // dry compression: the air takes the shaft work but for the casing loss
