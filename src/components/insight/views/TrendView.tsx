@@ -4,7 +4,7 @@
  * notices of the period.
  */
 import { useEffect, useMemo, useState } from 'react';
-import { ErrorNote, HourStateMark, Loading, useJson } from './common';
+import { ErrorNote, HourStateMark, Loading, ViewsCaution, useJson } from './common';
 import { pct, power, siteTime, type HourState } from './format';
 import { PeriodPicker, periodFromSearch, periodQuery, syncSearch, type PeriodInfo, type PeriodValue } from './PeriodPicker';
 import { LoadScatter, TimeChart, TrendLegend, type ContextSpan, type CurvePoint, type NoticeMark, type ScatterPoint, type TrendPoint } from './TrendCharts';
@@ -185,7 +185,9 @@ export default function TrendView({ unitId, initialSearch }: { unitId: string; i
                 <tbody>
                   {data.notices.map((n) => (
                     <tr key={n.id}>
-                      <td>{siteTime(n.onsetMs, data.site.timeZone)}</td>
+                      <td>
+                        <a href={`/notices/${n.id}`}>{siteTime(n.onsetMs, data.site.timeZone)}</a>
+                      </td>
                       <td>{n.direction === 'up' ? 'more destruction than expected' : 'less destruction than expected'}</td>
                       <td>{n.status}</td>
                       <td className="num">{power(n.extra_W, n.shiftU_W, { unit: 'kW', factor: 1e3 }).replace(/ kW/g, '')}</td>
@@ -195,6 +197,9 @@ export default function TrendView({ unitId, initialSearch }: { unitId: string; i
                 </tbody>
               </table>
             )}
+            <div className="mt-3">
+              <ViewsCaution />
+            </div>
           </section>
         </>
       )}
