@@ -106,7 +106,7 @@ export const DEMO_TAGS: readonly DemoTag[] = [
   t('fwp.suc.T', 'HM_FWP1_TI502', 'Feed pump FWP1 suction temperature', 'degC', 'temperature', 2, { abs: 0.08 }),
   t('fwp.dis.p', 'HM_FWP1_PI511', 'Feed pump FWP1 discharge pressure', 'bar(g)', 'pressure', 2, { abs: 0.025 }),
   t('fwp.dis.T', 'HM_FWP1_TI512', 'Feed pump FWP1 discharge temperature', 'degC', 'temperature', 2, { abs: 0.08 }),
-  t('fwp.W', 'HM_FWP1_JI520', 'Feed pump FWP1 motor power', 'kW', 'power', 2, { abs: 0.1, rel: 0.003 }),
+  t('fwp.W', 'HM_FWP1_JI520', 'Feed pump FWP1 motor power', 'kW', 'power', 2, { abs: 0.05, rel: 0.002 }),
   // Process hot-water heater E601
   t('e601.steam.m', 'HM_E601_FI601', 'E601 heating steam flow', 't/h', 'massFlow', 3, { abs: 0.0025, rel: 0.002 }),
   t('e601.shell.p', 'HM_E601_PI602', 'E601 shell (steam side) pressure', 'bar(g)', 'pressure', 3, { abs: 0.004 }),
@@ -124,7 +124,7 @@ export const DEMO_TAGS: readonly DemoTag[] = [
   t('ac1.V', 'HM_AC1_FI703', 'Air compressor AC1 free air delivery', 'Nm3/h', 'standardVolumeFlow', 1, { abs: 1, rel: 0.002 }),
   t('ac1.out.p', 'HM_AC1_PI711', 'Air compressor AC1 discharge pressure', 'bar(g)', 'pressure', 3, { abs: 0.006 }),
   t('ac1.out.T', 'HM_AC1_TI712', 'Air compressor AC1 air-end discharge temperature', 'degC', 'temperature', 1, { abs: 0.25 }),
-  t('ac1.W', 'HM_AC1_JI720', 'Air compressor AC1 motor power', 'kW', 'power', 1, { abs: 0.2, rel: 0.003 }),
+  t('ac1.W', 'HM_AC1_JI720', 'Air compressor AC1 motor power', 'kW', 'power', 1, { abs: 0.1, rel: 0.002 }),
 ];
 
 /** The tag of an internal key. */
