@@ -216,7 +216,8 @@ async function readIntoTransaction(up: typeof uploads.$inferSelect, profile: Lay
     const res = await client.query(
       `insert into tags (site_id, name, unit_hint, description, last_upload_id)
        select $1, n, u, d, $5 from unnest($2::text[], $3::text[], $4::text[]) as x(n, u, d)
-       on conflict (site_id, name) do update set last_upload_id = excluded.last_upload_id
+       on conflict (site_id, name) do update set last_upload_id = excluded.last_upload_id,
+         unit_hint = coalesce(tags.unit_hint, excluded.unit_hint), description = coalesce(tags.description, excluded.description)
        returning id, name, (xmax = 0) as inserted`,
       [up.siteId, missing, missing.map((n) => unitOf.get(n) ?? null), missing.map((n) => descOf.get(n) ?? null), up.id],
     );
