@@ -109,7 +109,6 @@ run_mode() {
   spawn worker "$ROOT/.data/worker.log" node --import tsx src/worker/main.ts
   spawn web "$ROOT/.data/web.log" node dist/server/entry.mjs
   wait_port 4321 "The web server" "$ROOT/.data/web.log"
-  if [ -f scripts/demo-load.ts ]; then node --import tsx scripts/demo-load.ts || log "demo data not loaded (see above); the app runs without it"; fi
   cat <<EOF
 
   Lossline is running (Ctrl-C stops everything; data stays in .data/).
@@ -123,6 +122,10 @@ $(node --import tsx -e "import('./src/server/demo-accounts.ts').then(m=>m.DEMO_A
   Logs: .data/web.log .data/worker.log .data/s3.log .data/mail.log .data/pg/server.log
 
 EOF
+  if [ -f scripts/demo-load.ts ]; then
+    log "loading the demo plant (first start: a year of invented one-minute exports through the normal upload path; a few minutes)"
+    if node --import tsx scripts/demo-load.ts; then log "demo ready: sign in at http://127.0.0.1:4321"; else log "demo data not loaded (see above); Lossline runs without it"; fi
+  fi
   wait
 }
 
