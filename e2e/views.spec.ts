@@ -138,7 +138,7 @@ test('an energy lead opens a unit’s trend, switches ranges, opens the ledger a
   const text = readFileSync((await csv.path())!, 'utf8');
   expect(text).toContain('E2E turbine');
   expect(text).toContain('monitoring aid');
-  expect(siteId).toBeTruthy();
+  expect(siteId).toMatch(/^[0-9a-f-]{36}$/);
   expect(errors).toEqual([]);
 });
 

@@ -45,6 +45,22 @@ async function unitWithSite(unitId: string) {
   return row;
 }
 
+/**
+ * Without an anchor a period shows the latest data, not an empty "now": files arrive in batches and
+ * a site's newest unit hour may be weeks old (the demo plant's is). Falls back to now.
+ */
+async function defaultNowMs(q: PeriodQuery, siteId: string, unitId?: string): Promise<number> {
+  const now = Date.now();
+  if (q.anchor || q.range === 'custom') return now;
+  const rows = await db().execute<{ last: string | null }>(
+    unitId
+      ? sql`select max(hour_start)::text as last from unit_hours where unit_id = ${unitId} and hour_start <= now()`
+      : sql`select max(h.hour_start)::text as last from unit_hours h join plant_units u on u.id = h.unit_id where u.site_id = ${siteId} and h.hour_start <= now()`,
+  );
+  const last = rows.rows[0]?.last;
+  return last ? Date.parse(last) : now;
+}
+
 function periodOrError(q: PeriodQuery, timeZone: string, nowMs?: number): Period {
   try {
     return resolvePeriod(q, timeZone, nowMs);
@@ -128,7 +144,7 @@ const num = (v: unknown): number | null => (v === null || v === undefined ? null
 /** A unit's hours over a period, with its expected band, context spans and notices. */
 export async function unitTrend(unitId: string, q: PeriodQuery, nowMs?: number): Promise<TrendAnswer> {
   const { unit, site } = await unitWithSite(unitId);
-  const period = periodOrError(q, site.timeZone, nowMs);
+  const period = periodOrError(q, site.timeZone, nowMs ?? (await defaultNowMs(q, site.id, unit.id)));
   const rows = await db()
     .select({
       hourStart: unitHours.hourStart,
@@ -477,7 +493,7 @@ export function ledgerFrom(aggs: Aggregate[]): Pick<LedgerAnswer, 'rows' | 'tota
 /** The loss ledger of a site over a period. */
 export async function siteLedger(siteId: string, q: PeriodQuery, nowMs?: number): Promise<LedgerAnswer> {
   const site = await siteOf(siteId);
-  const period = periodOrError(q, site.timeZone, nowMs);
+  const period = periodOrError(q, site.timeZone, nowMs ?? (await defaultNowMs(q, site.id)));
   const aggs = await unitAggregates(site.id, period.fromMs, period.toMs);
   return { site: { id: site.id, name: site.name, timeZone: site.timeZone, currency: site.currency }, period, ...ledgerFrom(aggs) };
 }
@@ -515,7 +531,7 @@ export interface FlowAnswer {
  */
 export async function siteFlow(siteId: string, q: PeriodQuery, nowMs?: number): Promise<FlowAnswer> {
   const site = await siteOf(siteId);
-  const period = periodOrError(q, site.timeZone, nowMs);
+  const period = periodOrError(q, site.timeZone, nowMs ?? (await defaultNowMs(q, site.id)));
   const aggs = await unitAggregates(site.id, period.fromMs, period.toMs);
   const units = aggs
     .filter((a) => (a.f_w ?? 0) > 0)
