@@ -66,10 +66,14 @@ test('an energy lead opens a unit’s trend, switches ranges, opens the ledger a
   const accepted = await page.request.post(`/api/baselines/${(await fit.json()).baseline.id}/accept`, { data: {} });
   expect(accepted.status()).toBe(200);
 
-  // Trends: the site's units, then the turbine. This week has no hours: the empty state says so.
+  // Trends: the site's units, then the turbine, opening on the week of its latest hours.
   await nav(page, 'Trends').click();
   await page.getByTestId(`trend-site-${name}`).getByRole('link', { name: 'E2E turbine' }).click();
   await expect(page.getByRole('heading', { level: 1 })).toHaveText('E2E turbine');
+  await expect(page.getByTestId('period-label')).toContainText('Mar 2024');
+  await expect(page.getByTestId('chart-efficiency')).toBeVisible();
+  // A week without hours: the empty state says so.
+  await page.goto(`${page.url().split('?')[0]}?range=week&anchor=2020-01-06`);
   await expect(page.getByTestId('trend-empty')).toBeVisible();
 
   // A custom period around the notice.
