@@ -187,14 +187,15 @@ async function readIntoTransaction(up: typeof uploads.$inferSelect, profile: Lay
   let hours = 0;
   let replaced = 0;
   let newTags = 0;
-  // Writes run one after another on the transaction's connection while the parser reads on; the
-  // parser waits when more than MAX_IN_FLIGHT batches are queued, so memory stays bounded.
+  let latestExistingMs: number | null = null;
+  // Writes run one after another on the transaction's connection while the parser reads on (the
+  // database works on the other core); the parser waits when more than MAX_IN_FLIGHT batches are
+  // queued, so memory stays bounded.
   let chain: Promise<unknown> = Promise.resolve();
-  let queued = 0;
+  const pending: Promise<unknown>[] = [];
   let failure: unknown = null;
   let writeMs = 0;
   const enqueue = (work: () => Promise<unknown>) => {
-    queued++;
     chain = chain.then(async () => {
       if (failure) return;
       const t0 = performance.now();
@@ -204,9 +205,13 @@ async function readIntoTransaction(up: typeof uploads.$inferSelect, profile: Lay
         failure ??= err;
       } finally {
         writeMs += performance.now() - t0;
-        queued--;
       }
     });
+    pending.push(chain);
+  };
+  /** Lets the parser run ahead of the database by at most MAX_IN_FLIGHT batches. */
+  const throttle = async () => {
+    while (pending.length > MAX_IN_FLIGHT) await pending.shift();
   };
 
   async function ensureTags(names: string[]) {
@@ -235,7 +240,7 @@ async function readIntoTransaction(up: typeof uploads.$inferSelect, profile: Lay
     const names = rows.map((h) => h.tag);
     enqueue(async () => {
       await ensureTags(names);
-      replaced += await writeHours(client, up.id, rows, tagId);
+      replaced += await writeHours(client, up.id, rows, tagId, latestExistingMs);
     });
   };
   const flushRejects = () => {
@@ -275,6 +280,13 @@ async function readIntoTransaction(up: typeof uploads.$inferSelect, profile: Lay
   await client.query('begin');
   // One file of a site at a time writes tag hours, so shared hours are combined in a defined order.
   await client.query('select pg_advisory_xact_lock(hashtextextended($1, 0))', ['ingest-site:' + up.siteId]);
+  const latest = await client.query(
+    `select max(l.hour_start) as last from tags t
+       cross join lateral (select hour_start from tag_hours where tag_id = t.id order by hour_start desc limit 1) l
+     where t.site_id = $1`,
+    [up.siteId],
+  );
+  latestExistingMs = latest.rows[0]?.last ? (latest.rows[0].last as Date).getTime() : null;
   const stream = await objectStream(up.objectKey);
   let bytes = 0;
   let lines = 0;
@@ -284,7 +296,7 @@ async function readIntoTransaction(up: typeof uploads.$inferSelect, profile: Lay
     bytes += buf.length;
     for (let i = buf.indexOf(10); i !== -1; i = buf.indexOf(10, i + 1)) lines++;
     ingest.push(new Uint8Array(buf.buffer, buf.byteOffset, buf.byteLength));
-    if (queued > MAX_IN_FLIGHT) await chain;
+    await throttle();
     if (failure) throw failure;
     if (Date.now() - lastProgress > PROGRESS_EVERY_MS) {
       lastProgress = Date.now();
@@ -319,16 +331,30 @@ function flagsOf(h: TagHour): string {
  * the older ones for that hour. Either way the previous figures go to tag_hour_history with the
  * upload that replaced them. Returns how many existing hours were touched.
  */
-async function writeHours(client: pg.PoolClient, uploadId: string, rows: TagHour[], tagId: Map<string, string>): Promise<number> {
-  const params = hourParams(uploadId, rows, tagId);
-  // The usual case, new hours only, takes a plain insert; the site's ingest lock (held by this
-  // transaction) keeps another file from adding hours between this check and the insert.
+async function writeHours(
+  client: pg.PoolClient,
+  uploadId: string,
+  rows: TagHour[],
+  tagId: Map<string, string>,
+  latestExistingMs: number | null,
+): Promise<number> {
+  // The usual case, new hours only, goes in by COPY. Hours after the site's latest stored hour (read
+  // once, under the site's ingest lock) cannot clash; otherwise one query looks for clashes.
+  let minMs = Infinity;
+  for (const h of rows) if (h.hourStartMs < minMs) minMs = h.hourStartMs;
+  if (latestExistingMs === null || minMs > latestExistingMs) {
+    await copyNewHours(client, uploadId, rows, tagId);
+    return 0;
+  }
+  const ids = rows.map((h) => tagId.get(h.tag));
+  const starts = rows.map((h) => isoOf(h.hourStartMs));
   const clash = await client.query(
     `select 1 from tag_hours where tag_id = any($1::uuid[]) and hour_start between $2 and $3
        and (tag_id, hour_start) in (select * from unnest($1::uuid[], $4::timestamptz[])) limit 1`,
-    [params[1], params[2].reduce((a, b) => (a! < b! ? a : b)), params[2].reduce((a, b) => (a! > b! ? a : b)), params[2]],
+    [ids, isoOf(minMs), isoOf(Math.max(...rows.map((h) => h.hourStartMs))), starts],
   );
-  if (clash.rowCount === 0) {
+  const params = clash.rowCount === 0 ? null : hourParams(uploadId, rows, tagId);
+  if (!params) {
     await copyNewHours(client, uploadId, rows, tagId);
     return 0;
   }
@@ -372,7 +398,18 @@ async function writeHours(client: pg.PoolClient, uploadId: string, rows: TagHour
 }
 
 const copyNum = (v: number | null) => (v === null || !Number.isFinite(v) ? '\\N' : String(v));
-const copyTime = (ms: number | null) => (ms === null ? '\\N' : new Date(ms).toISOString());
+/** ISO text of an instant, cached: the tags of a wide file share their hour starts and sample times. */
+const isoCache = new Map<number, string>();
+function isoOf(ms: number): string {
+  let s = isoCache.get(ms);
+  if (s === undefined) {
+    if (isoCache.size > 50_000) isoCache.clear();
+    s = new Date(ms).toISOString();
+    isoCache.set(ms, s);
+  }
+  return s;
+}
+const copyTime = (ms: number | null) => (ms === null ? '\\N' : isoOf(ms));
 
 /** New hours go in by COPY (PostgreSQL's bulk path): several times faster than an INSERT. */
 async function copyNewHours(client: pg.PoolClient, uploadId: string, rows: TagHour[], tagId: Map<string, string>) {
@@ -420,7 +457,7 @@ function hourParams(uploadId: string, rows: TagHour[], tagId: Map<string, string
   return [
       uploadId,
       rows.map((h) => tagId.get(h.tag)),
-      rows.map((h) => new Date(h.hourStartMs).toISOString()),
+      rows.map((h) => isoOf(h.hourStartMs)),
       rows.map((h) => h.mean),
       rows.map((h) => h.min),
       rows.map((h) => h.max),

@@ -144,7 +144,7 @@ export async function receiveApiUpload(siteId: string, fileName: string, body: R
     const upload = new Upload({
       client: s3(),
       params: { Bucket: bucket(), Key: objectKey, Body: body.pipe(counter), ContentType: 'text/csv' },
-      queueSize: 2,
+      queueSize: 4,
       partSize: 8 * 1024 * 1024,
     });
     await upload.done();
