@@ -13,6 +13,7 @@ import { QUEUES } from '../../jobs';
 import { extraDestructionCost_per_day, fuelExergyCost_per_J } from '../../lib/analytics/cost';
 import type { Role } from '../../lib/roles';
 import { db } from '../db/client';
+import type { NoticeView } from '../../lib/notice-view';
 import { baselines, driftNotices, driftPoints, noticeDigests, noticeMails, noticePreferences, plantUnits, sites, user, type NoticeStatus } from '../db/schema';
 import { env } from '../env';
 import { escapeHtml } from '../mail';
@@ -159,44 +160,7 @@ function noticeQuery() {
 
 type NoticeRow = Awaited<ReturnType<ReturnType<typeof noticeQuery>['execute']>>[number];
 
-export interface NoticeView {
-  id: string;
-  siteId: string;
-  siteName: string;
-  timeZone: string;
-  unitId: string;
-  unitName: string;
-  unitKind: string;
-  baselineId: string | null;
-  baselineLabel: string | null;
-  direction: 'up' | 'down';
-  status: NoticeStatus;
-  statusWord: string;
-  onsetHour: string;
-  signalHour: string;
-  lastSignalHour: string;
-  hours: number;
-  extra_W: number;
-  expected_W: number;
-  shift_sigma: number;
-  extraCost_per_day: number | null;
-  currency: string;
-  costBasis: string | null;
-  hourU_W: number | null;
-  shiftU_W: number | null;
-  exceedsUncertainty: boolean | null;
-  k: number;
-  h: number;
-  openedAt: string;
-  acknowledgedBy: string | null;
-  acknowledgedAt: string | null;
-  acknowledgeComment: string | null;
-  closedBy: string | null;
-  closedAt: string | null;
-  closeComment: string | null;
-  /** PUBLIC_BASE_URL + /notices/{id}. */
-  url: string;
-}
+export type { NoticeView } from '../../lib/notice-view';
 
 const localDay = (d: Date, tz: string) => format(new TZDate(d.getTime(), tz), 'yyyy-MM-dd');
 

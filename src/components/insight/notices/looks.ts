@@ -7,44 +7,8 @@ export const NOTICE_LOOK: Record<string, { label: string; shape: MarkShape; clas
   closed: { label: 'closed', shape: 'square', className: 'text-slate' },
 };
 
-/** The notice as the API answers it (src/server/services/notices.ts NoticeView). */
-export interface Notice {
-  id: string;
-  siteId: string;
-  siteName: string;
-  timeZone: string;
-  unitId: string;
-  unitName: string;
-  unitKind: string;
-  baselineId: string | null;
-  baselineLabel: string | null;
-  direction: 'up' | 'down';
-  status: 'open' | 'acknowledged' | 'closed';
-  statusWord: string;
-  onsetHour: string;
-  signalHour: string;
-  lastSignalHour: string;
-  hours: number;
-  extra_W: number;
-  expected_W: number;
-  shift_sigma: number;
-  extraCost_per_day: number | null;
-  currency: string;
-  costBasis: string | null;
-  hourU_W: number | null;
-  shiftU_W: number | null;
-  exceedsUncertainty: boolean | null;
-  k: number;
-  h: number;
-  openedAt: string;
-  acknowledgedBy: string | null;
-  acknowledgedAt: string | null;
-  acknowledgeComment: string | null;
-  closedBy: string | null;
-  closedAt: string | null;
-  closeComment: string | null;
-  url: string;
-}
+/** The notice as the API answers it. */
+export type { NoticeView as Notice } from '../../../lib/notice-view';
 
 export interface SeriesPoint {
   hourStart: string;
