@@ -25,6 +25,7 @@ import {
 } from '../../lib/analytics/baseline';
 import { QUEUES } from '../../jobs';
 import { db } from '../db/client';
+import type { BaselineSummary, ModelSummary } from '../../lib/baseline-view';
 import { baselines, plantUnits, sites, unitHours, user, type BaselineStatus } from '../db/schema';
 import type { ErrorCode } from '../errors';
 import { queue } from '../queue';
@@ -61,41 +62,7 @@ export const FitInput = z.strictObject({
 });
 export type FitInput = z.infer<typeof FitInput>;
 
-export interface ModelSummary {
-  coefficients: BaselineModel['coefficients'];
-  stats: { n: number; p: number; s: number; r2: number; ybar: number; cvRmse: number; nmbe: number };
-  guideline14: Guideline14Check;
-}
-
-/** A baseline version as screens and other services see it. */
-export interface BaselineSummary {
-  id: string;
-  unitId: string;
-  unitName: string;
-  unitKind: string;
-  siteId: string;
-  siteName: string;
-  timeZone: string;
-  version: number;
-  status: BaselineStatus;
-  periodFrom: string;
-  periodTo: string;
-  terms: BaselineTerm[];
-  hours: number;
-  loadUnit: string | null;
-  note: string | null;
-  efficiency: ModelSummary | null;
-  destruction: ModelSummary;
-  /** Both models meet the hourly Guideline 14 criteria (efficiency only when the unit has one). */
-  meetsGuideline14: boolean;
-  createdBy: string | null;
-  createdAt: string;
-  decidedBy: string | null;
-  decidedAt: string | null;
-  retiredAt: string | null;
-  /** How charts name it: 'Baseline v3 (2026-01-05 to 2026-02-01)', dates in the site's time zone. */
-  label: string;
-}
+export type { BaselineSummary, ModelSummary } from '../../lib/baseline-view';
 
 function summariseModel(m: BaselineModel): ModelSummary {
   const { n, p, s, r2, ybar, cvRmse, nmbe } = m.stats;

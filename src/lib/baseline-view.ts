@@ -1,0 +1,44 @@
+/**
+ * A baseline version as the API answers it: one definition for the server
+ * (src/server/services/baselines.ts) and the islands (src/components/insight/baselines). Types only.
+ */
+import type { BaselineModel, BaselineTerm, Guideline14Check } from './analytics/baseline';
+
+export type BaselineStatus = 'draft' | 'active' | 'discarded' | 'retired';
+
+export interface ModelSummary {
+  coefficients: BaselineModel['coefficients'];
+  stats: { n: number; p: number; s: number; r2: number; ybar: number; cvRmse: number; nmbe: number };
+  guideline14: Guideline14Check;
+}
+
+/** A baseline version as screens and other services see it. */
+export interface BaselineSummary {
+  id: string;
+  unitId: string;
+  unitName: string;
+  unitKind: string;
+  siteId: string;
+  siteName: string;
+  timeZone: string;
+  version: number;
+  status: BaselineStatus;
+  periodFrom: string;
+  periodTo: string;
+  terms: BaselineTerm[];
+  hours: number;
+  loadUnit: string | null;
+  note: string | null;
+  efficiency: ModelSummary | null;
+  destruction: ModelSummary;
+  /** Both models meet the hourly Guideline 14 criteria (efficiency only when the unit has one). */
+  meetsGuideline14: boolean;
+  createdBy: string | null;
+  createdAt: string;
+  decidedBy: string | null;
+  decidedAt: string | null;
+  retiredAt: string | null;
+  /** How charts name it: 'Baseline v3 (2026-01-05 to 2026-02-01)', dates in the site's time zone. */
+  label: string;
+}
+
