@@ -73,6 +73,33 @@ describe('tabular CUSUM', () => {
   });
 });
 
+describe('tabular CUSUM with a minimum run length', () => {
+  // Hand-worked, k = 0.5, h = 5 (self-consistency with C+_i = max(0, x_i - k + C+_(i-1))):
+  //   x = 0, 8, 0, 0, 0  ->  C+ = 0, 7.5, 7.0, 6.5, 6.0 ; N+ = 0, 1, 2, 3, 4
+  //   plain CUSUM signals at step 2 (C+ 7.5 > 5 with N+ = 1);
+  //   with minRunLength 3 the shift must have lasted 3 steps: the signal comes at step 4, onset step 2.
+  it('self-consistency: a crossing counts once the run has lasted minRunLength steps', () => {
+    const xs = [0, 8, 0, 0, 0];
+    const plain = cusumRun(xs, { k: 0.5, h: 5 });
+    expect(plain.signals.map((s) => [s.step, s.onsetStep])).toEqual([[2, 2]]);
+    const sustained = cusumRun(xs, { k: 0.5, h: 5, minRunLength: 3 });
+    expect(sustained.signals.map((s) => [s.step, s.onsetStep, s.direction])).toEqual([[4, 2, 'up']]);
+    expectClose(sustained.points[3]!.cPlus, 6.5, { rtol: 1e-12 });
+  });
+
+  // x = 8, -3, 0, 0  ->  C+ = 7.5, 4.0, 3.5, 3.0 (N+ = 1, 2, 3, 4): over h only at step 1, so with
+  // minRunLength 3 the one outlying hour never signals; the plain CUSUM signals at step 1.
+  it('self-consistency: one outlying observation that does not last never signals', () => {
+    const xs = [8, -3, 0, 0];
+    expect(cusumRun(xs, { k: 0.5, h: 5 }).signals.length).toBe(1);
+    expect(cusumRun(xs, { k: 0.5, h: 5, minRunLength: 3 }).signals).toEqual([]);
+  });
+
+  it('refuses a minimum run length that is not a whole number of at least 1', () => {
+    expect(() => cusumStep(cusumInit(), 1, { minRunLength: 0 })).toThrow(/minRunLength/);
+  });
+});
+
 describe('EWMA with exact limits', () => {
   it('hand-worked, lambda = 0.2, L = 3, mu0 = 0, sigma = 1', () => {
     // z_i = 0.2 x_i + 0.8 z_{i-1};  w_i = 3 sqrt(0.2/1.8 (1 - 0.8^(2i)))

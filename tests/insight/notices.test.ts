@@ -30,9 +30,10 @@ let plannerId: string;
 
 /**
  * A unit whose reference hours follow destruction = 100 kW + 5 kW/MW x +- 2 kW (x = 1..24 MW; s as
- * worked in tests/insight/baselines.test.ts), then one steady hour 60 kW above the line: about 29 s,
- * so the CUSUM (k = 0.5, h = 5) signals at that very hour: C+ = 29 - 0.5 > 5. The hours carry no cost
- * of their own; the site has a fuel price of 36 EUR/MWh (LHV).
+ * worked in tests/insight/baselines.test.ts), then three steady hours 60 kW above the line: about
+ * 29 s each, so the CUSUM (k = 0.5, h = 5) is over h from the first (C+ = 28.5) and signals at the
+ * third, when the shift has lasted SUSTAINED_HOURS = 3 hours (C+ = 85.5, N+ = 3, onset the first).
+ * The hours carry no cost of their own; the site has a fuel price of 36 EUR/MWh (LHV).
  */
 async function unitWithNotice(label: string, extraHourU_W: number | null = 4000) {
   const site = await createSite({
@@ -50,11 +51,13 @@ async function unitWithNotice(label: string, extraHourU_W: number | null = 4000)
   }
   const b = 5000 - 24000 / 1150;
   const a = 162500 - b * 12.5;
-  rows.push({ unitId: unit.id, hourStart: new Date(t0 + 30 * HOUR), state: 'steady', load: 10, T0_K: 293.15, destruction_W: a + b * 10 + 60_000, destruction_U_W: extraHourU_W, modelVersion: 't', inputsHash: 'drift' });
+  for (let j = 0; j < 3; j++) {
+    rows.push({ unitId: unit.id, hourStart: new Date(t0 + (30 + j) * HOUR), state: 'steady', load: 10, T0_K: 293.15, destruction_W: a + b * 10 + 60_000, destruction_U_W: extraHourU_W, modelVersion: 't', inputsHash: `drift${j}` });
+  }
   await db().insert(unitHours).values(rows);
   const draft = await fitDraft(unit.id, { periodFrom: new Date(t0), periodTo: new Date(t0 + 24 * HOUR), terms: ['load'] }, leadId);
   await acceptBaseline(draft.id, leadId);
-  await checkDrift({ siteId: site.id, fromMs: t0, toMs: t0 + 31 * HOUR });
+  await checkDrift({ siteId: site.id, fromMs: t0, toMs: t0 + 33 * HOUR });
   const opened = await db().select({ id: driftNotices.id }).from(driftNotices).where(eq(driftNotices.unitId, unit.id));
   expect(opened).toHaveLength(1);
   return { siteId: site.id, unitId: unit.id, unitName: unit.name, noticeId: opened[0]!.id };
@@ -84,15 +87,15 @@ describeIntegration('drift notices: figures, seen and closed, the daily digest',
     const n = await getNotice(u.noticeId);
     expect(n.status).toBe('open');
     expect(n.statusWord).toBe('open');
-    expect(n.hours).toBe(1);
+    expect(n.hours).toBe(3);
     // The hour is 60 kW above the fitted line at x = 10 (the line is the baseline itself).
     expectClose(n.extra_W, 60_000, { rtol: 1e-9 });
     // Fallback cost: c_F = 36 EUR/MWh / 3.6e9 J/MWh / 1.04 (natural gas exergy/LHV, docs/domain.md section 4);
     // per day: c_F * 60 000 W * 86 400 s = 36 / 3.6e9 / 1.04 * 60000 * 86400 = 49.846... EUR/day.
     expectClose(n.extraCost_per_day!, (36 / 3.6e9 / 1.04) * 60000 * 86400, { rtol: 1e-9 });
     expect(n.costBasis).toMatch(/site's fuel price 'gas'/);
-    // One hour, U = 4000 W: the shift of 60 kW exceeds it.
-    expect(n.shiftU_W).toBe(4000);
+    // Three hours, U = 4000 W each: U of their mean 4000 / sqrt(3) = 2309.4 W; the 60 kW shift exceeds it.
+    expectClose(n.shiftU_W!, 4000 / Math.sqrt(3), { rtol: 1e-9 });
     expect(n.exceedsUncertainty).toBe(true);
     expect(n.url).toBe(`${process.env.PUBLIC_BASE_URL}/notices/${n.id}`);
     // Period [2025-07-01 00:00Z, 2025-07-02 00:00Z) is 02:00 to 01:59 the next day in Madrid (UTC+2).
@@ -103,7 +106,7 @@ describeIntegration('drift notices: figures, seen and closed, the daily digest',
     expect(d.caution).toMatch(/not a protective or control system/);
     expect(d.caution).toMatch(/depend on the instruments/);
     expect(d.caution).toMatch(/site's procedures, local codes and the judgement of licensed engineers/);
-    expect(d.series).toHaveLength(1);
+    expect(d.series).toHaveLength(3);
     expect(d.series[0]!.residual_W).toBeCloseTo(60_000, 6);
   });
 

@@ -34,6 +34,13 @@ export interface CusumOptions {
   sigma?: number;
   /** Restart C+ and C- at zero after a signal (after the cause has been dealt with); default false. */
   resetOnSignal?: boolean;
+  /**
+   * Fewest consecutive steps with C > 0 (N in Montgomery's notation) before a crossing of h counts as
+   * a signal [-]; default 1 (the plain tabular CUSUM). Above 1, one outlying observation that lifts C
+   * over h on its own waits until the shift has lasted that long, and signals then if C is still
+   * over h; a shift that does not last never signals.
+   */
+  minRunLength?: number;
 }
 
 /** Saved CUSUM state (JSON-friendly). */
@@ -84,7 +91,9 @@ function cusumParams(o: CusumOptions) {
   if (!(k >= 0) || !(h > 0) || !(sigma > 0) || !Number.isFinite(mu0)) {
     throw new RangeError(`CUSUM needs k >= 0, h > 0, sigma > 0 and finite mu0 (got k = ${k}, h = ${h}, sigma = ${sigma}, mu0 = ${mu0})`);
   }
-  return { K: k * sigma, H: h * sigma, mu0, sigma, reset: o.resetOnSignal ?? false };
+  const minRun = o.minRunLength ?? 1;
+  if (!(Number.isInteger(minRun) && minRun >= 1)) throw new RangeError(`CUSUM minRunLength must be a whole number >= 1 (got ${minRun})`);
+  return { K: k * sigma, H: h * sigma, mu0, sigma, reset: o.resetOnSignal ?? false, minRun };
 }
 
 /**
@@ -95,7 +104,7 @@ function cusumParams(o: CusumOptions) {
  * @returns the new state and the point for this step, with any signal
  */
 export function cusumStep(state: CusumState, x: number, options: CusumOptions = {}): { state: CusumState; point: CusumPoint } {
-  const { K, H, mu0, sigma, reset } = cusumParams(options);
+  const { K, H, mu0, sigma, reset, minRun } = cusumParams(options);
   const step = state.step + 1;
   if (!Number.isFinite(x)) {
     const next = { ...state, step };
@@ -106,11 +115,14 @@ export function cusumStep(state: CusumState, x: number, options: CusumOptions = 
   const nPlus = cPlus > 0 ? state.nPlus + 1 : 0;
   const nMinus = cMinus > 0 ? state.nMinus + 1 : 0;
   const signals: DriftSignal[] = [];
-  if (cPlus > H && !(state.cPlus > H)) {
+  // A signal at the first step where C is over h AND the run has lasted minRun steps.
+  const wasPlus = state.cPlus > H && state.nPlus >= minRun;
+  const wasMinus = state.cMinus > H && state.nMinus >= minRun;
+  if (cPlus > H && nPlus >= minRun && !wasPlus) {
     const shiftedMean = mu0 + K + cPlus / nPlus;
     signals.push({ direction: 'up', step, onsetStep: step - nPlus + 1, shiftedMean, shift_sigma: (shiftedMean - mu0) / sigma });
   }
-  if (cMinus > H && !(state.cMinus > H)) {
+  if (cMinus > H && nMinus >= minRun && !wasMinus) {
     const shiftedMean = mu0 - K - cMinus / nMinus;
     signals.push({ direction: 'down', step, onsetStep: step - nMinus + 1, shiftedMean, shift_sigma: (shiftedMean - mu0) / sigma });
   }

@@ -93,6 +93,12 @@ interface PendingPoint {
   signals: DriftSignal[];
 }
 
+/**
+ * A shift must have lasted this many steady hours before its crossing of h opens a notice, so one
+ * outlying hour (a bad reading, a trip) does not; common practice, not from a standard.
+ */
+export const SUSTAINED_HOURS = 3;
+
 /** One unit: resume from the last row before the first affected hour and run to the last hour. */
 export async function checkUnit(unitId: string, fromMs: number): Promise<UnitCheck> {
   return inInsightTx(async (tx, exec) => {
@@ -147,7 +153,7 @@ export async function checkUnit(unitId: string, fromMs: number): Promise<UnitChe
       : prev.signal
         ? { ...cusumInit(), step: prev.step }
         : { step: prev.step, cPlus: prev.cPlus, cMinus: prev.cMinus, nPlus: prev.nPlus, nMinus: prev.nMinus };
-    const options = { k: settings.k, h: settings.h, resetOnSignal: true };
+    const options = { k: settings.k, h: settings.h, resetOnSignal: true, minRunLength: SUSTAINED_HOURS };
     const rows: (typeof driftPoints.$inferInsert)[] = [];
     const pending: PendingPoint[] = [];
     for (const h of hours) {
