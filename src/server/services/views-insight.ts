@@ -3,6 +3,7 @@
  * expectedFor with k = 2) and drift notices (drift_notices), shaped for charts and reports.
  */
 import { and, asc, eq, gte, inArray, lt, ne, or, isNull, sql } from 'drizzle-orm';
+import type { ExpectedHour, NoticeMark } from '../../lib/trend-view';
 import { db } from '../db/client';
 import { driftNotices, plantUnits } from '../db/schema';
 import { expectedFor, type BaselineSummary } from './baselines';
@@ -21,15 +22,8 @@ export interface BaselineInfo {
   destructionCvRmse: number;
 }
 
-/** The baseline's prediction for one hour with its k = 2 band. Efficiency [-], destruction [W]. */
-export interface ExpectedHour {
-  efficiency: number | null;
-  efficiencyLo: number | null;
-  efficiencyHi: number | null;
-  destruction_W: number | null;
-  destructionLo_W: number | null;
-  destructionHi_W: number | null;
-}
+
+export type { ExpectedHour, NoticeMark } from '../../lib/trend-view';
 
 export function baselineInfo(b: BaselineSummary): BaselineInfo {
   return {
@@ -68,24 +62,6 @@ export async function expectedBand(
   };
 }
 
-/** A drift notice as the time axis and the report show it. */
-export interface NoticeMark {
-  id: string;
-  unitId: string;
-  unitName: string;
-  direction: 'up' | 'down';
-  status: 'open' | 'acknowledged' | 'closed';
-  onsetMs: number;
-  signalMs: number;
-  hours: number;
-  /** Mean measured minus expected destruction [W]. */
-  extra_W: number;
-  /** Uncertainty of that mean shift [W]; null when unknown. */
-  shiftU_W: number | null;
-  exceedsUncertainty: boolean | null;
-  extraCost_per_day: number | null;
-  currency: string;
-}
 
 /**
  * Notices of some units (or of a site) that touch [fromMs, toMs): opened before its end and not closed

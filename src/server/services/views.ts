@@ -23,7 +23,8 @@ const WH_PER_MWH = 1e6;
 /** Periods longer than this many hours are drawn per local day instead of per hour. */
 export const HOURLY_LIMIT_h = 62 * 24;
 
-export type StateCounts = Record<HourState, number>;
+export type { StateCounts, TrendPoint, ContextSpan } from '../../lib/trend-view';
+import type { StateCounts, TrendPoint, ContextSpan } from '../../lib/trend-view';
 const zeroCounts = (): StateCounts => ({ steady: 0, unsettled: 0, idle: 0, suspect: 0 });
 
 async function siteOf(siteId: string) {
@@ -79,36 +80,7 @@ export const kindLabel = (kind: string): string => {
 
 // ---- trend -------------------------------------------------------------------------------------
 
-/** One point of a trend: an hour (or a local day for long periods). Null figures break the line. */
-export interface TrendPoint {
-  /** Start of the hour or local day [ms]. */
-  t: number;
-  /** Hours of each state in the bucket. */
-  states: StateCounts;
-  /** Mean over the bucket's steady hours; null when it has none. Efficiency [-], destruction [W]. */
-  efficiency: number | null;
-  efficiency_U: number | null;
-  destruction_W: number | null;
-  destruction_U_W: number | null;
-  load: number | null;
-  T0_K: number | null;
-  /** The baseline's prediction for the steady hours (mean over the bucket), with its k = 2 band. */
-  expected: ExpectedHour | null;
-  /** An hour's state and its first reasons (hourly buckets only). */
-  state?: HourState | null;
-  reasons?: string[];
-}
 
-/**
- * A run of hours of one non-steady state, shaded on the charts (for day buckets: a run of days most
- * of whose hours with data were of that state).
- */
-export interface ContextSpan {
-  state: Exclude<HourState, 'steady'>;
-  fromMs: number;
-  toMs: number;
-  hours: number;
-}
 
 export interface TrendAnswer {
   unit: { id: string; name: string; kind: string; kindLabel: string };

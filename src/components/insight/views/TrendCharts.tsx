@@ -19,47 +19,10 @@ import {
   YAxis,
 } from 'recharts';
 import { COLORS, HourStateMark, STATE_LOOK } from './common';
+import type { ContextSpan, ExpectedHour, NoticeMark, TrendPoint } from '../../../lib/trend-view';
+export type { ContextSpan, ExpectedHour, NoticeMark, TrendPoint };
 import { load as showLoad, loadAxis, pct, power, powerUnit, siteTime, type HourState } from './format';
 
-export interface ExpectedHour {
-  efficiency: number | null;
-  efficiencyLo: number | null;
-  efficiencyHi: number | null;
-  destruction_W: number | null;
-  destructionLo_W: number | null;
-  destructionHi_W: number | null;
-}
-export interface TrendPoint {
-  t: number;
-  states: Record<HourState, number>;
-  efficiency: number | null;
-  efficiency_U: number | null;
-  destruction_W: number | null;
-  destruction_U_W: number | null;
-  load: number | null;
-  T0_K: number | null;
-  expected: ExpectedHour | null;
-  state?: HourState | null;
-  reasons?: string[];
-}
-export interface ContextSpan {
-  state: Exclude<HourState, 'steady'>;
-  fromMs: number;
-  toMs: number;
-  hours: number;
-}
-export interface NoticeMark {
-  id: string;
-  direction: 'up' | 'down';
-  status: string;
-  onsetMs: number;
-  signalMs: number;
-  hours: number;
-  extra_W: number;
-  shiftU_W: number | null;
-  extraCost_per_day: number | null;
-  currency: string;
-}
 
 /** Fill patterns of the shaded states: idle lines, unsettled hatching, suspect dots. */
 export function StatePatterns({ prefix }: { prefix: string }) {

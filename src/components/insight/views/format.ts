@@ -5,7 +5,8 @@
 import { TZDate } from '@date-fns/tz';
 import { format } from 'date-fns';
 
-export type HourState = 'steady' | 'unsettled' | 'idle' | 'suspect';
+import type { HourState } from '../../../lib/trend-view';
+export type { HourState };
 
 export const STATE_LABELS: Record<HourState, string> = {
   steady: 'steady',
