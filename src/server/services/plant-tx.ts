@@ -1,12 +1,10 @@
-import { drizzle, type NodePgDatabase } from 'drizzle-orm/node-postgres';
 import type { z } from 'zod';
 import { ComputeUnitHoursPayload, QUEUES } from '../../jobs';
 import type { ModelIssue } from '../../lib/plant/model';
-import { pgPool } from '../db/client';
-import * as schema from '../db/schema';
+import { withTransaction, type Tx } from '../db/tx';
 import { queue } from '../queue';
 
-export type Tx = NodePgDatabase<typeof schema>;
+export type { Tx };
 export type RecomputeRequest = z.infer<typeof ComputeUnitHoursPayload>;
 
 /** A rule of the plant model was broken; code is one of src/server/errors.ts. */
@@ -35,22 +33,11 @@ export function openEndMs(now = Date.now()): number {
  */
 export async function inTransaction<T>(fn: (tx: Tx, recompute: (req: RecomputeRequest) => Promise<void>) => Promise<T>): Promise<T> {
   const boss = await queue();
-  const client = await pgPool().connect();
-  try {
-    await client.query('BEGIN');
-    const tx = drizzle(client, { schema });
-    const recompute = async (req: RecomputeRequest) => {
+  return withTransaction((tx, exec) =>
+    fn(tx, async (req: RecomputeRequest) => {
       const payload = ComputeUnitHoursPayload.parse(req);
       if (payload.toMs <= payload.fromMs) return;
-      await boss.send(QUEUES.computeUnitHours, payload, { db: { executeSql: (text, values) => client.query(text, values) } });
-    };
-    const out = await fn(tx, recompute);
-    await client.query('COMMIT');
-    return out;
-  } catch (err) {
-    await client.query('ROLLBACK').catch(() => undefined);
-    throw err;
-  } finally {
-    client.release();
-  }
+      await boss.send(QUEUES.computeUnitHours, payload, { db: { executeSql: (text, values) => exec(text, values) } });
+    }),
+  );
 }
