@@ -49,7 +49,16 @@ start_pg() {
   PG_BIN="$(ls -d /usr/lib/postgresql/*/bin | sort -V | tail -n 1)"
   local owner; owner="$(id -un)"; [ "$(id -u)" = 0 ] && owner=postgres
   mkdir -p "$dir"
-  if [ "$(id -u)" = 0 ]; then chmod 755 "$dir"; fi
+  if [ "$(id -u)" = 0 ]; then
+    chmod 755 "$dir"
+    # The postgres user must be able to reach the folder: open traverse (x) on any parent that blocks it
+    # (a checkout under a private temporary folder, say).
+    local up="$dir"
+    while [ "$up" != "/" ]; do
+      if ! runuser -u postgres -- test -x "$up" 2>/dev/null; then log "letting the postgres user pass through $up (chmod o+x)"; chmod o+x "$up"; fi
+      up="$(dirname "$up")"
+    done
+  fi
   install -d -o "$owner" -m 700 "$dir/pg"
   install -d -o "$owner" -m 755 "$dir/pgsock"
   if [ ! -f "$dir/pg/PG_VERSION" ]; then
