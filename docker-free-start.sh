@@ -145,8 +145,9 @@ test_mode() {
   if [ -d "$dir/pg" ]; then as_pg "$(ls -d /usr/lib/postgresql/*/bin | sort -V | tail -n 1)/pg_ctl" -D "$dir/pg" -m fast stop >/dev/null 2>&1 || true; fi
   rm -rf "$dir"; mkdir -p "$dir"
   trap cleanup EXIT
-  PG_FSYNC=off services "$dir" 54339 4579 1035 1090
-  export PUBLIC_BASE_URL="http://127.0.0.1:4331" HOST=127.0.0.1 PORT=4331 SIGN_IN_LIMIT_PER_MINUTE=5
+  local o="${LOSSLINE_PORT_OFFSET:-0}" # several checkouts can test side by side with different offsets
+  PG_FSYNC=off services "$dir" $((54339 + o)) $((4579 + o)) $((1035 + o)) $((1090 + o))
+  export PUBLIC_BASE_URL="http://127.0.0.1:$((4331 + o))" HOST=127.0.0.1 PORT=$((4331 + o)) SIGN_IN_LIMIT_PER_MINUTE=5
   export LOSSLINE_TEST_DIR="$dir"
   local failed=0
 
@@ -160,7 +161,7 @@ test_mode() {
     node --import tsx scripts/seed.ts
     spawn worker "$dir/worker.log" node --import tsx src/worker/main.ts
     SIGN_IN_LIMIT_PER_MINUTE=60 spawn web "$dir/web.log" node dist/server/entry.mjs
-    wait_port 4331 "The web server" "$dir/web.log"
+    wait_port "$PORT" "The web server" "$dir/web.log"
     log "Playwright in Chromium"
     PLAYWRIGHT_JSON_OUTPUT_NAME="$dir/playwright.json" npx playwright test --reporter=list,json || failed=1
   fi
@@ -175,12 +176,13 @@ test_services_mode() {
   install_deps
   local dir="$ROOT/.dev-test-data"
   trap cleanup EXIT
-  PG_FSYNC=off services "$dir" 54349 4589 1045 1100
+  local o="${LOSSLINE_PORT_OFFSET:-0}"
+  PG_FSYNC=off services "$dir" $((54349 + o)) $((4589 + o)) $((1045 + o)) $((1100 + o))
   node --import tsx scripts/seed.ts
   cat <<EOF
 Test services are up. In another shell:
   export DATABASE_URL=$DATABASE_URL S3_ENDPOINT=$S3_ENDPOINT SMTP_URL=$SMTP_URL MAIL_INBOX_URL=$MAIL_INBOX_URL
-  export BETTER_AUTH_SECRET=$BETTER_AUTH_SECRET PUBLIC_BASE_URL=http://127.0.0.1:4331 SIGN_IN_LIMIT_PER_MINUTE=5
+  export BETTER_AUTH_SECRET=$BETTER_AUTH_SECRET PUBLIC_BASE_URL=http://127.0.0.1:$((4331 + o)) SIGN_IN_LIMIT_PER_MINUTE=5
   npx vitest run tests/<area>
 EOF
   wait
@@ -193,7 +195,8 @@ bench_ingest_mode() {
   local dir="$ROOT/.bench-data"
   rm -rf "$dir"; mkdir -p "$dir"
   trap cleanup EXIT
-  PG_FSYNC=on services "$dir" 54359 4599 1055 1110
+  local o="${LOSSLINE_PORT_OFFSET:-0}"
+  PG_FSYNC=on services "$dir" $((54359 + o)) $((4599 + o)) $((1055 + o)) $((1110 + o))
   node --import tsx bench/ingest.ts
 }
 
