@@ -22,7 +22,6 @@ import { QUEUES } from '../../src/jobs';
 import { createSiteFromModel, importModel } from '../../src/server/services/plant-model';
 import { receiveApiUpload } from '../../src/server/services/uploads';
 import { acceptBaseline, fitDraft, InsightError } from '../../src/server/services/baselines';
-import { driftSettingsFor, setDriftSettings } from '../../src/server/services/drift';
 import type { BaselineTerm } from '../../src/lib/analytics/baseline';
 import { DEMO_DEFAULTS, generateExports, plannedFileNames, resolvePlan, siteTimeText, type GenerateOptions } from './generate';
 import { demoModel, DEMO_SITE_NAME } from './site';
@@ -61,15 +60,6 @@ export interface LoadReport {
 const IN_HAND = ['queued', 'processing', 'done', 'needs-review'];
 /** Terms of the demo baselines: load, ambient and the load-ambient interaction (exergy destruction is about T0 S_gen). */
 export const DEMO_BASELINE_TERMS: BaselineTerm[] = ['load', 'T_amb', 'load^2', 'load*T_amb'];
-/**
- * CUSUM settings of the demo's units: k = 1.5 s, h = 5 s. At the product's defaults (k = 0.5 s) the
- * in-control average run length is about 900 hours per direction (Siegmund's approximation), so four
- * months of hourly checks of seven healthy units open notices by chance, the more so as hourly
- * residuals are not independent (a baseline of load and T0 does not explain every hour); at
- * k = 1.5 s a shift of 3 s is still found within about 4 hours.
- * @see D. Siegmund, Sequential Analysis (Springer, 1985), ch. 10 (run lengths of the CUSUM).
- */
-export const DEMO_DRIFT_SETTINGS = { k: 1.5, h: 5 } as const;
 /** A unit gets a baseline only if at least this share of the reference period's hours were steady (PRV1 is shut in normal operation). */
 export const MIN_STEADY_SHARE = 0.1;
 
@@ -262,11 +252,10 @@ export async function loadDemo(opts: LoadOptions = {}): Promise<LoadReport> {
       continue;
     }
     try {
-      if ((await driftSettingsFor(u.id)).isDefault) await setDriftSettings(u.id, DEMO_DRIFT_SETTINGS, admin);
       const draft = await fitDraft(u.id, { periodFrom, periodTo, terms: DEMO_BASELINE_TERMS, note: 'Demo: reference period before the planted faults (docs/demo.md).' }, admin);
       await acceptBaseline(draft.id, admin);
       const cv = draft.destruction.stats.cvRmse;
-      report.baselines.push({ unit: u.name, outcome: `baseline v${draft.version} on ${draft.hours} steady hours (destruction CV(RMSE) ${(cv * 100).toFixed(1)} %), drift k = ${DEMO_DRIFT_SETTINGS.k} s, h = ${DEMO_DRIFT_SETTINGS.h} s` });
+      report.baselines.push({ unit: u.name, outcome: `baseline v${draft.version} on ${draft.hours} steady hours (destruction CV(RMSE) ${(cv * 100).toFixed(1)} %), drift check on the product's default settings` });
     } catch (err) {
       if (!(err instanceof InsightError)) throw err;
       report.baselines.push({ unit: u.name, outcome: `no baseline: ${err.message}` });

@@ -15,6 +15,7 @@
  * @see G. H. Golub and C. F. Van Loan, Matrix Computations, 4th ed. (2013), 5.2 and 5.3 (Householder QR
  *      for least squares).
  */
+import { fitAr1 } from './autocorrelation';
 import { coverageFactor } from './distributions';
 
 /** Regression terms besides the intercept. */
@@ -32,6 +33,11 @@ export interface BaselineData {
   T_amb_K: ArrayLike<number>;
   /** Regressed value per hour (efficiency [-] or destruction [W]). */
   y: ArrayLike<number>;
+  /**
+   * Start of each hour [ms], oldest first. When given, the residuals' lag-one autocorrelation is
+   * fitted too (stats.phi, stats.sInnovation; ./autocorrelation.ts), on pairs of hours one hour apart.
+   */
+  hourStartMs?: ArrayLike<number>;
 }
 
 /** Fit statistics. Fractions, not percent: cvRmse 0.12 means 12 %. */
@@ -54,6 +60,16 @@ export interface FitStats {
   cvRmse: number;
   /** NMBE = sum(y - yhat) / ((n - p) ybar) [-]; zero on the fitting data of a model with intercept. */
   nmbe: number;
+  /**
+   * Lag-one autoregression coefficient of the residuals [-] (AR(1), ./autocorrelation.ts fitAr1), fitted
+   * on pairs of consecutive steady hours of the reference period. Absent in baselines fitted before it
+   * was stored, and when the hours were not given: the drift check then takes phi = 0.
+   */
+  phi?: number;
+  /** Spread of the AR(1) innovations r_t - phi r_(t-1) [y]; absent with phi. */
+  sInnovation?: number;
+  /** Pairs of consecutive hours phi was fitted on. */
+  ar1Pairs?: number;
 }
 
 export interface BaselineModel {
@@ -275,7 +291,17 @@ export function fitBaseline(data: BaselineData, options: FitOptions = {}): Basel
   for (let i = 0; i < n; i++) rows.push(designRow(frame, data.load[i], data.T_amb_K[i]));
   const { b: beta, R } = householderLeastSquares(rows, data.y, ['intercept', ...terms]);
   const yhat = rows.map((r) => r.reduce((acc, v, j) => acc + v * beta[j], 0));
-  const stats = goodnessOfFit(data.y, yhat, p);
+  const stats: FitStats = goodnessOfFit(data.y, yhat, p);
+  if (data.hourStartMs) {
+    if (data.hourStartMs.length !== n) throw new BaselineError(`hourStartMs (${data.hourStartMs.length}) and y (${n}) differ in length`);
+    const ar = fitAr1(
+      yhat.map((v, i) => data.y[i] - v),
+      data.hourStartMs,
+    );
+    stats.phi = ar.phi;
+    stats.sInnovation = ar.sInnovation;
+    stats.ar1Pairs = ar.pairs;
+  }
   return {
     ...frame,
     beta,

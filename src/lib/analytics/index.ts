@@ -5,6 +5,7 @@ export * from './steady';
 export * from './uncertainty';
 export * from './baseline';
 export * from './drift';
+export * from './autocorrelation';
 export * from './cost';
 export { createRng, type Rng } from './rng';
 export { coverageFactor, studentTCdf, studentTQuantile, incompleteBeta, lnGamma } from './distributions';

@@ -297,7 +297,7 @@ export async function fitDraft(unitId: string, input: FitInput, userId: string |
   let efficiencyModel: BaselineModel | null = null;
   try {
     destructionModel = fitBaseline(
-      { load: hours.map((h) => h.load!), T_amb_K: hours.map((h) => h.T0_K!), y: hours.map((h) => h.destruction_W!) },
+      { load: hours.map((h) => h.load!), T_amb_K: hours.map((h) => h.T0_K!), y: hours.map((h) => h.destruction_W!), hourStartMs: hours.map((h) => h.hourStart.getTime()) },
       { terms },
     );
     const withEff = hours.filter((h) => h.efficiency !== null && Number.isFinite(h.efficiency));

@@ -1,8 +1,11 @@
 /**
  * The drift check (job "check-drift"): per unit with an active baseline, the tabular CUSUM of Page
- * (1954) on the residuals of exergy destruction against the baseline, normalised by the baseline's
- * residual spread s, continued hour by hour from the state saved in drift_points. A signal opens a
- * drift notice (one open per unit and direction) and queues its mail in the same transaction.
+ * (1954) on the residuals of exergy destruction against the baseline, continued hour by hour from the
+ * state saved in drift_points. Hourly residuals are serially correlated, so the CUSUM input x is the
+ * residual's standardised AR(1) innovation with the phi and innovation spread fitted on the baseline's
+ * reference period (src/lib/analytics/autocorrelation.ts; docs/domain.md section 7); a baseline saved
+ * before phi was stored counts as phi = 0 (x = residual / s, as before). A signal opens a drift notice
+ * (one open per unit and direction) and queues its mail in the same transaction.
  *
  * Re-runs are idempotent: every steady hour has one row keyed by unit and hour; a check over hours
  * that were already seen deletes the rows from the first affected hour on and recomputes them from
@@ -12,6 +15,7 @@ import { and, asc, desc, eq, gt, gte, inArray, isNotNull, lt, ne, sql } from 'dr
 import { z } from 'zod';
 import { CheckDriftPayload, QUEUES } from '../../jobs';
 import { predict, type BaselineModel } from '../../lib/analytics/baseline';
+import { ar1Innovation, type Ar1Model } from '../../lib/analytics/autocorrelation';
 import { cusumInit, cusumStep, type CusumState, type DriftSignal } from '../../lib/analytics/drift';
 import { baselines, driftPoints, driftSettings, plantUnits, unitHours } from '../db/schema';
 import { queue } from '../queue';
@@ -22,13 +26,18 @@ import { openOrAbsorbSignal, type SignalFigures } from './notices';
 
 const HOUR_ms = 3_600_000;
 
-/** CUSUM defaults (docs/domain.md section 7: k = 0.5 sigma, h = 4-5 sigma; Lossline takes 5). */
-export const DRIFT_DEFAULTS = { k: 0.5, h: 5 } as const;
+/**
+ * CUSUM defaults on the standardised innovations (docs/domain.md section 7): k = 0.5 sigma (the
+ * classic choice, tuned to a shift of one spread), h = 8 sigma, so that the two-sided in-control
+ * average run length is about 9,500 steady hours (Brook & Evans Markov chain; at least 8,760: at most
+ * one chance notice per unit per year). `npm run bench:drift` prints what these give.
+ */
+export const DRIFT_DEFAULTS = { k: 0.5, h: 8 } as const;
 
 export const DriftSettingsInput = z.strictObject({
-  /** Reference value k in units of the residual spread s [-]. */
+  /** Reference value k in spreads of the CUSUM input (the standardised innovations) [-]. */
   k: z.number().finite().min(0, 'k cannot be negative.').max(3, 'k above 3 s would hide most shifts.'),
-  /** Decision interval h in units of s [-]. */
+  /** Decision interval h in spreads of the CUSUM input [-]. */
   h: z.number().finite().gt(0, 'h must be above zero.').max(20, 'h above 20 s would hardly ever signal.'),
 });
 
@@ -111,6 +120,8 @@ export async function checkUnit(unitId: string, fromMs: number): Promise<UnitChe
     const settings = await driftSettingsFor(unitId, tx);
     const model = b.model as BaselineModel;
     const s = model.stats.s;
+    // AR(1) of the reference residuals; a baseline saved before it was stored behaves as phi = 0.
+    const ar1: Ar1Model = model.stats.phi !== undefined && model.stats.sInnovation !== undefined && model.stats.sInnovation > 0 ? { phi: model.stats.phi, sInnovation: model.stats.sInnovation } : { phi: 0, sInnovation: s };
 
     // Rows of an earlier baseline say nothing about this one.
     await tx.delete(driftPoints).where(and(eq(driftPoints.unitId, unitId), ne(driftPoints.baselineId, b.id)));
@@ -156,10 +167,13 @@ export async function checkUnit(unitId: string, fromMs: number): Promise<UnitChe
     const options = { k: settings.k, h: settings.h, resetOnSignal: true, minRunLength: SUSTAINED_HOURS };
     const rows: (typeof driftPoints.$inferInsert)[] = [];
     const pending: PendingPoint[] = [];
+    let last: { r: number; ms: number } | null = prev ? { r: prev.residual_W, ms: prev.hourStart.getTime() } : null;
     for (const h of hours) {
       const expected_W = predict(model, h.load!, h.T0_K!);
       const residual_W = h.destruction_W! - expected_W;
-      const x = residual_W / s;
+      // The standardised one-step innovation; after a gap of g hours the g-step prediction (autocorrelation.ts).
+      const x = ar1Innovation(residual_W, last ? { r: last.r, hoursBack: (h.hourStart.getTime() - last.ms) / HOUR_ms } : null, ar1);
+      last = { r: residual_W, ms: h.hourStart.getTime() };
       const r = cusumStep(state, x, options);
       state = r.state;
       rows.push({
@@ -188,7 +202,7 @@ export async function checkUnit(unitId: string, fromMs: number): Promise<UnitChe
     for (const p of pending) {
       for (const sig of p.signals) {
         signals++;
-        const figures = await signalFigures(tx, unitId, sig, settings);
+        const figures = await signalFigures(tx, unitId, sig, settings, s);
         const id = await openOrAbsorbSignal(tx, exec, { unitId, baselineId: b.id, ...figures });
         if (id) opened.push(id);
       }
@@ -201,7 +215,7 @@ export async function checkUnit(unitId: string, fromMs: number): Promise<UnitChe
  * The figures of a signal from the hours between its onset and the signal: mean residual (the extra
  * destruction), mean expected, the mean expanded uncertainty of one hour and of the mean.
  */
-async function signalFigures(tx: Tx, unitId: string, sig: DriftSignal, settings: { k: number; h: number }): Promise<Omit<SignalFigures, 'unitId' | 'baselineId'>> {
+async function signalFigures(tx: Tx, unitId: string, sig: DriftSignal, settings: { k: number; h: number }, s: number): Promise<Omit<SignalFigures, 'unitId' | 'baselineId'>> {
   const [a] = await tx
     .select({
       n: sql<number>`count(*)::int`,
@@ -226,7 +240,8 @@ async function signalFigures(tx: Tx, unitId: string, sig: DriftSignal, settings:
     extra_W: Number(a!.extra_W),
     expected_W: Number(a!.expected_W),
     measured_W: Number(a!.measured_W),
-    shift_sigma: sig.shift_sigma,
+    // in residual spreads s: the CUSUM's own estimate is in spreads of the innovations
+    shift_sigma: Number(a!.extra_W) / s,
     hourU_W,
     unitCost: a!.cost_per_h !== null && Number(a!.costed_J) > 0 ? Number(a!.cost_per_h) / Number(a!.costed_J) : null,
     k: settings.k,
