@@ -5,8 +5,9 @@
  * residuals and the drift signals after the reference period, and writes the reference residuals to
  * a JSON file (for scripts/ar1-reference.py or a look by hand).
  *
- *   node --import tsx scripts/drift-demo-check.ts [--refit] [--out demo-residuals.json]
+ *   node --import tsx scripts/drift-demo-check.ts [--recompute] [--refit] [--out demo-residuals.json]
  *
+ * --recompute computes every unit hour of the site again (after a change of the engine's method);
  * --refit fits and accepts a new baseline version per unit (so the fit of the current code is
  * stored) and waits for the drift check. Needs the test services (./docker-free-start.sh test-services).
  * Measurement aid, not part of the product; it never runs in tests.
@@ -20,11 +21,13 @@ import { closeDb, db } from '../src/server/db/client';
 import { baselines, driftPoints, plantUnits, sites, unitHours } from '../src/server/db/schema';
 import { queue, stopQueue } from '../src/server/queue';
 import { acceptBaseline, fitDraft } from '../src/server/services/baselines';
+import { handleComputeUnitHours } from '../src/server/services/engine';
 import { registerHandlers } from '../src/worker/handlers';
 import { DEMO_BASELINE_TERMS, loadDemo } from './demo/load';
 
 const args = process.argv.slice(2);
 const refit = args.includes('--refit');
+const recompute = args.includes('--recompute');
 const outAt = args.indexOf('--out');
 const out = outAt >= 0 ? args[outAt + 1] : null;
 const siteName = process.env.DEMO_SITE ?? 'Drift check demo';
@@ -40,6 +43,13 @@ const report = await loadDemo({ siteName, days: Number(process.env.DEMO_DAYS ?? 
 console.log(`loaded in ${((Date.now() - t0) / 1000).toFixed(0)} s: ${report.unitHours} unit hours, ${report.notices} notice(s)`);
 const [site] = await db().select().from(sites).where(eq(sites.name, siteName));
 const units = await db().select().from(plantUnits).where(eq(plantUnits.siteId, site!.id)).orderBy(asc(plantUnits.name));
+if (recompute) {
+  const t1 = Date.now();
+  const res = await handleComputeUnitHours({ siteId: site!.id, fromMs: Date.UTC(2024, 0, 1), toMs: Date.UTC(2027, 0, 1) });
+  console.log(`recomputed in ${((Date.now() - t1) / 1000).toFixed(0)} s: ${res.computed} unit hours, ${res.written} written`);
+  const states = await db().execute(sql`select u.name, h.state, count(*)::int as n from unit_hours h join plant_units u on u.id = h.unit_id where u.site_id = ${site!.id} group by 1, 2 order by 1, 2`);
+  console.log(states.rows.map((r) => `${r.name} ${r.state} ${r.n}`).join('; '));
+}
 if (refit) {
   for (const u of units) {
     const [b] = await db().select().from(baselines).where(and(eq(baselines.unitId, u.id), eq(baselines.status, 'active')));

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { classifyHour, STEADY_DEFAULTS, type SteadyLimits, type TagHourStats } from '../../src/lib/analytics/steady';
+import { classifyHour, resolvableSpread, LOW_RANGE_FRACTION, STEADY_DEFAULTS, type SteadyLimits, type TagHourStats } from '../../src/lib/analytics/steady';
 
 // Invented tag hours of a steam turbine: power (kW), steam flow (kg/s), inlet temperature (K).
 function hour(mean: number, stdDev: number, extra: Partial<TagHourStats> = {}): TagHourStats {
@@ -109,5 +109,48 @@ describe('classifyHour (common practice defaults, docs/domain.md section 6)', ()
     const r = classifyHour({ tags: { ...good(), power: hour(0, 0, { flatline: true }) } }, limits);
     expect(r.state).toBe('suspect');
     expect(r.reasons.map((x) => x.code)).toEqual(['TAG_FROZEN']);
+  });
+
+  // Invented hours of a let-down valve's steam flow meter: 2 % of reading, range -1 to 30 t/h (span 31 t/h),
+  // in t/h. Its flow is low (about 1 t/h) while it passes steam; the meter's noise does not shrink with it.
+  describe('the spread limit never goes below what the instrument resolves (U = 2 u)', () => {
+    const meter = { uRel: 0.02, span: 31 };
+    const valve: SteadyLimits = { loadTag: 'flow', minLoad: 0.1, spread: { flow: { maxRelSpread: 0.05, instrument: meter } } };
+    it('near the bottom of its range a flow meter resolves 2 x 2 % of a tenth of its span: 0.124 t/h', () => {
+      expect(LOW_RANGE_FRACTION).toBe(0.1);
+      expect(resolvableSpread(1, meter)).toBeCloseTo(2 * 0.02 * 3.1, 12);
+      // above a tenth of the span, 2 % of the reading itself
+      expect(resolvableSpread(20, meter)).toBeCloseTo(2 * 0.02 * 20, 12);
+      expect(resolvableSpread(20, undefined)).toBe(0);
+    });
+
+    it('a low flow swinging 0.06 t/h (6 % of its mean) is steady; by the percentage alone it was unsettled', () => {
+      expect(classifyHour({ tags: { flow: hour(1, 0.06) } }, valve)).toEqual({ state: 'steady', reasons: [] });
+      const byPercentOnly = classifyHour({ tags: { flow: hour(1, 0.06) } }, { ...valve, spread: { flow: { maxRelSpread: 0.05 } } });
+      expect(byPercentOnly.state).toBe('unsettled');
+      // 0.2 t/h is more than the meter's 0.124: unsettled, and the reason names both parts of the limit
+      const swinging = classifyHour({ tags: { flow: hour(1, 0.2) } }, valve);
+      expect(swinging).toMatchObject({ state: 'unsettled', reasons: [{ code: 'SPREAD_HIGH', tag: 'flow' }] });
+      expect(swinging.reasons[0].limit).toBeCloseTo(0.124, 12);
+      expect(swinging.reasons[0].message).toMatch(/5\.0 % of the mean; what the instrument resolves: 0\.124/);
+    });
+
+    it('mid-range the percentage rules: 6 % of 20 t/h is unsettled (the meter resolves 4 %)', () => {
+      const r = classifyHour({ tags: { flow: hour(20, 1.2) } }, valve);
+      expect(r).toMatchObject({ state: 'unsettled', reasons: [{ code: 'SPREAD_HIGH', tag: 'flow', limit: 0.05 }] });
+    });
+
+    it('a spread exactly at the limit counts as settled, and the reason text says so', () => {
+      // absolute uncertainty 0.125, so the floor is exactly 0.25 (binary fractions, no rounding)
+      const lim: SteadyLimits = { loadTag: 'flow', minLoad: 0.1, spread: { flow: { maxRelSpread: 0.05, instrument: { uAbs: 0.125 } } } };
+      expect(classifyHour({ tags: { flow: hour(2, 0.25) } }, lim).state).toBe('steady');
+      const over = classifyHour({ tags: { flow: hour(2, 0.25 + 1e-9) } }, lim);
+      expect(over.state).toBe('unsettled');
+      expect(over.reasons[0].message).toMatch(/a spread at the limit counts as settled/);
+      // the same for an absolute limit (O2 style): 0.02 set, instrument 2 x 0.0125 = 0.025
+      const o2: SteadyLimits = { loadTag: 'flow', minLoad: 0.1, spread: { flow: { maxRelSpread: 1 }, O2: { maxStd: 0.02, instrument: { uAbs: 0.0125 } } } };
+      expect(classifyHour({ tags: { flow: hour(2, 0), O2: hour(0.03, 0.025) } }, o2).state).toBe('steady');
+      expect(classifyHour({ tags: { flow: hour(2, 0), O2: hour(0.03, 0.0251) } }, o2)).toMatchObject({ state: 'unsettled', reasons: [{ code: 'SPREAD_HIGH', tag: 'O2', limit: 0.025 }] });
+    });
   });
 });

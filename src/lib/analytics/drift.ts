@@ -23,6 +23,16 @@
  *      CUSUM, Example 9.1) and 9.2 (EWMA).
  */
 
+/**
+ * Lossline's drift-check defaults, on the standardised AR(1) innovations of the hourly residuals
+ * (./autocorrelation.ts; docs/domain.md section 7): k = 0.5 and h = 8 spreads of the innovations,
+ * a signal only once the run has lasted 3 steady hours. Two-sided in-control ARL of the plain
+ * CUSUM at k = 0.5, h = 8: about 9,480 observations (Brook & Evans chain, ./arl.ts), so at most about
+ * one chance notice per unit per 8,760 steady hours; `npm run bench:drift` prints what they give.
+ * The server (src/server/services/drift.ts DRIFT_DEFAULTS, SUSTAINED_HOURS) takes them from here.
+ */
+export const DRIFT_CHECK_DEFAULTS = { k: 0.5, h: 8, sustainedHours: 3 } as const;
+
 export interface CusumOptions {
   /** Reference value k in units of sigma [-]; default 0.5. */
   k?: number;

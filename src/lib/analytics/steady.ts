@@ -14,6 +14,17 @@
  * Spread is the within-hour standard deviation, either relative to the hourly mean (maxRelSpread,
  * for ratio-scale quantities: flow, power, absolute pressure) or absolute (maxStd, in the unit of
  * the statistics; use it for temperatures, where a relative spread depends on the scale zero).
+ * (The engine passes the hour's max - min as the spread; the rule works on whatever measure the
+ * caller passes, as long as the limits are in the same measure.)
+ *
+ * A spread limit is never tighter than what the tag's instrument can resolve (SpreadLimit.instrument):
+ * resolutionFactor (default 2) times the instrument's standard uncertainty u at the reading, i.e. its
+ * expanded uncertainty U (k = 2, docs/domain.md section 7): a swing within the hour no larger than U
+ * is not one the instrument can vouch for (common practice, Lossline's choice). A relative uncertainty (% of reading) is held at its
+ * value at LOW_RANGE_FRACTION of the span below that reading: flow meters quote % of reading only
+ * over their turndown, and near the bottom of the range their error is a share of the span (common
+ * practice, see resolvableSpread). A spread equal to its limit counts as settled; only a spread above
+ * the limit makes the hour unsettled.
  *
  * The defaults are *common practice*, with no single published source (docs/domain.md section 6):
  * they are configurable per unit and per tag. Performance test codes (ASME PTC 19.1 and the PTC of
@@ -42,12 +53,48 @@ export interface TagHourStats {
   badQualityCount?: number;
 }
 
+/** What a tag's instrument can resolve: its standard uncertainty and range, in the unit of the statistics. */
+export interface InstrumentResolution {
+  /** Standard uncertainty, absolute [unit of the statistics]. */
+  uAbs?: number;
+  /** Standard uncertainty relative to the reading [-] (0.01 for 1 % of reading). */
+  uRel?: number;
+  /** Span of the instrument, validMax - validMin [unit of the statistics]; null/absent when unknown. */
+  span?: number | null;
+}
+
 /** Per-tag spread limit. */
 export interface SpreadLimit {
   /** Largest stdDev / |mean| [-]. */
   maxRelSpread?: number;
   /** Largest stdDev [unit of the statistics]. */
   maxStd?: number;
+  /** The tag's instrument: the limit is never below what it can resolve (resolvableSpread). */
+  instrument?: InstrumentResolution;
+}
+
+/**
+ * Share of the span below which a relative (% of reading) uncertainty stops shrinking with the
+ * reading [-]: 0.1, a 10:1 turndown. Common practice (flow meters are specified in % of reading over
+ * a turndown of about 10:1 for vortex and magnetic meters, less for orifice plates); configurable by
+ * giving the tag an absolute uncertainty instead.
+ */
+export const LOW_RANGE_FRACTION = 0.1;
+
+/**
+ * The spread an instrument cannot resolve at a reading: factor x u, with u the absolute standard
+ * uncertainty plus the relative one taken of max(|mean|, LOW_RANGE_FRACTION x span).
+ *
+ * @param mean the hour's mean [unit of the statistics]
+ * @param inst the instrument's uncertainty and span (see InstrumentResolution); absent gives 0
+ * @param factor multiple of u [-]; default 2 (the expanded uncertainty U, k = 2)
+ * @returns the smallest spread limit the tag can have this hour [unit of the statistics]
+ */
+export function resolvableSpread(mean: number, inst: InstrumentResolution | undefined, factor = 2): number {
+  if (!inst || !Number.isFinite(mean)) return 0;
+  const span = inst.span !== null && inst.span !== undefined && Number.isFinite(inst.span) && inst.span > 0 ? inst.span : 0;
+  const u = (inst.uAbs ?? 0) + (inst.uRel ?? 0) * Math.max(Math.abs(mean), LOW_RANGE_FRACTION * span);
+  return Number.isFinite(u) && u > 0 ? factor * u : 0;
 }
 
 /** A balance closure residual of the hour, e.g. (mDot_in - mDot_out) / mDot_in. */
@@ -71,6 +118,8 @@ export interface SteadyLimits {
   spread?: Readonly<Record<string, SpreadLimit>>;
   /** Default relative spread limit [-]; 0.05. */
   defaultMaxRelSpread?: number;
+  /** Multiple of an instrument's standard uncertainty below which no spread limit goes [-]; 2 (U at k = 2). */
+  resolutionFactor?: number;
   /** Least covered fraction of the hour per key tag [-]; 0.8. */
   minCoveredFraction?: number;
   /** Least usable samples per key tag; 2. */
@@ -86,6 +135,7 @@ export interface SteadyLimits {
 /** Defaults (common practice; configurable). */
 export const STEADY_DEFAULTS = {
   defaultMaxRelSpread: 0.05,
+  resolutionFactor: 2,
   minCoveredFraction: 0.8,
   minSamples: 2,
   maxNonNumericFraction: 0.1,
@@ -226,29 +276,36 @@ export function classifyHour(
     const own = limits.spread?.[tag];
     const maxRel = own?.maxRelSpread ?? (own?.maxStd === undefined ? lim.defaultMaxRelSpread : undefined);
     const mean = st.mean!;
+    const floor = resolvableSpread(mean, own?.instrument, lim.resolutionFactor);
+    const floorText = floor > 0 ? `; what the instrument resolves: ${fmt(floor)}` : '';
+    // At the limit counts as settled: only a spread above it makes the hour unsettled.
     if (maxRel !== undefined && mean !== 0) {
       const rel = st.stdDev / Math.abs(mean);
-      if (rel > maxRel) {
+      const relLimit = Math.max(maxRel, floor / Math.abs(mean));
+      if (rel > relLimit) {
         reasons.push({
           code: 'SPREAD_HIGH',
           state: 'unsettled',
           tag,
           value: rel,
-          limit: maxRel,
-          message: `${tag}: spread ${(100 * rel).toFixed(1)} % of the mean (limit ${(100 * maxRel).toFixed(1)} %)`,
+          limit: relLimit,
+          message: `${tag}: spread ${(100 * rel).toFixed(1)} % of the mean, above its limit ${(100 * relLimit).toFixed(1)} % (${(100 * maxRel).toFixed(1)} % of the mean${floorText}; a spread at the limit counts as settled)`,
         });
         continue;
       }
     }
-    if (own?.maxStd !== undefined && st.stdDev > own.maxStd) {
-      reasons.push({
-        code: 'SPREAD_HIGH',
-        state: 'unsettled',
-        tag,
-        value: st.stdDev,
-        limit: own.maxStd,
-        message: `${tag}: standard deviation ${st.stdDev} within the hour (limit ${own.maxStd})`,
-      });
+    if (own?.maxStd !== undefined) {
+      const absLimit = Math.max(own.maxStd, floor);
+      if (st.stdDev > absLimit) {
+        reasons.push({
+          code: 'SPREAD_HIGH',
+          state: 'unsettled',
+          tag,
+          value: st.stdDev,
+          limit: absLimit,
+          message: `${tag}: spread ${fmt(st.stdDev)} within the hour, above its limit ${fmt(absLimit)} (set ${fmt(own.maxStd)}${floorText}; a spread at the limit counts as settled)`,
+        });
+      }
     }
   }
 
@@ -256,6 +313,8 @@ export function classifyHour(
   const state: HourStateName = reasons.length > 0 ? reasons[0].state : 'steady';
   return { state, reasons };
 }
+
+const fmt = (v: number) => Number(v.toPrecision(3)).toString();
 
 function dropUndefined<T extends object>(o: T): Partial<T> {
   return Object.fromEntries(Object.entries(o).filter(([, v]) => v !== undefined)) as Partial<T>;

@@ -13,7 +13,8 @@
  *   hour are kept as notes, not reasons: a stopped unit's flows do not balance;
  * - unsettled: a key tag's spread within the hour, (max - min) / |mean| in SI (absolute pressure,
  *   kelvin, kg/s, W), is above the unit's spreadLimit (docs/plant-model.md); O2 and vapour fraction use
- *   an absolute limit instead (SPREAD_O2_ABS, SPREAD_X_ABS);
+ *   an absolute limit instead (SPREAD_O2_ABS, SPREAD_X_ABS); no limit is below what the link's
+ *   instrument resolves, U = 2 u from its uncertainty and range (src/lib/analytics/steady.ts resolvableSpread);
  * - steady: none of these.
  *
  * The entropy-generation check: the balance gives D from the exergy balance and, independently,
@@ -25,14 +26,14 @@
  * @see docs/domain.md s.2 (Gouy-Stodola), s.6 (steady state, common practice), s.7 (GUM, cost)
  */
 import { BalanceInputError, evaluateUnitHour, inputNames, unitHourWithUncertainty, type UnitBalance, type UnitModel } from '../equipment';
-import { classifyHour, destructionCost_per_hour, type BalanceClosure, type SpreadLimit, type TagHourStats } from '../analytics';
+import { classifyHour, destructionCost_per_hour, type BalanceClosure, type InstrumentResolution, type SpreadLimit, type TagHourStats } from '../analytics';
 import { LINK_QUANTITIES } from '../plant/kinds';
 import { ByteHasher, hashOf } from './hash';
 import { cachedConverter, mapUnitHour, unitParameters, type InputEntry, type MappedUnit } from './map';
 import type { EngineLink, EngineReason, EngineHourState, EngineUnit, TagHour, UnitHourInput, UnitHourResult } from './types';
 
 /** Bumped whenever the engine's method changes, so that every stored hour is recomputed once. */
-export const ENGINE_VERSION = 'lossline-engine-1';
+export const ENGINE_VERSION = 'lossline-engine-2';
 
 /** First-law closure tolerance [-] of the energy throughput. Common practice (docs/domain.md s.6). */
 export const ENERGY_CLOSURE_TOLERANCE = 0.05;
@@ -136,7 +137,8 @@ function linkSetByKey(input: UnitHourInput): LinkSet {
     for (const l of input.links) {
       if (linkOfTag.has(l.tagName)) continue;
       linkOfTag.set(l.tagName, l);
-      spread[l.tagName] = l.quantity === 'o2Fraction' ? { maxStd: SPREAD_O2_ABS } : l.quantity === 'vapourFraction' ? { maxStd: SPREAD_X_ABS } : { maxRelSpread: relLimit };
+      const own: SpreadLimit = l.quantity === 'o2Fraction' ? { maxStd: SPREAD_O2_ABS } : l.quantity === 'vapourFraction' ? { maxStd: SPREAD_X_ABS } : { maxRelSpread: relLimit };
+      spread[l.tagName] = { ...own, instrument: instrumentOf(l, site.p_atm_Pa) };
     }
     const linksUsed = [...linkOfTag.values()];
     v = { modelVersion, usedTags: [...used].sort(), linksUsed, keyTags: [...linksUsed.map((l) => l.tagName), LOAD_KEY], spread, relLimit, linkOfTag };
@@ -209,6 +211,19 @@ function statsSI(link: EngineLink, th: TagHour | undefined, p_atm_Pa: number): T
     outOfRangeCount: th.outOfRange + linkRange,
     nonNumericCount: th.nonNumeric,
   };
+}
+
+/** A link's instrument in SI for the spread rule: its standard uncertainty and its span (validMax - validMin). */
+function instrumentOf(link: EngineLink, p_atm_Pa: number): InstrumentResolution | undefined {
+  let factor: number;
+  try {
+    factor = Math.abs(cachedConverter(link.engUnit, LINK_QUANTITIES[link.quantity].quantity, p_atm_Pa).factor);
+  } catch {
+    return undefined; // the mapping reports the conversion problem
+  }
+  if (!(link.uncertainty >= 0)) return undefined;
+  const span = link.validMin !== null && link.validMax !== null && link.validMax > link.validMin ? (link.validMax - link.validMin) * factor : null;
+  return link.uncertaintyMode === 'relative' ? { uRel: link.uncertainty / 100, span } : { uAbs: link.uncertainty * factor, span };
 }
 
 function num(v: unknown, fallback: number): number {

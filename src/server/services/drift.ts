@@ -16,7 +16,7 @@ import { z } from 'zod';
 import { CheckDriftPayload, QUEUES } from '../../jobs';
 import { predict, type BaselineModel } from '../../lib/analytics/baseline';
 import { ar1Innovation, type Ar1Model } from '../../lib/analytics/autocorrelation';
-import { cusumInit, cusumStep, type CusumState, type DriftSignal } from '../../lib/analytics/drift';
+import { DRIFT_CHECK_DEFAULTS, cusumInit, cusumStep, type CusumState, type DriftSignal } from '../../lib/analytics/drift';
 import { baselines, driftPoints, driftSettings, plantUnits, unitHours } from '../db/schema';
 import { queue } from '../queue';
 import { db } from '../db/client';
@@ -32,7 +32,7 @@ const HOUR_ms = 3_600_000;
  * average run length is about 9,500 steady hours (Brook & Evans Markov chain; at least 8,760: at most
  * one chance notice per unit per year). `npm run bench:drift` prints what these give.
  */
-export const DRIFT_DEFAULTS = { k: 0.5, h: 8 } as const;
+export const DRIFT_DEFAULTS = { k: DRIFT_CHECK_DEFAULTS.k, h: DRIFT_CHECK_DEFAULTS.h } as const;
 
 export const DriftSettingsInput = z.strictObject({
   /** Reference value k in spreads of the CUSUM input (the standardised innovations) [-]. */
@@ -104,9 +104,10 @@ interface PendingPoint {
 
 /**
  * A shift must have lasted this many steady hours before its crossing of h opens a notice, so one
- * outlying hour (a bad reading, a trip) does not; common practice, not from a standard.
+ * outlying hour (a bad reading, a trip) does not; common practice, not from a standard. With h = 8 a
+ * single hour rarely crosses on its own; the rule costs nothing on sustained shifts (bench:drift).
  */
-export const SUSTAINED_HOURS = 3;
+export const SUSTAINED_HOURS = DRIFT_CHECK_DEFAULTS.sustainedHours;
 
 /** One unit: resume from the last row before the first affected hour and run to the last hour. */
 export async function checkUnit(unitId: string, fromMs: number): Promise<UnitCheck> {
