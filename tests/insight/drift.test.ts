@@ -3,7 +3,7 @@ import { and, asc, eq, sql } from 'drizzle-orm';
 import { beforeAll, expect, it } from 'vitest';
 import { QUEUES, SendMailPayload } from '../../src/jobs';
 import { db } from '../../src/server/db/client';
-import { driftNotices, driftPoints, noticeMails, unitHours, user } from '../../src/server/db/schema';
+import { baselines, driftNotices, driftPoints, noticeMails, unitHours, user } from '../../src/server/db/schema';
 import { sendMail } from '../../src/server/mail';
 import { queue } from '../../src/server/queue';
 import { acceptBaseline, fitDraft } from '../../src/server/services/baselines';
@@ -133,7 +133,14 @@ describeIntegration('drift check: CUSUM on residuals through the service, saved 
 
   it('streams from the saved state hour by hour, opens one notice on the hand-worked signal, and re-runs change nothing', async () => {
     const u = await makeUnit('stream');
-    expect(await driftSettingsFor(u.unitId)).toMatchObject({ k: 0.5, h: 5, isDefault: true });
+    // The product defaults (k = 0.5, h = 8, docs/domain.md section 7); this hand-worked case is set to h = 5.
+    expect(await driftSettingsFor(u.unitId)).toMatchObject({ k: 0.5, h: 8, isDefault: true });
+    const [setter] = await db().select().from(user).where(eq(user.email, 'lead@demo.lossline.test'));
+    await setDriftSettings(u.unitId, { k: 0.5, h: 5 }, setter!.id);
+    // 24 reference hours give 23 consecutive pairs, too few for an AR(1) fit: phi = 0, so x = r exactly.
+    const [bl] = await db().select({ model: baselines.destructionModel }).from(baselines).where(and(eq(baselines.unitId, u.unitId), eq(baselines.status, 'active')));
+    expect(bl!.model.stats).toMatchObject({ phi: 0, ar1Pairs: 23 });
+    expect(bl!.model.stats.sInnovation).toBe(bl!.model.stats.s);
 
     // Hours 1-6 first: no signal yet, C+ = 3.0 after step 6.
     await addHours(u.unitId, 1, R.slice(0, 6));
@@ -267,4 +274,54 @@ describeIntegration('drift check: CUSUM on residuals through the service, saved 
     const p = await points(u.unitId);
     expect(p.map((x) => Number(x.cPlus.toFixed(9)))).toEqual([0, 0.05, 0, 0, 1.75, 3.5]);
   });
+
+  it('pre-whitening: a baseline with enough consecutive hours keeps its AR(1), and the CUSUM input is the standardised innovation', async () => {
+    // 72 reference hours, destruction 100 kW + 5 kW/MW x with an invented residual of period 6
+    // (+2, +2, +2, -2, -2, -2 kW): its lag-one autocorrelation is positive.
+    const site = await createSite({ name: `Drift site ar1 ${randomUUID().slice(0, 8)}`, timeZone: 'UTC', T0_K: 298.15, p0_Pa: 101325, currency: 'EUR', prices: [] });
+    const unit = await createUnit(site.id, { name: `Pump ${randomUUID().slice(0, 6)}`, kind: 'pump' });
+    const ref = Array.from({ length: 72 }, (_, i) => ({
+      unitId: unit.id,
+      hourStart: new Date(t0 + i * HOUR),
+      state: 'steady' as const,
+      load: 1 + (i % 24),
+      T0_K: 293.15,
+      destruction_W: 100_000 + 5000 * (1 + (i % 24)) + (i % 6 < 3 ? 2000 : -2000),
+      modelVersion: 'test',
+      inputsHash: `a${i}`,
+    }));
+    await db().insert(unitHours).values(ref);
+    const [lead] = await db().select().from(user).where(eq(user.email, 'lead@demo.lossline.test'));
+    const draft = await fitDraft(unit.id, { periodFrom: new Date(t0), periodTo: new Date(t0 + 72 * HOUR), terms: ['load'] }, lead!.id);
+    await acceptBaseline(draft.id, lead!.id);
+    const [bl] = await db().select({ model: baselines.destructionModel }).from(baselines).where(eq(baselines.id, draft.id));
+    const st = bl!.model.stats;
+    expect(st.ar1Pairs).toBe(71);
+    expect(st.phi!).toBeGreaterThan(0.2);
+    // Post-period steady hours two hours apart (an unsettled hour between each, as addHours writes them).
+    const start = t0 + 72 * HOUR;
+    const rs = [1, -0.5, 2, 2, 0.3];
+    const post = rs.flatMap((r, j) => [
+      { unitId: unit.id, hourStart: new Date(start + 2 * j * HOUR), state: 'steady' as const, load: 12, T0_K: 291, destruction_W: predictAt(bl!.model, 12) + r * st.s, modelVersion: 'test', inputsHash: `b${j}` },
+      { unitId: unit.id, hourStart: new Date(start + (2 * j + 1) * HOUR), state: 'unsettled' as const, load: 12, T0_K: 291, destruction_W: 5e6, modelVersion: 'test', inputsHash: `c${j}` },
+    ]);
+    await db().insert(unitHours).values(post);
+    await checkDrift({ siteId: site.id, fromMs: start, toMs: start + 10 * HOUR });
+    const p = await points(unit.id);
+    expect(p).toHaveLength(5);
+    // By hand: the first hour has no previous one (stationary spread sigma_e / sqrt(1 - phi^2)); the others
+    // are two hours after the previous steady one: prediction phi^2 r_prev, spread sigma_e sqrt((1 - phi^4) / (1 - phi^2)).
+    const phi = st.phi!;
+    const se = st.sInnovation!;
+    const res = p.map((x) => x.residual_W);
+    rs.forEach((r, j) => expectClose(res[j]!, r * st.s, { rtol: 1e-6, atol: 1e-6 }));
+    expectClose(p[0]!.x, res[0]! / (se / Math.sqrt(1 - phi * phi)), { rtol: 1e-9 });
+    for (let j = 1; j < 5; j++) {
+      expectClose(p[j]!.x, (res[j]! - phi * phi * res[j - 1]!) / (se * Math.sqrt((1 - phi ** 4) / (1 - phi * phi))), { rtol: 1e-9, label: `hour ${j}` });
+    }
+  });
 });
+
+function predictAt(model: { coefficients: { intercept: number; load?: number } }, load: number): number {
+  return model.coefficients.intercept + (model.coefficients.load ?? 0) * load;
+}

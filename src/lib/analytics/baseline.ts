@@ -299,7 +299,9 @@ export function fitBaseline(data: BaselineData, options: FitOptions = {}): Basel
       data.hourStartMs,
     );
     stats.phi = ar.phi;
-    stats.sInnovation = ar.sInnovation;
+    // With phi = 0 (too few consecutive hours) the innovations are the residuals: keep the
+    // regression's own spread (n - p degrees of freedom), so the drift check sees residual / s.
+    stats.sInnovation = ar.phi === 0 ? stats.s : ar.sInnovation;
     stats.ar1Pairs = ar.pairs;
   }
   return {
