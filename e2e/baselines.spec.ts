@@ -84,8 +84,8 @@ test('an energy lead builds a baseline from a reference period, reads it against
   await expect(row).toContainText('2025-04-01 to 2025-04-02');
   await row.getByRole('link', { name: 'active v1' }).click();
   await expect(page.getByRole('heading', { level: 1 })).toContainText('Baseline v1 (2025-04-01 to 2025-04-02)');
-  await expect(page.getByLabel('k [s]')).toHaveValue('0.5');
-  await expect(page.getByLabel('h [s]')).toHaveValue('5');
+  await expect(page.getByLabel('Allowance k [σ]')).toHaveValue('0.5');
+  await expect(page.getByLabel('Decision limit h [σ]')).toHaveValue('8');
   expect(errors).toEqual([]);
   await page.close();
 

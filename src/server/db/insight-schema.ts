@@ -47,7 +47,7 @@ export const baselines = pgTable(
   ],
 );
 
-/** Per-unit CUSUM settings (docs/domain.md section 7: k = 0.5, h = 5 by default); energy leads edit. */
+/** Per-unit CUSUM settings (docs/domain.md section 7: k = 0.5, h = 8 by default); energy leads edit. */
 export const driftSettings = pgTable('drift_settings', {
   unitId: uuid('unit_id')
     .primaryKey()
@@ -79,7 +79,7 @@ export const driftPoints = pgTable(
     destruction_W: doublePrecision('destruction_w').notNull(),
     expected_W: doublePrecision('expected_w').notNull(),
     residual_W: doublePrecision('residual_w').notNull(),
-    /** Residual normalised by the baseline's residual spread s [-]. */
+    /** The CUSUM input: the residual's standardised AR(1) innovation (residual / s for a baseline without phi) [-]. */
     x: doublePrecision('x').notNull(),
     /** CUSUM sums after this hour (before the restart that follows a signal) [-]. */
     cPlus: doublePrecision('c_plus').notNull(),

@@ -51,8 +51,10 @@ export default function DriftSettingsForm({ unitId, canEdit }: { unitId: string;
     <section className="card" aria-label="Drift settings">
       <h2 className="mb-1">Drift check</h2>
       <p className="mb-3 text-sm text-ink-soft">
-        Tabular CUSUM (Page, 1954) on each steady hour’s destruction residual divided by the baseline’s residual spread s. A notice opens when the
-        cumulative sum passes h; shifts smaller than k are absorbed. Defaults k = 0.5, h = 5 (docs/domain.md section 7).
+        Tabular CUSUM (Page, 1954) on each steady hour’s destruction residual, first freed of what the previous hours’ residuals predict (the
+        serial correlation fitted on the baseline’s reference period) and divided by the spread σ of what remains. A notice opens when the
+        cumulative sum passes the decision limit h and the shift has lasted 3 steady hours; shifts smaller than the allowance k are absorbed.
+        Defaults k = 0.5 σ, h = 8 σ: about one chance notice per unit in 9,500 steady hours (docs/domain.md section 7).
       </p>
       {settings === null && !message ? (
         <p className="text-sm text-ink-faint">Loading…</p>
@@ -60,13 +62,13 @@ export default function DriftSettingsForm({ unitId, canEdit }: { unitId: string;
         <form className="flex flex-wrap items-end gap-3" onSubmit={save}>
           <div>
             <label className="label" htmlFor={`k-${unitId}`}>
-              k [s]
+              Allowance k [σ]
             </label>
             <input id={`k-${unitId}`} className="field w-24 text-right" inputMode="decimal" value={k} onChange={(e) => setK(e.target.value)} disabled={!canEdit} />
           </div>
           <div>
             <label className="label" htmlFor={`h-${unitId}`}>
-              h [s]
+              Decision limit h [σ]
             </label>
             <input id={`h-${unitId}`} className="field w-24 text-right" inputMode="decimal" value={h} onChange={(e) => setH(e.target.value)} disabled={!canEdit} />
           </div>

@@ -3,7 +3,7 @@ import { answer } from '../../../../server/http';
 import { DriftSettingsInput, driftSettingsFor, setDriftSettings } from '../../../../server/services/drift';
 import { parseBody } from '../../../../server/services/plant-http';
 
-/** The unit's CUSUM k and h (in units of the baseline's residual spread). */
+/** The unit's CUSUM k and h (in spreads of the CUSUM input, the standardised innovations of the residuals). */
 export const GET: APIRoute = async ({ params }) => answer(async () => Response.json({ settings: await driftSettingsFor(params.unitId!) }));
 
 /** New k and h: the unit's drift state is recomputed from its first hour after the baseline. */
