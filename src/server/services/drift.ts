@@ -173,7 +173,8 @@ export async function checkUnit(unitId: string, fromMs: number): Promise<UnitChe
       const expected_W = predict(model, h.load!, h.T0_K!);
       const residual_W = h.destruction_W! - expected_W;
       // The standardised one-step innovation; after a gap of g hours the g-step prediction (autocorrelation.ts).
-      const x = ar1Innovation(residual_W, last ? { r: last.r, hoursBack: (h.hourStart.getTime() - last.ms) / HOUR_ms } : null, ar1);
+      // A baseline without spread (a perfect fit) gives no CUSUM input: the hour is counted as skipped, as before.
+      const x = ar1.sInnovation > 0 ? ar1Innovation(residual_W, last ? { r: last.r, hoursBack: (h.hourStart.getTime() - last.ms) / HOUR_ms } : null, ar1) : NaN;
       last = { r: residual_W, ms: h.hourStart.getTime() };
       const r = cusumStep(state, x, options);
       state = r.state;
