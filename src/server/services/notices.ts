@@ -260,7 +260,7 @@ export async function noticeDetail(noticeId: string) {
     .limit(1000);
   return {
     notice,
-    caution: NOTICE_CAUTION,
+    caution: notice.kind === 'drift' ? NOTICE_CAUTION : NOTICE_CAUTION.replace('this drift notice', 'this notice'),
     series: rows.map((r) => ({ hourStart: r.hourStart.toISOString(), residual_W: r.residual_W, x: r.x, cPlus: r.cPlus, cMinus: r.cMinus })),
   };
 }
