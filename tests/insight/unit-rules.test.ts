@@ -11,7 +11,7 @@ import { db } from '../../src/server/db/client';
 import { driftNotices, noticeMails, unitHours, user } from '../../src/server/db/schema';
 import { sendMail } from '../../src/server/mail';
 import { queue } from '../../src/server/queue';
-import { closeNotice, getNotice, listNotices } from '../../src/server/services/notices';
+import { closeNotice, getNotice, listNotices, noticeDetail } from '../../src/server/services/notices';
 import { createSite, createUnit, updateUnit } from '../../src/server/services/plant';
 import { checkUnitRules, setUnitLimits, unitLimitsFor } from '../../src/server/services/unit-rules';
 import { expectClose } from '../support/expect-close';
@@ -105,6 +105,11 @@ describeIntegration('unit rules: a unit that should be idle, a limit', () => {
     expect(mail.text).toContain('not an alarm');
     expect(mail.text).toContain("site's procedures, local codes and the judgement of licensed engineers");
     expect(mail.text).toContain('stays open until a person closes it');
+
+    // its page shows the caution, speaking of this notice
+    const detail = await noticeDetail(n.id);
+    expect(detail.caution).toContain('this notice is not an alarm');
+    expect(detail.caution).toContain("site's procedures, local codes and the judgement of licensed engineers");
 
     // the list shows it beside drift notices
     expect((await listNotices({ unitId: p.prvId })).map((x) => x.kind)).toEqual(['idle']);
