@@ -274,13 +274,16 @@ export async function loadDemo(opts: LoadOptions = {}): Promise<LoadReport> {
   // <<< baselines and drift hook
 
   const notices = await db()
-    .select({ id: driftNotices.id, unit: plantUnits.name, direction: driftNotices.direction, onset: driftNotices.onsetHour, extra: driftNotices.extra_W })
+    .select({ id: driftNotices.id, kind: driftNotices.kind, unit: plantUnits.name, direction: driftNotices.direction, onset: driftNotices.onsetHour, extra: driftNotices.extra_W })
     .from(driftNotices)
     .innerJoin(plantUnits, eq(plantUnits.id, driftNotices.unitId))
     .where(eq(plantUnits.siteId, siteId))
     .orderBy(driftNotices.onsetHour);
   report.notices = notices.length;
-  for (const n of notices) log(`drift notice: ${n.unit} ${n.direction} from ${siteTimeText(n.onset.getTime()).slice(0, 16)}, ${(n.extra / 1000).toFixed(1)} kW extra destruction`);
+  for (const n of notices) {
+    if (n.kind === 'drift') log(`drift notice: ${n.unit} ${n.direction} from ${siteTimeText(n.onset.getTime()).slice(0, 16)}, ${(n.extra / 1000).toFixed(1)} kW extra destruction`);
+    else log(`notice (${n.kind === 'idle' ? 'running while idle' : 'limit crossed'}): ${n.unit} from ${siteTimeText(n.onset.getTime()).slice(0, 16)}, ${(n.extra / 1000).toFixed(1)} kW destroyed`);
+  }
   if (notices.length) {
     const [{ nm }] = (await db().select({ nm: count() }).from(noticeMails).where(inArray(noticeMails.noticeId, notices.map((n) => n.id)))) as [{ nm: number }];
     report.noticeMails = nm;

@@ -196,6 +196,8 @@ function units(): UnitModel[] {
       kind: 'let-down-valve',
       description: 'Let-down valve beside TG1, HP header (40 bar(g)) to LP header (4 bar(g)); shut while TG1 can take the LP demand',
       parameters: { minLoad_kg_per_s: 0.5 / 3.6 },
+      // shut in normal operation while TG1 runs; it carries the LP demand only while TG1 is stopped (docs/demo.md)
+      normallyIdle: { when: 'always', whileRunning: ['TG1'] },
       ports: [
         { name: 'HP side', slot: 'inlet', fluid: water },
         { name: 'LP side', slot: 'outlet', fluid: water },

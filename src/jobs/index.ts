@@ -9,6 +9,8 @@ export const QUEUES = {
   computeUnitHours: 'compute-unit-hours',
   checkDrift: 'check-drift',
   sendMail: 'send-mail',
+  /** Idle and limit rules of units over an hour range (also run by every drift check); sent when a rule changes. */
+  checkUnitRules: 'check-unit-rules',
   /** Scheduled daily: one digest of drift notices not yet closed to each person who opted in. */
   noticeDigest: 'notice-digest',
 } as const;
@@ -29,6 +31,8 @@ export const CheckDriftPayload = z.object({
   toMs: z.number().int(),
   unitIds: z.array(z.string().uuid()).optional(),
 });
+/** Same shape as the drift check's: the hours [fromMs, toMs) of a site, or of the listed units. */
+export const CheckUnitRulesPayload = CheckDriftPayload;
 /** The scheduled digest run; `day` (yyyy-MM-dd, UTC) only when sent by hand. */
 export const NoticeDigestPayload = z.object({ day: z.string().regex(/^\d{4}-\d{2}-\d{2}$/).optional() });
 export const SendMailPayload = z.object({

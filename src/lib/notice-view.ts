@@ -3,6 +3,8 @@
  * and the islands that draw it (src/components/insight/notices). Types only.
  */
 export type NoticeStatus = 'open' | 'acknowledged' | 'closed';
+/** 'drift': a CUSUM signal; 'idle': a unit declared normally idle ran; 'limit': a unit crossed a limit set for it. */
+export type NoticeKind = 'drift' | 'idle' | 'limit';
 
 export interface NoticeView {
   id: string;
@@ -15,6 +17,19 @@ export interface NoticeView {
   baselineId: string | null;
   baselineLabel: string | null;
   direction: 'up' | 'down';
+  kind: NoticeKind;
+  /** The kind in the product's words ("drift", "running while idle", "limit crossed"). */
+  kindWord: string;
+  /**
+   * Idle and limit notices: the rule in words, the consecutive hours that open a notice, the limits
+   * crossed ('cost', 'efficiency') and the mean exergy efficiency of the latest run. For these kinds
+   * extra_W is the latest run's mean destruction, extraCost_per_day its cost per day and hours its
+   * length; expected_W, shift_sigma, k and h are 0. Null for drift notices.
+   */
+  ruleText: string | null;
+  ruleHours: number | null;
+  ruleCrossed: string[] | null;
+  meanEfficiency: number | null;
   status: NoticeStatus;
   statusWord: string;
   onsetHour: string;

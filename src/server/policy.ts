@@ -58,6 +58,7 @@ export const API_POLICY: Record<string, RoutePolicy> = {
   '/api/baselines/[baselineId]/accept': { methods: { POST: LEADS } },
   '/api/baselines/[baselineId]/discard': { methods: { POST: LEADS } },
   '/api/units/[unitId]/drift-settings': { methods: { GET: ANY_ROLE, PUT: LEADS } },
+  '/api/units/[unitId]/limits': { methods: { GET: ANY_ROLE, PUT: LEADS } },
   '/api/notices': { methods: { GET: ANY_ROLE } },
   '/api/notices/preferences': { methods: { GET: ['admin', 'energy-lead', 'planner'], PUT: ['admin', 'energy-lead', 'planner'] } },
   '/api/notices/[noticeId]': { methods: { GET: ANY_ROLE } },

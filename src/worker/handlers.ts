@@ -1,5 +1,6 @@
 import type PgBoss from 'pg-boss';
-import { CheckDriftPayload, IngestFilePayload, NoticeDigestPayload, QUEUES } from '../jobs';
+import { CheckDriftPayload, CheckUnitRulesPayload, IngestFilePayload, NoticeDigestPayload, QUEUES } from '../jobs';
+import { checkUnitRules } from '../server/services/unit-rules';
 import { checkDrift } from '../server/services/drift';
 import { handleComputeUnitHours } from '../server/services/engine';
 import { sendNoticeDigests } from '../server/services/notices';
@@ -22,10 +23,19 @@ export async function registerHandlers(boss: PgBoss): Promise<void> {
     const out = await checkDrift(CheckDriftPayload.parse(job!.data));
     const opened = out.flatMap((u) => u.opened);
     if (opened.length) console.log(`[worker] check-drift: ${opened.length} notice(s) opened`);
+    await runUnitRules(job!.data);
   });
+  // --- idle and limit rules of units: after every drift check, and on their own when a rule changes ---
+  await boss.work(QUEUES.checkUnitRules, { pollingIntervalSeconds: 1, batchSize: 1 }, async ([job]) => runUnitRules(job!.data));
   await boss.work(QUEUES.noticeDigest, { pollingIntervalSeconds: 5, batchSize: 1 }, async ([job]) => {
     const { day } = NoticeDigestPayload.parse(job!.data ?? {});
     await sendNoticeDigests(day ? new Date(`${day}T12:00:00Z`) : new Date());
   });
   await boss.schedule(QUEUES.noticeDigest, '0 6 * * *', {}, { tz: 'UTC' });
+}
+
+async function runUnitRules(data: unknown): Promise<void> {
+  const out = await checkUnitRules(CheckUnitRulesPayload.parse(data));
+  const opened = out.flatMap((u) => u.opened);
+  if (opened.length) console.log(`[worker] unit rules: ${opened.length} notice(s) opened`);
 }

@@ -11,6 +11,7 @@ import { z } from 'zod';
 import { SPECIES_NAMES } from '../thermo/gas';
 import { canConvert } from '../units/convert';
 import { ELEVATION_MAX_m, ELEVATION_MIN_m } from './atmosphere';
+import { NormallyIdleSchema } from './idle';
 import {
   LINK_QUANTITIES,
   LINK_QUANTITY_NAMES,
@@ -156,6 +157,8 @@ export const UnitModelSchema = z.strictObject({
   fuel: FuelDefinitionSchema.optional(),
   ports: z.array(PortModelSchema).default([]),
   links: z.array(LinkModelSchema).default([]),
+  /** Declared normally idle (src/lib/plant/idle.ts); left out: not idle (files before this field). */
+  normallyIdle: NormallyIdleSchema.optional(),
 });
 export type UnitModel = z.infer<typeof UnitModelSchema>;
 
@@ -379,6 +382,16 @@ export function checkUnit(unit: UnitModel, at: readonly PropertyKey[], ctx: { bo
   return out;
 }
 
+/** Problems of a normally-idle declaration: the units it names must be other units of the site. */
+export function checkNormallyIdle(unit: Pick<UnitModel, 'name' | 'normallyIdle'>, unitNames: ReadonlySet<string>, at: readonly PropertyKey[]): ModelIssue[] {
+  const out: ModelIssue[] = [];
+  unit.normallyIdle?.whileRunning?.forEach((n, j) => {
+    if (n === unit.name) out.push({ path: jsonPath([...at, 'whileRunning', j]), message: 'A unit cannot be idle only while it runs itself; name another unit.' });
+    else if (!unitNames.has(n)) out.push({ path: jsonPath([...at, 'whileRunning', j]), message: `No unit named '${n}' at this site.` });
+  });
+  return out;
+}
+
 export type ModelCheck = { ok: true; model: PlantModel; issues: [] } | { ok: false; issues: ModelIssue[] };
 
 /**
@@ -415,6 +428,8 @@ export function checkModel(input: unknown): ModelCheck {
     names.add(unit.name);
     issues.push(...checkUnit(unit, ['units', i], { boilers, priceNames }));
   });
+  const allNames = new Set(model.units.map((u) => u.name));
+  model.units.forEach((unit, i) => issues.push(...checkNormallyIdle(unit, allNames, ['units', i, 'normallyIdle'])));
   return issues.length ? { ok: false, issues } : { ok: true, model, issues: [] };
 }
 

@@ -95,6 +95,9 @@ export const driftPoints = pgTable(
   (t) => [primaryKey({ columns: [t.unitId, t.hourStart] }), index('drift_points_step').on(t.unitId, t.step)],
 );
 
+export const NOTICE_KINDS = ['drift', 'idle', 'limit'] as const;
+export type NoticeKind = (typeof NOTICE_KINDS)[number];
+
 export const NOTICE_STATUSES = ['open', 'acknowledged', 'closed'] as const;
 export type NoticeStatus = (typeof NOTICE_STATUSES)[number];
 
@@ -115,6 +118,22 @@ export const driftNotices = pgTable(
       .notNull()
       .references(() => plantUnits.id, { onDelete: 'cascade' }),
     baselineId: uuid('baseline_id').references(() => baselines.id, { onDelete: 'set null' }),
+    /**
+     * 'drift' (a CUSUM signal), 'idle' (a unit declared normally idle runs) or 'limit' (a unit crossed a
+     * limit an energy lead set); the last two from src/server/services/unit-rules.ts. For those,
+     * extra_W is the run's mean destruction and extraCost_per_day its cost per day, expected_W,
+     * shift_sigma, k and h are 0, and direction is 'up'.
+     */
+    kind: text('kind').$type<NoticeKind>().notNull().default('drift'),
+    /** Idle and limit notices: the rule in words at opening ("normally idle always, while TG1 runs"). */
+    ruleText: text('rule_text'),
+    /** Idle and limit notices: the consecutive hours that open a notice [h]. */
+    ruleHours: integer('rule_hours'),
+    /** Limit notices: the limits crossed, 'cost' and/or 'efficiency', and the limits as set. */
+    ruleCrossed: jsonb('rule_crossed').$type<string[]>(),
+    ruleLimits: jsonb('rule_limits').$type<{ maxCost_per_day: number | null; minEfficiency: number | null }>(),
+    /** Idle and limit notices: mean exergy efficiency of the run's hours [-]. */
+    meanEfficiency: doublePrecision('mean_efficiency'),
     direction: text('direction').$type<'up' | 'down'>().notNull(),
     status: text('status').$type<NoticeStatus>().notNull().default('open'),
     onsetHour: timestamp('onset_hour', { withTimezone: true }).notNull(),
@@ -150,7 +169,7 @@ export const driftNotices = pgTable(
     closeComment: text('close_comment'),
   },
   (t) => [
-    uniqueIndex('drift_notices_one_open').on(t.unitId, t.direction).where(sql`status <> 'closed'`),
+    uniqueIndex('drift_notices_one_open').on(t.unitId, t.kind, t.direction).where(sql`status <> 'closed'`),
     index('drift_notices_status').on(t.status, t.openedAt),
   ],
 );

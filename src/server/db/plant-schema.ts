@@ -3,6 +3,7 @@ import { doublePrecision, index, integer, jsonb, pgTable, text, timestamp, uniqu
 import type { EnergyPrice, FuelDefinition, Fluid } from '../../lib/plant/model';
 import type { LinkQuantity, ParamValue, PortRole, PortStream, UnitKind } from '../../lib/plant/kinds';
 import type { UncertaintyMode } from '../../lib/plant/uncertainty';
+import type { NormallyIdle } from '../../lib/plant/idle';
 import { user } from './auth-schema';
 import { tags } from './ingest-schema';
 
@@ -43,6 +44,8 @@ export const plantUnits = pgTable(
     parameters: jsonb('parameters').$type<Record<string, ParamValue>>().notNull().default(sql`'{}'::jsonb`),
     /** Boilers: the fuel definition. */
     fuel: jsonb('fuel').$type<FuelDefinition>(),
+    /** Declared normally idle (src/lib/plant/idle.ts); null: not idle. */
+    normallyIdle: jsonb('normally_idle').$type<NormallyIdle>(),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
   },

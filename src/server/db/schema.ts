@@ -8,6 +8,7 @@ export * from './plant-schema';
 export * from './ingest-schema';
 export * from './results-schema';
 export * from './insight-schema';
+export * from './unit-rules-schema';
 
 /** Invitations sent by admins; the link itself is a better-auth password-reset token. */
 export const invitations = pgTable(

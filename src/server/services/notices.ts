@@ -20,6 +20,7 @@ import { escapeHtml } from '../mail';
 import { queue } from '../queue';
 import { InsightError, isUuid } from './baselines';
 import { inInsightTx, type Exec, type Tx } from './drift-tx';
+import { ruleFigureLines, ruleNoticeMail, ruleViewFields } from './unit-rule-words';
 
 /** docs/domain.md section 8, shown on every notice page and in every notice mail. */
 export const NOTICE_CAUTION =
@@ -103,7 +104,7 @@ export async function openOrAbsorbSignal(tx: Tx, exec: Exec, f: SignalFigures): 
   const [open] = await tx
     .select({ id: driftNotices.id, lastSignalHour: driftNotices.lastSignalHour })
     .from(driftNotices)
-    .where(and(eq(driftNotices.unitId, f.unitId), eq(driftNotices.direction, f.direction), ne(driftNotices.status, 'closed')));
+    .where(and(eq(driftNotices.unitId, f.unitId), eq(driftNotices.kind, 'drift'), eq(driftNotices.direction, f.direction), ne(driftNotices.status, 'closed')));
   if (open) {
     if (f.signalHour > open.lastSignalHour) await tx.update(driftNotices).set({ lastSignalHour: f.signalHour }).where(eq(driftNotices.id, open.id));
     return null;
@@ -111,7 +112,7 @@ export async function openOrAbsorbSignal(tx: Tx, exec: Exec, f: SignalFigures): 
   const [reported] = await tx
     .select({ id: driftNotices.id })
     .from(driftNotices)
-    .where(and(eq(driftNotices.unitId, f.unitId), eq(driftNotices.direction, f.direction), gte(driftNotices.lastSignalHour, f.onsetHour)))
+    .where(and(eq(driftNotices.unitId, f.unitId), eq(driftNotices.kind, 'drift'), eq(driftNotices.direction, f.direction), gte(driftNotices.lastSignalHour, f.onsetHour)))
     .limit(1);
   if (reported) return null;
   const [unit] = await tx.select({ siteId: plantUnits.siteId }).from(plantUnits).where(eq(plantUnits.id, f.unitId));
@@ -180,6 +181,7 @@ function toView(r: NoticeRow): NoticeView {
         ? `Baseline v${r.baselineVersion} (${localDay(r.baselinePeriodFrom, r.timeZone)} to ${localDay(new Date(r.baselinePeriodTo.getTime() - 1), r.timeZone)})`
         : null,
     direction: n.direction,
+    ...ruleViewFields(n),
     status: n.status,
     statusWord: NOTICE_STATUS_WORDS[n.status],
     onsetHour: n.onsetHour.toISOString(),
@@ -258,7 +260,7 @@ export async function noticeDetail(noticeId: string) {
     .limit(1000);
   return {
     notice,
-    caution: NOTICE_CAUTION,
+    caution: notice.kind === 'drift' ? NOTICE_CAUTION : NOTICE_CAUTION.replace('this drift notice', 'this notice'),
     series: rows.map((r) => ({ hourStart: r.hourStart.toISOString(), residual_W: r.residual_W, x: r.x, cPlus: r.cPlus, cMinus: r.cMinus })),
   };
 }
@@ -303,6 +305,7 @@ const when = (iso: string, tz: string) => `${format(new TZDate(new Date(iso).get
 
 /** The lines of figures a notice states, shared by its mail and its digest entry. */
 export function noticeFigureLines(n: NoticeView): string[] {
+  if (n.kind !== 'drift') return ruleFigureLines(n);
   const lines = [
     `Extra destruction: ${n.extra_W >= 0 ? '+' : '-'}${kW(Math.abs(n.extra_W))} against the expected ${kW(n.expected_W)} (mean of ${n.hours} steady hours)`,
     n.extraCost_per_day === null
@@ -319,6 +322,7 @@ export function noticeFigureLines(n: NoticeView): string[] {
 }
 
 export function noticeMail(n: NoticeView, to: string) {
+  if (n.kind !== 'drift') return ruleNoticeMail(n, to, NOTICE_CAUTION);
   const more = n.direction === 'up' ? 'more' : 'less';
   const subject = `Drift notice: ${n.unitName} at ${n.siteName} destroys ${kW(Math.abs(n.extra_W))} ${more} exergy than expected`;
   const lines = noticeFigureLines(n);

@@ -20,6 +20,7 @@ import { db } from '../db/client';
 import { plantPorts, plantUnits, sites, tagLinks, tags } from '../db/schema';
 import { dataSpan, ensureTag, getSite, resolveAtmosphere, siteModel } from './plant';
 import { PlantRuleError, inTransaction, openEndMs, type RecomputeRequest, type Tx } from './plant-tx';
+import { queueUnitRuleCheck } from './unit-rules';
 
 /** The site's model file. */
 export async function exportModel(siteId: string): Promise<PlantModel> {
@@ -134,12 +135,12 @@ async function writeModel(tx: Tx, siteId: string, model: PlantModel, recompute: 
       id = prior.id;
       await tx
         .update(plantUnits)
-        .set({ description: unit.description ?? null, parameters: unit.parameters, fuel: unit.fuel ?? null, updatedAt: new Date() })
+        .set({ description: unit.description ?? null, parameters: unit.parameters, fuel: unit.fuel ?? null, normallyIdle: unit.normallyIdle ?? null, updatedAt: new Date() })
         .where(eq(plantUnits.id, id));
     } else {
       const [row] = await tx
         .insert(plantUnits)
-        .values({ siteId, name: unit.name, kind: unit.kind, description: unit.description ?? null, parameters: unit.parameters, fuel: unit.fuel ?? null })
+        .values({ siteId, name: unit.name, kind: unit.kind, description: unit.description ?? null, parameters: unit.parameters, fuel: unit.fuel ?? null, normallyIdle: unit.normallyIdle ?? null })
         .returning({ id: plantUnits.id });
       id = row!.id;
     }
@@ -241,7 +242,7 @@ async function siteNameIssue(tx: Tx, name: string, exceptId: string | null): Pro
  */
 export async function importModel(siteId: string, input: unknown) {
   const model = parseOrThrow(input);
-  return inTransaction(async (tx, recompute) => {
+  const out = await inTransaction(async (tx, recompute) => {
     await getSite(siteId, tx);
     const nameIssues = await siteNameIssue(tx, model.site.name, siteId);
     if (nameIssues.length) invalid(nameIssues);
@@ -251,8 +252,13 @@ export async function importModel(siteId: string, input: unknown) {
       queued.push(r);
       await recompute(r);
     }, before);
-    return { siteId, units: model.units.length, recompute: queued };
+    const idleChanged = model.units.some((u) => canonicalJson(u.normallyIdle ?? null) !== canonicalJson(before.units.find((b) => b.name === u.name)?.normallyIdle ?? null));
+    return { siteId, units: model.units.length, recompute: queued, idleChanged };
   });
+  // a changed idle declaration is judged on the hours already computed (unit hours are not recomputed for it)
+  const { idleChanged, ...result } = out;
+  if (idleChanged) await queueUnitRuleCheck(siteId);
+  return result;
 }
 
 /** Creates a new site from a model file (all or nothing). */

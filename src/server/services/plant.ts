@@ -16,6 +16,7 @@ import {
   T0_MIN_K,
   checkParameter,
   checkPort,
+  checkNormallyIdle,
   checkUnit,
   isTimeZone,
   type LinkModel,
@@ -27,10 +28,12 @@ import {
 import { ELEVATION_MAX_m, ELEVATION_MIN_m, pressureAtElevation } from '../../lib/plant/atmosphere';
 import { UNIT_KINDS, defaultParameters, kindSpec, type ParamValue, type UnitKind } from '../../lib/plant/kinds';
 import { unitStatus, type UnitStatus } from '../../lib/plant/status';
+import { NormallyIdleSchema, tidyNormallyIdle, type NormallyIdle } from '../../lib/plant/idle';
 import { canConvert } from '../../lib/units/convert';
 import { db } from '../db/client';
 import { plantPorts, plantUnits, sites, tagLinks, tags } from '../db/schema';
 import { PlantRuleError, inTransaction, openEndMs, type Tx } from './plant-tx';
+import { queueUnitRuleCheck } from './unit-rules';
 
 type Reader = Tx | ReturnType<typeof db>;
 
@@ -179,6 +182,8 @@ export const UnitUpdateInput = z.strictObject({
   /** Values to set (SI); null resets a parameter to its default. */
   parameters: z.record(z.string(), z.union([z.number().finite(), z.string(), z.null()])).optional(),
   fuel: FuelDefinitionSchema.nullable().optional(),
+  /** Declared normally idle; null: not idle. */
+  normallyIdle: NormallyIdleSchema.nullable().optional(),
 });
 export const PortInput = z.strictObject({
   name: z.string().trim().min(1, 'Give the port a name.').max(120),
@@ -264,14 +269,21 @@ export async function updateUnit(siteId: string, unitId: string, input: z.infer<
       }
     }
     const fuel = input.fuel === undefined ? unit.fuel : input.fuel;
+    const normallyIdle: NormallyIdle | null = input.normallyIdle === undefined ? unit.normallyIdle : input.normallyIdle && tidyNormallyIdle(input.normallyIdle);
+    if (input.normallyIdle) {
+      const names = await tx.select({ name: plantUnits.name }).from(plantUnits).where(eq(plantUnits.siteId, siteId));
+      issues.push(...checkNormallyIdle({ name: input.name ?? unit.name, normallyIdle: input.normallyIdle }, new Set(names.map((n) => n.name)), ['normallyIdle']));
+    }
     if (input.fuel) issues.push(...checkUnit({ name: unit.name, kind: unit.kind, parameters: {}, fuel: input.fuel, ports: [], links: [] }, [], ctx));
     rejectIssues(issues, 'The change is not valid');
     const name = input.name ?? unit.name;
     await tx
       .update(plantUnits)
-      .set({ name, description: input.description === undefined ? unit.description : input.description, parameters, fuel, updatedAt: new Date() })
+      .set({ name, description: input.description === undefined ? unit.description : input.description, parameters, fuel, normallyIdle, updatedAt: new Date() })
       .where(eq(plantUnits.id, unitId));
     if (name !== unit.name && unit.kind === 'boiler') await renameFuelSource(tx, siteId, unit.name, name);
+    if (name !== unit.name) await renameIdleCondition(tx, siteId, unit.name, name);
+    if (input.normallyIdle !== undefined && JSON.stringify(normallyIdle) !== JSON.stringify(unit.normallyIdle)) await queueUnitRuleCheck(siteId, [unitId]);
     if (JSON.stringify(parameters) !== JSON.stringify(unit.parameters) || JSON.stringify(fuel) !== JSON.stringify(unit.fuel)) {
       const span = await dataSpan(tx, siteId);
       if (span) await recompute({ siteId, fromMs: span.fromMs, toMs: span.toMs, unitIds: [unitId] });
@@ -288,6 +300,21 @@ async function renameFuelSource(tx: Tx, siteId: string, from: string, to: string
     .innerJoin(plantUnits, eq(plantUnits.id, plantPorts.unitId))
     .where(and(eq(plantUnits.siteId, siteId), sql`${plantPorts.fluid}->>'fuelFrom' = ${from}`));
   for (const r of rows) await tx.update(plantPorts).set({ fluid: { kind: 'flue-gas', fuelFrom: to } }).where(eq(plantPorts.id, r.id));
+}
+
+/** Normally-idle declarations name the units they wait for; keep them pointing at a renamed unit. */
+async function renameIdleCondition(tx: Tx, siteId: string, from: string, to: string) {
+  const rows = await tx
+    .select({ id: plantUnits.id, normallyIdle: plantUnits.normallyIdle })
+    .from(plantUnits)
+    .where(and(eq(plantUnits.siteId, siteId), sql`${plantUnits.normallyIdle}->'whileRunning' ? ${from}`));
+  for (const r of rows) {
+    const d = r.normallyIdle!;
+    await tx
+      .update(plantUnits)
+      .set({ normallyIdle: { ...d, whileRunning: d.whileRunning!.map((n) => (n === from ? to : n)) } })
+      .where(eq(plantUnits.id, r.id));
+  }
 }
 
 export async function deleteUnit(siteId: string, unitId: string) {
@@ -483,6 +510,7 @@ export async function siteModel(r: Reader, siteId: string, links: 'all' | 'curre
       ...(u.description ? { description: u.description } : {}),
       parameters: sortedObject(u.parameters),
       ...(u.fuel ? { fuel: u.fuel } : {}),
+      ...(u.normallyIdle ? { normallyIdle: tidyNormallyIdle(u.normallyIdle) } : {}),
       ports: ports.map((p) => ({
         name: p.name,
         slot: p.slot,

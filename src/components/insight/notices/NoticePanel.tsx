@@ -4,6 +4,7 @@ import { StateMark } from '../../StateMark';
 import { Notice as Message, call, messageOf, type Message as Msg } from '../../plant/common';
 import { at, sig } from '../baselines/looks';
 import { NOTICE_LOOK, money, signedKW, type Notice, type SeriesPoint } from './looks';
+import RuleNoticeSummary from './RuleNoticeSummary';
 
 function Figure({ label, value, unit, testId }: { label: string; value: string; unit?: string; testId?: string }) {
   return (
@@ -74,6 +75,9 @@ export default function NoticePanel({ initial, series, caution, canAct }: { init
 
   return (
     <div className="space-y-6">
+      {n.kind !== 'drift' ? (
+        <RuleNoticeSummary notice={n} />
+      ) : (
       <section className="card space-y-4">
         <div className="flex flex-wrap items-baseline justify-between gap-2">
           <p className="text-sm text-ink-soft">
@@ -147,6 +151,7 @@ export default function NoticePanel({ initial, series, caution, canAct }: { init
         </p>
         <DriftChart notice={n} series={series} />
       </section>
+      )}
 
       <section className="card space-y-3" aria-label="What has been done">
         <h2>Record</h2>

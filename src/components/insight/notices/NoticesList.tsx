@@ -48,10 +48,11 @@ export default function NoticesList() {
             <thead>
               <tr>
                 <th>Status</th>
+                <th>Kind</th>
                 <th>Unit</th>
                 <th>Site</th>
                 <th>Since</th>
-                <th className="num">Extra destruction [kW]</th>
+                <th className="num">Extra destruction (drift) or destruction [kW]</th>
                 <th className="num">Cost per day</th>
                 <th>Beyond uncertainty</th>
               </tr>
@@ -64,6 +65,7 @@ export default function NoticesList() {
                     <td>
                       <StateMark shape={look.shape} className={look.className} label={look.label} />
                     </td>
+                    <td>{n.kindWord}</td>
                     <td>
                       <a href={`/notices/${n.id}`}>{n.unitName}</a>
                     </td>
@@ -71,9 +73,9 @@ export default function NoticesList() {
                     <td>
                       {at(n.onsetHour, n.timeZone)} <span className="text-xs text-ink-faint">{n.timeZone}</span>
                     </td>
-                    <td className="num text-copper-deep">{signedKW(n.extra_W)}</td>
+                    <td className="num text-copper-deep">{n.kind === 'drift' ? signedKW(n.extra_W) : (n.extra_W / 1000).toFixed(1)}</td>
                     <td className="num">{n.extraCost_per_day === null ? '–' : `${n.currency} ${money(n.extraCost_per_day)}`}</td>
-                    <td>{n.exceedsUncertainty === null ? 'not known' : n.exceedsUncertainty ? 'yes' : 'no'}</td>
+                    <td>{n.kind !== 'drift' ? '–' : n.exceedsUncertainty === null ? 'not known' : n.exceedsUncertainty ? 'yes' : 'no'}</td>
                   </tr>
                 );
               })}

@@ -1,0 +1,77 @@
+/**
+ * The words of idle and limit notices (src/server/services/unit-rules.ts) in the notice view, the
+ * opening mail and the digest. Kept apart from notices.ts, which calls into it for these kinds.
+ */
+import { TZDate } from '@date-fns/tz';
+import { format } from 'date-fns';
+import type { NoticeKind, NoticeView } from '../../lib/notice-view';
+import { escapeHtml } from '../mail';
+
+/** The kinds in the product's words. */
+export const NOTICE_KIND_WORDS: Record<NoticeKind, string> = { drift: 'drift', idle: 'running while idle', limit: 'limit crossed' };
+
+/** The rule fields of a stored notice row, for the view. */
+export function ruleViewFields(n: {
+  kind: NoticeKind;
+  ruleText: string | null;
+  ruleHours: number | null;
+  ruleCrossed: string[] | null;
+  meanEfficiency: number | null;
+}): Pick<NoticeView, 'kind' | 'kindWord' | 'ruleText' | 'ruleHours' | 'ruleCrossed' | 'meanEfficiency'> {
+  return {
+    kind: n.kind,
+    kindWord: NOTICE_KIND_WORDS[n.kind] ?? n.kind,
+    ruleText: n.ruleText,
+    ruleHours: n.ruleHours,
+    ruleCrossed: n.ruleCrossed,
+    meanEfficiency: n.meanEfficiency,
+  };
+}
+
+const kW = (W: number) => `${(W / 1000).toLocaleString('en-GB', { maximumFractionDigits: 1, minimumFractionDigits: 1 })} kW`;
+const money = (v: number, currency: string) => `${currency} ${v.toLocaleString('en-GB', { maximumFractionDigits: 0 })}`;
+const when = (iso: string, tz: string) => `${format(new TZDate(new Date(iso).getTime(), tz), 'yyyy-MM-dd HH:mm')} (${tz})`;
+
+/** One line saying why the notice opened. */
+export function ruleReason(n: NoticeView): string {
+  const hours = n.ruleHours ?? 3;
+  return n.kind === 'idle'
+    ? `Running while it should be idle (declared ${n.ruleText?.replace(/^normally idle /, '') ?? 'normally idle'}) for more than ${hours} hours in a row`
+    : `Crossed its limit (${n.ruleText ?? 'a limit set for the unit'}) for more than ${hours} hours in a row`;
+}
+
+/** The lines of figures an idle or limit notice states, in its mail, digest entry and page. */
+export function ruleFigureLines(n: NoticeView): string[] {
+  const lines = [
+    ruleReason(n),
+    `Exergy destruction: ${kW(n.extra_W)} (mean of the latest ${n.hours} hours of the rule broken)`,
+    n.extraCost_per_day === null ? 'Cost of destruction per day: not known (the hours carry no cost)' : `Cost of destruction per day: ${money(n.extraCost_per_day, n.currency)}`,
+  ];
+  if (n.kind === 'limit' && n.meanEfficiency !== null) lines.push(`Exergy efficiency: ${(n.meanEfficiency * 100).toFixed(1)} % (mean of the same hours)`);
+  lines.push(`Since: ${when(n.onsetHour, n.timeZone)}; more than ${n.ruleHours ?? 3} hours by ${when(n.signalHour, n.timeZone)}; latest hour ${when(n.lastSignalHour, n.timeZone)}`);
+  lines.push('This notice stays open until a person closes it.');
+  return lines;
+}
+
+/** The opening mail of an idle or limit notice; `caution` is the product's caution (docs/domain.md section 8). */
+export function ruleNoticeMail(n: NoticeView, to: string, caution: string) {
+  const cost = n.extraCost_per_day === null ? '' : `, ${money(n.extraCost_per_day, n.currency)} a day`;
+  const subject =
+    n.kind === 'idle'
+      ? `Running while it should be idle: ${n.unitName} at ${n.siteName} destroys ${kW(n.extra_W)}${cost}`
+      : `Limit crossed: ${n.unitName} at ${n.siteName} (${n.ruleText ?? 'limit'})${cost}`;
+  const intro =
+    n.kind === 'idle'
+      ? `${n.unitName} (${n.siteName}) is declared normally idle, and it has been running.`
+      : `${n.unitName} (${n.siteName}) has crossed a limit set for it.`;
+  const caution2 = caution.replace('this drift notice', 'this notice');
+  const lines = ruleFigureLines(n);
+  const text = [intro, '', ...lines, '', `Open the notice: ${n.url}`, '', caution2].join('\n');
+  const html = [
+    `<p>${escapeHtml(intro)}</p>`,
+    `<ul>${lines.map((l) => `<li>${escapeHtml(l)}</li>`).join('')}</ul>`,
+    `<p><a href="${escapeHtml(n.url)}">Open the notice</a></p>`,
+    `<p style="border:1px solid #c98a12;background:#f7e6bf;padding:8px">${escapeHtml(caution2)}</p>`,
+  ].join('\n');
+  return { to, subject, text, html };
+}
