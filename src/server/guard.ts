@@ -17,6 +17,17 @@ interface GuardContext {
 
 const UNSAFE = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
 
+/** Browsers upload files straight to the object store (presigned URLs): pages may connect there. */
+function uploadOrigins(): string[] {
+  try {
+    const e = env();
+    const u = new URL(e.S3_ENDPOINT);
+    return e.S3_FORCE_PATH_STYLE ? [u.origin] : [u.origin, `${u.protocol}//${e.S3_BUCKET}.${u.host}`];
+  } catch {
+    return [];
+  }
+}
+
 /**
  * True when a state-changing request may come from where it came from: a browser names its page's
  * origin (Origin, or at least Sec-Fetch-Site), and it must be Lossline's own, PUBLIC_BASE_URL.
@@ -72,7 +83,7 @@ export async function guard(ctx: GuardContext, next: () => Promise<Response>): P
 
   const isApi = path === '/api' || path.startsWith('/api/');
   try {
-    return await withSecurityHeaders(await decideAndRun(ctx, next, isApi));
+    return await withSecurityHeaders(await decideAndRun(ctx, next, isApi), uploadOrigins());
   } catch (err) {
     return withSecurityHeaders(unexpected(err, isApi, ctx.request.method, path));
   }

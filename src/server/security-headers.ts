@@ -23,15 +23,16 @@ export function inlineScriptHashes(html: string): string[] {
  * The policy of an HTML page: scripts only from our origin plus the exact inline scripts Astro wrote
  * into this page (its island loader), never any other inline script; no framing; forms post home.
  * Inline style attributes stay allowed (chart libraries position with them); they cannot run code.
+ * connectTo: other origins the page's scripts may call (the object store that uploads go to).
  */
-export function pagePolicy(html: string): string {
+export function pagePolicy(html: string, connectTo: readonly string[] = []): string {
   return [
     "default-src 'self'",
     `script-src 'self' ${inlineScriptHashes(html).join(' ')}`.trim(),
     "style-src 'self' 'unsafe-inline'",
     "img-src 'self' data: blob:",
     "font-src 'self' data:",
-    "connect-src 'self'",
+    `connect-src 'self' ${connectTo.join(' ')}`.trim(),
     "frame-ancestors 'none'",
     "base-uri 'self'",
     "form-action 'self'",
@@ -40,13 +41,13 @@ export function pagePolicy(html: string): string {
 }
 
 /** Adds the headers to an answer of the app (API or page); pages get their own script policy. */
-export async function withSecurityHeaders(res: Response): Promise<Response> {
+export async function withSecurityHeaders(res: Response, connectTo: readonly string[] = []): Promise<Response> {
   let out = res;
   const type = res.headers.get('content-type') ?? '';
   if (type.includes('text/html')) {
     const html = await res.text();
     const headers = new Headers(res.headers);
-    headers.set('content-security-policy', pagePolicy(html));
+    headers.set('content-security-policy', pagePolicy(html, connectTo));
     out = new Response(html, { status: res.status, statusText: res.statusText, headers });
   }
   try {

@@ -313,6 +313,8 @@ describeIntegration('passwords, sessions and links', () => {
     expect(await resolveApiToken(`Bearer ${t.secret}`)).toBeNull();
     await updateUser(p.id, { deactivated: false }, adminRow!.id);
     expect(await resolveApiToken(`Bearer ${t.secret}`)).not.toBeNull();
+    const { revokeApiToken } = await import('../../src/server/tokens');
+    await revokeApiToken(t.id);
     await db().delete(user).where(eq(user.id, p.id));
   });
 

@@ -1,6 +1,6 @@
 import { readdirSync, readFileSync, statSync } from 'node:fs';
 import { join, relative } from 'node:path';
-import { beforeAll, expect, it, vi } from 'vitest';
+import { afterAll, beforeAll, expect, it, vi } from 'vitest';
 import { ROLES, type Role } from '../../src/lib/roles';
 import { NAV } from '../../src/lib/navigation';
 import { auth } from '../../src/server/auth';
@@ -195,6 +195,26 @@ describeIntegration('access by site: every site-bound endpoint with every role, 
   const cookies: Record<string, string> = {};
   let tokenA = '';
   const RESTRICTED = ['energy-lead', 'operator', 'planner'] as const;
+  const people: string[] = [];
+
+  // The test data goes again: the same database serves the end-to-end run after this suite.
+  afterAll(async () => {
+    const { db } = await import('../../src/server/db/client');
+    const { sql } = await import('drizzle-orm');
+    const siteIds = [ids.A.siteId, ids.B.siteId].filter(Boolean) as string[];
+    for (const siteId of siteIds) {
+      await db().execute(sql`delete from drift_notices where site_id = ${siteId}`);
+      await db().execute(sql`delete from baselines where unit_id in (select id from plant_units where site_id = ${siteId})`);
+      await db().execute(sql`delete from tag_links where site_id = ${siteId}`);
+      await db().execute(sql`delete from uploads where site_id = ${siteId}`);
+      await db().execute(sql`delete from tags where site_id = ${siteId}`);
+      await db().execute(sql`delete from plant_ports where unit_id in (select id from plant_units where site_id = ${siteId})`);
+      await db().execute(sql`delete from plant_units where site_id = ${siteId}`);
+      await db().execute(sql`delete from api_tokens where site_id = ${siteId}`);
+      await db().execute(sql`delete from sites where id = ${siteId}`);
+    }
+    for (const id of people) await db().execute(sql`delete from "user" where id = ${id}`);
+  });
 
   async function makeSite(label: string): Promise<Ids> {
     const { db } = await import('../../src/server/db/client');
@@ -231,6 +251,7 @@ describeIntegration('access by site: every site-bound endpoint with every role, 
       const id = crypto.randomUUID();
       const email = `site-a-${role}-${id.slice(0, 6)}@example.test`;
       await db().insert(user).values({ id, email, name: `Site A ${role}`, role, emailVerified: true, allSites: false });
+      people.push(id);
       await db().insert(account).values({ id: crypto.randomUUID(), accountId: id, providerId: 'credential', userId: id, password: await hashPassword('site-a-walk-phrase') });
       await db().insert(personSites).values({ userId: id, siteId: ids.A.siteId! });
       const res = await auth().api.signInEmail({ body: { email, password: 'site-a-walk-phrase' }, asResponse: true });
