@@ -6,5 +6,7 @@ declare namespace App {
     session: { id: string; expiresAt: Date } | null;
     /** Set when the request came with a valid site API token instead of a session. */
     apiToken: { id: string; siteId: string; role: import('./lib/roles').Role } | null;
+    /** The sites the signed-in person may use: 'all', or a list (src/server/access.ts). */
+    sites: import('./server/access').SiteScope;
   }
 }

@@ -17,7 +17,7 @@ export default function ForgotPasswordForm() {
     );
   }
   return (
-    <form onSubmit={onSubmit} className="space-y-4">
+    <form onSubmit={onSubmit} method="post" className="space-y-4">
       <div>
         <label className="label" htmlFor="email">E-mail</label>
         <input className="field" id="email" name="email" type="email" required />

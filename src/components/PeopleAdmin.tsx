@@ -11,11 +11,47 @@ interface Person {
   role: Role;
   deactivated: boolean;
   pending: boolean;
+  sites: 'all' | string[];
+}
+
+interface SiteRef {
+  id: string;
+  name: string;
+}
+
+/** Which sites a person may use: every site (later ones too) or the ones ticked. Admins: always all. */
+function SitesCell({ person, sites, onChange }: { person: Person; sites: SiteRef[]; onChange: (v: 'all' | string[]) => void }) {
+  if (person.role === 'admin') return <span className="text-sm text-ink-soft">every site (admin)</span>;
+  const every = person.sites === 'all';
+  const listed = every ? sites.map((s) => s.id) : (person.sites as string[]);
+  const summary = every ? 'every site' : listed.length === 0 ? 'no site yet' : sites.filter((s) => listed.includes(s.id)).map((s) => s.name).join(', ');
+  return (
+    <details>
+      <summary className="cursor-pointer text-sm" aria-label={`Sites of ${person.name}`}>{summary}</summary>
+      <fieldset className="mt-2 space-y-1 text-sm">
+        <label className="flex items-center gap-2">
+          <input type="checkbox" checked={every} onChange={(e) => onChange(e.target.checked ? 'all' : listed)} />
+          Every site, including sites added later
+        </label>
+        {sites.map((s) => (
+          <label key={s.id} className="flex items-center gap-2">
+            <input
+              type="checkbox"
+              disabled={every}
+              checked={listed.includes(s.id)}
+              onChange={(e) => onChange(e.target.checked ? [...listed, s.id] : listed.filter((id) => id !== s.id))}
+            />
+            {s.name}
+          </label>
+        ))}
+      </fieldset>
+    </details>
+  );
 }
 
 const InviteForm = z.object({
-  name: z.string().trim().min(1, 'Give the person a name.'),
-  email: z.string().trim().email('That does not look like an e-mail address.'),
+  name: z.string().trim().min(1, 'Give the person a name.').max(120, 'A name has at most 120 characters.'),
+  email: z.string().trim().max(254).email('That does not look like an e-mail address.'),
   role: z.enum(ROLES),
 });
 type InviteForm = z.infer<typeof InviteForm>;
@@ -31,7 +67,7 @@ async function call(url: string, method: string, body?: unknown) {
   return data;
 }
 
-export default function PeopleAdmin({ selfId }: { selfId: string }) {
+export default function PeopleAdmin({ selfId, sites = [] }: { selfId: string; sites?: SiteRef[] }) {
   const [people, setPeople] = useState<Person[] | null>(null);
   const [message, setMessage] = useState<{ ok: boolean; text: string } | null>(null);
   const form = useForm<InviteForm>({ resolver: zodResolver(InviteForm), defaultValues: { name: '', email: '', role: 'operator' } });
@@ -54,7 +90,7 @@ export default function PeopleAdmin({ selfId }: { selfId: string }) {
       setMessage({ ok: false, text: (e as Error).message });
     }
   }
-  async function patch(id: string, body: { role?: Role; deactivated?: boolean }) {
+  async function patch(id: string, body: { role?: Role; deactivated?: boolean; sites?: 'all' | string[] }) {
     try {
       await call(`/api/admin/users/${id}`, 'PATCH', body);
       setMessage({ ok: true, text: 'Saved.' });
@@ -105,7 +141,7 @@ export default function PeopleAdmin({ selfId }: { selfId: string }) {
         ) : (
           <table className="grid-table">
             <thead>
-              <tr><th>Name</th><th>E-mail</th><th>Role</th><th>Account</th><th></th></tr>
+              <tr><th>Name</th><th>E-mail</th><th>Role</th><th>Sites</th><th>Account</th><th></th></tr>
             </thead>
             <tbody>
               {people.map((p) => (
@@ -123,6 +159,9 @@ export default function PeopleAdmin({ selfId }: { selfId: string }) {
                         <option key={r} value={r}>{ROLE_LABELS[r]}</option>
                       ))}
                     </select>
+                  </td>
+                  <td>
+                    <SitesCell person={p} sites={sites} onChange={(v) => patch(p.id, { sites: v })} />
                   </td>
                   <td>{p.deactivated ? 'deactivated' : p.pending ? 'invited, no password yet' : 'active'}</td>
                   <td className="text-right">

@@ -29,7 +29,7 @@ export default function SetPasswordForm({ token, linkError }: { token: string | 
     );
   }
   return (
-    <form onSubmit={onSubmit} className="space-y-4">
+    <form onSubmit={onSubmit} method="post" className="space-y-4">
       <div>
         <label className="label" htmlFor="password">New password (at least 10 characters)</label>
         <input className="field" id="password" name="password" type="password" autoComplete="new-password" required />

@@ -1,8 +1,9 @@
 import { useState } from 'react';
+import { safeNextPath } from '../lib/safe-next';
 import { postAuth } from './authMessages';
 
-export default function SignInForm({ next }: { next: string }) {
-  const [error, setError] = useState<string | null>(null);
+export default function SignInForm({ next, initialError = null }: { next: string; initialError?: string | null }) {
+  const [error, setError] = useState<string | null>(initialError);
   const [busy, setBusy] = useState(false);
 
   async function onSubmit(e: React.FormEvent<HTMLFormElement>) {
@@ -13,11 +14,13 @@ export default function SignInForm({ next }: { next: string }) {
     const out = await postAuth('/sign-in/email', { email: form.get('email'), password: form.get('password') });
     setBusy(false);
     if (!out.ok) return setError(out.message);
-    window.location.href = next.startsWith('/') && !next.startsWith('//') ? next : '/';
+    window.location.href = safeNextPath(next);
   }
 
   return (
-    <form onSubmit={onSubmit} className="space-y-4" noValidate>
+    // method="post" to this page: a submit before the script has loaded still posts (never a GET).
+    <form onSubmit={onSubmit} method="post" action="/sign-in" className="space-y-4" noValidate>
+      <input type="hidden" name="next" value={next} />
       <div>
         <label className="label" htmlFor="email">E-mail</label>
         <input className="field" id="email" name="email" type="email" autoComplete="username" required />

@@ -1,6 +1,11 @@
 /** Plain-language messages for better-auth's error codes, in Lossline's own words. */
-export function authMessage(code: string | undefined, status: number): string {
+export function authMessage(code: string | undefined, status: number, serverMessage?: string): string {
   switch (code) {
+    case 'PASSWORD_TOO_WEAK':
+    case 'SIGN_IN_PAUSED':
+    case 'INVALID_NAME':
+      if (serverMessage) return serverMessage;
+      break;
     case 'INVALID_EMAIL_OR_PASSWORD':
     case 'INVALID_PASSWORD':
     case 'USER_NOT_FOUND':
@@ -29,5 +34,5 @@ export async function postAuth(path: string, body: unknown): Promise<{ ok: true;
   });
   const data = await res.json().catch(() => ({}));
   if (res.ok) return { ok: true, data };
-  return { ok: false, message: authMessage(data?.code, res.status) };
+  return { ok: false, message: authMessage(data?.code, res.status, data?.message) };
 }

@@ -1,18 +1,50 @@
+import { createHash } from 'node:crypto';
 import { APIError, betterAuth } from 'better-auth';
 import { drizzleAdapter } from 'better-auth/adapters/drizzle';
-import { eq } from 'drizzle-orm';
+import { createAuthMiddleware } from 'better-auth/api';
+import { and, eq, lt, ne, sql } from 'drizzle-orm';
+import { QUEUES } from '../jobs';
+import { passwordProblem } from './password-strength';
 import { CLIENT_IP_HEADER } from './client-ip';
 import { db } from './db/client';
 import * as schema from './db/schema';
-import { env } from './env';
-import { escapeHtml, sendMail } from './mail';
+import { env, type AppEnv } from './env';
+import { escapeHtml, type OutgoingMail } from './mail';
+import { queue } from './queue';
 
 /** Minimum password length; better-auth rejects shorter ones with PASSWORD_TOO_SHORT. */
 export const MIN_PASSWORD_LENGTH = 10;
 /** How long an invitation or reset link stays valid. */
 export const RESET_LINK_SECONDS = 60 * 60 * 24 * 3;
+/** Longest display name a person may have (the people page and every header show it). */
+export const MAX_NAME_LENGTH = 120;
 
-function resetMail(kind: 'invite' | 'reset', to: string, name: string, url: string) {
+/**
+ * Per-account sign-in pauses: the first FREE_FAILURES wrong passwords cost nothing; each further one
+ * pauses sign-in to that account for PAUSE_FIRST_SECONDS, doubling up to PAUSE_MAX_SECONDS. The cap
+ * keeps an attacker from locking a person out for long (and a password reset by e-mail, which is
+ * never paused, clears the count). Failures older than FAILURE_MEMORY_SECONDS are forgotten.
+ */
+export const SIGN_IN_PAUSE = { FREE_FAILURES: 5, PAUSE_FIRST_SECONDS: 15, PAUSE_MAX_SECONDS: 300, FAILURE_MEMORY_SECONDS: 24 * 3600 } as const;
+
+/** The pause after the n-th consecutive failure, in seconds (0 while still free). */
+export function pauseAfterFailure(n: number): number {
+  if (n < SIGN_IN_PAUSE.FREE_FAILURES) return 0;
+  return Math.min(SIGN_IN_PAUSE.PAUSE_FIRST_SECONDS * 2 ** (n - SIGN_IN_PAUSE.FREE_FAILURES), SIGN_IN_PAUSE.PAUSE_MAX_SECONDS);
+}
+
+/**
+ * A request for a password link answers after at least this long whether or not the address has an
+ * account (the mail itself goes out from the queue), so the answer's timing tells nothing.
+ */
+export const RESET_REQUEST_FLOOR_MS = 400;
+
+/** How reset and invitation tokens are stored: SHA-256 of the identifier, never the token itself. */
+export function hashIdentifier(identifier: string): string {
+  return createHash('sha256').update(identifier).digest('hex');
+}
+
+function resetMail(kind: 'invite' | 'reset', to: string, name: string, url: string): OutgoingMail {
   const intro =
     kind === 'invite'
       ? `You have been invited to Lossline, where your plant's hourly exergy balances are kept. Set your password to sign in:`
@@ -27,23 +59,46 @@ function resetMail(kind: 'invite' | 'reset', to: string, name: string, url: stri
   };
 }
 
-function createAuth() {
-  const e = env();
+/** Ends every outstanding reset or invitation link of a person (their value is the user id). */
+async function endLinksOf(userId: string): Promise<void> {
+  await db().delete(schema.verification).where(eq(schema.verification.value, userId));
+}
+
+function weakPassword(password: unknown): void {
+  if (typeof password !== 'string' || password.length < MIN_PASSWORD_LENGTH) return; // better-auth says "too short"
+  const problem = passwordProblem(password);
+  if (problem) throw new APIError('BAD_REQUEST', { code: 'PASSWORD_TOO_WEAK', message: problem });
+}
+
+function checkName(name: unknown): void {
+  if (typeof name !== 'string') return;
+  if (name.length > MAX_NAME_LENGTH || /[\u0000-\u001f\u007f]/.test(name)) {
+    throw new APIError('BAD_REQUEST', { code: 'INVALID_NAME', message: `A name has at most ${MAX_NAME_LENGTH} characters and no control characters.` });
+  }
+}
+
+export function createAuth(e: AppEnv = env()) {
+  const base = new URL(e.PUBLIC_BASE_URL);
   return betterAuth({
     appName: 'Lossline',
     baseURL: e.PUBLIC_BASE_URL,
+    trustedOrigins: [base.origin],
     secret: e.BETTER_AUTH_SECRET,
     telemetry: { enabled: false },
     database: drizzleAdapter(db(), {
       provider: 'pg',
       schema: { ...schema, rateLimit: schema.rateLimit },
     }),
+    // Accounts come by invitation only; people do not rename, re-address or delete themselves here.
+    disabledPaths: ['/sign-up/email', '/update-user', '/change-email', '/delete-user'],
     user: {
       additionalFields: {
         role: { type: 'string', required: false, defaultValue: 'operator', input: false },
         deactivated: { type: 'boolean', required: false, defaultValue: false, input: false },
+        allSites: { type: 'boolean', required: false, defaultValue: true, input: false },
       },
     },
+    verification: { storeIdentifier: { hash: async (id: string) => hashIdentifier(id) } },
     emailAndPassword: {
       enabled: true,
       disableSignUp: true,
@@ -59,13 +114,16 @@ function createAuth() {
           .where(eq(schema.invitations.userId, user.id))
           .limit(1);
         const kind = invite && !invite.acceptedAt ? 'invite' : 'reset';
-        await sendMail(resetMail(kind, user.email, user.name, url));
+        // From the queue (the worker sends it): the answer does not wait for the mail server.
+        await (await queue()).send(QUEUES.sendMail, resetMail(kind, user.email, user.name, url), { retryLimit: 5, retryDelay: 30 });
       },
       onPasswordReset: async ({ user }) => {
         await db()
           .update(schema.invitations)
           .set({ acceptedAt: new Date() })
           .where(eq(schema.invitations.userId, user.id));
+        await endLinksOf(user.id);
+        await db().delete(schema.signInFailures).where(eq(schema.signInFailures.email, user.email.toLowerCase()));
       },
     },
     session: { expiresIn: 60 * 60 * 24 * 7, updateAge: 60 * 60 * 24 },
@@ -81,8 +139,28 @@ function createAuth() {
     },
     advanced: {
       ipAddress: { ipAddressHeaders: [CLIENT_IP_HEADER] },
+      useSecureCookies: base.protocol === 'https:',
+    },
+    hooks: {
+      before: createAuthMiddleware(async (ctx) => {
+        if (ctx.path === '/reset-password' || ctx.path === '/change-password') weakPassword(ctx.body?.newPassword);
+        if (ctx.path === '/change-password') {
+          // A changed password ends every other session, always.
+          return { context: { body: { ...ctx.body, revokeOtherSessions: true } } };
+        }
+      }),
+      after: createAuthMiddleware(async (ctx) => {
+        if (ctx.path !== '/change-password') return;
+        const userId = ctx.context.session?.user.id ?? ctx.context.newSession?.user.id;
+        const ok = !(ctx.context.returned instanceof Error);
+        if (userId && ok) await endLinksOf(userId);
+      }),
     },
     databaseHooks: {
+      user: {
+        create: { before: async (u) => void checkName(u.name) },
+        update: { before: async (u) => void checkName(u.name) },
+      },
       session: {
         create: {
           before: async (s) => {
@@ -106,4 +184,88 @@ let instance: ReturnType<typeof createAuth> | undefined;
 export function auth() {
   instance ??= createAuth();
   return instance;
+}
+
+const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
+
+function pausedAnswer(seconds: number): Response {
+  return Response.json(
+    {
+      code: 'SIGN_IN_PAUSED',
+      message: `Too many wrong passwords for this account. Try again in ${seconds} seconds, or set a new password by e-mail.`,
+    },
+    { status: 429, headers: { 'retry-after': String(seconds) } },
+  );
+}
+
+/** The pause still running for an account, in whole seconds, or 0. */
+export async function signInPauseLeft(email: string): Promise<number> {
+  const [row] = await db().select().from(schema.signInFailures).where(eq(schema.signInFailures.email, email)).limit(1);
+  if (!row?.pausedUntil) return 0;
+  const left = Math.ceil((row.pausedUntil.getTime() - Date.now()) / 1000);
+  return left > 0 ? left : 0;
+}
+
+async function recordFailure(email: string): Promise<void> {
+  const forget = new Date(Date.now() - SIGN_IN_PAUSE.FAILURE_MEMORY_SECONDS * 1000);
+  const [row] = await db()
+    .insert(schema.signInFailures)
+    .values({ email, failures: 1, lastFailureAt: new Date() })
+    .onConflictDoUpdate({
+      target: schema.signInFailures.email,
+      set: {
+        failures: sql`case when ${schema.signInFailures.lastFailureAt} < ${forget} then 1 else ${schema.signInFailures.failures} + 1 end`,
+        lastFailureAt: new Date(),
+      },
+    })
+    .returning({ failures: schema.signInFailures.failures });
+  const pause = pauseAfterFailure(row!.failures);
+  if (pause > 0) {
+    await db()
+      .update(schema.signInFailures)
+      .set({ pausedUntil: new Date(Date.now() + pause * 1000) })
+      .where(eq(schema.signInFailures.email, email));
+  }
+  // Now and then, forget failures nobody has repeated for a day.
+  if (Math.random() < 0.01) await db().delete(schema.signInFailures).where(and(lt(schema.signInFailures.lastFailureAt, forget), ne(schema.signInFailures.email, email)));
+}
+
+/**
+ * better-auth's HTTP handler behind Lossline's own rules: the client address set from the
+ * connection (never from a header the client sent), the per-account pause on sign-in, and the
+ * fixed floor on password-link requests.
+ */
+export async function authHandler(request: Request, clientAddress: string): Promise<Response> {
+  const started = Date.now();
+  const headers = new Headers(request.headers);
+  headers.set(CLIENT_IP_HEADER, clientAddress);
+  const method = request.method;
+  const path = new URL(request.url).pathname.replace(/\/+$/, '');
+  let body: string | undefined;
+  if (method !== 'GET' && method !== 'HEAD') body = await request.text();
+  const forward = () => auth().handler(new Request(request.url, { method, headers, body }));
+
+  if (method === 'POST' && path.endsWith('/api/auth/sign-in/email')) {
+    let email = '';
+    try {
+      email = String((JSON.parse(body ?? '{}') as { email?: unknown }).email ?? '').trim().toLowerCase();
+    } catch {
+      // better-auth answers a malformed body itself
+    }
+    if (email) {
+      const left = await signInPauseLeft(email);
+      if (left > 0) return pausedAnswer(left);
+    }
+    const res = await forward();
+    if (email && res.status === 401) await recordFailure(email);
+    else if (email && res.status === 200) await db().delete(schema.signInFailures).where(eq(schema.signInFailures.email, email));
+    return res;
+  }
+  if (method === 'POST' && path.endsWith('/api/auth/request-password-reset')) {
+    const res = await forward();
+    const wait = RESET_REQUEST_FLOOR_MS - (Date.now() - started);
+    if (wait > 0) await sleep(wait);
+    return res;
+  }
+  return forward();
 }

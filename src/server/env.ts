@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { parseTrustProxy } from './client-ip';
 
 /**
  * The one place that reads process.env. Parsed once at boot by the web server and the worker alike;
@@ -24,6 +25,21 @@ const Env = z.object({
   MAIL_FROM: z.string().default('Lossline <lossline@localhost>'),
   MAIL_INBOX_URL: z.string().default('http://127.0.0.1:1080'),
   SIGN_IN_LIMIT_PER_MINUTE: z.coerce.number().int().positive().default(5),
+  /** The reverse proxy's address(es): only it may tell us a client's address (X-Forwarded-For). */
+  TRUST_PROXY: z
+    .string()
+    .default('')
+    .superRefine((v, ctx) => {
+      if (v === 'true' || v === 'false') {
+        ctx.addIssue({ code: 'custom', message: 'TRUST_PROXY takes the address of the proxy in front of Lossline (e.g. 127.0.0.1), not true/false; leave it empty when there is no proxy.' });
+        return;
+      }
+      try {
+        parseTrustProxy(v);
+      } catch (err) {
+        ctx.addIssue({ code: 'custom', message: (err as Error).message });
+      }
+    }),
 });
 
 export type AppEnv = z.infer<typeof Env>;

@@ -1,3 +1,4 @@
+import { canUseSite } from './access';
 import { apiError, type ErrorCode } from './errors';
 
 /** Errors a service throws on purpose carry an API error code. */
@@ -20,10 +21,9 @@ export async function jsonBody(request: Request): Promise<unknown> {
   return request.json().catch(() => null);
 }
 
-/** True when the caller may act on this site: a session (any site) or a token of this very site. */
+/** True when the caller may act on this site: a person with access to it, or a token of this very site. */
 export function siteAllowed(locals: App.Locals, siteId: string): boolean {
-  if (locals.user) return true;
-  return locals.apiToken?.siteId === siteId;
+  return canUseSite(locals, siteId);
 }
 
 export const tokenForOtherSite = () => apiError('FORBIDDEN', 'This API token belongs to another site.');

@@ -107,23 +107,27 @@ interface Compiled {
   pattern: string;
   regex: RegExp;
   specificity: number;
+  params: string[];
 }
 
 function compile(pattern: string): Compiled {
   const parts = pattern.split('/').filter(Boolean);
   let specificity = 0;
+  const params: string[] = [];
   const body = parts
     .map((p) => {
       if (/^\[\.\.\.[^\]]+\]$/.test(p)) return '(?:/.*)?';
-      if (/^\[[^\]]+\]$/.test(p)) {
+      const one = p.match(/^\[([^\]]+)\]$/);
+      if (one) {
         specificity += 1;
-        return '/[^/]+';
+        params.push(one[1]!);
+        return '/([^/]+)';
       }
       specificity += 10;
       return '/' + p.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
     })
     .join('');
-  return { pattern, regex: new RegExp(`^${body}/?$`), specificity };
+  return { pattern, regex: new RegExp(`^${body}/?$`), specificity, params };
 }
 
 const compiledApi = Object.keys(API_POLICY)
@@ -134,9 +138,52 @@ const compiledPages = Object.keys(PAGE_POLICY)
   .sort((a, b) => b.specificity - a.specificity);
 
 /** The policy entry for an API path, or null when none matches (which the middleware refuses). */
-export function apiPolicyFor(pathname: string): { pattern: string; policy: RoutePolicy } | null {
+export function apiPolicyFor(pathname: string): { pattern: string; policy: RoutePolicy; params: Record<string, string> } | null {
   const hit = compiledApi.find((c) => c.regex.test(pathname));
-  return hit ? { pattern: hit.pattern, policy: API_POLICY[hit.pattern]! } : null;
+  if (!hit) return null;
+  return { pattern: hit.pattern, policy: API_POLICY[hit.pattern]!, params: paramsOf(hit, pathname) };
+}
+
+function paramsOf(c: Compiled, pathname: string): Record<string, string> {
+  const m = pathname.match(c.regex)!;
+  const out: Record<string, string> = {};
+  c.params.forEach((name, i) => {
+    const raw = m[i + 1]!;
+    let value = raw;
+    try {
+      value = decodeURIComponent(raw);
+    } catch {
+      // left as sent: it will not be a valid id
+    }
+    out[name] = value;
+  });
+  return out;
+}
+
+/**
+ * Pages whose address names a site's thing, and which parameter that is: the guard checks the
+ * person may use its site, as for the API.
+ */
+const PAGE_SITE_PARAMS: [RegExp, string][] = [
+  [/^\/plant\/[^/]+\/units\/([^/]+)\/?$/, 'unitId'],
+  [/^\/plant\/([^/]+)(?:\/.*)?$/, 'siteId'],
+  [/^\/(?:units|trends)\/([^/]+)\/?$/, 'unitId'],
+  [/^\/baselines\/((?!new\/?$)[^/]+)\/?$/, 'baselineId'],
+  [/^\/notices\/([^/]+)\/?$/, 'noticeId'],
+];
+
+export function pageSiteParam(pathname: string): { name: string; value: string } | null {
+  for (const [re, name] of PAGE_SITE_PARAMS) {
+    const m = pathname.match(re);
+    if (m) {
+      try {
+        return { name, value: decodeURIComponent(m[1]!) };
+      } catch {
+        return { name, value: m[1]! };
+      }
+    }
+  }
+  return null;
 }
 
 export function admitFor(policy: RoutePolicy, method: string): Admit | null {

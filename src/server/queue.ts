@@ -1,6 +1,7 @@
 import PgBoss from 'pg-boss';
 import { QUEUES } from '../jobs';
 import { env } from './env';
+import { redact } from './log';
 
 let boss: PgBoss | undefined;
 let starting: Promise<PgBoss> | undefined;
@@ -13,7 +14,7 @@ export function queue(): Promise<PgBoss> {
   if (boss) return Promise.resolve(boss);
   starting ??= (async () => {
     const b = new PgBoss({ connectionString: env().DATABASE_URL, schema: 'pgboss', max: 4 });
-    b.on('error', (err) => console.error('[queue]', err.message));
+    b.on('error', (err) => console.error('[queue]', redact(err.message)));
     await b.start();
     for (const name of Object.values(QUEUES)) await b.createQueue(name);
     boss = b;

@@ -1,8 +1,8 @@
 import { createHash, randomBytes } from 'node:crypto';
-import { and, eq, isNull } from 'drizzle-orm';
+import { and, eq, isNull, or } from 'drizzle-orm';
 import { isRole, type Role } from '../lib/roles';
 import { db } from './db/client';
-import { apiTokens } from './db/schema';
+import { apiTokens, user } from './db/schema';
 
 const PREFIX = 'llt_';
 
@@ -25,15 +25,21 @@ export async function revokeApiToken(id: string): Promise<boolean> {
   return out.length > 0;
 }
 
-/** Resolves an Authorization header to a live token, or null. */
+/**
+ * Resolves an Authorization header to a live token, or null. A token stops working when it is
+ * revoked or when the person who issued it is deactivated (tokens issued by no person, e.g. by a
+ * script, depend only on revocation).
+ */
 export async function resolveApiToken(header: string | null): Promise<{ id: string; siteId: string; role: Role } | null> {
   const m = header?.match(/^Bearer\s+(\S+)$/i);
   if (!m || !m[1]!.startsWith(PREFIX)) return null;
-  const [row] = await db()
-    .select()
+  const [hit] = await db()
+    .select({ token: apiTokens })
     .from(apiTokens)
-    .where(and(eq(apiTokens.tokenHash, hashToken(m[1]!)), isNull(apiTokens.revokedAt)))
+    .leftJoin(user, eq(user.id, apiTokens.createdBy))
+    .where(and(eq(apiTokens.tokenHash, hashToken(m[1]!)), isNull(apiTokens.revokedAt), or(isNull(apiTokens.createdBy), eq(user.deactivated, false))))
     .limit(1);
+  const row = hit?.token;
   if (!row) return null;
   void db().update(apiTokens).set({ lastUsedAt: new Date() }).where(eq(apiTokens.id, row.id)).catch(() => undefined);
   return { id: row.id, siteId: row.siteId, role: isRole(row.role) ? row.role : 'operator' };

@@ -46,7 +46,7 @@ const name = (what: string) =>
 const finite = z.number({ error: 'Expected a number.' }).finite();
 const positive = finite.positive('Must be greater than 0.');
 
-export const CompositionSchema = z.record(z.string(), finite.min(0, 'A fraction cannot be negative.').max(1, 'A fraction cannot exceed 1.'));
+export const CompositionSchema = z.record(z.string().max(40), finite.min(0, 'A fraction cannot be negative.').max(1, 'A fraction cannot exceed 1.'));
 export type Composition = z.infer<typeof CompositionSchema>;
 
 export const FluidSchema = z.discriminatedUnion('kind', [
@@ -65,7 +65,7 @@ export const FUEL_TYPES = ['natural-gas', 'light-fuel-oil', 'heavy-fuel-oil', 'b
 
 /** A boiler's fuel: by gas composition, by type and heating value, or by ultimate analysis and LHV. */
 export const FuelDefinitionSchema = z.discriminatedUnion('by', [
-  z.strictObject({ by: z.literal('composition'), moleFractions: CompositionSchema, price: z.string().optional() }),
+  z.strictObject({ by: z.literal('composition'), moleFractions: CompositionSchema, price: z.string().max(120).optional() }),
   z.strictObject({ by: z.literal('heating-value'), fuelType: z.enum(FUEL_TYPES), LHV_J_per_kg: positive, price: z.string().optional() }),
   z.strictObject({
     by: z.literal('ultimate'),
@@ -79,7 +79,7 @@ export const FuelDefinitionSchema = z.discriminatedUnion('by', [
       ash: finite.min(0).max(1).optional(),
     }),
     LHV_J_per_kg: positive,
-    price: z.string().optional(),
+    price: z.string().max(120).optional(),
   }),
 ]);
 export type FuelDefinition = z.infer<typeof FuelDefinitionSchema>;
@@ -99,14 +99,14 @@ export type EnergyPrice = z.infer<typeof EnergyPriceSchema>;
 
 export const SiteModelSchema = z.strictObject({
   name: name('site'),
-  timeZone: z.string().min(1, 'Give an IANA time zone, e.g. Europe/Berlin.'),
+  timeZone: z.string().min(1, 'Give an IANA time zone, e.g. Europe/Berlin.').max(64),
   elevation_m: finite.min(ELEVATION_MIN_m).max(ELEVATION_MAX_m).optional(),
   p_atm_Pa: finite.min(PRESSURE_ATM_MIN_Pa, 'Give p_atm_Pa in Pa (e.g. 101325), not kPa or bar.').max(PRESSURE_ATM_MAX_Pa).optional(),
   deadState: z.strictObject({
     T0_K: finite.min(T0_MIN_K).max(T0_MAX_K),
     p0_Pa: finite.min(PRESSURE_ATM_MIN_Pa).max(PRESSURE_ATM_MAX_Pa),
     /** T0 taken hourly from an ambient-temperature tag; T0_K is then the fallback. */
-    T0Tag: z.strictObject({ tag: name('tag'), unit: z.string().min(1) }).optional(),
+    T0Tag: z.strictObject({ tag: name('tag'), unit: z.string().min(1).max(40) }).optional(),
   }),
   currency,
   prices: z.array(EnergyPriceSchema).default([]),
@@ -117,11 +117,11 @@ const isoInstant = z.iso.datetime({ offset: true, error: 'Give an ISO 8601 insta
 
 export const LinkModelSchema = z.strictObject({
   /** Port name; left out for a measurement of the unit itself (power). */
-  port: z.string().min(1).optional(),
+  port: z.string().min(1).max(120).optional(),
   quantity: z.enum(LINK_QUANTITY_NAMES as [LinkQuantity, ...LinkQuantity[]]),
   tag: name('tag'),
   /** Engineering unit of the tag as exported ('barg', 'degC', 't/h', 'Nm3/h', '% dry' ...). */
-  unit: z.string().min(1, 'Give the engineering unit of the tag.'),
+  unit: z.string().min(1, 'Give the engineering unit of the tag.').max(40),
   /** O2 only: the analyser's basis. */
   basis: z.enum(['dry', 'wet']).optional(),
   /** Standard uncertainty: absolute in the link's unit, or relative in percent of reading. Default per quantity. */
@@ -139,7 +139,7 @@ export type LinkModel = z.infer<typeof LinkModelSchema>;
 export const PortModelSchema = z.strictObject({
   name: name('port'),
   /** The kind's port slot ('inlet', 'exhaust', 'extraction' ...): fixes role and measurements. */
-  slot: z.string().min(1),
+  slot: z.string().min(1).max(80),
   fluid: FluidSchema.optional(),
   /** Heat ports: fixed boundary temperature [K] (or link a temperature tag). */
   boundaryT_K: positive.optional(),
@@ -153,7 +153,7 @@ export const UnitModelSchema = z.strictObject({
   kind: z.enum(UNIT_KINDS),
   description: z.string().max(2000).optional(),
   /** SI values keyed as in the catalogue (src/lib/plant/kinds.ts); left-out keys take their defaults. */
-  parameters: z.record(z.string(), z.union([finite, z.string()])).default({}),
+  parameters: z.record(z.string().max(80), z.union([finite, z.string().max(200)])).default({}),
   fuel: FuelDefinitionSchema.optional(),
   ports: z.array(PortModelSchema).default([]),
   links: z.array(LinkModelSchema).default([]),

@@ -12,6 +12,8 @@ export const user = pgTable('user', {
   image: text('image'),
   role: text('role').notNull().default('operator'),
   deactivated: boolean('deactivated').notNull().default(false),
+  /** Every site, those added later included (true), or only the sites listed in person_sites. */
+  allSites: boolean('all_sites').notNull().default(true),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
 });
@@ -73,4 +75,16 @@ export const rateLimit = pgTable('rate_limit', {
   key: text('key').notNull().unique(),
   count: integer('count').notNull(),
   lastRequest: bigint('last_request', { mode: 'number' }).notNull(),
+});
+
+/**
+ * Sign-in failures per account (keyed by the e-mail as typed, lower-cased, whether or not an account
+ * has it, so the answer never tells which addresses exist). After a few failures each further one
+ * pauses sign-in to that account for a growing, capped time; a success or a password reset clears it.
+ */
+export const signInFailures = pgTable('sign_in_failures', {
+  email: text('email').primaryKey(),
+  failures: integer('failures').notNull().default(0),
+  lastFailureAt: timestamp('last_failure_at', { withTimezone: true }).notNull().defaultNow(),
+  pausedUntil: timestamp('paused_until', { withTimezone: true }),
 });

@@ -1,5 +1,5 @@
 import { sql } from 'drizzle-orm';
-import { index, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core';
+import { index, pgTable, primaryKey, text, timestamp, uuid } from 'drizzle-orm/pg-core';
 import { user } from './auth-schema';
 import { sites } from './plant-schema';
 
@@ -46,4 +46,22 @@ export const apiTokens = pgTable(
     revokedAt: timestamp('revoked_at', { withTimezone: true }),
   },
   (t) => [index('api_tokens_site_idx').on(t.siteId)],
+);
+
+/**
+ * The sites a person who is not an admin may see and work on, when their account is not on every
+ * site (user.all_sites = false). Admins always have every site; a site API token has its own site.
+ */
+export const personSites = pgTable(
+  'person_sites',
+  {
+    userId: text('user_id')
+      .notNull()
+      .references(() => user.id, { onDelete: 'cascade' }),
+    siteId: uuid('site_id')
+      .notNull()
+      .references(() => sites.id, { onDelete: 'cascade' }),
+    grantedAt: timestamp('granted_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [primaryKey({ columns: [t.userId, t.siteId] }), index('person_sites_site_idx').on(t.siteId)],
 );

@@ -26,9 +26,9 @@ export const LinkInput = z.strictObject({
   quantity: z.enum(LINK_QUANTITY_NAMES as [LinkQuantity, ...LinkQuantity[]]),
   /** The tag, by id or by name (a name the site does not know yet creates the tag). */
   tagId: z.string().uuid().optional(),
-  tag: z.string().trim().min(1).optional(),
+  tag: z.string().trim().min(1).max(200).optional(),
   /** Engineering unit of the tag. */
-  unit: z.string().trim().min(1, 'Give the engineering unit of the tag.'),
+  unit: z.string().trim().min(1, 'Give the engineering unit of the tag.').max(40),
   basis: z.enum(['dry', 'wet']).nullable().optional(),
   /** Left out: the default of the quantity (common practice, src/lib/plant/uncertainty.ts). */
   uncertainty: z.strictObject({ mode: z.enum(['absolute', 'relative']), value: z.number().finite().min(0) }).optional(),

@@ -1,19 +1,29 @@
 import { randomUUID } from 'node:crypto';
-import { and, asc, eq, ne, sql } from 'drizzle-orm';
+import { and, asc, eq, inArray, ne, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import { ROLES, type Role } from '../../lib/roles';
 import { auth } from '../auth';
 import { db } from '../db/client';
-import { invitations, session, user } from '../db/schema';
+import { invitations, personSites, session, sites, user } from '../db/schema';
+
+/** A person's sites: every site ('all', sites added later included) or a list of site ids. */
+export const SitesInput = z.union([z.literal('all'), z.array(z.string().uuid('A site id is a UUID.')).max(1000)]);
 
 export const InviteInput = z.object({
-  name: z.string().trim().min(1, 'Give the person a name.').max(120),
-  email: z.string().trim().toLowerCase().email('That does not look like an e-mail address.'),
+  name: z
+    .string()
+    .trim()
+    .min(1, 'Give the person a name.')
+    .max(120, 'A name has at most 120 characters.')
+    .regex(/^[^\u0000-\u001f\u007f]*$/, 'A name has no control characters.'),
+  email: z.string().trim().toLowerCase().max(254, 'An e-mail address has at most 254 characters.').email('That does not look like an e-mail address.'),
   role: z.enum(ROLES),
+  /** Omitted: every site on a one-site install; on a larger one, none until an admin lists them. */
+  sites: SitesInput.optional(),
 });
 export const UpdateUserInput = z
-  .object({ role: z.enum(ROLES).optional(), deactivated: z.boolean().optional() })
-  .refine((v) => v.role !== undefined || v.deactivated !== undefined, 'Send a role, deactivated, or both.');
+  .object({ role: z.enum(ROLES).optional(), deactivated: z.boolean().optional(), sites: SitesInput.optional() })
+  .refine((v) => v.role !== undefined || v.deactivated !== undefined || v.sites !== undefined, 'Send a role, deactivated, sites, or any of them.');
 
 export class UserRuleError extends Error {
   constructor(readonly code: 'CONFLICT' | 'NOT_FOUND', message: string) {
@@ -29,6 +39,7 @@ export async function listUsers() {
       email: user.email,
       role: user.role,
       deactivated: user.deactivated,
+      allSites: user.allSites,
       createdAt: user.createdAt,
       invitedAt: invitations.sentAt,
       acceptedAt: invitations.acceptedAt,
@@ -36,7 +47,30 @@ export async function listUsers() {
     .from(user)
     .leftJoin(invitations, eq(invitations.userId, user.id))
     .orderBy(asc(user.name));
-  return rows.map((r) => ({ ...r, pending: r.invitedAt !== null && r.acceptedAt === null }));
+  const grants = await db().select().from(personSites);
+  return rows.map(({ allSites, ...r }) => ({
+    ...r,
+    pending: r.invitedAt !== null && r.acceptedAt === null,
+    // Admins have every site whatever is stored.
+    sites: r.role === 'admin' || allSites ? ('all' as const) : grants.filter((g) => g.userId === r.id).map((g) => g.siteId),
+  }));
+}
+
+type Tx = Parameters<Parameters<ReturnType<typeof db>['transaction']>[0]>[0];
+
+async function setSites(tx: Tx, userId: string, value: z.infer<typeof SitesInput>): Promise<void> {
+  await tx.delete(personSites).where(eq(personSites.userId, userId));
+  if (value === 'all') {
+    await tx.update(user).set({ allSites: true }).where(eq(user.id, userId));
+    return;
+  }
+  const ids = [...new Set(value)];
+  if (ids.length) {
+    const known = await tx.select({ id: sites.id }).from(sites).where(inArray(sites.id, ids));
+    if (known.length !== ids.length) throw new UserRuleError('NOT_FOUND', 'One of the sites given does not exist.');
+    await tx.insert(personSites).values(ids.map((siteId) => ({ userId, siteId })));
+  }
+  await tx.update(user).set({ allSites: false }).where(eq(user.id, userId));
 }
 
 /**
@@ -47,9 +81,12 @@ export async function inviteUser(input: z.infer<typeof InviteInput>, invitedBy: 
   const existing = await db().select({ id: user.id }).from(user).where(eq(user.email, input.email)).limit(1);
   if (existing.length) throw new UserRuleError('CONFLICT', `${input.email} already has an account.`);
   const id = randomUUID();
+  const [count] = await db().select({ n: sql<number>`count(*)::int` }).from(sites);
+  const scope = input.sites ?? ((count?.n ?? 0) <= 1 ? 'all' : []);
   await db().transaction(async (tx) => {
     await tx.insert(user).values({ id, name: input.name, email: input.email, role: input.role, emailVerified: false });
     await tx.insert(invitations).values({ userId: id, invitedBy });
+    await setSites(tx, id, scope);
   });
   await auth().api.requestPasswordReset({ body: { email: input.email, redirectTo: '/set-password' } });
   return { id };
@@ -80,6 +117,7 @@ export async function updateUser(userId: string, input: z.infer<typeof UpdateUse
   if (input.deactivated !== undefined) patch.deactivated = input.deactivated;
   await db().transaction(async (tx) => {
     await tx.update(user).set(patch).where(eq(user.id, userId));
+    if (input.sites !== undefined) await setSites(tx, userId, input.sites);
     if (input.deactivated) await tx.delete(session).where(eq(session.userId, userId));
   });
 }

@@ -1,21 +1,17 @@
 import type { APIRoute } from 'astro';
-import { auth } from '../../../server/auth';
-import { CLIENT_IP_HEADER } from '../../../server/client-ip';
+import { authHandler } from '../../../server/auth';
+
+let warned = false;
 
 /**
- * better-auth's routes. The client address (which its per-address sign-in limit keys on) is taken
- * from the connection, never from a header the client could set; behind a proxy, set TRUST_PROXY=true
- * to take the proxy's X-Forwarded-For instead.
+ * better-auth's routes, through Lossline's own limits (src/server/auth.ts). The client address
+ * (which the per-address sign-in limit keys on) is the connection's, as settled by scripts/serve.ts:
+ * X-Forwarded-For counts only from the proxy TRUST_PROXY names.
  */
 export const ALL: APIRoute = (ctx) => {
-  const headers = new Headers(ctx.request.headers);
-  const forwarded = process.env.TRUST_PROXY === 'true' ? headers.get('x-forwarded-for')?.split(',')[0]?.trim() : undefined;
-  headers.set(CLIENT_IP_HEADER, forwarded || ctx.clientAddress);
-  const method = ctx.request.method;
-  const init: RequestInit & { duplex?: 'half' } = { method, headers };
-  if (method !== 'GET' && method !== 'HEAD') {
-    init.body = ctx.request.body;
-    init.duplex = 'half';
+  if (import.meta.env.PROD && !warned && !(globalThis as { __losslineServe?: boolean }).__losslineServe) {
+    warned = true;
+    console.warn('[web] started without scripts/serve.ts (npm start): client addresses come from X-Forwarded-For as sent, so the per-address sign-in limit can be dodged.');
   }
-  return auth().handler(new Request(ctx.request.url, init));
+  return authHandler(ctx.request, ctx.clientAddress);
 };

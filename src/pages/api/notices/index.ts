@@ -1,3 +1,4 @@
+import { visibleToCaller } from '../../../server/access';
 import type { APIRoute } from 'astro';
 import { z } from 'zod';
 import { apiError } from '../../../server/errors';
@@ -11,8 +12,8 @@ const Query = z.object({
 });
 
 /** Drift notices, open first, then seen, then closed; newest first within each. */
-export const GET: APIRoute = async ({ url }) => {
+export const GET: APIRoute = async ({ url, locals }) => {
   const q = Query.safeParse(Object.fromEntries(url.searchParams));
   if (!q.success) return apiError('VALIDATION_FAILED', 'Unknown filter: status is open, acknowledged, closed or not-closed; unitId and siteId are ids.', q.error.issues);
-  return answer(async () => Response.json({ notices: await listNotices(q.data) }));
+  return answer(async () => Response.json({ notices: visibleToCaller(locals, await listNotices(q.data), (n) => n.siteId) }));
 };
