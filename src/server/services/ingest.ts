@@ -726,7 +726,17 @@ const POOLED_STD = `(case when o.mean is null or o.std is null then excluded.std
  * minute rather than after the job's two-hour expiry.
  */
 export async function resumeInterruptedUploads(): Promise<number> {
-  const stuck = await db().select({ id: uploads.id }).from(uploads).where(eq(uploads.status, 'processing'));
+  // 'processing' with the lock free: its reader is gone. 'queued' with no job waiting for it and no
+  // job that began in the last 30 s: a worker took its job and died before it began reading.
+  const stuck = (
+    await db().execute<{ id: string }>(sql`
+      select u.id from uploads u
+      where u.status = 'processing'
+         or (u.status = 'queued' and not exists (
+               select 1 from pgboss.job j
+               where j.name = ${QUEUES.ingestFile} and j.data->>'uploadId' = u.id::text
+                 and (j.state in ('created', 'retry') or (j.state = 'active' and j.started_on > now() - interval '30 seconds'))))`)
+  ).rows;
   let resumed = 0;
   for (const { id } of stuck) {
     const client = await pgPool().connect();
@@ -735,7 +745,7 @@ export async function resumeInterruptedUploads(): Promise<number> {
       if (!rows[0].ok) continue; // a live worker is reading it right now
       try {
         // Under the lock, so no worker can start on it between the check and the change.
-        const moved = await client.query(`update uploads set status = 'queued' where id = $1 and status = 'processing'`, [id]);
+        const moved = await client.query(`update uploads set status = 'queued' where id = $1 and status in ('processing', 'queued')`, [id]);
         if (moved.rowCount !== 1) continue; // it finished in between
         const boss = await queue();
         await boss.send(QUEUES.ingestFile, { uploadId: id }, { singletonKey: `${id}:resume:${Date.now()}`, retryLimit: 2, retryDelay: 5, expireInSeconds: 60 * 60 * 2 });
