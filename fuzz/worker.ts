@@ -7,3 +7,4 @@ parentPort!.on('message', (msg: { id: number; bytes: Uint8Array }) => {
   const out = checkFile(msg.bytes);
   parentPort!.postMessage({ id: msg.id, ms: performance.now() - t0, ...out });
 });
+parentPort!.postMessage({ ready: true });
