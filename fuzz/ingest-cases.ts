@@ -160,7 +160,7 @@ const shape: fc.Arbitrary<FileShape> = fc
     hugeField: fc.oneof({ weight: 19, arbitrary: fc.constant(0) }, { weight: 1, arbitrary: fc.integer({ min: 60_000, max: 1_200_000 }) }),
     encoding: fc.constantFrom('utf8', 'utf8', 'utf8', 'utf8', 'utf8bom', 'utf16le', 'utf16be', 'latin1'),
     mutations: fc.oneof(
-      { weight: 4, arbitrary: fc.constant([]) },
+      { weight: 4, arbitrary: fc.constant([] as { at: number; byte: number }[]) },
       { weight: 1, arbitrary: fc.array(fc.record({ at: fc.nat(), byte: fc.integer({ min: 0, max: 255 }) }), { maxLength: 6 }) },
     ),
     timeStyle: fc.integer({ min: 0, max: TIME_STYLES - 1 }),

@@ -249,7 +249,9 @@ export function uploadView(u: typeof uploads.$inferSelect) {
     rowsRead: u.rowsRead,
     duplicateOf: u.duplicateOf,
     summary: u.summary,
-    detection: u.status === 'needs-review' ? u.detection : undefined,
+    // The layout and its questions while a person must answer (a machine upload stopped with a
+    // layout question is failed, with the same detection).
+    detection: u.status === 'needs-review' || (u.status === 'failed' && (u.summary as { code?: string } | null)?.code === 'LAYOUT_QUESTION') ? u.detection : undefined,
     reason: u.status === 'failed' ? u.failureReason : null,
     createdAt: u.createdAt,
     finishedAt: u.finishedAt,
