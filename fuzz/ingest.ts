@@ -12,6 +12,7 @@ const report = await runIngestFuzz({
   seed: values.seed ? Number(values.seed) : undefined,
   caseTimeoutMs: values['timeout-ms'] ? Number(values['timeout-ms']) : 20_000,
   failuresDir: 'fuzz/failures',
+  onProgress: (r) => console.log(`[fuzz:ingest] ${r.cases} files ...`),
 });
 console.log(`[fuzz:ingest] seed ${report.seed}: ${report.cases} files in ${(report.totalMs / 1000).toFixed(1)} s (slowest ${report.slowestMs.toFixed(0)} ms)`);
 console.log(`[fuzz:ingest] read ${report.read}, read after a layout question ${report.asked}, stopped with a catalogued reason ${Object.values(report.stopped).reduce((a, b) => a + b, 0)}`);

@@ -16,6 +16,8 @@ export interface FuzzOptions {
   caseTimeoutMs?: number;
   /** Folder for the bytes of a failing case; none when absent. */
   failuresDir?: string;
+  /** Called every 1,000 cases with the report so far. */
+  onProgress?: (report: FuzzReport) => void;
 }
 
 export interface FuzzReport {
@@ -75,6 +77,7 @@ export async function runIngestFuzz(options: FuzzOptions): Promise<FuzzReport> {
     await fc.assert(
       fc.asyncProperty(hostileExport, async (bytes) => {
         report.cases++;
+        if (report.cases % 1000 === 0) options.onProgress?.(report);
         let out: CaseOutcome & { ms: number };
         try {
           out = await check(bytes);
