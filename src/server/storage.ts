@@ -34,11 +34,26 @@ export function bucket(): string {
   return env().S3_BUCKET;
 }
 
-/** Presigned PUT for a browser upload straight into the store. */
-export async function presignPut(key: string, contentType: string, expiresInSeconds = 15 * 60): Promise<string> {
-  return getSignedUrl(s3(), new PutObjectCommand({ Bucket: bucket(), Key: key, ContentType: contentType }), {
+/**
+ * Presigned PUT for a browser upload straight into the store. The content type is signed; with
+ * contentLength the length is signed too, so a store that checks signatures refuses other bodies
+ * (the server checks the stored object's size and type again before reading it).
+ */
+export async function presignPut(key: string, contentType: string, expiresInSeconds = 15 * 60, contentLength?: number): Promise<string> {
+  return getSignedUrl(s3(), new PutObjectCommand({ Bucket: bucket(), Key: key, ContentType: contentType, ContentLength: contentLength }), {
     expiresIn: expiresInSeconds,
+    ...(contentLength !== undefined ? { signableHeaders: new Set(['content-type', 'content-length']) } : {}),
   });
+}
+
+/** Size [bytes] and content type of a stored object, or null when it is not there. */
+export async function objectHead(key: string): Promise<{ size: number; contentType: string | null } | null> {
+  try {
+    const out = await s3().send(new HeadObjectCommand({ Bucket: bucket(), Key: key }));
+    return { size: out.ContentLength ?? 0, contentType: out.ContentType ?? null };
+  } catch {
+    return null;
+  }
 }
 
 export async function putObject(key: string, body: Buffer | Uint8Array | string | Readable, contentLength?: number) {

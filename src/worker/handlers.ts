@@ -6,12 +6,18 @@ import { handleComputeUnitHours } from '../server/services/engine';
 import { sendNoticeDigests } from '../server/services/notices';
 import { ingestUpload } from '../server/services/ingest';
 
+/** E-mail addresses in a log line (a file's text quoted in a reason may hold some) become [e-mail]. */
+export function redactForLog(text: string): string {
+  return text.replace(/[^\s@<>()[\]"',;:]+@[^\s@<>()[\]"',;:]+\.[^\s@<>()[\]"',;:]+/g, '[e-mail]');
+}
+
 /** Job handlers beyond mail; each capability registers its queue here. */
 export async function registerHandlers(boss: PgBoss): Promise<void> {
   await boss.work(QUEUES.ingestFile, { pollingIntervalSeconds: 0.5, batchSize: 1 }, async ([job]) => {
     const { uploadId } = IngestFilePayload.parse(job!.data);
+    console.log(`[worker ${process.pid}] ingest ${uploadId}: picked up`);
     const out = await ingestUpload(uploadId);
-    console.log(`[worker] ingest ${uploadId}: ${out.kind}${'reason' in out ? ' - ' + out.reason : ''}`);
+    console.log(redactForLog(`[worker ${process.pid}] ingest ${uploadId}: ${out.kind}${'reason' in out ? ' - ' + out.reason : 'why' in out ? ' - ' + out.why : ''}`));
   });
   // --- engine ---
   await boss.work(QUEUES.computeUnitHours, { pollingIntervalSeconds: 1, batchSize: 1 }, async ([job]) => {

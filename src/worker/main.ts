@@ -7,7 +7,7 @@ import { QUEUES, SendMailPayload } from '../jobs';
 import { closeDb } from '../server/db/client';
 import { sendMail } from '../server/mail';
 import { queue, stopQueue } from '../server/queue';
-import { resumeInterruptedUploads } from '../server/services/ingest';
+import { resumeInterruptedUploads, sweepSeconds } from '../server/services/ingest';
 import { registerHandlers } from './handlers';
 
 const boss = await queue();
@@ -20,10 +20,20 @@ const resumed = await resumeInterruptedUploads();
 if (resumed) console.log(`[worker] queued ${resumed} upload(s) again that a stopped worker left half-read`);
 console.log('[worker] ready');
 
+// A worker that dies while reading leaves its upload 'processing': every live worker looks for such
+// uploads regularly and takes them over (see resumeInterruptedUploads).
+const sweep = setInterval(() => {
+  resumeInterruptedUploads()
+    .then((n) => n && console.log(`[worker] took over ${n} upload(s) a stopped worker left half-read`))
+    .catch((err) => console.error(`[worker] looking for half-read uploads failed: ${(err as Error).message}`));
+}, sweepSeconds() * 1000);
+sweep.unref();
+
 let stopping = false;
 async function shutdown(signal: string) {
   if (stopping) return;
   stopping = true;
+  clearInterval(sweep);
   console.log(`[worker] ${signal}: stopping`);
   await stopQueue();
   await closeDb();

@@ -182,7 +182,7 @@ export default function UploadsPanel({ sites, initialSiteId }: { sites: Site[]; 
                         )}
                         {(r.status === 'done' || r.status === 'failed' || r.status === 'needs-review') && (
                           <button className="btn ml-1" type="button" onClick={() => setOpen(open === r.uploadId ? null : r.uploadId)}>
-                            {r.status === 'needs-review' ? 'Review layout' : open === r.uploadId ? 'Hide report' : 'Report'}
+                            {r.status === 'needs-review' || r.detection ? 'Review layout' : open === r.uploadId ? 'Hide report' : 'Report'}
                           </button>
                         )}
                       </td>
@@ -190,7 +190,7 @@ export default function UploadsPanel({ sites, initialSiteId }: { sites: Site[]; 
                     {open === r.uploadId && (
                       <tr>
                         <td colSpan={6} className="bg-paper-deep/40">
-                          {r.status === 'needs-review' && r.detection ? (
+                          {(r.status === 'needs-review' || r.status === 'failed') && r.detection ? (
                             <LayoutReview upload={r} onSaved={() => { setOpen(null); void load(); }} />
                           ) : (
                             <UploadReport row={r} />

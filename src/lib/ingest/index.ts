@@ -22,3 +22,5 @@ export * from './reader';
 export * from './aggregate';
 export * from './merge';
 export * from './pipeline';
+export * from './limits';
+export * from './layout-check';

@@ -10,7 +10,7 @@ import type { EncodingDecision } from './decode';
 import { IngestError } from './errors';
 import type { LayoutProfile } from './profile';
 import { createRowReader } from './reader';
-import type { ReadReport, RejectedCell, RowReader } from './reader';
+import type { ReadReport, RejectedCell, RowReader, RowReaderOptions } from './reader';
 import { sniffLayout } from './sniff';
 
 export interface FileIngestOptions {
@@ -27,6 +27,17 @@ export interface FileIngestOptions {
   /** Characters of text held for sniffing; default 65536. */
   sampleChars?: number;
   maxRecordChars?: number;
+  /** Possible values per tag (see RowReaderOptions.valueLimits). */
+  valueLimits?: RowReaderOptions['valueLimits'];
+  /** Accepted times (see RowReaderOptions.timeWindow). */
+  timeWindow?: RowReaderOptions['timeWindow'];
+  /**
+   * Largest share of the non-blank value cells that may be rejected as not numbers or impossible
+   * before the whole file stops with MOSTLY_REJECTED (a layout that does not fit the file, such as
+   * the wrong decimal mark); default 0.5. Bad-quality cells and rows outside the time window do not
+   * count: the source said so.
+   */
+  maxRejectedShare?: number;
 }
 
 export interface FileIngestResult {
@@ -65,6 +76,8 @@ export function createFileIngest(options: FileIngestOptions): FileIngest {
       sink: aggregator,
       onRejectedCell: options.onRejectedCell,
       maxRecordChars: options.maxRecordChars,
+      valueLimits: options.valueLimits,
+      timeWindow: options.timeWindow,
     });
     reader.push(held);
     held = '';
@@ -88,9 +101,30 @@ export function createFileIngest(options: FileIngestOptions): FileIngest {
       feed(decoder.end());
       if (!reader) start(true);
       const report = reader!.end();
-      aggregator.flush();
       if (!decoder.decision) throw new IngestError('EMPTY_FILE', 'The file is empty.');
+      checkRejectedShare(report, profile!, options.maxRejectedShare ?? 0.5);
+      aggregator.flush();
       return { encoding: decoder.decision, profile: profile!, report };
     },
   };
+}
+
+/** Stops a file most of whose values were rejected: its layout does not fit it. */
+export function checkRejectedShare(report: ReadReport, profile: LayoutProfile, maxShare: number): void {
+  let bad = 0;
+  for (const t of report.tags) bad += t.textCount + t.impossibleCount;
+  const total = report.valueCount + bad;
+  if (total === 0 || bad <= maxShare * total) return;
+  const examples = report.tags
+    .flatMap((t) => t.rejectedTexts.slice(0, 1).map((x) => `${t.tag}: '${x.text.slice(0, 30)}'`))
+    .slice(0, 3)
+    .join(', ');
+  const mark = profile.decimalMark === ',' ? 'a decimal comma' : 'a decimal point';
+  throw new IngestError(
+    'MOSTLY_REJECTED',
+    `${bad} of ${total} values (${Math.round((100 * bad) / total)} %) could not be read as numbers (for example ${examples}), so nothing was stored. ` +
+      `The layout reads numbers with ${mark}${profile.thousandsSeparator ? ` and '${profile.thousandsSeparator}' between thousands` : ''}: ` +
+      'is that right for this file? Check the layout (decimal mark, columns) and upload again.',
+    { rejected: bad, values: report.valueCount, decimalMark: profile.decimalMark, question: { field: 'decimalMark', choices: ['.', ','] } },
+  );
 }

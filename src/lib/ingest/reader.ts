@@ -15,6 +15,7 @@
  * quality words, text after a closing quote.
  */
 import { IngestError } from './errors';
+import { valueLimitsFor, type ValueLimits } from './limits';
 import { CsvTokenizer, fieldText } from './csv';
 import type { CsvRecord } from './csv';
 import { isBlankAt, parseNumberAt } from './numbers';
@@ -53,9 +54,16 @@ export interface RejectedCell {
   tag: string;
   timeMs: number;
   line: number;
-  reason: 'text' | 'bad-quality';
+  /** text: not a number; bad-quality: the historian said bad; impossible: outside the quantity's
+   *  possible range (see limits.ts); outside-window: the row's time is outside the accepted window. */
+  reason: RejectReason;
   text: string;
 }
+
+export type RejectReason = 'text' | 'bad-quality' | 'impossible' | 'outside-window';
+
+/** Longest tag name accepted [characters]. */
+export const MAX_TAG_NAME_CHARS = 200;
 
 export interface RowReaderOptions {
   /** The site's IANA time zone, for local times. */
@@ -71,6 +79,13 @@ export interface RowReaderOptions {
   onRejectedCell?: (cell: RejectedCell) => void;
   /** Called for every data row whose time cannot be read (the row is skipped); optional. */
   onTimeError?: (line: number, text: string) => void;
+  /**
+   * Possible values of a tag in its own unit; values outside are rejected as 'impossible'. Default:
+   * from the unit in the file's units row (wide files), else the magnitude limit only (limits.ts).
+   */
+  valueLimits?: (tag: string, unitText: string | null) => ValueLimits | null;
+  /** Accepted times [UTC ms, inclusive]; rows outside have their cells rejected as 'outside-window'. */
+  timeWindow?: { minMs: number; maxMs: number };
 }
 
 export type IngestWarningCode =
@@ -82,7 +97,11 @@ export type IngestWarningCode =
   | 'DST_GAP'
   | 'UNKNOWN_QUALITY'
   | 'MALFORMED_QUOTES'
-  | 'BLANK_TAG_NAMES';
+  | 'BLANK_TAG_NAMES'
+  | 'TIMES_OUTSIDE_WINDOW'
+  | 'IMPOSSIBLE_VALUES'
+  | 'COLUMNS_WITHOUT_NUMBERS'
+  | 'BAD_TAG_NAMES';
 
 export interface IngestWarning {
   code: IngestWarningCode;
@@ -100,6 +119,10 @@ export interface TagReadSummary {
   textCount: number;
   badQualityCount: number;
   uncertainCount: number;
+  /** Numbers outside the quantity's possible range (rejected). */
+  impossibleCount: number;
+  /** Cells of rows whose time is outside the accepted window (rejected). */
+  outsideWindowCount: number;
   /** Distinct rejected texts with counts (up to the cap), most frequent first. */
   rejectedTexts: { text: string; count: number }[];
   /** First lines with a rejected cell. */
@@ -205,6 +228,8 @@ interface TagState {
   textCount: number;
   badQualityCount: number;
   uncertainCount: number;
+  impossibleCount: number;
+  outsideWindowCount: number;
   texts: Map<string, number>;
   rejectedLines: number[];
 }
@@ -261,13 +286,36 @@ export function createRowReader(profile: LayoutProfile, options: RowReaderOption
   const unknownQuality = new WarningCounter(cap);
   const unknownQualityTexts = new Set<string>();
   const blankTags = new WarningCounter(cap);
+  const badTagNames = new WarningCounter(cap);
+  const outsideWindow = new WarningCounter(cap);
+  const outsideWindowExamples: string[] = [];
+  const impossible = new WarningCounter(cap);
+  const impossibleExamples: string[] = [];
+  const winMin = options.timeWindow?.minMs ?? -Infinity;
+  const winMax = options.timeWindow?.maxMs ?? Infinity;
+  const limitsOf = options.valueLimits ?? ((_tag: string, unit: string | null) => valueLimitsFor(unit));
+  let limMin = new Float64Array(16);
+  let limMax = new Float64Array(16);
+  const limWhy: string[] = [];
 
   const tagStates: TagState[] = [];
   const tagNames: string[] = [];
   const tagIndex = new Map<string, number>();
-  function addTag(name: string): number {
+  function addTag(name: string, unit: string | null = null): number {
     const k = tagStates.length;
-    tagStates.push({ tag: name, valueCount: 0, blankCount: 0, textCount: 0, badQualityCount: 0, uncertainCount: 0, texts: new Map(), rejectedLines: [] });
+    tagStates.push({ tag: name, valueCount: 0, blankCount: 0, textCount: 0, badQualityCount: 0, uncertainCount: 0, impossibleCount: 0, outsideWindowCount: 0, texts: new Map(), rejectedLines: [] });
+    if (k >= limMin.length) {
+      const a = new Float64Array(limMin.length * 2);
+      a.set(limMin);
+      limMin = a;
+      const b = new Float64Array(limMax.length * 2);
+      b.set(limMax);
+      limMax = b;
+    }
+    const lim = limitsOf(name, unit) ?? valueLimitsFor(null);
+    limMin[k] = lim.min;
+    limMax[k] = lim.max;
+    limWhy[k] = lim.why;
     tagNames.push(name);
     tagIndex.set(name, k);
     sink.addTag(k, name);
@@ -287,7 +335,13 @@ export function createRowReader(profile: LayoutProfile, options: RowReaderOption
   const nWide = valueCols.length;
   const values = new Float64Array(nWide);
   const status = new Uint8Array(nWide);
-  if (p.wide) for (const c of p.wide.columns) addTag(c.tag);
+  if (p.wide) {
+    for (const c of p.wide.columns) {
+      const bad = badTagName(c.tag);
+      if (bad) throw new IngestError('BAD_TAG_NAME', `The column name starting '${cleanName(c.tag).slice(0, 40)}' ${bad}. Rename the column in the export.`, { column: c.index });
+      addTag(c.tag, c.unit ?? null);
+    }
+  }
   // long: per-tag last time for order checks
   let tagLastTime = new Float64Array(16).fill(NaN);
   const qualityCache = new Map<string, number>();
@@ -296,12 +350,17 @@ export function createRowReader(profile: LayoutProfile, options: RowReaderOption
   let lastQualityRaw = '\u0000';
   let lastQualityClass = 0;
 
-  function reject(k: number, rec: CsvRecord, col: number, timeMs: number, reason: 'text' | 'bad-quality'): void {
+  function reject(k: number, rec: CsvRecord, col: number, timeMs: number, reason: RejectReason): void {
     const st = tagStates[k];
     const text = fieldText(rec, col).trim();
     if (reason === 'text') st.textCount++;
-    else st.badQualityCount++;
-    const key = reason === 'text' ? text : `[bad quality] ${text}`;
+    else if (reason === 'bad-quality') st.badQualityCount++;
+    else if (reason === 'impossible') {
+      st.impossibleCount++;
+      impossible.add(rec.line);
+      if (impossibleExamples.length < 3) impossibleExamples.push(`${st.tag} = ${text.slice(0, 40)} (${limWhy[k]})`);
+    } else st.outsideWindowCount++;
+    const key = reason === 'text' ? text : `[${reason === 'bad-quality' ? 'bad quality' : reason === 'impossible' ? 'impossible value' : 'time outside window'}] ${text}`;
     const n = st.texts.get(key);
     if (n !== undefined) st.texts.set(key, n + 1);
     else if (st.texts.size < maxExamples) st.texts.set(key, 1);
@@ -358,6 +417,11 @@ export function createRowReader(profile: LayoutProfile, options: RowReaderOption
     return clock.toUtc(wallMsFromSerial(v), rec.line);
   }
 
+  /** Usable numbers of a tag (wide files count them from the rows). */
+  function wideValueCount(st: TagState, _k: number): number {
+    return p.wide ? dataRows - st.blankCount - st.textCount - st.impossibleCount : st.valueCount;
+  }
+
   function isBlankRecord(rec: CsvRecord): boolean {
     const fields = rec.fields;
     for (let i = 0; i < rec.count; i++) if (!isBlankAt(fields[i], 0, fields[i].length)) return false;
@@ -381,6 +445,12 @@ export function createRowReader(profile: LayoutProfile, options: RowReaderOption
       options.onTimeError?.(rec.line, text);
       return;
     }
+    if (t < winMin || t > winMax) {
+      outsideWindow.add(rec.line);
+      if (outsideWindowExamples.length < 3) outsideWindowExamples.push(timeCols.map((c) => fieldText(rec, c)).join(' ').slice(0, 60));
+      rejectRowOutsideWindow(rec, t);
+      return;
+    }
     dataRows++;
     if (t < firstTimeMs) firstTimeMs = t;
     if (t > lastTimeMs) lastTimeMs = t;
@@ -401,6 +471,12 @@ export function createRowReader(profile: LayoutProfile, options: RowReaderOption
         const f = fields[col];
         const v = parseNumberAt(f, 0, f.length, decCode, thouCode);
         if (v === v) {
+          if (v < limMin[k] || v > limMax[k]) {
+            values[k] = NaN;
+            status[k] = CellStatus.Text;
+            reject(k, rec, col, t, 'impossible');
+            continue;
+          }
           values[k] = v;
           status[k] = CellStatus.Ok;
         } else if (isBlankAt(f, 0, f.length)) {
@@ -428,6 +504,10 @@ export function createRowReader(profile: LayoutProfile, options: RowReaderOption
       const name = raw.trim();
       if (name.length === 0) {
         blankTags.add(rec.line);
+        return;
+      }
+      if (badTagName(name)) {
+        badTagNames.add(rec.line);
         return;
       }
       k = tagIndex.get(name);
@@ -475,6 +555,11 @@ export function createRowReader(profile: LayoutProfile, options: RowReaderOption
     if (vc < rec.count) {
       const tx = rec.fields[vc];
       value = parseNumberAt(tx, 0, tx.length, decCode, thouCode);
+      if (value === value && (value < limMin[k] || value > limMax[k])) {
+        reject(k, rec, vc, t, 'impossible');
+        sink.addSample(k, t, NaN, CellStatus.Text);
+        return;
+      }
       if (value === value) cell = qClass === QualityClass.Bad ? CellStatus.BadQuality : qClass === QualityClass.Uncertain ? CellStatus.Uncertain : CellStatus.Ok;
       else if (isBlankAt(tx, 0, tx.length)) cell = CellStatus.Blank;
       else cell = CellStatus.Text;
@@ -487,6 +572,31 @@ export function createRowReader(profile: LayoutProfile, options: RowReaderOption
       if (cell === CellStatus.Uncertain) st.uncertainCount++;
     }
     sink.addSample(k, t, cell === CellStatus.Ok || cell === CellStatus.Uncertain ? value : NaN, cell);
+  }
+
+  /** A row whose time is outside the window: each value cell with text is rejected. */
+  function rejectRowOutsideWindow(rec: CsvRecord, t: number): void {
+    if (p.wide) {
+      for (let k = 0; k < nWide; k++) {
+        const col = valueCols[k];
+        if (col < rec.count && !isBlankAt(rec.fields[col], 0, rec.fields[col].length)) reject(k, rec, col, t, 'outside-window');
+      }
+      return;
+    }
+    const L = p.long!;
+    const name = L.tagColumn < rec.count ? rec.fields[L.tagColumn].trim() : '';
+    if (!name || badTagName(name)) return;
+    let k = tagIndex.get(name);
+    if (k === undefined) {
+      k = addTag(name);
+      if (k >= tagLastTime.length) {
+        const grown = new Float64Array(tagLastTime.length * 2).fill(NaN);
+        grown.set(tagLastTime);
+        tagLastTime = grown;
+      }
+    }
+    const vc = L.valueColumn;
+    if (vc < rec.count && !isBlankAt(rec.fields[vc], 0, rec.fields[vc].length)) reject(k, rec, vc, t, 'outside-window');
   }
 
   const tokenizer = new CsvTokenizer(p.separator, onRecord, { maxRecordChars: options.maxRecordChars });
@@ -525,6 +635,34 @@ export function createRowReader(profile: LayoutProfile, options: RowReaderOption
       out.push({ code: 'MALFORMED_QUOTES', message: `${tokenizer.malformedQuoteCount} quoted field(s) have text after the closing quote; it was kept.`, count: tokenizer.malformedQuoteCount, lines: [] });
     }
     add('BLANK_TAG_NAMES', blankTags, `${blankTags.count} row(s) have no tag name and were skipped.`);
+    add('BAD_TAG_NAMES', badTagNames, `${badTagNames.count} row(s) have a tag name longer than ${MAX_TAG_NAME_CHARS} characters or made of control characters; they were skipped.`);
+    add(
+      'TIMES_OUTSIDE_WINDOW',
+      outsideWindow,
+      `${outsideWindow.count} row(s) have a time outside the accepted window (${windowIso(winMin)} to ${windowIso(winMax)}), for example ` +
+        `${outsideWindowExamples.map((x) => `'${x}'`).join(', ')}; their cells were rejected.`,
+    );
+    add(
+      'IMPOSSIBLE_VALUES',
+      impossible,
+      `${impossible.count} value(s) are physically impossible and were rejected, for example ${impossibleExamples.map((x) => `'${x}'`).join(', ')}.`,
+    );
+    const empty = tagStates.filter((st, k) => wideValueCount(st, k) === 0 && st.textCount + st.impossibleCount > 0);
+    if (empty.length > 0) {
+      out.push({
+        code: 'COLUMNS_WITHOUT_NUMBERS',
+        message:
+          `${empty.length} tag(s) hold no usable number in the whole file: ` +
+          empty
+            .slice(0, 10)
+            .map((st) => `${st.tag} (for example '${[...st.texts.keys()][0] ?? ''}')`)
+            .join(', ') +
+          (empty.length > 10 ? ' ...' : '') +
+          '. Check that the export writes values for them (NaN, error words and fill values are not readings).',
+        count: empty.length,
+        lines: [],
+      });
+    }
     return out;
   }
 
@@ -534,6 +672,14 @@ export function createRowReader(profile: LayoutProfile, options: RowReaderOption
     },
     end(): ReadReport {
       tokenizer.end();
+      if (dataRows === 0 && outsideWindow.count > 0) {
+        throw new IngestError(
+          'TIMES_OUTSIDE_WINDOW',
+          `Every row's time lies outside the accepted window (${windowIso(winMin)} to ${windowIso(winMax)}), for example ` +
+            `${outsideWindowExamples.map((x) => `'${x}'`).join(', ')}. Check the clock of the exporting system and the time settings of the layout.`,
+          { rows: outsideWindow.count, minIso: windowIso(winMin), maxIso: windowIso(winMax) },
+        );
+      }
       if (dataRows === 0) {
         throw new IngestError(
           'HEADER_ONLY',
@@ -547,9 +693,9 @@ export function createRowReader(profile: LayoutProfile, options: RowReaderOption
       let rejectedCount = 0;
       let blankCount = 0;
       const tags: TagReadSummary[] = tagStates.map((st) => {
-        const valueCountK = p.wide ? dataRows - st.blankCount - st.textCount : st.valueCount;
+        const valueCountK = wideValueCount(st, tagStates.indexOf(st));
         valueCount += valueCountK;
-        rejectedCount += st.textCount + st.badQualityCount;
+        rejectedCount += st.textCount + st.badQualityCount + st.impossibleCount + st.outsideWindowCount;
         blankCount += st.blankCount;
         return {
           tag: st.tag,
@@ -558,6 +704,8 @@ export function createRowReader(profile: LayoutProfile, options: RowReaderOption
           textCount: st.textCount,
           badQualityCount: st.badQualityCount,
           uncertainCount: st.uncertainCount,
+          impossibleCount: st.impossibleCount,
+          outsideWindowCount: st.outsideWindowCount,
           rejectedTexts: [...st.texts].map(([text, count]) => ({ text, count })).sort((a, b) => b.count - a.count),
           rejectedLines: st.rejectedLines,
         };
@@ -677,3 +825,19 @@ export function previewRows(
   }
   return rows;
 }
+
+/** Control characters (NUL included) in a name, made visible as spaces for messages. */
+function cleanName(name: string): string {
+  // eslint-disable-next-line no-control-regex
+  return name.replace(/[\u0000-\u001f\u007f]/g, ' ');
+}
+
+/** Why a tag name cannot be stored, or null when it can. */
+function badTagName(name: string): string | null {
+  if (name.length > MAX_TAG_NAME_CHARS) return `is longer than ${MAX_TAG_NAME_CHARS} characters (${name.length})`;
+  // eslint-disable-next-line no-control-regex
+  if (/[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f]/.test(name)) return 'holds control characters';
+  return null;
+}
+
+const windowIso = (ms: number) => (Number.isFinite(ms) ? isoUtc(ms) : 'open');

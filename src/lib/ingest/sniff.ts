@@ -389,9 +389,11 @@ export function sniffLayout(sampleText: string, options: SniffOptions = {}): Lay
       1,
     );
   }
+  let droppedTail = 0;
   if (!complete) {
     // drop a possibly cut last line
     const cut = Math.max(text.lastIndexOf('\n'), text.lastIndexOf('\r'));
+    droppedTail = text.length - (cut + 1);
     text = text.slice(0, cut + 1);
   }
   const notes: string[] = [];
@@ -420,6 +422,7 @@ export function sniffLayout(sampleText: string, options: SniffOptions = {}): Lay
     }
   }
   if (dataStart < 0) {
+    noDataRowReason(text, records, droppedTail, complete);
     throw new IngestError(
       'HEADER_ONLY',
       `The file has ${records.length} header line(s) but no data rows (a data row holds a time and numbers). ` +
@@ -700,4 +703,45 @@ export function sniffLayout(sampleText: string, options: SniffOptions = {}): Lay
     notes,
   };
   return LayoutProfileSchema.parse(profile);
+}
+
+/**
+ * When the sample holds no data row, a more precise reason than HEADER_ONLY where there is one:
+ * a cut line longer than half the sample (RECORD_TOO_LONG), thousands of blank lines (BLANK_LINES),
+ * rows with times but no number in any value cell (NO_NUMBERS). Returns when none applies.
+ */
+function noDataRowReason(text: string, records: { fields: string[]; line: number }[], droppedTail: number, complete: boolean): void {
+  if (!complete && droppedTail > text.length) {
+    throw new IngestError(
+      'RECORD_TOO_LONG',
+      `Line ${(records.at(-1)?.line ?? 0) + 1} is longer than the first ${Math.round((text.length + droppedTail) / 1024)} KiB of the file read to decide its layout, ` +
+        'so no data row could be seen. Either the file is not a CSV export, the separator is wrong, or a quote is never closed. Check the export settings.',
+      { sampleCharacters: text.length + droppedTail },
+      (records.at(-1)?.line ?? 0) + 1,
+    );
+  }
+  let blank = 0;
+  for (let i = 0; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    if (c === 10 && (i === 0 || text.charCodeAt(i - 1) === 10 || (text.charCodeAt(i - 1) === 13 && (i < 2 || text.charCodeAt(i - 2) === 10)))) blank++;
+  }
+  if (blank >= 1000 && blank > 10 * records.length) {
+    throw new IngestError(
+      'BLANK_LINES',
+      `The file holds ${blank} blank line(s) ${complete ? 'and no data row' : 'before any data row in the part read to decide its layout'}. ` +
+        'Remove the blank lines (or export again without padding) and upload the new file.',
+      { blankLines: blank, records: records.length },
+    );
+  }
+  const timed = records.filter((r) => r.fields.some((f) => isDateTimeText(f.trim())));
+  if (timed.length >= 3) {
+    const examples = new Set<string>();
+    for (const r of timed.slice(0, 20)) for (const f of r.fields) if (!isDateTimeText(f.trim()) && f.trim() && examples.size < 3) examples.add(f.trim().slice(0, 20));
+    throw new IngestError(
+      'NO_NUMBERS',
+      `${timed.length} row(s) hold a time but no value cell holds a number${examples.size ? ` (for example ${[...examples].map((x) => `'${x}'`).join(', ')})` : ''}. ` +
+        'Check that the export writes the values (NaN, error words and empty exports are not readings).',
+      { rows: timed.length },
+    );
+  }
 }

@@ -33,7 +33,10 @@ export const uploads = pgTable(
       .references(() => sites.id, { onDelete: 'cascade' }),
     fileName: text('file_name').notNull(),
     sizeBytes: bigint('size_bytes', { mode: 'number' }),
+    /** SHA-256 of the stored bytes, computed by the server (never the client's word). */
     sha256: text('sha256'),
+    /** SHA-256 the browser declared; checked against the stored bytes before reading. */
+    declaredSha256: text('declared_sha256'),
     objectKey: text('object_key').notNull().unique(),
     source: text('source').notNull(), // 'browser' | 'api' | 'demo'
     uploadedBy: text('uploaded_by').references(() => user.id, { onDelete: 'set null' }),

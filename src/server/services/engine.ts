@@ -57,6 +57,10 @@ export interface ComputeSummary {
   chunks: number;
   /** hours written, as a range, and the units concerned; null when nothing changed */
   touched: { fromMs: number; toMs: number; unitIds: string[] } | null;
+  /** unit hours that could not be computed: stored as suspect with the reason, the job went on */
+  faults?: number;
+  /** the asked span when it reached outside 1900 .. now + 2 days (those hours were left out) */
+  outsideSaneSpan?: { fromMs: number; toMs: number };
 }
 
 /** The first instant of the UTC month after t [ms]. */
@@ -170,6 +174,15 @@ type TagHourRow = TagHour & { hourStart: Date; tagId: string };
 export async function computeUnitHours(payload: { siteId: string; fromMs: number; toMs: number; unitIds?: string[] }, options: ComputeOptions = {}): Promise<ComputeSummary> {
   const p = ComputeUnitHoursPayload.parse(payload);
   const summary: ComputeSummary = { siteId: p.siteId, computed: 0, written: 0, unchanged: 0, chunks: 0, touched: null };
+  // Hours outside a sane span (stored before uploads checked their times: a year 9999 from a broken
+  // clock) are left out and reported, so they can never stop the site's recomputes.
+  const [saneLo, saneHi] = saneSpan();
+  if (p.fromMs < saneLo || p.toMs > saneHi) {
+    summary.outsideSaneSpan = { fromMs: p.fromMs, toMs: p.toMs };
+    p.fromMs = Math.max(p.fromMs, saneLo);
+    p.toMs = Math.min(p.toMs, saneHi);
+    if (p.toMs <= p.fromMs) return summary;
+  }
   const ctx = await siteContext(p.siteId);
   if (!ctx) return summary;
   let targets = ctx.units;
@@ -194,6 +207,7 @@ export async function computeUnitHours(payload: { siteId: string; fromMs: number
     summary.computed += out.computed;
     summary.written += out.written;
     summary.unchanged += out.computed - out.written;
+    summary.faults = (summary.faults ?? 0) + out.faults;
     for (const u of out.units) touchedUnits.add(u);
     if (out.written) {
       tFrom = Math.min(tFrom, out.fromMs);
@@ -255,6 +269,7 @@ async function computeChunk(ctx: SiteContext, targets: EngineUnit[], fromMs: num
 
     let computed = 0;
     let written = 0;
+    let faults = 0;
     let wFrom = Infinity;
     let wTo = -Infinity;
     const units: string[] = [];
@@ -351,8 +366,17 @@ async function computeChunk(ctx: SiteContext, targets: EngineUnit[], fromMs: num
         const input = { unit, links, tagHours: th, site: ctx.engineSite, hourStartMs: t, cost, flueGasSources: Object.keys(srcs).length ? srcs : undefined };
         computed++;
         // Same inputs, same row: an hour whose inputs hash is unchanged is neither computed nor written.
-        const hashes = unitHourHashes(input, { uncertainty: withU });
-        if (known.get(t) === hashes.inputsHash) {
+        let res: UnitHourResult | null = null;
+        try {
+          const hashes = unitHourHashes(input, { uncertainty: withU });
+          if (known.get(t) !== hashes.inputsHash) res = computeUnitHour(input, { uncertainty: withU, hashes });
+        } catch (err) {
+          // One hour that cannot be computed is marked suspect with the reason; the job goes on.
+          rows.push(faultRow(unit.id, t, (err as Error).message, now));
+          faults++;
+          continue;
+        }
+        if (res === null) {
           if (boilerIds.has(unit.id)) {
             const k = knownRow.get(t)!;
             const list = boilerHours.get(t) ?? [];
@@ -361,7 +385,6 @@ async function computeChunk(ctx: SiteContext, targets: EngineUnit[], fromMs: num
           }
           continue;
         }
-        const res: UnitHourResult = computeUnitHour(input, { uncertainty: withU, hashes });
         if (boilerIds.has(unit.id)) {
           const list = boilerHours.get(t) ?? [];
           list.push({ name: unit.name, fuel_W: res.fuel_W, product_W: res.product_W, cF_per_J: cost?.cF_per_J ?? null });
@@ -427,8 +450,41 @@ async function computeChunk(ctx: SiteContext, targets: EngineUnit[], fromMs: num
       written += rows.length;
       if (rows.length) units.push(unit.id);
     }
-    return { computed, written, units, fromMs: wFrom, toMs: wTo };
+    return { computed, written, units, fromMs: wFrom, toMs: wTo, faults };
   });
+}
+
+/** The span of hours the engine computes: 1900 to two days from now (uploads accept up to one). */
+function saneSpan(nowMs = Date.now()): [number, number] {
+  return [Date.UTC(1900, 0, 1), Math.ceil((nowMs + 2 * 86_400_000) / HOUR_ms) * HOUR_ms];
+}
+
+/** The row of an hour whose computation failed: suspect, with the reason, no figures. */
+function faultRow(unitId: string, t: number, message: string, now: Date): typeof unitHours.$inferInsert {
+  return {
+    unitId,
+    hourStart: new Date(t),
+    state: 'suspect',
+    reasons: [{ code: 'COMPUTE_FAILED', message: `This hour could not be computed (${message.slice(0, 300)}); the other hours were.` }],
+    load: null,
+    loadUnit: null,
+    T0_K: null,
+    p0_Pa: null,
+    fuel_W: null,
+    product_W: null,
+    loss_W: null,
+    destruction_W: null,
+    efficiency: null,
+    efficiency_U: null,
+    destruction_U_W: null,
+    closure_pct: null,
+    entropyGeneration_W_per_K: null,
+    destructionCost_per_h: null,
+    detail: {},
+    modelVersion: 'fault',
+    inputsHash: `fault:${now.getTime()}`,
+    computedAt: now,
+  };
 }
 
 /** The worker's handler of `compute-unit-hours`. */

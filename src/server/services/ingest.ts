@@ -1,12 +1,15 @@
 import { GetObjectCommand } from '@aws-sdk/client-s3';
+import { createHash } from 'node:crypto';
 import { Readable } from 'node:stream';
 import { pipeline } from 'node:stream/promises';
 import { from as copyFrom } from 'pg-copy-streams';
-import { and, eq, sql } from 'drizzle-orm';
+import { and, eq, isNull, sql } from 'drizzle-orm';
 import type pg from 'pg';
 import {
   IngestError,
+  checkLayoutAgainstSample,
   createDecoder,
+  valueLimitsFor,
   createFileIngest,
   previewRows,
   sniffLayout,
@@ -14,11 +17,13 @@ import {
   type RejectedCell,
   type TagHour,
 } from '../../lib/ingest';
+import { isLinkQuantity, unitsQuantityOf } from '../../lib/plant/kinds';
 import { db, pgPool } from '../db/client';
-import { layoutProfiles, sites, tags, uploads } from '../db/schema';
+import { layoutProfiles, sites, tagLinks, tags, uploads } from '../db/schema';
 import { QUEUES } from '../../jobs';
 import { queue } from '../queue';
 import { bucket, objectStream, s3 } from '../storage';
+import { findDuplicate, storedObjectMismatch } from './uploads';
 
 /** Bytes read from the start of a file to decide its layout. */
 const SAMPLE_BYTES = 96 * 1024;
@@ -30,6 +35,33 @@ export const MAX_STORED_REJECTS = 100_000;
 const PROGRESS_EVERY_MS = 500;
 /** Attempts before an upload that keeps failing for reasons outside the file is marked failed. */
 export const MAX_ATTEMPTS = 3;
+
+/**
+ * The accepted times of a site's files: from its first day minus INGEST_YEARS_BEFORE_SITE years
+ * (default 30: historians keep decades and a new site may load its history) to now plus
+ * INGEST_FUTURE_HOURS hours (default 24: clocks a little ahead, export time zones). A time outside
+ * is no reading of this plant (a year 9999 or 1970 from a broken clock or a mangled cell): its row's
+ * cells are rejected with the reason.
+ */
+export function timeWindowFor(siteCreatedAt: Date, nowMs = Date.now()): { minMs: number; maxMs: number } {
+  const years = Number(process.env.INGEST_YEARS_BEFORE_SITE ?? 30);
+  const hours = Number(process.env.INGEST_FUTURE_HOURS ?? 24);
+  const start = new Date(siteCreatedAt.getTime());
+  start.setUTCFullYear(start.getUTCFullYear() - (Number.isFinite(years) && years >= 0 ? years : 30));
+  start.setUTCHours(0, 0, 0, 0);
+  return { minMs: start.getTime(), maxMs: nowMs + (Number.isFinite(hours) && hours >= 0 ? hours : 24) * 3_600_000 };
+}
+
+/** SHA-256 of a stored object, streamed (nothing held in memory). */
+async function hashObject(key: string): Promise<string> {
+  const hash = createHash('sha256');
+  for await (const chunk of await objectStream(key)) hash.update(chunk as Buffer);
+  return hash.digest('hex');
+}
+
+/** Text the database can store: no NUL (PostgreSQL text and jsonb refuse it). */
+const storable = (text: string) => text.replace(/\u0000/g, '');
+const storableJson = (value: unknown) => JSON.stringify(value).replace(/\\u0000/g, '');
 
 export type IngestOutcome =
   | { kind: 'done'; summary: Record<string, unknown> }
@@ -48,8 +80,9 @@ async function headBytes(key: string, n: number, size: number | null): Promise<U
 /** Decides the layout from the file's first bytes: a saved profile of the site, or a fresh sniff. */
 async function decideLayout(up: typeof uploads.$inferSelect, timeZone: string) {
   if (up.profileId) {
+    // A person confirmed this layout for this very upload: no second guessing.
     const [p] = await db().select().from(layoutProfiles).where(eq(layoutProfiles.id, up.profileId));
-    if (p) return { profile: p.profile as unknown as LayoutProfile, saved: true as const };
+    if (p) return { profile: p.profile as unknown as LayoutProfile, saved: true as const, confirmed: true as const };
   }
   const bytes = await headBytes(up.objectKey, SAMPLE_BYTES, up.sizeBytes);
   const decoder = createDecoder();
@@ -60,14 +93,15 @@ async function decideLayout(up: typeof uploads.$inferSelect, timeZone: string) {
     .select()
     .from(layoutProfiles)
     .where(and(eq(layoutProfiles.siteId, up.siteId), eq(layoutProfiles.fingerprint, sniffed.fingerprint)));
-  if (known) return { profile: known.profile as unknown as LayoutProfile, saved: true as const, profileId: known.id };
   let preview: unknown[] = [];
   try {
     preview = previewRows(text, sniffed, 8, { timeZone });
   } catch {
     preview = [];
   }
-  return { profile: sniffed, saved: false as const, preview, encoding: decoder.decision };
+  const sample = { text, complete };
+  if (known) return { profile: known.profile as unknown as LayoutProfile, saved: true as const, profileId: known.id, sniffed, preview, sample, encoding: decoder.decision };
+  return { profile: sniffed, saved: false as const, preview, encoding: decoder.decision, sample };
 }
 
 /**
@@ -105,18 +139,69 @@ async function ingestLocked(uploadId: string, client: pg.PoolClient): Promise<In
   await client.query('delete from upload_rejects where upload_id = $1', [uploadId]);
 
   try {
+    // The stored object: its size and type as declared (browser), and its hash computed here. The
+    // hash the browser declared is a claim; only the stored bytes decide what is a repeat.
+    if (up.source === 'browser') {
+      const mismatch = await storedObjectMismatch(up);
+      if (mismatch) throw new IngestError('SIZE_MISMATCH', mismatch, { declaredBytes: up.sizeBytes });
+    }
+    if (!up.sha256) {
+      const sha256 = await hashObject(up.objectKey);
+      if (up.declaredSha256 && up.declaredSha256 !== sha256) {
+        throw new IngestError(
+          'HASH_MISMATCH',
+          `The stored file's SHA-256 is ${sha256}, not the ${up.declaredSha256} declared for it, so it was not read. Upload the file again.`,
+          { declared: up.declaredSha256, stored: sha256 },
+        );
+      }
+      await db().update(uploads).set({ sha256 }).where(eq(uploads.id, uploadId));
+      up.sha256 = sha256;
+      const duplicate = await findDuplicate(up.siteId, sha256, up.id, { id: up.id, createdAt: up.createdAt });
+      if (duplicate) {
+        const summary = { duplicateOf: duplicate.id, note: 'Same bytes as an earlier upload: not read again.' };
+        await db()
+          .update(uploads)
+          .set({ status: 'done', duplicateOf: duplicate.id, finishedAt: sql`clock_timestamp()`, summary })
+          .where(eq(uploads.id, uploadId));
+        return { kind: 'done', summary };
+      }
+    }
+
     const layout = await decideLayout(up, timeZone);
     let profile = layout.profile;
     let profileId = 'profileId' in layout ? layout.profileId : up.profileId;
-    if (!layout.saved) {
-      const blocking = profile.questions.some((q) => q.blocking);
-      if (up.source === 'browser' || blocking) {
-        await db()
-          .update(uploads)
-          .set({ status: 'needs-review', detection: { profile, preview: layout.preview, encoding: layout.encoding ?? null } as Record<string, unknown> })
-          .where(eq(uploads.id, uploadId));
+    // The layout against the file's own values (decimal mark, date order): never guess.
+    const disagreement = 'sample' in layout && layout.sample ? checkLayoutAgainstSample(layout.sample.text, profile, { timeZone, complete: layout.sample.complete }) : null;
+    const machineQuestions = !layout.saved && up.source !== 'browser' ? profile.questions : [];
+    if (disagreement || (!layout.saved && up.source === 'browser') || machineQuestions.length > 0 || (!layout.saved && profile.questions.some((q) => q.blocking))) {
+      const questions = [...(disagreement ? [disagreement.question] : []), ...profile.questions];
+      const asked = { ...profile, questions } as LayoutProfile;
+      const detection = {
+        profile: asked,
+        preview: 'preview' in layout ? layout.preview : [],
+        encoding: 'encoding' in layout ? (layout.encoding ?? null) : null,
+        disagreement: disagreement ?? null,
+      } as Record<string, unknown>;
+      if (up.source === 'browser' || questions.length === 0) {
+        await db().update(uploads).set({ status: 'needs-review', detection: JSON.parse(storableJson(detection)) }).where(eq(uploads.id, uploadId));
         return { kind: 'needs-review' };
       }
+      // A machine upload never guesses: it stops with the question; a person answers it on the
+      // uploads page (the confirmed layout reads the file) or the export is fixed.
+      const reason = `Not read: the layout is not certain for this file. ${questions.map((q) => q.message).join(' ')}`;
+      await db()
+        .update(uploads)
+        .set({
+          status: 'failed',
+          failureReason: storable(reason),
+          finishedAt: sql`clock_timestamp()`,
+          detection: JSON.parse(storableJson(detection)),
+          summary: JSON.parse(storableJson({ code: 'LAYOUT_QUESTION', questions, details: disagreement ?? {} })),
+        })
+        .where(eq(uploads.id, uploadId));
+      return { kind: 'failed', reason };
+    }
+    if (!layout.saved) {
       // A machine upload of a shape the file itself decides: keep the decision as the site's profile.
       const [saved] = await db()
         .insert(layoutProfiles)
@@ -126,23 +211,26 @@ async function ingestLocked(uploadId: string, client: pg.PoolClient): Promise<In
       profile = saved!.profile as unknown as LayoutProfile;
       profileId = saved!.id;
     }
-    const result = await readIntoTransaction(up, profile, timeZone, client);
+    const result = await readIntoTransaction(up, profile, timeZone, site?.createdAt ?? new Date(), client);
     const summary = await finish(up, profile, result, profileId ?? null, client);
-    await queueRecompute(up.siteId, result.report.firstTimeMs, result.report.lastTimeMs);
     if (process.env.LOSSLINE_INGEST_TIMING) console.log(`[ingest] ${uploadId}: read and committed in ${((performance.now() - startedMs) / 1000).toFixed(2)} s`);
     return { kind: 'done', summary };
   } catch (err) {
     await client.query('rollback').catch(() => undefined);
-    if (err instanceof IngestError) {
-      const where = err.line ? ` (line ${err.line})` : '';
-      const reason = `${err.message}${where}`;
-      await db().update(uploads).set({ status: 'failed', failureReason: reason, finishedAt: new Date(), summary: { code: err.code, details: err.details } }).where(eq(uploads.id, uploadId));
+    const fileError = asFileError(err);
+    if (fileError) {
+      const where = fileError.line ? ` (line ${fileError.line})` : '';
+      const reason = storable(`${fileError.message}${where}`);
+      await db()
+        .update(uploads)
+        .set({ status: 'failed', failureReason: reason, finishedAt: sql`clock_timestamp()`, summary: JSON.parse(storableJson({ code: fileError.code, details: fileError.details })) })
+        .where(eq(uploads.id, uploadId));
       return { kind: 'failed', reason };
     }
     const [now] = await db().select({ attempts: uploads.attempts }).from(uploads).where(eq(uploads.id, uploadId));
     if ((now?.attempts ?? MAX_ATTEMPTS) >= MAX_ATTEMPTS) {
       const reason = `Reading stopped ${now?.attempts} times for a reason outside the file (${(err as Error).message}). The raw file is kept; retry when the service is back.`;
-      await db().update(uploads).set({ status: 'failed', failureReason: reason, finishedAt: new Date() }).where(eq(uploads.id, uploadId));
+      await db().update(uploads).set({ status: 'failed', failureReason: reason, finishedAt: sql`clock_timestamp()` }).where(eq(uploads.id, uploadId));
       return { kind: 'failed', reason };
     }
     await db().update(uploads).set({ status: 'queued' }).where(eq(uploads.id, uploadId));
@@ -150,11 +238,39 @@ async function ingestLocked(uploadId: string, client: pg.PoolClient): Promise<In
   }
 }
 
+/**
+ * The file's own problems, as catalogued errors: an IngestError; PostgreSQL refusing a value of the
+ * file (data exceptions, class 22, and size limits, class 54: text it cannot store); a fault of the
+ * reader itself on this file (a TypeError or RangeError from the reading code: retrying cannot
+ * help). Anything else (the database or the store unreachable) is outside the file: null.
+ */
+function asFileError(err: unknown): IngestError | null {
+  if (err instanceof IngestError) return err;
+  const e = err as { code?: unknown; message?: string; $metadata?: unknown };
+  if (typeof e?.code === 'string' && /^(22|54)[0-9A-Z]{3}$/.test(e.code)) {
+    return new IngestError(
+      'UNSTORABLE_TEXT',
+      `The file holds a value the database cannot store (${e.message ?? e.code}). Nothing of it was stored; check the export for unusual characters or enormous cells.`,
+      { sqlState: e.code },
+    );
+  }
+  if ((err instanceof TypeError || err instanceof RangeError) && e.$metadata === undefined && typeof e.code !== 'string') {
+    return new IngestError(
+      'READER_FAULT',
+      `Lossline's reader failed on this file (${err.message}): a fault in Lossline, not in the file. The raw file is kept; report the upload so it can be fixed and read again.`,
+    );
+  }
+  return null;
+}
+
 interface StreamResult {
   report: ReturnType<ReturnType<typeof createFileIngest>['end']>['report'];
   encoding: string;
   hours: number;
+  /** Stored tag hours whose figures this file replaced (the same times arrived again). */
   replaced: number;
+  /** Stored tag hours this file's figures were pooled with (other times of the same hour). */
+  combined: number;
   newTags: number;
   rejectsStored: number;
   bytes: number;
@@ -169,8 +285,21 @@ const MAX_IN_FLIGHT = 3;
  * commits only when the whole file is read, so a failure or a killed worker leaves no tag hour of
  * it behind. Progress goes through another connection, so the uploads page sees it live.
  */
-async function readIntoTransaction(up: typeof uploads.$inferSelect, profile: LayoutProfile, timeZone: string, client: pg.PoolClient): Promise<StreamResult> {
+async function readIntoTransaction(
+  up: typeof uploads.$inferSelect,
+  profile: LayoutProfile,
+  timeZone: string,
+  siteCreatedAt: Date,
+  client: pg.PoolClient,
+): Promise<StreamResult> {
   const known = await db().select().from(tags).where(eq(tags.siteId, up.siteId));
+  // The quantity and unit of each linked tag (the plant model knows them better than the file).
+  const linked = await db()
+    .select({ name: tags.name, quantity: tagLinks.quantity, engUnit: tagLinks.engUnit })
+    .from(tagLinks)
+    .innerJoin(tags, eq(tags.id, tagLinks.tagId))
+    .where(and(eq(tags.siteId, up.siteId), isNull(tagLinks.validTo)));
+  const linkOf = new Map(linked.map((l) => [l.name, l]));
   const byName = new Map(known.map((t) => [t.name, t]));
   const tagId = new Map(known.map((t) => [t.name, t.id]));
   const unitOf = new Map<string, string | null>();
@@ -186,6 +315,7 @@ async function readIntoTransaction(up: typeof uploads.$inferSelect, profile: Lay
   let rejectSeq = 0;
   let hours = 0;
   let replaced = 0;
+  let combined = 0;
   let newTags = 0;
   let latestExistingMs: number | null = null;
   // Writes run one after another on the transaction's connection while the parser reads on (the
@@ -240,7 +370,9 @@ async function readIntoTransaction(up: typeof uploads.$inferSelect, profile: Lay
     const names = rows.map((h) => h.tag);
     enqueue(async () => {
       await ensureTags(names);
-      replaced += await writeHours(client, up.id, rows, tagId, latestExistingMs);
+      const w = await writeHours(client, up.id, rows, tagId, latestExistingMs);
+      replaced += w.replaced;
+      combined += w.combined;
     });
   };
   const flushRejects = () => {
@@ -255,6 +387,12 @@ async function readIntoTransaction(up: typeof uploads.$inferSelect, profile: Lay
   const ingest = createFileIngest({
     timeZone,
     profile,
+    timeWindow: timeWindowFor(siteCreatedAt),
+    valueLimits: (tag, unit) => {
+      const link = linkOf.get(tag);
+      if (link && isLinkQuantity(link.quantity)) return valueLimitsFor(link.engUnit, unitsQuantityOf(link.quantity));
+      return valueLimitsFor(unit ?? byName.get(tag)?.unitHint ?? null);
+    },
     tagOptions: (tag) => {
       const t = byName.get(tag);
       if (!t) return {};
@@ -309,7 +447,7 @@ async function readIntoTransaction(up: typeof uploads.$inferSelect, profile: Lay
   await chain;
   if (failure) throw failure;
   if (process.env.LOSSLINE_INGEST_TIMING) console.log(`[ingest] ${up.id}: ${hours} tag hours, database writes ${(writeMs / 1000).toFixed(2)} s`);
-  return { report, encoding: encoding.encoding, hours, replaced, newTags, rejectsStored, bytes };
+  return { report, encoding: encoding.encoding, hours, replaced, combined, newTags, rejectsStored, bytes };
 }
 
 const toIso = (ms: number | null) => (ms === null ? null : new Date(ms).toISOString());
@@ -337,14 +475,14 @@ async function writeHours(
   rows: TagHour[],
   tagId: Map<string, string>,
   latestExistingMs: number | null,
-): Promise<number> {
+): Promise<{ replaced: number; combined: number }> {
   // The usual case, new hours only, goes in by COPY. Hours after the site's latest stored hour (read
   // once, under the site's ingest lock) cannot clash; otherwise one query looks for clashes.
   let minMs = Infinity;
   for (const h of rows) if (h.hourStartMs < minMs) minMs = h.hourStartMs;
   if (latestExistingMs === null || minMs > latestExistingMs) {
     await copyNewHours(client, uploadId, rows, tagId);
-    return 0;
+    return { replaced: 0, combined: 0 };
   }
   const ids = rows.map((h) => tagId.get(h.tag));
   const starts = rows.map((h) => isoOf(h.hourStartMs));
@@ -356,7 +494,7 @@ async function writeHours(
   const params = clash.rowCount === 0 ? null : hourParams(uploadId, rows, tagId);
   if (!params) {
     await copyNewHours(client, uploadId, rows, tagId);
-    return 0;
+    return { replaced: 0, combined: 0 };
   }
   const res = await client.query(
     `with s as (
@@ -389,12 +527,15 @@ async function writeHours(
          upload_ids = case when ${OVERLAP} then excluded.upload_ids else excluded.upload_ids || o.upload_ids end,
          flags = case when ${OVERLAP} then array_append(excluded.flags, 'replaced-older-file') else array_append(excluded.flags || o.flags, 'combined-files') end,
          updated_at = now()
-       returning 1
+       returning (xmax <> 0) as existed, flags[array_length(flags, 1)] as mark
      )
-     select (select count(*) from hist)::int as replaced, (select count(*) from ins)::int as written`,
+     select (select count(*) from ins where existed and mark = 'replaced-older-file')::int as replaced,
+            (select count(*) from ins where existed and mark = 'combined-files')::int as combined,
+            (select count(*) from hist)::int as touched`,
     params,
   );
-  return (res.rows[0] as { replaced: number }).replaced;
+  const r = res.rows[0] as { replaced: number; combined: number };
+  return { replaced: r.replaced, combined: r.combined };
 }
 
 const copyNum = (v: number | null) => (v === null || !Number.isFinite(v) ? '\\N' : String(v));
@@ -485,24 +626,48 @@ async function insertRejects(client: pg.PoolClient, uploadId: string, startSeq: 
       rows.map((r) => r.line),
       rows.map((r) => r.tag),
       rows.map((r) => (Number.isFinite(r.timeMs) ? new Date(r.timeMs).toISOString() : null)),
-      rows.map((r) => r.text.slice(0, 500)),
-      rows.map((r) => (r.reason === 'text' ? 'not a number' : 'bad quality')),
+      rows.map((r) => storable(r.text.slice(0, 500))),
+      rows.map((r) => REJECT_REASON_TEXT[r.reason]),
     ],
   );
 }
 
-/** The hours a file brought get their unit balances (re)computed by the engine's job. */
-async function queueRecompute(siteId: string, firstMs: number | null, lastMs: number | null) {
+/** The reason of a rejected cell as stored and shown in the rejected-cells report. */
+const REJECT_REASON_TEXT: Record<RejectedCell['reason'], string> = {
+  text: 'not a number',
+  'bad-quality': 'bad quality',
+  impossible: 'physically impossible value',
+  'outside-window': 'time outside the accepted window',
+};
+
+/**
+ * The hours a file brought get their unit balances (re)computed by the engine's job, queued on the
+ * file's own transaction: the job commits with the tag hours or not at all, so a worker killed
+ * between the two can never leave hours that are never computed.
+ */
+async function queueRecompute(siteId: string, firstMs: number | null, lastMs: number | null, client: pg.PoolClient) {
   if (firstMs === null || lastMs === null) return;
   const HOUR = 3_600_000;
   const payload = { siteId, fromMs: Math.floor(firstMs / HOUR) * HOUR - HOUR, toMs: Math.ceil(lastMs / HOUR) * HOUR + HOUR };
   const boss = await queue();
-  await boss.send(QUEUES.computeUnitHours, payload, { retryLimit: 2, retryDelay: 10 });
+  await boss.send(QUEUES.computeUnitHours, payload, {
+    retryLimit: 2,
+    retryDelay: 10,
+    db: { executeSql: (text: string, values: unknown[]) => client.query(text, values as unknown[]) },
+  });
 }
 
 /** Closes the upload's transaction with its summary: the file's tag hours become visible at once. */
 async function finish(up: typeof uploads.$inferSelect, profile: LayoutProfile, r: StreamResult, profileId: string | null, client: pg.PoolClient) {
-  const warnings = r.report.warnings.map((w) => ({ code: w.code, message: w.message, count: w.count, lines: w.lines }));
+  const warnings: { code: string; message: string; count: number; lines: number[] }[] = r.report.warnings.map((w) => ({ code: w.code, message: w.message, count: w.count, lines: w.lines }));
+  if (r.replaced > 0) {
+    warnings.push({
+      code: 'REPLACED_HOURS',
+      message: `This file replaced the stored figures of ${r.replaced} tag hour(s): it holds readings for the same times as an earlier file. The earlier figures are kept in the history.`,
+      count: r.replaced,
+      lines: [],
+    });
+  }
   const summary = {
     rows: r.report.dataRowCount,
     tags: r.report.tags.length,
@@ -512,18 +677,33 @@ async function finish(up: typeof uploads.$inferSelect, profile: LayoutProfile, r
     rejected: r.report.rejectedCount,
     rejectedStored: r.rejectsStored,
     blank: r.report.blankCount,
-    replacedOrCombinedHours: r.replaced,
+    impossible: r.report.tags.reduce((n, t) => n + t.impossibleCount, 0),
+    outsideTimeWindow: r.report.tags.reduce((n, t) => n + t.outsideWindowCount, 0),
+    replacedHours: r.replaced,
+    combinedHours: r.combined,
+    replacedOrCombinedHours: r.replaced + r.combined,
     firstTime: toIso(r.report.firstTimeMs),
     lastTime: toIso(r.report.lastTimeMs),
     encoding: r.encoding,
     layout: profile.layout,
     warnings,
-    perTag: r.report.tags.map((t) => ({ tag: t.tag, values: t.valueCount, notNumbers: t.textCount, badQuality: t.badQualityCount, blank: t.blankCount, examples: t.rejectedTexts.slice(0, 3) })),
+    perTag: r.report.tags.map((t) => ({
+      tag: t.tag,
+      values: t.valueCount,
+      notNumbers: t.textCount,
+      badQuality: t.badQualityCount,
+      impossible: t.impossibleCount,
+      outsideTimeWindow: t.outsideWindowCount,
+      blank: t.blankCount,
+      examples: t.rejectedTexts.slice(0, 3),
+    })),
   };
+  // clock_timestamp(): the moment the upload finished (now() would be when its transaction began).
   await client.query(
-    `update uploads set status = 'done', finished_at = now(), summary = $2, profile_id = $3, bytes_read = $4, rows_read = $5, detection = null where id = $1`,
-    [up.id, JSON.stringify(summary), profileId, r.bytes, r.report.dataRowCount],
+    `update uploads set status = 'done', finished_at = clock_timestamp(), summary = $2, profile_id = $3, bytes_read = $4, rows_read = $5, detection = null where id = $1`,
+    [up.id, storableJson(summary), profileId, r.bytes, r.report.dataRowCount],
   );
+  await queueRecompute(up.siteId, r.report.firstTimeMs, r.report.lastTimeMs, client);
   await client.query('commit');
   return summary;
 }
@@ -538,25 +718,50 @@ const POOLED_STD = `(case when o.mean is null or o.std is null then excluded.std
   else sqrt(greatest(0, (${W1} * (o.std ^ 2 + (o.mean - ${POOLED_MEAN}) ^ 2) + ${W2} * (excluded.std ^ 2 + (excluded.mean - ${POOLED_MEAN}) ^ 2)) / (${W1} + ${W2}))) end)`;
 
 /**
- * At worker start: an upload left 'processing' by a worker that died (its transaction rolled back,
- * its advisory lock released) is queued again, to be read from the start.
+ * An upload left 'processing' by a worker that died is queued again, to be read from the start (its
+ * transaction rolled back). The test of life is the per-upload advisory lock: the reading worker
+ * holds it on its own database session for as long as it lives, and PostgreSQL releases it the
+ * moment that session ends (a killed process closes its connection). Run at worker start and every
+ * INGEST_SWEEP_SECONDS (default 20) by every live worker, so a live worker takes over within a
+ * minute rather than after the job's two-hour expiry.
  */
 export async function resumeInterruptedUploads(): Promise<number> {
-  const stuck = await db().select({ id: uploads.id }).from(uploads).where(eq(uploads.status, 'processing'));
+  // 'processing' with the lock free: its reader is gone. 'queued' with no job waiting for it and no
+  // job that began in the last 30 s: a worker took its job and died before it began reading.
+  const stuck = (
+    await db().execute<{ id: string }>(sql`
+      select u.id from uploads u
+      where u.status = 'processing'
+         or (u.status = 'queued' and not exists (
+               select 1 from pgboss.job j
+               where j.name = ${QUEUES.ingestFile} and j.data->>'uploadId' = u.id::text
+                 and (j.state in ('created', 'retry') or (j.state = 'active' and j.started_on > now() - interval '30 seconds'))))`)
+  ).rows;
   let resumed = 0;
   for (const { id } of stuck) {
     const client = await pgPool().connect();
     try {
       const { rows } = await client.query('select pg_try_advisory_lock(hashtextextended($1, 0)) as ok', ['ingest:' + id]);
-      if (!rows[0].ok) continue; // another worker is reading it right now
-      await client.query('select pg_advisory_unlock(hashtextextended($1, 0))', ['ingest:' + id]);
+      if (!rows[0].ok) continue; // a live worker is reading it right now
+      try {
+        // Under the lock, so no worker can start on it between the check and the change.
+        const moved = await client.query(`update uploads set status = 'queued' where id = $1 and status in ('processing', 'queued')`, [id]);
+        if (moved.rowCount !== 1) continue; // it finished in between
+        const boss = await queue();
+        await boss.send(QUEUES.ingestFile, { uploadId: id }, { singletonKey: `${id}:resume:${Date.now()}`, retryLimit: 2, retryDelay: 5, expireInSeconds: 60 * 60 * 2 });
+        resumed++;
+      } finally {
+        await client.query('select pg_advisory_unlock(hashtextextended($1, 0))', ['ingest:' + id]);
+      }
     } finally {
       client.release();
     }
-    await db().update(uploads).set({ status: 'queued' }).where(and(eq(uploads.id, id), eq(uploads.status, 'processing')));
-    const boss = await queue();
-    await boss.send(QUEUES.ingestFile, { uploadId: id }, { singletonKey: `${id}:resume:${Date.now()}`, retryLimit: 2, retryDelay: 5 });
-    resumed++;
   }
   return resumed;
+}
+
+/** Seconds between two looks for uploads a dead worker left 'processing'. */
+export function sweepSeconds(): number {
+  const s = Number(process.env.INGEST_SWEEP_SECONDS ?? 20);
+  return Number.isFinite(s) && s > 0 ? s : 20;
 }

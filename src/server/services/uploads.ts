@@ -2,12 +2,13 @@ import { createHash, randomUUID } from 'node:crypto';
 import { Transform, type Readable } from 'node:stream';
 import { Upload } from '@aws-sdk/lib-storage';
 import { and, desc, eq, inArray, ne, sql } from 'drizzle-orm';
+import { INGEST_ERROR_CATALOGUE } from '../../lib/ingest/errors';
 import { z } from 'zod';
 import { QUEUES } from '../../jobs';
 import { db } from '../db/client';
 import { layoutProfiles, sites, uploadRejects, uploads, type UploadStatus } from '../db/schema';
 import { queue } from '../queue';
-import { bucket, objectSize, presignPut, s3 } from '../storage';
+import { bucket, objectHead, objectSize, presignPut, s3 } from '../storage';
 
 /** Largest file accepted [bytes]: 4 GiB (a year of one-minute data for a few hundred tags fits easily). */
 export const MAX_UPLOAD_BYTES = 4 * 1024 ** 3;
@@ -21,10 +22,31 @@ export class UploadRuleError extends Error {
   }
 }
 
+/** The one content type raw files are stored with (the presigned PUT signs it). */
+export const RAW_CONTENT_TYPE = 'text/csv';
+
+/** Control characters (NUL, line breaks ...) have no place in a file name. */
+// eslint-disable-next-line no-control-regex
+const CONTROL_CHARS = /[\u0000-\u001f\u007f]/;
+export const FILE_NAME_RULE = 'A file name may not hold control characters (NUL, tabs, line breaks).';
+
+/** Checks a machine upload's file name; throws VALIDATION_FAILED (400). */
+export function checkFileName(name: string): string {
+  if (CONTROL_CHARS.test(name)) throw new UploadRuleError('VALIDATION_FAILED', FILE_NAME_RULE);
+  const trimmed = name.trim();
+  if (!trimmed || trimmed.length > 255) throw new UploadRuleError('VALIDATION_FAILED', 'A file name has 1 to 255 characters.');
+  return trimmed;
+}
+
 export const NewUploadInput = z.object({
-  fileName: z.string().trim().min(1).max(255),
+  fileName: z
+    .string()
+    .refine((n) => !CONTROL_CHARS.test(n), FILE_NAME_RULE)
+    .transform((n) => n.trim())
+    .pipe(z.string().min(1).max(255)),
   sizeBytes: z.number().int().nonnegative().max(MAX_UPLOAD_BYTES, 'Files above 4 GiB are not accepted: split the export.'),
-  contentType: z.string().max(200).default('text/csv'),
+  /** Accepted for compatibility; the file is always stored as text/csv. */
+  contentType: z.string().max(200).default(RAW_CONTENT_TYPE),
   sha256: z
     .string()
     .regex(/^[0-9a-f]{64}$/)
@@ -46,8 +68,12 @@ async function requireSite(siteId: string) {
   return site;
 }
 
-/** An earlier upload of the same bytes to the same site that was read (or is being read). */
-async function findDuplicate(siteId: string, sha256: string, exceptId?: string) {
+/**
+ * An earlier upload of the same bytes to the same site that was read (or is being read). `before`
+ * limits it to uploads created before the one at hand, so two copies read at once never both stand
+ * aside for each other.
+ */
+export async function findDuplicate(siteId: string, sha256: string, exceptId?: string, before?: { id: string; createdAt: Date }) {
   const rows = await db()
     .select({ id: uploads.id, status: uploads.status, fileName: uploads.fileName })
     .from(uploads)
@@ -58,6 +84,7 @@ async function findDuplicate(siteId: string, sha256: string, exceptId?: string) 
         inArray(uploads.status, ['queued', 'processing', 'done', 'needs-review']),
         sql`${uploads.duplicateOf} is null`,
         exceptId ? ne(uploads.id, exceptId) : sql`true`,
+        before ? sql`(${uploads.createdAt}, ${uploads.id}) < (${before.createdAt.toISOString()}::timestamptz, ${before.id}::uuid)` : sql`true`,
       ),
     )
     .orderBy(uploads.createdAt)
@@ -70,9 +97,19 @@ export async function queueIngest(uploadId: string): Promise<void> {
   await boss.send(QUEUES.ingestFile, { uploadId }, { singletonKey: uploadId, retryLimit: 2, retryDelay: 5, expireInSeconds: 60 * 60 * 2 });
 }
 
+/** Marks an upload failed for a reason in the file (its code from the catalogue); the raw file stays. */
+async function failUpload(uploadId: string, code: keyof typeof INGEST_ERROR_CATALOGUE, reason: string, details: Record<string, unknown> = {}) {
+  await db()
+    .update(uploads)
+    .set({ status: 'failed', failureReason: reason, finishedAt: sql`clock_timestamp()`, summary: { code, details } })
+    .where(eq(uploads.id, uploadId));
+}
+
 /**
  * Step 1 of a browser upload: the record is created first, then the browser PUTs the bytes straight
- * into the store with the presigned URL (they never pass through the web server).
+ * into the store with the presigned URL (they never pass through the web server). The declared
+ * SHA-256 is only a hint (duplicateOf in the answer, so the browser may skip sending); the worker
+ * hashes the stored bytes and that hash decides.
  */
 export async function createBrowserUpload(siteId: string, input: z.infer<typeof NewUploadInput>, userId: string) {
   await requireSite(siteId);
@@ -86,29 +123,48 @@ export async function createBrowserUpload(siteId: string, input: z.infer<typeof 
       siteId,
       fileName: input.fileName,
       sizeBytes: input.sizeBytes,
-      sha256: input.sha256 ?? null,
+      sha256: null,
+      declaredSha256: input.sha256 ?? null,
       objectKey,
       source: 'browser',
       uploadedBy: userId,
       status: 'awaiting-file',
-      duplicateOf: duplicate?.id ?? null,
+      duplicateOf: null,
     });
-  const url = await presignPut(objectKey, input.contentType || 'text/csv');
-  return { uploadId: id, objectKey, url, method: 'PUT' as const, headers: { 'content-type': input.contentType || 'text/csv' }, duplicateOf: duplicate };
+  const url = await presignPut(objectKey, RAW_CONTENT_TYPE, undefined, input.sizeBytes);
+  return { uploadId: id, objectKey, url, method: 'PUT' as const, headers: { 'content-type': RAW_CONTENT_TYPE }, duplicateOf: duplicate };
 }
 
-/** Step 2 of a browser upload: the bytes are in the store; queue the reading (or recognise a repeat). */
+/**
+ * Checks a stored browser upload against what was declared for it: its size and the fixed content
+ * type. Returns the reason when they differ, else null.
+ */
+export async function storedObjectMismatch(up: typeof uploads.$inferSelect): Promise<string | null> {
+  const head = await objectHead(up.objectKey);
+  if (!head) return 'The raw file is not in the store.';
+  if (up.sizeBytes !== null && head.size !== up.sizeBytes) {
+    return `The stored file has ${head.size} bytes but ${up.sizeBytes} were declared for it, so it was not read. Upload the file again.`;
+  }
+  const type = (head.contentType ?? '').split(';')[0]!.trim().toLowerCase();
+  if (type !== RAW_CONTENT_TYPE) {
+    return `The stored file has the content type '${head.contentType ?? 'none'}' instead of ${RAW_CONTENT_TYPE}, so it was not read. Upload the file again.`;
+  }
+  return null;
+}
+
+/**
+ * Step 2 of a browser upload: the bytes are in the store; check their size and type and queue the
+ * reading. Whether they repeat an earlier file is decided by the worker from the stored bytes.
+ */
 export async function completeBrowserUpload(uploadId: string) {
   const up = await getUploadRow(uploadId);
   if (up.status !== 'awaiting-file') return { status: up.status };
   const size = await objectSize(up.objectKey);
   if (size === null) throw new UploadRuleError('CONFLICT', 'The file has not arrived in the store yet: upload it, then complete.');
-  if (up.duplicateOf) {
-    await db()
-      .update(uploads)
-      .set({ status: 'done', sizeBytes: size, finishedAt: new Date(), summary: { duplicateOf: up.duplicateOf, note: 'Same bytes as an earlier upload: not read again.' } })
-      .where(eq(uploads.id, uploadId));
-    return { status: 'done' as UploadStatus, duplicateOf: up.duplicateOf };
+  const mismatch = await storedObjectMismatch(up);
+  if (mismatch) {
+    await failUpload(uploadId, 'SIZE_MISMATCH', mismatch, { declaredBytes: up.sizeBytes, storedBytes: size });
+    throw new UploadRuleError('VALIDATION_FAILED', mismatch);
   }
   await db().update(uploads).set({ status: 'queued', sizeBytes: size }).where(eq(uploads.id, uploadId));
   await queueIngest(uploadId);
@@ -135,31 +191,35 @@ class HashCounter extends Transform {
  * multipart upload while it is hashed; nothing is held in memory. Answers with the upload id.
  */
 export async function receiveApiUpload(siteId: string, fileName: string, body: Readable, by: { apiTokenId?: string; userId?: string }) {
+  fileName = checkFileName(fileName);
   await requireSite(siteId);
   const id = randomUUID();
   const objectKey = objectKeyFor(siteId, id, fileName);
-  await db().insert(uploads).values({ id, siteId, fileName, objectKey, source: 'api', apiTokenId: by.apiTokenId ?? null, uploadedBy: by.userId ?? null, status: 'awaiting-file' });
+  const [row] = await db()
+    .insert(uploads)
+    .values({ id, siteId, fileName, objectKey, source: 'api', apiTokenId: by.apiTokenId ?? null, uploadedBy: by.userId ?? null, status: 'awaiting-file' })
+    .returning({ createdAt: uploads.createdAt });
   const counter = new HashCounter(MAX_UPLOAD_BYTES);
   try {
     const upload = new Upload({
       client: s3(),
-      params: { Bucket: bucket(), Key: objectKey, Body: body.pipe(counter), ContentType: 'text/csv' },
+      params: { Bucket: bucket(), Key: objectKey, Body: body.pipe(counter), ContentType: RAW_CONTENT_TYPE },
       queueSize: 4,
       partSize: 8 * 1024 * 1024,
     });
     await upload.done();
   } catch (err) {
     const reason = err instanceof UploadRuleError ? err.message : `The file did not arrive whole: ${(err as Error).message}`;
-    await db().update(uploads).set({ status: 'failed', failureReason: reason, finishedAt: new Date() }).where(eq(uploads.id, id));
+    await db().update(uploads).set({ status: 'failed', failureReason: reason, finishedAt: sql`clock_timestamp()` }).where(eq(uploads.id, id));
     if (err instanceof UploadRuleError) throw err;
     throw new UploadRuleError('VALIDATION_FAILED', reason);
   }
   const sha256 = counter.hash.digest('hex');
-  const duplicate = await findDuplicate(siteId, sha256, id);
+  const duplicate = await findDuplicate(siteId, sha256, id, { id, createdAt: row!.createdAt });
   if (duplicate) {
     await db()
       .update(uploads)
-      .set({ sha256, sizeBytes: counter.bytes, status: 'done', duplicateOf: duplicate.id, finishedAt: new Date(), summary: { duplicateOf: duplicate.id, note: 'Same bytes as an earlier upload: not read again.' } })
+      .set({ sha256, sizeBytes: counter.bytes, status: 'done', duplicateOf: duplicate.id, finishedAt: sql`clock_timestamp()`, summary: { duplicateOf: duplicate.id, note: 'Same bytes as an earlier upload: not read again.' } })
       .where(eq(uploads.id, id));
     return { uploadId: id, duplicateOf: duplicate.id };
   }
@@ -189,7 +249,9 @@ export function uploadView(u: typeof uploads.$inferSelect) {
     rowsRead: u.rowsRead,
     duplicateOf: u.duplicateOf,
     summary: u.summary,
-    detection: u.status === 'needs-review' ? u.detection : undefined,
+    // The layout and its questions while a person must answer (a machine upload stopped with a
+    // layout question is failed, with the same detection).
+    detection: u.status === 'needs-review' || (u.status === 'failed' && (u.summary as { code?: string } | null)?.code === 'LAYOUT_QUESTION') ? u.detection : undefined,
     reason: u.status === 'failed' ? u.failureReason : null,
     createdAt: u.createdAt,
     finishedAt: u.finishedAt,
@@ -210,16 +272,18 @@ export async function retryUpload(uploadId: string) {
   await queueIngest(uploadId);
 }
 
-/** Saves the operator's confirmed layout as a profile of the site and queues the reading. */
+/** Saves the operator's confirmed layout as a profile of the site and queues the reading. A machine
+ * upload stopped with a layout question (failed, LAYOUT_QUESTION) may be answered the same way. */
 export async function confirmLayout(uploadId: string, profile: Record<string, unknown> & { fingerprint: string }, name: string, userId: string) {
   const up = await getUploadRow(uploadId);
-  if (up.status !== 'needs-review') throw new UploadRuleError('CONFLICT', `This upload is ${up.status}, not waiting for a layout.`);
+  const askedMachine = up.status === 'failed' && (up.summary as { code?: string } | null)?.code === 'LAYOUT_QUESTION';
+  if (up.status !== 'needs-review' && !askedMachine) throw new UploadRuleError('CONFLICT', `This upload is ${up.status}, not waiting for a layout.`);
   const [saved] = await db()
     .insert(layoutProfiles)
     .values({ siteId: up.siteId, fingerprint: profile.fingerprint, name, profile, confirmedBy: userId })
     .onConflictDoUpdate({ target: [layoutProfiles.siteId, layoutProfiles.fingerprint], set: { profile, name, confirmedBy: userId } })
     .returning({ id: layoutProfiles.id });
-  await db().update(uploads).set({ status: 'queued', profileId: saved!.id }).where(eq(uploads.id, uploadId));
+  await db().update(uploads).set({ status: 'queued', profileId: saved!.id, failureReason: null }).where(eq(uploads.id, uploadId));
   await queueIngest(uploadId);
   return { profileId: saved!.id };
 }

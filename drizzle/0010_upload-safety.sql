@@ -1,0 +1,1 @@
+ALTER TABLE "uploads" ADD COLUMN "declared_sha256" text;
