@@ -8,11 +8,12 @@ const Query = z.object({
   status: z.enum(['open', 'acknowledged', 'closed', 'not-closed']).optional(),
   unitId: z.string().uuid().optional(),
   siteId: z.string().uuid().optional(),
+  sort: z.enum(['cost', 'newest']).optional(),
 });
 
-/** Drift notices, open first, then seen, then closed; newest first within each. */
+/** Drift notices, those not closed first; by current cost per day (default) or newest first (sort=newest). */
 export const GET: APIRoute = async ({ url }) => {
   const q = Query.safeParse(Object.fromEntries(url.searchParams));
-  if (!q.success) return apiError('VALIDATION_FAILED', 'Unknown filter: status is open, acknowledged, closed or not-closed; unitId and siteId are ids.', q.error.issues);
+  if (!q.success) return apiError('VALIDATION_FAILED', 'Unknown filter: status is open, acknowledged, closed or not-closed; unitId and siteId are ids; sort is cost or newest.', q.error.issues);
   return answer(async () => Response.json({ notices: await listNotices(q.data) }));
 };
