@@ -100,6 +100,11 @@ export const NoticeSettingsInput = z.strictObject({
   escalationMultiple: z.number().finite().min(1.1, 'The multiple must be at least 1.1 (else every small change mails).').max(100, 'A multiple above 100 would hardly ever mail.'),
 });
 
+/** Sites by name, for the settings form. */
+export async function siteChoices(): Promise<{ id: string; name: string }[]> {
+  return db().select({ id: sites.id, name: sites.name }).from(sites).orderBy(asc(sites.name));
+}
+
 /** The multiple that sends an escalation mail at a site. */
 export async function escalationMultipleFor(r: Pick<Tx, 'select'>, siteId: string): Promise<number> {
   const [row] = await r.select({ m: noticeSiteSettings.escalationMultiple }).from(noticeSiteSettings).where(eq(noticeSiteSettings.siteId, siteId));
