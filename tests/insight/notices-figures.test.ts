@@ -120,6 +120,11 @@ describe('a later, larger shift', () => {
     // 3500 >= 3000; 3500 - 2000 = 1500 > sqrt(1400^2 + 500^2) = 1486.6: true; with U 1500, 1500 < sqrt(1500^2 + 500^2) = 1581.1: false.
     expect(clearlyLarger({ ...cur, mean_W: 3500, U_W: 1400 }, cur, 'up')).toBe(true);
     expect(clearlyLarger({ ...cur, mean_W: 3500, U_W: 1500 }, cur, 'up')).toBe(false);
+    // The stopping rule's floor (k + h/N) sigma: with k = 0.5, h = 5, N = 3 and sigma = 1500 W the floor is
+    // 2.1667 x 1500 = 3250 W, above the current 2000 W: 4000 < 1.5 x 3250 = 4875, absorbed; 6000 >= 4875 and
+    // 6000 - 3250 = 2750 > 1118: a notice of its own.
+    expect(clearlyLarger({ ...cur, mean_W: 4000, U_W: 1000 }, cur, 'up', (0.5 + 5 / 3) * 1500)).toBe(false);
+    expect(clearlyLarger({ ...cur, mean_W: 6000, U_W: 1000 }, cur, 'up', (0.5 + 5 / 3) * 1500)).toBe(true);
     // downwards: sizes count in the notice's direction
     expect(clearlyLarger({ ...cur, mean_W: -4000, U_W: 1000 }, { ...cur, mean_W: -2000 }, 'down')).toBe(true);
   });

@@ -164,16 +164,19 @@ export function fadedAt(afterLastSignal: readonly ResidualHour[], sigma_W: numbe
 
 /**
  * Whether a new signal's shift clearly exceeds an open notice's current size, so that it opens a
- * notice of its own (which names the earlier) instead of being absorbed. Rule: in the notice's
- * direction, the new size is at least LARGER_FACTOR times the current size, and their difference is
- * larger than its combined uncertainty sqrt(U_new^2 + U_cur^2).
+ * notice of its own (which names the earlier) instead of being absorbed. The hours from a signal's
+ * onset to its crossing are picked by the stopping rule: their mean is at least (k + h/N) sigma even
+ * when the shift has not changed (N the hours from onset to signal). Rule: with base = the larger of
+ * the current size and that floor (in the notice's direction), the new size is at least
+ * LARGER_FACTOR times the base and above it by more than sqrt(U_new^2 + U_cur^2).
+ * @param floor_W (k + h/N) sigma [W]; 0 to compare with the current size alone
  */
-export function clearlyLarger(signal: ShiftFigure, current: ShiftFigure, direction: Direction): boolean {
+export function clearlyLarger(signal: ShiftFigure, current: ShiftFigure, direction: Direction, floor_W = 0): boolean {
   if (signal.hours === 0 || current.hours === 0) return false;
   const s = sign(direction);
   const a = s * signal.mean_W;
-  const b = s * current.mean_W;
-  return a >= LARGER_FACTOR * Math.max(b, 0) && a - b > Math.sqrt(signal.U_W ** 2 + current.U_W ** 2);
+  const base = Math.max(s * current.mean_W, floor_W, 0);
+  return a >= LARGER_FACTOR * base && a - base > Math.sqrt(signal.U_W ** 2 + current.U_W ** 2);
 }
 
 export interface RepairVerdict {

@@ -201,7 +201,6 @@ async function onSignal(tx: Tx, exec: Exec, ctx: Ctx, points: Point[], between: 
   const onsetMs = hours[0]!.hourStart_ms;
   const signalMs = hours[hours.length - 1]!.hourStart_ms;
   const d: Direction = sig.direction;
-  const sigFig = shiftFigure(hours, ctx.sigma_W, ctx.phi);
 
   const [live] = await tx
     .select()
@@ -214,7 +213,11 @@ async function onSignal(tx: Tx, exec: Exec, ctx: Ctx, points: Point[], between: 
       await tx.update(driftNotices).set({ fadedSince: new Date(faded) }).where(eq(driftNotices.id, live.id));
     } else {
       const current = shiftFigure(between(live.onsetHour.getTime(), onsetMs).slice(-CURRENT_WINDOW_HOURS), ctx.sigma_W, ctx.phi);
-      if (!clearlyLarger(sigFig, current, d)) {
+      // The hours up to a crossing are picked by the stopping rule (their mean is at least k + h/N):
+      // the new size must clear that floor too, so a re-signal of the same shift is absorbed.
+      const sigFig = shiftFigure(hours, ctx.sigma_W, ctx.phi);
+      const floor_W = (ctx.k + ctx.h / hours.length) * ctx.sigma_W;
+      if (!clearlyLarger(sigFig, current, d, floor_W)) {
         await tx.update(driftNotices).set({ lastSignalHour: new Date(signalMs) }).where(eq(driftNotices.id, live.id));
         return null;
       }
