@@ -111,19 +111,22 @@ describe('fading', () => {
 });
 
 describe('a later, larger shift', () => {
-  it('hand-worked: 1.5 times the current size and apart by more than sqrt(U_new^2 + U_cur^2)', () => {
+  it('hand-worked: 1.5 times the current size and apart by more than 1.5 sqrt(U_new^2 + U_cur^2)', () => {
     const cur = { hours: 24, fromMs: 0, toMs: 0, mean_W: 2000, U_W: 500, statU_W: 500, measU_W: null, nEff: 24, exceedsMeasurement: null };
-    // 4000 >= 1.5 x 2000 = 3000 and 4000 - 2000 = 2000 > sqrt(1000^2 + 500^2) = 1118: a notice of its own.
+    // 4000 >= 1.5 x 2000 = 3000 and 4000 - 2000 = 2000 > 1.5 sqrt(1000^2 + 500^2) = 1677.1: a notice of its own.
     expect(clearlyLarger({ ...cur, mean_W: 4000, U_W: 1000 }, cur, 'up')).toBe(true);
-    // 2900 < 3000: absorbed.
-    expect(clearlyLarger({ ...cur, mean_W: 2900, U_W: 100 }, cur, 'up')).toBe(false);
-    // 3500 >= 3000; 3500 - 2000 = 1500 > sqrt(1400^2 + 500^2) = 1486.6: true; with U 1500, 1500 < sqrt(1500^2 + 500^2) = 1581.1: false.
-    expect(clearlyLarger({ ...cur, mean_W: 3500, U_W: 1400 }, cur, 'up')).toBe(true);
-    expect(clearlyLarger({ ...cur, mean_W: 3500, U_W: 1500 }, cur, 'up')).toBe(false);
+    // 3500 - 2000 = 1500 < 1677.1: absorbed.
+    expect(clearlyLarger({ ...cur, mean_W: 3500, U_W: 1000 }, cur, 'up')).toBe(false);
+    // 2900 < 3000: absorbed whatever the uncertainty.
+    expect(clearlyLarger({ ...cur, mean_W: 2900, U_W: 10 }, cur, 'up')).toBe(false);
+    // 1.5 sqrt(1400^2 + 500^2) = 2229.9: 4300 - 2000 = 2300 above it (true); with U 1500, 1.5 sqrt(1500^2 + 500^2) = 2371.7 (false).
+    expect(clearlyLarger({ ...cur, mean_W: 4300, U_W: 1400 }, cur, 'up')).toBe(true);
+    expect(clearlyLarger({ ...cur, mean_W: 4300, U_W: 1500 }, cur, 'up')).toBe(false);
     // The stopping rule's floor (k + h/N) sigma: with k = 0.5, h = 5, N = 3 and sigma = 1500 W the floor is
-    // 2.1667 x 1500 = 3250 W, above the current 2000 W: 4000 < 1.5 x 3250 = 4875, absorbed; 6000 >= 4875 and
-    // 6000 - 3250 = 2750 > 1118: a notice of its own.
-    expect(clearlyLarger({ ...cur, mean_W: 4000, U_W: 1000 }, cur, 'up', (0.5 + 5 / 3) * 1500)).toBe(false);
+    // 2.1667 x 1500 = 3250 W, above the current 2000 W: 4800 < 1.5 x 3250 = 4875, absorbed (it would not be
+    // without the floor); 6000 >= 4875 and 6000 - 3250 = 2750 > 1677.1: a notice of its own.
+    expect(clearlyLarger({ ...cur, mean_W: 4800, U_W: 1000 }, cur, 'up')).toBe(true);
+    expect(clearlyLarger({ ...cur, mean_W: 4800, U_W: 1000 }, cur, 'up', (0.5 + 5 / 3) * 1500)).toBe(false);
     expect(clearlyLarger({ ...cur, mean_W: 6000, U_W: 1000 }, cur, 'up', (0.5 + 5 / 3) * 1500)).toBe(true);
     // downwards: sizes count in the notice's direction
     expect(clearlyLarger({ ...cur, mean_W: -4000, U_W: 1000 }, { ...cur, mean_W: -2000 }, 'down')).toBe(true);
