@@ -129,12 +129,14 @@ export async function reconcileNotices(tx: Tx, exec: Exec, ctx: Ctx, pending: Pe
       })
       .where(eq(driftNotices.id, n.id));
     // Escalation: a live notice of more destruction whose cost per day has grown past the multiple.
-    if (!fadedSince && !n.supersededBy && d === 'up' && cost.cost_per_day !== null && n.mailedCost_per_day !== null && n.mailedCost_per_day > 0) {
+    // (Notices opened before live figures existed stated their first figure in their mail.)
+    const mailed = n.mailedCost_per_day ?? n.extraCost_per_day;
+    if (!fadedSince && !n.supersededBy && d === 'up' && cost.cost_per_day !== null && mailed !== null && mailed > 0) {
       const multiple = await escalationMultipleFor(tx, n.siteId);
-      if (cost.cost_per_day >= multiple * n.mailedCost_per_day) {
+      if (cost.cost_per_day >= multiple * mailed) {
         const step = n.escalationStep + 1;
         await tx.update(driftNotices).set({ escalationStep: step, mailedCost_per_day: cost.cost_per_day }).where(eq(driftNotices.id, n.id));
-        await queueEscalationMails(tx, exec, n.id, step, n.mailedCost_per_day, cost.cost_per_day);
+        await queueEscalationMails(tx, exec, n.id, step, mailed, cost.cost_per_day);
       }
     }
   }
