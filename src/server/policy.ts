@@ -60,6 +60,7 @@ export const API_POLICY: Record<string, RoutePolicy> = {
   '/api/units/[unitId]/drift-settings': { methods: { GET: ANY_ROLE, PUT: LEADS } },
   '/api/units/[unitId]/limits': { methods: { GET: ANY_ROLE, PUT: LEADS } },
   '/api/notices': { methods: { GET: ANY_ROLE } },
+  '/api/notices/settings': { methods: { GET: ANY_ROLE, PUT: ['admin', 'energy-lead'] } },
   '/api/notices/preferences': { methods: { GET: ['admin', 'energy-lead', 'planner'], PUT: ['admin', 'energy-lead', 'planner'] } },
   '/api/notices/[noticeId]': { methods: { GET: ANY_ROLE } },
   '/api/notices/[noticeId]/acknowledge': { methods: { POST: ['admin', 'energy-lead', 'planner'] } },

@@ -1,6 +1,6 @@
 // Tables of baselines, drift notices and reports (issue: insight). Owned by the insight work.
 import { sql } from 'drizzle-orm';
-import { boolean, date, doublePrecision, index, integer, jsonb, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
+import { boolean, date, doublePrecision, index, integer, jsonb, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid, type AnyPgColumn } from 'drizzle-orm/pg-core';
 import type { BaselineModel, BaselineTerm } from '../../lib/analytics/baseline';
 import { user } from './auth-schema';
 import { plantUnits, sites } from './plant-schema';
@@ -100,6 +100,23 @@ export type NoticeKind = (typeof NOTICE_KINDS)[number];
 
 export const NOTICE_STATUSES = ['open', 'acknowledged', 'closed'] as const;
 export type NoticeStatus = (typeof NOTICE_STATUSES)[number];
+export type NoticeTrend = 'growing' | 'steady' | 'receding';
+export type PriorReason = 'larger' | 'after-fade' | 'after-close' | 'after-repair';
+export const CLOSE_OUTCOMES = ['repaired', 'instrument-fault', 'new-normal', 'no-action'] as const;
+export type CloseOutcome = (typeof CLOSE_OUTCOMES)[number];
+/** The repair verdict's figures as stored (W, currency per month). */
+export interface StoredVerdict {
+  before_W: number;
+  beforeU_W: number;
+  beforeHours: number;
+  after_W: number;
+  afterU_W: number;
+  afterHours: number;
+  avoided_W: number;
+  avoidedU_W: number;
+  avoidedCost_per_month: number | null;
+  avoidedCostU_per_month: number | null;
+}
 
 /**
  * A drift notice: a sustained shift of a unit's destruction from its expected value (a CUSUM
@@ -167,9 +184,48 @@ export const driftNotices = pgTable(
     closedBy: text('closed_by').references(() => user.id, { onDelete: 'set null' }),
     closedAt: timestamp('closed_at', { withTimezone: true }),
     closeComment: text('close_comment'),
+    // ---- live figures (recomputed at every drift check; the columns above keep the first figures) ----
+    /** Mean residual of the last 24 steady hours [W], its combined expanded uncertainty and hours. */
+    current_W: doublePrecision('current_w'),
+    currentU_W: doublePrecision('current_u_w'),
+    currentMeasU_W: doublePrecision('current_meas_u_w'),
+    currentHours: integer('current_hours'),
+    /** |current_W| beyond its measurement uncertainty; null when the hours carry none. */
+    currentExceeds: boolean('current_exceeds'),
+    currentCost_per_day: doublePrecision('current_cost_per_day'),
+    currentCostU_per_day: doublePrecision('current_cost_u_per_day'),
+    /** Mean residual from onset to the latest hour [W], its uncertainty and hours. */
+    sinceOnset_W: doublePrecision('since_onset_w'),
+    sinceOnsetU_W: doublePrecision('since_onset_u_w'),
+    sinceOnsetHours: integer('since_onset_hours'),
+    trend: text('trend').$type<NoticeTrend>(),
+    /** Latest steady hour behind the live figures. */
+    figuresHour: timestamp('figures_hour', { withTimezone: true }),
+    /** The shift has gone since this hour; the notice no longer takes later signals. */
+    fadedSince: timestamp('faded_since', { withTimezone: true }),
+    /** A later, clearly larger shift of the unit opened this notice. */
+    supersededBy: uuid('superseded_by'),
+    /** The earlier notice of the unit and direction this one follows, and why it is a notice of its own. */
+    priorNoticeId: uuid('prior_notice_id').references((): AnyPgColumn => driftNotices.id, { onDelete: 'set null' }),
+    priorReason: text('prior_reason').$type<PriorReason>(),
+    // ---- closing and the repair verdict ----
+    closeOutcome: text('close_outcome').$type<CloseOutcome>(),
+    repairedAt: timestamp('repaired_at', { withTimezone: true }),
+    newNormalFrom: timestamp('new_normal_from', { withTimezone: true }),
+    /** The last steady hour of the reporting period when the verdict was given. */
+    verdictHour: timestamp('verdict_hour', { withTimezone: true }),
+    verdictBack: boolean('verdict_back'),
+    verdict: jsonb('verdict').$type<StoredVerdict>(),
+    followUpNoticeId: uuid('follow_up_notice_id').references((): AnyPgColumn => driftNotices.id, { onDelete: 'set null' }),
+    // ---- escalation ----
+    /** Cost per day stated by the latest mail about this notice (opening or escalation). */
+    mailedCost_per_day: doublePrecision('mailed_cost_per_day'),
+    escalationStep: integer('escalation_step').notNull().default(0),
   },
   (t) => [
-    uniqueIndex('drift_notices_one_open').on(t.unitId, t.kind, t.direction).where(sql`status <> 'closed'`),
+    uniqueIndex('drift_notices_one_open')
+      .on(t.unitId, t.kind, t.direction)
+      .where(sql`status <> 'closed' and faded_since is null and superseded_by is null`),
     index('drift_notices_status').on(t.status, t.openedAt),
   ],
 );
@@ -215,3 +271,34 @@ export const noticeDigests = pgTable(
   },
   (t) => [primaryKey({ columns: [t.userId, t.day] })],
 );
+
+/**
+ * One row per notice, escalation step and person: the marker that makes "one escalation mail per
+ * step" hold under retries and concurrent checks (as notice_mails does for the opening mail).
+ */
+export const noticeEscalations = pgTable(
+  'notice_escalations',
+  {
+    noticeId: uuid('notice_id')
+      .notNull()
+      .references(() => driftNotices.id, { onDelete: 'cascade' }),
+    step: integer('step').notNull(),
+    userId: text('user_id')
+      .notNull()
+      .references(() => user.id, { onDelete: 'cascade' }),
+    cost_per_day: doublePrecision('cost_per_day').notNull(),
+    queuedAt: timestamp('queued_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [primaryKey({ columns: [t.noticeId, t.step, t.userId] })],
+);
+
+/** Per-site notice settings an energy lead sets: the growth of cost per day that sends an escalation mail. */
+export const noticeSiteSettings = pgTable('notice_site_settings', {
+  siteId: uuid('site_id')
+    .primaryKey()
+    .references(() => sites.id, { onDelete: 'cascade' }),
+  /** Multiple of the cost per day at the last mail that sends the next one [-]; default 2. */
+  escalationMultiple: doublePrecision('escalation_multiple').notNull().default(2),
+  updatedBy: text('updated_by').references(() => user.id, { onDelete: 'set null' }),
+  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+});

@@ -17,12 +17,12 @@ import { CheckDriftPayload, QUEUES } from '../../jobs';
 import { predict, type BaselineModel } from '../../lib/analytics/baseline';
 import { ar1Innovation, type Ar1Model } from '../../lib/analytics/autocorrelation';
 import { DRIFT_CHECK_DEFAULTS, cusumInit, cusumStep, type CusumState, type DriftSignal } from '../../lib/analytics/drift';
-import { baselines, driftPoints, driftSettings, plantUnits, unitHours } from '../db/schema';
+import { baselines, driftNotices, driftPoints, driftSettings, plantUnits, unitHours } from '../db/schema';
 import { queue } from '../queue';
 import { db } from '../db/client';
 import { InsightError, isUuid } from './baselines';
 import { inInsightTx, type Tx } from './drift-tx';
-import { openOrAbsorbSignal, type SignalFigures } from './notices';
+import { reconcileNotices } from './notice-life';
 
 const HOUR_ms = 3_600_000;
 
@@ -169,7 +169,22 @@ export async function checkUnit(unitId: string, fromMs: number): Promise<UnitChe
     const rows: (typeof driftPoints.$inferInsert)[] = [];
     const pending: PendingPoint[] = [];
     let last: { r: number; ms: number } | null = prev ? { r: prev.residual_W, ms: prev.hourStart.getTime() } : null;
+    // After a repair the sums restart at zero from the repair date (notices closed as repaired).
+    const repairs = (
+      await tx
+        .select({ at: driftNotices.repairedAt })
+        .from(driftNotices)
+        .where(and(eq(driftNotices.unitId, unitId), eq(driftNotices.closeOutcome, 'repaired'), isNotNull(driftNotices.repairedAt)))
+    )
+      .map((r) => r.at!.getTime())
+      .sort((x, y) => x - y);
+    let lastMs = after.getTime();
     for (const h of hours) {
+      if (repairs.some((r) => r > lastMs && r <= h.hourStart.getTime())) {
+        state = { ...cusumInit(), step: state.step };
+        last = null; // the innovation after a repair does not lean on the hour before it
+      }
+      lastMs = h.hourStart.getTime();
       const expected_W = predict(model, h.load!, h.T0_K!);
       const residual_W = h.destruction_W! - expected_W;
       // The standardised one-step innovation; after a gap of g hours the g-step prediction (autocorrelation.ts).
@@ -199,54 +214,13 @@ export async function checkUnit(unitId: string, fromMs: number): Promise<UnitChe
     }
     for (let i = 0; i < rows.length; i += 1000) await tx.insert(driftPoints).values(rows.slice(i, i + 1000));
 
-    const opened: string[] = [];
-    let signals = 0;
-    for (const p of pending) {
-      for (const sig of p.signals) {
-        signals++;
-        const figures = await signalFigures(tx, unitId, sig, settings, s);
-        const id = await openOrAbsorbSignal(tx, exec, { unitId, baselineId: b.id, ...figures });
-        if (id) opened.push(id);
-      }
-    }
+    const [unit] = await tx.select({ siteId: plantUnits.siteId }).from(plantUnits).where(eq(plantUnits.id, unitId));
+    const { opened, signals } = await reconcileNotices(
+      tx,
+      exec,
+      { unitId, siteId: unit!.siteId, baselineId: b.id, sigma_W: s, phi: ar1.phi, k: settings.k, h: settings.h },
+      pending,
+    );
     return { unitId, outcome: 'checked', hours: rows.length, signals, opened };
   });
-}
-
-/**
- * The figures of a signal from the hours between its onset and the signal: mean residual (the extra
- * destruction), mean expected, the mean expanded uncertainty of one hour and of the mean.
- */
-async function signalFigures(tx: Tx, unitId: string, sig: DriftSignal, settings: { k: number; h: number }, s: number): Promise<Omit<SignalFigures, 'unitId' | 'baselineId'>> {
-  const [a] = await tx
-    .select({
-      n: sql<number>`count(*)::int`,
-      onset: sql<string>`min(${driftPoints.hourStart})`,
-      signal: sql<string>`max(${driftPoints.hourStart})`,
-      extra_W: sql<number>`avg(${driftPoints.residual_W})`,
-      expected_W: sql<number>`avg(${driftPoints.expected_W})`,
-      measured_W: sql<number>`avg(${driftPoints.destruction_W})`,
-      hourU_W: sql<number | null>`case when count(${driftPoints.destructionU_W}) = count(*) then avg(${driftPoints.destructionU_W}) end`,
-      cost_per_h: sql<number | null>`sum(${driftPoints.destructionCost_per_h}) filter (where ${driftPoints.destructionCost_per_h} is not null)`,
-      costed_J: sql<number | null>`sum(${driftPoints.destruction_W} * 3600) filter (where ${driftPoints.destructionCost_per_h} is not null)`,
-    })
-    .from(driftPoints)
-    .where(and(eq(driftPoints.unitId, unitId), gte(driftPoints.step, sig.onsetStep), sql`${driftPoints.step} <= ${sig.step}`));
-  const n = a!.n;
-  const hourU_W = a!.hourU_W === null ? null : Number(a!.hourU_W);
-  return {
-    direction: sig.direction,
-    onsetHour: new Date(a!.onset),
-    signalHour: new Date(a!.signal),
-    hours: n,
-    extra_W: Number(a!.extra_W),
-    expected_W: Number(a!.expected_W),
-    measured_W: Number(a!.measured_W),
-    // in residual spreads s: the CUSUM's own estimate is in spreads of the innovations
-    shift_sigma: Number(a!.extra_W) / s,
-    hourU_W,
-    unitCost: a!.cost_per_h !== null && Number(a!.costed_J) > 0 ? Number(a!.cost_per_h) / Number(a!.costed_J) : null,
-    k: settings.k,
-    h: settings.h,
-  };
 }

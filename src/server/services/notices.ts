@@ -1,8 +1,10 @@
 /**
- * Drift notices: opened by the drift check (./drift.ts), read by everyone, acknowledged ('seen') and
- * closed with a comment by planners, energy leads and admins. One e-mail per notice and person when it
- * opens, guaranteed by the notice_mails marker committed in the same transaction as the mail job;
- * an optional daily digest of open notices per person (notice_preferences, notice_digests).
+ * Drift notices: opened and kept current by the drift check (./drift.ts, ./notice-life.ts), read by
+ * everyone, acknowledged ('seen') and closed with what was done by planners, energy leads and admins.
+ * One e-mail per notice and person when it opens, guaranteed by the notice_mails marker committed in
+ * the same transaction as the mail job; one escalation mail per step and person when its cost per day
+ * has grown past the site's multiple (notice_escalations); an optional daily digest of open notices
+ * per person (notice_preferences, notice_digests).
  */
 import { TZDate } from '@date-fns/tz';
 import { format } from 'date-fns';
@@ -10,11 +12,27 @@ import { and, asc, desc, eq, gte, inArray, lt, ne, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import { z } from 'zod';
 import { QUEUES } from '../../jobs';
-import { extraDestructionCost_per_day, fuelExergyCost_per_J } from '../../lib/analytics/cost';
+import { fuelExergyCost_per_J } from '../../lib/analytics/cost';
+import { chartSeries, type ResidualHour } from '../../lib/analytics/notice-figures';
 import type { Role } from '../../lib/roles';
 import { db } from '../db/client';
-import type { NoticeView } from '../../lib/notice-view';
-import { baselines, driftNotices, driftPoints, noticeDigests, noticeMails, noticePreferences, plantUnits, sites, user, type NoticeStatus } from '../db/schema';
+import type { NoticeChartEvent, NoticeLife, NoticeView } from '../../lib/notice-view';
+import {
+  CLOSE_OUTCOMES,
+  baselines,
+  driftNotices,
+  driftPoints,
+  noticeDigests,
+  noticeEscalations,
+  noticeMails,
+  noticePreferences,
+  noticeSiteSettings,
+  plantUnits,
+  sites,
+  user,
+  type CloseOutcome,
+  type NoticeStatus,
+} from '../db/schema';
 import { env } from '../env';
 import { escapeHtml } from '../mail';
 import { queue } from '../queue';
@@ -42,26 +60,6 @@ export const NOTICE_ACTORS: readonly Role[] = ['admin', 'energy-lead', 'planner'
  */
 export const FALLBACK_EXERGY_TO_LHV = 1.04;
 
-export interface SignalFigures {
-  unitId: string;
-  baselineId: string;
-  direction: 'up' | 'down';
-  onsetHour: Date;
-  signalHour: Date;
-  hours: number;
-  /** Mean residual, measured minus expected destruction, onset to signal [W]. */
-  extra_W: number;
-  expected_W: number;
-  measured_W: number;
-  shift_sigma: number;
-  /** Mean expanded (k = 2) uncertainty of one hour's destruction [W]; null when not every hour has one. */
-  hourU_W: number | null;
-  /** Cost per joule of destroyed exergy from the hours' own cost [currency/J]; null when they carry none. */
-  unitCost: number | null;
-  k: number;
-  h: number;
-}
-
 /**
  * Whether a shift exceeds the measurement uncertainty. Rule: the shift is the mean of n hourly
  * residuals; with the hours' errors independent, the expanded uncertainty of that mean is
@@ -75,7 +73,8 @@ export function shiftAgainstUncertainty(extra_W: number, hourU_W: number | null,
   return { shiftU_W, exceeds: Math.abs(extra_W) > shiftU_W };
 }
 
-async function costRate(tx: Tx, unitId: string, unitCost: number | null): Promise<{ cF: number | null; basis: string | null; currency: string }> {
+/** The cost rate of a unit's destroyed exergy: the hours' own, else the site's fuel price. */
+export async function costRate(tx: Tx, unitId: string, unitCost: number | null): Promise<{ cF: number | null; basis: string | null; currency: string }> {
   const [u] = await tx
     .select({ currency: sites.currency, prices: sites.prices, fuel: plantUnits.fuel })
     .from(plantUnits)
@@ -94,60 +93,43 @@ async function costRate(tx: Tx, unitId: string, unitCost: number | null): Promis
   };
 }
 
-/**
- * A CUSUM signal: opens a notice (and queues its mails in the same transaction) unless one for the
- * unit and direction is still open (then its last signal hour moves on) or this shift was already
- * reported (a notice whose last signal is at or after this signal's onset: a re-run of known hours).
- * @returns the id of the notice opened, or null
- */
-export async function openOrAbsorbSignal(tx: Tx, exec: Exec, f: SignalFigures): Promise<string | null> {
-  const [open] = await tx
-    .select({ id: driftNotices.id, lastSignalHour: driftNotices.lastSignalHour })
-    .from(driftNotices)
-    .where(and(eq(driftNotices.unitId, f.unitId), eq(driftNotices.kind, 'drift'), eq(driftNotices.direction, f.direction), ne(driftNotices.status, 'closed')));
-  if (open) {
-    if (f.signalHour > open.lastSignalHour) await tx.update(driftNotices).set({ lastSignalHour: f.signalHour }).where(eq(driftNotices.id, open.id));
-    return null;
-  }
-  const [reported] = await tx
-    .select({ id: driftNotices.id })
-    .from(driftNotices)
-    .where(and(eq(driftNotices.unitId, f.unitId), eq(driftNotices.kind, 'drift'), eq(driftNotices.direction, f.direction), gte(driftNotices.lastSignalHour, f.onsetHour)))
-    .limit(1);
-  if (reported) return null;
-  const [unit] = await tx.select({ siteId: plantUnits.siteId }).from(plantUnits).where(eq(plantUnits.id, f.unitId));
-  const cost = await costRate(tx, f.unitId, f.unitCost);
-  const u = shiftAgainstUncertainty(f.extra_W, f.hourU_W, f.hours);
-  const [row] = await tx
-    .insert(driftNotices)
-    .values({
-      siteId: unit!.siteId,
-      unitId: f.unitId,
-      baselineId: f.baselineId,
-      direction: f.direction,
-      status: 'open',
-      onsetHour: f.onsetHour,
-      signalHour: f.signalHour,
-      lastSignalHour: f.signalHour,
-      hours: f.hours,
-      extra_W: f.extra_W,
-      expected_W: f.expected_W,
-      shift_sigma: f.shift_sigma,
-      extraCost_per_day: cost.cF === null ? null : extraDestructionCost_per_day(cost.cF, f.measured_W, f.expected_W).cost_per_day,
-      currency: cost.currency,
-      cF_per_J: cost.cF,
-      costBasis: cost.basis,
-      hourU_W: f.hourU_W,
-      shiftU_W: u.shiftU_W,
-      exceedsUncertainty: u.exceeds,
-      k: f.k,
-      h: f.h,
-    })
-    .onConflictDoNothing()
-    .returning({ id: driftNotices.id });
-  if (!row) return null;
-  await queueNoticeMails(tx, exec, row.id);
-  return row.id;
+/** Default multiple of the cost per day at the last mail that sends an escalation mail (common practice). */
+export const DEFAULT_ESCALATION_MULTIPLE = 2;
+
+export const NoticeSettingsInput = z.strictObject({
+  /** Multiple of the cost per day at the last mail [-]. */
+  escalationMultiple: z.number().finite().min(1.1, 'The multiple must be at least 1.1 (else every small change mails).').max(100, 'A multiple above 100 would hardly ever mail.'),
+});
+
+/** Sites by name, for the settings form. */
+export async function siteChoices(): Promise<{ id: string; name: string }[]> {
+  return db().select({ id: sites.id, name: sites.name }).from(sites).orderBy(asc(sites.name));
+}
+
+/** The multiple that sends an escalation mail at a site. */
+export async function escalationMultipleFor(r: Pick<Tx, 'select'>, siteId: string): Promise<number> {
+  const [row] = await r.select({ m: noticeSiteSettings.escalationMultiple }).from(noticeSiteSettings).where(eq(noticeSiteSettings.siteId, siteId));
+  return row?.m ?? DEFAULT_ESCALATION_MULTIPLE;
+}
+
+/** A site's notice settings (the defaults when nobody changed them). */
+export async function noticeSettingsFor(siteId: string) {
+  if (!isUuid(siteId)) throw new InsightError('NOT_FOUND', 'No such site.');
+  const [site] = await db().select({ id: sites.id }).from(sites).where(eq(sites.id, siteId));
+  if (!site) throw new InsightError('NOT_FOUND', 'No such site.');
+  const [row] = await db().select().from(noticeSiteSettings).where(eq(noticeSiteSettings.siteId, siteId));
+  return row
+    ? { siteId, escalationMultiple: row.escalationMultiple, isDefault: false, updatedAt: row.updatedAt.toISOString() }
+    : { siteId, escalationMultiple: DEFAULT_ESCALATION_MULTIPLE, isDefault: true, updatedAt: null };
+}
+
+export async function setNoticeSettings(siteId: string, input: z.infer<typeof NoticeSettingsInput>, userId: string | null) {
+  await noticeSettingsFor(siteId);
+  await db()
+    .insert(noticeSiteSettings)
+    .values({ siteId, escalationMultiple: input.escalationMultiple, updatedBy: userId, updatedAt: new Date() })
+    .onConflictDoUpdate({ target: noticeSiteSettings.siteId, set: { escalationMultiple: input.escalationMultiple, updatedBy: userId, updatedAt: new Date() } });
+  return noticeSettingsFor(siteId);
 }
 
 // ---- reading -------------------------------------------------------------------------------------
@@ -207,23 +189,66 @@ function toView(r: NoticeRow): NoticeView {
     closedAt: n.closedAt?.toISOString() ?? null,
     closeComment: n.closeComment,
     url: noticeUrl(n.id),
+    headline_W: n.current_W ?? n.extra_W,
+    headlineU_W: n.current_W !== null ? n.currentU_W : n.shiftU_W,
+    headlineCost_per_day: n.current_W !== null ? n.currentCost_per_day : n.extraCost_per_day,
+    headlineCostU_per_day: n.current_W !== null ? n.currentCostU_per_day : null,
+    headlineExceeds: n.current_W !== null ? n.currentExceeds : n.exceedsUncertainty,
+    current_W: n.current_W,
+    currentU_W: n.currentU_W,
+    currentMeasU_W: n.currentMeasU_W,
+    currentHours: n.currentHours,
+    sinceOnset_W: n.sinceOnset_W,
+    sinceOnsetU_W: n.sinceOnsetU_W,
+    sinceOnsetHours: n.sinceOnsetHours,
+    trend: n.trend,
+    figuresHour: n.figuresHour?.toISOString() ?? null,
+    life: lifeOf(n),
+    fadedSince: n.fadedSince?.toISOString() ?? null,
+    supersededBy: n.supersededBy,
+    priorNoticeId: n.priorNoticeId,
+    priorReason: n.priorReason,
+    closeOutcome: n.closeOutcome,
+    repairedAt: n.repairedAt?.toISOString() ?? null,
+    newNormalFrom: n.newNormalFrom?.toISOString() ?? null,
+    verdict: n.verdict && n.verdictHour && n.verdictBack !== null ? { hour: n.verdictHour.toISOString(), back: n.verdictBack, ...n.verdict } : null,
+    followUpNoticeId: n.followUpNoticeId,
+    escalationStep: n.escalationStep,
   };
+}
+
+function lifeOf(n: { status: NoticeStatus; fadedSince: Date | null; supersededBy: string | null }): NoticeLife {
+  return n.status === 'closed' ? 'closed' : n.supersededBy ? 'superseded' : n.fadedSince ? 'faded' : 'live';
 }
 
 export function noticeUrl(id: string): string {
   return `${env().PUBLIC_BASE_URL.replace(/\/+$/, '')}/notices/${id}`;
 }
 
-/** Notices, open first (then seen, then closed), newest first within each. */
-export async function listNotices(filter: { status?: NoticeStatus | 'not-closed'; unitId?: string; siteId?: string; limit?: number } = {}): Promise<NoticeView[]> {
+export const NOTICE_SORTS = ['cost', 'newest'] as const;
+export type NoticeSort = (typeof NOTICE_SORTS)[number];
+
+/**
+ * Notices, those not closed first. Within that, by default the largest current cost per day first
+ * (notices without a cost after those with one), then the newest; sort 'newest' keeps the opening
+ * order (open, then seen, newest first).
+ */
+export async function listNotices(
+  filter: { status?: NoticeStatus | 'not-closed'; unitId?: string; siteId?: string; limit?: number; sort?: NoticeSort } = {},
+): Promise<NoticeView[]> {
   const where = and(
     filter.status === 'not-closed' ? ne(driftNotices.status, 'closed') : filter.status ? eq(driftNotices.status, filter.status) : undefined,
     filter.unitId && isUuid(filter.unitId) ? eq(driftNotices.unitId, filter.unitId) : undefined,
     filter.siteId && isUuid(filter.siteId) ? eq(driftNotices.siteId, filter.siteId) : undefined,
   );
+  const closedLast = sql`case ${driftNotices.status} when 'closed' then 1 else 0 end`;
+  const order =
+    filter.sort === 'newest'
+      ? [sql`case ${driftNotices.status} when 'open' then 0 when 'acknowledged' then 1 else 2 end`, desc(driftNotices.openedAt)]
+      : [closedLast, sql`coalesce(${driftNotices.currentCost_per_day}, ${driftNotices.extraCost_per_day}) desc nulls last`, desc(driftNotices.openedAt)];
   const rows = await noticeQuery()
     .where(where)
-    .orderBy(sql`case ${driftNotices.status} when 'open' then 0 when 'acknowledged' then 1 else 2 end`, desc(driftNotices.openedAt))
+    .orderBy(...order)
     .limit(filter.limit ?? 500);
   return rows.map(toView);
 }
@@ -239,13 +264,15 @@ export async function getNotice(noticeId: string): Promise<NoticeView> {
 const CHART_MARGIN_ms = 72 * 3_600_000;
 
 /**
- * A notice with its caution and the unit's drift rows around it: residual [W], normalised residual
- * and the CUSUM sums (in units of s) as saved after each hour.
+ * A notice with its caution and its chart: the unit's residuals and the CUSUM sum in the notice's
+ * direction around it, per hour, or per local day over long spans (aggregated here, not in the page),
+ * with the dated marks (onset, signal, faded, repair, verdict).
  */
 export async function noticeDetail(noticeId: string) {
   const notice = await getNotice(noticeId);
+  const endIso = notice.verdict?.hour ?? notice.figuresHour ?? notice.lastSignalHour;
   const from = new Date(new Date(notice.onsetHour).getTime() - CHART_MARGIN_ms);
-  const to = new Date(new Date(notice.lastSignalHour).getTime() + CHART_MARGIN_ms);
+  const to = new Date(Math.max(new Date(endIso).getTime(), new Date(notice.lastSignalHour).getTime()) + CHART_MARGIN_ms);
   const rows = await db()
     .select({
       hourStart: driftPoints.hourStart,
@@ -253,24 +280,61 @@ export async function noticeDetail(noticeId: string) {
       x: driftPoints.x,
       cPlus: driftPoints.cPlus,
       cMinus: driftPoints.cMinus,
+      signal: driftPoints.signal,
     })
     .from(driftPoints)
     .where(and(eq(driftPoints.unitId, notice.unitId), gte(driftPoints.hourStart, from), lt(driftPoints.hourStart, to)))
     .orderBy(asc(driftPoints.hourStart))
-    .limit(1000);
+    .limit(24 * 800);
+  const hours: ResidualHour[] = rows.map((r) => ({ hourStart_ms: r.hourStart.getTime(), residual_W: r.residual_W, hourU_W: null, cPlus: r.cPlus, cMinus: r.cMinus, signal: r.signal }));
+  const chart = chartSeries(hours, notice.direction, (ms) => new TZDate(ms, notice.timeZone).setHours(0, 0, 0, 0));
+  const events: NoticeChartEvent[] = [
+    { t: notice.onsetHour, label: 'onset' },
+    { t: notice.signalHour, label: 'signal' },
+  ];
+  if (notice.lastSignalHour !== notice.signalHour) events.push({ t: notice.lastSignalHour, label: 'latest signal' });
+  if (notice.fadedSince) events.push({ t: notice.fadedSince, label: 'faded' });
+  if (notice.repairedAt) events.push({ t: notice.repairedAt, label: 'repaired' });
+  if (notice.verdict) events.push({ t: notice.verdict.hour, label: 'verdict' });
+  events.sort((x, y) => x.t.localeCompare(y.t));
   return {
     notice,
     caution: notice.kind === 'drift' ? NOTICE_CAUTION : NOTICE_CAUTION.replace('this drift notice', 'this notice'),
-    series: rows.map((r) => ({ hourStart: r.hourStart.toISOString(), residual_W: r.residual_W, x: r.x, cPlus: r.cPlus, cMinus: r.cMinus })),
+    chart: { span: chart.span, points: chart.points, events },
+    /** The hourly rows as before (kept for API callers): residual [W], x and the sums [sigma]. */
+    series: rows.slice(0, 1000).map((r) => ({ hourStart: r.hourStart.toISOString(), residual_W: r.residual_W, x: r.x, cPlus: r.cPlus, cMinus: r.cMinus })),
   };
 }
 
 // ---- acting --------------------------------------------------------------------------------------
 
 export const AcknowledgeInput = z.strictObject({ comment: z.string().trim().max(2000).optional() });
-export const CloseInput = z.strictObject({
-  comment: z.string().trim().min(1, 'Say why the notice is closed (what was found or done).').max(2000),
-});
+const Day = z
+  .string()
+  .regex(/^\d{4}-\d{2}-\d{2}(T\d{2}:\d{2}(:\d{2}(\.\d+)?)?(Z|[+-]\d{2}:\d{2})?)?$/, 'Give the date as YYYY-MM-DD (or an ISO date and time).');
+
+/**
+ * Closing says what was done. The old shape ({ comment }) still closes a notice (outcome not said).
+ * - repaired: with the date of the work (repairedAt); the drift check restarts the unit's sums there
+ *   and gives the verdict after VERIFY_HOURS steady hours;
+ * - instrument-fault: the shift was in the instruments, not the unit;
+ * - new-normal: accepted as the unit's new normal; newNormalFrom is the date a new baseline version
+ *   should start from (the page offers to build it);
+ * - no-action.
+ */
+export const CloseInput = z
+  .strictObject({
+    comment: z.string().trim().min(1, 'Say why the notice is closed (what was found or done).').max(2000),
+    outcome: z.enum(CLOSE_OUTCOMES).optional(),
+    repairedAt: Day.optional(),
+    newNormalFrom: Day.optional(),
+  })
+  .superRefine((v, ctx) => {
+    if (v.outcome === 'repaired' && !v.repairedAt) ctx.addIssue({ code: 'custom', path: ['repairedAt'], message: 'Give the date of the repair work.' });
+    if (v.repairedAt && v.outcome !== 'repaired') ctx.addIssue({ code: 'custom', path: ['repairedAt'], message: 'A repair date goes with the outcome "repaired".' });
+    if (v.newNormalFrom && v.outcome !== 'new-normal') ctx.addIssue({ code: 'custom', path: ['newNormalFrom'], message: 'A date for the new normal goes with the outcome "new-normal".' });
+  });
+export type CloseDetails = Omit<z.infer<typeof CloseInput>, 'comment'>;
 
 /** Marks an open notice as seen. */
 export async function acknowledgeNotice(noticeId: string, userId: string, comment?: string): Promise<NoticeView> {
@@ -284,16 +348,51 @@ export async function acknowledgeNotice(noticeId: string, userId: string, commen
   return getNotice(noticeId);
 }
 
-/** Closes an open or seen notice, with the comment that says why. */
-export async function closeNotice(noticeId: string, userId: string, comment: string): Promise<NoticeView> {
+/** A date given as YYYY-MM-DD is the start of that day in the site's time zone. */
+function siteDate(text: string, tz: string): Date {
+  if (/^\d{4}-\d{2}-\d{2}$/.test(text)) {
+    const [y, m, d] = text.split('-').map(Number) as [number, number, number];
+    return new Date(new TZDate(y, m - 1, d, 0, 0, 0, tz).getTime());
+  }
+  return new Date(text);
+}
+
+/**
+ * Closes an open or seen notice, with the comment that says why and, optionally, what was done. A
+ * repair queues a drift check of the unit from the repair date in the same transaction.
+ */
+export async function closeNotice(noticeId: string, userId: string, comment: string, details: CloseDetails = {}): Promise<NoticeView> {
   const n = await getNotice(noticeId);
   if (!comment.trim()) throw new InsightError('VALIDATION_FAILED', 'Say why the notice is closed (what was found or done).');
-  const done = await db()
-    .update(driftNotices)
-    .set({ status: 'closed', closedBy: userId, closedAt: new Date(), closeComment: comment.trim() })
-    .where(and(eq(driftNotices.id, noticeId), ne(driftNotices.status, 'closed')))
-    .returning({ id: driftNotices.id });
-  if (!done.length) throw new InsightError('CONFLICT', `This notice is already ${n.statusWord}.`);
+  const outcome: CloseOutcome | null = details.outcome ?? null;
+  if (outcome === 'repaired' && !details.repairedAt) throw new InsightError('VALIDATION_FAILED', 'Give the date of the repair work.');
+  const repairedAt = outcome === 'repaired' ? siteDate(details.repairedAt!, n.timeZone) : null;
+  const newNormalFrom = outcome === 'new-normal' && details.newNormalFrom ? siteDate(details.newNormalFrom, n.timeZone) : null;
+  if (repairedAt) {
+    if (Number.isNaN(repairedAt.getTime())) throw new InsightError('VALIDATION_FAILED', 'The repair date is not a date.');
+    if (repairedAt.getTime() < new Date(n.onsetHour).getTime()) throw new InsightError('VALIDATION_FAILED', 'The repair date is before the shift began.');
+    if (repairedAt.getTime() > Date.now() + 86_400_000) throw new InsightError('VALIDATION_FAILED', 'The repair date is in the future.');
+  }
+  if (newNormalFrom && Number.isNaN(newNormalFrom.getTime())) throw new InsightError('VALIDATION_FAILED', 'The date of the new normal is not a date.');
+  const closed = await inInsightTx(async (tx, exec) => {
+    const done = await tx
+      .update(driftNotices)
+      .set({ status: 'closed', closedBy: userId, closedAt: new Date(), closeComment: comment.trim(), closeOutcome: outcome, repairedAt, newNormalFrom })
+      .where(and(eq(driftNotices.id, noticeId), ne(driftNotices.status, 'closed')))
+      .returning({ id: driftNotices.id });
+    if (!done.length) return false;
+    if (repairedAt) {
+      const boss = await queue();
+      const hourMs = Math.floor(repairedAt.getTime() / 3_600_000) * 3_600_000;
+      await boss.send(
+        QUEUES.checkDrift,
+        { siteId: n.siteId, fromMs: hourMs, toMs: Math.ceil(Date.now() / 3_600_000) * 3_600_000, unitIds: [n.unitId] },
+        { db: { executeSql: exec as never } },
+      );
+    }
+    return true;
+  });
+  if (!closed) throw new InsightError('CONFLICT', `This notice is already ${n.statusWord}.`);
   return getNotice(noticeId);
 }
 
@@ -303,28 +402,47 @@ const kW = (W: number) => `${(W / 1000).toLocaleString('en-GB', { maximumFractio
 const money = (v: number, currency: string) => `${currency} ${v.toLocaleString('en-GB', { maximumFractionDigits: 0 })}`;
 const when = (iso: string, tz: string) => `${format(new TZDate(new Date(iso).getTime(), tz), 'yyyy-MM-dd HH:mm')} (${tz})`;
 
-/** The lines of figures a notice states, shared by its mail and its digest entry. */
+const signed = (W: number) => `${W >= 0 ? '+' : '-'}${kW(Math.abs(W))}`;
+
+/** The product's words for how a shift moves (rule in src/lib/analytics/notice-figures.ts). */
+export const TREND_WORDS = { growing: 'growing', steady: 'steady', receding: 'receding' } as const;
+
+/**
+ * The lines of figures a notice states, shared by its mail and its digest entry. The headline is the
+ * current size (mean of the last 24 steady hours, recomputed at every drift check); the figure at
+ * signal time stays below it.
+ */
 export function noticeFigureLines(n: NoticeView): string[] {
   if (n.kind !== 'drift') return ruleFigureLines(n);
+  const hoursOfHeadline = n.currentHours ?? n.hours;
+  const pm = (U: number | null) => (U === null || !Number.isFinite(U) ? '' : ` +/- ${kW(U)}`);
   const lines = [
-    `Extra destruction: ${n.extra_W >= 0 ? '+' : '-'}${kW(Math.abs(n.extra_W))} against the expected ${kW(n.expected_W)} (mean of ${n.hours} steady hours)`,
-    n.extraCost_per_day === null
+    `Extra destruction: ${signed(n.headline_W)}${pm(n.headlineU_W)} against the expected ${kW(n.expected_W)} (mean of the last ${hoursOfHeadline} steady hours; k = 2)`,
+    n.headlineCost_per_day === null
       ? 'Cost per day: not known (no cost rate for this unit or site)'
-      : `Cost per day: ${money(n.extraCost_per_day, n.currency)}`,
-    `Since: ${when(n.onsetHour, n.timeZone)} (onset estimate; sustained shift confirmed ${when(n.signalHour, n.timeZone)})`,
-    n.exceedsUncertainty === null
-      ? 'Against measurement uncertainty: not known (the hours carry no uncertainty)'
-      : n.exceedsUncertainty
-        ? `Against measurement uncertainty: exceeds it (shift ${kW(Math.abs(n.extra_W))} against +/- ${kW(n.shiftU_W!)} for the mean of ${n.hours} hours; one hour +/- ${kW(n.hourU_W!)})`
-        : `Against measurement uncertainty: within it (shift ${kW(Math.abs(n.extra_W))} against +/- ${kW(n.shiftU_W!)} for the mean of ${n.hours} hours)`,
+      : `Cost per day: ${money(n.headlineCost_per_day, n.currency)}${n.headlineCostU_per_day !== null ? ` +/- ${money(n.headlineCostU_per_day, n.currency)}` : ''}`,
   ];
+  if (n.sinceOnset_W !== null && n.sinceOnsetHours !== null && n.sinceOnsetHours > hoursOfHeadline) {
+    lines.push(`Since onset: ${signed(n.sinceOnset_W)}${pm(n.sinceOnsetU_W)} (mean of ${n.sinceOnsetHours} steady hours); the shift is ${n.trend ? TREND_WORDS[n.trend] : 'steady'}`);
+  }
+  lines.push(`At signal: ${signed(n.extra_W)} (mean of ${n.hours} steady hours from onset to signal)`);
+  lines.push(`Since: ${when(n.onsetHour, n.timeZone)} (onset estimate; sustained shift confirmed ${when(n.signalHour, n.timeZone)})`);
+  const measU = n.current_W !== null ? n.currentMeasU_W : n.shiftU_W;
+  lines.push(
+    n.headlineExceeds === null || measU === null
+      ? 'Against measurement uncertainty: not known (the hours carry no uncertainty)'
+      : n.headlineExceeds
+        ? `Against measurement uncertainty: exceeds it (shift ${kW(Math.abs(n.headline_W))} against +/- ${kW(measU)} for the mean of ${hoursOfHeadline} hours${n.hourU_W !== null ? `; one hour +/- ${kW(n.hourU_W)}` : ''})`
+        : `Against measurement uncertainty: within it (shift ${kW(Math.abs(n.headline_W))} against +/- ${kW(measU)} for the mean of ${hoursOfHeadline} hours)`,
+  );
+  if (n.fadedSince) lines.push(`Faded since ${when(n.fadedSince, n.timeZone)}: the shift has gone; a later shift opens a new notice`);
   return lines;
 }
 
 export function noticeMail(n: NoticeView, to: string) {
   if (n.kind !== 'drift') return ruleNoticeMail(n, to, NOTICE_CAUTION);
   const more = n.direction === 'up' ? 'more' : 'less';
-  const subject = `Drift notice: ${n.unitName} at ${n.siteName} destroys ${kW(Math.abs(n.extra_W))} ${more} exergy than expected`;
+  const subject = `Drift notice: ${n.unitName} at ${n.siteName} destroys ${kW(Math.abs(n.headline_W))} ${more} exergy than expected`;
   const lines = noticeFigureLines(n);
   const text = [
     `${n.unitName} (${n.siteName}) has shifted from its expected exergy destruction${n.baselineLabel ? ` (${n.baselineLabel})` : ''}.`,
@@ -371,6 +489,52 @@ export async function queueNoticeMails(tx: Tx, exec: Exec, noticeId: string): Pr
   for (const m of marked) {
     const to = byId.get(m.userId)!;
     await boss.send(QUEUES.sendMail, noticeMail(view, to), { retryLimit: 3, retryDelay: 30, db: { executeSql: exec as never } });
+    sent.push(to);
+  }
+  return sent;
+}
+
+/** The escalation mail: an open notice whose cost per day has grown past the site's multiple since the last mail. */
+export function escalationMail(n: NoticeView, to: string, step: number, fromCost_per_day: number, toCost_per_day: number) {
+  const subject = `Drift notice grown: ${n.unitName} at ${n.siteName} now costs ${money(toCost_per_day, n.currency)} per day (was ${money(fromCost_per_day, n.currency)})`;
+  const lines = noticeFigureLines(n);
+  const head = `The shift of ${n.unitName} (${n.siteName}) has grown since the last mail about it: its cost per day went from ${money(fromCost_per_day, n.currency)} to ${money(toCost_per_day, n.currency)} (escalation ${step}).`;
+  const text = [head, '', ...lines, '', `Open the notice: ${n.url}`, '', NOTICE_CAUTION].join('\n');
+  const html = [
+    `<p>${escapeHtml(head)}</p>`,
+    `<ul>${lines.map((l) => `<li>${escapeHtml(l)}</li>`).join('')}</ul>`,
+    `<p><a href="${escapeHtml(n.url)}">Open the notice</a></p>`,
+    `<p style="border:1px solid #c98a12;background:#f7e6bf;padding:8px">${escapeHtml(NOTICE_CAUTION)}</p>`,
+  ].join('\n');
+  return { to, subject, text, html };
+}
+
+/**
+ * Queues escalation step `step` of a notice to every active planner and energy lead who has not had
+ * it; the marker rows (notice, step, person) and the jobs commit in the caller's transaction, so a
+ * step is mailed at most once per person.
+ */
+export async function queueEscalationMails(tx: Tx, exec: Exec, noticeId: string, step: number, fromCost_per_day: number, toCost_per_day: number): Promise<string[]> {
+  const people = await tx
+    .select({ id: user.id, email: user.email })
+    .from(user)
+    .where(and(inArray(user.role, [...NOTICE_RECIPIENT_ROLES]), eq(user.deactivated, false)))
+    .orderBy(asc(user.email));
+  if (!people.length) return [];
+  const marked = await tx
+    .insert(noticeEscalations)
+    .values(people.map((p) => ({ noticeId, step, userId: p.id, cost_per_day: toCost_per_day })))
+    .onConflictDoNothing()
+    .returning({ userId: noticeEscalations.userId });
+  if (!marked.length) return [];
+  const [r] = await noticeQueryOn(tx).where(eq(driftNotices.id, noticeId));
+  const view = toView(r!);
+  const boss = await queue();
+  const byId = new Map(people.map((p) => [p.id, p.email]));
+  const sent: string[] = [];
+  for (const m of marked) {
+    const to = byId.get(m.userId)!;
+    await boss.send(QUEUES.sendMail, escalationMail(view, to, step, fromCost_per_day, toCost_per_day), { retryLimit: 3, retryDelay: 30, db: { executeSql: exec as never } });
     sent.push(to);
   }
   return sent;

@@ -29,7 +29,7 @@ const PRESETS: { id: string; label: string; terms: BaselineTerm[] }[] = [
 ];
 
 /** Pick a unit, a reference period and terms; fit; read the statistics; accept or discard. */
-export default function BaselineBuilder({ units, initialUnitId }: { units: UnitChoice[]; initialUnitId: string | null }) {
+export default function BaselineBuilder({ units, initialUnitId, initialFrom = null }: { units: UnitChoice[]; initialUnitId: string | null; initialFrom?: string | null }) {
   const [unitId, setUnitId] = useState(initialUnitId && units.some((u) => u.id === initialUnitId) ? initialUnitId : (units[0]?.id ?? ''));
   const unit = units.find((u) => u.id === unitId) ?? null;
   const [span, setSpan] = useState<Span | null>(null);
@@ -53,7 +53,8 @@ export default function BaselineBuilder({ units, initialUnitId }: { units: UnitC
         setSpan(d.span);
         setVersions(d.versions);
         if (d.span.first && d.span.last) {
-          setFrom(dayOf(d.span.first, unit.timeZone));
+          // A notice closed as 'the new normal' links here with the day the new reference period starts.
+          setFrom(initialFrom && unit.id === initialUnitId ? initialFrom : dayOf(d.span.first, unit.timeZone));
           setTo(dayOf(d.span.last, unit.timeZone));
         }
       })

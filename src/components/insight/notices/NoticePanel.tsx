@@ -1,68 +1,196 @@
 import { useState } from 'react';
-import { Bar, CartesianGrid, ComposedChart, Legend, Line, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
 import { StateMark } from '../../StateMark';
 import { Notice as Message, call, messageOf, type Message as Msg } from '../../plant/common';
-import { at, sig } from '../baselines/looks';
-import { NOTICE_LOOK, money, signedKW, type Notice, type SeriesPoint } from './looks';
+import { at, dayOf } from '../baselines/looks';
+import { NoticeChart } from './NoticeChart';
+import {
+  LIFE_LOOK,
+  NOTICE_LOOK,
+  OUTCOME_WORDS,
+  PRIOR_WORDS,
+  TREND_LOOK,
+  money,
+  plusMinusKW,
+  signedKW,
+  type Notice,
+  type NoticeChartEvent,
+  type NoticeChartPoint,
+} from './looks';
+import type { CloseOutcome } from '../../../lib/notice-view';
 import RuleNoticeSummary from './RuleNoticeSummary';
 
-function Figure({ label, value, unit, testId }: { label: string; value: string; unit?: string; testId?: string }) {
+function Figure({ label, value, unit, sub, testId }: { label: string; value: string; unit?: string; sub?: string; testId?: string }) {
   return (
     <div className="rounded border border-paper-edge bg-white/70 px-3 py-2">
       <dt className="text-xs text-ink-soft">{label}</dt>
-      <dd className="text-lg font-semibold tabular-nums" data-testid={testId}>
-        {value} {unit && <span className="text-sm font-normal text-ink-soft">{unit}</span>}
+      <dd className="text-lg font-semibold tabular-nums">
+        <span data-testid={testId}>
+          {value} {unit && <span className="text-sm font-normal text-ink-soft">{unit}</span>}
+        </span>
+        {sub && (
+          <span className="ml-1 text-sm font-normal text-ink-soft" data-testid={testId ? `${testId}-u` : undefined}>
+            {sub}
+          </span>
+        )}
       </dd>
     </div>
   );
 }
 
-/** Residual per steady hour [kW] and the CUSUM sums [s] around the notice, with h and the onset marked. */
-function DriftChart({ notice, series }: { notice: Notice; series: SeriesPoint[] }) {
-  if (!series.length) return <p className="text-sm text-ink-faint">The hours behind this notice are no longer in the drift check (the baseline or settings changed).</p>;
-  const data = series.map((p) => ({ t: new Date(p.hourStart).getTime(), residual: p.residual_W / 1000, cPlus: p.cPlus, cMinus: p.cMinus }));
-  const tick = (t: number) => at(new Date(t).toISOString(), notice.timeZone).slice(5);
+const yesNo = (v: boolean | null) => (v === null ? 'not known' : v ? 'yes' : 'no');
+
+/** The verdict on a repair, or what it waits for. */
+function Verdict({ n }: { n: Notice }) {
+  if (n.closeOutcome !== 'repaired' || !n.repairedAt) return null;
+  const v = n.verdict;
   return (
-    <div className="h-72" data-testid="drift-chart" role="img" aria-label="Destruction residual per steady hour and the cumulative sums, with the decision interval h">
-      <ResponsiveContainer width="100%" height="100%">
-        <ComposedChart data={data} margin={{ top: 8, right: 8, bottom: 8, left: 8 }}>
-          <CartesianGrid stroke="#ddd3bf" strokeDasharray="3 3" />
-          <XAxis dataKey="t" type="number" scale="time" domain={['dataMin', 'dataMax']} tickFormatter={tick} stroke="#4a463e" fontSize={11} />
-          <YAxis yAxisId="kW" tickFormatter={(v: number) => sig(v, 3)} stroke="#8e3f1c" fontSize={11} width={56} label={{ value: 'residual [kW]', angle: -90, position: 'insideLeft', fill: '#8e3f1c', fontSize: 11 }} />
-          <YAxis yAxisId="s" orientation="right" domain={[0, (max: number) => Math.max(max, notice.h * 1.25)]} tickFormatter={(v: number) => sig(v, 3)} stroke="#22201c" fontSize={11} width={48} label={{ value: 'CUSUM [s]', angle: 90, position: 'insideRight', fill: '#22201c', fontSize: 11 }} />
-          <Tooltip labelFormatter={(t) => `${at(new Date(Number(t)).toISOString(), notice.timeZone)} (${notice.timeZone})`} formatter={(v) => Number(v).toFixed(2)} />
-          <Legend verticalAlign="top" height={24} />
-          <Bar yAxisId="kW" dataKey="residual" name="Measured − expected destruction [kW]" fill="#b5562a" isAnimationActive={false} />
-          <Line yAxisId="s" dataKey="cPlus" name="C+ (more destruction) [s]" stroke="#22201c" dot={false} strokeWidth={2} isAnimationActive={false} />
-          <Line yAxisId="s" dataKey="cMinus" name="C− (less destruction) [s]" stroke="#66707c" strokeDasharray="4 3" dot={false} strokeWidth={2} isAnimationActive={false} />
-          <ReferenceLine yAxisId="s" y={notice.h} stroke="#22201c" strokeDasharray="2 4" label={{ value: `h = ${notice.h}`, position: 'right', fontSize: 11 }} />
-          <ReferenceLine yAxisId="s" x={new Date(notice.onsetHour).getTime()} stroke="#8e3f1c" label={{ value: 'onset', position: 'insideTopLeft', fontSize: 11 }} />
-          <ReferenceLine yAxisId="s" x={new Date(notice.signalHour).getTime()} stroke="#22201c" label={{ value: 'signal', position: 'insideTopRight', fontSize: 11 }} />
-        </ComposedChart>
-      </ResponsiveContainer>
-    </div>
+    <section className="card space-y-2" aria-label="Repair verdict" data-testid="notice-verdict">
+      <h2>After the repair</h2>
+      <p className="text-sm">
+        Repaired on {dayOf(n.repairedAt, n.timeZone)} ({n.timeZone}). The drift check restarted the cumulative sums at that date and compares the
+        steady hours after it (the reporting period) with the expected destruction plus the shift measured before the repair (the adjusted baseline).
+      </p>
+      {!v ? (
+        <p className="text-sm text-ink-soft" data-testid="verdict-waiting">
+          Waiting for 72 steady hours after the repair before giving the verdict.
+        </p>
+      ) : (
+        <>
+          <p className="text-base font-semibold" data-testid="verdict-word">
+            {v.back ? 'Back within the expected band' : 'Not back: the shift is still there'}
+          </p>
+          <table className="grid-table text-sm">
+            <tbody>
+              <tr>
+                <td>Shift before the repair (last {v.beforeHours} steady hours)</td>
+                <td className="num">
+                  {signedKW(v.before_W)} {plusMinusKW(v.beforeU_W)} kW
+                </td>
+              </tr>
+              <tr>
+                <td>Residual after the repair (first {v.afterHours} steady hours, to {at(v.hour, n.timeZone)})</td>
+                <td className="num" data-testid="verdict-after">
+                  {signedKW(v.after_W)} {plusMinusKW(v.afterU_W)} kW
+                </td>
+              </tr>
+              <tr>
+                <td>Avoided extra destruction</td>
+                <td className="num">
+                  {signedKW(v.avoided_W)} {plusMinusKW(v.avoidedU_W)} kW
+                </td>
+              </tr>
+              <tr>
+                <td>Avoided cost per month (30.44 days)</td>
+                <td className="num" data-testid="verdict-avoided">
+                  {v.avoidedCost_per_month === null
+                    ? 'not known (no cost rate)'
+                    : `${n.currency} ${money(v.avoidedCost_per_month)} ± ${money(v.avoidedCostU_per_month)}`}
+                </td>
+              </tr>
+            </tbody>
+          </table>
+          <p className="text-xs text-ink-faint">Uncertainties are expanded (k = 2): the spread of the residuals and the measurement uncertainty of the hours, combined.</p>
+          {n.followUpNoticeId && (
+            <p className="text-sm">
+              The shift continues in <a href={`/notices/${n.followUpNoticeId}`}>a new notice</a>.
+            </p>
+          )}
+        </>
+      )}
+    </section>
   );
 }
 
-/** A drift notice: figures, chart, history, the caution, and seen / close for those who act on notices. */
-export default function NoticePanel({ initial, series, caution, canAct }: { initial: Notice; series: SeriesPoint[]; caution: string; canAct: boolean }) {
+/** Closing asks what was done. */
+function CloseForm({ n, busy, onClose }: { n: Notice; busy: boolean; onClose: (body: Record<string, string>) => void }) {
+  const [comment, setComment] = useState('');
+  const [outcome, setOutcome] = useState<CloseOutcome | ''>('');
+  const [date, setDate] = useState('');
+  const [error, setError] = useState<string | null>(null);
+  function submit() {
+    setError(null);
+    if (!comment.trim()) return setError('Say why the notice is closed (what was found or done).');
+    if (outcome === 'repaired' && !date) return setError('Give the date of the repair work.');
+    const body: Record<string, string> = { comment: comment.trim() };
+    if (outcome) body.outcome = outcome;
+    if (outcome === 'repaired') body.repairedAt = date;
+    if (outcome === 'new-normal' && date) body.newNormalFrom = date;
+    onClose(body);
+  }
+  return (
+    <fieldset className="space-y-2">
+      <legend className="label">What was done</legend>
+      <div className="flex flex-wrap gap-x-4 gap-y-1 text-sm">
+        {(Object.keys(OUTCOME_WORDS) as CloseOutcome[]).map((o) => (
+          <label key={o} className="flex items-center gap-1">
+            <input type="radio" name="close-outcome" value={o} checked={outcome === o} onChange={() => setOutcome(o)} /> {OUTCOME_WORDS[o]}
+          </label>
+        ))}
+      </div>
+      {outcome === 'repaired' && (
+        <div>
+          <label className="label" htmlFor="repair-date">
+            Date of the repair work ({n.timeZone})
+          </label>
+          <input id="repair-date" type="date" className="field" value={date} onChange={(e) => setDate(e.target.value)} />
+          <p className="text-xs text-ink-faint">The drift check restarts the sums at this date and gives the verdict after 72 steady hours.</p>
+        </div>
+      )}
+      {outcome === 'new-normal' && (
+        <div>
+          <label className="label" htmlFor="normal-date">
+            New normal from ({n.timeZone})
+          </label>
+          <input id="normal-date" type="date" className="field" value={date} onChange={(e) => setDate(e.target.value)} />
+          <p className="text-xs">
+            <a href={`/baselines/new?unit=${n.unitId}${date ? `&from=${date}` : ''}`} data-testid="new-baseline-link">
+              Fit a new baseline version from {date || 'this date'}
+            </a>{' '}
+            (choose its reference period from that date once enough steady hours have passed).
+          </p>
+        </div>
+      )}
+      <label className="label" htmlFor="close-comment">
+        Why it can be closed (required)
+      </label>
+      <textarea id="close-comment" className="field" rows={2} value={comment} onChange={(e) => setComment(e.target.value)} maxLength={2000} />
+      {error && (
+        <p role="alert" className="notice-error">
+          {error}
+        </p>
+      )}
+      <button type="button" className="btn" disabled={busy} onClick={submit}>
+        Close notice
+      </button>
+    </fieldset>
+  );
+}
+
+/** A drift notice: the live headline, chart, history, the caution, and seen / close for those who act on notices. */
+export default function NoticePanel({
+  initial,
+  chart,
+  caution,
+  canAct,
+}: {
+  initial: Notice;
+  chart: { span: 'hour' | 'day'; points: NoticeChartPoint[]; events: NoticeChartEvent[] };
+  caution: string;
+  canAct: boolean;
+}) {
   const [n, setN] = useState(initial);
   const [ackComment, setAckComment] = useState('');
-  const [closeComment, setCloseComment] = useState('');
   const [message, setMessage] = useState<Msg>(null);
   const [busy, setBusy] = useState(false);
   const look = NOTICE_LOOK[n.status]!;
+  const life = LIFE_LOOK[n.life];
   const more = n.direction === 'up';
+  const hoursNow = n.currentHours ?? n.hours;
 
-  async function act(what: 'acknowledge' | 'close') {
+  async function act(what: 'acknowledge' | 'close', body: Record<string, string>) {
     setMessage(null);
-    if (what === 'close' && !closeComment.trim()) {
-      setMessage({ ok: false, text: 'Say why the notice is closed (what was found or done).' });
-      return;
-    }
     setBusy(true);
     try {
-      const body = what === 'close' ? { comment: closeComment.trim() } : ackComment.trim() ? { comment: ackComment.trim() } : {};
       const out = await call<{ notice: Notice }>(`/api/notices/${n.id}/${what}`, 'POST', body);
       setN(out.notice);
       setMessage({ ok: true, text: what === 'close' ? 'The notice is closed.' : 'Marked as seen.' });
@@ -90,33 +218,78 @@ export default function NoticePanel({ initial, series, caution, canAct }: { init
             )}
             .
           </p>
-          <span data-testid="notice-status">
-            <StateMark shape={look.shape} className={look.className} label={look.label} />
+          <span className="flex gap-4">
+            <span data-testid="notice-life">
+              <StateMark shape={life.shape} className={life.className} label={life.label} />
+            </span>
+            <span data-testid="notice-status">
+              <StateMark shape={look.shape} className={look.className} label={look.label} />
+            </span>
           </span>
         </div>
-        <dl className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
-          <Figure label="Extra destruction (mean since onset)" value={signedKW(n.extra_W)} unit="kW" testId="fig-extra" />
-          <Figure label="Cost per day" value={n.extraCost_per_day === null ? 'not known' : money(n.extraCost_per_day)} unit={n.extraCost_per_day === null ? undefined : `${n.currency}/day`} testId="fig-cost" />
-          <Figure label={`Since (onset estimate, ${n.timeZone})`} value={at(n.onsetHour, n.timeZone)} testId="fig-since" />
+        {n.fadedSince && (
+          <p className="rounded border border-slate px-3 py-2 text-sm" data-testid="notice-faded">
+            Faded since {at(n.fadedSince, n.timeZone)} ({n.timeZone}): over a day of steady hours the shift has gone. This notice takes no later signal; a
+            new shift opens a new notice.
+          </p>
+        )}
+        {n.supersededBy && (
+          <p className="rounded border border-slate px-3 py-2 text-sm" data-testid="notice-superseded">
+            A later, clearly larger shift of this unit has <a href={`/notices/${n.supersededBy}`}>its own notice</a>.
+          </p>
+        )}
+        {n.priorNoticeId && n.priorReason && (
+          <p className="text-sm" data-testid="notice-prior">
+            Opened for {PRIOR_WORDS[n.priorReason]}: <a href={`/notices/${n.priorNoticeId}`}>the earlier notice</a>.
+          </p>
+        )}
+        <dl className="grid gap-3 sm:grid-cols-2 lg:grid-cols-5">
+          <Figure label={`Extra destruction now (last ${hoursNow} steady hours)`} value={signedKW(n.headline_W)} unit="kW" sub={plusMinusKW(n.headlineU_W)} testId="fig-extra" />
           <Figure
-            label="Beyond measurement uncertainty"
-            value={n.exceedsUncertainty === null ? 'not known' : n.exceedsUncertainty ? 'yes' : 'no'}
-            testId="fig-uncertainty"
+            label="Cost per day now"
+            value={n.headlineCost_per_day === null ? 'not known' : money(n.headlineCost_per_day)}
+            unit={n.headlineCost_per_day === null ? undefined : `${n.currency}/day`}
+            sub={n.headlineCostU_per_day === null ? undefined : `± ${money(n.headlineCostU_per_day)}`}
+            testId="fig-cost"
           />
+          <div className="rounded border border-paper-edge bg-white/70 px-3 py-2">
+            <dt className="text-xs text-ink-soft">The shift is</dt>
+            <dd className="text-lg font-semibold" data-testid="fig-trend">
+              {n.trend ? <StateMark shape={TREND_LOOK[n.trend].shape} className={TREND_LOOK[n.trend].className} label={TREND_LOOK[n.trend].label} /> : 'not yet known'}
+            </dd>
+          </div>
+          <Figure label={`Since (onset estimate, ${n.timeZone})`} value={at(n.onsetHour, n.timeZone)} testId="fig-since" />
+          <Figure label="Beyond measurement uncertainty (now)" value={yesNo(n.headlineExceeds)} testId="fig-uncertainty" />
         </dl>
         <table className="grid-table text-sm">
           <tbody>
             <tr>
-              <td>Expected destruction over the same hours</td>
+              <td>Now: mean of the last {hoursNow} steady hours{n.figuresHour ? ` (to ${at(n.figuresHour, n.timeZone)})` : ''}</td>
+              <td className="num">
+                {signedKW(n.headline_W)} {plusMinusKW(n.headlineU_W)} kW
+              </td>
+            </tr>
+            {n.sinceOnset_W !== null && (
+              <tr>
+                <td>Since onset: mean of {n.sinceOnsetHours} steady hours</td>
+                <td className="num" data-testid="fig-since-onset">
+                  {signedKW(n.sinceOnset_W)} {plusMinusKW(n.sinceOnsetU_W)} kW
+                </td>
+              </tr>
+            )}
+            <tr>
+              <td>At signal: mean of the {n.hours} steady hours from onset to signal (the first figure)</td>
+              <td className="num" data-testid="fig-first">
+                {signedKW(n.extra_W)} kW{n.extraCost_per_day !== null ? `, ${n.currency} ${money(n.extraCost_per_day)}/day` : ''}
+              </td>
+            </tr>
+            <tr>
+              <td>Expected destruction over the first hours</td>
               <td className="num">{(n.expected_W / 1000).toFixed(1)} kW</td>
             </tr>
             <tr>
-              <td>Shift in units of the baseline’s residual spread s</td>
-              <td className="num">{n.shift_sigma.toFixed(2)} s</td>
-            </tr>
-            <tr>
-              <td>Steady hours from onset to signal</td>
-              <td className="num">{n.hours}</td>
+              <td>Shift at signal in units of σ, the spread of the residuals of the baseline’s fit</td>
+              <td className="num">{n.shift_sigma.toFixed(2)} σ</td>
             </tr>
             <tr>
               <td>Sustained shift confirmed</td>
@@ -126,9 +299,9 @@ export default function NoticePanel({ initial, series, caution, canAct }: { init
               </td>
             </tr>
             <tr>
-              <td>Uncertainty of the shift, U(one hour)/√n (k = 2)</td>
+              <td>Measurement uncertainty of the current figure, U(one hour)/√n (k = 2)</td>
               <td className="num">
-                {n.shiftU_W === null ? 'not known' : `± ${(n.shiftU_W / 1000).toFixed(1)} kW`}
+                {n.currentMeasU_W !== null ? `± ${(n.currentMeasU_W / 1000).toFixed(1)} kW` : n.shiftU_W !== null && n.current_W === null ? `± ${(n.shiftU_W / 1000).toFixed(1)} kW` : 'not known'}
                 {n.hourU_W !== null && <span className="text-ink-faint"> (one hour ± {(n.hourU_W / 1000).toFixed(1)} kW)</span>}
               </td>
             </tr>
@@ -137,26 +310,31 @@ export default function NoticePanel({ initial, series, caution, canAct }: { init
               <td className="num">{n.costBasis ?? 'none: the hours carry no cost and the site has no fuel price'}</td>
             </tr>
             <tr>
-              <td>CUSUM settings</td>
+              <td>Cumulative sum settings</td>
               <td className="num">
-                k = {n.k} s, h = {n.h} s
+                allowance k = {n.k} σ, decision limit h = {n.h} σ
               </td>
             </tr>
           </tbody>
         </table>
         <p className="text-xs text-ink-faint">
-          The shift exceeds the measurement uncertainty when it is larger than the expanded uncertainty of one hour’s destruction divided by √n (the
-          mean of n independent hours). A slowly drifting instrument is not independent from hour to hour: when the shift is smaller than one hour’s
-          uncertainty, check the instruments first.
+          The figures are recomputed at every drift check. The ± is the expanded uncertainty (k = 2) of a mean: the spread of the residuals σ over the
+          effective number of independent hours (fewer than the hours when the residuals are correlated from hour to hour), combined with the
+          measurement uncertainty. “Beyond measurement uncertainty” compares the current figure with the measurement part alone; when the shift is
+          smaller than one hour’s uncertainty, check the instruments first. The shift is growing (or receding) when the current figure is above (or
+          below) the mean since onset by more than their combined uncertainty.
         </p>
-        <DriftChart notice={n} series={series} />
+        <NoticeChart notice={n} span={chart.span} points={chart.points} events={chart.events} />
       </section>
       )}
+
+      <Verdict n={n} />
 
       <section className="card space-y-3" aria-label="What has been done">
         <h2>Record</h2>
         <ul className="space-y-1 text-sm" data-testid="notice-history">
           <li>Opened {at(n.openedAt, n.timeZone)}; e-mailed to the maintenance planners and energy leads.</li>
+          {n.escalationStep > 0 && <li>E-mailed again {n.escalationStep === 1 ? 'once' : `${n.escalationStep} times`} as its cost per day grew.</li>}
           {n.acknowledgedAt && (
             <li>
               Seen by {n.acknowledgedBy ?? 'someone'} at {at(n.acknowledgedAt, n.timeZone)}
@@ -165,10 +343,17 @@ export default function NoticePanel({ initial, series, caution, canAct }: { init
           )}
           {n.closedAt && (
             <li>
-              Closed by {n.closedBy ?? 'someone'} at {at(n.closedAt, n.timeZone)}: {n.closeComment}
+              Closed by {n.closedBy ?? 'someone'} at {at(n.closedAt, n.timeZone)}
+              {n.closeOutcome ? ` (${OUTCOME_WORDS[n.closeOutcome]}${n.repairedAt ? `, work done ${dayOf(n.repairedAt, n.timeZone)}` : ''}${n.newNormalFrom ? ` from ${dayOf(n.newNormalFrom, n.timeZone)}` : ''})` : ''}: {n.closeComment}
             </li>
           )}
         </ul>
+        {n.closeOutcome === 'new-normal' && (
+          <p className="text-sm">
+            <a href={`/baselines/new?unit=${n.unitId}${n.newNormalFrom ? `&from=${dayOf(n.newNormalFrom, n.timeZone)}` : ''}`}>Fit a new baseline version</a> for
+            the new normal.
+          </p>
+        )}
         <p className="caution" data-testid="notice-caution">
           {caution}
         </p>
@@ -181,20 +366,12 @@ export default function NoticePanel({ initial, series, caution, canAct }: { init
                   Comment (optional)
                 </label>
                 <input id="ack-comment" className="field" value={ackComment} onChange={(e) => setAckComment(e.target.value)} maxLength={2000} />
-                <button type="button" className="btn btn-primary" disabled={busy} onClick={() => act('acknowledge')}>
+                <button type="button" className="btn btn-primary" disabled={busy} onClick={() => act('acknowledge', ackComment.trim() ? { comment: ackComment.trim() } : {})}>
                   Mark as seen
                 </button>
               </div>
             )}
-            <div className="space-y-2">
-              <label className="label" htmlFor="close-comment">
-                Why it can be closed (required)
-              </label>
-              <textarea id="close-comment" className="field" rows={2} value={closeComment} onChange={(e) => setCloseComment(e.target.value)} maxLength={2000} />
-              <button type="button" className="btn" disabled={busy} onClick={() => act('close')}>
-                Close notice
-              </button>
-            </div>
+            <CloseForm n={n} busy={busy} onClose={(body) => act('close', body)} />
           </div>
         )}
       </section>

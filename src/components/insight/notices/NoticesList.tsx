@@ -1,34 +1,105 @@
-import { useEffect, useState } from 'react';
+import { useEffect, useMemo, useState } from 'react';
 import { StateMark } from '../../StateMark';
 import { Notice as Message, call, messageOf, type Message as Msg } from '../../plant/common';
 import { at } from '../baselines/looks';
-import { NOTICE_LOOK, money, signedKW, type Notice } from './looks';
+import { LIFE_LOOK, NOTICE_LOOK, TREND_LOOK, money, plusMinusKW, signedKW, type Notice } from './looks';
 
-/** Drift notices, open first; filter to those not closed or show all. */
-export default function NoticesList() {
-  const [filter, setFilter] = useState<'not-closed' | 'all'>('not-closed');
+type StatusFilter = 'not-closed' | 'open' | 'acknowledged' | 'closed' | 'all';
+type Sort = 'cost' | 'newest';
+export interface ListFilter {
+  status: StatusFilter;
+  siteId: string;
+  unitId: string;
+  sort: Sort;
+}
+
+const STATUS_WORDS: Record<StatusFilter, string> = { 'not-closed': 'open and seen', open: 'open', acknowledged: 'seen', closed: 'closed', all: 'all, closed included' };
+
+function query(f: ListFilter): string {
+  const q = new URLSearchParams();
+  if (f.status !== 'all') q.set('status', f.status);
+  if (f.siteId) q.set('siteId', f.siteId);
+  if (f.unitId) q.set('unitId', f.unitId);
+  if (f.sort !== 'cost') q.set('sort', f.sort);
+  return q.toString();
+}
+
+/**
+ * Drift notices, those not closed first and the largest current cost per day first; filters by
+ * status, site and unit (kept in the page's address, the same query parameters the API takes).
+ */
+export default function NoticesList({ initial }: { initial?: Partial<ListFilter> }) {
+  const [f, setF] = useState<ListFilter>({ status: 'not-closed', siteId: '', unitId: '', sort: 'cost', ...initial });
   const [notices, setNotices] = useState<Notice[] | null>(null);
+  const [all, setAll] = useState<Notice[]>([]);
   const [message, setMessage] = useState<Msg>(null);
+
+  useEffect(() => {
+    call<{ notices: Notice[] }>('/api/notices?sort=newest')
+      .then((d) => setAll(d.notices))
+      .catch(() => undefined);
+  }, []);
 
   useEffect(() => {
     let live = true;
     setNotices(null);
-    call<{ notices: Notice[] }>(filter === 'all' ? '/api/notices' : '/api/notices?status=not-closed')
+    const q = query(f);
+    if (typeof window !== 'undefined') window.history.replaceState(null, '', `${window.location.pathname}${q ? `?${q}` : '?status=all'}`);
+    call<{ notices: Notice[] }>(`/api/notices${q ? `?${q}` : ''}`)
       .then((d) => live && setNotices(d.notices))
       .catch((e) => live && setMessage(messageOf(e)));
     return () => {
       live = false;
     };
-  }, [filter]);
+  }, [f]);
+
+  const sites = useMemo(() => [...new Map(all.map((n) => [n.siteId, n.siteName])).entries()].sort((a, b) => a[1].localeCompare(b[1])), [all]);
+  const units = useMemo(
+    () => [...new Map(all.filter((n) => !f.siteId || n.siteId === f.siteId).map((n) => [n.unitId, n.unitName])).entries()].sort((a, b) => a[1].localeCompare(b[1])),
+    [all, f.siteId],
+  );
 
   return (
     <section className="card">
-      <div className="mb-3 flex flex-wrap items-center gap-4 text-sm">
-        <label className="flex items-center gap-1">
-          <input type="radio" name="notice-filter" checked={filter === 'not-closed'} onChange={() => setFilter('not-closed')} /> Open and seen
+      <div className="mb-3 flex flex-wrap items-end gap-4 text-sm">
+        <label className="flex flex-col gap-1">
+          <span className="label">Status</span>
+          <select className="field" value={f.status} onChange={(e) => setF({ ...f, status: e.target.value as StatusFilter })} data-testid="filter-status">
+            {(Object.keys(STATUS_WORDS) as StatusFilter[]).map((s) => (
+              <option key={s} value={s}>
+                {STATUS_WORDS[s]}
+              </option>
+            ))}
+          </select>
         </label>
-        <label className="flex items-center gap-1">
-          <input type="radio" name="notice-filter" checked={filter === 'all'} onChange={() => setFilter('all')} /> All, closed included
+        <label className="flex flex-col gap-1">
+          <span className="label">Site</span>
+          <select className="field" value={f.siteId} onChange={(e) => setF({ ...f, siteId: e.target.value, unitId: '' })} data-testid="filter-site">
+            <option value="">every site</option>
+            {sites.map(([id, name]) => (
+              <option key={id} value={id}>
+                {name}
+              </option>
+            ))}
+          </select>
+        </label>
+        <label className="flex flex-col gap-1">
+          <span className="label">Unit</span>
+          <select className="field" value={f.unitId} onChange={(e) => setF({ ...f, unitId: e.target.value })} data-testid="filter-unit">
+            <option value="">every unit</option>
+            {units.map(([id, name]) => (
+              <option key={id} value={id}>
+                {name}
+              </option>
+            ))}
+          </select>
+        </label>
+        <label className="flex flex-col gap-1">
+          <span className="label">Order</span>
+          <select className="field" value={f.sort} onChange={(e) => setF({ ...f, sort: e.target.value as Sort })} data-testid="filter-sort">
+            <option value="cost">largest cost per day now first</option>
+            <option value="newest">newest first</option>
+          </select>
         </label>
       </div>
       <Message message={message} />
@@ -40,7 +111,9 @@ export default function NoticesList() {
         )
       ) : notices.length === 0 ? (
         <p className="text-sm text-ink-faint" data-testid="no-notices">
-          {filter === 'all' ? 'No drift notice has been opened yet.' : 'No open drift notice. Every unit with a baseline is where it is expected to be.'}
+          {f.status === 'not-closed' && !f.siteId && !f.unitId
+            ? 'No open drift notice. Every unit with a baseline is where it is expected to be.'
+            : 'No drift notice matches these filters.'}
         </p>
       ) : (
         <div className="overflow-x-auto">
@@ -52,14 +125,16 @@ export default function NoticesList() {
                 <th>Unit</th>
                 <th>Site</th>
                 <th>Since</th>
-                <th className="num">Extra destruction (drift) or destruction [kW]</th>
-                <th className="num">Cost per day</th>
+                <th className="num">Extra destruction now (drift) or destruction [kW]</th>
+                <th className="num">Cost per day now</th>
+                <th>Shift</th>
                 <th>Beyond uncertainty</th>
               </tr>
             </thead>
             <tbody>
               {notices.map((n) => {
                 const look = NOTICE_LOOK[n.status]!;
+                const life = n.life === 'live' && n.trend ? TREND_LOOK[n.trend] : LIFE_LOOK[n.life];
                 return (
                   <tr key={n.id} data-testid={`notice-${n.unitName}`}>
                     <td>
@@ -73,9 +148,14 @@ export default function NoticesList() {
                     <td>
                       {at(n.onsetHour, n.timeZone)} <span className="text-xs text-ink-faint">{n.timeZone}</span>
                     </td>
-                    <td className="num text-copper-deep">{n.kind === 'drift' ? signedKW(n.extra_W) : (n.extra_W / 1000).toFixed(1)}</td>
-                    <td className="num">{n.extraCost_per_day === null ? '–' : `${n.currency} ${money(n.extraCost_per_day)}`}</td>
-                    <td>{n.kind !== 'drift' ? '–' : n.exceedsUncertainty === null ? 'not known' : n.exceedsUncertainty ? 'yes' : 'no'}</td>
+                    <td className="num text-copper-deep">
+                      {n.kind === 'drift' ? signedKW(n.headline_W) : (n.headline_W / 1000).toFixed(1)} <span className="text-xs text-ink-faint">{plusMinusKW(n.headlineU_W)}</span>
+                    </td>
+                    <td className="num">{n.headlineCost_per_day === null ? '–' : `${n.currency} ${money(n.headlineCost_per_day)}`}</td>
+                    <td>
+                      <StateMark shape={life.shape} className={life.className} label={n.life === 'faded' && n.fadedSince ? `faded since ${at(n.fadedSince, n.timeZone)}` : life.label} />
+                    </td>
+                    <td>{n.kind !== 'drift' ? '–' : n.headlineExceeds === null ? 'not known' : n.headlineExceeds ? 'yes' : 'no'}</td>
                   </tr>
                 );
               })}

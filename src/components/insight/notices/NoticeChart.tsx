@@ -1,0 +1,133 @@
+import { Bar, CartesianGrid, ComposedChart, Line, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
+import { at, sig } from '../baselines/looks';
+import type { Notice, NoticeChartEvent, NoticeChartPoint } from './looks';
+
+const INK = '#22201c';
+const COPPER = '#b5562a';
+/** Dash patterns and markers tell the series apart, colour only helps. */
+const CUSUM_DASH = '7 3';
+const LIMIT_DASH = '2 3';
+const ROW_px = 15;
+
+/** A dated mark's number, each on its own row at the top of the plot, so no two labels ever meet. */
+function EventLabel({ viewBox, n, row }: { viewBox?: { x: number; y: number }; n: number; row: number }) {
+  if (!viewBox) return null;
+  const y = viewBox.y + 9 + row * ROW_px;
+  return (
+    <g>
+      <rect x={viewBox.x - 7} y={y - 7} width={14} height={14} fill="#fbf7ee" stroke={INK} strokeWidth={1} />
+      <text x={viewBox.x} y={y + 4} textAnchor="middle" fontSize={10} fill={INK}>
+        {n}
+      </text>
+    </g>
+  );
+}
+
+/** The key under the chart: a sample of each series' pattern beside its words. */
+function Key({ notice, span }: { notice: Notice; span: 'hour' | 'day' }) {
+  const dir = notice.direction === 'up' ? 'more' : 'less';
+  return (
+    <ul className="mt-2 flex flex-wrap gap-x-6 gap-y-1 text-xs text-ink-soft" data-testid="chart-key">
+      <li className="flex items-center gap-2">
+        <svg width="22" height="12" aria-hidden="true">
+          <rect x="6" y="1" width="10" height="10" fill={COPPER} />
+        </svg>
+        bars: measured − expected destruction [kW]{span === 'day' ? ', mean of the day’s steady hours' : ', per steady hour'}
+      </li>
+      <li className="flex items-center gap-2">
+        <svg width="30" height="12" aria-hidden="true">
+          <line x1="0" y1="6" x2="30" y2="6" stroke={INK} strokeWidth="2" strokeDasharray={CUSUM_DASH} />
+          <rect x="12" y="3" width="6" height="6" fill={INK} />
+        </svg>
+        dashed line with squares: cumulative sum ({dir} destruction) [σ]{span === 'day' ? ', largest of the day' : ''}
+      </li>
+      <li className="flex items-center gap-2">
+        <svg width="30" height="12" aria-hidden="true">
+          <line x1="0" y1="6" x2="30" y2="6" stroke={INK} strokeWidth="1.5" strokeDasharray={LIMIT_DASH} />
+        </svg>
+        dotted line: decision limit h = {notice.h} σ
+      </li>
+    </ul>
+  );
+}
+
+/**
+ * The residual and the cumulative sum against its decision limit. The server sends hours, or days
+ * over long spans; σ is the spread of the residuals of the baseline's fit.
+ */
+export function NoticeChart({ notice, span, points, events }: { notice: Notice; span: 'hour' | 'day'; points: NoticeChartPoint[]; events: NoticeChartEvent[] }) {
+  if (!points.length) return <p className="text-sm text-ink-faint">The hours behind this notice are no longer in the drift check (the baseline or settings changed).</p>;
+  const data = points.map((p) => ({ t: new Date(p.t).getTime(), residual: p.residual_W / 1000, cusum: p.cusum, hours: p.hours }));
+  const tick = (t: number) => (span === 'day' ? at(new Date(t).toISOString(), notice.timeZone).slice(0, 10) : at(new Date(t).toISOString(), notice.timeZone).slice(5));
+  const t0 = data[0]!.t;
+  const t1 = data[data.length - 1]!.t;
+  const shown = events.filter((e) => {
+    const t = new Date(e.t).getTime();
+    return t >= t0 && t <= t1;
+  });
+  const top = 12 + shown.length * ROW_px;
+  return (
+    <figure>
+      <div
+        className="h-80"
+        data-testid="drift-chart"
+        data-span={span}
+        role="img"
+        aria-label={`Residual of destruction ${span === 'day' ? 'per day' : 'per steady hour'} and the cumulative sum against the decision limit h = ${notice.h} σ`}
+      >
+        <ResponsiveContainer width="100%" height="100%">
+          <ComposedChart data={data} margin={{ top, right: 8, bottom: 8, left: 8 }}>
+            <CartesianGrid stroke="#ddd3bf" strokeDasharray="3 3" />
+            <XAxis dataKey="t" type="number" scale="time" domain={['dataMin', 'dataMax']} tickFormatter={tick} stroke="#4a463e" fontSize={11} minTickGap={40} />
+            <YAxis yAxisId="kW" tickFormatter={(v: number) => sig(v, 3)} stroke="#8e3f1c" fontSize={11} width={56} label={{ value: 'residual [kW]', angle: -90, position: 'insideLeft', fill: '#8e3f1c', fontSize: 11 }} />
+            <YAxis
+              yAxisId="sigma"
+              orientation="right"
+              domain={[0, (max: number) => Math.max(max, notice.h * 1.25)]}
+              tickFormatter={(v: number) => sig(v, 3)}
+              stroke={INK}
+              fontSize={11}
+              width={48}
+              label={{ value: 'cumulative sum [σ]', angle: 90, position: 'insideRight', fill: INK, fontSize: 11 }}
+            />
+            <Tooltip
+              labelFormatter={(t) => `${span === 'day' ? 'day from ' : ''}${at(new Date(Number(t)).toISOString(), notice.timeZone)} (${notice.timeZone})`}
+              formatter={(v, name) => [Number(v).toFixed(2), name === 'residual' ? 'residual [kW]' : 'cumulative sum [σ]']}
+            />
+            <Bar yAxisId="kW" dataKey="residual" name="residual" fill={COPPER} isAnimationActive={false} />
+            <Line
+              yAxisId="sigma"
+              dataKey="cusum"
+              name="cusum"
+              stroke={INK}
+              strokeDasharray={CUSUM_DASH}
+              strokeWidth={2}
+              dot={data.length <= 120 ? { r: 2.5, strokeWidth: 0, fill: INK } : false}
+              isAnimationActive={false}
+            />
+            <ReferenceLine yAxisId="sigma" y={notice.h} stroke={INK} strokeDasharray={LIMIT_DASH} />
+            {shown.map((e, i) => (
+              <ReferenceLine key={`${e.label}-${e.t}`} yAxisId="sigma" x={new Date(e.t).getTime()} stroke="#6b6458" label={<EventLabel n={i + 1} row={i} />} />
+            ))}
+          </ComposedChart>
+        </ResponsiveContainer>
+      </div>
+      <Key notice={notice} span={span} />
+      {shown.length > 0 && (
+        <ol className="mt-1 flex flex-wrap gap-x-5 text-xs text-ink-soft" data-testid="chart-marks">
+          {shown.map((e, i) => (
+            <li key={`${e.label}-${e.t}`}>
+              <span className="mr-1 inline-block border border-ink px-1 tabular-nums">{i + 1}</span>
+              {e.label} {at(e.t, notice.timeZone)}
+            </li>
+          ))}
+        </ol>
+      )}
+      <figcaption className="mt-1 text-xs text-ink-faint">
+        {span === 'day' ? 'Over this span the chart shows one point per day (site time): the mean residual and the largest cumulative sum of its steady hours. ' : ''}
+        The cumulative sum adds each hour’s residual in units of σ, the spread of the residuals of the baseline’s fit, less the allowance k = {notice.k} σ; the
+        notice opens when it passes the decision limit h = {notice.h} σ.
+      </figcaption>
+    </figure>
+  );
+}
