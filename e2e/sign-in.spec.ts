@@ -86,3 +86,22 @@ test('a bodyless DELETE from the real origin gets through; one claiming http://l
   expect(unknown.status()).toBe(404);
   expect((await unknown.json()).error.code).toBe('NOT_FOUND');
 });
+
+test('a site token call with curl’s default content type is not taken for a cross-site form', async ({ page, playwright }) => {
+  await signIn(page, DEMO.admin);
+  const sites = (await (await page.request.get('/api/sites')).json()).sites as { id: string; name: string }[];
+  const site = sites[0]!;
+  const issued = await page.request.post(`/api/sites/${site.id}/tokens`, { data: { name: `e2e content type ${Date.now()}`, role: 'admin' } });
+  expect(issued.status()).toBe(201);
+  const { id, token } = (await issued.json()) as { id: string; token: string };
+  const client = await playwright.request.newContext({ baseURL: BASE() });
+  // As `curl -X PUT -d 'x=1'` sends it: a form content type, no Origin. The endpoint itself answers.
+  const res = await client.put(`/api/v1/sites/${site.id}/model`, {
+    headers: { authorization: `Bearer ${token}`, 'content-type': 'application/x-www-form-urlencoded' },
+    data: 'x=1',
+  });
+  expect(res.status()).toBe(400);
+  expect((await res.json()).error.message).toMatch(/not JSON/);
+  await client.dispose();
+  expect((await page.request.delete(`/api/tokens/${id}`)).status()).toBe(200);
+});
