@@ -1,1 +1,0 @@
-ALTER TABLE "uploads" ADD COLUMN "declared_sha256" text;
