@@ -44,7 +44,7 @@ interface SynthUnit {
 }
 
 /** A small deterministic generator (mulberry32), so every run computes the same hours. */
-function rng(seed: number) {
+export function rng(seed: number) {
   let a = seed >>> 0;
   return () => {
     a = (a + 0x6d2b79f5) >>> 0;
@@ -111,7 +111,7 @@ export function buildSite(): SynthUnit[] {
 }
 
 /** The tag hours of one unit in hour h (a fresh Map per hour, as the database read gives). */
-function hourOf(u: SynthUnit, h: number, r: () => number): Map<string, TagHour> {
+export function hourOf(u: SynthUnit, h: number, r: () => number): Map<string, TagHour> {
   const load = 1 + 0.12 * Math.sin((2 * Math.PI * (h % 24)) / 24 + u.phase);
   const m = new Map<string, TagHour>();
   for (const t of u.tags) {

@@ -7,6 +7,7 @@ CREATE TABLE "tag_hour_uploads" (
 	CONSTRAINT "tag_hour_uploads_upload_id_tag_id_pk" PRIMARY KEY("upload_id","tag_id")
 );
 --> statement-breakpoint
+DROP INDEX "unit_hours_state_idx";--> statement-breakpoint
 ALTER TABLE "sites" ADD COLUMN "retention_months" integer;--> statement-breakpoint
 ALTER TABLE "tags" ADD COLUMN "seq" integer NOT NULL GENERATED ALWAYS AS IDENTITY (sequence name "tags_seq_seq" INCREMENT BY 1 MINVALUE 1 MAXVALUE 2147483647 START WITH 1 CACHE 1);--> statement-breakpoint
 ALTER TABLE "tag_hour_uploads" ADD CONSTRAINT "tag_hour_uploads_upload_id_uploads_id_fk" FOREIGN KEY ("upload_id") REFERENCES "public"."uploads"("id") ON DELETE cascade ON UPDATE no action;--> statement-breakpoint

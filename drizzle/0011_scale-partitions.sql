@@ -101,8 +101,6 @@ ALTER TABLE "unit_hours_before_scale" DROP CONSTRAINT "unit_hours_unit_id_hour_s
 --> statement-breakpoint
 ALTER TABLE "unit_hours_before_scale" DROP CONSTRAINT "unit_hours_unit_id_plant_units_id_fk";
 --> statement-breakpoint
-DROP INDEX "unit_hours_state_idx";
---> statement-breakpoint
 CREATE TABLE "unit_hours" (
 	"unit_id" uuid NOT NULL,
 	"hour_start" timestamp with time zone NOT NULL,
@@ -129,8 +127,6 @@ CREATE TABLE "unit_hours" (
 ) PARTITION BY RANGE ("hour_start");
 --> statement-breakpoint
 ALTER TABLE "unit_hours" ADD CONSTRAINT "unit_hours_unit_id_plant_units_id_fk" FOREIGN KEY ("unit_id") REFERENCES "public"."plant_units"("id") ON DELETE cascade ON UPDATE no action;
---> statement-breakpoint
-CREATE INDEX "unit_hours_state_idx" ON "unit_hours" USING btree ("unit_id","state","hour_start");
 --> statement-breakpoint
 SELECT lossline_month_partitions('unit_hours', (SELECT min(hour_start) FROM unit_hours_before_scale), (SELECT max(hour_start) FROM unit_hours_before_scale));
 --> statement-breakpoint

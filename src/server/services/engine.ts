@@ -409,7 +409,7 @@ async function computeChunk(ctx: SiteContext, targets: EngineUnit[], fromMs: num
           list.push({ name: unit.name, fuel_W: res.fuel_W, product_W: res.product_W, cF_per_J: input.cost?.cF_per_J ?? null });
           env.boilerHours.set(t, list);
         }
-        rows.push(rowOf(unit.id, t, res, now));
+        rows.push(unitHourRowOf(unit.id, t, res, now));
         wFrom = Math.min(wFrom, t);
         wTo = Math.max(wTo, t + HOUR_ms);
       }
@@ -421,7 +421,8 @@ async function computeChunk(ctx: SiteContext, targets: EngineUnit[], fromMs: num
   });
 }
 
-function rowOf(unitId: string, t: number, res: UnitHourResult, now: Date): typeof unitHours.$inferInsert {
+/** The unit_hours row of a computed hour. */
+export function unitHourRowOf(unitId: string, t: number, res: UnitHourResult, now: Date): typeof unitHours.$inferInsert {
   return {
     unitId,
     hourStart: new Date(t),
@@ -447,7 +448,8 @@ function rowOf(unitId: string, t: number, res: UnitHourResult, now: Date): typeo
   };
 }
 
-async function writeUnitHours(tx: Tx, rows: (typeof unitHours.$inferInsert)[]) {
+/** Writes unit hours (insert or replace), in batches. */
+export async function writeUnitHours(tx: Reader, rows: (typeof unitHours.$inferInsert)[]) {
   for (let i = 0; i < rows.length; i += WRITE_BATCH) {
     await tx
       .insert(unitHours)
