@@ -20,6 +20,7 @@ import { Session } from 'node:inspector';
 import { availableParallelism, loadavg } from 'node:os';
 import { Worker, isMainThread, parentPort, workerData } from 'node:worker_threads';
 import { computeUnitHour, type EngineSite, type TagHour, type UnitHourInput } from '../src/lib/engine';
+import { water } from '../src/lib/thermo/water/index';
 import { boilerCase, heatExchangerCase, pumpCase, turbineCase, valveCase, type EngineCase } from '../tests/engine/cases';
 
 const YEAR_HOURS = 8760;
@@ -43,7 +44,7 @@ interface SynthUnit {
 }
 
 /** A small deterministic generator (mulberry32), so every run computes the same hours. */
-function rng(seed: number) {
+export function rng(seed: number) {
   let a = seed >>> 0;
   return () => {
     a = (a + 0x6d2b79f5) >>> 0;
@@ -110,7 +111,7 @@ export function buildSite(): SynthUnit[] {
 }
 
 /** The tag hours of one unit in hour h (a fresh Map per hour, as the database read gives). */
-function hourOf(u: SynthUnit, h: number, r: () => number): Map<string, TagHour> {
+export function hourOf(u: SynthUnit, h: number, r: () => number): Map<string, TagHour> {
   const load = 1 + 0.12 * Math.sin((2 * Math.PI * (h % 24)) / 24 + u.phase);
   const m = new Map<string, TagHour>();
   for (const t of u.tags) {
@@ -138,6 +139,33 @@ function run(units: SynthUnit[], hours: number, uncertainty: boolean, firstHour 
     }
   }
   return { n, engineMs, states };
+}
+
+/** Time of one water.pt call [us]: (p, T) states of the bench's units (liquid and steam), best of three. */
+function waterPtMicros(): number {
+  const n = 200_000;
+  const p = new Float64Array(n);
+  const T = new Float64Array(n);
+  const r = rng(99);
+  for (let i = 0; i < n; i++) {
+    if (i % 2) {
+      T[i] = 300 + r() * 150; // feedwater, condensate
+      p[i] = Math.max(water.psat(T[i]!) * 1.05, 2e5) + r() * 15e6;
+    } else {
+      T[i] = 480 + r() * 300; // live and extraction steam
+      p[i] = 2e5 + r() * 8e6;
+      if (p[i]! > water.psat(Math.min(T[i]!, 640)) * 0.95) p[i] = water.psat(Math.min(T[i]!, 640)) * 0.9;
+    }
+  }
+  let best = Infinity;
+  let sink = 0;
+  for (let k = 0; k < 3; k++) {
+    const t0 = performance.now();
+    for (let i = 0; i < n; i++) sink += water.pt(p[i]!, T[i]!).h;
+    best = Math.min(best, ((performance.now() - t0) * 1e3) / n);
+  }
+  if (!Number.isFinite(sink)) console.log('(check sum)');
+  return best;
 }
 
 const CATEGORIES: [RegExp, string][] = [
@@ -205,6 +233,9 @@ async function main() {
   console.log(`hour states in the sample: ${JSON.stringify(withU.states)}`);
   console.log(`unit_hours_per_s without uncertainty (1 thread): ${rate0.toFixed(0)}  (${(1e6 / rate0).toFixed(0)} us per unit hour)`);
   console.log(`unit_hours_per_s with uncertainty (1 thread):    ${rate1.toFixed(0)}  (${(1e6 / rate1).toFixed(0)} us per unit hour)`);
+  const ptUs = waterPtMicros();
+  console.log(`water_pt_us ${ptUs.toFixed(3)}  (one IAPWS-IF97 water.pt call, regions 1 and 2 mixed, same run)`);
+  console.log(`unit_hour_cost_in_water_pt_calls ${(1e6 / rate1 / ptUs).toFixed(0)}  (one unit hour with uncertainty / one water.pt call; target <= 150)`);
   console.log(`uncertainty share of the time: ${(100 * (1 - rate1 / rate0)).toFixed(0)} % (two extra balances per uncertain input, central differences)`);
 
   if (args.has('profile')) {

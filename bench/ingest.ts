@@ -18,9 +18,11 @@ import { closeDb, db } from '../src/server/db/client';
 import { sites, uploads } from '../src/server/db/schema';
 import { stopQueue } from '../src/server/queue';
 import { receiveApiUpload } from '../src/server/services/uploads';
+import { bytesPerRow } from './storage';
 
 const TAGS = 200;
-const DAYS = 30;
+/** 30 days: a 70 MB export; BENCH_INGEST_DAYS=215 makes about 500 MB (the worker's memory check). */
+const DAYS = Number(process.env.BENCH_INGEST_DAYS ?? 30);
 const ROWS = DAYS * 24 * 60;
 const PYTHON = process.env.LOSSLINE_PYTHON ?? '/usr/bin/python3';
 
@@ -123,6 +125,8 @@ try {
     console.log(`end_to_end_s ${e2e.seconds.toFixed(2)}`);
     console.log(`end_to_end_vs_in_process ${(e2e.seconds / ours.seconds).toFixed(2)}`);
     console.log(`worker_peak_rss_mb ${e2e.peakMb.toFixed(0)}`);
+    const st = await bytesPerRow('tag_hours');
+    console.log(`tag_hour_bytes ${st.perRow.toFixed(1)}  (${st.rows} rows, ${(st.bytes / 1e6).toFixed(1)} MB with indexes; target <= 120)`);
   } else {
     console.log('end_to_end_s skipped: no DATABASE_URL (run npm run bench:ingest, which starts the services)');
   }

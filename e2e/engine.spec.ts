@@ -16,13 +16,13 @@ async function insertTagHours(siteId: string, firstHour: number) {
   await client.connect();
   try {
     for (const [tag, mean] of Object.entries(READINGS)) {
-      const { rows } = await client.query('select id from tags where site_id = $1 and name = $2', [siteId, tag]);
+      const { rows } = await client.query('select seq from tags where site_id = $1 and name = $2', [siteId, tag]);
       for (let h = 0; h < 3; h++) {
         const swing = tag === 'PRV_F' && h === 2 ? 0.08 : 0.001;
         await client.query(
-          `insert into tag_hours (tag_id, hour_start, mean, min, max, std, samples, covered_fraction, covered_seconds, upload_ids)
-           values ($1, $2, $3, $4, $5, $6, 60, 1, 3600, '{}')`,
-          [rows[0].id, new Date(firstHour + h * HOUR), mean, mean * (1 - swing), mean * (1 + swing), mean * swing * 0.5],
+          `insert into tag_hours (tag_id, hour_start, mean, min, max, std, samples, covered_s)
+           values ($1, $2, $3, $4, $5, $6, 60, 3600)`,
+          [rows[0].seq, new Date(firstHour + h * HOUR), mean, mean * (1 - swing), mean * (1 + swing), mean * swing * 0.5],
         );
       }
     }

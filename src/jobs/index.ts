@@ -13,6 +13,8 @@ export const QUEUES = {
   checkUnitRules: 'check-unit-rules',
   /** Scheduled daily: one digest of drift notices not yet closed to each person who opted in. */
   noticeDigest: 'notice-digest',
+  /** Scheduled daily: month partitions ahead, each site's retention (src/server/db/partitions.ts). */
+  partitionUpkeep: 'partition-upkeep',
 } as const;
 
 export type QueueName = (typeof QUEUES)[keyof typeof QUEUES];

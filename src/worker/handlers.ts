@@ -3,6 +3,7 @@ import { CheckDriftPayload, CheckUnitRulesPayload, IngestFilePayload, NoticeDige
 import { checkUnitRules } from '../server/services/unit-rules';
 import { checkDrift } from '../server/services/drift';
 import { handleComputeUnitHours } from '../server/services/engine';
+import { partitionUpkeep } from '../server/db/partitions';
 import { sendNoticeDigests } from '../server/services/notices';
 import { ingestUpload } from '../server/services/ingest';
 
@@ -38,6 +39,12 @@ export async function registerHandlers(boss: PgBoss): Promise<void> {
     await sendNoticeDigests(day ? new Date(`${day}T12:00:00Z`) : new Date());
   });
   await boss.schedule(QUEUES.noticeDigest, '0 6 * * *', {}, { tz: 'UTC' });
+  // --- storage: month partitions ahead and retention ---
+  await boss.work(QUEUES.partitionUpkeep, { pollingIntervalSeconds: 30, batchSize: 1 }, async () => {
+    const out = await partitionUpkeep();
+    console.log(`[worker] partition-upkeep: ${out.made} partition(s) made, ${out.deletedTagHours} tag hours and ${out.deletedUnitHours} unit hours past retention removed${out.dropped.length ? `, dropped ${out.dropped.join(', ')}` : ''}`);
+  });
+  await boss.schedule(QUEUES.partitionUpkeep, '15 1 * * *', {}, { tz: 'UTC' });
 }
 
 async function runUnitRules(data: unknown): Promise<void> {

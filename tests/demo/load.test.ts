@@ -42,7 +42,7 @@ describeIntegration('the demo loader', () => {
 
     // the worker read every minute of the nine days into tag hours (the site's local hours)
     const [steam] = await db().select().from(tags).where(and(eq(tags.siteId, first.siteId), eq(tags.name, tagOf('b1.steam.m').tag)));
-    const [{ n }] = (await db().select({ n: count() }).from(tagHours).where(eq(tagHours.tagId, steam!.id))) as [{ n: number }];
+    const [{ n }] = (await db().select({ n: count() }).from(tagHours).where(eq(tagHours.tagId, steam!.seq))) as [{ n: number }];
     expect(n).toBe(9 * 24);
     // the engine computed every unit's hours, and the units steady often enough got a baseline
     expect(first.unitHours).toBe(9 * 24 * units.length);

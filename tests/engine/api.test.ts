@@ -8,7 +8,8 @@ import { beforeAll, expect, it } from 'vitest';
 import { GET as listHours } from '../../src/pages/api/v1/units/[unitId]/hours/index';
 import { GET as oneHour } from '../../src/pages/api/v1/units/[unitId]/hours/[hour]';
 import { db } from '../../src/server/db/client';
-import { plantUnits, tagHours, tags } from '../../src/server/db/schema';
+import { plantUnits, tags } from '../../src/server/db/schema';
+import { writeTagHours } from '../../src/server/services/tag-hours';
 import { handleComputeUnitHours } from '../../src/server/services/engine';
 import { createSiteFromModel } from '../../src/server/services/plant-model';
 import { expectClose } from '../support/expect-close';
@@ -44,8 +45,8 @@ describeIntegration('unit hours API', () => {
     [{ id: unitId }] = (await db().select({ id: plantUnits.id }).from(plantUnits).where(eq(plantUnits.siteId, siteId))) as [{ id: string }];
     const tagRows = await db().select().from(tags).where(eq(tags.siteId, siteId));
     for (const l of c.links) {
-      const tagId = tagRows.find((t) => t.name === l.tag)!.id;
-      for (let h = 0; h < 2; h++) await db().insert(tagHours).values({ tagId, hourStart: new Date(H0 + h * H), ...steadyHour(l.reading), uploadIds: [] });
+      const tagId = tagRows.find((t) => t.name === l.tag)!.seq;
+      for (let h = 0; h < 2; h++) await writeTagHours([{ tagId, hourStart: new Date(H0 + h * H), ...steadyHour(l.reading) }]);
     }
     await handleComputeUnitHours({ siteId, fromMs: H0, toMs: H0 + 2 * H });
   });

@@ -1,6 +1,6 @@
 import { beforeAll, expect, it } from 'vitest';
 import { db } from '../../src/server/db/client';
-import { tagHours } from '../../src/server/db/schema';
+import { writeTagHours } from '../../src/server/services/tag-hours';
 import type { PlantModel } from '../../src/lib/plant';
 import { createSite, siteStatus } from '../../src/server/services/plant';
 import { createSiteFromModel, exportModel, firstLinkDifferenceMs, importModel } from '../../src/server/services/plant-model';
@@ -9,7 +9,7 @@ import { issueApiToken } from '../../src/server/tokens';
 import { GET as getModel, PUT as putModel } from '../../src/pages/api/v1/sites/[siteId]/model';
 import { describeIntegration } from '../support/integration';
 import { documentedExample } from './example';
-import { recomputeJobs, siteSnapshot, tagId, uniqueName } from './support';
+import { recomputeJobs, siteSnapshot, tagId, tagSeq, uniqueName } from './support';
 
 const clone = <T>(x: T): T => structuredClone(x);
 
@@ -107,9 +107,7 @@ describeIntegration('plant model import and export', () => {
 
   it('an import that changes one link queues a recompute of that unit only, from the change on', async () => {
     // Give the site tag hours, so there is something to recompute.
-    await db()
-      .insert(tagHours)
-      .values({ tagId: await tagId(siteId, 'TG1_MW'), hourStart: new Date('2024-01-01T00:00:00Z'), samples: 60, coveredFraction: 1, uploadIds: [] });
+    await writeTagHours([{ tagId: await tagSeq(siteId, 'TG1_MW'), hourStart: new Date('2024-01-01T00:00:00Z'), samples: 60, coveredFraction: 1, mean: null, min: null, max: null, std: null }]);
     const file = await exportModel(siteId);
     const tg1 = file.units.find((u) => u.name === 'TG1')!;
     const power = tg1.links.find((l) => l.quantity === 'power')!;

@@ -1,11 +1,11 @@
 import { expect, it } from 'vitest';
 import { db } from '../../src/server/db/client';
-import { tagHours } from '../../src/server/db/schema';
+import { writeTagHours } from '../../src/server/services/tag-hours';
 import { createSite, getSite, siteModel, updateSite, type SiteInput } from '../../src/server/services/plant';
 import { PlantRuleError } from '../../src/server/services/plant-tx';
 import { describeIntegration } from '../support/integration';
 import { expectClose } from '../support/expect-close';
-import { addTags, recomputeJobs, uniqueName } from './support';
+import { addTags, recomputeJobs, tagSeq, uniqueName } from './support';
 
 const base = (name: string): SiteInput => ({ name, timeZone: 'America/Denver', T0_K: 298.15, p0_Pa: 101325, currency: 'USD', prices: [] });
 
@@ -34,12 +34,12 @@ describeIntegration('site settings', () => {
   it('a changed dead state recomputes every hour with data at the site, for all units; prices alone do not', async () => {
     const site = await createSite(base(uniqueName('Dead state plant')));
     const ids = await addTags(site.id, [{ name: 'X1' }]);
-    await db()
-      .insert(tagHours)
-      .values([
-        { tagId: ids.get('X1')!, hourStart: new Date('2024-02-01T10:00:00Z'), samples: 60, coveredFraction: 1, uploadIds: [] },
-        { tagId: ids.get('X1')!, hourStart: new Date('2024-02-03T07:00:00Z'), samples: 60, coveredFraction: 1, uploadIds: [] },
-      ]);
+    const x1 = await tagSeq(site.id, 'X1');
+    const none = { mean: null, min: null, max: null, std: null, samples: 60, coveredFraction: 1 };
+    await writeTagHours([
+      { tagId: x1, hourStart: new Date('2024-02-01T10:00:00Z'), ...none },
+      { tagId: x1, hourStart: new Date('2024-02-03T07:00:00Z'), ...none },
+    ]);
     await updateSite(site.id, { ...base(site.name), prices: [{ name: 'grid', kind: 'electricity', price_per_MWh: 70, currency: 'USD' }] });
     expect(await recomputeJobs(site.id)).toEqual([]);
     await updateSite(site.id, { ...base(site.name), T0_K: 293.15 });

@@ -34,6 +34,12 @@ export async function addTags(siteId: string, list: { name: string; unitHint?: s
   return new Map(rows.map((r) => [r.name, r.id]));
 }
 
+/** The tag's narrow key (tags.seq), which tag hours carry. */
+export async function tagSeq(siteId: string, name: string) {
+  const [t] = await db().select({ seq: tags.seq }).from(tags).where(and(eq(tags.siteId, siteId), eq(tags.name, name)));
+  return t!.seq;
+}
+
 export async function tagId(siteId: string, name: string) {
   const [t] = await db().select({ id: tags.id }).from(tags).where(and(eq(tags.siteId, siteId), eq(tags.name, name)));
   return t!.id;

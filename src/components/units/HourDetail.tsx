@@ -81,6 +81,8 @@ interface Hour {
   inputsHash: string;
   computedAt: string;
   detail: Detail | null;
+  /** The detail is rebuilt on demand; matches: the same model version and inputs hash as the stored hour. */
+  rebuilt?: { matches: boolean; inputsHash: string | null; ms: number };
 }
 
 const kW = (w: number | null | undefined) => fmt(w, 1, 1e-3);
@@ -411,7 +413,14 @@ export function HourDetail({ unit, hourStart, onClose }: { unit: UnitInfo; hourS
         ) : null}
         <p>
           Model version {hour.modelVersion}, inputs {hour.inputsHash}, computed {siteTime(hour.computedAt, tz, 'yyyy-MM-dd HH:mm:ss')} by {d?.engine ?? 'the engine'}.
+          {hour.rebuilt?.matches ? ' Opened up from the stored tag hours: same inputs as the stored hour.' : ''}
         </p>
+        {hour.rebuilt && !hour.rebuilt.matches && (
+          <p className="notice-error" data-testid="hour-rebuilt-differs">
+            The tag hours or the plant model of this hour changed after it was computed; the detail shows the hour as it would be computed
+            now, and the figures above are the stored ones until the recompute has run.
+          </p>
+        )}
       </div>
     </section>
   );

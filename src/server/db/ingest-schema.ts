@@ -1,11 +1,12 @@
 import { sql } from 'drizzle-orm';
 import {
   bigint,
-  boolean,
   doublePrecision,
   index,
   integer,
   jsonb,
+  real,
+  smallint,
   pgTable,
   primaryKey,
   text,
@@ -80,6 +81,8 @@ export const tags = pgTable(
   'tags',
   {
     id: uuid('id').primaryKey().default(sql`gen_random_uuid()`),
+    /** A narrow key for the tag's hours (4 bytes instead of 16 in every tag hour and its index). */
+    seq: integer('seq').notNull().unique().generatedAlwaysAsIdentity(),
     siteId: uuid('site_id')
       .notNull()
       .references(() => sites.id, { onDelete: 'cascade' }),
@@ -98,36 +101,80 @@ export const tags = pgTable(
   (t) => [uniqueIndex('tags_site_name').on(t.siteId, t.name)],
 );
 
-/** The statistics of one tag in one local clock hour (hourStart is the UTC instant it starts). */
+/** Bits of tag_hours.flags: what the reader noticed in the hour (counts stay in the upload's report). */
+export const TAG_HOUR_FLAGS = {
+  flatline: 1,
+  'duplicate-times': 2,
+  'backwards-times': 4,
+  'bad-quality': 8,
+  'uncertain-quality': 16,
+  'replaced-older-file': 32,
+  'combined-files': 64,
+} as const;
+export type TagHourFlag = keyof typeof TAG_HOUR_FLAGS;
+
+/** The flag names of a flags value. */
+export function tagHourFlagNames(bits: number): TagHourFlag[] {
+  return (Object.keys(TAG_HOUR_FLAGS) as TagHourFlag[]).filter((k) => (bits & TAG_HOUR_FLAGS[k]) !== 0);
+}
+
+/**
+ * The statistics of one tag in one local clock hour (hourStart is the UTC instant it starts).
+ *
+ * Lean on purpose (docs/scale.md): 56 bytes of data per row, columns ordered so that nothing is
+ * padded. Values are float4 (7 significant digits, finer than any plant instrument); the tag by its
+ * 4-byte `tags.seq`; covered time in whole seconds; the first and last usable sample as ms after
+ * the hour's start; the reader's remarks as bits (TAG_HOUR_FLAGS). Which uploads brought an hour is
+ * in tag_hour_uploads (one row per upload and tag). Partitioned by month (migration scale-partitions).
+ */
 export const tagHours = pgTable(
   'tag_hours',
   {
-    tagId: uuid('tag_id')
-      .notNull()
-      .references(() => tags.id, { onDelete: 'cascade' }),
     hourStart: timestamp('hour_start', { withTimezone: true }).notNull(),
-    mean: doublePrecision('mean'),
-    min: doublePrecision('min'),
-    max: doublePrecision('max'),
-    std: doublePrecision('std'),
-    first: doublePrecision('first'),
-    last: doublePrecision('last'),
+    /**
+     * tags.seq. No foreign key (no per-row check during COPY, no lock on tags when a month partition
+     * is attached): a statement trigger on tags deletes the hours of deleted tags (scale-partitions).
+     */
+    tagId: integer('tag_id').notNull(),
     samples: integer('samples').notNull(),
-    coveredFraction: doublePrecision('covered_fraction').notNull(),
-    nonNumeric: integer('non_numeric').notNull().default(0),
-    outOfRange: integer('out_of_range').notNull().default(0),
-    flatline: boolean('flatline').notNull().default(false),
-    /** Seconds of the hour on which the signal is defined (coveredFraction x 3600). */
-    coveredSeconds: doublePrecision('covered_seconds').notNull().default(0),
-    /** Time of the first and last usable sample in the hour (for combining two files' parts). */
-    spanStart: timestamp('span_start', { withTimezone: true, precision: 3 }),
-    spanEnd: timestamp('span_end', { withTimezone: true, precision: 3 }),
-    /** Uploads whose samples make this hour, newest first. */
-    uploadIds: uuid('upload_ids').array().notNull(),
-    flags: text('flags').array().notNull().default(sql`'{}'::text[]`),
-    updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+    mean: real('mean'),
+    min: real('min'),
+    max: real('max'),
+    std: real('std'),
+    first: real('first'),
+    last: real('last'),
+    /** First and last usable sample of the hour [ms after hourStart] (for combining two files' parts). */
+    spanStartMs: integer('span_start_ms'),
+    spanEndMs: integer('span_end_ms'),
+    /** Seconds of the hour on which the signal is defined (covered fraction x 3600), whole seconds. */
+    coveredSeconds: smallint('covered_s').notNull().default(0),
+    /** Counts, capped at 32767. */
+    nonNumeric: smallint('non_numeric').notNull().default(0),
+    outOfRange: smallint('out_of_range').notNull().default(0),
+    /** TAG_HOUR_FLAGS bits (flatline among them). */
+    flags: smallint('flags').notNull().default(0),
   },
   (t) => [primaryKey({ columns: [t.tagId, t.hourStart] })],
+);
+
+/** Covered fraction [-] of a tag hour, as SQL (covered_s / 3600). */
+export const coveredFractionSql = sql<number>`(${tagHours.coveredSeconds}::float8 / 3600.0)`;
+/** Flatline flag of a tag hour, as SQL. */
+export const flatlineSql = sql<boolean>`((${tagHours.flags} & ${TAG_HOUR_FLAGS.flatline}) <> 0)`;
+
+/** Which uploads brought hours of a tag: one row per upload and tag, with the first and last hour. */
+export const tagHourUploads = pgTable(
+  'tag_hour_uploads',
+  {
+    uploadId: uuid('upload_id')
+      .notNull()
+      .references(() => uploads.id, { onDelete: 'cascade' }),
+    /** tags.seq */
+    tagId: integer('tag_id').notNull(),
+    firstHour: timestamp('first_hour', { withTimezone: true }).notNull(),
+    lastHour: timestamp('last_hour', { withTimezone: true }).notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.uploadId, t.tagId] }), index('tag_hour_uploads_tag').on(t.tagId, t.lastHour)],
 );
 
 /** Figures a later file replaced, kept with the upload that brought them. */
@@ -135,7 +182,8 @@ export const tagHourHistory = pgTable(
   'tag_hour_history',
   {
     id: uuid('id').primaryKey().default(sql`gen_random_uuid()`),
-    tagId: uuid('tag_id').notNull(),
+    /** tags.seq */
+    tagId: integer('tag_id').notNull(),
     hourStart: timestamp('hour_start', { withTimezone: true }).notNull(),
     replacedByUploadId: uuid('replaced_by_upload_id').notNull(),
     previous: jsonb('previous').$type<Record<string, unknown>>().notNull(),

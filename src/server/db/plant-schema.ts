@@ -27,6 +27,8 @@ export const sites = pgTable('sites', {
   currency: text('currency').notNull().default('EUR'),
   /** Prices of purchased fuels (per MWh LHV) and electricity (per MWh), for the cost of destruction. */
   prices: jsonb('prices').$type<EnergyPrice[]>().notNull().default(sql`'[]'::jsonb`),
+  /** Months of tag hours and unit hours kept (null: all); raw files stay in the store (src/server/db/partitions.ts). */
+  retentionMonths: integer('retention_months'),
   updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
 });
 

@@ -1,5 +1,5 @@
 import { sql } from 'drizzle-orm';
-import { doublePrecision, index, jsonb, pgTable, primaryKey, text, timestamp, uuid } from 'drizzle-orm/pg-core';
+import { doublePrecision, jsonb, pgTable, primaryKey, text, timestamp, uuid } from 'drizzle-orm/pg-core';
 import { plantUnits } from './plant-schema';
 
 /** Hour states, in Lossline's words (docs/design.md). Only steady hours feed trends, baselines, drift. */
@@ -11,6 +11,11 @@ export type HourState = (typeof HOUR_STATES)[number];
  * starts). Stored with the model version and a hash of every input, so the same inputs always give
  * the same row and a recompute rewrites only rows whose inputs changed. Powers in W, efficiency [-],
  * expanded uncertainties U (k = 2) in the same units, cost per hour in the site's currency.
+ *
+ * Only what pages, notices and reports query is stored. The hour opened up (port states, terms,
+ * uncertainty contributors, tag hours used) is rebuilt on demand from the stored tag hours and the
+ * link versions of the hour (src/server/services/engine-results.ts unitHourDetail); the inputs hash
+ * proves the rebuilt hour is the stored one. Partitioned by month (migration scale-partitions).
  */
 export const unitHours = pgTable(
   'unit_hours',
@@ -41,11 +46,11 @@ export const unitHours = pgTable(
     entropyGeneration_W_per_K: doublePrecision('entropy_generation_w_per_k'),
     /** Cost of the hour's destruction [currency per hour]. */
     destructionCost_per_h: doublePrecision('destruction_cost_per_h'),
-    /** Everything needed to open the hour up: port states, terms, sensitivities, inputs used. */
-    detail: jsonb('detail').$type<Record<string, unknown>>(),
     modelVersion: text('model_version').notNull(),
     inputsHash: text('inputs_hash').notNull(),
     computedAt: timestamp('computed_at', { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [primaryKey({ columns: [t.unitId, t.hourStart] }), index('unit_hours_state_idx').on(t.unitId, t.state, t.hourStart)],
+  // One index: the primary key (unit, hour). A second one on (unit, state, hour) cost about 60 bytes a
+  // row and no query needs it (a unit's hours of a period are read by the key and filtered by state).
+  (t) => [primaryKey({ columns: [t.unitId, t.hourStart] })],
 );

@@ -6,6 +6,7 @@ import { and, asc, desc, eq, gte, lt, sql } from 'drizzle-orm';
 import { db } from '../db/client';
 import { plantUnits, sites, unitHours } from '../db/schema';
 import { csvCell } from './uploads';
+import { rebuildUnitHour } from './engine';
 
 export class EngineQueryError extends Error {
   constructor(
@@ -85,17 +86,38 @@ export async function unitHoursOf(unitId: string, from: Date, to: Date) {
 }
 export type UnitHourRow = Awaited<ReturnType<typeof unitHoursOf>>[number];
 
-/** One hour of a unit with its audit trail (detail), or NOT_FOUND. */
+/**
+ * One hour of a unit with its audit trail (detail), or NOT_FOUND. The detail is not stored: it is
+ * rebuilt from the stored tag hours and the link versions of the hour by the same engine that
+ * stored the row (src/server/services/engine.ts rebuildUnitHour). `rebuilt` says whether the
+ * rebuilt hour's model version and inputs hash are the stored ones (they differ only when a late
+ * file or a plant-model change has not been recomputed yet; the detail then shows the hour as it
+ * would be computed now).
+ */
 export async function unitHourDetail(unitId: string, hourStart: Date) {
   if (Number.isNaN(hourStart.getTime())) throw new EngineQueryError('VALIDATION_FAILED', 'Give the hour as an ISO 8601 instant (with Z or an offset) or in ms.');
   const [r] = await db()
-    .select({ ...LIST_COLUMNS, detail: unitHours.detail })
+    .select(LIST_COLUMNS)
     .from(unitHours)
     .where(and(eq(unitHours.unitId, unitId), eq(unitHours.hourStart, hourStart)))
     .limit(1);
   if (!r) throw new EngineQueryError('NOT_FOUND', 'This unit has no computed hour starting then.');
-  return { ...r, hourStart: r.hourStart.toISOString(), computedAt: r.computedAt.toISOString() };
+  const t0 = performance.now();
+  let res = await rebuildUnitHour(unitId, hourStart.getTime(), true);
+  // An hour stored without uncertainty (a job run with uncertainty off) hashes that choice too.
+  if (res && res.inputsHash !== r.inputsHash) {
+    const without = await rebuildUnitHour(unitId, hourStart.getTime(), false);
+    if (without && without.inputsHash === r.inputsHash) res = without;
+  }
+  const rebuilt = {
+    modelVersion: res?.modelVersion ?? null,
+    inputsHash: res?.inputsHash ?? null,
+    matches: !!res && res.inputsHash === r.inputsHash && res.modelVersion === r.modelVersion,
+    ms: Math.round((performance.now() - t0) * 10) / 10,
+  };
+  return { ...r, hourStart: r.hourStart.toISOString(), computedAt: r.computedAt.toISOString(), detail: res?.detail ?? null, rebuilt };
 }
+export type UnitHourDetail = Awaited<ReturnType<typeof unitHourDetail>>;
 
 /** The latest hour start of a unit, or null. */
 export async function latestHourOf(unitId: string): Promise<Date | null> {

@@ -23,13 +23,15 @@ import {
   type EngineUnit,
   type FlueGasSource,
   type TagHour,
+  type UnitHourInput,
   type UnitHourResult,
   unitHourHashes,
 } from '../../lib/engine';
 import type { UnitKind } from '../../lib/plant/kinds';
 import type { Fluid } from '../../lib/plant/model';
 import { db } from '../db/client';
-import { plantPorts, plantUnits, sites, tagHours, tags, unitHours } from '../db/schema';
+import { coveredFractionSql, flatlineSql, plantPorts, plantUnits, sites, tagHours, tags, unitHours } from '../db/schema';
+import { ensureMonthPartitions } from '../db/partitions';
 import { queue } from '../queue';
 import { linksForRange, type ResolvedLink } from './plant-links';
 import type { Tx } from './plant-tx';
@@ -43,7 +45,11 @@ export interface ComputeOptions {
   uncertainty?: boolean;
   /** send check-drift for what was written (default true) */
   sendDrift?: boolean;
+  /** called with every unit hour the job computes (tests compare it with the hour rebuilt on demand) */
+  onResult?: (unitId: string, hourStartMs: number, result: UnitHourResult) => void;
 }
+
+type Reader = Tx | ReturnType<typeof db>;
 
 export interface ComputeSummary {
   siteId: string;
@@ -91,13 +97,15 @@ const holdsAt = (l: { validFromMs: number; validToMs: number | null }, t: number
 interface SiteContext {
   site: typeof sites.$inferSelect;
   engineSite: EngineSite;
-  t0Tag: { id: string; name: string } | null;
+  t0Tag: { id: string; seq: number; name: string } | null;
+  /** tags.id -> tags.seq (the key of tag hours) */
+  tagSeq: Map<string, number>;
   units: EngineUnit[];
   unitIds: Set<string>;
   boilers: EngineUnit[];
 }
 
-async function siteContext(siteId: string, r: Tx | ReturnType<typeof db> = db()): Promise<SiteContext | null> {
+async function siteContext(siteId: string, r: Reader = db()): Promise<SiteContext | null> {
   const [site] = await r.select().from(sites).where(eq(sites.id, siteId)).limit(1);
   if (!site) return null;
   const unitRows = await r.select().from(plantUnits).where(eq(plantUnits.siteId, siteId)).orderBy(asc(plantUnits.name));
@@ -108,11 +116,10 @@ async function siteContext(siteId: string, r: Tx | ReturnType<typeof db> = db())
         .where(inArray(plantPorts.unitId, unitRows.map((u) => u.id)))
         .orderBy(asc(plantPorts.position), asc(plantPorts.name))
     : [];
+  const tagRows = await r.select({ id: tags.id, seq: tags.seq, name: tags.name }).from(tags).where(eq(tags.siteId, siteId));
+  const tagSeq = new Map(tagRows.map((t) => [t.id, t.seq]));
   let t0Tag: SiteContext['t0Tag'] = null;
-  if (site.t0TagId) {
-    const [t] = await r.select({ id: tags.id, name: tags.name }).from(tags).where(eq(tags.id, site.t0TagId)).limit(1);
-    if (t) t0Tag = t;
-  }
+  if (site.t0TagId) t0Tag = tagRows.find((t) => t.id === site.t0TagId) ?? null;
   const units: EngineUnit[] = unitRows.map((u) => ({
     id: u.id,
     name: u.name,
@@ -134,6 +141,7 @@ async function siteContext(siteId: string, r: Tx | ReturnType<typeof db> = db())
       prices: site.prices,
     },
     t0Tag,
+    tagSeq,
     units,
     unitIds: new Set(units.map((u) => u.id)),
     boilers: units.filter((u) => u.kind === 'boiler'),
@@ -147,8 +155,8 @@ async function dataSpan(siteId: string, unitIds: string[], fromMs: number, toMs:
   // Per tag, the first and last hour in range by the primary key (an index seek each, not a scan).
   const a = await db().execute<{ lo: Date | null; hi: Date | null }>(
     sql`select min(f.h) as lo, max(l.h) as hi from tags t
-        cross join lateral (select hour_start as h from tag_hours where tag_id = t.id and hour_start >= ${from.toISOString()}::timestamptz and hour_start < ${to.toISOString()}::timestamptz order by hour_start asc limit 1) f
-        cross join lateral (select hour_start as h from tag_hours where tag_id = t.id and hour_start >= ${from.toISOString()}::timestamptz and hour_start < ${to.toISOString()}::timestamptz order by hour_start desc limit 1) l
+        cross join lateral (select hour_start as h from tag_hours where tag_id = t.seq and hour_start >= ${from.toISOString()}::timestamptz and hour_start < ${to.toISOString()}::timestamptz order by hour_start asc limit 1) f
+        cross join lateral (select hour_start as h from tag_hours where tag_id = t.seq and hour_start >= ${from.toISOString()}::timestamptz and hour_start < ${to.toISOString()}::timestamptz order by hour_start desc limit 1) l
         where t.site_id = ${siteId}`,
   );
   const b = unitIds.length
@@ -164,8 +172,6 @@ async function dataSpan(siteId: string, unitIds: string[], fromMs: number, toMs:
   if (!ts.length) return null;
   return [Math.min(...ts), Math.max(...ts) + 1];
 }
-
-type TagHourRow = TagHour & { hourStart: Date; tagId: string };
 
 /**
  * Computes and stores the unit hours of a site over [fromMs, toMs) (hour starts), for the given units
@@ -202,7 +208,8 @@ export async function computeUnitHours(payload: { siteId: string; fromMs: number
   let tTo = -Infinity;
   for (let a = lo; a < hi; ) {
     const b = Math.min(nextMonth(a), hi);
-    const out = await computeChunk(ctx, targets, a, b, options.uncertainty ?? true);
+    await ensureMonthPartitions(null, 'unit_hours', a, b - 1);
+    const out = await computeChunk(ctx, targets, a, b, options.uncertainty ?? true, options.onResult);
     summary.chunks++;
     summary.computed += out.computed;
     summary.written += out.written;
@@ -225,47 +232,157 @@ export async function computeUnitHours(payload: { siteId: string; fromMs: number
   return summary;
 }
 
+
+/** Everything of a month of a site that every unit's hours share: links, flue-gas O2, prices, boilers. */
+interface ChunkEnv {
+  linksByUnit: Map<string, { link: EngineLink; tagSeq: number }[]>;
+  o2ByBoiler: Map<string, { link: EngineLink; tagSeq: number }[]>;
+  elec: CostBasis | null;
+  fuelCost: (b: EngineUnit) => CostBasis | null;
+  /** boiler hours by hour start: stored ones of boilers the job leaves alone, then those it computes */
+  boilerHours: Map<number, BoilerHour[]>;
+  boilerIds: Set<string>;
+}
+
+async function chunkEnv(ctx: SiteContext, targets: EngineUnit[], from: Date, to: Date, r: Reader): Promise<ChunkEnv> {
+  const all = await linksForRange(ctx.site.id, from, to, r);
+  const linksByUnit = new Map<string, { link: EngineLink; tagSeq: number }[]>();
+  for (const l of all) {
+    const list = linksByUnit.get(l.unitId) ?? [];
+    list.push({ link: toEngineLink(l), tagSeq: ctx.tagSeq.get(l.tagId) ?? -1 });
+    linksByUnit.set(l.unitId, list);
+  }
+  // Flue-gas ports outside boilers take the fuel and O2 of the boiler they come from.
+  const o2ByBoiler = new Map<string, { link: EngineLink; tagSeq: number }[]>();
+  for (const b of ctx.boilers) o2ByBoiler.set(b.name, (linksByUnit.get(b.id) ?? []).filter((x) => x.link.quantity === 'o2Fraction'));
+  const elec = electricityCost(ctx.site.prices, ctx.site.currency);
+  // The fuel's exergy/LHV ratio is taken at the site's T0 (it moves by less than 0.1 % over the seasons).
+  const fuelCostCache = new Map<string, CostBasis | null>();
+  const fuelCost = (b: EngineUnit) => {
+    if (!fuelCostCache.has(b.id)) fuelCostCache.set(b.id, fuelExergyCost(ctx.site.prices, b.fuel, ctx.site.currency, ctx.engineSite.T0_K));
+    return fuelCostCache.get(b.id)!;
+  };
+  // Boiler hours of this month: computed by this job, or as stored when the job leaves the boilers alone.
+  const boilerHours = new Map<number, BoilerHour[]>();
+  const stored = ctx.boilers.filter((b) => !targets.includes(b));
+  if (stored.length && targets.some((u) => costKindOf(u) === 'steam')) {
+    const rows = await r
+      .select({ unitId: unitHours.unitId, hourStart: unitHours.hourStart, fuel_W: unitHours.fuel_W, product_W: unitHours.product_W })
+      .from(unitHours)
+      .where(and(inArray(unitHours.unitId, stored.map((b) => b.id)), gte(unitHours.hourStart, from), lt(unitHours.hourStart, to)));
+    for (const row of rows) {
+      const b = stored.find((x) => x.id === row.unitId)!;
+      const list = boilerHours.get(row.hourStart.getTime()) ?? [];
+      list.push({ name: b.name, fuel_W: row.fuel_W, product_W: row.product_W, cF_per_J: fuelCost(b)?.cF_per_J ?? null });
+      boilerHours.set(row.hourStart.getTime(), list);
+    }
+  }
+  return { linksByUnit, o2ByBoiler, elec, fuelCost, boilerHours, boilerIds: new Set(ctx.boilers.map((b) => b.id)) };
+}
+
+/** The tag hours of some tags over [from, to), as the engine reads them. */
+async function readTagHours(r: Reader, tagSeqs: number[], from: Date, to: Date) {
+  if (!tagSeqs.length) return [];
+  return r
+    .select({
+      tagId: tagHours.tagId,
+      hourStart: tagHours.hourStart,
+      mean: tagHours.mean,
+      min: tagHours.min,
+      max: tagHours.max,
+      std: tagHours.std,
+      samples: tagHours.samples,
+      coveredFraction: coveredFractionSql,
+      nonNumeric: tagHours.nonNumeric,
+      outOfRange: tagHours.outOfRange,
+      flatline: flatlineSql,
+    })
+    .from(tagHours)
+    .where(and(inArray(tagHours.tagId, tagSeqs), gte(tagHours.hourStart, from), lt(tagHours.hourStart, to)));
+}
+
+/**
+ * One unit over [from, to): its tag hours read, and the engine's input for any hour of it. The same
+ * code serves the job (every hour) and the hour opened up (one hour, rebuilt on demand).
+ */
+async function unitInputs(ctx: SiteContext, env: ChunkEnv, unit: EngineUnit, from: Date, to: Date, r: Reader) {
+  const own = env.linksByUnit.get(unit.id) ?? [];
+  const flueGasSources: Record<string, FlueGasSource> = {};
+  const extraTags: number[] = [];
+  for (const port of unit.ports) {
+    const fluid = port.fluid;
+    if (fluid?.kind === 'flue-gas' && fluid.fuelFrom && unit.kind !== 'boiler') {
+      const src = ctx.boilers.find((b) => b.name === fluid.fuelFrom);
+      const o2 = src ? (env.o2ByBoiler.get(src.name) ?? []) : [];
+      flueGasSources[fluid.fuelFrom] = { fuel: src?.fuel ?? null, o2Link: o2[0]?.link ?? null };
+      extraTags.push(...o2.map((x) => x.tagSeq));
+    }
+  }
+  const ownTags = [...new Set(own.map((x) => x.tagSeq))];
+  const tagSeqs = [...new Set([...ownTags, ...extraTags, ...(ctx.t0Tag ? [ctx.t0Tag.seq] : [])])].filter((x) => x >= 0);
+  const thRows = await readTagHours(r, tagSeqs, from, to);
+  const tagName = new Map<number, string>();
+  for (const x of own) tagName.set(x.tagSeq, x.link.tagName);
+  for (const o of env.o2ByBoiler.values()) for (const x of o) tagName.set(x.tagSeq, x.link.tagName);
+  if (ctx.t0Tag) tagName.set(ctx.t0Tag.seq, ctx.t0Tag.name);
+  const ownSet = new Set(ownTags);
+  const byHour = new Map<number, Map<string, TagHour>>();
+  /** hours with a tag hour of the unit's own tags */
+  const withData = new Set<number>();
+  for (const row of thRows) {
+    const t = row.hourStart.getTime();
+    if (ownSet.has(row.tagId)) withData.add(t);
+    let m = byHour.get(t);
+    if (!m) byHour.set(t, (m = new Map()));
+    m.set(tagName.get(row.tagId)!, {
+      mean: row.mean,
+      min: row.min,
+      max: row.max,
+      std: row.std,
+      samples: row.samples,
+      coveredFraction: Number(row.coveredFraction),
+      nonNumeric: row.nonNumeric,
+      outOfRange: row.outOfRange,
+      flatline: Boolean(row.flatline),
+    });
+  }
+  const linkSets = new Map<string, EngineLink[]>();
+  /** The engine's input for hour t; null when no link of the unit holds then. */
+  const inputAt = (t: number): UnitHourInput | null => {
+    // The same array for every hour the same link versions hold (the engine keeps per-set work by it).
+    const current = own.filter((x) => holdsAt(x.link, t)).map((x) => x.link);
+    const setKey = current.map((l) => l.id).join(',');
+    let links = linkSets.get(setKey);
+    if (!links) linkSets.set(setKey, (links = current));
+    const th = byHour.get(t) ?? new Map<string, TagHour>();
+    const srcs: Record<string, FlueGasSource> = {};
+    for (const [k, v] of Object.entries(flueGasSources)) {
+      const b = ctx.boilers.find((x) => x.name === k);
+      const o2 = b ? (env.o2ByBoiler.get(b.name) ?? []).find((x) => holdsAt(x.link, t)) : undefined;
+      srcs[k] = { fuel: v.fuel, o2Link: o2?.link ?? null };
+    }
+    let cost: CostBasis | null = null;
+    const ck = costKindOf(unit);
+    if (ck === 'electricity') cost = env.elec;
+    else if (ck === 'own-fuel') cost = env.fuelCost(unit);
+    else {
+      const fb = ctx.boilers[0] ? env.fuelCost(ctx.boilers[0]) : null;
+      // Sorted by name: the same sum in the same order whether the boilers were computed or read.
+      const list = [...(env.boilerHours.get(t) ?? [])].sort((x, y) => (x.name < y.name ? -1 : x.name > y.name ? 1 : 0));
+      cost = ck === 'steam' ? steamCost(list, fb, ctx.site.currency) : fb;
+    }
+    return { unit, links, tagHours: th, site: ctx.engineSite, hourStartMs: t, cost, flueGasSources: Object.keys(srcs).length ? srcs : undefined };
+  };
+  return { withData, inputAt, hasLinks: (t: number) => own.some((x) => holdsAt(x.link, t)) };
+}
+
 /** One month of one site: read, compute, write in one transaction. */
-async function computeChunk(ctx: SiteContext, targets: EngineUnit[], fromMs: number, toMs: number, withU: boolean) {
+async function computeChunk(ctx: SiteContext, targets: EngineUnit[], fromMs: number, toMs: number, withU: boolean, onResult?: ComputeOptions['onResult']) {
   return db().transaction(async (tx) => {
     await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${'lossline-engine:' + ctx.site.id}))`);
     const from = new Date(fromMs);
     const to = new Date(toMs);
-    const all = await linksForRange(ctx.site.id, from, to, tx);
-    const linksByUnit = new Map<string, { link: EngineLink; tagId: string }[]>();
-    for (const l of all) {
-      const list = linksByUnit.get(l.unitId) ?? [];
-      list.push({ link: toEngineLink(l), tagId: l.tagId });
-      linksByUnit.set(l.unitId, list);
-    }
-    // Flue-gas ports outside boilers take the fuel and O2 of the boiler they come from.
-    const o2ByBoiler = new Map<string, { link: EngineLink; tagId: string }[]>();
-    for (const b of ctx.boilers) o2ByBoiler.set(b.name, (linksByUnit.get(b.id) ?? []).filter((x) => x.link.quantity === 'o2Fraction'));
-
-    const elec = electricityCost(ctx.site.prices, ctx.site.currency);
-    const fuelCostCache = new Map<string, CostBasis | null>();
-    const fuelCost = (b: EngineUnit, T0: number) => {
-      const k = `${b.id}|${T0}`;
-      if (!fuelCostCache.has(k)) fuelCostCache.set(k, fuelExergyCost(ctx.site.prices, b.fuel, ctx.site.currency, T0));
-      return fuelCostCache.get(k)!;
-    };
-    // Boiler hours of this month: computed below, or as stored when the job leaves the boilers alone.
-    const boilerHours = new Map<number, BoilerHour[]>();
-    const boilerIds = new Set(ctx.boilers.map((b) => b.id));
-    const stored = ctx.boilers.filter((b) => !targets.includes(b));
-    if (stored.length && targets.some((u) => costKindOf(u) === 'steam')) {
-      const rows = await tx
-        .select({ unitId: unitHours.unitId, hourStart: unitHours.hourStart, fuel_W: unitHours.fuel_W, product_W: unitHours.product_W, T0_K: unitHours.T0_K })
-        .from(unitHours)
-        .where(and(inArray(unitHours.unitId, stored.map((b) => b.id)), gte(unitHours.hourStart, from), lt(unitHours.hourStart, to)));
-      for (const r of rows) {
-        const b = stored.find((x) => x.id === r.unitId)!;
-        const list = boilerHours.get(r.hourStart.getTime()) ?? [];
-        list.push({ name: b.name, fuel_W: r.fuel_W, product_W: r.product_W, cF_per_J: fuelCost(b, r.T0_K ?? ctx.site.T0_K)?.cF_per_J ?? null });
-        boilerHours.set(r.hourStart.getTime(), list);
-      }
-    }
-    const firstBoiler = ctx.boilers[0];
+    const env = await chunkEnv(ctx, targets, from, to, tx);
 
     let computed = 0;
     let written = 0;
@@ -274,96 +391,20 @@ async function computeChunk(ctx: SiteContext, targets: EngineUnit[], fromMs: num
     let wTo = -Infinity;
     const units: string[] = [];
     for (const unit of targets) {
-      const own = linksByUnit.get(unit.id) ?? [];
-      const flueGasSources: Record<string, FlueGasSource> = {};
-      const extraTagIds: string[] = [];
-      for (const port of unit.ports) {
-        const fluid = port.fluid;
-        if (fluid?.kind === 'flue-gas' && fluid.fuelFrom && unit.kind !== 'boiler') {
-          const src = ctx.boilers.find((b) => b.name === fluid.fuelFrom);
-          const o2 = src ? (o2ByBoiler.get(src.name) ?? []) : [];
-          flueGasSources[fluid.fuelFrom] = { fuel: src?.fuel ?? null, o2Link: o2[0]?.link ?? null };
-          extraTagIds.push(...o2.map((x) => x.tagId));
-        }
-      }
-      const ownTagIds = [...new Set(own.map((x) => x.tagId))];
-      const tagIds = [...new Set([...ownTagIds, ...extraTagIds, ...(ctx.t0Tag ? [ctx.t0Tag.id] : [])])];
-      const thRows: TagHourRow[] = tagIds.length
-        ? await tx
-            .select({
-              tagId: tagHours.tagId,
-              hourStart: tagHours.hourStart,
-              mean: tagHours.mean,
-              min: tagHours.min,
-              max: tagHours.max,
-              std: tagHours.std,
-              samples: tagHours.samples,
-              coveredFraction: tagHours.coveredFraction,
-              nonNumeric: tagHours.nonNumeric,
-              outOfRange: tagHours.outOfRange,
-              flatline: tagHours.flatline,
-            })
-            .from(tagHours)
-            .where(and(inArray(tagHours.tagId, tagIds), gte(tagHours.hourStart, from), lt(tagHours.hourStart, to)))
-        : [];
+      const ui = await unitInputs(ctx, env, unit, from, to, tx);
       const existing = await tx
         .select({ hourStart: unitHours.hourStart, inputsHash: unitHours.inputsHash, fuel_W: unitHours.fuel_W, product_W: unitHours.product_W })
         .from(unitHours)
         .where(and(eq(unitHours.unitId, unit.id), gte(unitHours.hourStart, from), lt(unitHours.hourStart, to)));
       const known = new Map(existing.map((r) => [r.hourStart.getTime(), r.inputsHash]));
       const knownRow = new Map(existing.map((r) => [r.hourStart.getTime(), r]));
-      const tagName = new Map<string, string>();
-      for (const x of own) tagName.set(x.tagId, x.link.tagName);
-      for (const o of o2ByBoiler.values()) for (const x of o) tagName.set(x.tagId, x.link.tagName);
-      if (ctx.t0Tag) tagName.set(ctx.t0Tag.id, ctx.t0Tag.name);
-      const ownSet = new Set(ownTagIds);
-      const byHour = new Map<number, Map<string, TagHour>>();
-      const hours = new Set<number>(known.keys());
-      for (const r of thRows) {
-        const t = r.hourStart.getTime();
-        if (ownSet.has(r.tagId)) hours.add(t);
-        let m = byHour.get(t);
-        if (!m) byHour.set(t, (m = new Map()));
-        m.set(tagName.get(r.tagId)!, {
-          mean: r.mean,
-          min: r.min,
-          max: r.max,
-          std: r.std,
-          samples: r.samples,
-          coveredFraction: r.coveredFraction,
-          nonNumeric: r.nonNumeric,
-          outOfRange: r.outOfRange,
-          flatline: r.flatline,
-        });
-      }
+      const hours = new Set<number>([...known.keys(), ...ui.withData]);
       const rows: (typeof unitHours.$inferInsert)[] = [];
-      const linkSets = new Map<string, EngineLink[]>();
       const now = new Date();
+      const isBoiler = env.boilerIds.has(unit.id);
       for (const t of [...hours].sort((x, y) => x - y)) {
-        // The same array for every hour the same link versions hold (the engine keeps per-set work by it).
-        const current = own.filter((x) => holdsAt(x.link, t)).map((x) => x.link);
-        const setKey = current.map((l) => l.id).join(',');
-        let links = linkSets.get(setKey);
-        if (!links) linkSets.set(setKey, (links = current));
-        if (!links.length && !known.has(t)) continue;
-        const th = byHour.get(t) ?? new Map<string, TagHour>();
-        const srcs: Record<string, FlueGasSource> = {};
-        for (const [k, v] of Object.entries(flueGasSources)) {
-          const b = ctx.boilers.find((x) => x.name === k);
-          const o2 = b ? (o2ByBoiler.get(b.name) ?? []).find((x) => holdsAt(x.link, t)) : undefined;
-          srcs[k] = { fuel: v.fuel, o2Link: o2?.link ?? null };
-        }
-        // The fuel's exergy/LHV ratio is taken at the site's T0 (it moves by less than 0.1 % over the seasons).
-        const T0guess = ctx.engineSite.T0_K;
-        let cost: CostBasis | null = null;
-        const ck = costKindOf(unit);
-        if (ck === 'electricity') cost = elec;
-        else if (ck === 'own-fuel') cost = fuelCost(unit, T0guess);
-        else {
-          const fb = firstBoiler ? fuelCost(firstBoiler, T0guess) : null;
-          cost = ck === 'steam' ? steamCost(boilerHours.get(t) ?? [], fb, ctx.site.currency) : fb;
-        }
-        const input = { unit, links, tagHours: th, site: ctx.engineSite, hourStartMs: t, cost, flueGasSources: Object.keys(srcs).length ? srcs : undefined };
+        const input = ui.inputAt(t)!;
+        if (!input.links.length && !known.has(t)) continue;
         computed++;
         // Same inputs, same row: an hour whose inputs hash is unchanged is neither computed nor written.
         let res: UnitHourResult | null = null;
@@ -377,76 +418,25 @@ async function computeChunk(ctx: SiteContext, targets: EngineUnit[], fromMs: num
           continue;
         }
         if (res === null) {
-          if (boilerIds.has(unit.id)) {
+          if (isBoiler) {
             const k = knownRow.get(t)!;
-            const list = boilerHours.get(t) ?? [];
-            list.push({ name: unit.name, fuel_W: k.fuel_W, product_W: k.product_W, cF_per_J: cost?.cF_per_J ?? null });
-            boilerHours.set(t, list);
+            const list = env.boilerHours.get(t) ?? [];
+            list.push({ name: unit.name, fuel_W: k.fuel_W, product_W: k.product_W, cF_per_J: input.cost?.cF_per_J ?? null });
+            env.boilerHours.set(t, list);
           }
           continue;
         }
-        if (boilerIds.has(unit.id)) {
-          const list = boilerHours.get(t) ?? [];
-          list.push({ name: unit.name, fuel_W: res.fuel_W, product_W: res.product_W, cF_per_J: cost?.cF_per_J ?? null });
-          boilerHours.set(t, list);
+        onResult?.(unit.id, t, res);
+        if (isBoiler) {
+          const list = env.boilerHours.get(t) ?? [];
+          list.push({ name: unit.name, fuel_W: res.fuel_W, product_W: res.product_W, cF_per_J: input.cost?.cF_per_J ?? null });
+          env.boilerHours.set(t, list);
         }
-        rows.push({
-          unitId: unit.id,
-          hourStart: new Date(t),
-          state: res.state,
-          reasons: res.reasons,
-          load: res.load,
-          loadUnit: res.loadUnit,
-          T0_K: res.T0_K,
-          p0_Pa: res.p0_Pa,
-          fuel_W: res.fuel_W,
-          product_W: res.product_W,
-          loss_W: res.loss_W,
-          destruction_W: res.destruction_W,
-          efficiency: res.efficiency,
-          efficiency_U: res.efficiency_U,
-          destruction_U_W: res.destruction_U_W,
-          closure_pct: res.closure_pct,
-          entropyGeneration_W_per_K: res.entropyGeneration_W_per_K,
-          destructionCost_per_h: res.destructionCost_per_h,
-          detail: res.detail,
-          modelVersion: res.modelVersion,
-          inputsHash: res.inputsHash,
-          computedAt: now,
-        });
+        rows.push(unitHourRowOf(unit.id, t, res, now));
         wFrom = Math.min(wFrom, t);
         wTo = Math.max(wTo, t + HOUR_ms);
       }
-      for (let i = 0; i < rows.length; i += WRITE_BATCH) {
-        await tx
-          .insert(unitHours)
-          .values(rows.slice(i, i + WRITE_BATCH))
-          .onConflictDoUpdate({
-            target: [unitHours.unitId, unitHours.hourStart],
-            set: {
-              state: sql`excluded.state`,
-              reasons: sql`excluded.reasons`,
-              load: sql`excluded.load`,
-              loadUnit: sql`excluded.load_unit`,
-              T0_K: sql`excluded.t0_k`,
-              p0_Pa: sql`excluded.p0_pa`,
-              fuel_W: sql`excluded.fuel_w`,
-              product_W: sql`excluded.product_w`,
-              loss_W: sql`excluded.loss_w`,
-              destruction_W: sql`excluded.destruction_w`,
-              efficiency: sql`excluded.efficiency`,
-              efficiency_U: sql`excluded.efficiency_u`,
-              destruction_U_W: sql`excluded.destruction_u_w`,
-              closure_pct: sql`excluded.closure_pct`,
-              entropyGeneration_W_per_K: sql`excluded.entropy_generation_w_per_k`,
-              destructionCost_per_h: sql`excluded.destruction_cost_per_h`,
-              detail: sql`excluded.detail`,
-              modelVersion: sql`excluded.model_version`,
-              inputsHash: sql`excluded.inputs_hash`,
-              computedAt: sql`excluded.computed_at`,
-            },
-          });
-      }
+      await writeUnitHours(tx, rows);
       written += rows.length;
       if (rows.length) units.push(unit.id);
     }
@@ -480,11 +470,88 @@ function faultRow(unitId: string, t: number, message: string, now: Date): typeof
     closure_pct: null,
     entropyGeneration_W_per_K: null,
     destructionCost_per_h: null,
-    detail: {},
     modelVersion: 'fault',
     inputsHash: `fault:${now.getTime()}`,
     computedAt: now,
   };
+}
+
+/** The unit_hours row of a computed hour. */
+export function unitHourRowOf(unitId: string, t: number, res: UnitHourResult, now: Date): typeof unitHours.$inferInsert {
+  return {
+    unitId,
+    hourStart: new Date(t),
+    state: res.state,
+    reasons: res.reasons,
+    load: res.load,
+    loadUnit: res.loadUnit,
+    T0_K: res.T0_K,
+    p0_Pa: res.p0_Pa,
+    fuel_W: res.fuel_W,
+    product_W: res.product_W,
+    loss_W: res.loss_W,
+    destruction_W: res.destruction_W,
+    efficiency: res.efficiency,
+    efficiency_U: res.efficiency_U,
+    destruction_U_W: res.destruction_U_W,
+    closure_pct: res.closure_pct,
+    entropyGeneration_W_per_K: res.entropyGeneration_W_per_K,
+    destructionCost_per_h: res.destructionCost_per_h,
+    modelVersion: res.modelVersion,
+    inputsHash: res.inputsHash,
+    computedAt: now,
+  };
+}
+
+/** Writes unit hours (insert or replace), in batches. */
+export async function writeUnitHours(tx: Reader, rows: (typeof unitHours.$inferInsert)[]) {
+  for (let i = 0; i < rows.length; i += WRITE_BATCH) {
+    await tx
+      .insert(unitHours)
+      .values(rows.slice(i, i + WRITE_BATCH))
+      .onConflictDoUpdate({
+        target: [unitHours.unitId, unitHours.hourStart],
+        set: {
+          state: sql`excluded.state`,
+          reasons: sql`excluded.reasons`,
+          load: sql`excluded.load`,
+          loadUnit: sql`excluded.load_unit`,
+          T0_K: sql`excluded.t0_k`,
+          p0_Pa: sql`excluded.p0_pa`,
+          fuel_W: sql`excluded.fuel_w`,
+          product_W: sql`excluded.product_w`,
+          loss_W: sql`excluded.loss_w`,
+          destruction_W: sql`excluded.destruction_w`,
+          efficiency: sql`excluded.efficiency`,
+          efficiency_U: sql`excluded.efficiency_u`,
+          destruction_U_W: sql`excluded.destruction_u_w`,
+          closure_pct: sql`excluded.closure_pct`,
+          entropyGeneration_W_per_K: sql`excluded.entropy_generation_w_per_k`,
+          destructionCost_per_h: sql`excluded.destruction_cost_per_h`,
+          modelVersion: sql`excluded.model_version`,
+          inputsHash: sql`excluded.inputs_hash`,
+          computedAt: sql`excluded.computed_at`,
+        },
+      });
+  }
+}
+
+/**
+ * One unit hour rebuilt on demand (the hour opened up): the same reads and the same engine as the job
+ * that stored it, for that hour only. The caller compares the hashes with the stored row's.
+ */
+export async function rebuildUnitHour(unitId: string, hourStartMs: number, uncertainty = true): Promise<UnitHourResult | null> {
+  const [u] = await db().select({ siteId: plantUnits.siteId }).from(plantUnits).where(eq(plantUnits.id, unitId)).limit(1);
+  if (!u) return null;
+  const ctx = await siteContext(u.siteId);
+  const unit = ctx?.units.find((x) => x.id === unitId);
+  if (!ctx || !unit) return null;
+  const from = new Date(hourStartMs);
+  const to = new Date(hourStartMs + HOUR_ms);
+  const env = await chunkEnv(ctx, [unit], from, to, db());
+  const ui = await unitInputs(ctx, env, unit, from, to, db());
+  const input = ui.inputAt(hourStartMs)!;
+  return computeUnitHour(input, { uncertainty });
 }
 
 /** The worker's handler of `compute-unit-hours`. */

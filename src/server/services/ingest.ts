@@ -19,7 +19,8 @@ import {
 } from '../../lib/ingest';
 import { isLinkQuantity, unitsQuantityOf } from '../../lib/plant/kinds';
 import { db, pgPool } from '../db/client';
-import { layoutProfiles, sites, tagLinks, tags, uploads } from '../db/schema';
+import { TAG_HOUR_FLAGS, layoutProfiles, sites, tagLinks, tags, uploads } from '../db/schema';
+import { ensureMonthPartitions } from '../db/partitions';
 import { QUEUES } from '../../jobs';
 import { queue } from '../queue';
 import { bucket, objectStream, s3 } from '../storage';
@@ -301,7 +302,7 @@ async function readIntoTransaction(
     .where(and(eq(tags.siteId, up.siteId), isNull(tagLinks.validTo)));
   const linkOf = new Map(linked.map((l) => [l.name, l]));
   const byName = new Map(known.map((t) => [t.name, t]));
-  const tagId = new Map(known.map((t) => [t.name, t.id]));
+  const tagId = new Map(known.map((t) => [t.name, String(t.seq)])); // tags.seq, the key of tag hours
   const unitOf = new Map<string, string | null>();
   const descOf = new Map<string, string | null>();
   for (const c of profile.wide?.columns ?? []) {
@@ -353,7 +354,7 @@ async function readIntoTransaction(
        select $1, n, u, d, $5 from unnest($2::text[], $3::text[], $4::text[]) as x(n, u, d)
        on conflict (site_id, name) do update set last_upload_id = excluded.last_upload_id,
          unit_hint = coalesce(tags.unit_hint, excluded.unit_hint), description = coalesce(tags.description, excluded.description)
-       returning id, name, (xmax = 0) as inserted`,
+       returning seq::text as id, name, (xmax = 0) as inserted`,
       [up.siteId, missing, missing.map((n) => unitOf.get(n) ?? null), missing.map((n) => descOf.get(n) ?? null), up.id],
     );
     for (const r of res.rows as { id: string; name: string; inserted: boolean }[]) {
@@ -420,7 +421,7 @@ async function readIntoTransaction(
   await client.query('select pg_advisory_xact_lock(hashtextextended($1, 0))', ['ingest-site:' + up.siteId]);
   const latest = await client.query(
     `select max(l.hour_start) as last from tags t
-       cross join lateral (select hour_start from tag_hours where tag_id = t.id order by hour_start desc limit 1) l
+       cross join lateral (select hour_start from tag_hours where tag_id = t.seq order by hour_start desc limit 1) l
      where t.site_id = $1`,
     [up.siteId],
   );
@@ -452,14 +453,19 @@ async function readIntoTransaction(
 
 const toIso = (ms: number | null) => (ms === null ? null : new Date(ms).toISOString());
 
-function flagsOf(h: TagHour): string {
-  const f: string[] = [];
-  if (h.duplicateCount) f.push(`duplicate-times:${h.duplicateCount}`);
-  if (h.outOfOrderCount) f.push(`backwards-times:${h.outOfOrderCount}`);
-  if (h.badQualityCount) f.push(`bad-quality:${h.badQualityCount}`);
-  if (h.uncertainCount) f.push(`uncertain-quality:${h.uncertainCount}`);
-  return `{${f.map((x) => `"${x}"`).join(',')}}`;
+/** TAG_HOUR_FLAGS bits of an hour as the reader made it. */
+function flagsOf(h: TagHour): number {
+  let f = 0;
+  if (h.flatline) f |= TAG_HOUR_FLAGS.flatline;
+  if (h.duplicateCount) f |= TAG_HOUR_FLAGS['duplicate-times'];
+  if (h.outOfOrderCount) f |= TAG_HOUR_FLAGS['backwards-times'];
+  if (h.badQualityCount) f |= TAG_HOUR_FLAGS['bad-quality'];
+  if (h.uncertainCount) f |= TAG_HOUR_FLAGS['uncertain-quality'];
+  return f;
 }
+/** Counts are smallint in tag hours (32767 and more is "very many"). */
+const count16 = (n: number) => Math.min(32767, n);
+const spanOf = (ms: number | null, hourStartMs: number) => (ms === null ? null : ms - hourStartMs);
 
 /**
  * Writes a batch of an upload's tag hours. A tag hour already holding another file's figures (two
@@ -468,6 +474,10 @@ function flagsOf(h: TagHour): string {
  * counts); when they overlap, the same readings arrived twice and the newer file's figures replace
  * the older ones for that hour. Either way the previous figures go to tag_hour_history with the
  * upload that replaced them. Returns how many existing hours were touched.
+ *
+ * Where the writes go (docs/scale.md): the month partitions the batch needs are made first; new
+ * hours go in by COPY sorted by their key; which upload brought which tag's hours is one row per
+ * upload and tag (tag_hour_uploads), not an array in every tag hour.
  */
 async function writeHours(
   client: pg.PoolClient,
@@ -476,24 +486,30 @@ async function writeHours(
   tagId: Map<string, string>,
   latestExistingMs: number | null,
 ): Promise<{ replaced: number; combined: number }> {
+  let minMs = Infinity;
+  let maxMs = -Infinity;
+  for (const h of rows) {
+    if (h.hourStartMs < minMs) minMs = h.hourStartMs;
+    if (h.hourStartMs > maxMs) maxMs = h.hourStartMs;
+  }
+  await ensureMonthPartitions(client, 'tag_hours', minMs, maxMs);
+  await noteUploadTags(client, uploadId, rows, tagId);
   // The usual case, new hours only, goes in by COPY. Hours after the site's latest stored hour (read
   // once, under the site's ingest lock) cannot clash; otherwise one query looks for clashes.
-  let minMs = Infinity;
-  for (const h of rows) if (h.hourStartMs < minMs) minMs = h.hourStartMs;
   if (latestExistingMs === null || minMs > latestExistingMs) {
-    await copyNewHours(client, uploadId, rows, tagId);
+    await copyNewHours(client, rows, tagId);
     return { replaced: 0, combined: 0 };
   }
   const ids = rows.map((h) => tagId.get(h.tag));
   const starts = rows.map((h) => isoOf(h.hourStartMs));
   const clash = await client.query(
-    `select 1 from tag_hours where tag_id = any($1::uuid[]) and hour_start between $2 and $3
-       and (tag_id, hour_start) in (select * from unnest($1::uuid[], $4::timestamptz[])) limit 1`,
-    [ids, isoOf(minMs), isoOf(Math.max(...rows.map((h) => h.hourStartMs))), starts],
+    `select 1 from tag_hours where tag_id = any($1::int[]) and hour_start between $2 and $3
+       and (tag_id, hour_start) in (select * from unnest($1::int[], $4::timestamptz[])) limit 1`,
+    [ids, isoOf(minMs), isoOf(maxMs), starts],
   );
   const params = clash.rowCount === 0 ? null : hourParams(uploadId, rows, tagId);
   if (!params) {
-    await copyNewHours(client, uploadId, rows, tagId);
+    await copyNewHours(client, rows, tagId);
     return { replaced: 0, combined: 0 };
   }
   const res = await client.query(
@@ -504,33 +520,30 @@ async function writeHours(
        select th.tag_id, th.hour_start, $1, to_jsonb(th) from tag_hours th join s on s.tag_id = th.tag_id and s.hour_start = th.hour_start
        returning 1
      ), ins as (
-       insert into tag_hours as o (tag_id, hour_start, mean, min, max, std, first, last, samples, covered_fraction, covered_seconds,
-         non_numeric, out_of_range, flatline, span_start, span_end, upload_ids, flags, updated_at)
-       select tag_id, hour_start, mean, min, max, std, first, last, samples, covered_seconds / 3600.0, covered_seconds,
-         non_numeric, out_of_range, flatline, span_start, span_end, array[$1::uuid], flags::text[], now()
+       insert into tag_hours as o (hour_start, tag_id, samples, mean, min, max, std, first, last, span_start_ms, span_end_ms,
+         covered_s, non_numeric, out_of_range, flags)
+       select hour_start, tag_id, samples, mean, min, max, std, first, last, span_start_ms, span_end_ms,
+         covered_s, non_numeric, out_of_range, flags
        from s
        on conflict (tag_id, hour_start) do update set
          mean = case when ${OVERLAP} then excluded.mean else ${POOLED_MEAN} end,
          std = case when ${OVERLAP} then excluded.std else ${POOLED_STD} end,
          min = case when ${OVERLAP} then excluded.min else least(o.min, excluded.min) end,
          max = case when ${OVERLAP} then excluded.max else greatest(o.max, excluded.max) end,
-         first = case when ${OVERLAP} or excluded.span_start < o.span_start then excluded.first else o.first end,
-         last = case when ${OVERLAP} or excluded.span_end > o.span_end then excluded.last else o.last end,
+         first = case when ${OVERLAP} or excluded.span_start_ms < o.span_start_ms then excluded.first else o.first end,
+         last = case when ${OVERLAP} or excluded.span_end_ms > o.span_end_ms then excluded.last else o.last end,
          samples = case when ${OVERLAP} then excluded.samples else o.samples + excluded.samples end,
-         covered_seconds = case when ${OVERLAP} then excluded.covered_seconds else least(3600, o.covered_seconds + excluded.covered_seconds) end,
-         covered_fraction = case when ${OVERLAP} then excluded.covered_fraction else least(1, (o.covered_seconds + excluded.covered_seconds) / 3600.0) end,
-         non_numeric = case when ${OVERLAP} then excluded.non_numeric else o.non_numeric + excluded.non_numeric end,
-         out_of_range = case when ${OVERLAP} then excluded.out_of_range else o.out_of_range + excluded.out_of_range end,
-         flatline = case when ${OVERLAP} then excluded.flatline else o.flatline or excluded.flatline end,
-         span_start = case when ${OVERLAP} then excluded.span_start else least(o.span_start, excluded.span_start) end,
-         span_end = case when ${OVERLAP} then excluded.span_end else greatest(o.span_end, excluded.span_end) end,
-         upload_ids = case when ${OVERLAP} then excluded.upload_ids else excluded.upload_ids || o.upload_ids end,
-         flags = case when ${OVERLAP} then array_append(excluded.flags, 'replaced-older-file') else array_append(excluded.flags || o.flags, 'combined-files') end,
-         updated_at = now()
-       returning (xmax <> 0) as existed, flags[array_length(flags, 1)] as mark
+         covered_s = case when ${OVERLAP} then excluded.covered_s else least(3600, o.covered_s + excluded.covered_s) end,
+         non_numeric = case when ${OVERLAP} then excluded.non_numeric else least(32767, o.non_numeric + excluded.non_numeric) end,
+         out_of_range = case when ${OVERLAP} then excluded.out_of_range else least(32767, o.out_of_range + excluded.out_of_range) end,
+         span_start_ms = case when ${OVERLAP} then excluded.span_start_ms else least(o.span_start_ms, excluded.span_start_ms) end,
+         span_end_ms = case when ${OVERLAP} then excluded.span_end_ms else greatest(o.span_end_ms, excluded.span_end_ms) end,
+         flags = case when ${OVERLAP} then excluded.flags | ${TAG_HOUR_FLAGS['replaced-older-file']}
+                 else excluded.flags | o.flags | ${TAG_HOUR_FLAGS['combined-files']} end
+       returning (xmax <> 0) as existed, (flags & ${TAG_HOUR_FLAGS['combined-files']}) <> 0 as combined_mark
      )
-     select (select count(*) from ins where existed and mark = 'replaced-older-file')::int as replaced,
-            (select count(*) from ins where existed and mark = 'combined-files')::int as combined,
+     select (select count(*) from ins where existed and not combined_mark)::int as replaced,
+            (select count(*) from ins where existed and combined_mark)::int as combined,
             (select count(*) from hist)::int as touched`,
     params,
   );
@@ -538,8 +551,31 @@ async function writeHours(
   return { replaced: r.replaced, combined: r.combined };
 }
 
+/** Which uploads brought which tag's hours: one row per upload and tag, widened batch by batch. */
+async function noteUploadTags(client: pg.PoolClient, uploadId: string, rows: TagHour[], tagId: Map<string, string>) {
+  const span = new Map<string, [number, number]>();
+  for (const h of rows) {
+    const id = tagId.get(h.tag)!;
+    const s = span.get(id);
+    if (!s) span.set(id, [h.hourStartMs, h.hourStartMs]);
+    else {
+      if (h.hourStartMs < s[0]) s[0] = h.hourStartMs;
+      if (h.hourStartMs > s[1]) s[1] = h.hourStartMs;
+    }
+  }
+  const ids = [...span.keys()];
+  await client.query(
+    `insert into tag_hour_uploads (upload_id, tag_id, first_hour, last_hour)
+     select $1, * from unnest($2::int[], $3::timestamptz[], $4::timestamptz[])
+     on conflict (upload_id, tag_id) do update set first_hour = least(tag_hour_uploads.first_hour, excluded.first_hour),
+       last_hour = greatest(tag_hour_uploads.last_hour, excluded.last_hour)`,
+    [uploadId, ids, ids.map((i) => isoOf(span.get(i)![0])), ids.map((i) => isoOf(span.get(i)![1]))],
+  );
+}
+
 const copyNum = (v: number | null) => (v === null || !Number.isFinite(v) ? '\\N' : String(v));
-/** ISO text of an instant, cached: the tags of a wide file share their hour starts and sample times. */
+const copyInt = (v: number | null) => (v === null ? '\\N' : String(v));
+/** ISO text of an instant, cached: the tags of a wide file share their hour starts. */
 const isoCache = new Map<number, string>();
 function isoOf(ms: number): string {
   let s = isoCache.get(ms);
@@ -550,69 +586,79 @@ function isoOf(ms: number): string {
   }
   return s;
 }
-const copyTime = (ms: number | null) => (ms === null ? '\\N' : isoOf(ms));
 
-/** New hours go in by COPY (PostgreSQL's bulk path): several times faster than an INSERT. */
-async function copyNewHours(client: pg.PoolClient, uploadId: string, rows: TagHour[], tagId: Map<string, string>) {
-  const now = new Date().toISOString();
-  const lines: string[] = [];
-  for (const h of rows) {
-    lines.push(
-      [
-        tagId.get(h.tag),
-        copyTime(h.hourStartMs),
-        copyNum(h.mean),
-        copyNum(h.min),
-        copyNum(h.max),
-        copyNum(h.stdDev),
-        copyNum(h.first),
-        copyNum(h.last),
-        h.sampleCount,
-        copyNum(h.coveredSeconds / 3600),
-        copyNum(h.coveredSeconds),
-        h.nonNumericCount + h.badQualityCount,
-        h.outOfRangeCount,
-        h.flatline ? 't' : 'f',
-        copyTime(h.firstMs),
-        copyTime(h.lastMs),
-        `{${uploadId}}`,
-        flagsOf(h),
-        now,
-      ].join('\t'),
-    );
+/**
+ * New hours go in by COPY (PostgreSQL's bulk path): several times faster than an INSERT. Sorted by
+ * the primary key's order (tag, hour), so each tag's index entries go in as one run.
+ */
+async function copyNewHours(client: pg.PoolClient, rows: TagHour[], tagId: Map<string, string>) {
+  const keyed = rows.map((h) => ({ h, id: Number(tagId.get(h.tag)) }));
+  keyed.sort((a, b) => a.id - b.id || a.h.hourStartMs - b.h.hourStartMs);
+  let text = '';
+  for (const { h, id } of keyed) {
+    text +=
+      isoOf(h.hourStartMs) +
+      '\t' +
+      id +
+      '\t' +
+      h.sampleCount +
+      '\t' +
+      copyNum(h.mean) +
+      '\t' +
+      copyNum(h.min) +
+      '\t' +
+      copyNum(h.max) +
+      '\t' +
+      copyNum(h.stdDev) +
+      '\t' +
+      copyNum(h.first) +
+      '\t' +
+      copyNum(h.last) +
+      '\t' +
+      copyInt(spanOf(h.firstMs, h.hourStartMs)) +
+      '\t' +
+      copyInt(spanOf(h.lastMs, h.hourStartMs)) +
+      '\t' +
+      Math.round(h.coveredSeconds) +
+      '\t' +
+      count16(h.nonNumericCount + h.badQualityCount) +
+      '\t' +
+      count16(h.outOfRangeCount) +
+      '\t' +
+      flagsOf(h) +
+      '\n';
   }
   const sink = client.query(
     copyFrom(
-      `copy tag_hours (tag_id, hour_start, mean, min, max, std, first, last, samples, covered_fraction, covered_seconds,
-         non_numeric, out_of_range, flatline, span_start, span_end, upload_ids, flags, updated_at) from stdin`,
+      `copy tag_hours (hour_start, tag_id, samples, mean, min, max, std, first, last, span_start_ms, span_end_ms,
+         covered_s, non_numeric, out_of_range, flags) from stdin`,
     ),
   );
-  await pipeline(Readable.from([lines.join('\n') + '\n']), sink);
+  await pipeline(Readable.from([text]), sink);
 }
 
-const UNNEST_HOURS = `unnest($2::uuid[], $3::timestamptz[], $4::float8[], $5::float8[], $6::float8[], $7::float8[], $8::float8[],
-    $9::float8[], $10::int[], $11::float8[], $12::int[], $13::int[], $14::bool[], $15::timestamptz[], $16::timestamptz[], $17::text[])
-    as x(tag_id, hour_start, mean, min, max, std, first, last, samples, covered_seconds, non_numeric, out_of_range, flatline, span_start, span_end, flags)`;
+const UNNEST_HOURS = `unnest($2::int[], $3::timestamptz[], $4::float4[], $5::float4[], $6::float4[], $7::float4[], $8::float4[],
+    $9::float4[], $10::int[], $11::smallint[], $12::smallint[], $13::smallint[], $14::int[], $15::int[], $16::smallint[])
+    as x(tag_id, hour_start, mean, min, max, std, first, last, samples, covered_s, non_numeric, out_of_range, span_start_ms, span_end_ms, flags)`;
 
 function hourParams(uploadId: string, rows: TagHour[], tagId: Map<string, string>) {
   return [
-      uploadId,
-      rows.map((h) => tagId.get(h.tag)),
-      rows.map((h) => isoOf(h.hourStartMs)),
-      rows.map((h) => h.mean),
-      rows.map((h) => h.min),
-      rows.map((h) => h.max),
-      rows.map((h) => h.stdDev),
-      rows.map((h) => h.first),
-      rows.map((h) => h.last),
-      rows.map((h) => h.sampleCount),
-      rows.map((h) => h.coveredSeconds),
-      rows.map((h) => h.nonNumericCount + h.badQualityCount),
-      rows.map((h) => h.outOfRangeCount),
-      rows.map((h) => h.flatline),
-      rows.map((h) => toIso(h.firstMs)),
-      rows.map((h) => toIso(h.lastMs)),
-      rows.map(flagsOf),
+    uploadId,
+    rows.map((h) => tagId.get(h.tag)),
+    rows.map((h) => isoOf(h.hourStartMs)),
+    rows.map((h) => h.mean),
+    rows.map((h) => h.min),
+    rows.map((h) => h.max),
+    rows.map((h) => h.stdDev),
+    rows.map((h) => h.first),
+    rows.map((h) => h.last),
+    rows.map((h) => h.sampleCount),
+    rows.map((h) => Math.round(h.coveredSeconds)),
+    rows.map((h) => count16(h.nonNumericCount + h.badQualityCount)),
+    rows.map((h) => count16(h.outOfRangeCount)),
+    rows.map((h) => spanOf(h.firstMs, h.hourStartMs)),
+    rows.map((h) => spanOf(h.lastMs, h.hourStartMs)),
+    rows.map(flagsOf),
   ] as [string, (string | undefined)[], string[], ...unknown[]];
 }
 
@@ -708,10 +754,10 @@ async function finish(up: typeof uploads.$inferSelect, profile: LayoutProfile, r
   return summary;
 }
 
-const OVERLAP = `(excluded.span_start is not null and o.span_start is not null and excluded.span_start <= o.span_end and o.span_start <= excluded.span_end)`;
+const OVERLAP = `(excluded.span_start_ms is not null and o.span_start_ms is not null and excluded.span_start_ms <= o.span_end_ms and o.span_start_ms <= excluded.span_end_ms)`;
 // Weights: covered seconds, or sample counts for hours with no covered time (lone samples).
-const W1 = `(case when o.covered_seconds + excluded.covered_seconds > 0 then o.covered_seconds else o.samples end)`;
-const W2 = `(case when o.covered_seconds + excluded.covered_seconds > 0 then excluded.covered_seconds else excluded.samples end)`;
+const W1 = `(case when o.covered_s + excluded.covered_s > 0 then o.covered_s::float8 else o.samples end)`;
+const W2 = `(case when o.covered_s + excluded.covered_s > 0 then excluded.covered_s::float8 else excluded.samples end)`;
 const POOLED_MEAN = `(case when o.mean is null then excluded.mean when excluded.mean is null then o.mean when ${W1} + ${W2} = 0 then excluded.mean
   else (${W1} * o.mean + ${W2} * excluded.mean) / (${W1} + ${W2}) end)`;
 const POOLED_STD = `(case when o.mean is null or o.std is null then excluded.std when excluded.mean is null or excluded.std is null then o.std when ${W1} + ${W2} = 0 then excluded.std

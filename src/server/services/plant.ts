@@ -158,7 +158,7 @@ export async function deleteSite(siteId: string) {
 /** First and last hour with tag data at the site [ms, ms + 1 h), or null when it has none. */
 export async function dataSpan(r: Reader, siteId: string): Promise<{ fromMs: number; toMs: number } | null> {
   const res = await r.execute<{ lo: Date | string | null; hi: Date | string | null }>(
-    sql`select min(h.hour_start) as lo, max(h.hour_start) as hi from tag_hours h join tags t on t.id = h.tag_id where t.site_id = ${siteId}`,
+    sql`select min(h.hour_start) as lo, max(h.hour_start) as hi from tag_hours h join tags t on t.seq = h.tag_id where t.site_id = ${siteId}`,
   );
   const row = res.rows[0];
   if (!row?.lo || !row.hi) return null;

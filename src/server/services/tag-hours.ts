@@ -1,6 +1,7 @@
-import { and, asc, eq, gte, lt } from 'drizzle-orm';
+import { and, asc, desc, eq, gte, lt, sql } from 'drizzle-orm';
 import { db } from '../db/client';
-import { tagHours, tags } from '../db/schema';
+import { TAG_HOUR_FLAGS, tagHourFlagNames, tagHourUploads, tagHours, tags, uploads } from '../db/schema';
+import { ensureMonthPartitions } from '../db/partitions';
 
 export class TagHourQueryError extends Error {
   constructor(
@@ -27,8 +28,20 @@ export async function tagHoursOf(siteId: string, tagName: string, from: Date, to
   const rows = await db()
     .select()
     .from(tagHours)
-    .where(and(eq(tagHours.tagId, tag.id), gte(tagHours.hourStart, from), lt(tagHours.hourStart, to)))
+    .where(and(eq(tagHours.tagId, tag.seq), gte(tagHours.hourStart, from), lt(tagHours.hourStart, to)))
     .orderBy(asc(tagHours.hourStart));
+  // The uploads that brought hours of the tag in the range, newest first (one row per upload and tag).
+  const ups = await db()
+    .select({ id: tagHourUploads.uploadId, first: tagHourUploads.firstHour, last: tagHourUploads.lastHour })
+    .from(tagHourUploads)
+    .innerJoin(uploads, eq(uploads.id, tagHourUploads.uploadId))
+    .where(and(eq(tagHourUploads.tagId, tag.seq), lt(tagHourUploads.firstHour, to), gte(tagHourUploads.lastHour, from)))
+    .orderBy(desc(uploads.createdAt));
+  // An hour a newer file replaced (same readings again) holds the newest file's figures only.
+  const uploadsAt = (t: Date, flags: number) => {
+    const ids = ups.filter((u) => u.first <= t && u.last >= t).map((u) => u.id);
+    return flags & TAG_HOUR_FLAGS['replaced-older-file'] && !(flags & TAG_HOUR_FLAGS['combined-files']) ? ids.slice(0, 1) : ids;
+  };
   return {
     tag: { id: tag.id, name: tag.name, unitHint: tag.unitHint, kind: tag.kind },
     hours: rows.map((r) => ({
@@ -40,12 +53,77 @@ export async function tagHoursOf(siteId: string, tagName: string, from: Date, to
       first: r.first,
       last: r.last,
       samples: r.samples,
-      coveredFraction: r.coveredFraction,
+      coveredFraction: r.coveredSeconds / 3600,
       nonNumeric: r.nonNumeric,
       outOfRange: r.outOfRange,
-      flatline: r.flatline,
-      flags: r.flags,
-      uploadIds: r.uploadIds,
+      flatline: tagHourFlagNames(r.flags).includes('flatline'),
+      /** what the reader noticed (duplicate-times, bad-quality, combined-files ...; the counts are in the upload's report) */
+      flags: tagHourFlagNames(r.flags).filter((f) => f !== 'flatline'),
+      /** uploads whose samples fall in the hour, newest first */
+      uploadIds: uploadsAt(r.hourStart, r.flags),
     })),
   };
+}
+
+/** A tag hour as the engine reads it (src/lib/engine TagHour), for one tag (tags.seq) and hour. */
+export interface TagHourWrite {
+  tagId: number;
+  hourStart: Date;
+  mean: number | null;
+  min: number | null;
+  max: number | null;
+  std: number | null;
+  samples: number;
+  coveredFraction: number;
+  nonNumeric?: number;
+  outOfRange?: number;
+  flatline?: boolean;
+  first?: number | null;
+  last?: number | null;
+}
+
+/**
+ * Writes tag hours given as the engine reads them (fixtures, tests, tools; files go through the
+ * ingest worker), replacing what the hours held. Makes the month partitions they need first.
+ */
+export async function writeTagHours(rows: readonly TagHourWrite[]): Promise<void> {
+  if (!rows.length) return;
+  const ms = rows.map((r) => r.hourStart.getTime());
+  await ensureMonthPartitions(null, 'tag_hours', Math.min(...ms), Math.max(...ms));
+  const values = rows.map((r) => ({
+    tagId: r.tagId,
+    hourStart: r.hourStart,
+    mean: r.mean,
+    min: r.min,
+    max: r.max,
+    std: r.std,
+    first: r.first ?? null,
+    last: r.last ?? null,
+    samples: r.samples,
+    coveredSeconds: Math.round(r.coveredFraction * 3600),
+    nonNumeric: Math.min(32767, r.nonNumeric ?? 0),
+    outOfRange: Math.min(32767, r.outOfRange ?? 0),
+    flags: r.flatline ? TAG_HOUR_FLAGS.flatline : 0,
+  }));
+  for (let i = 0; i < values.length; i += 1000) {
+    await db()
+      .insert(tagHours)
+      .values(values.slice(i, i + 1000))
+      .onConflictDoUpdate({
+        target: [tagHours.tagId, tagHours.hourStart],
+        set: {
+          mean: sql`excluded.mean`,
+          min: sql`excluded.min`,
+          max: sql`excluded.max`,
+          std: sql`excluded.std`,
+          first: sql`excluded.first`,
+          last: sql`excluded.last`,
+          samples: sql`excluded.samples`,
+          coveredSeconds: sql`excluded.covered_s`,
+          nonNumeric: sql`excluded.non_numeric`,
+          outOfRange: sql`excluded.out_of_range`,
+          flags: sql`excluded.flags`,
+        },
+      });
+  }
 }

@@ -2,7 +2,10 @@ import type { APIRoute } from 'astro';
 import { answer, siteAllowed, tokenForOtherSite } from '../../../../../../server/http';
 import { unitHeader, unitHourDetail } from '../../../../../../server/services/engine-results';
 
-/** One unit hour opened up: the stored audit trail (detail). The hour: ISO 8601 instant or ms. */
+/**
+ * One unit hour opened up: its stored figures and the audit trail (detail), rebuilt on demand from the
+ * stored tag hours (`rebuilt.matches`: the same inputs hash as the stored hour). The hour: ISO 8601 instant or ms.
+ */
 export const GET: APIRoute = ({ params, locals }) =>
   answer(async () => {
     const unit = await unitHeader(params.unitId);
