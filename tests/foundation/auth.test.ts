@@ -306,7 +306,8 @@ describeIntegration('passwords, sessions and links', () => {
     const [adminRow] = await db().select().from(user).where(eq(user.email, admin.email));
     const p = await personWithPassword('token-test-first-phrase');
     await db().update(user).set({ role: 'admin' }).where(eq(user.id, p.id));
-    const [site] = await db().select().from(sites).limit(1);
+    // A site of its own: the test must not depend on another file having made one first.
+    const [site] = await db().insert(sites).values({ name: `Token test site ${Date.now()}`, timeZone: 'UTC' }).returning();
     const t = await issueApiToken({ siteId: site!.id, name: 'nightly', role: 'operator', createdBy: p.id });
     expect(await resolveApiToken(`Bearer ${t.secret}`)).not.toBeNull();
     await updateUser(p.id, { deactivated: true }, adminRow!.id);
@@ -316,6 +317,7 @@ describeIntegration('passwords, sessions and links', () => {
     const { revokeApiToken } = await import('../../src/server/tokens');
     await revokeApiToken(t.id);
     await db().delete(user).where(eq(user.id, p.id));
+    await db().delete(sites).where(eq(sites.id, site!.id));
   });
 
   it('sets the Secure cookie flag whenever the base URL is https', async () => {
