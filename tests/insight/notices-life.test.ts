@@ -10,7 +10,7 @@ import { and, asc, eq, sql } from 'drizzle-orm';
 import { beforeAll, expect, it } from 'vitest';
 import { QUEUES, SendMailPayload } from '../../src/jobs';
 import { db } from '../../src/server/db/client';
-import { driftNotices, noticeEscalations, unitHours, user } from '../../src/server/db/schema';
+import { driftNotices, driftSettings, noticeEscalations, unitHours, user } from '../../src/server/db/schema';
 import { sendMail } from '../../src/server/mail';
 import { queue } from '../../src/server/queue';
 import { acceptBaseline, fitDraft } from '../../src/server/services/baselines';
@@ -43,6 +43,9 @@ async function makeUnit(label: string) {
   await db().insert(unitHours).values(rows);
   const draft = await fitDraft(unit.id, { periodFrom: new Date(t0), periodTo: new Date(after0), terms: ['load'] }, leadId);
   await acceptBaseline(draft.id, leadId);
+  // The hand-worked series here are set for k = 0.5, h = 5 (the product default h is 8); 24 reference
+  // hours are too few for an AR(1) fit, so the CUSUM input is r / s exactly.
+  await db().insert(driftSettings).values({ unitId: unit.id, k: 0.5, h: 5, updatedBy: leadId, updatedAt: new Date() });
   return { siteId: site.id, unitId: unit.id, unitName: unit.name };
 }
 
