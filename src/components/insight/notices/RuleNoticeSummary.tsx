@@ -1,5 +1,6 @@
+import { StateMark } from '../../StateMark';
 import { at } from '../baselines/looks';
-import { money, type Notice } from './looks';
+import { NOTICE_LOOK, money, type Notice } from './looks';
 
 /**
  * The figures of an idle or limit notice (a unit declared normally idle ran; a unit crossed a limit
@@ -16,14 +17,20 @@ export default function RuleNoticeSummary({ notice: n }: { notice: Notice }) {
     ['Cost basis', n.costBasis ?? 'none: the hours carry no cost'],
   ];
   if (n.meanEfficiency !== null && n.kind === 'limit') rows.splice(6, 0, ['Exergy efficiency (mean of the latest run)', `${(n.meanEfficiency * 100).toFixed(1)} %`]);
+  const look = NOTICE_LOOK[n.status]!;
   return (
     <section className="card space-y-4" data-testid="rule-notice">
-      <p className="text-sm text-ink-soft">
-        {n.kind === 'idle'
-          ? `${n.unitName} at ${n.siteName} is declared normally idle and has been running while it should be idle.`
-          : `${n.unitName} at ${n.siteName} has crossed a limit set for it.`}{' '}
-        This notice stays open until a person closes it.
-      </p>
+      <div className="flex flex-wrap items-baseline justify-between gap-2">
+        <p className="text-sm text-ink-soft">
+          {n.kind === 'idle'
+            ? `${n.unitName} at ${n.siteName} is declared normally idle and has been running while it should be idle.`
+            : `${n.unitName} at ${n.siteName} has crossed a limit set for it.`}{' '}
+          This notice stays open until a person closes it.
+        </p>
+        <span data-testid="notice-status">
+          <StateMark shape={look.shape} className={look.className} label={look.label} />
+        </span>
+      </div>
       <dl className="grid gap-3 sm:grid-cols-2 lg:grid-cols-3">
         <div className="rounded border border-paper-edge bg-white/70 px-3 py-2">
           <dt className="text-xs text-ink-soft">Exergy destruction (mean of the latest run)</dt>
