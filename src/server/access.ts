@@ -1,7 +1,7 @@
-import { eq, sql } from 'drizzle-orm';
+import { eq, sql, type SQL } from 'drizzle-orm';
 import type { Role } from '../lib/roles';
 import { db } from './db/client';
-import { personSites } from './db/schema';
+import { personSites, user } from './db/schema';
 
 /**
  * Access by site. Admins have every site. Everyone else has either every site (user.all_sites, the
@@ -17,6 +17,14 @@ export async function siteScopeFor(person: { id: string; role: Role; allSites?: 
   if (person.role === 'admin' || person.allSites !== false) return 'all';
   const rows = await db().select({ siteId: personSites.siteId }).from(personSites).where(eq(personSites.userId, person.id));
   return rows.map((r) => r.siteId);
+}
+
+/**
+ * A condition on the user table: the person may use this site (admins and people on every site, or a
+ * person_sites row). Used where mail goes to people about one site's notices.
+ */
+export function personMayUseSite(siteId: string | SQL) {
+  return sql`(${user.role} = 'admin' or ${user.allSites} or exists (select 1 from ${personSites} where ${personSites.userId} = ${user.id} and ${personSites.siteId} = ${siteId}))`;
 }
 
 /** The sites the caller may use: a token's own site, a person's scope, or none. */

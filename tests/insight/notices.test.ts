@@ -3,7 +3,7 @@ import { eq, sql } from 'drizzle-orm';
 import { beforeAll, expect, it } from 'vitest';
 import { QUEUES, SendMailPayload } from '../../src/jobs';
 import { db } from '../../src/server/db/client';
-import { driftNotices, noticeDigests, unitHours, user } from '../../src/server/db/schema';
+import { driftNotices, noticeDigests, noticeMails, personSites, unitHours, user } from '../../src/server/db/schema';
 import { sendMail } from '../../src/server/mail';
 import { queue } from '../../src/server/queue';
 import { acceptBaseline, fitDraft } from '../../src/server/services/baselines';
@@ -159,5 +159,25 @@ describeIntegration('drift notices: figures, seen and closed, the daily digest',
 
     const open = await db().select({ n: sql<number>`count(*)::int` }).from(driftNotices).where(sql`${driftNotices.status} <> 'closed'`);
     expect(mail.subject).toContain(`${open[0]!.n} drift notice`);
+  });
+
+  it('mails a notice only to people who may use its site; the digest lists only their sites', async () => {
+    // A planner narrowed to another site (user.all_sites = false, one person_sites row).
+    const other = await createSite({ name: `Other site ${randomUUID().slice(0, 8)}`, timeZone: 'UTC', T0_K: 298.15, p0_Pa: 101325, currency: 'EUR', prices: [] });
+    const narrowId = `narrow-${randomUUID()}`;
+    await db().insert(user).values({ id: narrowId, name: 'Narrowed planner', email: `${narrowId}@example.test`, role: 'planner', allSites: false });
+    await db().insert(personSites).values({ userId: narrowId, siteId: other.id });
+    try {
+      const u = await unitWithNotice('narrowed');
+      const mailed = await db().select({ userId: noticeMails.userId }).from(noticeMails).where(eq(noticeMails.noticeId, u.noticeId));
+      expect(mailed.map((m) => m.userId)).toContain(plannerId);
+      expect(mailed.map((m) => m.userId)).not.toContain(narrowId);
+      await setNoticePreferences(narrowId, { dailyDigest: true });
+      const sent = await sendNoticeDigests(new Date(Date.UTC(2031, 0, 2)));
+      // Nothing is open on the narrowed planner's own site: no digest for them.
+      expect(sent).not.toContain(`${narrowId}@example.test`);
+    } finally {
+      await db().delete(user).where(eq(user.id, narrowId));
+    }
   });
 });

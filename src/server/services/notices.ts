@@ -6,6 +6,7 @@
  * has grown past the site's multiple (notice_escalations); an optional daily digest of open notices
  * per person (notice_preferences, notice_digests).
  */
+import { personMayUseSite, siteScopeFor } from '../access';
 import { TZDate } from '@date-fns/tz';
 import { format } from 'date-fns';
 import { and, asc, desc, eq, gte, inArray, lt, ne, sql } from 'drizzle-orm';
@@ -472,7 +473,7 @@ export async function queueNoticeMails(tx: Tx, exec: Exec, noticeId: string): Pr
   const people = await tx
     .select({ id: user.id, email: user.email })
     .from(user)
-    .where(and(inArray(user.role, [...NOTICE_RECIPIENT_ROLES]), eq(user.deactivated, false)))
+    .where(and(inArray(user.role, [...NOTICE_RECIPIENT_ROLES]), eq(user.deactivated, false), personMayUseSite(sql`(select ${driftNotices.siteId} from ${driftNotices} where ${driftNotices.id} = ${noticeId})`)))
     .orderBy(asc(user.email));
   if (!people.length) return [];
   const marked = await tx
@@ -518,7 +519,7 @@ export async function queueEscalationMails(tx: Tx, exec: Exec, noticeId: string,
   const people = await tx
     .select({ id: user.id, email: user.email })
     .from(user)
-    .where(and(inArray(user.role, [...NOTICE_RECIPIENT_ROLES]), eq(user.deactivated, false)))
+    .where(and(inArray(user.role, [...NOTICE_RECIPIENT_ROLES]), eq(user.deactivated, false), personMayUseSite(sql`(select ${driftNotices.siteId} from ${driftNotices} where ${driftNotices.id} = ${noticeId})`)))
     .orderBy(asc(user.email));
   if (!people.length) return [];
   const marked = await tx
@@ -597,17 +598,21 @@ export async function sendNoticeDigests(now = new Date()): Promise<string[]> {
   if (!open.length) return [];
   const day = now.toISOString().slice(0, 10);
   const people = await db()
-    .select({ id: user.id, email: user.email })
+    .select({ id: user.id, email: user.email, role: user.role, allSites: user.allSites })
     .from(noticePreferences)
     .innerJoin(user, eq(user.id, noticePreferences.userId))
     .where(and(eq(noticePreferences.dailyDigest, true), eq(user.deactivated, false), inArray(user.role, [...NOTICE_ACTORS])));
   const sent: string[] = [];
   for (const p of people) {
+    // Each person hears only of the sites they may use (src/server/access.ts).
+    const scope = await siteScopeFor(p);
+    const theirs = scope === 'all' ? open : open.filter((n) => scope.includes(n.siteId));
+    if (!theirs.length) continue;
     const queued = await inInsightTx(async (tx, exec) => {
-      const [mark] = await tx.insert(noticeDigests).values({ userId: p.id, day, notices: open.length }).onConflictDoNothing().returning({ userId: noticeDigests.userId });
+      const [mark] = await tx.insert(noticeDigests).values({ userId: p.id, day, notices: theirs.length }).onConflictDoNothing().returning({ userId: noticeDigests.userId });
       if (!mark) return false;
       const boss = await queue();
-      await boss.send(QUEUES.sendMail, digestMail(open, p.email, day), { retryLimit: 3, retryDelay: 30, db: { executeSql: exec as never } });
+      await boss.send(QUEUES.sendMail, digestMail(theirs, p.email, day), { retryLimit: 3, retryDelay: 30, db: { executeSql: exec as never } });
       return true;
     });
     if (queued) sent.push(p.email);
