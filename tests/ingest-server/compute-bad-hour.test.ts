@@ -6,7 +6,8 @@
 import { and, asc, eq } from 'drizzle-orm';
 import { beforeAll, expect, it } from 'vitest';
 import { db } from '../../src/server/db/client';
-import { plantUnits, tagHours, tags, unitHours } from '../../src/server/db/schema';
+import { plantUnits, tags, unitHours } from '../../src/server/db/schema';
+import { writeTagHours } from '../../src/server/services/tag-hours';
 import { handleComputeUnitHours } from '../../src/server/services/engine';
 import { createSiteFromModel } from '../../src/server/services/plant-model';
 import { describeIntegration } from '../support/integration';
@@ -19,12 +20,9 @@ let siteId: string;
 let unitId: string;
 
 async function writeHour(tag: string, hourMs: number, th: ReturnType<typeof steadyHour>) {
-  const [t] = await db().select({ id: tags.id }).from(tags).where(and(eq(tags.siteId, siteId), eq(tags.name, tag)));
-  const tagId = t?.id ?? (await db().insert(tags).values({ siteId, name: tag }).returning({ id: tags.id }))[0]!.id;
-  await db()
-    .insert(tagHours)
-    .values({ tagId, hourStart: new Date(hourMs), ...th, coveredSeconds: th.coveredFraction * 3600, uploadIds: [] })
-    .onConflictDoUpdate({ target: [tagHours.tagId, tagHours.hourStart], set: { ...th } });
+  const [t] = await db().select({ seq: tags.seq }).from(tags).where(and(eq(tags.siteId, siteId), eq(tags.name, tag)));
+  const tagId = t?.seq ?? (await db().insert(tags).values({ siteId, name: tag }).returning({ seq: tags.seq }))[0]!.seq;
+  await writeTagHours([{ tagId, hourStart: new Date(hourMs), ...th }]);
 }
 
 describeIntegration('compute-unit-hours with a bad stored hour', () => {
@@ -54,7 +52,8 @@ describeIntegration('compute-unit-hours with a bad stored hour', () => {
 
   it('an hour with impossible readings is marked suspect with its reason; the hours around it are computed', async () => {
     for (const l of c.links) await writeHour(l.tag, H0 + 3 * H, steadyHour(l.reading));
-    await writeHour('PRV_IN_P', H0 + 3 * H, { ...steadyHour(1), mean: 1e308, min: 1e308, max: 1e308, std: 0 });
+    // Tag hours hold float4 (about 3.4e38 at most); an absurd reading as large as they can hold.
+    await writeHour('PRV_IN_P', H0 + 3 * H, { ...steadyHour(1), mean: 3e38, min: 3e38, max: 3e38, std: 0 });
     for (const l of c.links) await writeHour(l.tag, H0 + 4 * H, steadyHour(l.reading));
     const out = await handleComputeUnitHours({ siteId, fromMs: H0, toMs: H0 + 5 * H });
     expect(out.computed).toBeGreaterThanOrEqual(2);

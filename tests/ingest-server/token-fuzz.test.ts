@@ -33,9 +33,9 @@ async function call(method: string, path: string, params: Record<string, string>
 
 async function snapshotGood() {
   const rows = await db()
-    .select({ hour: tagHours.hourStart, mean: tagHours.mean, min: tagHours.min, max: tagHours.max, samples: tagHours.samples, uploads: tagHours.uploadIds })
+    .select({ hour: tagHours.hourStart, mean: tagHours.mean, min: tagHours.min, max: tagHours.max, samples: tagHours.samples, flags: tagHours.flags })
     .from(tagHours)
-    .innerJoin(tags, eq(tags.id, tagHours.tagId))
+    .innerJoin(tags, eq(tags.seq, tagHours.tagId))
     .where(and(eq(tags.siteId, siteId), eq(tags.name, 'GOODTAG.PT-1')))
     .orderBy(asc(tagHours.hourStart));
   return rows.map((r) => ({ ...r, hour: r.hour.toISOString() }));
@@ -111,7 +111,7 @@ describeIntegration('hostile exports through the token API', () => {
     // Nothing impossible and nothing outside the site's window was stored.
     const worst = (
       await db().execute<{ worst: number | null; last: Date | null }>(
-        sql`select max(greatest(abs(th.max), abs(th.min), abs(th.mean))) as worst, max(th.hour_start) as last from tag_hours th join tags t on t.id = th.tag_id where t.site_id = ${siteId}`,
+        sql`select max(greatest(abs(th.max), abs(th.min), abs(th.mean))) as worst, max(th.hour_start) as last from tag_hours th join tags t on t.seq = th.tag_id where t.site_id = ${siteId}`,
       )
     ).rows[0]!;
     expect(Number(worst.worst ?? 0)).toBeLessThanOrEqual(1e18);

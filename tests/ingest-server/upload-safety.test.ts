@@ -46,7 +46,7 @@ async function waitFor(uploadId: string, states: string[], timeoutMs = 30_000) {
 async function hoursOf(tagName: string, site = siteId) {
   const [t] = await db().select().from(tags).where(and(eq(tags.siteId, site), eq(tags.name, tagName)));
   if (!t) return [];
-  return db().select().from(tagHours).where(eq(tagHours.tagId, t.id)).orderBy(asc(tagHours.hourStart));
+  return db().select().from(tagHours).where(eq(tagHours.tagId, t.seq)).orderBy(asc(tagHours.hourStart));
 }
 
 const FINAL = ['done', 'failed', 'needs-review'];
@@ -173,7 +173,7 @@ describeIntegration('upload safety: declared hashes, sizes, ambiguous layouts, i
     const h = (await hoursOf('SF.PT-1')).filter((x) => x.hourStart.toISOString().startsWith('2026-04-05'));
     expect(h[0]!.mean).toBe(40);
     expect(h[1]!.mean).toBe(41);
-    const [{ worst }] = (await db().execute(sql`select max(abs(th.max)) as worst, max(th.hour_start) as last from tag_hours th join tags t on t.id = th.tag_id where t.site_id = ${siteId}`)).rows as { worst: number }[];
+    const [{ worst }] = (await db().execute(sql`select max(abs(th.max)) as worst, max(th.hour_start) as last from tag_hours th join tags t on t.seq = th.tag_id where t.site_id = ${siteId}`)).rows as { worst: number }[];
     expect(Number(worst)).toBeLessThan(1e6);
     const jobs = await db().execute(sql`select max((data->>'toMs')::bigint) as to_ms from pgboss.job where name = 'compute-unit-hours' and data->>'siteId' = ${siteId}`);
     expect(Number((jobs.rows[0] as { to_ms: string }).to_ms)).toBeLessThan(Date.now() + 2 * 86_400_000);
@@ -223,8 +223,16 @@ describeIntegration('upload safety: declared hashes, sizes, ambiguous layouts, i
     const up = await machineUpload('timed.csv', wideFile('2026-04-08T00:00:00Z', 3000, (i) => String(40 + (i % 10))));
     const out = await waitFor(up.uploadId, FINAL);
     expect(out.status).toBe('done');
-    const [row] = (await db().execute(sql`select (select max(updated_at) from tag_hours th join tags t on t.id = th.tag_id where t.site_id = ${siteId}) as written`)).rows as { written: Date }[];
-    expect(out.finishedAt!.getTime()).toBeGreaterThanOrEqual(new Date(row!.written).getTime());
+    // The compute job is queued in the file's own transaction, so its created_on is that transaction's
+    // start (PostgreSQL's now()); a finish time taken from now() in that transaction would equal it.
+    const [row] = (
+      await db().execute(sql`select max(created_on) as began from (
+        select created_on, data from pgboss.job where name = 'compute-unit-hours'
+        union all select created_on, data from pgboss.archive where name = 'compute-unit-hours') j
+        where j.data->>'siteId' = ${siteId}`)
+    ).rows as { began: Date }[];
+    expect(row!.began).not.toBeNull();
+    expect(out.finishedAt!.getTime()).toBeGreaterThan(new Date(row!.began).getTime());
     expect(out.finishedAt!.getTime()).toBeGreaterThan(out.startedAt!.getTime());
   });
 });

@@ -101,11 +101,14 @@ describeIntegration('a reading worker killed while another lives', () => {
     expect(summary.rows).toBe(rows);
     expect(summary.tags).toBe(tagCount);
     // Exactly once: every tag hour once, from this upload alone.
-    const res = await db().execute<{ n: number; single: number }>(sql`
-      select count(*)::int as n, count(*) filter (where upload_ids = array[${uploadId}::uuid])::int as single
-      from tag_hours th join tags t on t.id = th.tag_id where t.site_id = ${s!.id}`);
+    const res = await db().execute<{ n: number; single: number; others: number }>(sql`
+      select count(*)::int as n,
+        (select count(*)::int from tag_hour_uploads tu join tags t2 on t2.seq = tu.tag_id where t2.site_id = ${s!.id} and tu.upload_id = ${uploadId}::uuid) as single,
+        (select count(*)::int from tag_hour_uploads tu join tags t2 on t2.seq = tu.tag_id where t2.site_id = ${s!.id} and tu.upload_id <> ${uploadId}::uuid) as others
+      from tag_hours th join tags t on t.seq = th.tag_id where t.site_id = ${s!.id}`);
     expect(res.rows[0]!.n).toBe(tagCount * 14 * 24);
-    expect(res.rows[0]!.single).toBe(tagCount * 14 * 24);
+    expect(res.rows[0]!.single).toBe(tagCount);
+    expect(res.rows[0]!.others).toBe(0);
     const [{ attempts }] = await db().select({ attempts: uploads.attempts }).from(uploads).where(and(eq(uploads.id, uploadId)));
     expect(attempts).toBe(2);
   }, 240_000);

@@ -123,7 +123,7 @@ describeIntegration('drift notices: figures, seen and closed, the daily digest',
     const empty = await closeNotice(u.noticeId, plannerId, '   ').catch((e) => e);
     expect(empty.code).toBe('VALIDATION_FAILED');
 
-    const list = await listNotices();
+    const list = await listNotices({ limit: 100_000 }); // every notice: other test files leave hundreds
     const rank = (id: string) => list.findIndex((n) => n.id === id);
     expect(rank(u.noticeId)).toBeGreaterThanOrEqual(0);
     expect(rank(u.noticeId)).toBeLessThan(rank(other.noticeId));

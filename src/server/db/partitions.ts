@@ -70,8 +70,8 @@ export async function ensureMonthPartitions(_caller: Queryable | null, table: Pa
         await client.query('select pg_advisory_xact_lock(hashtext($1))', ['lossline-partition:' + name]);
         const { rows } = await client.query('select to_regclass($1) is not null as made', [name]);
         if (!rows[0].made) {
-          const from = new Date(m).toISOString();
-          const to = new Date(nextMonthStart(m)).toISOString();
+          const from = pgMonthBound(m);
+          const to = pgMonthBound(nextMonthStart(m));
           await client.query(`create table ${name} (like ${table} including defaults including constraints)`);
           await client.query(`alter table ${table} attach partition ${name} for values from ('${from}') to ('${to}')`);
         }
@@ -150,4 +150,10 @@ export async function partitionUpkeep(nowMs = Date.now()): Promise<{ made: numbe
     }
   }
   return { made, deletedTagHours, deletedUnitHours, dropped };
+}
+
+/** A month's first instant as PostgreSQL reads it (JS writes years past 9999 as '+010000-...', which it does not). */
+function pgMonthBound(ms: number): string {
+  const d = new Date(ms);
+  return `${d.getUTCFullYear()}-${String(d.getUTCMonth() + 1).padStart(2, '0')}-01 00:00:00+00`;
 }

@@ -518,7 +518,7 @@ async function writeHours(
      ), hist as (
        insert into tag_hour_history (tag_id, hour_start, replaced_by_upload_id, previous)
        select th.tag_id, th.hour_start, $1, to_jsonb(th) from tag_hours th join s on s.tag_id = th.tag_id and s.hour_start = th.hour_start
-       returning 1
+       returning tag_id, hour_start
      ), ins as (
        insert into tag_hours as o (hour_start, tag_id, samples, mean, min, max, std, first, last, span_start_ms, span_end_ms,
          covered_s, non_numeric, out_of_range, flags)
@@ -540,10 +540,11 @@ async function writeHours(
          span_end_ms = case when ${OVERLAP} then excluded.span_end_ms else greatest(o.span_end_ms, excluded.span_end_ms) end,
          flags = case when ${OVERLAP} then excluded.flags | ${TAG_HOUR_FLAGS['replaced-older-file']}
                  else excluded.flags | o.flags | ${TAG_HOUR_FLAGS['combined-files']} end
-       returning (xmax <> 0) as existed, (flags & ${TAG_HOUR_FLAGS['combined-files']}) <> 0 as combined_mark
+       returning tag_id, hour_start, (flags & ${TAG_HOUR_FLAGS['combined-files']}) <> 0 as combined_mark
      )
-     select (select count(*) from ins where existed and not combined_mark)::int as replaced,
-            (select count(*) from ins where existed and combined_mark)::int as combined,
+     -- hours that existed are those with a history row (xmax cannot be read on a partitioned table)
+     select (select count(*) from ins join hist using (tag_id, hour_start) where not combined_mark)::int as replaced,
+            (select count(*) from ins join hist using (tag_id, hour_start) where combined_mark)::int as combined,
             (select count(*) from hist)::int as touched`,
     params,
   );
