@@ -87,7 +87,8 @@ test('a planner opens a notice from its mail, closes it as repaired, and later s
   await expect(page.getByTestId('fig-extra')).toHaveText(/^\+2[45]\.\d kW$/);
   await expect(page.getByTestId('fig-extra-u')).toContainText('±');
   await expect(page.getByTestId('notice-caution')).toContainText('licensed engineers');
-  await expect(page.getByTestId('chart-key')).toContainText('decision limit h = 5 σ');
+  // The unit runs on the product defaults (allowance 0.5 σ, decision limit 8 σ; docs/domain.md section 7).
+  await expect(page.getByTestId('chart-key')).toContainText('decision limit h = 8 σ');
 
   // Close as repaired, with the date of the work.
   await expect(page.locator('astro-island[ssr]')).toHaveCount(0);

@@ -1,4 +1,5 @@
 // Tables of baselines, drift notices and reports (issue: insight). Owned by the insight work.
+import type { CloseOutcome, NoticeTrend, PriorReason, VerdictView } from '../../lib/notice-view';
 import { sql } from 'drizzle-orm';
 import { boolean, date, doublePrecision, index, integer, jsonb, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid, type AnyPgColumn } from 'drizzle-orm/pg-core';
 import type { BaselineModel, BaselineTerm } from '../../lib/analytics/baseline';
@@ -100,23 +101,10 @@ export type NoticeKind = (typeof NOTICE_KINDS)[number];
 
 export const NOTICE_STATUSES = ['open', 'acknowledged', 'closed'] as const;
 export type NoticeStatus = (typeof NOTICE_STATUSES)[number];
-export type NoticeTrend = 'growing' | 'steady' | 'receding';
-export type PriorReason = 'larger' | 'after-fade' | 'after-close' | 'after-repair';
-export const CLOSE_OUTCOMES = ['repaired', 'instrument-fault', 'new-normal', 'no-action'] as const;
-export type CloseOutcome = (typeof CLOSE_OUTCOMES)[number];
-/** The repair verdict's figures as stored (W, currency per month). */
-export interface StoredVerdict {
-  before_W: number;
-  beforeU_W: number;
-  beforeHours: number;
-  after_W: number;
-  afterU_W: number;
-  afterHours: number;
-  avoided_W: number;
-  avoidedU_W: number;
-  avoidedCost_per_month: number | null;
-  avoidedCostU_per_month: number | null;
-}
+export const CLOSE_OUTCOMES = ['repaired', 'instrument-fault', 'new-normal', 'no-action'] as const satisfies readonly CloseOutcome[];
+export type { CloseOutcome, NoticeTrend, PriorReason };
+/** The repair verdict's figures as stored (W, currency per month): the view without its hour and result. */
+export type StoredVerdict = Omit<VerdictView, 'hour' | 'back'>;
 
 /**
  * A drift notice: a sustained shift of a unit's destruction from its expected value (a CUSUM

@@ -463,6 +463,15 @@ export function noticeMail(n: NoticeView, to: string) {
   return { to, subject, text, html };
 }
 
+/** Active planners and energy leads who may use the notice's site, by address. */
+function noticeRecipients(tx: Tx, noticeId: string) {
+  return tx
+    .select({ id: user.id, email: user.email })
+    .from(user)
+    .where(and(inArray(user.role, [...NOTICE_RECIPIENT_ROLES]), eq(user.deactivated, false), personMayUseSite(sql`(select ${driftNotices.siteId} from ${driftNotices} where ${driftNotices.id} = ${noticeId})`)))
+    .orderBy(asc(user.email));
+}
+
 /**
  * Queues the opening mail of a notice to every active planner and energy lead who has not had it.
  * The marker row and the mail job commit in the caller's transaction, so a retry, a re-run or a
@@ -470,11 +479,7 @@ export function noticeMail(n: NoticeView, to: string) {
  * @returns the addresses queued now
  */
 export async function queueNoticeMails(tx: Tx, exec: Exec, noticeId: string): Promise<string[]> {
-  const people = await tx
-    .select({ id: user.id, email: user.email })
-    .from(user)
-    .where(and(inArray(user.role, [...NOTICE_RECIPIENT_ROLES]), eq(user.deactivated, false), personMayUseSite(sql`(select ${driftNotices.siteId} from ${driftNotices} where ${driftNotices.id} = ${noticeId})`)))
-    .orderBy(asc(user.email));
+  const people = await noticeRecipients(tx, noticeId);
   if (!people.length) return [];
   const marked = await tx
     .insert(noticeMails)
@@ -516,11 +521,7 @@ export function escalationMail(n: NoticeView, to: string, step: number, fromCost
  * step is mailed at most once per person.
  */
 export async function queueEscalationMails(tx: Tx, exec: Exec, noticeId: string, step: number, fromCost_per_day: number, toCost_per_day: number): Promise<string[]> {
-  const people = await tx
-    .select({ id: user.id, email: user.email })
-    .from(user)
-    .where(and(inArray(user.role, [...NOTICE_RECIPIENT_ROLES]), eq(user.deactivated, false), personMayUseSite(sql`(select ${driftNotices.siteId} from ${driftNotices} where ${driftNotices.id} = ${noticeId})`)))
-    .orderBy(asc(user.email));
+  const people = await noticeRecipients(tx, noticeId);
   if (!people.length) return [];
   const marked = await tx
     .insert(noticeEscalations)
@@ -605,7 +606,7 @@ export async function sendNoticeDigests(now = new Date()): Promise<string[]> {
   const sent: string[] = [];
   for (const p of people) {
     // Each person hears only of the sites they may use (src/server/access.ts).
-    const scope = await siteScopeFor(p);
+    const scope = await siteScopeFor({ ...p, role: p.role as Role });
     const theirs = scope === 'all' ? open : open.filter((n) => scope.includes(n.siteId));
     if (!theirs.length) continue;
     const queued = await inInsightTx(async (tx, exec) => {
