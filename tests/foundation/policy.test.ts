@@ -117,7 +117,7 @@ describeIntegration('the guard, with real sessions', () => {
     expect(script).not.toMatch(/unsafe-inline|unsafe-eval/);
     expect(script).toMatch(/'sha256-[A-Za-z0-9+/=]+'/); // exactly the page's own inline script
     expect(page.headers.get('x-content-type-options')).toBe('nosniff');
-    expect(page.headers.get('referrer-policy')).toBeTruthy();
+    expect(page.headers.get('referrer-policy')).toBe('same-origin');
     const api = await rawCall(null, 'GET', '/api/me');
     expect(api.headers.get('x-content-type-options')).toBe('nosniff');
     expect(api.headers.get('content-security-policy')).toMatch(/frame-ancestors 'none'/);
