@@ -35,17 +35,13 @@ import {
   type NoticeStatus,
 } from '../db/schema';
 import { env } from '../env';
-import { escapeHtml } from '../mail';
 import { queue } from '../queue';
 import { InsightError, isUuid } from './baselines';
 import { inInsightTx, type Exec, type Tx } from './drift-tx';
-import { ruleFigureLines, ruleNoticeMail, ruleViewFields } from './unit-rule-words';
+import { NOTICE_CAUTION, digestMail, escalationMail, noticeMail } from './notice-mail';
+import { ruleViewFields } from './unit-rule-words';
 
-/** docs/domain.md section 8, shown on every notice page and in every notice mail. */
-export const NOTICE_CAUTION =
-  'Steam, hot water, compressed gas and fuel systems can kill. Lossline is a monitoring aid: this drift notice is not an alarm, ' +
-  'and Lossline is not a protective or control system. Its figures depend on the instruments behind them. Any intervention ' +
-  "follows the site's procedures, local codes and the judgement of licensed engineers.";
+export { NOTICE_CAUTION, TREND_WORDS, digestMail, escalationMail, noticeFigureLines, noticeMail } from './notice-mail';
 
 /** The product's words for the statuses (docs/design.md): open, seen, closed. */
 export const NOTICE_STATUS_WORDS: Record<NoticeStatus, string> = { open: 'open', acknowledged: 'seen', closed: 'closed' };
@@ -397,71 +393,7 @@ export async function closeNotice(noticeId: string, userId: string, comment: str
   return getNotice(noticeId);
 }
 
-// ---- mail ----------------------------------------------------------------------------------------
-
-const kW = (W: number) => `${(W / 1000).toLocaleString('en-GB', { maximumFractionDigits: 1, minimumFractionDigits: 1 })} kW`;
-const money = (v: number, currency: string) => `${currency} ${v.toLocaleString('en-GB', { maximumFractionDigits: 0 })}`;
-const when = (iso: string, tz: string) => `${format(new TZDate(new Date(iso).getTime(), tz), 'yyyy-MM-dd HH:mm')} (${tz})`;
-
-const signed = (W: number) => `${W >= 0 ? '+' : '-'}${kW(Math.abs(W))}`;
-
-/** The product's words for how a shift moves (rule in src/lib/analytics/notice-figures.ts). */
-export const TREND_WORDS = { growing: 'growing', steady: 'steady', receding: 'receding' } as const;
-
-/**
- * The lines of figures a notice states, shared by its mail and its digest entry. The headline is the
- * current size (mean of the last 24 steady hours, recomputed at every drift check); the figure at
- * signal time stays below it.
- */
-export function noticeFigureLines(n: NoticeView): string[] {
-  if (n.kind !== 'drift') return ruleFigureLines(n);
-  const hoursOfHeadline = n.currentHours ?? n.hours;
-  const pm = (U: number | null) => (U === null || !Number.isFinite(U) ? '' : ` +/- ${kW(U)}`);
-  const lines = [
-    `Extra destruction: ${signed(n.headline_W)}${pm(n.headlineU_W)} against the expected ${kW(n.expected_W)} (mean of the last ${hoursOfHeadline} steady hours; k = 2)`,
-    n.headlineCost_per_day === null
-      ? 'Cost per day: not known (no cost rate for this unit or site)'
-      : `Cost per day: ${money(n.headlineCost_per_day, n.currency)}${n.headlineCostU_per_day !== null ? ` +/- ${money(n.headlineCostU_per_day, n.currency)}` : ''}`,
-  ];
-  if (n.sinceOnset_W !== null && n.sinceOnsetHours !== null && n.sinceOnsetHours > hoursOfHeadline) {
-    lines.push(`Since onset: ${signed(n.sinceOnset_W)}${pm(n.sinceOnsetU_W)} (mean of ${n.sinceOnsetHours} steady hours); the shift is ${n.trend ? TREND_WORDS[n.trend] : 'steady'}`);
-  }
-  lines.push(`At signal: ${signed(n.extra_W)} (mean of ${n.hours} steady hours from onset to signal)`);
-  lines.push(`Since: ${when(n.onsetHour, n.timeZone)} (onset estimate; sustained shift confirmed ${when(n.signalHour, n.timeZone)})`);
-  const measU = n.current_W !== null ? n.currentMeasU_W : n.shiftU_W;
-  lines.push(
-    n.headlineExceeds === null || measU === null
-      ? 'Against measurement uncertainty: not known (the hours carry no uncertainty)'
-      : n.headlineExceeds
-        ? `Against measurement uncertainty: exceeds it (shift ${kW(Math.abs(n.headline_W))} against +/- ${kW(measU)} for the mean of ${hoursOfHeadline} hours${n.hourU_W !== null ? `; one hour +/- ${kW(n.hourU_W)}` : ''})`
-        : `Against measurement uncertainty: within it (shift ${kW(Math.abs(n.headline_W))} against +/- ${kW(measU)} for the mean of ${hoursOfHeadline} hours)`,
-  );
-  if (n.fadedSince) lines.push(`Faded since ${when(n.fadedSince, n.timeZone)}: the shift has gone; a later shift opens a new notice`);
-  return lines;
-}
-
-export function noticeMail(n: NoticeView, to: string) {
-  if (n.kind !== 'drift') return ruleNoticeMail(n, to, NOTICE_CAUTION);
-  const more = n.direction === 'up' ? 'more' : 'less';
-  const subject = `Drift notice: ${n.unitName} at ${n.siteName} destroys ${kW(Math.abs(n.headline_W))} ${more} exergy than expected`;
-  const lines = noticeFigureLines(n);
-  const text = [
-    `${n.unitName} (${n.siteName}) has shifted from its expected exergy destruction${n.baselineLabel ? ` (${n.baselineLabel})` : ''}.`,
-    '',
-    ...lines,
-    '',
-    `Open the notice: ${n.url}`,
-    '',
-    NOTICE_CAUTION,
-  ].join('\n');
-  const html = [
-    `<p>${escapeHtml(n.unitName)} (${escapeHtml(n.siteName)}) has shifted from its expected exergy destruction${n.baselineLabel ? ` (${escapeHtml(n.baselineLabel)})` : ''}.</p>`,
-    `<ul>${lines.map((l) => `<li>${escapeHtml(l)}</li>`).join('')}</ul>`,
-    `<p><a href="${escapeHtml(n.url)}">Open the notice</a></p>`,
-    `<p style="border:1px solid #c98a12;background:#f7e6bf;padding:8px">${escapeHtml(NOTICE_CAUTION)}</p>`,
-  ].join('\n');
-  return { to, subject, text, html };
-}
+// ---- mail (the texts are in ./notice-mail.ts) -----------------------------------------------------
 
 /** Active planners and energy leads who may use the notice's site, by address. */
 function noticeRecipients(tx: Tx, noticeId: string) {
@@ -498,21 +430,6 @@ export async function queueNoticeMails(tx: Tx, exec: Exec, noticeId: string): Pr
     sent.push(to);
   }
   return sent;
-}
-
-/** The escalation mail: an open notice whose cost per day has grown past the site's multiple since the last mail. */
-export function escalationMail(n: NoticeView, to: string, step: number, fromCost_per_day: number, toCost_per_day: number) {
-  const subject = `Drift notice grown: ${n.unitName} at ${n.siteName} now costs ${money(toCost_per_day, n.currency)} per day (was ${money(fromCost_per_day, n.currency)})`;
-  const lines = noticeFigureLines(n);
-  const head = `The shift of ${n.unitName} (${n.siteName}) has grown since the last mail about it: its cost per day went from ${money(fromCost_per_day, n.currency)} to ${money(toCost_per_day, n.currency)} (escalation ${step}).`;
-  const text = [head, '', ...lines, '', `Open the notice: ${n.url}`, '', NOTICE_CAUTION].join('\n');
-  const html = [
-    `<p>${escapeHtml(head)}</p>`,
-    `<ul>${lines.map((l) => `<li>${escapeHtml(l)}</li>`).join('')}</ul>`,
-    `<p><a href="${escapeHtml(n.url)}">Open the notice</a></p>`,
-    `<p style="border:1px solid #c98a12;background:#f7e6bf;padding:8px">${escapeHtml(NOTICE_CAUTION)}</p>`,
-  ].join('\n');
-  return { to, subject, text, html };
 }
 
 /**
@@ -619,21 +536,4 @@ export async function sendNoticeDigests(now = new Date()): Promise<string[]> {
     if (queued) sent.push(p.email);
   }
   return sent;
-}
-
-export function digestMail(open: NoticeView[], to: string, day: string) {
-  const subject = `Lossline: ${open.length} drift notice${open.length === 1 ? '' : 's'} not closed (${day})`;
-  const blocks = open.map((n) => [`${n.unitName} at ${n.siteName} - ${n.statusWord}`, ...noticeFigureLines(n).map((l) => `  ${l}`), `  ${n.url}`].join('\n'));
-  const text = [`Drift notices not yet closed on ${day}:`, '', ...blocks.flatMap((b) => [b, '']), NOTICE_CAUTION].join('\n');
-  const html = [
-    `<p>Drift notices not yet closed on ${escapeHtml(day)}:</p>`,
-    ...open.map(
-      (n) =>
-        `<h3><a href="${escapeHtml(n.url)}">${escapeHtml(n.unitName)} at ${escapeHtml(n.siteName)}</a> (${escapeHtml(n.statusWord)})</h3><ul>${noticeFigureLines(n)
-          .map((l) => `<li>${escapeHtml(l)}</li>`)
-          .join('')}</ul>`,
-    ),
-    `<p style="border:1px solid #c98a12;background:#f7e6bf;padding:8px">${escapeHtml(NOTICE_CAUTION)}</p>`,
-  ].join('\n');
-  return { to, subject, text, html };
 }
