@@ -24,10 +24,10 @@
  *   steps of 1, 2 and 3 residual spreads and for a ramp of 1 spread per 24 steady hours, the shift
  *   starting after WARMUP in-control hours (runs with a chance signal before it are drawn again).
  */
-import { fitAr1, ar1Innovation, type Ar1Model } from '../src/lib/analytics/autocorrelation';
-import { cusumArlTwoSided } from '../src/lib/analytics/arl';
-import { DRIFT_CHECK_DEFAULTS, cusumInit, cusumStep, type CusumOptions } from '../src/lib/analytics/drift';
-import { createRng, type Rng } from '../src/lib/analytics/rng';
+import { fitAr1, ar1Innovation, type Ar1Model } from '~/lib/analytics/autocorrelation';
+import { cusumArlTwoSided } from '~/lib/analytics/arl';
+import { DRIFT_CHECK_DEFAULTS, cusumInit, cusumStep, type CusumOptions } from '~/lib/analytics/drift';
+import { createRng, type Rng } from '~/lib/analytics/rng';
 
 /**
  * Lag-one autocorrelation of the destruction residuals of the demo's baselines (seed 7, reference

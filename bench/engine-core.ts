@@ -11,7 +11,7 @@
  * states cannot carry over from one hour to the next. The product target: a 50-unit site for a year
  * (438,000 unit hours) with uncertainty in under a minute on 2 cores, i.e. >= 3,650 unit hours/s per core.
  */
-import { evaluateUnitHour, inputNames, unitHourWithUncertainty, type UnitKind, type UnitModel } from '../src/lib/equipment';
+import { evaluateUnitHour, inputNames, unitHourWithUncertainty, type UnitKind, type UnitModel } from '~/lib/equipment';
 
 interface Case {
   kind: UnitKind;

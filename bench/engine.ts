@@ -19,8 +19,8 @@
 import { Session } from 'node:inspector';
 import { availableParallelism, loadavg } from 'node:os';
 import { Worker, isMainThread, parentPort, workerData } from 'node:worker_threads';
-import { computeUnitHour, type EngineSite, type TagHour, type UnitHourInput } from '../src/lib/engine';
-import { water } from '../src/lib/thermo/water/index';
+import { computeUnitHour, type EngineSite, type TagHour, type UnitHourInput } from '~/lib/engine';
+import { water } from '~/lib/thermo/water/index';
 import { boilerCase, heatExchangerCase, pumpCase, turbineCase, valveCase, type EngineCase } from '../tests/engine/cases';
 
 const YEAR_HOURS = 8760;

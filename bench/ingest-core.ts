@@ -12,7 +12,7 @@
  * fed the same values as Float64Array rows). With --expose-gc it also prints the live heap the
  * ingest holds after a quarter, half and all of the file (flat memory: these should not grow).
  */
-import { createFileIngest, createHourAggregator, CellStatus } from '../src/lib/ingest/index';
+import { createFileIngest, createHourAggregator, CellStatus } from '~/lib/ingest/index';
 
 const TAGS = 200;
 const ROWS = 30 * 24 * 60;

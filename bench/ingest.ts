@@ -13,11 +13,11 @@ import { createReadStream, mkdtempSync, readFileSync, rmSync, statSync, writeFil
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { eq } from 'drizzle-orm';
-import { createFileIngest } from '../src/lib/ingest';
-import { closeDb, db } from '../src/server/db/client';
-import { sites, uploads } from '../src/server/db/schema';
-import { stopQueue } from '../src/server/queue';
-import { receiveApiUpload } from '../src/server/services/uploads';
+import { createFileIngest } from '~/lib/ingest';
+import { closeDb, db } from '~/server/db/client';
+import { sites, uploads } from '~/server/db/schema';
+import { stopQueue } from '~/server/queue';
+import { receiveApiUpload } from '~/server/services/uploads';
 import { bytesPerRow } from './storage';
 
 const TAGS = 200;

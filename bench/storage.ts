@@ -4,7 +4,7 @@
  * print tag_hour_bytes and unit_hour_bytes.
  */
 import { sql } from 'drizzle-orm';
-import { db } from '../src/server/db/client';
+import { db } from '~/server/db/client';
 
 export async function bytesPerRow(table: 'tag_hours' | 'unit_hours'): Promise<{ bytes: number; rows: number; perRow: number }> {
   await db().execute(sql.raw(`analyze ${table}`));
@@ -34,10 +34,10 @@ export async function partitionBytes(name: string): Promise<{ bytes: number; row
  */
 async function syntheticUnitHours(hours: number) {
   const { buildSite } = await import('./engine');
-  const { computeUnitHour } = await import('../src/lib/engine');
-  const { plantUnits, sites, unitHours } = await import('../src/server/db/schema');
-  const { ensureMonthPartitions } = await import('../src/server/db/partitions');
-  const { unitHourRowOf, writeUnitHours } = await import('../src/server/services/engine');
+  const { computeUnitHour } = await import('~/lib/engine');
+  const { plantUnits, sites, unitHours } = await import('~/server/db/schema');
+  const { ensureMonthPartitions } = await import('~/server/db/partitions');
+  const { unitHourRowOf, writeUnitHours } = await import('~/server/services/engine');
   const { eq } = await import('drizzle-orm');
   const T = Date.UTC(2031, 0, 1);
   await ensureMonthPartitions(null, 'unit_hours', T, T + hours * 3_600_000 - 1);
@@ -62,7 +62,7 @@ async function syntheticUnitHours(hours: number) {
 
 /** `npm run bench:storage`: the figures of the database DATABASE_URL points at (a demo, a test run). */
 if (process.argv[1]?.endsWith('storage.ts')) {
-  const { closeDb } = await import('../src/server/db/client');
+  const { closeDb } = await import('~/server/db/client');
   const syn = await syntheticUnitHours(Number(process.argv.find((a) => a.startsWith('--hours='))?.split('=')[1] ?? 744));
   console.log(`unit_hour_bytes ${syn.perRow.toFixed(1)}  (synthetic 50-unit bench site, ${syn.rows} unit hours in one month partition, ${(syn.bytes / 1e6).toFixed(2)} MB with indexes; target <= 400)`);
   const u = await bytesPerRow('unit_hours');

@@ -10,7 +10,7 @@
  * evaluations per second (regions 1 and 2 together). Figures are printed as `name: value` lines.
  */
 import { spawnSync } from 'node:child_process';
-import { water } from '../src/lib/thermo/water/index';
+import { water } from '~/lib/thermo/water/index';
 
 const N = 200_000;
 const PYTHON = process.env.LOSSLINE_PYTHON ?? '/usr/bin/python3';
@@ -82,7 +82,7 @@ console.log(`water_ph_per_s: ${fmt(rph)}`);
 
 // Gas mixture h(T), if the gas module is present.
 try {
-  const gas = (await import('../src/lib/thermo/gas')) as {
+  const gas = (await import('~/lib/thermo/gas')) as {
     mixture?: (x: Record<string, number>, basis: 'mole' | 'mass') => { h(T_K: number): number };
   };
   if (typeof gas.mixture === 'function') {

@@ -1,5 +1,5 @@
 import { expect, test } from '@playwright/test';
-import { NAV } from '../src/lib/navigation';
+import { NAV } from '~/lib/navigation';
 import { DEMO, signIn, watchConsole } from './helpers';
 
 /**

@@ -15,7 +15,7 @@ import {
   previewRows,
   sniffLayout,
   type TagHour,
-} from '../src/lib/ingest/index';
+} from '~/lib/ingest/index';
 
 export interface CaseOutcome {
   outcome: 'read' | 'stopped' | 'asked';

@@ -8,8 +8,8 @@
  *   DEMO_SEED   seed of the generator (default 7)
  *   DEMO_WAIT_MINUTES  how long to wait for the worker at most (default 45)
  */
-import { closeDb } from '../src/server/db/client';
-import { stopQueue } from '../src/server/queue';
+import { closeDb } from '~/server/db/client';
+import { stopQueue } from '~/server/queue';
 import { loadDemo } from './demo/load';
 
 function intEnv(name: string, fallback: number): number {

@@ -14,15 +14,15 @@
  */
 import { writeFileSync } from 'node:fs';
 import { and, asc, eq, gte, isNotNull, lt, sql } from 'drizzle-orm';
-import { QUEUES } from '../src/jobs';
-import { predict, type BaselineModel } from '../src/lib/analytics/baseline';
-import { fitAr1 } from '../src/lib/analytics/autocorrelation';
-import { closeDb, db } from '../src/server/db/client';
-import { baselines, driftPoints, plantUnits, sites, unitHours } from '../src/server/db/schema';
-import { queue, stopQueue } from '../src/server/queue';
-import { acceptBaseline, fitDraft } from '../src/server/services/baselines';
-import { handleComputeUnitHours } from '../src/server/services/engine';
-import { registerHandlers } from '../src/worker/handlers';
+import { QUEUES } from '~/jobs';
+import { predict, type BaselineModel } from '~/lib/analytics/baseline';
+import { fitAr1 } from '~/lib/analytics/autocorrelation';
+import { closeDb, db } from '~/server/db/client';
+import { baselines, driftPoints, plantUnits, sites, unitHours } from '~/server/db/schema';
+import { queue, stopQueue } from '~/server/queue';
+import { acceptBaseline, fitDraft } from '~/server/services/baselines';
+import { handleComputeUnitHours } from '~/server/services/engine';
+import { registerHandlers } from '~/worker/handlers';
 import { DEMO_BASELINE_TERMS, loadDemo } from './demo/load';
 
 const args = process.argv.slice(2);

@@ -1,8 +1,8 @@
 /** Applies the committed Drizzle migrations in drizzle/ to DATABASE_URL. */
 import { migrate } from 'drizzle-orm/node-postgres/migrator';
-import { closeDb, db } from '../src/server/db/client';
+import { closeDb, db } from '~/server/db/client';
 
-import { PARTITIONED_TABLES, ensureMonthPartitions } from '../src/server/db/partitions';
+import { PARTITIONED_TABLES, ensureMonthPartitions } from '~/server/db/partitions';
 
 await migrate(db(), { migrationsFolder: 'drizzle' });
 // Month partitions of tag hours and unit hours: the last year and the next two months (older months

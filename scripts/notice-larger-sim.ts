@@ -4,8 +4,8 @@
  * notice. Independent standard-normal hours, CUSUM k = 0.5, h = 5, restart after each signal, 3-hour
  * rule. Prints its figures; run with: node --import tsx scripts/notice-larger-sim.ts
  */
-import { cusumInit, cusumStep } from '../src/lib/analytics/drift';
-import { clearlyLarger, shiftFigure, type ResidualHour } from '../src/lib/analytics/notice-figures';
+import { cusumInit, cusumStep } from '~/lib/analytics/drift';
+import { clearlyLarger, shiftFigure, type ResidualHour } from '~/lib/analytics/notice-figures';
 let seed = 12345;
 const rnd = () => { seed = (seed * 1103515245 + 12345) % 2147483648; return seed / 2147483648; };
 const gauss = () => Math.sqrt(-2 * Math.log(rnd() + 1e-12)) * Math.cos(2 * Math.PI * rnd());

@@ -5,10 +5,10 @@
 import { randomUUID } from 'node:crypto';
 import { hashPassword } from 'better-auth/crypto';
 import { eq } from 'drizzle-orm';
-import { closeDb, db } from '../src/server/db/client';
-import { account, sites, user } from '../src/server/db/schema';
-import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../src/server/demo-accounts';
-import { ensureBucket } from '../src/server/storage';
+import { closeDb, db } from '~/server/db/client';
+import { account, sites, user } from '~/server/db/schema';
+import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '~/server/demo-accounts';
+import { ensureBucket } from '~/server/storage';
 
 export async function seedAccounts(): Promise<void> {
   for (const a of DEMO_ACCOUNTS) {

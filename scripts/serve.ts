@@ -10,8 +10,8 @@
 import http from 'node:http';
 import { resolve } from 'node:path';
 import { pathToFileURL } from 'node:url';
-import { parseTrustProxy, settleForwardedHeaders } from '../src/server/client-ip';
-import { BASELINE_HEADERS } from '../src/server/security-headers';
+import { parseTrustProxy, settleForwardedHeaders } from '~/server/client-ip';
+import { BASELINE_HEADERS } from '~/server/security-headers';
 
 process.env.ASTRO_NODE_AUTOSTART = 'disabled';
 const proxies = parseTrustProxy(process.env.TRUST_PROXY);

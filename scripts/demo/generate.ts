@@ -15,8 +15,8 @@
  */
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { createRng } from '../../src/lib/analytics/rng';
-import { converterFor } from '../../src/lib/units';
+import { createRng } from '~/lib/analytics/rng';
+import { converterFor } from '~/lib/units';
 import { DemoPlant, type FaultPlan, type LocalTime, type MinuteTruth } from './plant';
 import { DEMO_TAGS, DEMO_TIME_ZONE, DEMO_P_ATM_Pa, type DemoTag } from './site';
 

@@ -16,13 +16,13 @@
  */
 import { Readable } from 'node:stream';
 import { and, count, eq, gte, inArray, lt, sql } from 'drizzle-orm';
-import { db } from '../../src/server/db/client';
-import { baselines, driftNotices, noticeMails, plantUnits, sites, unitHours, uploads, user } from '../../src/server/db/schema';
-import { QUEUES } from '../../src/jobs';
-import { createSiteFromModel, importModel } from '../../src/server/services/plant-model';
-import { receiveApiUpload } from '../../src/server/services/uploads';
-import { acceptBaseline, fitDraft, InsightError } from '../../src/server/services/baselines';
-import type { BaselineTerm } from '../../src/lib/analytics/baseline';
+import { db } from '~/server/db/client';
+import { baselines, driftNotices, noticeMails, plantUnits, sites, unitHours, uploads, user } from '~/server/db/schema';
+import { QUEUES } from '~/jobs';
+import { createSiteFromModel, importModel } from '~/server/services/plant-model';
+import { receiveApiUpload } from '~/server/services/uploads';
+import { acceptBaseline, fitDraft, InsightError } from '~/server/services/baselines';
+import type { BaselineTerm } from '~/lib/analytics/baseline';
 import { DEMO_DEFAULTS, generateExports, plannedFileNames, resolvePlan, siteTimeText, type GenerateOptions } from './generate';
 import { demoModel, DEMO_SITE_NAME } from './site';
 

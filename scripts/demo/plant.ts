@@ -21,8 +21,8 @@
  * instrument noise and writes them in the export's units. Random draws per minute are fixed in
  * number, so a planted fault changes the physics but never the noise sequence.
  */
-import { combustionFromO2, dryAir, gaseousFuel, mixture, water, type CombustionResult } from '../../src/lib/thermo';
-import { createRng, type Rng } from '../../src/lib/analytics/rng';
+import { combustionFromO2, dryAir, gaseousFuel, mixture, water, type CombustionResult } from '~/lib/thermo';
+import { createRng, type Rng } from '~/lib/analytics/rng';
 import {
   COMPRESSOR_DRIVE_EFFICIENCY,
   DEMO_GAS,

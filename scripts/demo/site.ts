@@ -6,8 +6,8 @@
  *
  * Everything here is invented: the site, the tenants, the tag names and the figures.
  */
-import type { LinkModel, PlantModel, UnitModel } from '../../src/lib/plant';
-import type { Composition } from '../../src/lib/thermo';
+import type { LinkModel, PlantModel, UnitModel } from '~/lib/plant';
+import type { Composition } from '~/lib/thermo';
 
 export const DEMO_SITE_NAME = 'Harrowgate Mills Energy Centre';
 export const DEMO_TIME_ZONE = 'Europe/London';

@@ -5,7 +5,7 @@
 import { describe, it } from 'vitest';
 import reference from '../fixtures/cusum-arl-reference.json';
 import { expectClose } from '../support/expect-close';
-import { cusumArl, cusumArlTwoSided } from '../../src/lib/analytics/arl';
+import { cusumArl, cusumArlTwoSided } from '~/lib/analytics/arl';
 
 /**
  * From memory: D. C. Montgomery, Introduction to Statistical Quality Control, 6th ed. (2009), Table 9.3

@@ -6,8 +6,8 @@
 import { describe, expect, it } from 'vitest';
 import reference from '../fixtures/ar1-reference.json';
 import { expectClose } from '../support/expect-close';
-import { MIN_AR1_PAIRS, ar1EffectiveSampleSize, ar1Innovation, ar1MeanUncertainty, fitAr1, prewhiten } from '../../src/lib/analytics/autocorrelation';
-import { fitBaseline } from '../../src/lib/analytics/baseline';
+import { MIN_AR1_PAIRS, ar1EffectiveSampleSize, ar1Innovation, ar1MeanUncertainty, fitAr1, prewhiten } from '~/lib/analytics/autocorrelation';
+import { fitBaseline } from '~/lib/analytics/baseline';
 
 const SRC = 'numpy reference (scripts/ar1-reference.py)';
 

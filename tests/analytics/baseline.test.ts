@@ -9,7 +9,7 @@ import {
   predict,
   predictionInterval,
   type BaselineTerm,
-} from '../../src/lib/analytics/baseline';
+} from '~/lib/analytics/baseline';
 import reference from '../fixtures/baseline-reference.json';
 
 describe('fitBaseline: one regressor against closed-form simple linear regression', () => {

@@ -10,7 +10,7 @@ import {
   extraDestructionCost_per_day,
   fuelExergyCost_per_J,
   productExergyCost_per_J,
-} from '../../src/lib/analytics/cost';
+} from '~/lib/analytics/cost';
 
 describe('cost of exergy destruction (SPECO, Lazzaretto & Tsatsaronis 2006), worked by hand', () => {
   it('gas at 40 per MWh LHV with phi = 1.04: 1 MW destroyed for an hour costs 40/1.04 = 38.4615...', () => {

@@ -1,6 +1,6 @@
 import { describe, it } from 'vitest';
 import { expectClose } from '../support/expect-close';
-import { coverageFactor, incompleteBeta, lnGamma, studentTCdf, studentTQuantile } from '../../src/lib/analytics/distributions';
+import { coverageFactor, incompleteBeta, lnGamma, studentTCdf, studentTQuantile } from '~/lib/analytics/distributions';
 
 describe('special functions for coverage factors', () => {
   it('self-consistency: Gamma(n) = (n-1)!, Gamma(1/2) = sqrt(pi)', () => {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { expectClose } from '../support/expect-close';
-import { cusumInit, cusumRun, cusumStep, ewmaInit, ewmaRun, ewmaStep } from '../../src/lib/analytics/drift';
+import { cusumInit, cusumRun, cusumStep, ewmaInit, ewmaRun, ewmaStep } from '~/lib/analytics/drift';
 
 // From memory: Montgomery ISQC 6th ed. Example 9.1 (and Table 9.1): 30 observations, the first 20
 // from N(10, 1), the last 10 from N(11, 1); mu0 = 10, sigma = 1, k = 0.5, h = 5.

@@ -4,7 +4,7 @@
  * held to a spread its instrument cannot resolve. Invented hours of the engine tests' feed pump.
  */
 import { describe, expect, it } from 'vitest';
-import { computeUnitHour } from '../../src/lib/engine';
+import { computeUnitHour } from '~/lib/engine';
 import { pumpCase } from '../engine/cases';
 import { inputOf, linksOf } from '../engine/support';
 

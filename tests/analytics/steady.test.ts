@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { classifyHour, resolvableSpread, LOW_RANGE_FRACTION, STEADY_DEFAULTS, type SteadyLimits, type TagHourStats } from '../../src/lib/analytics/steady';
+import { classifyHour, resolvableSpread, LOW_RANGE_FRACTION, STEADY_DEFAULTS, type SteadyLimits, type TagHourStats } from '~/lib/analytics/steady';
 
 // Invented tag hours of a steam turbine: power (kW), steam flow (kg/s), inlet temperature (K).
 function hour(mean: number, stdDev: number, extra: Partial<TagHourStats> = {}): TagHourStats {

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { expectClose } from '../support/expect-close';
-import { monteCarlo, propagate } from '../../src/lib/analytics/uncertainty';
-import { createRng } from '../../src/lib/analytics/rng';
+import { monteCarlo, propagate } from '~/lib/analytics/uncertainty';
+import { createRng } from '~/lib/analytics/rng';
 
 describe('propagate (first order, central differences)', () => {
   it('JCGM 100:2008 4.1.1 (form of the model P = V^2/R; numbers invented, worked by hand)', () => {

@@ -5,8 +5,8 @@
  * The Summer Time Order 2002, last Sunday of March and of October).
  */
 import { describe, expect, it } from 'vitest';
-import { crossedLimits, idleRuns, inIdleTime, limitRuns, localDayHour, type RuleHour, type RuleHourState } from '../../src/lib/analytics/unit-rules';
-import { NormallyIdleSchema, normallyIdleText, type NormallyIdle } from '../../src/lib/plant/idle';
+import { crossedLimits, idleRuns, inIdleTime, limitRuns, localDayHour, type RuleHour, type RuleHourState } from '~/lib/analytics/unit-rules';
+import { NormallyIdleSchema, normallyIdleText, type NormallyIdle } from '~/lib/plant/idle';
 import { expectClose } from '../support/expect-close';
 
 const H = 3_600_000;

@@ -5,7 +5,7 @@
  * differ by what the fault does.
  */
 import { describe, expect, it } from 'vitest';
-import { water } from '../../src/lib/thermo';
+import { water } from '~/lib/thermo';
 import { siteMidnightMs } from '../../scripts/demo/generate';
 import type { FaultPlan } from '../../scripts/demo/plant';
 import { DAY_ms, generate, HOUR_ms, Hours, mean } from './support';

@@ -5,11 +5,11 @@
  * rule with the demo model's declaration (PRV1 normally idle while TG1 runs).
  */
 import { describe, expect, it } from 'vitest';
-import { idleRuns, type RuleHour } from '../../src/lib/analytics/unit-rules';
-import { computeUnitHour, type EngineLink, type EngineSite, type EngineUnit, type TagHour } from '../../src/lib/engine';
-import { defaultParameters } from '../../src/lib/plant/kinds';
-import type { UnitModel } from '../../src/lib/plant/model';
-import { defaultUncertainty } from '../../src/lib/plant/uncertainty';
+import { idleRuns, type RuleHour } from '~/lib/analytics/unit-rules';
+import { computeUnitHour, type EngineLink, type EngineSite, type EngineUnit, type TagHour } from '~/lib/engine';
+import { defaultParameters } from '~/lib/plant/kinds';
+import type { UnitModel } from '~/lib/plant/model';
+import { defaultUncertainty } from '~/lib/plant/uncertainty';
 import { resolvePlan, type GenerateOptions } from '../../scripts/demo/generate';
 import { demoModel, DEMO_TIME_ZONE } from '../../scripts/demo/site';
 import { generate, HOUR_ms, Hours } from './support';

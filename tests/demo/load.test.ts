@@ -5,10 +5,10 @@
  */
 import { and, asc, count, eq, inArray } from 'drizzle-orm';
 import { beforeAll, expect, it } from 'vitest';
-import { db } from '../../src/server/db/client';
-import { baselines, plantUnits, sites, tagHours, tags, uploads } from '../../src/server/db/schema';
-import { queue } from '../../src/server/queue';
-import { registerHandlers } from '../../src/worker/handlers';
+import { db } from '~/server/db/client';
+import { baselines, plantUnits, sites, tagHours, tags, uploads } from '~/server/db/schema';
+import { queue } from '~/server/queue';
+import { registerHandlers } from '~/worker/handlers';
 import { plannedFileNames } from '../../scripts/demo/generate';
 import { loadDemo, type LoadOptions } from '../../scripts/demo/load';
 import { demoModel, tagOf } from '../../scripts/demo/site';

@@ -1,6 +1,6 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { checkModel, unitStatus } from '../../src/lib/plant';
+import { checkModel, unitStatus } from '~/lib/plant';
 import { generateExports, headerText } from '../../scripts/demo/generate';
 import { demoModel, DEMO_SITE_NAME, DEMO_TAGS } from '../../scripts/demo/site';
 import { MODEL_FILE, modelFileText } from '../../scripts/demo/write-model';

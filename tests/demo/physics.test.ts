@@ -5,12 +5,12 @@
  * small bias of taking a nonlinear function of hourly means; each is stated at its check.
  */
 import { beforeAll, describe, expect, it } from 'vitest';
-import { evaluateUnitHour, inputNames } from '../../src/lib/equipment';
-import { combustionFromO2, mixture, water } from '../../src/lib/thermo';
+import { evaluateUnitHour, inputNames } from '~/lib/equipment';
+import { combustionFromO2, mixture, water } from '~/lib/thermo';
 import { siteMidnightMs } from '../../scripts/demo/generate';
 import { DEMO_FUEL } from '../../scripts/demo/plant';
 import { DEMO_GAS, DEMO_P_ATM_Pa, PUMP_DRIVE_EFFICIENCY, COMPRESSOR_DRIVE_EFFICIENCY, TG1_GENERATOR_EFFICIENCY } from '../../scripts/demo/site';
-import { dryAir } from '../../src/lib/thermo';
+import { dryAir } from '~/lib/thermo';
 import { DAY_ms, generate, HOUR_ms, Hours, mean, type Generated } from './support';
 
 const NONE = { turbineOutage: null, foulingStartMs: null, valvePassingStartMs: null, turbineStepMs: null, frozenTransmitter: null };

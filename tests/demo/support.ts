@@ -2,8 +2,8 @@
  * Helpers of the demo-plant tests: generate a short period, read it back through the real ingest
  * core (the same sniffing and hourly aggregation the worker uses), and turn hourly means into SI.
  */
-import { createFileIngest, type TagHour } from '../../src/lib/ingest';
-import { converterFor } from '../../src/lib/units';
+import { createFileIngest, type TagHour } from '~/lib/ingest';
+import { converterFor } from '~/lib/units';
 import { generateExports, type ExportFile, type GenerateOptions } from '../../scripts/demo/generate';
 import type { MinuteTruth } from '../../scripts/demo/plant';
 import { DEMO_P_ATM_Pa, DEMO_TAGS, DEMO_TIME_ZONE, tagOf } from '../../scripts/demo/site';

@@ -5,13 +5,13 @@
  */
 import { eq } from 'drizzle-orm';
 import { beforeAll, expect, it } from 'vitest';
-import { GET as listHours } from '../../src/pages/api/v1/units/[unitId]/hours/index';
-import { GET as oneHour } from '../../src/pages/api/v1/units/[unitId]/hours/[hour]';
-import { db } from '../../src/server/db/client';
-import { plantUnits, tags } from '../../src/server/db/schema';
-import { writeTagHours } from '../../src/server/services/tag-hours';
-import { handleComputeUnitHours } from '../../src/server/services/engine';
-import { createSiteFromModel } from '../../src/server/services/plant-model';
+import { GET as listHours } from '~/pages/api/v1/units/[unitId]/hours/index';
+import { GET as oneHour } from '~/pages/api/v1/units/[unitId]/hours/[hour]';
+import { db } from '~/server/db/client';
+import { plantUnits, tags } from '~/server/db/schema';
+import { writeTagHours } from '~/server/services/tag-hours';
+import { handleComputeUnitHours } from '~/server/services/engine';
+import { createSiteFromModel } from '~/server/services/plant-model';
 import { expectClose } from '../support/expect-close';
 import { describeIntegration } from '../support/integration';
 import { uniqueName } from '../plant/support';

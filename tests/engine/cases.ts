@@ -10,8 +10,8 @@
  * t/h = kg/s x 3.6; kPa = Pa / 1e3; MW = W / 1e6; kW = W / 1e3; % = fraction x 100).
  */
 import { readFileSync } from 'node:fs';
-import type { Fluid, FuelDefinition } from '../../src/lib/plant/model';
-import type { LinkQuantity, UnitKind } from '../../src/lib/plant/kinds';
+import type { Fluid, FuelDefinition } from '~/lib/plant/model';
+import type { LinkQuantity, UnitKind } from '~/lib/plant/kinds';
 
 export const P_ATM_Pa = 101325;
 

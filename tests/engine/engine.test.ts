@@ -4,8 +4,8 @@
  */
 import { createHash } from 'node:crypto';
 import { describe, expect, it } from 'vitest';
-import { computeUnitHour, costKindOf, sha256Hex, canonicalJson, steamCost, ENGINE_VERSION } from '../../src/lib/engine';
-import { ByteHasher } from '../../src/lib/engine/hash';
+import { computeUnitHour, costKindOf, sha256Hex, canonicalJson, steamCost, ENGINE_VERSION } from '~/lib/engine';
+import { ByteHasher } from '~/lib/engine/hash';
 import { expectClose } from '../support/expect-close';
 import { ALL_CASES, boilerCase, heatExchangerCase, pumpCase, refCase, turbineCase, valveCase } from './cases';
 import { HOUR0, hoursOf, inputOf, linksOf, siteOf, unitOf } from './support';

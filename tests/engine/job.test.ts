@@ -5,13 +5,13 @@
  */
 import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { db } from '../../src/server/db/client';
-import { plantUnits, tags, unitHours } from '../../src/server/db/schema';
-import { writeTagHours } from '../../src/server/services/tag-hours';
-import { computeUnitHours, handleComputeUnitHours } from '../../src/server/services/engine';
-import { unitHourDetail } from '../../src/server/services/engine-results';
-import { createSiteFromModel } from '../../src/server/services/plant-model';
-import { setLink } from '../../src/server/services/plant-links';
+import { db } from '~/server/db/client';
+import { plantUnits, tags, unitHours } from '~/server/db/schema';
+import { writeTagHours } from '~/server/services/tag-hours';
+import { computeUnitHours, handleComputeUnitHours } from '~/server/services/engine';
+import { unitHourDetail } from '~/server/services/engine-results';
+import { createSiteFromModel } from '~/server/services/plant-model';
+import { setLink } from '~/server/services/plant-links';
 import { expectClose } from '../support/expect-close';
 import { describeIntegration } from '../support/integration';
 import { recomputeJobs, uniqueName } from '../plant/support';

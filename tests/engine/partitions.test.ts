@@ -5,10 +5,10 @@
  */
 import { eq, sql } from 'drizzle-orm';
 import { expect, it } from 'vitest';
-import { db } from '../../src/server/db/client';
-import { ensureMonthPartitions, monthPartitions, partitionName, partitionUpkeep } from '../../src/server/db/partitions';
-import { plantUnits, sites, tagHours, tags, unitHours } from '../../src/server/db/schema';
-import { writeTagHours } from '../../src/server/services/tag-hours';
+import { db } from '~/server/db/client';
+import { ensureMonthPartitions, monthPartitions, partitionName, partitionUpkeep } from '~/server/db/partitions';
+import { plantUnits, sites, tagHours, tags, unitHours } from '~/server/db/schema';
+import { writeTagHours } from '~/server/services/tag-hours';
 import { describeIntegration } from '../support/integration';
 import { uniqueName } from '../plant/support';
 

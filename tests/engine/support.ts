@@ -1,5 +1,5 @@
 /** Builders shared by the engine tests: a case as the pure engine's input. */
-import type { EngineLink, EngineSite, EngineUnit, TagHour, UnitHourInput } from '../../src/lib/engine';
+import type { EngineLink, EngineSite, EngineUnit, TagHour, UnitHourInput } from '~/lib/engine';
 import { P_ATM_Pa, steadyHour, type EngineCase } from './cases';
 
 export const HOUR0 = Date.UTC(2024, 2, 1, 10);

@@ -3,7 +3,7 @@
  * that names the input (or a ThermoRangeError from the property core for property ranges).
  */
 import { describe, expect, it } from 'vitest';
-import { ThermoRangeError } from '../../src/lib/thermo';
+import { ThermoRangeError } from '~/lib/thermo';
 import {
   BalanceInputError,
   boilerBalance,
@@ -16,7 +16,7 @@ import {
   type BalanceErrorCode,
   type UnitKind,
   type UnitModel,
-} from '../../src/lib/equipment';
+} from '~/lib/equipment';
 
 const WATER = { kind: 'water' } as const;
 const env = { T0_K: 298.15, p0_Pa: 101325 };

@@ -6,7 +6,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { expectClose } from '../support/expect-close';
-import { createRng } from '../../src/lib/analytics/rng';
+import { createRng } from '~/lib/analytics/rng';
 import {
   R_J_per_molK,
   SZARGUT_1988_J_per_mol,
@@ -17,8 +17,8 @@ import {
   water,
   type Composition,
   type SpeciesName,
-} from '../../src/lib/thermo';
-import { evaluateUnitHour, inputVector, type UnitBalance, type UnitKind, type UnitModel } from '../../src/lib/equipment';
+} from '~/lib/thermo';
+import { evaluateUnitHour, inputVector, type UnitBalance, type UnitKind, type UnitModel } from '~/lib/equipment';
 
 const T0 = 298.15;
 const p0 = 101325;

@@ -15,7 +15,7 @@ import {
   mixtureChemicalExergy,
   species,
   water,
-} from '../../src/lib/thermo';
+} from '~/lib/thermo';
 import {
   evaluateUnitHour,
   fuelEnthalpy298_J_per_kg,
@@ -24,7 +24,7 @@ import {
   portState,
   turbineBalance,
   type UnitModel,
-} from '../../src/lib/equipment';
+} from '~/lib/equipment';
 
 const env = { T0_K: 298.15, p0_Pa: 101325 };
 const WATER = { kind: 'water' } as const;

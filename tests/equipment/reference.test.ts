@@ -15,7 +15,7 @@ import {
   type PortMeasurement,
   type UnitKind,
   type UnitModel,
-} from '../../src/lib/equipment';
+} from '~/lib/equipment';
 
 interface RefCase {
   id: string;

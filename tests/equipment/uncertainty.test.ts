@@ -6,8 +6,8 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { expectClose } from '../support/expect-close';
-import { monteCarlo, propagate } from '../../src/lib/analytics/uncertainty';
-import { evaluateUnitHour, inputNames, inputVector, unitHourWithUncertainty, type UnitKind, type UnitModel } from '../../src/lib/equipment';
+import { monteCarlo, propagate } from '~/lib/analytics/uncertainty';
+import { evaluateUnitHour, inputNames, inputVector, unitHourWithUncertainty, type UnitKind, type UnitModel } from '~/lib/equipment';
 
 interface RefCase {
   id: string;

@@ -1,13 +1,13 @@
 import { and, eq, sql } from 'drizzle-orm';
 import { beforeAll, expect, it } from 'vitest';
-import { QUEUES, SendMailPayload } from '../../src/jobs';
-import { auth, authHandler, hashIdentifier } from '../../src/server/auth';
-import { db } from '../../src/server/db/client';
-import { session, signInFailures, user, verification } from '../../src/server/db/schema';
-import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../src/server/demo-accounts';
-import { sendMail } from '../../src/server/mail';
-import { queue } from '../../src/server/queue';
-import { UserRuleError, inviteUser, updateUser } from '../../src/server/services/users';
+import { QUEUES, SendMailPayload } from '~/jobs';
+import { auth, authHandler, hashIdentifier } from '~/server/auth';
+import { db } from '~/server/db/client';
+import { session, signInFailures, user, verification } from '~/server/db/schema';
+import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '~/server/demo-accounts';
+import { sendMail } from '~/server/mail';
+import { queue } from '~/server/queue';
+import { UserRuleError, inviteUser, updateUser } from '~/server/services/users';
 import { describeIntegration, freshIp, waitForMail } from '../support/integration';
 
 const BASE = () => process.env.PUBLIC_BASE_URL ?? 'http://127.0.0.1:4331';
@@ -169,7 +169,7 @@ describeIntegration('roles and deactivation', () => {
 /** A person with a password, made directly (no mail round trip), for the tests below. */
 async function personWithPassword(password: string, role: 'operator' | 'planner' = 'operator') {
   const { hashPassword } = await import('better-auth/crypto');
-  const { account } = await import('../../src/server/db/schema');
+  const { account } = await import('~/server/db/schema');
   const id = crypto.randomUUID();
   const email = `p-${id.slice(0, 8)}@example.test`;
   await db().insert(user).values({ id, email, name: 'Test Person', role, emailVerified: true });
@@ -179,7 +179,7 @@ async function personWithPassword(password: string, role: 'operator' | 'planner'
 
 describeIntegration('client address and per-account pauses', () => {
   it('forty wrong passwords from forty made-up X-Forwarded-For addresses are limited as one address', async () => {
-    const { clientAddressOf, parseTrustProxy, settleForwardedHeaders } = await import('../../src/server/client-ip');
+    const { clientAddressOf, parseTrustProxy, settleForwardedHeaders } = await import('~/server/client-ip');
     const limit = Number(process.env.SIGN_IN_LIMIT_PER_MINUTE ?? 5);
     const peer = `::ffff:${freshIp()}`; // the real connection, not a trusted proxy
     const statuses: number[] = [];
@@ -199,7 +199,7 @@ describeIntegration('client address and per-account pauses', () => {
   });
 
   it('pauses an account after five failures from any addresses, growing and capped; a success clears it', async () => {
-    const { pauseAfterFailure, SIGN_IN_PAUSE } = await import('../../src/server/auth');
+    const { pauseAfterFailure, SIGN_IN_PAUSE } = await import('~/server/auth');
     expect([1, 4, 5, 6, 7, 8, 20].map(pauseAfterFailure)).toEqual([0, 0, 15, 30, 60, 120, SIGN_IN_PAUSE.PAUSE_MAX_SECONDS]);
     expect(SIGN_IN_PAUSE.PAUSE_MAX_SECONDS).toBeLessThanOrEqual(300);
 
@@ -223,7 +223,7 @@ describeIntegration('client address and per-account pauses', () => {
 
 describeIntegration('passwords, sessions and links', () => {
   it('the demo password passes the strength estimator; guessable ones do not', async () => {
-    const { passwordProblem } = await import('../../src/server/password-strength');
+    const { passwordProblem } = await import('~/server/password-strength');
     expect(passwordProblem(DEMO_PASSWORD)).toBeNull();
     expect(passwordProblem('aaaaaaaaaa')).toMatch(/repeats/);
     expect(passwordProblem('qwertyuiop1')).toMatch(/too easy to guess/);
@@ -272,7 +272,7 @@ describeIntegration('passwords, sessions and links', () => {
   });
 
   it('a reset request answers alike for known and unknown addresses and leaves the mail to the queue', async () => {
-    const { RESET_REQUEST_FLOOR_MS } = await import('../../src/server/auth');
+    const { RESET_REQUEST_FLOOR_MS } = await import('~/server/auth');
     const p = await personWithPassword('timing-test-first-phrase');
     const boss = await queue();
     await boss.offWork(QUEUES.sendMail); // hold the mail, to see it waiting in the queue
@@ -301,8 +301,8 @@ describeIntegration('passwords, sessions and links', () => {
   });
 
   it('a deactivated person’s API tokens stop working; reactivation brings them back', async () => {
-    const { issueApiToken, resolveApiToken } = await import('../../src/server/tokens');
-    const { sites } = await import('../../src/server/db/schema');
+    const { issueApiToken, resolveApiToken } = await import('~/server/tokens');
+    const { sites } = await import('~/server/db/schema');
     const [adminRow] = await db().select().from(user).where(eq(user.email, admin.email));
     const p = await personWithPassword('token-test-first-phrase');
     await db().update(user).set({ role: 'admin' }).where(eq(user.id, p.id));
@@ -314,15 +314,15 @@ describeIntegration('passwords, sessions and links', () => {
     expect(await resolveApiToken(`Bearer ${t.secret}`)).toBeNull();
     await updateUser(p.id, { deactivated: false }, adminRow!.id);
     expect(await resolveApiToken(`Bearer ${t.secret}`)).not.toBeNull();
-    const { revokeApiToken } = await import('../../src/server/tokens');
+    const { revokeApiToken } = await import('~/server/tokens');
     await revokeApiToken(t.id);
     await db().delete(user).where(eq(user.id, p.id));
     await db().delete(sites).where(eq(sites.id, site!.id));
   });
 
   it('sets the Secure cookie flag whenever the base URL is https', async () => {
-    const { createAuth } = await import('../../src/server/auth');
-    const { env } = await import('../../src/server/env');
+    const { createAuth } = await import('~/server/auth');
+    const { env } = await import('~/server/env');
     const signIn = (a: ReturnType<typeof createAuth>) => a.api.signInEmail({ body: { email: operator.email, password: DEMO_PASSWORD }, asResponse: true });
     const https = await signIn(createAuth({ ...env(), PUBLIC_BASE_URL: 'https://lossline.example' }));
     const http = await signIn(createAuth({ ...env(), PUBLIC_BASE_URL: 'http://127.0.0.1:4331' }));
@@ -331,7 +331,7 @@ describeIntegration('passwords, sessions and links', () => {
   });
 
   it('caps names: a 2,000,000-character or NUL-bearing name is refused, and people cannot rename themselves', async () => {
-    const { InviteInput } = await import('../../src/server/services/users');
+    const { InviteInput } = await import('~/server/services/users');
     expect(InviteInput.safeParse({ name: 'x'.repeat(2_000_000), email: 'long@example.test', role: 'operator' }).success).toBe(false);
     expect(InviteInput.safeParse({ name: 'Nul\u0000Name', email: 'nul@example.test', role: 'operator' }).success).toBe(false);
     const a = await post('/sign-in/email', { email: operator.email, password: DEMO_PASSWORD });

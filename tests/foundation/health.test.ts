@@ -1,5 +1,5 @@
 import { expect, it } from 'vitest';
-import { health } from '../../src/server/health';
+import { health } from '~/server/health';
 import { describeIntegration } from '../support/integration';
 
 describeIntegration('health', () => {

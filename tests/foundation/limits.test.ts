@@ -1,10 +1,10 @@
 import { expect, it } from 'vitest';
-import { PortModelSchema, UnitModelSchema } from '../../src/lib/plant/model';
-import { LinkInput } from '../../src/server/services/plant-links';
-import { PortInput, SiteInput, UnitCreateInput, UnitUpdateInput } from '../../src/server/services/plant';
-import { InviteInput } from '../../src/server/services/users';
-import { NewTokenInput } from '../../src/server/services/tokens';
-import { AcknowledgeInput, CloseInput } from '../../src/server/services/notices';
+import { PortModelSchema, UnitModelSchema } from '~/lib/plant/model';
+import { LinkInput } from '~/server/services/plant-links';
+import { PortInput, SiteInput, UnitCreateInput, UnitUpdateInput } from '~/server/services/plant';
+import { InviteInput } from '~/server/services/users';
+import { NewTokenInput } from '~/server/services/tokens';
+import { AcknowledgeInput, CloseInput } from '~/server/services/notices';
 
 const HUGE = 'x'.repeat(2_000_000);
 

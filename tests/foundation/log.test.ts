@@ -1,5 +1,5 @@
 import { expect, it } from 'vitest';
-import { redact } from '../../src/server/log';
+import { redact } from '~/server/log';
 
 it('masks e-mail addresses, token secrets and token hashes in log text, and leaves ordinary words', () => {
   const hash = 'a3f1'.repeat(16); // a SHA-256 in hex, as api_tokens.token_hash holds it

@@ -1,12 +1,12 @@
 import { readdirSync, readFileSync, statSync } from 'node:fs';
 import { join, relative } from 'node:path';
 import { afterAll, beforeAll, expect, it, vi } from 'vitest';
-import { ROLES, type Role } from '../../src/lib/roles';
-import { NAV } from '../../src/lib/navigation';
-import { auth } from '../../src/server/auth';
-import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../src/server/demo-accounts';
-import { guard } from '../../src/server/guard';
-import { API_POLICY, admitFor, apiPolicyFor, decide, pagePolicyFor } from '../../src/server/policy';
+import { ROLES, type Role } from '~/lib/roles';
+import { NAV } from '~/lib/navigation';
+import { auth } from '~/server/auth';
+import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '~/server/demo-accounts';
+import { guard } from '~/server/guard';
+import { API_POLICY, admitFor, apiPolicyFor, decide, pagePolicyFor } from '~/server/policy';
 import { describeIntegration } from '../support/integration';
 
 const API_DIR = 'src/pages/api';
@@ -199,7 +199,7 @@ describeIntegration('access by site: every site-bound endpoint with every role, 
 
   // The test data goes again: the same database serves the end-to-end run after this suite.
   afterAll(async () => {
-    const { db } = await import('../../src/server/db/client');
+    const { db } = await import('~/server/db/client');
     const { sql } = await import('drizzle-orm');
     const siteIds = [ids.A.siteId, ids.B.siteId].filter(Boolean) as string[];
     for (const siteId of siteIds) {
@@ -217,7 +217,7 @@ describeIntegration('access by site: every site-bound endpoint with every role, 
   });
 
   async function makeSite(label: string): Promise<Ids> {
-    const { db } = await import('../../src/server/db/client');
+    const { db } = await import('~/server/db/client');
     const { sql } = await import('drizzle-orm');
     const one = async (q: ReturnType<typeof sql>) => (await db().execute<{ id: string }>(q)).rows[0]!.id;
     const stamp = `${label} ${Date.now()}`;
@@ -235,7 +235,7 @@ describeIntegration('access by site: every site-bound endpoint with every role, 
     const noticeId = await one(
       sql`insert into drift_notices (site_id, unit_id, direction, onset_hour, signal_hour, last_signal_hour, hours, extra_w, expected_w, shift_sigma, currency, k, h) values (${siteId}, ${unitId}, 'up', now(), now(), now(), 5, 1000, 5000, 3, 'EUR', 0.5, 5) returning id`,
     );
-    const { issueApiToken } = await import('../../src/server/tokens');
+    const { issueApiToken } = await import('~/server/tokens');
     const token = await issueApiToken({ siteId, name: 'walk', role: 'admin', createdBy: null });
     return { siteId, unitId, portId, linkId, uploadId, baselineId, noticeId, tokenId: token.id, secret: token.secret };
   }
@@ -244,8 +244,8 @@ describeIntegration('access by site: every site-bound endpoint with every role, 
     ids.A = await makeSite('A');
     ids.B = await makeSite('B');
     tokenA = ids.A.secret!;
-    const { db } = await import('../../src/server/db/client');
-    const { account, personSites, user } = await import('../../src/server/db/schema');
+    const { db } = await import('~/server/db/client');
+    const { account, personSites, user } = await import('~/server/db/schema');
     const { hashPassword } = await import('better-auth/crypto');
     for (const role of RESTRICTED) {
       const id = crypto.randomUUID();
@@ -329,7 +329,7 @@ describeIntegration('access by site: every site-bound endpoint with every role, 
   });
 
   it('lists that span sites show a limited person only their sites', async () => {
-    const { GET } = await import('../../src/pages/api/sites/index');
+    const { GET } = await import('~/pages/api/sites/index');
     const { locals } = await call({ cookie: cookies.planner }, 'GET', '/api/sites');
     const res = await (GET as unknown as (ctx: { locals: App.Locals }) => Promise<Response>)({ locals });
     const names = ((await res.json()).sites as { id: string }[]).map((s) => s.id);

@@ -1,5 +1,5 @@
 import { expect, it } from 'vitest';
-import { safeNextPath } from '../../src/lib/safe-next';
+import { safeNextPath } from '~/lib/safe-next';
 
 it('keeps same-origin paths after sign-in', () => {
   expect(safeNextPath('/units?site=1#top')).toBe('/units?site=1#top');

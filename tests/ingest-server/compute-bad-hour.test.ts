@@ -5,11 +5,11 @@
  */
 import { and, asc, eq } from 'drizzle-orm';
 import { beforeAll, expect, it } from 'vitest';
-import { db } from '../../src/server/db/client';
-import { plantUnits, tags, unitHours } from '../../src/server/db/schema';
-import { writeTagHours } from '../../src/server/services/tag-hours';
-import { handleComputeUnitHours } from '../../src/server/services/engine';
-import { createSiteFromModel } from '../../src/server/services/plant-model';
+import { db } from '~/server/db/client';
+import { plantUnits, tags, unitHours } from '~/server/db/schema';
+import { writeTagHours } from '~/server/services/tag-hours';
+import { handleComputeUnitHours } from '~/server/services/engine';
+import { createSiteFromModel } from '~/server/services/plant-model';
 import { describeIntegration } from '../support/integration';
 import { uniqueName } from '../plant/support';
 import { P_ATM_Pa, steadyHour, valveCase } from '../engine/cases';

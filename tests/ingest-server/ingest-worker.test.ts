@@ -3,13 +3,13 @@ import { readFileSync } from 'node:fs';
 import { Readable } from 'node:stream';
 import { and, asc, eq } from 'drizzle-orm';
 import { beforeAll, expect, it } from 'vitest';
-import { db } from '../../src/server/db/client';
-import { tagHoursOf } from '../../src/server/services/tag-hours';
-import { layoutProfiles, sites, tagHourHistory, tagHours, tags, uploadRejects, uploads, user } from '../../src/server/db/schema';
-import { queue } from '../../src/server/queue';
-import { completeBrowserUpload, confirmLayout, createBrowserUpload, receiveApiUpload, rejectsCsv } from '../../src/server/services/uploads';
-import { objectSize } from '../../src/server/storage';
-import { registerHandlers } from '../../src/worker/handlers';
+import { db } from '~/server/db/client';
+import { tagHoursOf } from '~/server/services/tag-hours';
+import { layoutProfiles, sites, tagHourHistory, tagHours, tags, uploadRejects, uploads, user } from '~/server/db/schema';
+import { queue } from '~/server/queue';
+import { completeBrowserUpload, confirmLayout, createBrowserUpload, receiveApiUpload, rejectsCsv } from '~/server/services/uploads';
+import { objectSize } from '~/server/storage';
+import { registerHandlers } from '~/worker/handlers';
 import { expectClose } from '../support/expect-close';
 import { describeIntegration } from '../support/integration';
 
@@ -220,7 +220,7 @@ describeIntegration('historian file ingest through the real worker, PostgreSQL a
     await db().delete(uploadRejects).where(eq(uploadRejects.uploadId, uploadId));
     await db().update(uploads).set({ status: 'processing', attempts: 1 }).where(eq(uploads.id, uploadId));
     // A worker starting up finds the half-read upload and queues it again; the running handler reads it.
-    const { resumeInterruptedUploads } = await import('../../src/server/services/ingest');
+    const { resumeInterruptedUploads } = await import('~/server/services/ingest');
     expect(await resumeInterruptedUploads()).toBeGreaterThanOrEqual(1);
     const out = await waitFor(uploadId, ['done', 'failed', 'needs-review']);
     expect(out.status).toBe('done');

@@ -6,11 +6,11 @@ import { createHash } from 'node:crypto';
 import { Readable } from 'node:stream';
 import { and, asc, eq, sql } from 'drizzle-orm';
 import { afterEach, beforeAll, expect, it, vi } from 'vitest';
-import { db } from '../../src/server/db/client';
-import { sites, tagHours, tags, uploadRejects, uploads, user } from '../../src/server/db/schema';
-import { queue } from '../../src/server/queue';
-import { completeBrowserUpload, confirmLayout, createBrowserUpload, receiveApiUpload, NewUploadInput } from '../../src/server/services/uploads';
-import { registerHandlers } from '../../src/worker/handlers';
+import { db } from '~/server/db/client';
+import { sites, tagHours, tags, uploadRejects, uploads, user } from '~/server/db/schema';
+import { queue } from '~/server/queue';
+import { completeBrowserUpload, confirmLayout, createBrowserUpload, receiveApiUpload, NewUploadInput } from '~/server/services/uploads';
+import { registerHandlers } from '~/worker/handlers';
 import { describeIntegration } from '../support/integration';
 
 const sha = (b: Buffer) => createHash('sha256').update(b).digest('hex');

@@ -7,9 +7,9 @@ import { spawn, type ChildProcess } from 'node:child_process';
 import { Readable } from 'node:stream';
 import { and, eq, sql } from 'drizzle-orm';
 import { afterAll, beforeAll, expect, it } from 'vitest';
-import { db } from '../../src/server/db/client';
-import { sites, uploads } from '../../src/server/db/schema';
-import { receiveApiUpload } from '../../src/server/services/uploads';
+import { db } from '~/server/db/client';
+import { sites, uploads } from '~/server/db/schema';
+import { receiveApiUpload } from '~/server/services/uploads';
 import { describeIntegration } from '../support/integration';
 
 interface Worker {

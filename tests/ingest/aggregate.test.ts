@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { CellStatus, createHourAggregator } from '../../src/lib/ingest/index';
-import type { TagHour, TagOptions } from '../../src/lib/ingest/index';
+import { CellStatus, createHourAggregator } from '~/lib/ingest/index';
+import type { TagHour, TagOptions } from '~/lib/ingest/index';
 import { expectClose } from '../support/expect-close';
 import { hourOf, ingestFixture, referenceStats, utc } from './helpers';
 

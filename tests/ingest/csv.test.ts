@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { CsvTokenizer, IngestError, tokenizeAll } from '../../src/lib/ingest/index';
-import type { CsvTokenizerOptions } from '../../src/lib/ingest/index';
+import { CsvTokenizer, IngestError, tokenizeAll } from '~/lib/ingest/index';
+import type { CsvTokenizerOptions } from '~/lib/ingest/index';
 
 /** Small deterministic generator (mulberry32) so a failure can be replayed. */
 function rng(seed: number): () => number {

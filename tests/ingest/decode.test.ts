@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { createDecoder, decodeAll, detectEncoding, IngestError } from '../../src/lib/ingest/index';
+import { createDecoder, decodeAll, detectEncoding, IngestError } from '~/lib/ingest/index';
 import { fixtureBytes } from './helpers';
 
 function codeOf(f: () => unknown): string {

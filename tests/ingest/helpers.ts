@@ -1,6 +1,6 @@
 import { readFileSync } from 'node:fs';
-import { createFileIngest, decodeAll, sniffLayout } from '../../src/lib/ingest/index';
-import type { FileIngestOptions, FileIngestResult, LayoutProfile, TagHour } from '../../src/lib/ingest/index';
+import { createFileIngest, decodeAll, sniffLayout } from '~/lib/ingest/index';
+import type { FileIngestOptions, FileIngestResult, LayoutProfile, TagHour } from '~/lib/ingest/index';
 
 export function fixtureBytes(name: string): Uint8Array {
   return new Uint8Array(readFileSync(new URL(`../fixtures/ingest/${name}`, import.meta.url)));

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { aggregateSamples, createHourAggregator, createRowReader, createSampleEmitter, teeSinks } from '../../src/lib/ingest/index';
-import type { RowReader, Sample, TagHour } from '../../src/lib/ingest/index';
+import { aggregateSamples, createHourAggregator, createRowReader, createSampleEmitter, teeSinks } from '~/lib/ingest/index';
+import type { RowReader, Sample, TagHour } from '~/lib/ingest/index';
 import { fixtureProfile, fixtureText, utc } from './helpers';
 
 const at = (hm: string) => utc(`2024-03-05T${hm}:00Z`);

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { parseNumber } from '../../src/lib/ingest/index';
+import { parseNumber } from '~/lib/ingest/index';
 
 describe('parseNumber', () => {
   it.each([

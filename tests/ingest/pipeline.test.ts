@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { createFileIngest, IngestError } from '../../src/lib/ingest/index';
-import type { FileIngestOptions, TagHour } from '../../src/lib/ingest/index';
+import { createFileIngest, IngestError } from '~/lib/ingest/index';
+import type { FileIngestOptions, TagHour } from '~/lib/ingest/index';
 import { fixtureBytes, fixtureProfile } from './helpers';
 
 function run(bytes: Uint8Array, options: Omit<FileIngestOptions, 'onHour'>, chunk = 65536) {

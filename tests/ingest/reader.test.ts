@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { CellStatus, createRowReader, IngestError, sniffLayout } from '../../src/lib/ingest/index';
-import type { LayoutProfile, ReadReport, RejectedCell, SampleSink } from '../../src/lib/ingest/index';
+import { CellStatus, createRowReader, IngestError, sniffLayout } from '~/lib/ingest/index';
+import type { LayoutProfile, ReadReport, RejectedCell, SampleSink } from '~/lib/ingest/index';
 import { fixtureProfile, fixtureText } from './helpers';
 
 interface Got {

@@ -13,7 +13,7 @@ import {
   type FileIngestOptions,
   type RejectedCell,
   type TagHour,
-} from '../../src/lib/ingest/index';
+} from '~/lib/ingest/index';
 
 function read(text: string, options: Partial<FileIngestOptions> = {}) {
   const hours: TagHour[] = [];

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { fnv1a64Hex, IngestError, LayoutProfileSchema, previewRows, sniffLayout, createRowReader } from '../../src/lib/ingest/index';
-import type { LayoutProfile } from '../../src/lib/ingest/index';
+import { fnv1a64Hex, IngestError, LayoutProfileSchema, previewRows, sniffLayout, createRowReader } from '~/lib/ingest/index';
+import type { LayoutProfile } from '~/lib/ingest/index';
 import { fixtureProfile, fixtureText } from './helpers';
 
 function errorOf(f: () => unknown): IngestError {

@@ -8,7 +8,7 @@ import {
   wallMsFromScan,
   wallMsFromSerial,
   timeOfDayMs,
-} from '../../src/lib/ingest/index';
+} from '~/lib/ingest/index';
 import { utc } from './helpers';
 
 const wall = (text: string, order: 'ymd' | 'dmy' | 'mdy') => {

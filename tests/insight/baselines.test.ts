@@ -1,8 +1,8 @@
 import { randomUUID } from 'node:crypto';
 import { eq } from 'drizzle-orm';
 import { beforeAll, expect, it } from 'vitest';
-import { db } from '../../src/server/db/client';
-import { unitHours, user } from '../../src/server/db/schema';
+import { db } from '~/server/db/client';
+import { unitHours, user } from '~/server/db/schema';
 import {
   InsightError,
   acceptBaseline,
@@ -12,8 +12,8 @@ import {
   expectedFor,
   fitDraft,
   unitBaselines,
-} from '../../src/server/services/baselines';
-import { createSite, createUnit } from '../../src/server/services/plant';
+} from '~/server/services/baselines';
+import { createSite, createUnit } from '~/server/services/plant';
 import { expectClose } from '../support/expect-close';
 import { describeIntegration } from '../support/integration';
 

@@ -1,15 +1,15 @@
 import { randomUUID } from 'node:crypto';
 import { and, asc, eq, sql } from 'drizzle-orm';
 import { beforeAll, expect, it } from 'vitest';
-import { QUEUES, SendMailPayload } from '../../src/jobs';
-import { db } from '../../src/server/db/client';
-import { baselines, driftNotices, driftPoints, noticeMails, unitHours, user } from '../../src/server/db/schema';
-import { sendMail } from '../../src/server/mail';
-import { queue } from '../../src/server/queue';
-import { acceptBaseline, fitDraft } from '../../src/server/services/baselines';
-import { checkDrift, driftSettingsFor, setDriftSettings } from '../../src/server/services/drift';
-import { closeNotice, getNotice, mailNoticeOpened } from '../../src/server/services/notices';
-import { createSite, createUnit } from '../../src/server/services/plant';
+import { QUEUES, SendMailPayload } from '~/jobs';
+import { db } from '~/server/db/client';
+import { baselines, driftNotices, driftPoints, noticeMails, unitHours, user } from '~/server/db/schema';
+import { sendMail } from '~/server/mail';
+import { queue } from '~/server/queue';
+import { acceptBaseline, fitDraft } from '~/server/services/baselines';
+import { checkDrift, driftSettingsFor, setDriftSettings } from '~/server/services/drift';
+import { closeNotice, getNotice, mailNoticeOpened } from '~/server/services/notices';
+import { createSite, createUnit } from '~/server/services/plant';
 import { expectClose } from '../support/expect-close';
 import { caughtMail, describeIntegration, waitForMail } from '../support/integration';
 

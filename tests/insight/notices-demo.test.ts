@@ -11,10 +11,10 @@
  * of src/lib/analytics/notice-figures.ts at every day's check.
  */
 import { describe, expect, it } from 'vitest';
-import { fitBaseline, predict } from '../../src/lib/analytics/baseline';
-import { cusumInit, cusumStep } from '../../src/lib/analytics/drift';
-import { liveFigures, type ResidualHour } from '../../src/lib/analytics/notice-figures';
-import { water } from '../../src/lib/thermo';
+import { fitBaseline, predict } from '~/lib/analytics/baseline';
+import { cusumInit, cusumStep } from '~/lib/analytics/drift';
+import { liveFigures, type ResidualHour } from '~/lib/analytics/notice-figures';
+import { water } from '~/lib/thermo';
 import { siteMidnightMs } from '../../scripts/demo/generate';
 import { DAY_ms, HOUR_ms, Hours, generate } from '../demo/support';
 

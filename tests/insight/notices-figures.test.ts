@@ -18,7 +18,7 @@ import {
   shiftFigure,
   trendOf,
   type ResidualHour,
-} from '../../src/lib/analytics/notice-figures';
+} from '~/lib/analytics/notice-figures';
 import { expectClose } from '../support/expect-close';
 
 const HOUR = 3_600_000;

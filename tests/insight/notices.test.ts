@@ -1,13 +1,13 @@
 import { randomInt, randomUUID } from 'node:crypto';
 import { eq, sql } from 'drizzle-orm';
 import { beforeAll, expect, it } from 'vitest';
-import { QUEUES, SendMailPayload } from '../../src/jobs';
-import { db } from '../../src/server/db/client';
-import { driftNotices, noticeDigests, noticeMails, personSites, unitHours, user } from '../../src/server/db/schema';
-import { sendMail } from '../../src/server/mail';
-import { queue } from '../../src/server/queue';
-import { acceptBaseline, fitDraft } from '../../src/server/services/baselines';
-import { checkDrift } from '../../src/server/services/drift';
+import { QUEUES, SendMailPayload } from '~/jobs';
+import { db } from '~/server/db/client';
+import { driftNotices, noticeDigests, noticeMails, personSites, unitHours, user } from '~/server/db/schema';
+import { sendMail } from '~/server/mail';
+import { queue } from '~/server/queue';
+import { acceptBaseline, fitDraft } from '~/server/services/baselines';
+import { checkDrift } from '~/server/services/drift';
 import {
   NOTICE_CAUTION,
   acknowledgeNotice,
@@ -18,8 +18,8 @@ import {
   sendNoticeDigests,
   setNoticePreferences,
   shiftAgainstUncertainty,
-} from '../../src/server/services/notices';
-import { createSite, createUnit } from '../../src/server/services/plant';
+} from '~/server/services/notices';
+import { createSite, createUnit } from '~/server/services/plant';
 import { expectClose } from '../support/expect-close';
 import { caughtMail, describeIntegration, waitForMail } from '../support/integration';
 

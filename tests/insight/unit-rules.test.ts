@@ -6,14 +6,14 @@
 import { randomUUID } from 'node:crypto';
 import { and, eq, sql } from 'drizzle-orm';
 import { beforeAll, expect, it } from 'vitest';
-import { QUEUES, SendMailPayload } from '../../src/jobs';
-import { db } from '../../src/server/db/client';
-import { driftNotices, noticeMails, unitHours, user } from '../../src/server/db/schema';
-import { sendMail } from '../../src/server/mail';
-import { queue } from '../../src/server/queue';
-import { closeNotice, getNotice, listNotices, noticeDetail } from '../../src/server/services/notices';
-import { createSite, createUnit, updateUnit } from '../../src/server/services/plant';
-import { checkUnitRules, setUnitLimits, unitLimitsFor } from '../../src/server/services/unit-rules';
+import { QUEUES, SendMailPayload } from '~/jobs';
+import { db } from '~/server/db/client';
+import { driftNotices, noticeMails, unitHours, user } from '~/server/db/schema';
+import { sendMail } from '~/server/mail';
+import { queue } from '~/server/queue';
+import { closeNotice, getNotice, listNotices, noticeDetail } from '~/server/services/notices';
+import { createSite, createUnit, updateUnit } from '~/server/services/plant';
+import { checkUnitRules, setUnitLimits, unitLimitsFor } from '~/server/services/unit-rules';
 import { expectClose } from '../support/expect-close';
 import { describeIntegration, waitForMail } from '../support/integration';
 

@@ -11,8 +11,8 @@ import {
   measurementsFor,
   portSlot,
   pressureAtElevation,
-} from '../../src/lib/plant';
-import { canConvert, unitsFor } from '../../src/lib/units';
+} from '~/lib/plant';
+import { canConvert, unitsFor } from '~/lib/units';
 import { expectClose } from '../support/expect-close';
 
 describe('the unit-kind catalogue', () => {

@@ -1,5 +1,5 @@
 import { readFileSync } from 'node:fs';
-import type { PlantModel } from '../../src/lib/plant';
+import type { PlantModel } from '~/lib/plant';
 
 /** The complete example of docs/plant-model.md. */
 export function documentedExample(): PlantModel {

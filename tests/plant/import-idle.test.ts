@@ -4,9 +4,9 @@
  * that wait for it.
  */
 import { expect, it } from 'vitest';
-import type { PlantModel } from '../../src/lib/plant';
-import { updateUnit } from '../../src/server/services/plant';
-import { createSiteFromModel, exportModel, importModel } from '../../src/server/services/plant-model';
+import type { PlantModel } from '~/lib/plant';
+import { updateUnit } from '~/server/services/plant';
+import { createSiteFromModel, exportModel, importModel } from '~/server/services/plant-model';
 import { describeIntegration } from '../support/integration';
 import { documentedExample } from './example';
 import { uniqueName } from './support';
@@ -38,7 +38,7 @@ describeIntegration('normally idle: import, export, edit', () => {
     m.site.name = uniqueName('Idle edit');
     delete prvOf(m).normallyIdle;
     const { siteId } = await createSiteFromModel(m);
-    const ids = new Map((await import('../../src/server/services/plant').then((x) => x.siteOverview(siteId))).units.map((u) => [u.name, u.id]));
+    const ids = new Map((await import('~/server/services/plant').then((x) => x.siteOverview(siteId))).units.map((u) => [u.name, u.id]));
     const prvId = ids.get('PRV 42/9')!;
     const bad = await updateUnit(siteId, prvId, { normallyIdle: { when: 'always', whileRunning: ['TG7'] } }).catch((e) => e);
     expect(bad.code).toBe('VALIDATION_FAILED');

@@ -1,7 +1,7 @@
 import { beforeAll, expect, it } from 'vitest';
-import { createPort, createSite, createUnit, siteStatus, unlinkedTags } from '../../src/server/services/plant';
-import { endLink, linkHistory, linksForRange, linksValidAt, setLink } from '../../src/server/services/plant-links';
-import { PlantRuleError, openEndMs } from '../../src/server/services/plant-tx';
+import { createPort, createSite, createUnit, siteStatus, unlinkedTags } from '~/server/services/plant';
+import { endLink, linkHistory, linksForRange, linksValidAt, setLink } from '~/server/services/plant-links';
+import { PlantRuleError, openEndMs } from '~/server/services/plant-tx';
 import { describeIntegration } from '../support/integration';
 import { addTags, recomputeJobs, uniqueName } from './support';
 

@@ -3,7 +3,7 @@
  * accepted with its defaults, files without it still load (not idle), mistakes named by their path.
  */
 import { describe, expect, it } from 'vitest';
-import { checkModel, type PlantModel } from '../../src/lib/plant/model';
+import { checkModel, type PlantModel } from '~/lib/plant/model';
 import { documentedExample } from './example';
 
 const prvOf = (m: PlantModel) => m.units.find((u) => u.name === 'PRV 42/9')!;

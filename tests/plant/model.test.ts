@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { checkModel, jsonPath, unitStatus, type PlantModel } from '../../src/lib/plant';
+import { checkModel, jsonPath, unitStatus, type PlantModel } from '~/lib/plant';
 import { documentedExample } from './example';
 
 const clone = <T>(x: T): T => structuredClone(x);

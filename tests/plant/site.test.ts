@@ -1,8 +1,8 @@
 import { expect, it } from 'vitest';
-import { db } from '../../src/server/db/client';
-import { writeTagHours } from '../../src/server/services/tag-hours';
-import { createSite, getSite, siteModel, updateSite, type SiteInput } from '../../src/server/services/plant';
-import { PlantRuleError } from '../../src/server/services/plant-tx';
+import { db } from '~/server/db/client';
+import { writeTagHours } from '~/server/services/tag-hours';
+import { createSite, getSite, siteModel, updateSite, type SiteInput } from '~/server/services/plant';
+import { PlantRuleError } from '~/server/services/plant-tx';
 import { describeIntegration } from '../support/integration';
 import { expectClose } from '../support/expect-close';
 import { addTags, recomputeJobs, tagSeq, uniqueName } from './support';

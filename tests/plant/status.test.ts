@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { unitStatus, type LinkModel, type StatusContext, type UnitModel } from '../../src/lib/plant';
+import { unitStatus, type LinkModel, type StatusContext, type UnitModel } from '~/lib/plant';
 
 const valve = (links: LinkModel[] = [], ports = true): UnitModel => ({
   name: 'PRV 1',

@@ -1,7 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import { and, eq, inArray, sql } from 'drizzle-orm';
-import { db } from '../../src/server/db/client';
-import { plantPorts, plantUnits, sites, tagLinks, tags } from '../../src/server/db/schema';
+import { db } from '~/server/db/client';
+import { plantPorts, plantUnits, sites, tagLinks, tags } from '~/server/db/schema';
 
 /** A site name no other test run uses. */
 export const uniqueName = (what: string) => `${what} ${randomUUID().slice(0, 8)}`;

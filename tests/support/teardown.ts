@@ -2,8 +2,8 @@ import { afterAll } from 'vitest';
 
 // Close the pool and the queue a test file opened, so the fork exits promptly.
 afterAll(async () => {
-  const { stopQueue } = await import('../../src/server/queue');
-  const { closeDb } = await import('../../src/server/db/client');
+  const { stopQueue } = await import('~/server/queue');
+  const { closeDb } = await import('~/server/db/client');
   await stopQueue().catch(() => undefined);
   await closeDb().catch(() => undefined);
 });

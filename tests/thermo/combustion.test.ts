@@ -12,10 +12,10 @@ import {
   heatingValues,
   type CombustionResult,
   type Fuel,
-} from '../../src/lib/thermo/combustion';
-import { DRY_AIR_MOLE_FRACTIONS, dryAir, species, type SpeciesName } from '../../src/lib/thermo/gas';
-import { ThermoRangeError } from '../../src/lib/thermo/errors';
-import type { Element } from '../../src/lib/thermo/species-data';
+} from '~/lib/thermo/combustion';
+import { DRY_AIR_MOLE_FRACTIONS, dryAir, species, type SpeciesName } from '~/lib/thermo/gas';
+import { ThermoRangeError } from '~/lib/thermo/errors';
+import type { Element } from '~/lib/thermo/species-data';
 
 const ISO2016 = 'ISO 6976:2016 ideal molar calorific values at 25 degC (check-values.md, heating values)';
 const COMPUTED = 'check-values.md heating values, column computed from NASA Hf and H2O(l) -285.830';

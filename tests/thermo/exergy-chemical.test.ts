@@ -9,10 +9,10 @@ import {
   phiSolidFuel,
   standardChemicalExergy,
   type ChemicalExergySubstance,
-} from '../../src/lib/thermo/chemical-exergy';
-import { TYPICAL_FUELS, fuelByHeatingValue, gaseousFuel, heatingValues } from '../../src/lib/thermo/combustion';
-import { R_J_per_molK, dryAir, species } from '../../src/lib/thermo/gas';
-import { ThermoRangeError } from '../../src/lib/thermo/errors';
+} from '~/lib/thermo/chemical-exergy';
+import { TYPICAL_FUELS, fuelByHeatingValue, gaseousFuel, heatingValues } from '~/lib/thermo/combustion';
+import { R_J_per_molK, dryAir, species } from '~/lib/thermo/gas';
+import { ThermoRangeError } from '~/lib/thermo/errors';
 
 const SMS1988 = 'Szargut, Morris & Steward 1988 (check-values.md s.3, 1988 column)';
 // kJ/mol as printed in the 1988 column

@@ -1,5 +1,5 @@
 import { expect, it } from 'vitest';
-import * as thermo from '../../src/lib/thermo';
+import * as thermo from '~/lib/thermo';
 
 it('self-consistency: the public surface exposes water, gases, combustion, chemical exergy, liquids and the balance', () => {
   for (const name of [

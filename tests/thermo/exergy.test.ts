@@ -8,11 +8,11 @@ import {
   heatExergy,
   type BalanceStream,
   type DeadState,
-} from '../../src/lib/thermo/exergy';
-import { dryAir, mixture, type GasMixture } from '../../src/lib/thermo/gas';
-import { liquid } from '../../src/lib/thermo/liquid';
-import { water } from '../../src/lib/thermo/water';
-import { ThermoRangeError } from '../../src/lib/thermo/errors';
+} from '~/lib/thermo/exergy';
+import { dryAir, mixture, type GasMixture } from '~/lib/thermo/gas';
+import { liquid } from '~/lib/thermo/liquid';
+import { water } from '~/lib/thermo/water';
+import { ThermoRangeError } from '~/lib/thermo/errors';
 
 const T0 = 298.15;
 const p0 = 101325;

@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { expectClose } from '../support/expect-close';
-import { LIQUID_P_REF_Pa, LIQUID_T_REF_K, liquid, liquidFlowExergy } from '../../src/lib/thermo/liquid';
-import { deadState, flowExergy } from '../../src/lib/thermo/exergy';
-import { ThermoRangeError } from '../../src/lib/thermo/errors';
+import { LIQUID_P_REF_Pa, LIQUID_T_REF_K, liquid, liquidFlowExergy } from '~/lib/thermo/liquid';
+import { deadState, flowExergy } from '~/lib/thermo/exergy';
+import { ThermoRangeError } from '~/lib/thermo/errors';
 
 // an invented thermal oil (fixture data, not a product's data sheet)
 const oil = liquid({ cp_J_per_kgK: 2300, rho_kg_per_m3: 850, label: 'thermal oil (fixture)' });

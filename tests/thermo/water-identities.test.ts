@@ -4,12 +4,12 @@
  */
 import { describe, expect, it } from 'vitest';
 import { expectClose } from '../support/expect-close';
-import { water } from '../../src/lib/thermo/water';
-import { ThermoRangeError } from '../../src/lib/thermo/errors';
-import { props1 } from '../../src/lib/thermo/water/region1';
-import { props2 } from '../../src/lib/thermo/water/region2';
-import { props3 } from '../../src/lib/thermo/water/region3';
-import { props5 } from '../../src/lib/thermo/water/region5';
+import { water } from '~/lib/thermo/water';
+import { ThermoRangeError } from '~/lib/thermo/errors';
+import { props1 } from '~/lib/thermo/water/region1';
+import { props2 } from '~/lib/thermo/water/region2';
+import { props3 } from '~/lib/thermo/water/region3';
+import { props5 } from '~/lib/thermo/water/region5';
 
 const SC = 'self-consistency';
 const MPa = 1e6;

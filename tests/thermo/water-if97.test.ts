@@ -6,9 +6,9 @@
  */
 import { describe, it } from 'vitest';
 import { expectClose } from '../support/expect-close';
-import { water } from '../../src/lib/thermo/water';
-import { subregion2_ph, subregion2_ps, T1_ph, T1_ps, T2_ph, T2_ps } from '../../src/lib/thermo/water/backward';
-import { pB23, tB23 } from '../../src/lib/thermo/water/saturation';
+import { water } from '~/lib/thermo/water';
+import { subregion2_ph, subregion2_ps, T1_ph, T1_ps, T2_ph, T2_ps } from '~/lib/thermo/water/backward';
+import { pB23, tB23 } from '~/lib/thermo/water/saturation';
 
 const MPa = 1e6;
 const kJ = 1e3;

@@ -5,7 +5,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { expectClose } from '../support/expect-close';
-import { water, type WaterState } from '../../src/lib/thermo/water';
+import { water, type WaterState } from '~/lib/thermo/water';
 import fixture from '../fixtures/iapws-reference.json';
 
 type Ref = {

@@ -6,10 +6,10 @@
  */
 import { describe, expect, it } from 'vitest';
 import { expectClose } from '../support/expect-close';
-import { T3_ph, T3_ps, v3_ph, v3_ps } from '../../src/lib/thermo/water/backward';
-import { subregion3, tAB, tBoundary, tEF, tOP, tWX, v3Sub, type Subregion3 } from '../../src/lib/thermo/water/region3-vpt';
-import { hB2bc, hB3ab, pB2bc } from '../../src/lib/thermo/water/saturation';
-import { water } from '../../src/lib/thermo/water';
+import { T3_ph, T3_ps, v3_ph, v3_ps } from '~/lib/thermo/water/backward';
+import { subregion3, tAB, tBoundary, tEF, tOP, tWX, v3Sub, type Subregion3 } from '~/lib/thermo/water/region3-vpt';
+import { hB2bc, hB3ab, pB2bc } from '~/lib/thermo/water/saturation';
+import { water } from '~/lib/thermo/water';
 
 const MPa = 1e6;
 const SR505 = 'IAPWS SR5-05(2016) verification values (as reproduced in python3-iapws 1.5.2)';

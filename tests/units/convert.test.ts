@@ -18,7 +18,7 @@ import {
   unitsFor,
   volumeFlowToMassFlow,
   type Quantity,
-} from '../../src/lib/units';
+} from '~/lib/units';
 
 describe('parseUnit: spellings found in historian exports', () => {
   it.each([

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { expectClose } from '../support/expect-close';
-import { toSI, uncertaintyToSI } from '../../src/lib/units';
-import type { Quantity } from '../../src/lib/units';
+import { toSI, uncertaintyToSI } from '~/lib/units';
+import type { Quantity } from '~/lib/units';
 
 /**
  * Conversion factors against NIST SP 811 (2008), Appendix B.8 ("Factors for units listed

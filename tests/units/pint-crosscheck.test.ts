@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { expectClose } from '../support/expect-close';
-import { quantities, toSI, fromSI, type Quantity } from '../../src/lib/units';
+import { quantities, toSI, fromSI, type Quantity } from '~/lib/units';
 import fixture from '../fixtures/pint-units.json';
 
 /**

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { niceTicks, timeTicks } from '../../src/components/insight/views/TrendCharts';
+import { niceTicks, timeTicks } from '~/components/insight/views/TrendCharts';
 
 describe('chart axes', () => {
   it('self-consistency: round ticks cover every value in about five steps of 1, 2, 2.5 or 5 x 10^n', () => {

@@ -1,7 +1,7 @@
 import { beforeAll, expect, it } from 'vitest';
-import { GET as getLedger } from '../../src/pages/api/sites/[siteId]/ledger';
-import { GET as getFlow } from '../../src/pages/api/sites/[siteId]/flow';
-import { siteLedger, type LedgerAnswer, type FlowAnswer } from '../../src/server/services/views';
+import { GET as getLedger } from '~/pages/api/sites/[siteId]/ledger';
+import { GET as getFlow } from '~/pages/api/sites/[siteId]/flow';
+import { siteLedger, type LedgerAnswer, type FlowAnswer } from '~/server/services/views';
 import { describeIntegration } from '../support/integration';
 import { expectClose } from '../support/expect-close';
 import { addHours, at, ctx, inventedSite, type HourRow } from './support';

@@ -1,8 +1,8 @@
 import { randomUUID } from 'node:crypto';
-import { db } from '../../src/server/db/client';
-import { unitHours } from '../../src/server/db/schema';
-import { createSite, createUnit } from '../../src/server/services/plant';
-import type { UnitKind } from '../../src/lib/plant/kinds';
+import { db } from '~/server/db/client';
+import { unitHours } from '~/server/db/schema';
+import { createSite, createUnit } from '~/server/services/plant';
+import type { UnitKind } from '~/lib/plant/kinds';
 
 /** A name no other test run uses. */
 export const uniqueName = (what: string) => `${what} ${randomUUID().slice(0, 8)}`;

@@ -1,9 +1,9 @@
 import { beforeAll, expect, it } from 'vitest';
-import { GET as getTrend } from '../../src/pages/api/units/[unitId]/trend';
-import { db } from '../../src/server/db/client';
-import { driftNotices } from '../../src/server/db/schema';
-import { acceptBaseline, fitDraft } from '../../src/server/services/baselines';
-import type { TrendAnswer } from '../../src/server/services/views';
+import { GET as getTrend } from '~/pages/api/units/[unitId]/trend';
+import { db } from '~/server/db/client';
+import { driftNotices } from '~/server/db/schema';
+import { acceptBaseline, fitDraft } from '~/server/services/baselines';
+import type { TrendAnswer } from '~/server/services/views';
 import { describeIntegration } from '../support/integration';
 import { expectClose } from '../support/expect-close';
 import { HOUR, addHours, ctx, inventedSite, type HourRow } from './support';

@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { DEFAULT_RULE_HOURS, WEEKDAYS, normallyIdleText, type NormallyIdle, type Weekday } from '../../lib/plant/idle';
+import { DEFAULT_RULE_HOURS, WEEKDAYS, normallyIdleText, type NormallyIdle, type Weekday } from '~/lib/plant/idle';
 import { Notice, call, messageOf, type Message } from './common';
 
 const DAY_LABELS: Record<Weekday, string> = { mon: 'Mon', tue: 'Tue', wed: 'Wed', thu: 'Thu', fri: 'Fri', sat: 'Sat', sun: 'Sun' };

@@ -2,11 +2,11 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useEffect, useMemo, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
-import { LINK_QUANTITIES, kindSpec, measurementsFor, type LinkQuantity, type UnitKind } from '../../lib/plant/kinds';
-import type { Fluid, LinkModel, PortModel } from '../../lib/plant/model';
-import type { UnitStatus } from '../../lib/plant/status';
-import { defaultUncertainty } from '../../lib/plant/uncertainty';
-import { canConvert, parseUnit, unitsFor } from '../../lib/units';
+import { LINK_QUANTITIES, kindSpec, measurementsFor, type LinkQuantity, type UnitKind } from '~/lib/plant/kinds';
+import type { Fluid, LinkModel, PortModel } from '~/lib/plant/model';
+import type { UnitStatus } from '~/lib/plant/status';
+import { defaultUncertainty } from '~/lib/plant/uncertainty';
+import { canConvert, parseUnit, unitsFor } from '~/lib/units';
 import { Field, Notice, call, messageOf, wallTimeToIso, type Message } from './common';
 
 export interface UnitJson {

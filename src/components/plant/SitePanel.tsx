@@ -2,9 +2,9 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useCallback, useEffect, useState } from 'react';
 import { useFieldArray, useForm } from 'react-hook-form';
 import { z } from 'zod';
-import { UNIT_KINDS, kindSpec } from '../../lib/plant/kinds';
-import { isTimeZone, type EnergyPrice, type SiteModel } from '../../lib/plant/model';
-import { canConvert } from '../../lib/units';
+import { UNIT_KINDS, kindSpec } from '~/lib/plant/kinds';
+import { isTimeZone, type EnergyPrice, type SiteModel } from '~/lib/plant/model';
+import { canConvert } from '~/lib/units';
 import { Field, Notice, call, messageOf, readSI, showSI, type Message } from './common';
 import LinkForm, { type TagJson, type UnitJson } from './LinkForm';
 

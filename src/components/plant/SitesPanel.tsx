@@ -2,7 +2,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
-import { isTimeZone } from '../../lib/plant/model';
+import { isTimeZone } from '~/lib/plant/model';
 import { Field, Notice, call, messageOf, type Message } from './common';
 
 export interface SiteSummary {

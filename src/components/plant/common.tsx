@@ -1,7 +1,7 @@
 import { TZDate } from '@date-fns/tz';
 import { format } from 'date-fns';
 import type { ReactNode } from 'react';
-import { canConvert, fromSI, toSI, type Quantity } from '../../lib/units';
+import { canConvert, fromSI, toSI, type Quantity } from '~/lib/units';
 
 export interface Issue {
   path: string;

@@ -1,5 +1,5 @@
 import type { APIRoute } from 'astro';
-import { health } from '../../server/health';
+import { health } from '~/server/health';
 
 export const GET: APIRoute = async () => {
   const out = await health();

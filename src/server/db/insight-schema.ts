@@ -1,8 +1,8 @@
 // Tables of baselines, drift notices and reports (issue: insight). Owned by the insight work.
-import type { CloseOutcome, NoticeTrend, PriorReason, VerdictView } from '../../lib/notice-view';
+import type { CloseOutcome, NoticeTrend, PriorReason, VerdictView } from '~/lib/notice-view';
 import { sql } from 'drizzle-orm';
 import { boolean, date, doublePrecision, index, integer, jsonb, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid, type AnyPgColumn } from 'drizzle-orm/pg-core';
-import type { BaselineModel, BaselineTerm } from '../../lib/analytics/baseline';
+import type { BaselineModel, BaselineTerm } from '~/lib/analytics/baseline';
 import { user } from './auth-schema';
 import { plantUnits, sites } from './plant-schema';
 

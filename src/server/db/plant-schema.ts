@@ -1,9 +1,9 @@
 import { sql } from 'drizzle-orm';
 import { doublePrecision, index, integer, jsonb, pgTable, text, timestamp, uniqueIndex, uuid, type AnyPgColumn } from 'drizzle-orm/pg-core';
-import type { EnergyPrice, FuelDefinition, Fluid } from '../../lib/plant/model';
-import type { LinkQuantity, ParamValue, PortRole, PortStream, UnitKind } from '../../lib/plant/kinds';
-import type { UncertaintyMode } from '../../lib/plant/uncertainty';
-import type { NormallyIdle } from '../../lib/plant/idle';
+import type { EnergyPrice, FuelDefinition, Fluid } from '~/lib/plant/model';
+import type { LinkQuantity, ParamValue, PortRole, PortStream, UnitKind } from '~/lib/plant/kinds';
+import type { UncertaintyMode } from '~/lib/plant/uncertainty';
+import type { NormallyIdle } from '~/lib/plant/idle';
 import { user } from './auth-schema';
 import { tags } from './ingest-schema';
 

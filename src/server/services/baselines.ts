@@ -22,10 +22,10 @@ import {
   type BaselineModel,
   type BaselineTerm,
   type Guideline14Check,
-} from '../../lib/analytics/baseline';
-import { QUEUES } from '../../jobs';
+} from '~/lib/analytics/baseline';
+import { QUEUES } from '~/jobs';
 import { db } from '../db/client';
-import type { BaselineSummary, ModelSummary } from '../../lib/baseline-view';
+import type { BaselineSummary, ModelSummary } from '~/lib/baseline-view';
 import { baselines, plantUnits, sites, unitHours, user, type BaselineStatus } from '../db/schema';
 import type { ErrorCode } from '../errors';
 import { queue } from '../queue';
@@ -62,7 +62,7 @@ export const FitInput = z.strictObject({
 });
 export type FitInput = z.infer<typeof FitInput>;
 
-export type { BaselineSummary, ModelSummary } from '../../lib/baseline-view';
+export type { BaselineSummary, ModelSummary } from '~/lib/baseline-view';
 
 function summariseModel(m: BaselineModel): ModelSummary {
   const { n, p, s, r2, ybar, cvRmse, nmbe } = m.stats;

@@ -13,10 +13,10 @@
  */
 import { and, asc, desc, eq, gt, gte, inArray, isNotNull, lt, ne, sql } from 'drizzle-orm';
 import { z } from 'zod';
-import { CheckDriftPayload, QUEUES } from '../../jobs';
-import { predict, type BaselineModel } from '../../lib/analytics/baseline';
-import { ar1Innovation, type Ar1Model } from '../../lib/analytics/autocorrelation';
-import { DRIFT_CHECK_DEFAULTS, cusumInit, cusumStep, type CusumState, type DriftSignal } from '../../lib/analytics/drift';
+import { CheckDriftPayload, QUEUES } from '~/jobs';
+import { predict, type BaselineModel } from '~/lib/analytics/baseline';
+import { ar1Innovation, type Ar1Model } from '~/lib/analytics/autocorrelation';
+import { DRIFT_CHECK_DEFAULTS, cusumInit, cusumStep, type CusumState, type DriftSignal } from '~/lib/analytics/drift';
 import { baselines, driftNotices, driftPoints, driftSettings, plantUnits, unitHours } from '../db/schema';
 import { queue } from '../queue';
 import { db } from '../db/client';

@@ -9,7 +9,7 @@
  * recomputes every unit of the site (their cost depends on it); unchanged hours are skipped anyway.
  */
 import { and, asc, eq, gte, inArray, lt, sql } from 'drizzle-orm';
-import { CheckDriftPayload, ComputeUnitHoursPayload, QUEUES } from '../../jobs';
+import { CheckDriftPayload, ComputeUnitHoursPayload, QUEUES } from '~/jobs';
 import {
   computeUnitHour,
   costKindOf,
@@ -26,9 +26,9 @@ import {
   type UnitHourInput,
   type UnitHourResult,
   unitHourHashes,
-} from '../../lib/engine';
-import type { UnitKind } from '../../lib/plant/kinds';
-import type { Fluid } from '../../lib/plant/model';
+} from '~/lib/engine';
+import type { UnitKind } from '~/lib/plant/kinds';
+import type { Fluid } from '~/lib/plant/model';
 import { db } from '../db/client';
 import { coveredFractionSql, flatlineSql, plantPorts, plantUnits, sites, tagHours, tags, unitHours } from '../db/schema';
 import { ensureMonthPartitions } from '../db/partitions';

@@ -16,12 +16,12 @@ import {
   type LayoutProfile,
   type RejectedCell,
   type TagHour,
-} from '../../lib/ingest';
-import { isLinkQuantity, unitsQuantityOf } from '../../lib/plant/kinds';
+} from '~/lib/ingest';
+import { isLinkQuantity, unitsQuantityOf } from '~/lib/plant/kinds';
 import { db, pgPool } from '../db/client';
 import { TAG_HOUR_FLAGS, layoutProfiles, sites, tagLinks, tags, uploads } from '../db/schema';
 import { ensureMonthPartitions } from '../db/partitions';
-import { QUEUES } from '../../jobs';
+import { QUEUES } from '~/jobs';
 import { queue } from '../queue';
 import { bucket, objectStream, s3 } from '../storage';
 import { findDuplicate, storedObjectMismatch } from './uploads';

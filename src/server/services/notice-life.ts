@@ -15,8 +15,8 @@
  */
 import { randomUUID } from 'node:crypto';
 import { and, asc, desc, eq, gte, isNotNull, isNull, ne } from 'drizzle-orm';
-import type { DriftSignal } from '../../lib/analytics/drift';
-import { extraDestructionCost_per_day } from '../../lib/analytics/cost';
+import type { DriftSignal } from '~/lib/analytics/drift';
+import { extraDestructionCost_per_day } from '~/lib/analytics/cost';
 import {
   CURRENT_WINDOW_HOURS,
   VERIFY_HOURS,
@@ -28,7 +28,7 @@ import {
   shiftFigure,
   type Direction,
   type ResidualHour,
-} from '../../lib/analytics/notice-figures';
+} from '~/lib/analytics/notice-figures';
 import { driftNotices, driftPoints, type PriorReason } from '../db/schema';
 import type { Exec, Tx } from './drift-tx';
 import { costRate, escalationMultipleFor, queueEscalationMails, queueNoticeMails, shiftAgainstUncertainty } from './notices';

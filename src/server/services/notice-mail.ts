@@ -4,7 +4,7 @@
  */
 import { TZDate } from '@date-fns/tz';
 import { format } from 'date-fns';
-import type { NoticeView } from '../../lib/notice-view';
+import type { NoticeView } from '~/lib/notice-view';
 import { escapeHtml } from '../mail';
 import { ruleFigureLines, ruleNoticeMail } from './unit-rule-words';
 

@@ -12,12 +12,12 @@ import { format } from 'date-fns';
 import { and, asc, desc, eq, gte, inArray, lt, ne, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import { z } from 'zod';
-import { QUEUES } from '../../jobs';
-import { fuelExergyCost_per_J } from '../../lib/analytics/cost';
-import { chartSeries, type ResidualHour } from '../../lib/analytics/notice-figures';
-import type { Role } from '../../lib/roles';
+import { QUEUES } from '~/jobs';
+import { fuelExergyCost_per_J } from '~/lib/analytics/cost';
+import { chartSeries, type ResidualHour } from '~/lib/analytics/notice-figures';
+import type { Role } from '~/lib/roles';
 import { db } from '../db/client';
-import type { NoticeChartEvent, NoticeLife, NoticeView } from '../../lib/notice-view';
+import type { NoticeChartEvent, NoticeLife, NoticeView } from '~/lib/notice-view';
 import {
   CLOSE_OUTCOMES,
   baselines,
@@ -140,7 +140,7 @@ function noticeQuery() {
 
 type NoticeRow = Awaited<ReturnType<ReturnType<typeof noticeQuery>['execute']>>[number];
 
-export type { NoticeView } from '../../lib/notice-view';
+export type { NoticeView } from '~/lib/notice-view';
 
 const localDay = (d: Date, tz: string) => format(new TZDate(d.getTime(), tz), 'yyyy-MM-dd');
 

@@ -1,5 +1,5 @@
 import type { z } from 'zod';
-import { jsonPath } from '../../lib/plant/model';
+import { jsonPath } from '~/lib/plant/model';
 import { apiError } from '../errors';
 import { PlantRuleError } from './plant-tx';
 

@@ -13,9 +13,9 @@ import {
   type ModelIssue,
   type PlantModel,
   type UnitModel,
-} from '../../lib/plant/model';
-import { defaultParameters, kindSpec } from '../../lib/plant/kinds';
-import { defaultUncertainty } from '../../lib/plant/uncertainty';
+} from '~/lib/plant/model';
+import { defaultParameters, kindSpec } from '~/lib/plant/kinds';
+import { defaultUncertainty } from '~/lib/plant/uncertainty';
 import { db } from '../db/client';
 import { plantPorts, plantUnits, sites, tagLinks, tags } from '../db/schema';
 import { dataSpan, ensureTag, getSite, resolveAtmosphere, siteModel } from './plant';

@@ -1,6 +1,6 @@
 import type { z } from 'zod';
-import { ComputeUnitHoursPayload, QUEUES } from '../../jobs';
-import type { ModelIssue } from '../../lib/plant/model';
+import { ComputeUnitHoursPayload, QUEUES } from '~/jobs';
+import type { ModelIssue } from '~/lib/plant/model';
 import { withTransaction, type Tx } from '../db/tx';
 import { queue } from '../queue';
 

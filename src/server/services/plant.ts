@@ -24,12 +24,12 @@ import {
   type PortModel,
   type SiteModel,
   type UnitModel,
-} from '../../lib/plant/model';
-import { ELEVATION_MAX_m, ELEVATION_MIN_m, pressureAtElevation } from '../../lib/plant/atmosphere';
-import { UNIT_KINDS, defaultParameters, kindSpec, type ParamValue, type UnitKind } from '../../lib/plant/kinds';
-import { unitStatus, type UnitStatus } from '../../lib/plant/status';
-import { NormallyIdleSchema, tidyNormallyIdle, type NormallyIdle } from '../../lib/plant/idle';
-import { canConvert } from '../../lib/units/convert';
+} from '~/lib/plant/model';
+import { ELEVATION_MAX_m, ELEVATION_MIN_m, pressureAtElevation } from '~/lib/plant/atmosphere';
+import { UNIT_KINDS, defaultParameters, kindSpec, type ParamValue, type UnitKind } from '~/lib/plant/kinds';
+import { unitStatus, type UnitStatus } from '~/lib/plant/status';
+import { NormallyIdleSchema, tidyNormallyIdle, type NormallyIdle } from '~/lib/plant/idle';
+import { canConvert } from '~/lib/units/convert';
 import { db } from '../db/client';
 import { plantPorts, plantUnits, sites, tagLinks, tags } from '../db/schema';
 import { PlantRuleError, inTransaction, openEndMs, type Tx } from './plant-tx';

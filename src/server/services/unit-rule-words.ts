@@ -4,7 +4,7 @@
  */
 import { TZDate } from '@date-fns/tz';
 import { format } from 'date-fns';
-import type { NoticeKind, NoticeView } from '../../lib/notice-view';
+import type { NoticeKind, NoticeView } from '~/lib/notice-view';
 import { escapeHtml } from '../mail';
 
 /** The kinds in the product's words. */

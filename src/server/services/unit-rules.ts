@@ -13,9 +13,9 @@
  */
 import { and, asc, eq, gte, inArray, isNotNull, lt, max, ne, or, sql } from 'drizzle-orm';
 import { z } from 'zod';
-import { CheckUnitRulesPayload, QUEUES } from '../../jobs';
-import { idleRuns, limitRuns, limitText, type CrossedLimit, type RuleHour, type RuleRun, type UnitLimits } from '../../lib/analytics/unit-rules';
-import { DEFAULT_RULE_HOURS, MAX_RULE_HOURS, normallyIdleText, type NormallyIdle } from '../../lib/plant/idle';
+import { CheckUnitRulesPayload, QUEUES } from '~/jobs';
+import { idleRuns, limitRuns, limitText, type CrossedLimit, type RuleHour, type RuleRun, type UnitLimits } from '~/lib/analytics/unit-rules';
+import { DEFAULT_RULE_HOURS, MAX_RULE_HOURS, normallyIdleText, type NormallyIdle } from '~/lib/plant/idle';
 import { db } from '../db/client';
 import { driftNotices, plantUnits, sites, unitHours, unitLimits, type NoticeKind } from '../db/schema';
 import { queue } from '../queue';

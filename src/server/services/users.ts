@@ -1,7 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import { and, asc, eq, inArray, ne, sql } from 'drizzle-orm';
 import { z } from 'zod';
-import { ROLES, type Role } from '../../lib/roles';
+import { ROLES, type Role } from '~/lib/roles';
 import { auth } from '../auth';
 import { db } from '../db/client';
 import { invitations, personSites, session, sites, user } from '../db/schema';

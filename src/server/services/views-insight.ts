@@ -3,7 +3,7 @@
  * expectedFor with k = 2) and drift notices (drift_notices), shaped for charts and reports.
  */
 import { and, asc, eq, gte, inArray, lt, ne, or, isNull, sql } from 'drizzle-orm';
-import type { ExpectedHour, NoticeMark } from '../../lib/trend-view';
+import type { ExpectedHour, NoticeMark } from '~/lib/trend-view';
 import { db } from '../db/client';
 import { driftNotices, plantUnits } from '../db/schema';
 import { expectedFor, type BaselineSummary } from './baselines';
@@ -23,7 +23,7 @@ export interface BaselineInfo {
 }
 
 
-export type { ExpectedHour, NoticeMark } from '../../lib/trend-view';
+export type { ExpectedHour, NoticeMark } from '~/lib/trend-view';
 
 export function baselineInfo(b: BaselineSummary): BaselineInfo {
   return {

@@ -9,7 +9,7 @@
  * and a bias does not average out); that is the cautious choice and is said beside every figure.
  */
 import { and, asc, eq, gte, lt, sql } from 'drizzle-orm';
-import { kindSpec, type UnitKind } from '../../lib/plant/kinds';
+import { kindSpec, type UnitKind } from '~/lib/plant/kinds';
 import { db } from '../db/client';
 import { HOUR_STATES, plantUnits, sites, unitHours, type HourState } from '../db/schema';
 import { PlantRuleError } from './plant-tx';
@@ -23,8 +23,8 @@ const WH_PER_MWH = 1e6;
 /** Periods longer than this many hours are drawn per local day instead of per hour. */
 export const HOURLY_LIMIT_h = 62 * 24;
 
-export type { StateCounts, TrendPoint, ContextSpan } from '../../lib/trend-view';
-import type { StateCounts, TrendPoint, ContextSpan } from '../../lib/trend-view';
+export type { StateCounts, TrendPoint, ContextSpan } from '~/lib/trend-view';
+import type { StateCounts, TrendPoint, ContextSpan } from '~/lib/trend-view';
 const zeroCounts = (): StateCounts => ({ steady: 0, unsettled: 0, idle: 0, suspect: 0 });
 
 async function siteOf(siteId: string) {

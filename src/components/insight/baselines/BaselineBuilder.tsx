@@ -1,6 +1,6 @@
 import { useEffect, useState } from 'react';
-import { StateMark } from '../../StateMark';
-import { Notice, call, messageOf, type Message } from '../../plant/common';
+import { StateMark } from '~/components/StateMark';
+import { Notice, call, messageOf, type Message } from '~/components/plant/common';
 import BaselineDetail from './BaselineDetail';
 import DriftSettingsForm from './DriftSettingsForm';
 import { BASELINE_LOOK, dayEndIso, dayOf, dayStartIso, pct } from './looks';

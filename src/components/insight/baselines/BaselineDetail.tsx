@@ -1,7 +1,7 @@
 import { useEffect, useState } from 'react';
 import { CartesianGrid, ComposedChart, Legend, Line, ResponsiveContainer, Scatter, Tooltip, XAxis, YAxis } from 'recharts';
-import { StateMark } from '../../StateMark';
-import { Notice, call, messageOf, type Message } from '../../plant/common';
+import { StateMark } from '~/components/StateMark';
+import { Notice, call, messageOf, type Message } from '~/components/plant/common';
 import { BASELINE_LOOK, CHECK_LOOK, at, dayOf, kW, pct, sig } from './looks';
 import { TERM_LABELS, type BaselineSummary, type FitView, type ModelSummary } from './types';
 

@@ -1,6 +1,6 @@
 import { TZDate } from '@date-fns/tz';
 import { format } from 'date-fns';
-import type { MarkShape } from '../../StateMark';
+import type { MarkShape } from '~/components/StateMark';
 
 /** Baseline statuses in words and shapes; colour is only a third cue. */
 export const BASELINE_LOOK: Record<string, { label: string; shape: MarkShape; className: string }> = {

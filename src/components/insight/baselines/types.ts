@@ -1,8 +1,8 @@
 /** The shapes the baselines API answers with (src/server/services/baselines.ts), for the islands. */
-import type { BaselineTerm } from '../../../lib/analytics/baseline';
+import type { BaselineTerm } from '~/lib/analytics/baseline';
 export type { BaselineTerm };
 
-export type { BaselineSummary, ModelSummary } from '../../../lib/baseline-view';
+export type { BaselineSummary, ModelSummary } from '~/lib/baseline-view';
 
 export interface FitView {
   points: { hourStart: string; load: number; T0_K: number; efficiency: number | null; destruction_W: number; expectedEfficiency: number | null; expectedDestruction_W: number }[];

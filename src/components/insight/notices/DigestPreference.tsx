@@ -1,5 +1,5 @@
 import { useEffect, useState } from 'react';
-import { Notice, call, messageOf, type Message } from '../../plant/common';
+import { Notice, call, messageOf, type Message } from '~/components/plant/common';
 
 /** The signed-in person's opt-in to the daily digest of notices not yet closed. */
 export default function DigestPreference() {

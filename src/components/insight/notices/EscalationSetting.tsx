@@ -1,5 +1,5 @@
 import { useEffect, useState } from 'react';
-import { Notice, call, messageOf, type Message } from '../../plant/common';
+import { Notice, call, messageOf, type Message } from '~/components/plant/common';
 
 interface Settings {
   siteId: string;

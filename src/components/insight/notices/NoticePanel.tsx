@@ -1,6 +1,6 @@
 import { useState } from 'react';
-import { StateMark } from '../../StateMark';
-import { Notice as Message, call, messageOf, type Message as Msg } from '../../plant/common';
+import { StateMark } from '~/components/StateMark';
+import { Notice as Message, call, messageOf, type Message as Msg } from '~/components/plant/common';
 import { at, dayOf } from '../baselines/looks';
 import { NoticeChart } from './NoticeChart';
 import {
@@ -16,7 +16,7 @@ import {
   type NoticeChartEvent,
   type NoticeChartPoint,
 } from './looks';
-import type { CloseOutcome } from '../../../lib/notice-view';
+import type { CloseOutcome } from '~/lib/notice-view';
 import RuleNoticeSummary from './RuleNoticeSummary';
 
 function Figure({ label, value, unit, sub, testId }: { label: string; value: string; unit?: string; sub?: string; testId?: string }) {

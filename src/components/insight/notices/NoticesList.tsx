@@ -1,6 +1,6 @@
 import { useEffect, useMemo, useState } from 'react';
-import { StateMark } from '../../StateMark';
-import { Notice as Message, call, messageOf, type Message as Msg } from '../../plant/common';
+import { StateMark } from '~/components/StateMark';
+import { Notice as Message, call, messageOf, type Message as Msg } from '~/components/plant/common';
 import { at } from '../baselines/looks';
 import { LIFE_LOOK, NOTICE_LOOK, TREND_LOOK, money, plusMinusKW, signedKW, type Notice } from './looks';
 

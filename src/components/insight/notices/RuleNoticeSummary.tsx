@@ -1,4 +1,4 @@
-import { StateMark } from '../../StateMark';
+import { StateMark } from '~/components/StateMark';
 import { at } from '../baselines/looks';
 import { NOTICE_LOOK, money, type Notice } from './looks';
 

@@ -1,5 +1,5 @@
-import type { MarkShape } from '../../StateMark';
-import type { CloseOutcome, NoticeLife, NoticeTrend, PriorReason } from '../../../lib/notice-view';
+import type { MarkShape } from '~/components/StateMark';
+import type { CloseOutcome, NoticeLife, NoticeTrend, PriorReason } from '~/lib/notice-view';
 
 /** Notice statuses in Lossline's words and shapes; colour is only a third cue. */
 export const NOTICE_LOOK: Record<string, { label: string; shape: MarkShape; className: string }> = {
@@ -38,7 +38,7 @@ export const PRIOR_WORDS: Record<PriorReason, string> = {
 };
 
 /** The notice as the API answers it. */
-export type { NoticeView as Notice, NoticeChartEvent, NoticeChartPoint } from '../../../lib/notice-view';
+export type { NoticeView as Notice, NoticeChartEvent, NoticeChartPoint } from '~/lib/notice-view';
 
 export interface SeriesPoint {
   hourStart: string;

@@ -1,5 +1,5 @@
 import { useEffect, useState } from 'react';
-import { StateMark, type MarkShape } from '../../StateMark';
+import { StateMark, type MarkShape } from '~/components/StateMark';
 import type { HourState } from './format';
 
 /** Hour states in Lossline's look: a text label, a shape and a colour (never the colour alone). */

@@ -1,5 +1,5 @@
 import type { APIRoute } from 'astro';
-import { authHandler } from '../../../server/auth';
+import { authHandler } from '~/server/auth';
 
 let warned = false;
 

@@ -1,9 +1,9 @@
-import { visibleToCaller } from '../../../server/access';
+import { visibleToCaller } from '~/server/access';
 import type { APIRoute } from 'astro';
 import { z } from 'zod';
-import { apiError } from '../../../server/errors';
-import { answer } from '../../../server/http';
-import { listNotices } from '../../../server/services/notices';
+import { apiError } from '~/server/errors';
+import { answer } from '~/server/http';
+import { listNotices } from '~/server/services/notices';
 
 const Query = z.object({
   status: z.enum(['open', 'acknowledged', 'closed', 'not-closed', 'all']).optional(),

@@ -1,8 +1,8 @@
 import type { APIRoute } from 'astro';
-import { apiError } from '../../../server/errors';
-import { answer } from '../../../server/http';
-import { NoticeSettingsInput, noticeSettingsFor, setNoticeSettings } from '../../../server/services/notices';
-import { parseBody } from '../../../server/services/plant-http';
+import { apiError } from '~/server/errors';
+import { answer } from '~/server/http';
+import { NoticeSettingsInput, noticeSettingsFor, setNoticeSettings } from '~/server/services/notices';
+import { parseBody } from '~/server/services/plant-http';
 
 /** A site's notice settings (?siteId=): the multiple of cost per day that sends an escalation mail. */
 export const GET: APIRoute = async ({ url }) => {

@@ -1,6 +1,6 @@
 import type { APIRoute } from 'astro';
-import { SiteInput, deleteSite, siteOverview, updateSite } from '../../../server/services/plant';
-import { parseBody, plantErrorResponse } from '../../../server/services/plant-http';
+import { SiteInput, deleteSite, siteOverview, updateSite } from '~/server/services/plant';
+import { parseBody, plantErrorResponse } from '~/server/services/plant-http';
 
 /** The site with its units, ports, current links and each unit's completeness. */
 export const GET: APIRoute = async ({ params }) => {

@@ -1,7 +1,7 @@
 import type { APIRoute } from 'astro';
-import { apiError } from '../../../server/errors';
-import { createSiteFromModel } from '../../../server/services/plant-model';
-import { plantErrorResponse } from '../../../server/services/plant-http';
+import { apiError } from '~/server/errors';
+import { createSiteFromModel } from '~/server/services/plant-model';
+import { plantErrorResponse } from '~/server/services/plant-http';
 
 /** Creates a new site from a plant model file (docs/plant-model.md); all or nothing. */
 export const POST: APIRoute = async ({ request }) => {

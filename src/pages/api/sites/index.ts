@@ -1,7 +1,7 @@
-import { visibleToCaller } from '../../../server/access';
+import { visibleToCaller } from '~/server/access';
 import type { APIRoute } from 'astro';
-import { SiteInput, createSite, listSites } from '../../../server/services/plant';
-import { parseBody, plantErrorResponse } from '../../../server/services/plant-http';
+import { SiteInput, createSite, listSites } from '~/server/services/plant';
+import { parseBody, plantErrorResponse } from '~/server/services/plant-http';
 
 export const GET: APIRoute = async ({ locals }) => Response.json({ sites: visibleToCaller(locals, await listSites()) });
 

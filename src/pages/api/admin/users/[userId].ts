@@ -1,6 +1,6 @@
 import type { APIRoute } from 'astro';
-import { apiError } from '../../../../server/errors';
-import { UpdateUserInput, UserRuleError, updateUser } from '../../../../server/services/users';
+import { apiError } from '~/server/errors';
+import { UpdateUserInput, UserRuleError, updateUser } from '~/server/services/users';
 
 export const PATCH: APIRoute = async ({ request, params, locals }) => {
   const parsed = UpdateUserInput.safeParse(await request.json().catch(() => null));

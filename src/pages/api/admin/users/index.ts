@@ -1,6 +1,6 @@
 import type { APIRoute } from 'astro';
-import { apiError } from '../../../../server/errors';
-import { InviteInput, UserRuleError, inviteUser, listUsers } from '../../../../server/services/users';
+import { apiError } from '~/server/errors';
+import { InviteInput, UserRuleError, inviteUser, listUsers } from '~/server/services/users';
 
 export const GET: APIRoute = async () => Response.json({ users: await listUsers() });
 

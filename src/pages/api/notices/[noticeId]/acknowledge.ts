@@ -1,7 +1,7 @@
 import type { APIRoute } from 'astro';
-import { answer } from '../../../../server/http';
-import { AcknowledgeInput, acknowledgeNotice } from '../../../../server/services/notices';
-import { parseBody } from '../../../../server/services/plant-http';
+import { answer } from '~/server/http';
+import { AcknowledgeInput, acknowledgeNotice } from '~/server/services/notices';
+import { parseBody } from '~/server/services/plant-http';
 
 /** Marks an open notice as seen (with an optional comment). */
 export const POST: APIRoute = async ({ params, request, locals }) => {

@@ -1,7 +1,7 @@
 import type { APIRoute } from 'astro';
-import { answer } from '../../../../server/http';
-import { CloseInput, closeNotice } from '../../../../server/services/notices';
-import { parseBody } from '../../../../server/services/plant-http';
+import { answer } from '~/server/http';
+import { CloseInput, closeNotice } from '~/server/services/notices';
+import { parseBody } from '~/server/services/plant-http';
 
 /**
  * Closes an open or seen notice; the comment (what was found or done) is required. Optional: outcome

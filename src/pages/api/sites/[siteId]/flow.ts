@@ -1,8 +1,8 @@
 import type { APIRoute } from 'astro';
-import { apiError } from '../../../../server/errors';
-import { answer } from '../../../../server/http';
-import { siteFlow } from '../../../../server/services/views';
-import { PeriodQuery, periodParams } from '../../../../server/services/views-period';
+import { apiError } from '~/server/errors';
+import { answer } from '~/server/http';
+import { siteFlow } from '~/server/services/views';
+import { PeriodQuery, periodParams } from '~/server/services/views-period';
 
 /** The site's exergy flow over a period: sources into units, out as product, loss and destruction. */
 export const GET: APIRoute = ({ params, url }) =>

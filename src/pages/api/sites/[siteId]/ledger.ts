@@ -1,8 +1,8 @@
 import type { APIRoute } from 'astro';
-import { apiError } from '../../../../server/errors';
-import { answer } from '../../../../server/http';
-import { siteLedger } from '../../../../server/services/views';
-import { PeriodQuery, periodParams } from '../../../../server/services/views-period';
+import { apiError } from '~/server/errors';
+import { answer } from '~/server/http';
+import { siteLedger } from '~/server/services/views';
+import { PeriodQuery, periodParams } from '~/server/services/views-period';
 
 /** The loss ledger: a site's units ranked by the cost of their destruction over a period. */
 export const GET: APIRoute = ({ params, url }) =>

@@ -1,6 +1,6 @@
 import type { APIRoute } from 'astro';
-import { apiError } from '../../../../server/errors';
-import { isId, siteTags, unlinkedTags } from '../../../../server/services/plant';
+import { apiError } from '~/server/errors';
+import { isId, siteTags, unlinkedTags } from '~/server/services/plant';
 
 /** Tags of the site: ?unlinked=1 for those without a current link; ?q= searches name and description. */
 export const GET: APIRoute = async ({ params, url }) => {

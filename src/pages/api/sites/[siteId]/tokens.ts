@@ -1,8 +1,8 @@
 import type { APIRoute } from 'astro';
-import { apiError } from '../../../../server/errors';
-import { answer, jsonBody } from '../../../../server/http';
-import { NewTokenInput, listTokens } from '../../../../server/services/tokens';
-import { issueApiToken } from '../../../../server/tokens';
+import { apiError } from '~/server/errors';
+import { answer, jsonBody } from '~/server/http';
+import { NewTokenInput, listTokens } from '~/server/services/tokens';
+import { issueApiToken } from '~/server/tokens';
 
 export const GET: APIRoute = ({ params }) => answer(async () => Response.json({ tokens: await listTokens(params.siteId!) }));
 

@@ -1,7 +1,7 @@
 import type { APIRoute } from 'astro';
-import { apiError } from '../../../../server/errors';
-import { answer, jsonBody } from '../../../../server/http';
-import { NewUploadInput, createBrowserUpload, listUploads } from '../../../../server/services/uploads';
+import { apiError } from '~/server/errors';
+import { answer, jsonBody } from '~/server/http';
+import { NewUploadInput, createBrowserUpload, listUploads } from '~/server/services/uploads';
 
 export const GET: APIRoute = ({ params }) => answer(async () => Response.json({ uploads: await listUploads(params.siteId!) }));
 

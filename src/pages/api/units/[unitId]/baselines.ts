@@ -1,7 +1,7 @@
 import type { APIRoute } from 'astro';
-import { answer } from '../../../../server/http';
-import { FitInput, fitDraft, unitBaselines, unitHourSpan } from '../../../../server/services/baselines';
-import { parseBody } from '../../../../server/services/plant-http';
+import { answer } from '~/server/http';
+import { FitInput, fitDraft, unitBaselines, unitHourSpan } from '~/server/services/baselines';
+import { parseBody } from '~/server/services/plant-http';
 
 /** A unit's baseline versions (newest first) and the span of its hours, for the builder. */
 export const GET: APIRoute = async ({ params }) =>

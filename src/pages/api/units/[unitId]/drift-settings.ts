@@ -1,7 +1,7 @@
 import type { APIRoute } from 'astro';
-import { answer } from '../../../../server/http';
-import { DriftSettingsInput, driftSettingsFor, setDriftSettings } from '../../../../server/services/drift';
-import { parseBody } from '../../../../server/services/plant-http';
+import { answer } from '~/server/http';
+import { DriftSettingsInput, driftSettingsFor, setDriftSettings } from '~/server/services/drift';
+import { parseBody } from '~/server/services/plant-http';
 
 /** The unit's CUSUM k and h (in spreads of the CUSUM input, the standardised innovations of the residuals). */
 export const GET: APIRoute = async ({ params }) => answer(async () => Response.json({ settings: await driftSettingsFor(params.unitId!) }));

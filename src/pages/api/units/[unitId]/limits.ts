@@ -1,7 +1,7 @@
 import type { APIRoute } from 'astro';
-import { answer } from '../../../../server/http';
-import { parseBody } from '../../../../server/services/plant-http';
-import { UnitLimitsInput, setUnitLimits, unitLimitsFor } from '../../../../server/services/unit-rules';
+import { answer } from '~/server/http';
+import { parseBody } from '~/server/services/plant-http';
+import { UnitLimitsInput, setUnitLimits, unitLimitsFor } from '~/server/services/unit-rules';
 
 /** The unit's limits (cost of destruction per day, exergy efficiency) and the hours that open a limit notice. */
 export const GET: APIRoute = async ({ params }) => answer(async () => Response.json({ limits: await unitLimitsFor(params.unitId!) }));

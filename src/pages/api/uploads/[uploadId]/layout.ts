@@ -1,9 +1,9 @@
 import type { APIRoute } from 'astro';
 import { z } from 'zod';
-import { LayoutProfileSchema } from '../../../../lib/ingest/profile';
-import { apiError } from '../../../../server/errors';
-import { answer, jsonBody } from '../../../../server/http';
-import { confirmLayout } from '../../../../server/services/uploads';
+import { LayoutProfileSchema } from '~/lib/ingest/profile';
+import { apiError } from '~/server/errors';
+import { answer, jsonBody } from '~/server/http';
+import { confirmLayout } from '~/server/services/uploads';
 
 const Body = z.object({ name: z.string().trim().min(1).max(120), profile: LayoutProfileSchema });
 

@@ -1,6 +1,6 @@
 import type { APIRoute } from 'astro';
-import { answer } from '../../../../server/http';
-import { getUploadRow, rejectsCsv } from '../../../../server/services/uploads';
+import { answer } from '~/server/http';
+import { getUploadRow, rejectsCsv } from '~/server/services/uploads';
 
 export const GET: APIRoute = ({ params }) =>
   answer(async () => {

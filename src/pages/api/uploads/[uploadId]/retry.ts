@@ -1,6 +1,6 @@
 import type { APIRoute } from 'astro';
-import { answer } from '../../../../server/http';
-import { retryUpload } from '../../../../server/services/uploads';
+import { answer } from '~/server/http';
+import { retryUpload } from '~/server/services/uploads';
 
 export const POST: APIRoute = ({ params }) =>
   answer(async () => {

@@ -1,6 +1,6 @@
 import type { APIRoute } from 'astro';
-import { answer, siteAllowed, tokenForOtherSite } from '../../../../server/http';
-import { getUploadRow, uploadView } from '../../../../server/services/uploads';
+import { answer, siteAllowed, tokenForOtherSite } from '~/server/http';
+import { getUploadRow, uploadView } from '~/server/services/uploads';
 
 export const GET: APIRoute = ({ params, locals }) =>
   answer(async () => {

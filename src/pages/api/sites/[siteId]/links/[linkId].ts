@@ -1,7 +1,7 @@
 import type { APIRoute } from 'astro';
-import { apiError } from '../../../../../server/errors';
-import { endLink } from '../../../../../server/services/plant-links';
-import { plantErrorResponse } from '../../../../../server/services/plant-http';
+import { apiError } from '~/server/errors';
+import { endLink } from '~/server/services/plant-links';
+import { plantErrorResponse } from '~/server/services/plant-http';
 
 /** Ends a link at ?at= (default now): the tag no longer measures this quantity from then on. */
 export const DELETE: APIRoute = async ({ params, url }) => {

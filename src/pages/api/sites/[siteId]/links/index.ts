@@ -1,8 +1,8 @@
 import type { APIRoute } from 'astro';
-import { apiError } from '../../../../../server/errors';
-import { LinkInput, linksForRange, linksValidAt, setLink } from '../../../../../server/services/plant-links';
-import { parseBody, plantErrorResponse } from '../../../../../server/services/plant-http';
-import { isId } from '../../../../../server/services/plant';
+import { apiError } from '~/server/errors';
+import { LinkInput, linksForRange, linksValidAt, setLink } from '~/server/services/plant-links';
+import { parseBody, plantErrorResponse } from '~/server/services/plant-http';
+import { isId } from '~/server/services/plant';
 
 /** Links holding at ?at= (default now), or every version overlapping ?from=&to=. */
 export const GET: APIRoute = async ({ params, url }) => {

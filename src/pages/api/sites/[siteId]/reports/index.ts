@@ -1,6 +1,6 @@
 import type { APIRoute } from 'astro';
-import { answer } from '../../../../../server/http';
-import { reportMonths } from '../../../../../server/services/report';
+import { answer } from '~/server/http';
+import { reportMonths } from '~/server/services/report';
 
 /** Months of the site's calendar that have unit hours, newest first, with the report links. */
 export const GET: APIRoute = ({ params }) =>

@@ -1,7 +1,7 @@
 import type { APIRoute } from 'astro';
-import { UnitUpdateInput, deleteUnit, unitDetail, updateUnit } from '../../../../../server/services/plant';
-import { linkHistory } from '../../../../../server/services/plant-links';
-import { parseBody, plantErrorResponse } from '../../../../../server/services/plant-http';
+import { UnitUpdateInput, deleteUnit, unitDetail, updateUnit } from '~/server/services/plant';
+import { linkHistory } from '~/server/services/plant-links';
+import { parseBody, plantErrorResponse } from '~/server/services/plant-http';
 
 /** The unit with ports, current links, status and the history of its link versions. */
 export const GET: APIRoute = async ({ params }) => {

@@ -1,6 +1,6 @@
 import type { APIRoute } from 'astro';
-import { UnitCreateInput, createUnit, siteOverview } from '../../../../../server/services/plant';
-import { parseBody, plantErrorResponse } from '../../../../../server/services/plant-http';
+import { UnitCreateInput, createUnit, siteOverview } from '~/server/services/plant';
+import { parseBody, plantErrorResponse } from '~/server/services/plant-http';
 
 export const GET: APIRoute = async ({ params }) => {
   try {

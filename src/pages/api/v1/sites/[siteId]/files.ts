@@ -1,9 +1,9 @@
 import { Readable } from 'node:stream';
 import type { ReadableStream as WebReadableStream } from 'node:stream/web';
 import type { APIRoute } from 'astro';
-import { apiError } from '../../../../../server/errors';
-import { answer, siteAllowed, tokenForOtherSite } from '../../../../../server/http';
-import { receiveApiUpload } from '../../../../../server/services/uploads';
+import { apiError } from '~/server/errors';
+import { answer, siteAllowed, tokenForOtherSite } from '~/server/http';
+import { receiveApiUpload } from '~/server/services/uploads';
 
 /**
  * A scheduled export posts its file as the request body (Authorization: Bearer <site token>).

@@ -1,7 +1,7 @@
 import type { APIRoute } from 'astro';
-import { apiError } from '../../../../../server/errors';
-import { exportModel, importModel } from '../../../../../server/services/plant-model';
-import { plantErrorResponse, tokenSiteMismatch } from '../../../../../server/services/plant-http';
+import { apiError } from '~/server/errors';
+import { exportModel, importModel } from '~/server/services/plant-model';
+import { plantErrorResponse, tokenSiteMismatch } from '~/server/services/plant-http';
 
 /** The site's plant model file (docs/plant-model.md). */
 export const GET: APIRoute = async ({ params, locals }) => {

@@ -1,8 +1,8 @@
 import type { APIRoute } from 'astro';
 import { z } from 'zod';
-import { apiError } from '../../../../../server/errors';
-import { answer, siteAllowed, tokenForOtherSite } from '../../../../../server/http';
-import { tagHoursOf } from '../../../../../server/services/tag-hours';
+import { apiError } from '~/server/errors';
+import { answer, siteAllowed, tokenForOtherSite } from '~/server/http';
+import { tagHoursOf } from '~/server/services/tag-hours';
 
 const Query = z.object({
   tag: z.string().min(1, 'Name the tag: ?tag=NAME'),

@@ -1,7 +1,7 @@
 import type { APIRoute } from 'astro';
-import { answer } from '../../../../../../server/http';
-import { reportData, reportFileName } from '../../../../../../server/services/report';
-import { reportCsvLines } from '../../../../../../server/services/report-csv';
+import { answer } from '~/server/http';
+import { reportData, reportFileName } from '~/server/services/report';
+import { reportCsvLines } from '~/server/services/report-csv';
 
 /** The monthly site report as CSV (UTF-8 with a byte-order mark, CRLF), streamed line by line. */
 export const GET: APIRoute = ({ params }) =>

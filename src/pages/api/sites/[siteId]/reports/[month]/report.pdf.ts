@@ -1,8 +1,8 @@
 import { Readable } from 'node:stream';
 import type { APIRoute } from 'astro';
-import { answer } from '../../../../../../server/http';
-import { reportData, reportFileName } from '../../../../../../server/services/report';
-import { reportPdf } from '../../../../../../server/services/report-pdf';
+import { answer } from '~/server/http';
+import { reportData, reportFileName } from '~/server/services/report';
+import { reportPdf } from '~/server/services/report-pdf';
 
 /** The monthly site report as PDF, streamed as pdfkit writes it. */
 export const GET: APIRoute = ({ params }) =>

@@ -1,6 +1,6 @@
 import type { APIRoute } from 'astro';
-import { answer, siteAllowed, tokenForOtherSite } from '../../../../../../server/http';
-import { unitHeader, unitHourDetail } from '../../../../../../server/services/engine-results';
+import { answer, siteAllowed, tokenForOtherSite } from '~/server/http';
+import { unitHeader, unitHourDetail } from '~/server/services/engine-results';
 
 /**
  * One unit hour opened up: its stored figures and the audit trail (detail), rebuilt on demand from the

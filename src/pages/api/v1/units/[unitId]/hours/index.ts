@@ -1,8 +1,8 @@
 import type { APIRoute } from 'astro';
 import { z } from 'zod';
-import { apiError } from '../../../../../../server/errors';
-import { answer, siteAllowed, tokenForOtherSite } from '../../../../../../server/http';
-import { unitHeader, unitHoursCsv, unitHoursOf } from '../../../../../../server/services/engine-results';
+import { apiError } from '~/server/errors';
+import { answer, siteAllowed, tokenForOtherSite } from '~/server/http';
+import { unitHeader, unitHoursCsv, unitHoursOf } from '~/server/services/engine-results';
 
 const Query = z.object({
   from: z.iso.datetime({ offset: true }),

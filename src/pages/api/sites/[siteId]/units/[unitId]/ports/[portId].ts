@@ -1,6 +1,6 @@
 import type { APIRoute } from 'astro';
-import { PortUpdateInput, deletePort, updatePort } from '../../../../../../../server/services/plant';
-import { parseBody, plantErrorResponse } from '../../../../../../../server/services/plant-http';
+import { PortUpdateInput, deletePort, updatePort } from '~/server/services/plant';
+import { parseBody, plantErrorResponse } from '~/server/services/plant-http';
 
 export const PATCH: APIRoute = async ({ params, request }) => {
   const body = await parseBody(request, PortUpdateInput);

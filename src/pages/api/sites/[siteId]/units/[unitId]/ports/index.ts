@@ -1,6 +1,6 @@
 import type { APIRoute } from 'astro';
-import { PortInput, createPort } from '../../../../../../../server/services/plant';
-import { parseBody, plantErrorResponse } from '../../../../../../../server/services/plant-http';
+import { PortInput, createPort } from '~/server/services/plant';
+import { parseBody, plantErrorResponse } from '~/server/services/plant-http';
 
 export const POST: APIRoute = async ({ params, request }) => {
   const body = await parseBody(request, PortInput);
