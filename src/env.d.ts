@@ -8,5 +8,7 @@ declare namespace App {
     apiToken: { id: string; siteId: string; role: import('./lib/roles').Role } | null;
     /** The sites the signed-in person may use: 'all', or a list (src/server/access.ts). */
     sites: import('./server/access').SiteScope;
+    /** Why a page was refused (403): shown by src/pages/403.astro inside the app's frame. */
+    denied?: string;
   }
 }

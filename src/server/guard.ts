@@ -15,6 +15,9 @@ interface GuardContext {
   redirect: (path: string, status?: 301 | 302 | 303 | 307 | 308) => Response;
 }
 
+/** The rest of the request's handling; a path instead renders that page in place (a rewrite). */
+type GuardNext = (rewrite?: string) => Promise<Response>;
+
 const UNSAFE = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
 
 /** Browsers upload files straight to the object store (presigned URLs): pages may connect there. */
@@ -71,7 +74,7 @@ function unexpected(err: unknown, isApi: boolean, method: string, path: string):
  * site the caller may not use, or a change from another origin. Pages: anonymous people go to the
  * sign-in page; a wrong role or site sees 403. Every answer carries the security headers.
  */
-export async function guard(ctx: GuardContext, next: () => Promise<Response>): Promise<Response> {
+export async function guard(ctx: GuardContext, next: GuardNext): Promise<Response> {
   ctx.locals.user = null;
   ctx.locals.session = null;
   ctx.locals.apiToken = null;
@@ -89,7 +92,7 @@ export async function guard(ctx: GuardContext, next: () => Promise<Response>): P
   }
 }
 
-async function decideAndRun(ctx: GuardContext, next: () => Promise<Response>, isApi: boolean): Promise<Response> {
+async function decideAndRun(ctx: GuardContext, next: GuardNext, isApi: boolean): Promise<Response> {
   const path = ctx.url.pathname;
   const method = ctx.request.method.toUpperCase();
   if (isApi && path.startsWith('/api/auth/')) return next(); // better-auth checks origins itself
@@ -142,14 +145,20 @@ async function decideAndRun(ctx: GuardContext, next: () => Promise<Response>, is
   const admit = pagePolicyFor(path);
   const verdict = decide(admit, ctx.locals.user?.role ?? null);
   if (verdict === 401) return ctx.redirect(`/sign-in?next=${encodeURIComponent(path + ctx.url.search)}`, 302);
-  if (verdict === 403) return plain(403, 'This page is not open to your role. Ask an admin if you need it.');
+  if (verdict === 403) return refusePage(ctx, next, 'This page is not open to your role. Ask an admin if you need it.');
   if (UNSAFE.has(method) && !fromOwnOrigin(ctx.request)) return plain(403, 'This form was sent from another site; Lossline takes forms only from its own pages.');
   const bound = pageSiteParam(path);
   if (bound && ctx.locals.user) {
     const siteId = await siteOfParam(bound.name, bound.value);
-    if (siteId && !canUseSite(ctx.locals, siteId)) return plain(403, 'This belongs to a site you have no access to. Ask an admin to add it to your sites.');
+    if (siteId && !canUseSite(ctx.locals, siteId)) return refusePage(ctx, next, 'This belongs to a site you have no access to. Ask an admin to add it to your sites.');
   }
   return next();
+}
+
+/** A refused page is drawn inside the app's frame with the way back (src/pages/403.astro), status 403. */
+function refusePage(ctx: GuardContext, next: GuardNext, reason: string) {
+  ctx.locals.denied = reason;
+  return next('/403');
 }
 
 function plain(status: number, text: string): Response {

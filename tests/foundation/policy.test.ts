@@ -9,6 +9,17 @@ import { guard } from '~/server/guard';
 import { API_POLICY, admitFor, apiPolicyFor, decide, pagePolicyFor } from '~/server/policy';
 import { describeIntegration } from '../support/integration';
 
+/**
+ * What the rest of the request answers in these tests: 299 when the guard lets it through, and for a
+ * refused page the status the in-frame refusal page (src/pages/403.astro) sets when the guard
+ * rewrites to it.
+ */
+async function pageOrRefusal(rewrite?: string): Promise<Response> {
+  if (rewrite === '/403') return new Response('refused in the frame', { status: 403 });
+  if (rewrite) throw new Error(`unexpected rewrite to ${rewrite}`);
+  return new Response('reached', { status: 299 });
+}
+
 const API_DIR = 'src/pages/api';
 const METHODS = ['GET', 'POST', 'PUT', 'PATCH', 'DELETE'] as const;
 
@@ -82,7 +93,7 @@ describeIntegration('the guard, with real sessions', () => {
   async function callAs(role: Role | null, method: string, path: string): Promise<number> {
     return (await rawCall(role, method, path)).status;
   }
-  async function rawCall(role: Role | null, method: string, path: string, extra: Record<string, string> = {}, reached = async () => new Response('reached', { status: 299 })): Promise<Response> {
+  async function rawCall(role: Role | null, method: string, path: string, extra: Record<string, string> = {}, reached = pageOrRefusal): Promise<Response> {
     const url = new URL(path, process.env.PUBLIC_BASE_URL ?? 'http://127.0.0.1:4331');
     const headers = new Headers(extra);
     if (role) headers.set('cookie', cookies[role]!);
@@ -282,7 +293,7 @@ describeIntegration('access by site: every site-bound endpoint with every role, 
     const locals = {} as App.Locals;
     const res = await guard(
       { request: new Request(url, { method, headers }), url, locals, redirect: (p, s) => new Response(null, { status: s ?? 302, headers: { location: p } }) },
-      async () => new Response('reached', { status: 299 }),
+      pageOrRefusal,
     );
     return { status: res.status, locals };
   }
