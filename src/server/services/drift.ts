@@ -20,7 +20,8 @@ import { DRIFT_CHECK_DEFAULTS, cusumInit, cusumStep, type CusumState, type Drift
 import { baselines, driftNotices, driftPoints, driftSettings, plantUnits, unitHours } from '../db/schema';
 import { queue } from '../queue';
 import { db } from '../db/client';
-import { InsightError, isUuid } from './baselines';
+import { isId } from '../access';
+import { AppError } from '../errors';
 import { inInsightTx, type Tx } from './drift-tx';
 import { reconcileNotices } from './notice-life';
 
@@ -43,9 +44,9 @@ export const DriftSettingsInput = z.strictObject({
 
 /** A unit's CUSUM settings (the defaults when nobody changed them). */
 export async function driftSettingsFor(unitId: string, r: Pick<Tx, 'select'> = db()) {
-  if (!isUuid(unitId)) throw new InsightError('NOT_FOUND', 'No such unit.');
+  if (!isId(unitId)) throw new AppError('NOT_FOUND', 'No such unit.');
   const [u] = await r.select({ id: plantUnits.id }).from(plantUnits).where(eq(plantUnits.id, unitId));
-  if (!u) throw new InsightError('NOT_FOUND', 'No such unit.');
+  if (!u) throw new AppError('NOT_FOUND', 'No such unit.');
   const [s] = await r.select().from(driftSettings).where(eq(driftSettings.unitId, unitId));
   return s ? { k: s.k, h: s.h, isDefault: false, updatedAt: s.updatedAt.toISOString() } : { ...DRIFT_DEFAULTS, isDefault: true, updatedAt: null };
 }

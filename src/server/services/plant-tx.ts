@@ -1,22 +1,10 @@
 import type { z } from 'zod';
 import { ComputeUnitHoursPayload, QUEUES } from '~/jobs';
-import type { ModelIssue } from '~/lib/plant/model';
 import { withTransaction, type Tx } from '../db/tx';
 import { queue } from '../queue';
 
 export type { Tx };
 export type RecomputeRequest = z.infer<typeof ComputeUnitHoursPayload>;
-
-/** A rule of the plant model was broken; code is one of src/server/errors.ts. */
-export class PlantRuleError extends Error {
-  constructor(
-    readonly code: 'NOT_FOUND' | 'CONFLICT' | 'VALIDATION_FAILED' | 'UNPROCESSABLE' | 'FORBIDDEN',
-    message: string,
-    readonly issues?: ModelIssue[],
-  ) {
-    super(message);
-  }
-}
 
 /** One hour [ms]. */
 export const HOUR_ms = 3_600_000;
