@@ -5,7 +5,8 @@ import { z } from 'zod';
 import { UNIT_KINDS, kindSpec } from '~/lib/plant/kinds';
 import { isTimeZone, type EnergyPrice, type SiteModel } from '~/lib/plant/model';
 import { canConvert } from '~/lib/units';
-import { Field, Notice, call, messageOf, readSI, showSI, type Message } from './common';
+import { Field, Notice, readSI, showSI } from './common';
+import { call, messageOf, type Message } from '~/components/api';
 import LinkForm, { type TagJson, type UnitJson } from './LinkForm';
 
 interface Overview {

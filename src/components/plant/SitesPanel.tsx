@@ -3,7 +3,8 @@ import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
 import { isTimeZone } from '~/lib/plant/model';
-import { Field, Notice, call, messageOf, type Message } from './common';
+import { Field, Notice } from './common';
+import { call, messageOf, type Message } from '~/components/api';
 
 export interface SiteSummary {
   id: string;

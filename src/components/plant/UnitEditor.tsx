@@ -4,7 +4,8 @@ import { useForm } from 'react-hook-form';
 import { z } from 'zod';
 import { FLUID_LABELS, LINK_QUANTITIES, kindSpec, type FluidKind, type LinkQuantity, type ParamSpec } from '~/lib/plant/kinds';
 import { FUEL_TYPES, type FuelDefinition, type Fluid } from '~/lib/plant/model';
-import { Field, Notice, call, messageOf, parseComposition, readSI, showComposition, showInstant, showSI, type Message } from './common';
+import { Field, Notice, parseComposition, readSI, showComposition, showInstant, showSI } from './common';
+import { call, messageOf, type Message } from '~/components/api';
 import LinkForm, { targetsOf, type TagJson, type UnitJson } from './LinkForm';
 
 interface LinkRow {

@@ -23,7 +23,7 @@ import {
   type BaselineTerm,
   type Guideline14Check,
 } from '~/lib/analytics/baseline';
-import { QUEUES } from '~/jobs';
+import { QUEUES, sendJob } from '~/jobs';
 import { db } from '../db/client';
 import type { BaselineSummary, ModelSummary } from '~/lib/baseline-view';
 import { baselines, plantUnits, sites, unitHours, user, type BaselineStatus } from '../db/schema';
@@ -345,7 +345,7 @@ export async function acceptBaseline(baselineId: string, userId: string | null):
   });
   // The hours after the reference period are checked against the new baseline right away.
   const boss = await queue();
-  await boss.send(QUEUES.checkDrift, { siteId: b.siteId, fromMs: new Date(b.periodTo).getTime(), toMs: Math.ceil(Date.now() / 3_600_000) * 3_600_000, unitIds: [b.unitId] });
+  await sendJob(boss, QUEUES.checkDrift, { siteId: b.siteId, fromMs: new Date(b.periodTo).getTime(), toMs: Math.ceil(Date.now() / 3_600_000) * 3_600_000, unitIds: [b.unitId] });
   return getBaseline(baselineId);
 }
 

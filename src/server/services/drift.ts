@@ -13,7 +13,7 @@
  */
 import { and, asc, desc, eq, gt, gte, inArray, isNotNull, lt, ne, sql } from 'drizzle-orm';
 import { z } from 'zod';
-import { CheckDriftPayload, QUEUES } from '~/jobs';
+import { CheckDriftPayload, QUEUES, sendJob } from '~/jobs';
 import { predict, type BaselineModel } from '~/lib/analytics/baseline';
 import { ar1Innovation, type Ar1Model } from '~/lib/analytics/autocorrelation';
 import { DRIFT_CHECK_DEFAULTS, cusumInit, cusumStep, type CusumState, type DriftSignal } from '~/lib/analytics/drift';
@@ -66,7 +66,7 @@ export async function setDriftSettings(unitId: string, input: z.infer<typeof Dri
       .onConflictDoUpdate({ target: driftSettings.unitId, set: { k: input.k, h: input.h, updatedBy: userId, updatedAt: new Date() } });
     await tx.delete(driftPoints).where(eq(driftPoints.unitId, unitId));
     const boss = await queue();
-    await boss.send(QUEUES.checkDrift, { siteId: unit!.siteId, fromMs: 0, toMs: Math.ceil(Date.now() / HOUR_ms) * HOUR_ms, unitIds: [unitId] }, { db: { executeSql: exec as never } });
+    await sendJob(boss, QUEUES.checkDrift, { siteId: unit!.siteId, fromMs: 0, toMs: Math.ceil(Date.now() / HOUR_ms) * HOUR_ms, unitIds: [unitId] }, { db: { executeSql: exec as never } });
   });
   return driftSettingsFor(unitId);
 }

@@ -12,7 +12,7 @@ import { format } from 'date-fns';
 import { and, asc, desc, eq, gte, inArray, lt, ne, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import { z } from 'zod';
-import { QUEUES } from '~/jobs';
+import { QUEUES, sendJob } from '~/jobs';
 import { fuelExergyCost_per_J } from '~/lib/analytics/cost';
 import { chartSeries, type ResidualHour } from '~/lib/analytics/notice-figures';
 import type { Role } from '~/lib/roles';
@@ -382,7 +382,8 @@ export async function closeNotice(noticeId: string, userId: string, comment: str
     if (repairedAt) {
       const boss = await queue();
       const hourMs = Math.floor(repairedAt.getTime() / 3_600_000) * 3_600_000;
-      await boss.send(
+      await sendJob(
+        boss,
         QUEUES.checkDrift,
         { siteId: n.siteId, fromMs: hourMs, toMs: Math.ceil(Date.now() / 3_600_000) * 3_600_000, unitIds: [n.unitId] },
         { db: { executeSql: exec as never } },
@@ -427,7 +428,7 @@ export async function queueNoticeMails(tx: Tx, exec: Exec, noticeId: string): Pr
   const sent: string[] = [];
   for (const m of marked) {
     const to = byId.get(m.userId)!;
-    await boss.send(QUEUES.sendMail, noticeMail(view, to), { retryLimit: 3, retryDelay: 30, db: { executeSql: exec as never } });
+    await sendJob(boss, QUEUES.sendMail, noticeMail(view, to), { retryLimit: 3, retryDelay: 30, db: { executeSql: exec as never } });
     sent.push(to);
   }
   return sent;
@@ -454,7 +455,7 @@ export async function queueEscalationMails(tx: Tx, exec: Exec, noticeId: string,
   const sent: string[] = [];
   for (const m of marked) {
     const to = byId.get(m.userId)!;
-    await boss.send(QUEUES.sendMail, escalationMail(view, to, step, fromCost_per_day, toCost_per_day), { retryLimit: 3, retryDelay: 30, db: { executeSql: exec as never } });
+    await sendJob(boss, QUEUES.sendMail, escalationMail(view, to, step, fromCost_per_day, toCost_per_day), { retryLimit: 3, retryDelay: 30, db: { executeSql: exec as never } });
     sent.push(to);
   }
   return sent;
@@ -531,7 +532,7 @@ export async function sendNoticeDigests(now = new Date()): Promise<string[]> {
       const [mark] = await tx.insert(noticeDigests).values({ userId: p.id, day, notices: theirs.length }).onConflictDoNothing().returning({ userId: noticeDigests.userId });
       if (!mark) return false;
       const boss = await queue();
-      await boss.send(QUEUES.sendMail, digestMail(theirs, p.email, day), { retryLimit: 3, retryDelay: 30, db: { executeSql: exec as never } });
+      await sendJob(boss, QUEUES.sendMail, digestMail(theirs, p.email, day), { retryLimit: 3, retryDelay: 30, db: { executeSql: exec as never } });
       return true;
     });
     if (queued) sent.push(p.email);

@@ -1,5 +1,5 @@
 import type { z } from 'zod';
-import { ComputeUnitHoursPayload, QUEUES } from '~/jobs';
+import { ComputeUnitHoursPayload, QUEUES, sendJob } from '~/jobs';
 import { withTransaction, type Tx } from '../db/tx';
 import { queue } from '../queue';
 
@@ -25,7 +25,7 @@ export async function inTransaction<T>(fn: (tx: Tx, recompute: (req: RecomputeRe
     fn(tx, async (req: RecomputeRequest) => {
       const payload = ComputeUnitHoursPayload.parse(req);
       if (payload.toMs <= payload.fromMs) return;
-      await boss.send(QUEUES.computeUnitHours, payload, { db: { executeSql: (text, values) => exec(text, values) } });
+      await sendJob(boss, QUEUES.computeUnitHours, payload, { db: { executeSql: (text, values) => exec(text, values) } });
     }),
   );
 }

@@ -13,7 +13,7 @@
  */
 import { and, asc, eq, gte, inArray, isNotNull, lt, max, ne, or, sql } from 'drizzle-orm';
 import { z } from 'zod';
-import { CheckUnitRulesPayload, QUEUES } from '~/jobs';
+import { CheckUnitRulesPayload, QUEUES, sendJob } from '~/jobs';
 import { idleRuns, limitRuns, limitText, type CrossedLimit, type RuleHour, type RuleRun, type UnitLimits } from '~/lib/analytics/unit-rules';
 import { DEFAULT_RULE_HOURS, MAX_RULE_HOURS, normallyIdleText, type NormallyIdle } from '~/lib/plant/idle';
 import { db } from '../db/client';
@@ -75,7 +75,7 @@ export async function setUnitLimits(unitId: string, input: z.input<typeof UnitLi
 export async function queueUnitRuleCheck(siteId: string, unitIds?: string[], exec?: Exec): Promise<void> {
   const boss = await queue();
   const payload = CheckUnitRulesPayload.parse({ siteId, fromMs: 0, toMs: Math.ceil(Date.now() / HOUR_ms) * HOUR_ms, ...(unitIds ? { unitIds } : {}) });
-  await boss.send(QUEUES.checkUnitRules, payload, exec ? { db: { executeSql: exec as never } } : { retryLimit: 2, retryDelay: 10 });
+  await sendJob(boss, QUEUES.checkUnitRules, payload, exec ? { db: { executeSql: exec as never } } : { retryLimit: 2, retryDelay: 10 });
 }
 
 // ---- the check ----------------------------------------------------------------------------------------

@@ -4,7 +4,7 @@ import { Upload } from '@aws-sdk/lib-storage';
 import { and, desc, eq, inArray, ne, sql } from 'drizzle-orm';
 import { INGEST_ERROR_CATALOGUE } from '~/lib/ingest/errors';
 import { z } from 'zod';
-import { QUEUES } from '~/jobs';
+import { QUEUES, sendJob } from '~/jobs';
 import { db } from '../db/client';
 import { AppError } from '../errors';
 import { layoutProfiles, sites, uploadRejects, uploads, type UploadStatus } from '../db/schema';
@@ -86,7 +86,7 @@ export async function findDuplicate(siteId: string, sha256: string, exceptId?: s
 
 export async function queueIngest(uploadId: string): Promise<void> {
   const boss = await queue();
-  await boss.send(QUEUES.ingestFile, { uploadId }, { singletonKey: uploadId, retryLimit: 2, retryDelay: 5, expireInSeconds: 60 * 60 * 2 });
+  await sendJob(boss, QUEUES.ingestFile, { uploadId }, { singletonKey: uploadId, retryLimit: 2, retryDelay: 5, expireInSeconds: 60 * 60 * 2 });
 }
 
 /** Marks an upload failed for a reason in the file (its code from the catalogue); the raw file stays. */
