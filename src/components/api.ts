@@ -41,9 +41,16 @@ export async function call<T = any>(url: string, method = 'GET', body?: unknown)
   return (await res.json().catch(() => ({}))) as T;
 }
 
-/** A JSON GET (null: nothing to fetch yet): data, the error's words, loading, and reload. */
-export function useApi<T>(url: string | null): { data: T | null; error: string | null; loading: boolean; reload: () => void } {
+/**
+ * A JSON GET (null: nothing to fetch yet): data, the error's words, loading, and reload.
+ * `refreshMs` reads it again on a timer (a function of the latest data, or 0 for never).
+ */
+export function useApi<T>(
+  url: string | null,
+  options: { refreshMs?: number | ((latest: T | undefined) => number) } = {},
+): { data: T | null; error: string | null; loading: boolean; reload: () => void } {
   const { data, error, isLoading, mutate } = useSWR<T, ApiError>(url, (u: string) => call<T>(u), {
+    refreshInterval: options.refreshMs ?? 0,
     revalidateOnFocus: false,
     shouldRetryOnError: false,
     keepPreviousData: true,

@@ -1,27 +1,14 @@
 import { randomUUID } from 'node:crypto';
 import { and, asc, eq, inArray, ne, sql } from 'drizzle-orm';
 import { z } from 'zod';
+import { InviteInput, SitesInput } from '~/lib/people';
 import { ROLES, type Role } from '~/lib/roles';
 import { auth } from '../auth';
 import { db } from '../db/client';
 import { AppError } from '../errors';
 import { invitations, personSites, session, sites, user } from '../db/schema';
 
-/** A person's sites: every site ('all', sites added later included) or a list of site ids. */
-export const SitesInput = z.union([z.literal('all'), z.array(z.string().uuid('A site id is a UUID.')).max(1000)]);
-
-export const InviteInput = z.object({
-  name: z
-    .string()
-    .trim()
-    .min(1, 'Give the person a name.')
-    .max(120, 'A name has at most 120 characters.')
-    .regex(/^[^\u0000-\u001f\u007f]*$/, 'A name has no control characters.'),
-  email: z.string().trim().toLowerCase().max(254, 'An e-mail address has at most 254 characters.').email('That does not look like an e-mail address.'),
-  role: z.enum(ROLES),
-  /** Omitted: every site on a one-site install; on a larger one, none until an admin lists them. */
-  sites: SitesInput.optional(),
-});
+export { InviteInput, SitesInput };
 export const UpdateUserInput = z
   .object({ role: z.enum(ROLES).optional(), deactivated: z.boolean().optional(), sites: SitesInput.optional() })
   .refine((v) => v.role !== undefined || v.deactivated !== undefined || v.sites !== undefined, 'Send a role, deactivated, sites, or any of them.');
