@@ -15,7 +15,7 @@ import type { APIContext, APIRoute } from 'astro';
 import { z } from 'zod';
 import { UUID_PARAMS, canUseSite, isId } from './access';
 import { AppError, apiError, fromDomainError } from './errors';
-import { humanErrorMap, humanIssues, summary, type Where } from './issues';
+import { humanErrorMap, humanIssues, summary, type Where } from '~/lib/zod-words';
 
 export interface EndpointSpec {
   /** Parameters of the path other than row ids, e.g. { hour } or { month }. */

@@ -3,6 +3,7 @@ import { BalanceInputError } from '~/lib/equipment/errors';
 import { IngestError } from '~/lib/ingest/errors';
 import { NoConvergenceError, ThermoRangeError } from '~/lib/thermo/errors';
 import { UnitError } from '~/lib/units/errors';
+import type { Issue } from '~/lib/zod-words';
 
 /**
  * Error codes of Lossline's HTTP API: a small closed list. A code never changes once published; the
@@ -36,11 +37,7 @@ export const ERROR_STATUS: Record<ErrorCode, number> = {
   INTERNAL: 500,
 };
 
-/** One problem with one field: where (a JSON path such as $.units[2].name, or a parameter's name) and what. */
-export interface Issue {
-  path: string;
-  message: string;
-}
+export type { Issue };
 
 /** The one error a service or endpoint throws on purpose; the endpoint wrapper answers it in the API's shape. */
 export class AppError extends Error {

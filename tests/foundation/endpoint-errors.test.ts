@@ -3,7 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { z } from 'zod';
 import type { Endpoint } from '~/server/endpoint';
 import { ERROR_CODES } from '~/server/errors';
-import { humanErrorMap, humanIssues } from '~/server/issues';
+import { humanErrorMap, humanIssues } from '~/lib/zod-words';
 import { endpoints } from '../support/routes';
 
 /**

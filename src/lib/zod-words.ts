@@ -1,13 +1,18 @@
 /**
- * zod's findings in words a person reads: "from: must be a date and time like 2025-05-12T06:00Z",
+ * zod's findings in words a person reads (the API's errors, a plant model file's problems): "from: must be a date and time like 2025-05-12T06:00Z",
  * never a regular expression or a text of zod's own. Where a schema gave no message of its own, the
  * words come from `wordsFor`. A message that starts in lower case ("must be ...", "is required") is
  * said of the field and gets the field's name in front; one that starts otherwise ("Give the person a
  * name.") is a whole sentence and is kept as written.
  */
 import type { z } from 'zod';
-import { jsonPath } from '~/lib/plant/model';
-import type { Issue } from './errors';
+import { jsonPath } from './plant/model';
+
+/** One problem with one field: where (a JSON path such as $.units[2].name, or a parameter's name) and what. */
+export interface Issue {
+  path: string;
+  message: string;
+}
 
 type RawIssue = z.core.$ZodRawIssue;
 
