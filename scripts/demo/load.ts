@@ -21,7 +21,8 @@ import { baselines, driftNotices, noticeMails, plantUnits, sites, unitHours, upl
 import { QUEUES } from '~/jobs';
 import { createSiteFromModel, importModel } from '~/server/services/plant-model';
 import { receiveApiUpload } from '~/server/services/uploads';
-import { acceptBaseline, fitDraft, InsightError } from '~/server/services/baselines';
+import { AppError } from '~/server/errors';
+import { acceptBaseline, fitDraft } from '~/server/services/baselines';
 import type { BaselineTerm } from '~/lib/analytics/baseline';
 import { DEMO_DEFAULTS, generateExports, plannedFileNames, resolvePlan, siteTimeText, type GenerateOptions } from './generate';
 import { demoModel, DEMO_SITE_NAME } from './site';
@@ -257,7 +258,7 @@ export async function loadDemo(opts: LoadOptions = {}): Promise<LoadReport> {
       const cv = draft.destruction.stats.cvRmse;
       report.baselines.push({ unit: u.name, outcome: `baseline v${draft.version} on ${draft.hours} steady hours (destruction CV(RMSE) ${(cv * 100).toFixed(1)} %), drift check on the product's default settings` });
     } catch (err) {
-      if (!(err instanceof InsightError)) throw err;
+      if (!(err instanceof AppError)) throw err;
       report.baselines.push({ unit: u.name, outcome: `no baseline: ${err.message}` });
     }
   }

@@ -2,7 +2,9 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useCallback, useEffect, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
+import { InviteInput } from '~/lib/people';
 import { ROLES, ROLE_LABELS, type Role } from '../lib/roles';
+import { call } from '~/components/api';
 
 interface Person {
   id: string;
@@ -49,23 +51,9 @@ function SitesCell({ person, sites, onChange }: { person: Person; sites: SiteRef
   );
 }
 
-const InviteForm = z.object({
-  name: z.string().trim().min(1, 'Give the person a name.').max(120, 'A name has at most 120 characters.'),
-  email: z.string().trim().max(254).email('That does not look like an e-mail address.'),
-  role: z.enum(ROLES),
-});
+/** The server's rules for an invitation (the sites are set apart, after it). */
+const InviteForm = InviteInput.pick({ name: true, email: true, role: true });
 type InviteForm = z.infer<typeof InviteForm>;
-
-async function call(url: string, method: string, body?: unknown) {
-  const res = await fetch(url, {
-    method,
-    headers: body ? { 'content-type': 'application/json' } : undefined,
-    body: body ? JSON.stringify(body) : undefined,
-  });
-  const data = await res.json().catch(() => ({}));
-  if (!res.ok) throw new Error(data?.error?.message ?? `The server answered ${res.status}.`);
-  return data;
-}
 
 export default function PeopleAdmin({ selfId, sites = [] }: { selfId: string; sites?: SiteRef[] }) {
   const [people, setPeople] = useState<Person[] | null>(null);

@@ -1,4 +1,5 @@
-import { useCallback, useEffect, useState } from 'react';
+import { useState } from 'react';
+import { call, useApi } from '~/components/api';
 
 interface Token {
   id: string;
@@ -13,32 +14,27 @@ interface Token {
 /** Site API tokens for scheduled exports: issued (secret shown once), listed, revoked. */
 export default function TokensAdmin({ sites }: { sites: { id: string; name: string }[] }) {
   const [siteId, setSiteId] = useState(sites[0]?.id ?? '');
-  const [tokens, setTokens] = useState<Token[]>([]);
   const [name, setName] = useState('');
   const [role, setRole] = useState<'operator' | 'admin'>('operator');
   const [secret, setSecret] = useState<string | null>(null);
   const [error, setError] = useState<string | null>(null);
 
-  const load = useCallback(async () => {
-    if (!siteId) return;
-    const res = await fetch(`/api/sites/${siteId}/tokens`);
-    if (res.ok) setTokens((await res.json()).tokens);
-  }, [siteId]);
-  useEffect(() => void load(), [load]);
+  const list = useApi<{ tokens: Token[] }>(siteId ? `/api/sites/${siteId}/tokens` : null);
+  const tokens = list.data?.tokens ?? [];
+  const load = list.reload;
 
   async function issue(e: React.FormEvent) {
     e.preventDefault();
     setError(null);
-    const res = await fetch(`/api/sites/${siteId}/tokens`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ name, role }) });
-    const data = await res.json();
-    if (!res.ok) return setError(data?.error?.message ?? 'Not issued.');
+    const data = await call<{ token: string }>(`/api/sites/${siteId}/tokens`, 'POST', { name, role }).catch((e: Error) => setError(e.message));
+    if (!data) return;
     setSecret(data.token);
     setName('');
     void load();
   }
   async function revoke(id: string) {
-    await fetch(`/api/tokens/${id}`, { method: 'DELETE', headers: { 'content-type': 'application/json' } });
-    void load();
+    await call(`/api/tokens/${id}`, 'DELETE').catch((e: Error) => setError(e.message));
+    load();
   }
 
   return (

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import type PgBoss from 'pg-boss';
 
 /**
  * Queue names and payload schemas, shared by the web side (which sends) and the worker (which works).
@@ -43,3 +44,25 @@ export const SendMailPayload = z.object({
   text: z.string(),
   html: z.string().optional(),
 });
+
+/** The payload schema of each queue: what a job of that queue carries. */
+export const JOB_PAYLOADS = {
+  [QUEUES.ingestFile]: IngestFilePayload,
+  [QUEUES.computeUnitHours]: ComputeUnitHoursPayload,
+  [QUEUES.checkDrift]: CheckDriftPayload,
+  [QUEUES.sendMail]: SendMailPayload,
+  [QUEUES.checkUnitRules]: CheckUnitRulesPayload,
+  [QUEUES.noticeDigest]: NoticeDigestPayload,
+  [QUEUES.partitionUpkeep]: z.object({}),
+} satisfies Record<QueueName, z.ZodType>;
+
+export type JobPayload<Q extends QueueName> = z.input<(typeof JOB_PAYLOADS)[Q]>;
+
+/**
+ * Queues one job: the payload is checked against its queue's schema first (a ZodError, and nothing
+ * queued, when it does not fit). Every place that queues work sends through here.
+ */
+export async function sendJob<Q extends QueueName>(boss: PgBoss, name: Q, payload: JobPayload<Q>, options: PgBoss.SendOptions = {}): Promise<string | null> {
+  const data = JOB_PAYLOADS[name].parse(payload) as object;
+  return boss.send(name, data, options);
+}

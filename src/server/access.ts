@@ -47,6 +47,11 @@ export function visibleToCaller<T>(locals: App.Locals, list: readonly T[], siteO
 
 export const UUID_RE = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
+/** Ids come from URLs: anything that is not a UUID is simply not found. */
+export function isId(id: unknown): id is string {
+  return typeof id === 'string' && UUID_RE.test(id);
+}
+
 /**
  * How a route parameter leads to its site: the SQL that finds the site of the thing the parameter
  * names. Parameters not listed here are not tied to a site (a person's id, an hour, a month).

@@ -3,7 +3,7 @@ import { APIError, betterAuth } from 'better-auth';
 import { drizzleAdapter } from 'better-auth/adapters/drizzle';
 import { createAuthMiddleware } from 'better-auth/api';
 import { and, eq, lt, ne, sql } from 'drizzle-orm';
-import { QUEUES } from '../jobs';
+import { QUEUES, sendJob } from '../jobs';
 import { passwordProblem } from './password-strength';
 import { CLIENT_IP_HEADER } from './client-ip';
 import { db } from './db/client';
@@ -115,7 +115,7 @@ export function createAuth(e: AppEnv = env()) {
           .limit(1);
         const kind = invite && !invite.acceptedAt ? 'invite' : 'reset';
         // From the queue (the worker sends it): the answer does not wait for the mail server.
-        await (await queue()).send(QUEUES.sendMail, resetMail(kind, user.email, user.name, url), { retryLimit: 5, retryDelay: 30 });
+        await sendJob(await queue(), QUEUES.sendMail, resetMail(kind, user.email, user.name, url), { retryLimit: 5, retryDelay: 30 });
       },
       onPasswordReset: async ({ user }) => {
         await db()

@@ -7,7 +7,8 @@ import { session, signInFailures, user, verification } from '~/server/db/schema'
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '~/server/demo-accounts';
 import { sendMail } from '~/server/mail';
 import { queue } from '~/server/queue';
-import { UserRuleError, inviteUser, updateUser } from '~/server/services/users';
+import { AppError } from '~/server/errors';
+import { inviteUser, updateUser } from '~/server/services/users';
 import { describeIntegration, freshIp, waitForMail } from '../support/integration';
 
 const BASE = () => process.env.PUBLIC_BASE_URL ?? 'http://127.0.0.1:4331';
@@ -128,7 +129,7 @@ describeIntegration('invitation and password links', () => {
   });
 
   it('refuses to invite an address that already has an account', async () => {
-    await expect(inviteUser({ name: 'Again', email: operator.email, role: 'operator' }, 'x')).rejects.toThrow(UserRuleError);
+    await expect(inviteUser({ name: 'Again', email: operator.email, role: 'operator' }, 'x')).rejects.toThrow(AppError);
   });
 });
 

@@ -1,5 +1,3 @@
-import { readdirSync, readFileSync, statSync } from 'node:fs';
-import { join, relative } from 'node:path';
 import { afterAll, beforeAll, expect, it, vi } from 'vitest';
 import { ROLES, type Role } from '~/lib/roles';
 import { NAV } from '~/lib/navigation';
@@ -8,6 +6,7 @@ import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '~/server/demo-accounts';
 import { guard } from '~/server/guard';
 import { API_POLICY, admitFor, apiPolicyFor, decide, pagePolicyFor } from '~/server/policy';
 import { describeIntegration } from '../support/integration';
+import { endpoints, samplePath } from '../support/routes';
 
 /**
  * What the rest of the request answers in these tests: 299 when the guard lets it through, and for a
@@ -18,36 +17,6 @@ async function pageOrRefusal(rewrite?: string): Promise<Response> {
   if (rewrite === '/403') return new Response('refused in the frame', { status: 403 });
   if (rewrite) throw new Error(`unexpected rewrite to ${rewrite}`);
   return new Response('reached', { status: 299 });
-}
-
-const API_DIR = 'src/pages/api';
-const METHODS = ['GET', 'POST', 'PUT', 'PATCH', 'DELETE'] as const;
-
-function walk(dir: string): string[] {
-  return readdirSync(dir).flatMap((f) => {
-    const p = join(dir, f);
-    return statSync(p).isDirectory() ? walk(p) : /\.(ts|js)$/.test(f) ? [p] : [];
-  });
-}
-
-/** Every endpoint file, as its Astro route pattern and the methods it exports. */
-function endpoints() {
-  return walk(API_DIR).map((file) => {
-    const route =
-      '/' +
-      relative('src/pages', file)
-        .replace(/\.(ts|js)$/, '')
-        .replace(/\/index$/, '');
-    const src = readFileSync(file, 'utf8');
-    const exported = [...src.matchAll(/export const (GET|POST|PUT|PATCH|DELETE|ALL)\b/g)].map((m) => m[1]!);
-    const methods = exported.includes('ALL') ? [...METHODS] : exported;
-    return { file, route, methods };
-  });
-}
-
-/** A concrete path for a pattern: each [param] becomes a sample value. */
-function samplePath(route: string): string {
-  return route.replace(/\[\.\.\.[^\]]+\]/g, 'x/y').replace(/\[[^\]]+\]/g, '00000000-0000-4000-8000-000000000000');
 }
 
 it('self-consistency: every endpoint file declares a policy for each method it exports', () => {

@@ -3,8 +3,8 @@ import { eq } from 'drizzle-orm';
 import { beforeAll, expect, it } from 'vitest';
 import { db } from '~/server/db/client';
 import { unitHours, user } from '~/server/db/schema';
+import { AppError } from '~/server/errors';
 import {
-  InsightError,
   acceptBaseline,
   activeBaseline,
   baselineFitView,
@@ -113,7 +113,7 @@ describeIntegration('baselines: fit, versions, expected values', () => {
 
   it('refuses a term that does not vary (T0 is constant here) and a period with too few steady hours', async () => {
     const e1 = await fitDraft(unitId, { ...period, terms: ['load', 'T_amb'] }, leadId).catch((e) => e);
-    expect(e1).toBeInstanceOf(InsightError);
+    expect(e1).toBeInstanceOf(AppError);
     expect(e1.code).toBe('UNPROCESSABLE');
     expect(e1.message).toMatch(/T_amb/);
     const e2 = await fitDraft(unitId, { periodFrom: new Date(t0), periodTo: new Date(t0 + 10 * HOUR), terms: ['load'] }, leadId).catch((e) => e);

@@ -4,7 +4,8 @@ import { writeTagHours } from '~/server/services/tag-hours';
 import type { PlantModel } from '~/lib/plant';
 import { createSite, siteStatus } from '~/server/services/plant';
 import { createSiteFromModel, exportModel, firstLinkDifferenceMs, importModel } from '~/server/services/plant-model';
-import { PlantRuleError, openEndMs } from '~/server/services/plant-tx';
+import { AppError } from '~/server/errors';
+import { openEndMs } from '~/server/services/plant-tx';
 import { issueApiToken } from '~/server/tokens';
 import { GET as getModel, PUT as putModel } from '~/pages/api/v1/sites/[siteId]/model';
 import { describeIntegration } from '../support/integration';
@@ -87,7 +88,7 @@ describeIntegration('plant model import and export', () => {
     edit(file);
     const before = await siteSnapshot(siteId);
     const err = await importModel(siteId, file).catch((e) => e);
-    expect(err).toBeInstanceOf(PlantRuleError);
+    expect(err).toBeInstanceOf(AppError);
     expect(err.code).toBe('VALIDATION_FAILED');
     expect(err.issues.map((i: { path: string }) => i.path)).toContain(typeof path === 'string' ? path : path(file));
     expect(await siteSnapshot(siteId)).toEqual(before);

@@ -1,7 +1,8 @@
 import { beforeAll, expect, it } from 'vitest';
 import { createPort, createSite, createUnit, siteStatus, unlinkedTags } from '~/server/services/plant';
 import { endLink, linkHistory, linksForRange, linksValidAt, setLink } from '~/server/services/plant-links';
-import { PlantRuleError, openEndMs } from '~/server/services/plant-tx';
+import { AppError } from '~/server/errors';
+import { openEndMs } from '~/server/services/plant-tx';
 import { describeIntegration } from '../support/integration';
 import { addTags, recomputeJobs, uniqueName } from './support';
 
@@ -92,7 +93,7 @@ describeIntegration('versioned tag links', () => {
     const n0 = (await recomputeJobs(siteId)).length;
     const h0 = (await linkHistory(siteId, valveId)).length;
     const err = await setLink(siteId, { unitId: valveId, portId: inletId, quantity: 'temperature', tagId: tagIds.get('PRV_T_IN')!, unit: 'barg' }, null).catch((e) => e);
-    expect(err).toBeInstanceOf(PlantRuleError);
+    expect(err).toBeInstanceOf(AppError);
     expect(err.code).toBe('VALIDATION_FAILED');
     expect(err.issues.map((i: { path: string }) => i.path)).toEqual(['$.unit']);
     const err2 = await setLink(siteId, { unitId: valveId, portId: outletId, quantity: 'o2Fraction', tagId: tagIds.get('PRV_T_IN')!, unit: '%', basis: 'dry' }, null).catch((e) => e);

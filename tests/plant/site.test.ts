@@ -2,7 +2,7 @@ import { expect, it } from 'vitest';
 import { db } from '~/server/db/client';
 import { writeTagHours } from '~/server/services/tag-hours';
 import { createSite, getSite, siteModel, updateSite, type SiteInput } from '~/server/services/plant';
-import { PlantRuleError } from '~/server/services/plant-tx';
+import { AppError } from '~/server/errors';
 import { describeIntegration } from '../support/integration';
 import { expectClose } from '../support/expect-close';
 import { addTags, recomputeJobs, tagSeq, uniqueName } from './support';
@@ -26,7 +26,7 @@ describeIntegration('site settings', () => {
     const { model } = await siteModel(db(), site.id);
     expect(model.site.deadState).toEqual({ T0_K: 288.15, p0_Pa: 101325, T0Tag: { tag: 'AMB_T', unit: 'degF' } });
     const err = await updateSite(site.id, { ...base(site.name), T0Tag: { tag: 'AMB_T', unit: 'psi' } }).catch((e) => e);
-    expect(err).toBeInstanceOf(PlantRuleError);
+    expect(err).toBeInstanceOf(AppError);
     expect(err.issues).toEqual([{ path: '$.T0Tag.unit', message: "'psi' is not a temperature unit." }]);
     expect((await getSite(site.id)).t0TagUnit).toBe('degF');
   });
@@ -50,7 +50,7 @@ describeIntegration('site settings', () => {
     const name = uniqueName('Twin');
     await createSite(base(name));
     const err = await createSite(base(name)).catch((e) => e);
-    expect(err).toBeInstanceOf(PlantRuleError);
+    expect(err).toBeInstanceOf(AppError);
     expect(err.code).toBe('CONFLICT');
   });
 });

@@ -1,5 +1,6 @@
 import { useEffect, useState } from 'react';
-import { Notice, call, messageOf, type Message } from '../plant/common';
+import { Notice } from '../plant/common';
+import { call, messageOf, type Message } from '~/components/api';
 
 interface Limits {
   maxCost_per_day: number | null;

@@ -1,6 +1,7 @@
 import { useState } from 'react';
 import { DEFAULT_RULE_HOURS, WEEKDAYS, normallyIdleText, type NormallyIdle, type Weekday } from '~/lib/plant/idle';
-import { Notice, call, messageOf, type Message } from './common';
+import { Notice } from './common';
+import { call, messageOf, type Message } from '~/components/api';
 
 const DAY_LABELS: Record<Weekday, string> = { mon: 'Mon', tue: 'Tue', wed: 'Wed', thu: 'Thu', fri: 'Fri', sat: 'Sat', sun: 'Sun' };
 const HOURS = Array.from({ length: 25 }, (_, h) => `${String(h).padStart(2, '0')}:00`);

@@ -7,7 +7,8 @@ import type { Fluid, LinkModel, PortModel } from '~/lib/plant/model';
 import type { UnitStatus } from '~/lib/plant/status';
 import { defaultUncertainty } from '~/lib/plant/uncertainty';
 import { canConvert, parseUnit, unitsFor } from '~/lib/units';
-import { Field, Notice, call, messageOf, wallTimeToIso, type Message } from './common';
+import { Field, Notice, wallTimeToIso } from './common';
+import { call, messageOf, type Message } from '~/components/api';
 
 export interface UnitJson {
   id: string;

@@ -3,9 +3,11 @@ import { useCallback, useEffect, useState } from 'react';
 import { useFieldArray, useForm } from 'react-hook-form';
 import { z } from 'zod';
 import { UNIT_KINDS, kindSpec } from '~/lib/plant/kinds';
-import { isTimeZone, type EnergyPrice, type SiteModel } from '~/lib/plant/model';
+import { Currency, SiteInput, UnitCreateInput } from '~/lib/plant/inputs';
+import { type EnergyPrice, type SiteModel } from '~/lib/plant/model';
 import { canConvert } from '~/lib/units';
-import { Field, Notice, call, messageOf, readSI, showSI, type Message } from './common';
+import { Field, Notice, readSI, showSI } from './common';
+import { call, messageOf, type Message } from '~/components/api';
 import LinkForm, { type TagJson, type UnitJson } from './LinkForm';
 
 interface Overview {
@@ -21,15 +23,15 @@ const optNum = (what: string, min: number, max: number) =>
 
 const Settings = z
   .object({
-    name: z.string().trim().min(1, 'Give the site a name.'),
-    timeZone: z.string().trim().refine(isTimeZone, 'Not an IANA time zone (e.g. Europe/Berlin).'),
+    name: SiteInput.shape.name,
+    timeZone: SiteInput.shape.timeZone,
     elevation: optNum('Elevation [m]', -500, 6000),
     pAtm: optNum('Atmospheric pressure [kPa]', 20, 120),
     T0: num('T0 [degC]', -50, 60),
     p0: num('p0 [kPa]', 20, 120),
     t0Tag: z.string().trim(),
     t0TagUnit: z.string().trim(),
-    currency: z.string().trim().regex(/^[A-Z]{3}$/, 'Three capital letters (EUR, GBP, USD).'),
+    currency: Currency,
     prices: z.array(
       z.object({
         name: z.string().trim().min(1, 'Name the price.'),
@@ -155,11 +157,7 @@ function SettingsForm({ overview, canEdit, onSaved }: { overview: Overview; canE
   );
 }
 
-const NewUnit = z.object({
-  name: z.string().trim().min(1, 'Give the unit a name.').max(120),
-  kind: z.enum(UNIT_KINDS),
-  withPorts: z.boolean(),
-});
+const NewUnit = UnitCreateInput.pick({ name: true, kind: true }).extend({ withPorts: z.boolean() });
 type NewUnit = z.infer<typeof NewUnit>;
 
 function StatusCell({ unit }: { unit: UnitJson }) {

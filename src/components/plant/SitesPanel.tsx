@@ -2,8 +2,10 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
-import { isTimeZone } from '~/lib/plant/model';
-import { Field, Notice, call, messageOf, type Message } from './common';
+import { ELEVATION_MAX_m, ELEVATION_MIN_m } from '~/lib/plant/atmosphere';
+import { SiteInput } from '~/lib/plant/inputs';
+import { Field, Notice } from './common';
+import { call, messageOf, type Message } from '~/components/api';
 
 export interface SiteSummary {
   id: string;
@@ -14,12 +16,12 @@ export interface SiteSummary {
 }
 
 const NewSite = z.object({
-  name: z.string().trim().min(1, 'Give the site a name.').max(120),
-  timeZone: z.string().trim().refine(isTimeZone, 'Not an IANA time zone (e.g. Europe/Berlin).'),
+  name: SiteInput.shape.name,
+  timeZone: SiteInput.shape.timeZone,
   elevation: z
     .string()
     .trim()
-    .refine((v) => v === '' || (Number.isFinite(Number(v)) && Number(v) >= -500 && Number(v) <= 6000), 'An elevation in metres, -500 to 6000.'),
+    .refine((v) => v === '' || SiteInput.shape.elevation_m.safeParse(Number(v)).success, `An elevation in metres, ${ELEVATION_MIN_m} to ${ELEVATION_MAX_m}.`),
 });
 type NewSite = z.infer<typeof NewSite>;
 

@@ -4,8 +4,10 @@ import { useForm } from 'react-hook-form';
 import { z } from 'zod';
 import { FLUID_LABELS, LINK_QUANTITIES, kindSpec, type FluidKind, type LinkQuantity, type ParamSpec } from '~/lib/plant/kinds';
 import { FUEL_TYPES, type FuelDefinition, type Fluid } from '~/lib/plant/model';
-import { Field, Notice, call, messageOf, parseComposition, readSI, showComposition, showInstant, showSI, type Message } from './common';
+import { Field, Notice, parseComposition, readSI, showComposition, showInstant, showSI } from './common';
+import { call, messageOf, type Message } from '~/components/api';
 import LinkForm, { targetsOf, type TagJson, type UnitJson } from './LinkForm';
+import { PortInput } from '~/lib/plant/inputs';
 
 interface LinkRow {
   id: string;
@@ -192,8 +194,8 @@ function FuelEditor({ data, canEdit, onSaved }: { data: UnitPageData; canEdit: b
 }
 
 const PortForm = z.object({
-  name: z.string().trim().min(1, 'Give the port a name.'),
-  slot: z.string().min(1, 'Choose a slot.'),
+  name: PortInput.shape.name,
+  slot: z.string().min(1, 'Choose a slot.').pipe(PortInput.shape.slot),
   fluid: z.string(),
   composition: z.string(),
   cp: z.string(),

@@ -2,39 +2,7 @@ import { TZDate } from '@date-fns/tz';
 import { format } from 'date-fns';
 import type { ReactNode } from 'react';
 import { canConvert, fromSI, toSI, type Quantity } from '~/lib/units';
-
-export interface Issue {
-  path: string;
-  message: string;
-}
-
-/** An API error with the issues (JSON paths) the server sent. */
-export class ApiError extends Error {
-  constructor(
-    message: string,
-    readonly issues: Issue[] = [],
-  ) {
-    super(message);
-  }
-}
-
-export async function call<T = unknown>(url: string, method = 'GET', body?: unknown): Promise<T> {
-  const res = await fetch(url, {
-    method,
-    headers: body !== undefined ? { 'content-type': 'application/json' } : undefined,
-    body: body !== undefined ? (typeof body === 'string' ? body : JSON.stringify(body)) : undefined,
-  });
-  const data = await res.json().catch(() => ({}));
-  if (!res.ok) throw new ApiError(data?.error?.message ?? `The server answered ${res.status}.`, data?.error?.issues ?? []);
-  return data as T;
-}
-
-export type Message = { ok: boolean; text: string; issues?: Issue[] } | null;
-
-export function messageOf(e: unknown): Message {
-  if (e instanceof ApiError) return { ok: false, text: e.message, issues: e.issues };
-  return { ok: false, text: (e as Error).message };
-}
+import type { Message } from '~/components/api';
 
 /** A status line, and the JSON path of each issue when the server sent some. */
 export function Notice({ message }: { message: Message }) {

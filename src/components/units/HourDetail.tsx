@@ -2,6 +2,7 @@ import { useEffect, useState } from 'react';
 import { HourStateMark } from './HourStateMark';
 import { fmt, siteTime } from './format';
 import type { UnitInfo } from './UnitResults';
+import { call } from '~/components/api';
 
 /* The stored audit trail of one hour (src/lib/engine/compute.ts builds it). */
 interface Detail {
@@ -106,10 +107,9 @@ export function HourDetail({ unit, hourStart, onClose }: { unit: UnitInfo; hourS
     setHour(null);
     setError(null);
     void (async () => {
-      const res = await fetch(`/api/v1/units/${unit.id}/hours/${encodeURIComponent(hourStart)}`);
-      const data = await res.json().catch(() => ({}));
+      const data = await call<{ hour: Hour }>(`/api/v1/units/${unit.id}/hours/${encodeURIComponent(hourStart)}`).catch((e: Error) => e);
       if (!live) return;
-      if (!res.ok) setError(data?.error?.message ?? `The hour could not be loaded (${res.status}).`);
+      if (data instanceof Error) setError(data.message);
       else setHour(data.hour);
     })();
     return () => {

@@ -2,6 +2,7 @@ import { useCallback, useEffect, useState } from 'react';
 import { HourDetail } from './HourDetail';
 import { HourStateMark } from './HourStateMark';
 import { fmt, siteDay, siteDayStart, siteTime } from './format';
+import { call } from '~/components/api';
 
 export interface HourRow {
   hourStart: string;
@@ -58,9 +59,8 @@ export default function UnitResults({ unit, initialFrom, initialTo, initialHour 
     setError(null);
     const { from, to } = range();
     if (!(to > from)) return setError('The last day must not be before the first.');
-    const res = await fetch(`/api/v1/units/${unit.id}/hours?from=${encodeURIComponent(from)}&to=${encodeURIComponent(to)}`);
-    const data = await res.json().catch(() => ({}));
-    if (!res.ok) return setError(data?.error?.message ?? `The hours could not be loaded (${res.status}).`);
+    const data = await call<{ hours: HourRow[] }>(`/api/v1/units/${unit.id}/hours?from=${encodeURIComponent(from)}&to=${encodeURIComponent(to)}`).catch((e: Error) => e);
+    if (data instanceof Error) return setError(data.message);
     setRows(data.hours);
   }, [range, unit.id]);
 

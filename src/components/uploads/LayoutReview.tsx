@@ -1,5 +1,6 @@
 import { useState } from 'react';
 import type { UploadRow } from './UploadsPanel';
+import { call } from '~/components/api';
 
 const SEP_LABEL: Record<string, string> = { ',': 'comma', ';': 'semicolon', '\t': 'tab', '|': 'bar' };
 
@@ -19,13 +20,8 @@ export function LayoutReview({ upload, onSaved }: { upload: UploadRow; onSaved: 
 
   async function save() {
     const answered = { ...profile, questions: profile.questions.filter((q: any) => !q.blocking || q.field !== 'time.dateOrder' || profile.time.dateOrder === 'ambiguous') };
-    const res = await fetch(`/api/uploads/${upload.uploadId}/layout`, {
-      method: 'POST',
-      headers: { 'content-type': 'application/json' },
-      body: JSON.stringify({ name, profile: answered }),
-    });
-    if (!res.ok) return setError((await res.json().catch(() => null))?.error?.message ?? 'The layout was not saved.');
-    onSaved();
+    const saved = await call(`/api/uploads/${upload.uploadId}/layout`, 'POST', { name, profile: answered }).then(() => true, (e: Error) => setError(e.message));
+    if (saved) onSaved();
   }
 
   const blockingLeft = profile.time.kind === 'text' && profile.time.dateOrder === 'ambiguous';

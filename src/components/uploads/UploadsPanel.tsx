@@ -3,8 +3,9 @@ import Uppy from '@uppy/core';
 import Dashboard from '@uppy/react/dashboard';
 import '@uppy/core/css/style.min.css';
 import '@uppy/dashboard/css/style.min.css';
-import { Fragment, useCallback, useEffect, useMemo, useState } from 'react';
+import { Fragment, useEffect, useMemo, useState } from 'react';
 import { StateMark } from '../StateMark';
+import { call, useApi } from '~/components/api';
 import { LayoutReview } from './LayoutReview';
 import { UPLOAD_STATE_LOOK } from './uploadStates';
 
@@ -38,7 +39,6 @@ export interface UploadRow {
 }
 
 /** An empty JSON body: the API takes JSON, never form posts (which Astro's origin check refuses cross-site). */
-const JSON_POST: RequestInit = { method: 'POST', headers: { 'content-type': 'application/json' }, body: '{}' };
 
 /** Files up to this size get their SHA-256 in the browser, so a repeat is known before it is sent. */
 const HASH_IN_BROWSER_BYTES = 256 * 1024 * 1024;
@@ -54,23 +54,15 @@ const fmtBytes = (n: number | null) =>
 
 export default function UploadsPanel({ sites, initialSiteId }: { sites: Site[]; initialSiteId: string | null }) {
   const [siteId, setSiteId] = useState(initialSiteId ?? sites[0]?.id ?? '');
-  const [rows, setRows] = useState<UploadRow[] | null>(null);
   const [error, setError] = useState<string | null>(null);
   const [open, setOpen] = useState<string | null>(null);
 
-  const load = useCallback(async () => {
-    if (!siteId) return;
-    const res = await fetch(`/api/sites/${siteId}/uploads`);
-    if (!res.ok) return setError(`The list of uploads could not be loaded (${res.status}).`);
-    setRows((await res.json()).uploads);
-  }, [siteId]);
-
-  const busy = rows?.some((r) => ['awaiting-file', 'queued', 'processing'].includes(r.status)) ?? false;
-  useEffect(() => {
-    void load();
-    const t = setInterval(() => void load(), busy ? 700 : 4000);
-    return () => clearInterval(t);
-  }, [load, busy]);
+  // Read again every 4 s, every 0.7 s while a file is on its way.
+  const list = useApi<{ uploads: UploadRow[] }>(siteId ? `/api/sites/${siteId}/uploads` : null, {
+    refreshMs: (d) => (d?.uploads.some((r) => ['awaiting-file', 'queued', 'processing'].includes(r.status)) ? 700 : 4000),
+  });
+  const rows = list.data?.uploads ?? null;
+  const load = list.reload;
 
   const uppy = useMemo(() => {
     const u = new Uppy({ id: 'historian-files', autoProceed: false, restrictions: { maxFileSize: 4 * 1024 ** 3, allowedFileTypes: ['.csv', '.txt', '.tsv', 'text/*'] } });
@@ -78,13 +70,8 @@ export default function UploadsPanel({ sites, initialSiteId }: { sites: Site[]; 
       shouldUseMultipart: false,
       async getUploadParameters(file) {
         const site = (file.meta as { siteId?: string }).siteId;
-        const res = await fetch(`/api/sites/${site}/uploads`, {
-          method: 'POST',
-          headers: { 'content-type': 'application/json' },
-          body: JSON.stringify({ fileName: file.name, sizeBytes: file.size, contentType: file.type || 'text/csv', sha256: await sha256Hex(file.data as Blob) }),
-        });
-        const data = await res.json();
-        if (!res.ok) throw new Error(data?.error?.message ?? `The upload could not start (${res.status}).`);
+        const body = { fileName: file.name, sizeBytes: file.size, contentType: file.type || 'text/csv', sha256: await sha256Hex(file.data as Blob) };
+        const data = await call<{ uploadId: string; url: string; headers: Record<string, string> }>(`/api/sites/${site}/uploads`, 'POST', body);
         u.setFileMeta(file.id, { uploadId: data.uploadId });
         return { method: 'PUT', url: data.url, headers: data.headers };
       },
@@ -103,18 +90,16 @@ export default function UploadsPanel({ sites, initialSiteId }: { sites: Site[]; 
     const onSuccess = async (file: { meta: Record<string, unknown> } | undefined) => {
       const id = file?.meta.uploadId as string | undefined;
       if (!id) return;
-      const res = await fetch(`/api/uploads/${id}/complete`, JSON_POST);
-      if (!res.ok) setError((await res.json().catch(() => null))?.error?.message ?? 'The file arrived but could not be queued.');
-      void load();
+      await call(`/api/uploads/${id}/complete`, 'POST', {}).catch((e: Error) => setError(e.message));
+      load();
     };
     uppy.on('upload-success', onSuccess);
     return () => void uppy.off('upload-success', onSuccess);
   }, [uppy, load]);
 
   async function retry(id: string) {
-    const res = await fetch(`/api/uploads/${id}/retry`, JSON_POST);
-    if (!res.ok) setError((await res.json().catch(() => null))?.error?.message ?? 'Retry refused.');
-    void load();
+    await call(`/api/uploads/${id}/retry`, 'POST', {}).catch((e: Error) => setError(e.message));
+    load();
   }
 
   if (!sites.length) return <p className="notice-error">No site exists yet: an admin creates one in the plant model first.</p>;
@@ -135,7 +120,7 @@ export default function UploadsPanel({ sites, initialSiteId }: { sites: Site[]; 
       <div className="card p-2">
         <Dashboard uppy={uppy} proudlyDisplayPoweredByUppy={false} height={260} width="100%" note="Historian or logger exports as CSV (comma, semicolon or tab separated), up to 4 GiB each." />
       </div>
-      {error && <p role="alert" className="notice-error">{error}</p>}
+      {(error ?? list.error) && <p role="alert" className="notice-error">{error ?? list.error}</p>}
       <section className="card">
         <h2 className="mb-3">Files of this site</h2>
         {!rows ? (

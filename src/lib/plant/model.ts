@@ -12,6 +12,7 @@ import { SPECIES_NAMES } from '../thermo/gas';
 import { canConvert } from '../units/convert';
 import { ELEVATION_MAX_m, ELEVATION_MIN_m } from './atmosphere';
 import { NormallyIdleSchema } from './idle';
+import { humanErrorMap, humanIssues } from '../zod-words';
 import {
   LINK_QUANTITIES,
   LINK_QUANTITY_NAMES,
@@ -399,15 +400,8 @@ export type ModelCheck = { ok: true; model: PlantModel; issues: [] } | { ok: fal
  * returned only when there are none.
  */
 export function checkModel(input: unknown): ModelCheck {
-  const parsed = PlantModelSchema.safeParse(input);
-  if (!parsed.success) {
-    const issues: ModelIssue[] = parsed.error.issues.flatMap((i) =>
-      i.code === 'unrecognized_keys'
-        ? i.keys.map((k) => ({ path: jsonPath([...i.path, k]), message: `Unknown field '${k}'.` }))
-        : [{ path: jsonPath(i.path), message: i.message }],
-    );
-    return { ok: false, issues };
-  }
+  const parsed = PlantModelSchema.safeParse(input, { error: humanErrorMap });
+  if (!parsed.success) return { ok: false, issues: humanIssues(parsed.error, 'body') };
   const model = parsed.data;
   const issues: ModelIssue[] = [];
   if (!isTimeZone(model.site.timeZone)) {

@@ -1,7 +1,7 @@
-import type { APIRoute } from 'astro';
+import { endpoint } from '~/server/endpoint';
 import { health } from '~/server/health';
 
-export const GET: APIRoute = async () => {
+export const GET = endpoint({}, async () => {
   const out = await health();
   return Response.json(out, { status: out.ok ? 200 : 503 });
-};
+});

@@ -1,3 +1,3 @@
-import type { APIRoute } from 'astro';
+import { endpoint } from '~/server/endpoint';
 
-export const GET: APIRoute = async ({ locals }) => Response.json({ user: locals.user });
+export const GET = endpoint({}, ({ locals }) => Response.json({ user: locals.user }));

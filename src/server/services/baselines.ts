@@ -23,28 +23,14 @@ import {
   type BaselineTerm,
   type Guideline14Check,
 } from '~/lib/analytics/baseline';
-import { QUEUES } from '~/jobs';
+import { QUEUES, sendJob } from '~/jobs';
 import { db } from '../db/client';
 import type { BaselineSummary, ModelSummary } from '~/lib/baseline-view';
 import { baselines, plantUnits, sites, unitHours, user, type BaselineStatus } from '../db/schema';
-import type { ErrorCode } from '../errors';
+import { isId } from '../access';
+import { AppError } from '../errors';
 import { queue } from '../queue';
 
-/** A rule of baselines, drift or notices was broken; code is one of src/server/errors.ts. */
-export class InsightError extends Error {
-  constructor(
-    readonly code: ErrorCode,
-    message: string,
-  ) {
-    super(message);
-  }
-}
-
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
-/** Ids come from URLs: anything that is not a UUID is simply not found. */
-export function isUuid(id: string | undefined | null): id is string {
-  return typeof id === 'string' && UUID.test(id);
-}
 
 /** Coverage factor of the expected band (docs/domain.md section 7: k = 2). */
 export const EXPECTED_BAND_K = 2;
@@ -133,21 +119,21 @@ function toSummary(r: SummaryRow): BaselineSummary {
 }
 
 async function unitRow(unitId: string) {
-  if (!isUuid(unitId)) throw new InsightError('NOT_FOUND', 'No such unit.');
+  if (!isId(unitId)) throw new AppError('NOT_FOUND', 'No such unit.');
   const [u] = await db()
     .select({ id: plantUnits.id, name: plantUnits.name, kind: plantUnits.kind, siteId: sites.id, siteName: sites.name, timeZone: sites.timeZone })
     .from(plantUnits)
     .innerJoin(sites, eq(sites.id, plantUnits.siteId))
     .where(eq(plantUnits.id, unitId));
-  if (!u) throw new InsightError('NOT_FOUND', 'No such unit.');
+  if (!u) throw new AppError('NOT_FOUND', 'No such unit.');
   return u;
 }
 
 /** One version by id. */
 export async function getBaseline(baselineId: string): Promise<BaselineSummary> {
-  if (!isUuid(baselineId)) throw new InsightError('NOT_FOUND', 'No such baseline.');
+  if (!isId(baselineId)) throw new AppError('NOT_FOUND', 'No such baseline.');
   const [r] = await summaryQuery().where(eq(baselines.id, baselineId));
-  if (!r) throw new InsightError('NOT_FOUND', 'No such baseline.');
+  if (!r) throw new AppError('NOT_FOUND', 'No such baseline.');
   return toSummary(r);
 }
 
@@ -163,7 +149,7 @@ export async function unitBaselines(unitId: string): Promise<BaselineSummary[]> 
  * @param unitId plant unit id
  */
 export async function activeBaseline(unitId: string): Promise<BaselineSummary | null> {
-  if (!isUuid(unitId)) return null;
+  if (!isId(unitId)) return null;
   const [r] = await summaryQuery().where(and(eq(baselines.unitId, unitId), eq(baselines.status, 'active')));
   return r ? toSummary(r) : null;
 }
@@ -205,7 +191,7 @@ export async function expectedFor(
   let models: { efficiency: BaselineModel | null; destruction: BaselineModel } | null = null;
   if (options.baselineId) {
     summary = await getBaseline(options.baselineId);
-    if (summary.unitId !== unitId) throw new InsightError('NOT_FOUND', 'That baseline belongs to another unit.');
+    if (summary.unitId !== unitId) throw new AppError('NOT_FOUND', 'That baseline belongs to another unit.');
   } else {
     summary = await activeBaseline(unitId);
   }
@@ -280,14 +266,14 @@ export const MIN_HOURS = 24;
 /**
  * Fits efficiency and destruction on the unit's steady hours of the period and saves the result as a
  * draft (the next version number of the unit).
- * @throws InsightError UNPROCESSABLE when the hours do not support the chosen terms
+ * @throws AppError UNPROCESSABLE when the hours do not support the chosen terms
  */
 export async function fitDraft(unitId: string, input: FitInput, userId: string | null): Promise<BaselineSummary> {
   const unit = await unitRow(unitId);
-  if (!(input.periodTo.getTime() > input.periodFrom.getTime())) throw new InsightError('VALIDATION_FAILED', 'The reference period must end after it starts.');
+  if (!(input.periodTo.getTime() > input.periodFrom.getTime())) throw new AppError('VALIDATION_FAILED', 'The reference period must end after it starts.');
   const hours = await steadyHours(unitId, input.periodFrom, input.periodTo);
   if (hours.length < MIN_HOURS) {
-    throw new InsightError(
+    throw new AppError(
       'UNPROCESSABLE',
       `The period has ${hours.length} steady hours with load and T0 for ${unit.name}; a baseline needs at least ${MIN_HOURS}. Choose a longer period.`,
     );
@@ -309,7 +295,7 @@ export async function fitDraft(unitId: string, input: FitInput, userId: string |
       );
     }
   } catch (err) {
-    if (err instanceof BaselineError) throw new InsightError('UNPROCESSABLE', `The fit failed: ${err.message}.`);
+    if (err instanceof BaselineError) throw new AppError('UNPROCESSABLE', `The fit failed: ${err.message}.`);
     throw err;
   }
   const loadUnit = hours.find((h) => h.loadUnit)?.loadUnit ?? null;
@@ -350,7 +336,7 @@ export async function acceptBaseline(baselineId: string, userId: string | null):
   await db().transaction(async (tx) => {
     await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${'baselines:' + b.unitId}))`);
     const [now] = await tx.select({ status: baselines.status }).from(baselines).where(eq(baselines.id, baselineId));
-    if (now?.status !== 'draft') throw new InsightError('CONFLICT', `Version ${b.version} is ${now?.status}; only a draft can be accepted.`);
+    if (now?.status !== 'draft') throw new AppError('CONFLICT', `Version ${b.version} is ${now?.status}; only a draft can be accepted.`);
     await tx
       .update(baselines)
       .set({ status: 'retired', retiredAt: new Date() })
@@ -359,7 +345,7 @@ export async function acceptBaseline(baselineId: string, userId: string | null):
   });
   // The hours after the reference period are checked against the new baseline right away.
   const boss = await queue();
-  await boss.send(QUEUES.checkDrift, { siteId: b.siteId, fromMs: new Date(b.periodTo).getTime(), toMs: Math.ceil(Date.now() / 3_600_000) * 3_600_000, unitIds: [b.unitId] });
+  await sendJob(boss, QUEUES.checkDrift, { siteId: b.siteId, fromMs: new Date(b.periodTo).getTime(), toMs: Math.ceil(Date.now() / 3_600_000) * 3_600_000, unitIds: [b.unitId] });
   return getBaseline(baselineId);
 }
 
@@ -371,7 +357,7 @@ export async function discardBaseline(baselineId: string, userId: string | null)
     .set({ status: 'discarded', decidedBy: userId, decidedAt: new Date() })
     .where(and(eq(baselines.id, baselineId), eq(baselines.status, 'draft')))
     .returning({ id: baselines.id });
-  if (!updated.length) throw new InsightError('CONFLICT', `Version ${b.version} is ${b.status}; only a draft can be discarded.`);
+  if (!updated.length) throw new AppError('CONFLICT', `Version ${b.version} is ${b.status}; only a draft can be discarded.`);
   return getBaseline(baselineId);
 }
 
@@ -394,9 +380,9 @@ export async function baselineFitView(baselineId: string): Promise<{
   curve: { load: number; efficiency: number | null; destruction_W: number }[];
   meanT0_K: number;
 }> {
-  if (!isUuid(baselineId)) throw new InsightError('NOT_FOUND', 'No such baseline.');
+  if (!isId(baselineId)) throw new AppError('NOT_FOUND', 'No such baseline.');
   const [b] = await db().select().from(baselines).where(eq(baselines.id, baselineId));
-  if (!b) throw new InsightError('NOT_FOUND', 'No such baseline.');
+  if (!b) throw new AppError('NOT_FOUND', 'No such baseline.');
   const hours = await steadyHours(b.unitId, b.periodFrom, b.periodTo);
   const points = hours.map((h) => ({
     hourStart: h.hourStart.toISOString(),

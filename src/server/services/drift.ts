@@ -13,14 +13,15 @@
  */
 import { and, asc, desc, eq, gt, gte, inArray, isNotNull, lt, ne, sql } from 'drizzle-orm';
 import { z } from 'zod';
-import { CheckDriftPayload, QUEUES } from '~/jobs';
+import { CheckDriftPayload, QUEUES, sendJob } from '~/jobs';
 import { predict, type BaselineModel } from '~/lib/analytics/baseline';
 import { ar1Innovation, type Ar1Model } from '~/lib/analytics/autocorrelation';
 import { DRIFT_CHECK_DEFAULTS, cusumInit, cusumStep, type CusumState, type DriftSignal } from '~/lib/analytics/drift';
 import { baselines, driftNotices, driftPoints, driftSettings, plantUnits, unitHours } from '../db/schema';
 import { queue } from '../queue';
 import { db } from '../db/client';
-import { InsightError, isUuid } from './baselines';
+import { isId } from '../access';
+import { AppError } from '../errors';
 import { inInsightTx, type Tx } from './drift-tx';
 import { reconcileNotices } from './notice-life';
 
@@ -43,9 +44,9 @@ export const DriftSettingsInput = z.strictObject({
 
 /** A unit's CUSUM settings (the defaults when nobody changed them). */
 export async function driftSettingsFor(unitId: string, r: Pick<Tx, 'select'> = db()) {
-  if (!isUuid(unitId)) throw new InsightError('NOT_FOUND', 'No such unit.');
+  if (!isId(unitId)) throw new AppError('NOT_FOUND', 'No such unit.');
   const [u] = await r.select({ id: plantUnits.id }).from(plantUnits).where(eq(plantUnits.id, unitId));
-  if (!u) throw new InsightError('NOT_FOUND', 'No such unit.');
+  if (!u) throw new AppError('NOT_FOUND', 'No such unit.');
   const [s] = await r.select().from(driftSettings).where(eq(driftSettings.unitId, unitId));
   return s ? { k: s.k, h: s.h, isDefault: false, updatedAt: s.updatedAt.toISOString() } : { ...DRIFT_DEFAULTS, isDefault: true, updatedAt: null };
 }
@@ -65,7 +66,7 @@ export async function setDriftSettings(unitId: string, input: z.infer<typeof Dri
       .onConflictDoUpdate({ target: driftSettings.unitId, set: { k: input.k, h: input.h, updatedBy: userId, updatedAt: new Date() } });
     await tx.delete(driftPoints).where(eq(driftPoints.unitId, unitId));
     const boss = await queue();
-    await boss.send(QUEUES.checkDrift, { siteId: unit!.siteId, fromMs: 0, toMs: Math.ceil(Date.now() / HOUR_ms) * HOUR_ms, unitIds: [unitId] }, { db: { executeSql: exec as never } });
+    await sendJob(boss, QUEUES.checkDrift, { siteId: unit!.siteId, fromMs: 0, toMs: Math.ceil(Date.now() / HOUR_ms) * HOUR_ms, unitIds: [unitId] }, { db: { executeSql: exec as never } });
   });
   return driftSettingsFor(unitId);
 }

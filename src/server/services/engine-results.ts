@@ -3,27 +3,19 @@
  * one hour opened up (the stored audit trail), and the units of every site with their latest hour.
  */
 import { and, asc, desc, eq, gte, lt, sql } from 'drizzle-orm';
+import { isId } from '../access';
 import { db } from '../db/client';
+import { AppError } from '../errors';
 import { plantUnits, sites, unitHours } from '../db/schema';
 import { csvCell } from './uploads';
 import { rebuildUnitHour } from './engine';
 
-export class EngineQueryError extends Error {
-  constructor(
-    readonly code: 'NOT_FOUND' | 'VALIDATION_FAILED',
-    message: string,
-  ) {
-    super(message);
-  }
-}
-
 /** Longest range one request may ask for: 400 days of hours. */
 export const MAX_RANGE_MS = 400 * 24 * 3_600_000;
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
 /** A unit with its site, for the results API and page. */
 export async function unitHeader(unitId: string | undefined) {
-  if (!unitId || !UUID.test(unitId)) throw new EngineQueryError('NOT_FOUND', 'No such unit.');
+  if (!isId(unitId)) throw new AppError('NOT_FOUND', 'No such unit.');
   const [row] = await db()
     .select({
       id: plantUnits.id,
@@ -40,7 +32,7 @@ export async function unitHeader(unitId: string | undefined) {
     .innerJoin(sites, eq(sites.id, plantUnits.siteId))
     .where(eq(plantUnits.id, unitId))
     .limit(1);
-  if (!row) throw new EngineQueryError('NOT_FOUND', 'No such unit.');
+  if (!row) throw new AppError('NOT_FOUND', 'No such unit.');
   return row;
 }
 export type UnitHeader = Awaited<ReturnType<typeof unitHeader>>;
@@ -70,8 +62,8 @@ const LIST_COLUMNS = {
 };
 
 function range(from: Date, to: Date) {
-  if (!(to > from)) throw new EngineQueryError('VALIDATION_FAILED', '"to" must be after "from".');
-  if (to.getTime() - from.getTime() > MAX_RANGE_MS) throw new EngineQueryError('VALIDATION_FAILED', 'Ask for at most 400 days at a time.');
+  if (!(to > from)) throw new AppError('VALIDATION_FAILED', '"to" must be after "from".');
+  if (to.getTime() - from.getTime() > MAX_RANGE_MS) throw new AppError('VALIDATION_FAILED', 'Ask for at most 400 days at a time.');
 }
 
 /** A unit's hours with hour start in [from, to), oldest first, without the detail. */
@@ -95,13 +87,13 @@ export type UnitHourRow = Awaited<ReturnType<typeof unitHoursOf>>[number];
  * would be computed now).
  */
 export async function unitHourDetail(unitId: string, hourStart: Date) {
-  if (Number.isNaN(hourStart.getTime())) throw new EngineQueryError('VALIDATION_FAILED', 'Give the hour as an ISO 8601 instant (with Z or an offset) or in ms.');
+  if (Number.isNaN(hourStart.getTime())) throw new AppError('VALIDATION_FAILED', 'Give the hour as an ISO 8601 instant (with Z or an offset) or in ms.');
   const [r] = await db()
     .select(LIST_COLUMNS)
     .from(unitHours)
     .where(and(eq(unitHours.unitId, unitId), eq(unitHours.hourStart, hourStart)))
     .limit(1);
-  if (!r) throw new EngineQueryError('NOT_FOUND', 'This unit has no computed hour starting then.');
+  if (!r) throw new AppError('NOT_FOUND', 'This unit has no computed hour starting then.');
   const t0 = performance.now();
   let res = await rebuildUnitHour(unitId, hourStart.getTime(), true);
   // An hour stored without uncertainty (a job run with uncertainty off) hashes that choice too.

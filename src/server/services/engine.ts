@@ -9,7 +9,7 @@
  * recomputes every unit of the site (their cost depends on it); unchanged hours are skipped anyway.
  */
 import { and, asc, eq, gte, inArray, lt, sql } from 'drizzle-orm';
-import { CheckDriftPayload, ComputeUnitHoursPayload, QUEUES } from '~/jobs';
+import { CheckDriftPayload, ComputeUnitHoursPayload, QUEUES, sendJob } from '~/jobs';
 import {
   computeUnitHour,
   costKindOf,
@@ -226,7 +226,7 @@ export async function computeUnitHours(payload: { siteId: string; fromMs: number
     summary.touched = { fromMs: tFrom, toMs: tTo, unitIds: [...touchedUnits] };
     if (options.sendDrift ?? true) {
       const boss = await queue();
-      await boss.send(QUEUES.checkDrift, CheckDriftPayload.parse({ siteId: p.siteId, ...summary.touched }), { retryLimit: 2, retryDelay: 10 });
+      await sendJob(boss, QUEUES.checkDrift, CheckDriftPayload.parse({ siteId: p.siteId, ...summary.touched }), { retryLimit: 2, retryDelay: 10 });
     }
   }
   return summary;

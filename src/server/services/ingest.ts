@@ -21,7 +21,7 @@ import { isLinkQuantity, unitsQuantityOf } from '~/lib/plant/kinds';
 import { db, pgPool } from '../db/client';
 import { TAG_HOUR_FLAGS, layoutProfiles, sites, tagLinks, tags, uploads } from '../db/schema';
 import { ensureMonthPartitions } from '../db/partitions';
-import { QUEUES } from '~/jobs';
+import { QUEUES, sendJob } from '~/jobs';
 import { queue } from '../queue';
 import { bucket, objectStream, s3 } from '../storage';
 import { findDuplicate, storedObjectMismatch } from './uploads';
@@ -697,7 +697,7 @@ async function queueRecompute(siteId: string, firstMs: number | null, lastMs: nu
   const HOUR = 3_600_000;
   const payload = { siteId, fromMs: Math.floor(firstMs / HOUR) * HOUR - HOUR, toMs: Math.ceil(lastMs / HOUR) * HOUR + HOUR };
   const boss = await queue();
-  await boss.send(QUEUES.computeUnitHours, payload, {
+  await sendJob(boss, QUEUES.computeUnitHours, payload, {
     retryLimit: 2,
     retryDelay: 10,
     db: { executeSql: (text: string, values: unknown[]) => client.query(text, values as unknown[]) },
@@ -795,7 +795,7 @@ export async function resumeInterruptedUploads(): Promise<number> {
         const moved = await client.query(`update uploads set status = 'queued' where id = $1 and status in ('processing', 'queued')`, [id]);
         if (moved.rowCount !== 1) continue; // it finished in between
         const boss = await queue();
-        await boss.send(QUEUES.ingestFile, { uploadId: id }, { singletonKey: `${id}:resume:${Date.now()}`, retryLimit: 2, retryDelay: 5, expireInSeconds: 60 * 60 * 2 });
+        await sendJob(boss, QUEUES.ingestFile, { uploadId: id }, { singletonKey: `${id}:resume:${Date.now()}`, retryLimit: 2, retryDelay: 5, expireInSeconds: 60 * 60 * 2 });
         resumed++;
       } finally {
         await client.query('select pg_advisory_unlock(hashtextextended($1, 0))', ['ingest:' + id]);

@@ -12,7 +12,7 @@ import { format } from 'date-fns';
 import { and, asc, desc, eq, gte, inArray, lt, ne, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import { z } from 'zod';
-import { QUEUES } from '~/jobs';
+import { QUEUES, sendJob } from '~/jobs';
 import { fuelExergyCost_per_J } from '~/lib/analytics/cost';
 import { chartSeries, type ResidualHour } from '~/lib/analytics/notice-figures';
 import type { Role } from '~/lib/roles';
@@ -36,7 +36,8 @@ import {
 } from '../db/schema';
 import { env } from '../env';
 import { queue } from '../queue';
-import { InsightError, isUuid } from './baselines';
+import { isId } from '../access';
+import { AppError } from '../errors';
 import { inInsightTx, type Exec, type Tx } from './drift-tx';
 import { NOTICE_CAUTION, digestMail, escalationMail, noticeMail } from './notice-mail';
 import { ruleViewFields } from './unit-rule-words';
@@ -111,9 +112,9 @@ export async function escalationMultipleFor(r: Pick<Tx, 'select'>, siteId: strin
 
 /** A site's notice settings (the defaults when nobody changed them). */
 export async function noticeSettingsFor(siteId: string) {
-  if (!isUuid(siteId)) throw new InsightError('NOT_FOUND', 'No such site.');
+  if (!isId(siteId)) throw new AppError('NOT_FOUND', 'No such site.');
   const [site] = await db().select({ id: sites.id }).from(sites).where(eq(sites.id, siteId));
-  if (!site) throw new InsightError('NOT_FOUND', 'No such site.');
+  if (!site) throw new AppError('NOT_FOUND', 'No such site.');
   const [row] = await db().select().from(noticeSiteSettings).where(eq(noticeSiteSettings.siteId, siteId));
   return row
     ? { siteId, escalationMultiple: row.escalationMultiple, isDefault: false, updatedAt: row.updatedAt.toISOString() }
@@ -235,8 +236,8 @@ export async function listNotices(
 ): Promise<NoticeView[]> {
   const where = and(
     filter.status === 'not-closed' ? ne(driftNotices.status, 'closed') : filter.status ? eq(driftNotices.status, filter.status) : undefined,
-    filter.unitId && isUuid(filter.unitId) ? eq(driftNotices.unitId, filter.unitId) : undefined,
-    filter.siteId && isUuid(filter.siteId) ? eq(driftNotices.siteId, filter.siteId) : undefined,
+    filter.unitId && isId(filter.unitId) ? eq(driftNotices.unitId, filter.unitId) : undefined,
+    filter.siteId && isId(filter.siteId) ? eq(driftNotices.siteId, filter.siteId) : undefined,
   );
   const closedLast = sql`case ${driftNotices.status} when 'closed' then 1 else 0 end`;
   const order =
@@ -251,9 +252,9 @@ export async function listNotices(
 }
 
 export async function getNotice(noticeId: string): Promise<NoticeView> {
-  if (!isUuid(noticeId)) throw new InsightError('NOT_FOUND', 'No such drift notice.');
+  if (!isId(noticeId)) throw new AppError('NOT_FOUND', 'No such drift notice.');
   const [r] = await noticeQuery().where(eq(driftNotices.id, noticeId));
-  if (!r) throw new InsightError('NOT_FOUND', 'No such drift notice.');
+  if (!r) throw new AppError('NOT_FOUND', 'No such drift notice.');
   return toView(r);
 }
 
@@ -341,7 +342,7 @@ export async function acknowledgeNotice(noticeId: string, userId: string, commen
     .set({ status: 'acknowledged', acknowledgedBy: userId, acknowledgedAt: new Date(), acknowledgeComment: comment || null })
     .where(and(eq(driftNotices.id, noticeId), eq(driftNotices.status, 'open')))
     .returning({ id: driftNotices.id });
-  if (!done.length) throw new InsightError('CONFLICT', `This notice is already ${n.statusWord}.`);
+  if (!done.length) throw new AppError('CONFLICT', `This notice is already ${n.statusWord}.`);
   return getNotice(noticeId);
 }
 
@@ -360,17 +361,17 @@ function siteDate(text: string, tz: string): Date {
  */
 export async function closeNotice(noticeId: string, userId: string, comment: string, details: CloseDetails = {}): Promise<NoticeView> {
   const n = await getNotice(noticeId);
-  if (!comment.trim()) throw new InsightError('VALIDATION_FAILED', 'Say why the notice is closed (what was found or done).');
+  if (!comment.trim()) throw new AppError('VALIDATION_FAILED', 'Say why the notice is closed (what was found or done).');
   const outcome: CloseOutcome | null = details.outcome ?? null;
-  if (outcome === 'repaired' && !details.repairedAt) throw new InsightError('VALIDATION_FAILED', 'Give the date of the repair work.');
+  if (outcome === 'repaired' && !details.repairedAt) throw new AppError('VALIDATION_FAILED', 'Give the date of the repair work.');
   const repairedAt = outcome === 'repaired' ? siteDate(details.repairedAt!, n.timeZone) : null;
   const newNormalFrom = outcome === 'new-normal' && details.newNormalFrom ? siteDate(details.newNormalFrom, n.timeZone) : null;
   if (repairedAt) {
-    if (Number.isNaN(repairedAt.getTime())) throw new InsightError('VALIDATION_FAILED', 'The repair date is not a date.');
-    if (repairedAt.getTime() < new Date(n.onsetHour).getTime()) throw new InsightError('VALIDATION_FAILED', 'The repair date is before the shift began.');
-    if (repairedAt.getTime() > Date.now() + 86_400_000) throw new InsightError('VALIDATION_FAILED', 'The repair date is in the future.');
+    if (Number.isNaN(repairedAt.getTime())) throw new AppError('VALIDATION_FAILED', 'The repair date is not a date.');
+    if (repairedAt.getTime() < new Date(n.onsetHour).getTime()) throw new AppError('VALIDATION_FAILED', 'The repair date is before the shift began.');
+    if (repairedAt.getTime() > Date.now() + 86_400_000) throw new AppError('VALIDATION_FAILED', 'The repair date is in the future.');
   }
-  if (newNormalFrom && Number.isNaN(newNormalFrom.getTime())) throw new InsightError('VALIDATION_FAILED', 'The date of the new normal is not a date.');
+  if (newNormalFrom && Number.isNaN(newNormalFrom.getTime())) throw new AppError('VALIDATION_FAILED', 'The date of the new normal is not a date.');
   const closed = await inInsightTx(async (tx, exec) => {
     const done = await tx
       .update(driftNotices)
@@ -381,7 +382,8 @@ export async function closeNotice(noticeId: string, userId: string, comment: str
     if (repairedAt) {
       const boss = await queue();
       const hourMs = Math.floor(repairedAt.getTime() / 3_600_000) * 3_600_000;
-      await boss.send(
+      await sendJob(
+        boss,
         QUEUES.checkDrift,
         { siteId: n.siteId, fromMs: hourMs, toMs: Math.ceil(Date.now() / 3_600_000) * 3_600_000, unitIds: [n.unitId] },
         { db: { executeSql: exec as never } },
@@ -389,7 +391,7 @@ export async function closeNotice(noticeId: string, userId: string, comment: str
     }
     return true;
   });
-  if (!closed) throw new InsightError('CONFLICT', `This notice is already ${n.statusWord}.`);
+  if (!closed) throw new AppError('CONFLICT', `This notice is already ${n.statusWord}.`);
   return getNotice(noticeId);
 }
 
@@ -426,7 +428,7 @@ export async function queueNoticeMails(tx: Tx, exec: Exec, noticeId: string): Pr
   const sent: string[] = [];
   for (const m of marked) {
     const to = byId.get(m.userId)!;
-    await boss.send(QUEUES.sendMail, noticeMail(view, to), { retryLimit: 3, retryDelay: 30, db: { executeSql: exec as never } });
+    await sendJob(boss, QUEUES.sendMail, noticeMail(view, to), { retryLimit: 3, retryDelay: 30, db: { executeSql: exec as never } });
     sent.push(to);
   }
   return sent;
@@ -453,7 +455,7 @@ export async function queueEscalationMails(tx: Tx, exec: Exec, noticeId: string,
   const sent: string[] = [];
   for (const m of marked) {
     const to = byId.get(m.userId)!;
-    await boss.send(QUEUES.sendMail, escalationMail(view, to, step, fromCost_per_day, toCost_per_day), { retryLimit: 3, retryDelay: 30, db: { executeSql: exec as never } });
+    await sendJob(boss, QUEUES.sendMail, escalationMail(view, to, step, fromCost_per_day, toCost_per_day), { retryLimit: 3, retryDelay: 30, db: { executeSql: exec as never } });
     sent.push(to);
   }
   return sent;
@@ -530,7 +532,7 @@ export async function sendNoticeDigests(now = new Date()): Promise<string[]> {
       const [mark] = await tx.insert(noticeDigests).values({ userId: p.id, day, notices: theirs.length }).onConflictDoNothing().returning({ userId: noticeDigests.userId });
       if (!mark) return false;
       const boss = await queue();
-      await boss.send(QUEUES.sendMail, digestMail(theirs, p.email, day), { retryLimit: 3, retryDelay: 30, db: { executeSql: exec as never } });
+      await sendJob(boss, QUEUES.sendMail, digestMail(theirs, p.email, day), { retryLimit: 3, retryDelay: 30, db: { executeSql: exec as never } });
       return true;
     });
     if (queued) sent.push(p.email);

@@ -12,7 +12,8 @@ import { LINK_QUANTITY_NAMES, type FluidKind, type LinkQuantity, type UnitKind }
 import { defaultUncertainty } from '~/lib/plant/uncertainty';
 import { db } from '../db/client';
 import { plantPorts, plantUnits, tagLinks, tags } from '../db/schema';
-import { PlantRuleError, inTransaction, openEndMs, type Tx } from './plant-tx';
+import { AppError } from '../errors';
+import { inTransaction, openEndMs, type Tx } from './plant-tx';
 
 type Reader = Tx | ReturnType<typeof db>;
 
@@ -133,7 +134,7 @@ export async function currentLinksOfUnit(siteId: string, unitId: string, now = n
 async function resolveTag(tx: Tx, siteId: string, input: { tagId?: string; tag?: string }): Promise<{ id: string; name: string }> {
   if (input.tagId) {
     const [t] = await tx.select({ id: tags.id, name: tags.name }).from(tags).where(and(eq(tags.id, input.tagId), eq(tags.siteId, siteId))).limit(1);
-    if (!t) throw new PlantRuleError('VALIDATION_FAILED', 'No such tag at this site.', [{ path: '$.tagId', message: 'No such tag at this site.' }]);
+    if (!t) throw new AppError('VALIDATION_FAILED', 'No such tag at this site.', [{ path: '$.tagId', message: 'No such tag at this site.' }]);
     return t;
   }
   if (input.tag) {
@@ -141,7 +142,7 @@ async function resolveTag(tx: Tx, siteId: string, input: { tagId?: string; tag?:
     const [t] = await tx.select({ id: tags.id, name: tags.name }).from(tags).where(and(eq(tags.siteId, siteId), eq(tags.name, input.tag))).limit(1);
     return t!;
   }
-  throw new PlantRuleError('VALIDATION_FAILED', 'Say which tag to link.', [{ path: '$.tagId', message: 'Give tagId or tag (a name).' }]);
+  throw new AppError('VALIDATION_FAILED', 'Say which tag to link.', [{ path: '$.tagId', message: 'Give tagId or tag (a name).' }]);
 }
 
 /**
@@ -156,12 +157,12 @@ export async function setLink(siteId: string, input: LinkInput, createdBy: strin
   return inTransaction(async (tx, recompute) => {
     // Serialise changes of one unit's links.
     const [unit] = await tx.select().from(plantUnits).where(and(eq(plantUnits.id, input.unitId), eq(plantUnits.siteId, siteId))).for('update').limit(1);
-    if (!unit) throw new PlantRuleError('NOT_FOUND', 'No such unit at this site.');
+    if (!unit) throw new AppError('NOT_FOUND', 'No such unit at this site.');
     let target: LinkTarget = { kind: unit.kind as UnitKind, slot: null, fluid: null };
     const portId = input.portId ?? null;
     if (portId) {
       const [port] = await tx.select().from(plantPorts).where(and(eq(plantPorts.id, portId), eq(plantPorts.unitId, unit.id))).limit(1);
-      if (!port) throw new PlantRuleError('VALIDATION_FAILED', 'No such port on this unit.', [{ path: '$.portId', message: 'No such port on this unit.' }]);
+      if (!port) throw new AppError('VALIDATION_FAILED', 'No such port on this unit.', [{ path: '$.portId', message: 'No such port on this unit.' }]);
       target = { kind: unit.kind as UnitKind, slot: port.slot, fluid: (port.fluid?.kind ?? null) as FluidKind | null };
     }
     const tag = await resolveTag(tx, siteId, input);
@@ -183,7 +184,7 @@ export async function setLink(siteId: string, input: LinkInput, createdBy: strin
       ...(input.validMax != null ? { validMax: input.validMax } : {}),
     };
     const issues = checkLink(target, asModel, []);
-    if (issues.length) throw new PlantRuleError('VALIDATION_FAILED', issues[0]!.message, issues);
+    if (issues.length) throw new AppError('VALIDATION_FAILED', issues[0]!.message, issues);
 
     const tMs = t.getTime();
     const covering = live.find((v) => v.validFrom.getTime() <= tMs && (v.validTo === null || v.validTo.getTime() > tMs));
@@ -224,13 +225,13 @@ export async function setLink(siteId: string, input: LinkInput, createdBy: strin
  * Queues a recompute of [at, the version's former end or the end of the current hour) for its unit.
  */
 export async function endLink(siteId: string, linkId: string, at: Date = new Date()) {
-  if (!/^[0-9a-f-]{36}$/i.test(linkId) || !/^[0-9a-f-]{36}$/i.test(siteId)) throw new PlantRuleError('NOT_FOUND', 'No such link at this site.');
+  if (!/^[0-9a-f-]{36}$/i.test(linkId) || !/^[0-9a-f-]{36}$/i.test(siteId)) throw new AppError('NOT_FOUND', 'No such link at this site.');
   return inTransaction(async (tx, recompute) => {
     const [row] = await tx.select().from(tagLinks).where(and(eq(tagLinks.id, linkId), eq(tagLinks.siteId, siteId))).for('update').limit(1);
-    if (!row) throw new PlantRuleError('NOT_FOUND', 'No such link at this site.');
+    if (!row) throw new AppError('NOT_FOUND', 'No such link at this site.');
     const atMs = at.getTime();
     if (!(row.validFrom.getTime() <= atMs && (row.validTo === null || row.validTo.getTime() > atMs))) {
-      throw new PlantRuleError('CONFLICT', 'This version does not hold at that instant; end the version that does.');
+      throw new AppError('CONFLICT', 'This version does not hold at that instant; end the version that does.');
     }
     await tx.update(tagLinks).set({ validTo: at }).where(eq(tagLinks.id, linkId));
     const range = { siteId, fromMs: atMs, toMs: row.validTo ? row.validTo.getTime() : Math.max(openEndMs(), atMs + 3_600_000), unitIds: [row.unitId] };

@@ -19,7 +19,8 @@ import { defaultUncertainty } from '~/lib/plant/uncertainty';
 import { db } from '../db/client';
 import { plantPorts, plantUnits, sites, tagLinks, tags } from '../db/schema';
 import { dataSpan, ensureTag, getSite, resolveAtmosphere, siteModel } from './plant';
-import { PlantRuleError, inTransaction, openEndMs, type RecomputeRequest, type Tx } from './plant-tx';
+import { AppError } from '../errors';
+import { inTransaction, openEndMs, type RecomputeRequest, type Tx } from './plant-tx';
 import { queueUnitRuleCheck } from './unit-rules';
 
 /** The site's model file. */
@@ -28,7 +29,7 @@ export async function exportModel(siteId: string): Promise<PlantModel> {
 }
 
 function invalid(issues: ModelIssue[]): never {
-  throw new PlantRuleError('VALIDATION_FAILED', `The model file has ${issues.length} problem${issues.length === 1 ? '' : 's'}; nothing was changed.`, issues);
+  throw new AppError('VALIDATION_FAILED', `The model file has ${issues.length} problem${issues.length === 1 ? '' : 's'}; nothing was changed.`, issues);
 }
 
 /** Fills defaults the file may leave out, so a stored unit always carries its full parameters and uncertainties. */
@@ -237,7 +238,7 @@ async function siteNameIssue(tx: Tx, name: string, exceptId: string | null): Pro
 }
 
 /**
- * Replaces a site's model with the file's. All or nothing: on any problem, PlantRuleError
+ * Replaces a site's model with the file's. All or nothing: on any problem, AppError
  * VALIDATION_FAILED with every issue's JSON path, and the database is as before.
  */
 export async function importModel(siteId: string, input: unknown) {

@@ -1,22 +1,10 @@
 import type { z } from 'zod';
-import { ComputeUnitHoursPayload, QUEUES } from '~/jobs';
-import type { ModelIssue } from '~/lib/plant/model';
+import { ComputeUnitHoursPayload, QUEUES, sendJob } from '~/jobs';
 import { withTransaction, type Tx } from '../db/tx';
 import { queue } from '../queue';
 
 export type { Tx };
 export type RecomputeRequest = z.infer<typeof ComputeUnitHoursPayload>;
-
-/** A rule of the plant model was broken; code is one of src/server/errors.ts. */
-export class PlantRuleError extends Error {
-  constructor(
-    readonly code: 'NOT_FOUND' | 'CONFLICT' | 'VALIDATION_FAILED' | 'UNPROCESSABLE' | 'FORBIDDEN',
-    message: string,
-    readonly issues?: ModelIssue[],
-  ) {
-    super(message);
-  }
-}
 
 /** One hour [ms]. */
 export const HOUR_ms = 3_600_000;
@@ -37,7 +25,7 @@ export async function inTransaction<T>(fn: (tx: Tx, recompute: (req: RecomputeRe
     fn(tx, async (req: RecomputeRequest) => {
       const payload = ComputeUnitHoursPayload.parse(req);
       if (payload.toMs <= payload.fromMs) return;
-      await boss.send(QUEUES.computeUnitHours, payload, { db: { executeSql: (text, values) => exec(text, values) } });
+      await sendJob(boss, QUEUES.computeUnitHours, payload, { db: { executeSql: (text, values) => exec(text, values) } });
     }),
   );
 }

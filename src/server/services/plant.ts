@@ -6,57 +6,35 @@
 import { and, asc, eq, ilike, inArray, isNull, gt, lte, or, sql, notExists } from 'drizzle-orm';
 import { z } from 'zod';
 import {
-  FuelDefinitionSchema,
-  FluidSchema,
-  EnergyPriceSchema,
   BEGINNING_MS,
-  PRESSURE_ATM_MAX_Pa,
-  PRESSURE_ATM_MIN_Pa,
-  T0_MAX_K,
-  T0_MIN_K,
   checkParameter,
   checkPort,
   checkNormallyIdle,
   checkUnit,
-  isTimeZone,
   type LinkModel,
   type PlantModel,
   type PortModel,
   type SiteModel,
   type UnitModel,
 } from '~/lib/plant/model';
-import { ELEVATION_MAX_m, ELEVATION_MIN_m, pressureAtElevation } from '~/lib/plant/atmosphere';
-import { UNIT_KINDS, defaultParameters, kindSpec, type ParamValue, type UnitKind } from '~/lib/plant/kinds';
+import { pressureAtElevation } from '~/lib/plant/atmosphere';
+import { defaultParameters, kindSpec, type ParamValue, type UnitKind } from '~/lib/plant/kinds';
 import { unitStatus, type UnitStatus } from '~/lib/plant/status';
-import { NormallyIdleSchema, tidyNormallyIdle, type NormallyIdle } from '~/lib/plant/idle';
+import { tidyNormallyIdle, type NormallyIdle } from '~/lib/plant/idle';
 import { canConvert } from '~/lib/units/convert';
+import { PortInput, PortUpdateInput, SiteInput, UnitCreateInput, UnitUpdateInput } from '~/lib/plant/inputs';
 import { db } from '../db/client';
 import { plantPorts, plantUnits, sites, tagLinks, tags } from '../db/schema';
-import { PlantRuleError, inTransaction, openEndMs, type Tx } from './plant-tx';
+import { isId } from '../access';
+import { AppError } from '../errors';
+import { inTransaction, openEndMs, type Tx } from './plant-tx';
 import { queueUnitRuleCheck } from './unit-rules';
 
 type Reader = Tx | ReturnType<typeof db>;
 
 // ---- sites -------------------------------------------------------------------------------------
 
-const currency = z.string().regex(/^[A-Z]{3}$/, 'A currency is a three-letter ISO 4217 code in capitals (EUR, USD, GBP).');
-
-/** A site's settings as the screens and the API send them. */
-export const SiteInput = z.strictObject({
-  name: z.string().trim().min(1, 'Give the site a name.').max(120),
-  timeZone: z.string().max(64).refine(isTimeZone, 'Not an IANA time zone (e.g. Europe/Berlin, America/Chicago, UTC).'),
-  /** Elevation above sea level [m]; used for p_atm_Pa when that is not given. */
-  elevation_m: z.number().finite().min(ELEVATION_MIN_m).max(ELEVATION_MAX_m).nullable().optional(),
-  /** Atmospheric pressure [Pa] for gauge readings; from the elevation when left out. */
-  p_atm_Pa: z.number().finite().min(PRESSURE_ATM_MIN_Pa, 'Give p_atm_Pa in Pa (e.g. 101325).').max(PRESSURE_ATM_MAX_Pa).nullable().optional(),
-  T0_K: z.number().finite().min(T0_MIN_K).max(T0_MAX_K).default(298.15),
-  p0_Pa: z.number().finite().min(PRESSURE_ATM_MIN_Pa).max(PRESSURE_ATM_MAX_Pa).default(101325),
-  /** Ambient-temperature tag for an hourly T0 (T0_K is then the fallback); null for a fixed T0. */
-  T0Tag: z.strictObject({ tag: z.string().trim().min(1).max(200), unit: z.string().min(1).max(40) }).nullable().optional(),
-  currency: currency.default('EUR'),
-  prices: z.array(EnergyPriceSchema).default([]),
-});
-export type SiteInput = z.infer<typeof SiteInput>;
+export { SiteInput };
 
 /** Atmospheric pressure to store: as given, else from the elevation, else sea level. */
 export function resolveAtmosphere(input: { elevation_m?: number | null; p_atm_Pa?: number | null }): number {
@@ -69,16 +47,10 @@ export async function listSites() {
   return db().select().from(sites).orderBy(asc(sites.name));
 }
 
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
-/** Ids come from URLs: anything that is not a UUID is simply not found. */
-export function isId(id: string | undefined): id is string {
-  return typeof id === 'string' && UUID.test(id);
-}
-
 export async function getSite(siteId: string, r: Reader = db()) {
-  if (!isId(siteId)) throw new PlantRuleError('NOT_FOUND', 'No such site.');
+  if (!isId(siteId)) throw new AppError('NOT_FOUND', 'No such site.');
   const [site] = await r.select().from(sites).where(eq(sites.id, siteId)).limit(1);
-  if (!site) throw new PlantRuleError('NOT_FOUND', 'No such site.');
+  if (!site) throw new AppError('NOT_FOUND', 'No such site.');
   return site;
 }
 
@@ -91,13 +63,13 @@ export async function ensureTag(tx: Tx, siteId: string, name: string): Promise<s
 
 async function siteValues(tx: Tx, siteId: string | null, input: SiteInput) {
   if (input.T0Tag && !canConvert(input.T0Tag.unit, 'temperature')) {
-    throw new PlantRuleError('VALIDATION_FAILED', 'The ambient-temperature tag needs a temperature unit.', [
+    throw new AppError('VALIDATION_FAILED', 'The ambient-temperature tag needs a temperature unit.', [
       { path: '$.T0Tag.unit', message: `'${input.T0Tag.unit}' is not a temperature unit.` },
     ]);
   }
   const names = new Set<string>();
   for (const [i, p] of input.prices.entries()) {
-    if (names.has(p.name)) throw new PlantRuleError('VALIDATION_FAILED', 'Two prices share a name.', [{ path: `$.prices[${i}].name`, message: `Price name '${p.name}' is used twice.` }]);
+    if (names.has(p.name)) throw new AppError('VALIDATION_FAILED', 'Two prices share a name.', [{ path: `$.prices[${i}].name`, message: `Price name '${p.name}' is used twice.` }]);
     names.add(p.name);
   }
   return {
@@ -122,7 +94,7 @@ async function nameTaken(tx: Tx, name: string, exceptId: string | null): Promise
 
 export async function createSite(input: SiteInput) {
   return inTransaction(async (tx) => {
-    if (await nameTaken(tx, input.name, null)) throw new PlantRuleError('CONFLICT', `A site named '${input.name}' exists already.`);
+    if (await nameTaken(tx, input.name, null)) throw new AppError('CONFLICT', `A site named '${input.name}' exists already.`);
     const values = await siteValues(tx, null, { ...input, T0Tag: null });
     const [row] = await tx.insert(sites).values(values).returning();
     if (input.T0Tag) {
@@ -136,7 +108,7 @@ export async function createSite(input: SiteInput) {
 export async function updateSite(siteId: string, input: SiteInput) {
   return inTransaction(async (tx, recompute) => {
     const before = await getSite(siteId, tx);
-    if (await nameTaken(tx, input.name, siteId)) throw new PlantRuleError('CONFLICT', `A site named '${input.name}' exists already.`);
+    if (await nameTaken(tx, input.name, siteId)) throw new AppError('CONFLICT', `A site named '${input.name}' exists already.`);
     const values = await siteValues(tx, siteId, input);
     await tx.update(sites).set(values).where(eq(sites.id, siteId));
     const physics = (s: { p_atm_Pa: number; T0_K: number; p0_Pa: number; t0TagId: string | null; t0TagUnit: string | null }) =>
@@ -150,9 +122,9 @@ export async function updateSite(siteId: string, input: SiteInput) {
 }
 
 export async function deleteSite(siteId: string) {
-  if (!isId(siteId)) throw new PlantRuleError('NOT_FOUND', 'No such site.');
+  if (!isId(siteId)) throw new AppError('NOT_FOUND', 'No such site.');
   const out = await db().delete(sites).where(eq(sites.id, siteId)).returning({ id: sites.id });
-  if (!out.length) throw new PlantRuleError('NOT_FOUND', 'No such site.');
+  if (!out.length) throw new AppError('NOT_FOUND', 'No such site.');
 }
 
 /** First and last hour with tag data at the site [ms, ms + 1 h), or null when it has none. */
@@ -167,37 +139,12 @@ export async function dataSpan(r: Reader, siteId: string): Promise<{ fromMs: num
 
 // ---- units and ports ---------------------------------------------------------------------------
 
-export const UnitCreateInput = z.strictObject({
-  name: z.string().trim().min(1, 'Give the unit a name.').max(120),
-  kind: z.enum(UNIT_KINDS),
-  description: z.string().max(2000).optional(),
-  parameters: z.record(z.string().max(80), z.union([z.number().finite(), z.string().max(200)])).optional(),
-  fuel: FuelDefinitionSchema.optional(),
-  /** Also add the kind's required ports, named after their slots. */
-  withPorts: z.boolean().optional(),
-});
-export const UnitUpdateInput = z.strictObject({
-  name: z.string().trim().min(1).max(120).optional(),
-  description: z.string().max(2000).nullable().optional(),
-  /** Values to set (SI); null resets a parameter to its default. */
-  parameters: z.record(z.string().max(80), z.union([z.number().finite(), z.string().max(200), z.null()])).optional(),
-  fuel: FuelDefinitionSchema.nullable().optional(),
-  /** Declared normally idle; null: not idle. */
-  normallyIdle: NormallyIdleSchema.nullable().optional(),
-});
-export const PortInput = z.strictObject({
-  name: z.string().trim().min(1, 'Give the port a name.').max(120),
-  slot: z.string().min(1).max(80),
-  fluid: FluidSchema.nullable().optional(),
-  boundaryT_K: z.number().finite().positive().nullable().optional(),
-  account: z.enum(['fuel', 'product', 'loss']).nullable().optional(),
-});
-export const PortUpdateInput = PortInput.partial().omit({ slot: true });
+export { UnitCreateInput, UnitUpdateInput, PortInput, PortUpdateInput };
 
 async function getUnit(tx: Reader, siteId: string, unitId: string) {
-  if (!isId(siteId) || !isId(unitId)) throw new PlantRuleError('NOT_FOUND', 'No such unit at this site.');
+  if (!isId(siteId) || !isId(unitId)) throw new AppError('NOT_FOUND', 'No such unit at this site.');
   const [unit] = await tx.select().from(plantUnits).where(and(eq(plantUnits.id, unitId), eq(plantUnits.siteId, siteId))).limit(1);
-  if (!unit) throw new PlantRuleError('NOT_FOUND', 'No such unit at this site.');
+  if (!unit) throw new AppError('NOT_FOUND', 'No such unit at this site.');
   return unit;
 }
 
@@ -208,7 +155,7 @@ async function siteContext(tx: Reader, siteId: string) {
 }
 
 function rejectIssues(issues: { path: string; message: string }[], what: string) {
-  if (issues.length) throw new PlantRuleError('VALIDATION_FAILED', `${what}: ${issues[0]!.message}`, issues);
+  if (issues.length) throw new AppError('VALIDATION_FAILED', `${what}: ${issues[0]!.message}`, issues);
 }
 
 async function unitNameTaken(tx: Tx, siteId: string, name: string, exceptId: string | null) {
@@ -219,7 +166,7 @@ async function unitNameTaken(tx: Tx, siteId: string, name: string, exceptId: str
 export async function createUnit(siteId: string, input: z.infer<typeof UnitCreateInput>) {
   return inTransaction(async (tx) => {
     const ctx = await siteContext(tx, siteId);
-    if (await unitNameTaken(tx, siteId, input.name, null)) throw new PlantRuleError('CONFLICT', `The site has a unit named '${input.name}' already.`);
+    if (await unitNameTaken(tx, siteId, input.name, null)) throw new AppError('CONFLICT', `The site has a unit named '${input.name}' already.`);
     const parameters = { ...defaultParameters(input.kind), ...(input.parameters ?? {}) };
     if (input.kind === 'boiler') ctx.boilers.add(input.name);
     rejectIssues(checkUnit({ name: input.name, kind: input.kind, parameters, fuel: input.fuel, ports: [], links: [] }, [], ctx), 'The unit is not valid');
@@ -254,7 +201,7 @@ export async function updateUnit(siteId: string, unitId: string, input: z.infer<
     const unit = await getUnit(tx, siteId, unitId);
     const ctx = await siteContext(tx, siteId);
     if (input.name && input.name !== unit.name && (await unitNameTaken(tx, siteId, input.name, unitId))) {
-      throw new PlantRuleError('CONFLICT', `The site has a unit named '${input.name}' already.`);
+      throw new AppError('CONFLICT', `The site has a unit named '${input.name}' already.`);
     }
     const parameters: Record<string, ParamValue> = { ...unit.parameters };
     const defaults = defaultParameters(unit.kind);
@@ -342,9 +289,9 @@ export async function createPort(siteId: string, unitId: string, input: z.infer<
     rejectIssues(checkPort(unit.kind, port, [], ctx), 'The port is not valid');
     const slot = kindSpec(unit.kind).ports.find((s) => s.slot === input.slot)!;
     const existing = await tx.select().from(plantPorts).where(eq(plantPorts.unitId, unitId));
-    if (existing.some((p) => p.name === input.name)) throw new PlantRuleError('CONFLICT', `Unit '${unit.name}' has a port named '${input.name}' already.`);
+    if (existing.some((p) => p.name === input.name)) throw new AppError('CONFLICT', `Unit '${unit.name}' has a port named '${input.name}' already.`);
     if (slot.max !== null && existing.filter((p) => p.slot === slot.slot).length >= slot.max) {
-      throw new PlantRuleError('CONFLICT', `A ${unit.kind} has at most ${slot.max} '${slot.slot}' port${slot.max === 1 ? '' : 's'}.`);
+      throw new AppError('CONFLICT', `A ${unit.kind} has at most ${slot.max} '${slot.slot}' port${slot.max === 1 ? '' : 's'}.`);
     }
     const [row] = await tx
       .insert(plantPorts)
@@ -368,9 +315,9 @@ export async function createPort(siteId: string, unitId: string, input: z.infer<
 export async function updatePort(siteId: string, unitId: string, portId: string, input: z.infer<typeof PortUpdateInput>) {
   return inTransaction(async (tx, recompute) => {
     const unit = await getUnit(tx, siteId, unitId);
-    if (!isId(portId)) throw new PlantRuleError('NOT_FOUND', 'No such port on this unit.');
+    if (!isId(portId)) throw new AppError('NOT_FOUND', 'No such port on this unit.');
     const [row] = await tx.select().from(plantPorts).where(and(eq(plantPorts.id, portId), eq(plantPorts.unitId, unitId))).limit(1);
-    if (!row) throw new PlantRuleError('NOT_FOUND', 'No such port on this unit.');
+    if (!row) throw new AppError('NOT_FOUND', 'No such port on this unit.');
     const next = {
       name: input.name ?? row.name,
       fluid: input.fluid === undefined ? row.fluid : input.fluid,
@@ -387,7 +334,7 @@ export async function updatePort(siteId: string, unitId: string, portId: string,
     rejectIssues(checkPort(unit.kind, port, [], await siteContext(tx, siteId)), 'The port is not valid');
     if (next.name !== row.name) {
       const clash = await tx.select({ id: plantPorts.id }).from(plantPorts).where(and(eq(plantPorts.unitId, unitId), eq(plantPorts.name, next.name)));
-      if (clash.length) throw new PlantRuleError('CONFLICT', `Unit '${unit.name}' has a port named '${next.name}' already.`);
+      if (clash.length) throw new AppError('CONFLICT', `Unit '${unit.name}' has a port named '${next.name}' already.`);
     }
     await tx.update(plantPorts).set(next).where(eq(plantPorts.id, portId));
     await portChanged(tx, siteId, unitId, recompute);
@@ -397,9 +344,9 @@ export async function updatePort(siteId: string, unitId: string, portId: string,
 export async function deletePort(siteId: string, unitId: string, portId: string) {
   return inTransaction(async (tx, recompute) => {
     await getUnit(tx, siteId, unitId);
-    if (!isId(portId)) throw new PlantRuleError('NOT_FOUND', 'No such port on this unit.');
+    if (!isId(portId)) throw new AppError('NOT_FOUND', 'No such port on this unit.');
     const out = await tx.delete(plantPorts).where(and(eq(plantPorts.id, portId), eq(plantPorts.unitId, unitId))).returning({ id: plantPorts.id });
-    if (!out.length) throw new PlantRuleError('NOT_FOUND', 'No such port on this unit.');
+    if (!out.length) throw new AppError('NOT_FOUND', 'No such port on this unit.');
     await portChanged(tx, siteId, unitId, recompute);
   });
 }
@@ -557,7 +504,7 @@ export async function siteOverview(siteId: string) {
 export async function unitDetail(siteId: string, unitId: string) {
   const overview = await siteOverview(siteId);
   const unit = overview.units.find((u) => u.id === unitId);
-  if (!unit) throw new PlantRuleError('NOT_FOUND', 'No such unit at this site.');
+  if (!unit) throw new AppError('NOT_FOUND', 'No such unit at this site.');
   return { site: overview.site, unit, unitNames: overview.units.map((u) => ({ id: u.id, name: u.name, kind: u.kind })) };
 }
 

@@ -7,8 +7,8 @@
 import { and, asc, eq, gte, lt, sql } from 'drizzle-orm';
 import { db } from '../db/client';
 import { plantUnits, sites, unitHours, type HourState } from '../db/schema';
-import { PlantRuleError } from './plant-tx';
-import { isId } from './plant';
+import { AppError } from '../errors';
+import { isId } from '../access';
 import { localStamp, monthPeriod, type Period } from './views-period';
 import { expectedBand, siteNotices, type NoticeMark } from './views-insight';
 import { kindLabel, ledgerFrom, unitAggregates, type LedgerAnswer, type StateCounts } from './views';
@@ -61,9 +61,9 @@ export interface ReportData {
 }
 
 async function siteRow(siteId: string) {
-  if (!isId(siteId)) throw new PlantRuleError('NOT_FOUND', 'No such site.');
+  if (!isId(siteId)) throw new AppError('NOT_FOUND', 'No such site.');
   const [site] = await db().select().from(sites).where(eq(sites.id, siteId)).limit(1);
-  if (!site) throw new PlantRuleError('NOT_FOUND', 'No such site.');
+  if (!site) throw new AppError('NOT_FOUND', 'No such site.');
   return site;
 }
 
@@ -71,7 +71,7 @@ function monthOrError(month: string, timeZone: string): Period {
   try {
     return monthPeriod(month, timeZone);
   } catch (err) {
-    throw new PlantRuleError('VALIDATION_FAILED', (err as Error).message);
+    throw new AppError('VALIDATION_FAILED', (err as Error).message);
   }
 }
 

@@ -1,30 +1,22 @@
 import { and, asc, desc, eq, gte, lt, sql } from 'drizzle-orm';
 import { db } from '../db/client';
+import { AppError } from '../errors';
 import { TAG_HOUR_FLAGS, tagHourFlagNames, tagHourUploads, tagHours, tags, uploads } from '../db/schema';
 import { ensureMonthPartitions } from '../db/partitions';
-
-export class TagHourQueryError extends Error {
-  constructor(
-    readonly code: 'NOT_FOUND' | 'VALIDATION_FAILED',
-    message: string,
-  ) {
-    super(message);
-  }
-}
 
 /** Longest range one request may ask for: 400 days of hours. */
 export const MAX_RANGE_MS = 400 * 24 * 3600 * 1000;
 
 /** The tag hours of one tag between two instants (hour starts in [from, to)). */
 export async function tagHoursOf(siteId: string, tagName: string, from: Date, to: Date) {
-  if (!(to > from)) throw new TagHourQueryError('VALIDATION_FAILED', '"to" must be after "from".');
-  if (to.getTime() - from.getTime() > MAX_RANGE_MS) throw new TagHourQueryError('VALIDATION_FAILED', 'Ask for at most 400 days at a time.');
+  if (!(to > from)) throw new AppError('VALIDATION_FAILED', '"to" must be after "from".');
+  if (to.getTime() - from.getTime() > MAX_RANGE_MS) throw new AppError('VALIDATION_FAILED', 'Ask for at most 400 days at a time.');
   const [tag] = await db()
     .select()
     .from(tags)
     .where(and(eq(tags.siteId, siteId), eq(tags.name, tagName)))
     .limit(1);
-  if (!tag) throw new TagHourQueryError('NOT_FOUND', `No tag named "${tagName}" at this site.`);
+  if (!tag) throw new AppError('NOT_FOUND', `No tag named "${tagName}" at this site.`);
   const rows = await db()
     .select()
     .from(tagHours)

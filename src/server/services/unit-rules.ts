@@ -13,13 +13,14 @@
  */
 import { and, asc, eq, gte, inArray, isNotNull, lt, max, ne, or, sql } from 'drizzle-orm';
 import { z } from 'zod';
-import { CheckUnitRulesPayload, QUEUES } from '~/jobs';
+import { CheckUnitRulesPayload, QUEUES, sendJob } from '~/jobs';
 import { idleRuns, limitRuns, limitText, type CrossedLimit, type RuleHour, type RuleRun, type UnitLimits } from '~/lib/analytics/unit-rules';
 import { DEFAULT_RULE_HOURS, MAX_RULE_HOURS, normallyIdleText, type NormallyIdle } from '~/lib/plant/idle';
 import { db } from '../db/client';
 import { driftNotices, plantUnits, sites, unitHours, unitLimits, type NoticeKind } from '../db/schema';
 import { queue } from '../queue';
-import { InsightError, isUuid } from './baselines';
+import { isId } from '../access';
+import { AppError } from '../errors';
 import { inInsightTx, type Exec, type Tx } from './drift-tx';
 import { queueNoticeMails } from './notices';
 
@@ -38,13 +39,13 @@ export const UnitLimitsInput = z.strictObject({
 });
 
 export async function unitLimitsFor(unitId: string, r: Pick<Tx, 'select'> = db()) {
-  if (!isUuid(unitId)) throw new InsightError('NOT_FOUND', 'No such unit.');
+  if (!isId(unitId)) throw new AppError('NOT_FOUND', 'No such unit.');
   const [u] = await r
     .select({ id: plantUnits.id, kind: plantUnits.kind, normallyIdle: plantUnits.normallyIdle, currency: sites.currency })
     .from(plantUnits)
     .innerJoin(sites, eq(sites.id, plantUnits.siteId))
     .where(eq(plantUnits.id, unitId));
-  if (!u) throw new InsightError('NOT_FOUND', 'No such unit.');
+  if (!u) throw new AppError('NOT_FOUND', 'No such unit.');
   const [l] = await r.select().from(unitLimits).where(eq(unitLimits.unitId, unitId));
   return {
     maxCost_per_day: l?.maxCost_per_day ?? null,
@@ -74,7 +75,7 @@ export async function setUnitLimits(unitId: string, input: z.input<typeof UnitLi
 export async function queueUnitRuleCheck(siteId: string, unitIds?: string[], exec?: Exec): Promise<void> {
   const boss = await queue();
   const payload = CheckUnitRulesPayload.parse({ siteId, fromMs: 0, toMs: Math.ceil(Date.now() / HOUR_ms) * HOUR_ms, ...(unitIds ? { unitIds } : {}) });
-  await boss.send(QUEUES.checkUnitRules, payload, exec ? { db: { executeSql: exec as never } } : { retryLimit: 2, retryDelay: 10 });
+  await sendJob(boss, QUEUES.checkUnitRules, payload, exec ? { db: { executeSql: exec as never } } : { retryLimit: 2, retryDelay: 10 });
 }
 
 // ---- the check ----------------------------------------------------------------------------------------

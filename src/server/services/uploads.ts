@@ -4,23 +4,15 @@ import { Upload } from '@aws-sdk/lib-storage';
 import { and, desc, eq, inArray, ne, sql } from 'drizzle-orm';
 import { INGEST_ERROR_CATALOGUE } from '~/lib/ingest/errors';
 import { z } from 'zod';
-import { QUEUES } from '~/jobs';
+import { QUEUES, sendJob } from '~/jobs';
 import { db } from '../db/client';
+import { AppError } from '../errors';
 import { layoutProfiles, sites, uploadRejects, uploads, type UploadStatus } from '../db/schema';
 import { queue } from '../queue';
 import { bucket, objectHead, objectSize, presignPut, s3 } from '../storage';
 
 /** Largest file accepted [bytes]: 4 GiB (a year of one-minute data for a few hundred tags fits easily). */
 export const MAX_UPLOAD_BYTES = 4 * 1024 ** 3;
-
-export class UploadRuleError extends Error {
-  constructor(
-    readonly code: 'NOT_FOUND' | 'CONFLICT' | 'VALIDATION_FAILED' | 'PAYLOAD_TOO_LARGE',
-    message: string,
-  ) {
-    super(message);
-  }
-}
 
 /** The one content type raw files are stored with (the presigned PUT signs it). */
 export const RAW_CONTENT_TYPE = 'text/csv';
@@ -32,9 +24,9 @@ export const FILE_NAME_RULE = 'A file name may not hold control characters (NUL,
 
 /** Checks a machine upload's file name; throws VALIDATION_FAILED (400). */
 export function checkFileName(name: string): string {
-  if (CONTROL_CHARS.test(name)) throw new UploadRuleError('VALIDATION_FAILED', FILE_NAME_RULE);
+  if (CONTROL_CHARS.test(name)) throw new AppError('VALIDATION_FAILED', FILE_NAME_RULE);
   const trimmed = name.trim();
-  if (!trimmed || trimmed.length > 255) throw new UploadRuleError('VALIDATION_FAILED', 'A file name has 1 to 255 characters.');
+  if (!trimmed || trimmed.length > 255) throw new AppError('VALIDATION_FAILED', 'A file name has 1 to 255 characters.');
   return trimmed;
 }
 
@@ -64,7 +56,7 @@ function objectKeyFor(siteId: string, uploadId: string, fileName: string): strin
 
 async function requireSite(siteId: string) {
   const [site] = await db().select().from(sites).where(eq(sites.id, siteId)).limit(1);
-  if (!site) throw new UploadRuleError('NOT_FOUND', 'No such site.');
+  if (!site) throw new AppError('NOT_FOUND', 'No such site.');
   return site;
 }
 
@@ -94,7 +86,7 @@ export async function findDuplicate(siteId: string, sha256: string, exceptId?: s
 
 export async function queueIngest(uploadId: string): Promise<void> {
   const boss = await queue();
-  await boss.send(QUEUES.ingestFile, { uploadId }, { singletonKey: uploadId, retryLimit: 2, retryDelay: 5, expireInSeconds: 60 * 60 * 2 });
+  await sendJob(boss, QUEUES.ingestFile, { uploadId }, { singletonKey: uploadId, retryLimit: 2, retryDelay: 5, expireInSeconds: 60 * 60 * 2 });
 }
 
 /** Marks an upload failed for a reason in the file (its code from the catalogue); the raw file stays. */
@@ -160,11 +152,11 @@ export async function completeBrowserUpload(uploadId: string) {
   const up = await getUploadRow(uploadId);
   if (up.status !== 'awaiting-file') return { status: up.status };
   const size = await objectSize(up.objectKey);
-  if (size === null) throw new UploadRuleError('CONFLICT', 'The file has not arrived in the store yet: upload it, then complete.');
+  if (size === null) throw new AppError('CONFLICT', 'The file has not arrived in the store yet: upload it, then complete.');
   const mismatch = await storedObjectMismatch(up);
   if (mismatch) {
     await failUpload(uploadId, 'SIZE_MISMATCH', mismatch, { declaredBytes: up.sizeBytes, storedBytes: size });
-    throw new UploadRuleError('VALIDATION_FAILED', mismatch);
+    throw new AppError('VALIDATION_FAILED', mismatch);
   }
   await db().update(uploads).set({ status: 'queued', sizeBytes: size }).where(eq(uploads.id, uploadId));
   await queueIngest(uploadId);
@@ -180,7 +172,7 @@ class HashCounter extends Transform {
   }
   override _transform(chunk: Buffer, _enc: BufferEncoding, cb: (err?: Error | null, data?: Buffer) => void) {
     this.bytes += chunk.length;
-    if (this.bytes > this.limit) return cb(new UploadRuleError('PAYLOAD_TOO_LARGE', 'Files above 4 GiB are not accepted: split the export.'));
+    if (this.bytes > this.limit) return cb(new AppError('PAYLOAD_TOO_LARGE', 'Files above 4 GiB are not accepted: split the export.'));
     this.hash.update(chunk);
     cb(null, chunk);
   }
@@ -209,10 +201,10 @@ export async function receiveApiUpload(siteId: string, fileName: string, body: R
     });
     await upload.done();
   } catch (err) {
-    const reason = err instanceof UploadRuleError ? err.message : `The file did not arrive whole: ${(err as Error).message}`;
+    const reason = err instanceof AppError ? err.message : `The file did not arrive whole: ${(err as Error).message}`;
     await db().update(uploads).set({ status: 'failed', failureReason: reason, finishedAt: sql`clock_timestamp()` }).where(eq(uploads.id, id));
-    if (err instanceof UploadRuleError) throw err;
-    throw new UploadRuleError('VALIDATION_FAILED', reason);
+    if (err instanceof AppError) throw err;
+    throw new AppError('VALIDATION_FAILED', reason);
   }
   const sha256 = counter.hash.digest('hex');
   const duplicate = await findDuplicate(siteId, sha256, id, { id, createdAt: row!.createdAt });
@@ -230,7 +222,7 @@ export async function receiveApiUpload(siteId: string, fileName: string, body: R
 
 export async function getUploadRow(uploadId: string) {
   const [row] = await db().select().from(uploads).where(eq(uploads.id, uploadId)).limit(1);
-  if (!row) throw new UploadRuleError('NOT_FOUND', 'No such upload.');
+  if (!row) throw new AppError('NOT_FOUND', 'No such upload.');
   return row;
 }
 
@@ -266,8 +258,8 @@ export async function listUploads(siteId: string, limit = 50) {
 /** Retry a failed upload from the start (its partial work was never committed). */
 export async function retryUpload(uploadId: string) {
   const up = await getUploadRow(uploadId);
-  if (up.status !== 'failed') throw new UploadRuleError('CONFLICT', `Only a failed upload can be retried; this one is ${up.status}.`);
-  if ((await objectSize(up.objectKey)) === null) throw new UploadRuleError('CONFLICT', 'The raw file is not in the store, so it cannot be read again.');
+  if (up.status !== 'failed') throw new AppError('CONFLICT', `Only a failed upload can be retried; this one is ${up.status}.`);
+  if ((await objectSize(up.objectKey)) === null) throw new AppError('CONFLICT', 'The raw file is not in the store, so it cannot be read again.');
   await db().update(uploads).set({ status: 'queued', failureReason: null, rowsRead: 0, bytesRead: 0 }).where(eq(uploads.id, uploadId));
   await queueIngest(uploadId);
 }
@@ -277,7 +269,7 @@ export async function retryUpload(uploadId: string) {
 export async function confirmLayout(uploadId: string, profile: Record<string, unknown> & { fingerprint: string }, name: string, userId: string) {
   const up = await getUploadRow(uploadId);
   const askedMachine = up.status === 'failed' && (up.summary as { code?: string } | null)?.code === 'LAYOUT_QUESTION';
-  if (up.status !== 'needs-review' && !askedMachine) throw new UploadRuleError('CONFLICT', `This upload is ${up.status}, not waiting for a layout.`);
+  if (up.status !== 'needs-review' && !askedMachine) throw new AppError('CONFLICT', `This upload is ${up.status}, not waiting for a layout.`);
   const [saved] = await db()
     .insert(layoutProfiles)
     .values({ siteId: up.siteId, fingerprint: profile.fingerprint, name, profile, confirmedBy: userId })

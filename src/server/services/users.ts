@@ -1,35 +1,17 @@
 import { randomUUID } from 'node:crypto';
 import { and, asc, eq, inArray, ne, sql } from 'drizzle-orm';
 import { z } from 'zod';
+import { InviteInput, SitesInput } from '~/lib/people';
 import { ROLES, type Role } from '~/lib/roles';
 import { auth } from '../auth';
 import { db } from '../db/client';
+import { AppError } from '../errors';
 import { invitations, personSites, session, sites, user } from '../db/schema';
 
-/** A person's sites: every site ('all', sites added later included) or a list of site ids. */
-export const SitesInput = z.union([z.literal('all'), z.array(z.string().uuid('A site id is a UUID.')).max(1000)]);
-
-export const InviteInput = z.object({
-  name: z
-    .string()
-    .trim()
-    .min(1, 'Give the person a name.')
-    .max(120, 'A name has at most 120 characters.')
-    .regex(/^[^\u0000-\u001f\u007f]*$/, 'A name has no control characters.'),
-  email: z.string().trim().toLowerCase().max(254, 'An e-mail address has at most 254 characters.').email('That does not look like an e-mail address.'),
-  role: z.enum(ROLES),
-  /** Omitted: every site on a one-site install; on a larger one, none until an admin lists them. */
-  sites: SitesInput.optional(),
-});
+export { InviteInput, SitesInput };
 export const UpdateUserInput = z
   .object({ role: z.enum(ROLES).optional(), deactivated: z.boolean().optional(), sites: SitesInput.optional() })
   .refine((v) => v.role !== undefined || v.deactivated !== undefined || v.sites !== undefined, 'Send a role, deactivated, sites, or any of them.');
-
-export class UserRuleError extends Error {
-  constructor(readonly code: 'CONFLICT' | 'NOT_FOUND', message: string) {
-    super(message);
-  }
-}
 
 export async function listUsers() {
   const rows = await db()
@@ -67,7 +49,7 @@ async function setSites(tx: Tx, userId: string, value: z.infer<typeof SitesInput
   const ids = [...new Set(value)];
   if (ids.length) {
     const known = await tx.select({ id: sites.id }).from(sites).where(inArray(sites.id, ids));
-    if (known.length !== ids.length) throw new UserRuleError('NOT_FOUND', 'One of the sites given does not exist.');
+    if (known.length !== ids.length) throw new AppError('NOT_FOUND', 'One of the sites given does not exist.');
     await tx.insert(personSites).values(ids.map((siteId) => ({ userId, siteId })));
   }
   await tx.update(user).set({ allSites: false }).where(eq(user.id, userId));
@@ -79,7 +61,7 @@ async function setSites(tx: Tx, userId: string, value: z.infer<typeof SitesInput
  */
 export async function inviteUser(input: z.infer<typeof InviteInput>, invitedBy: string) {
   const existing = await db().select({ id: user.id }).from(user).where(eq(user.email, input.email)).limit(1);
-  if (existing.length) throw new UserRuleError('CONFLICT', `${input.email} already has an account.`);
+  if (existing.length) throw new AppError('CONFLICT', `${input.email} already has an account.`);
   const id = randomUUID();
   const [count] = await db().select({ n: sql<number>`count(*)::int` }).from(sites);
   const scope = input.sites ?? ((count?.n ?? 0) <= 1 ? 'all' : []);
@@ -103,14 +85,14 @@ async function adminCount(exceptUserId: string): Promise<number> {
 /** Changes a role or (de)activates an account; deactivation ends the person's sessions at once. */
 export async function updateUser(userId: string, input: z.infer<typeof UpdateUserInput>, actingUserId: string) {
   const [target] = await db().select().from(user).where(eq(user.id, userId)).limit(1);
-  if (!target) throw new UserRuleError('NOT_FOUND', 'No such account.');
+  if (!target) throw new AppError('NOT_FOUND', 'No such account.');
   const losesAdmin =
     target.role === 'admin' && !target.deactivated && ((input.role && input.role !== 'admin') || input.deactivated === true);
   if (losesAdmin && (await adminCount(userId)) === 0) {
-    throw new UserRuleError('CONFLICT', 'This is the last active admin: make someone else admin first.');
+    throw new AppError('CONFLICT', 'This is the last active admin: make someone else admin first.');
   }
   if (userId === actingUserId && input.deactivated) {
-    throw new UserRuleError('CONFLICT', 'You cannot deactivate your own account.');
+    throw new AppError('CONFLICT', 'You cannot deactivate your own account.');
   }
   const patch: Partial<{ role: Role; deactivated: boolean; updatedAt: Date }> = { updatedAt: new Date() };
   if (input.role) patch.role = input.role;

@@ -12,8 +12,8 @@ import { and, asc, eq, gte, lt, sql } from 'drizzle-orm';
 import { kindSpec, type UnitKind } from '~/lib/plant/kinds';
 import { db } from '../db/client';
 import { HOUR_STATES, plantUnits, sites, unitHours, type HourState } from '../db/schema';
-import { PlantRuleError } from './plant-tx';
-import { isId } from './plant';
+import { AppError } from '../errors';
+import { isId } from '../access';
 import { localStamp, resolvePeriod, type Period, type PeriodQuery } from './views-period';
 import { expectedBand, openNoticeCount, siteNotices, type BaselineInfo, type ExpectedHour, type NoticeMark } from './views-insight';
 
@@ -28,21 +28,21 @@ import type { StateCounts, TrendPoint, ContextSpan } from '~/lib/trend-view';
 const zeroCounts = (): StateCounts => ({ steady: 0, unsettled: 0, idle: 0, suspect: 0 });
 
 async function siteOf(siteId: string) {
-  if (!isId(siteId)) throw new PlantRuleError('NOT_FOUND', 'No such site.');
+  if (!isId(siteId)) throw new AppError('NOT_FOUND', 'No such site.');
   const [site] = await db().select().from(sites).where(eq(sites.id, siteId)).limit(1);
-  if (!site) throw new PlantRuleError('NOT_FOUND', 'No such site.');
+  if (!site) throw new AppError('NOT_FOUND', 'No such site.');
   return site;
 }
 
 async function unitWithSite(unitId: string) {
-  if (!isId(unitId)) throw new PlantRuleError('NOT_FOUND', 'No such unit.');
+  if (!isId(unitId)) throw new AppError('NOT_FOUND', 'No such unit.');
   const [row] = await db()
     .select({ unit: plantUnits, site: sites })
     .from(plantUnits)
     .innerJoin(sites, eq(sites.id, plantUnits.siteId))
     .where(eq(plantUnits.id, unitId))
     .limit(1);
-  if (!row) throw new PlantRuleError('NOT_FOUND', 'No such unit.');
+  if (!row) throw new AppError('NOT_FOUND', 'No such unit.');
   return row;
 }
 
@@ -66,7 +66,7 @@ function periodOrError(q: PeriodQuery, timeZone: string, nowMs?: number): Period
   try {
     return resolvePeriod(q, timeZone, nowMs);
   } catch (err) {
-    throw new PlantRuleError('VALIDATION_FAILED', (err as Error).message);
+    throw new AppError('VALIDATION_FAILED', (err as Error).message);
   }
 }
 

@@ -1,6 +1,7 @@
 import { useEffect, useState } from 'react';
 import { StateMark } from '~/components/StateMark';
-import { Notice, call, messageOf, type Message } from '~/components/plant/common';
+import { Notice } from '~/components/plant/common';
+import { call, messageOf, type Message } from '~/components/api';
 import BaselineDetail from './BaselineDetail';
 import DriftSettingsForm from './DriftSettingsForm';
 import { BASELINE_LOOK, dayEndIso, dayOf, dayStartIso, pct } from './looks';

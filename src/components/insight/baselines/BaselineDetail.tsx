@@ -1,7 +1,8 @@
 import { useEffect, useState } from 'react';
 import { CartesianGrid, ComposedChart, Legend, Line, ResponsiveContainer, Scatter, Tooltip, XAxis, YAxis } from 'recharts';
 import { StateMark } from '~/components/StateMark';
-import { Notice, call, messageOf, type Message } from '~/components/plant/common';
+import { Notice } from '~/components/plant/common';
+import { call, messageOf, type Message } from '~/components/api';
 import { BASELINE_LOOK, CHECK_LOOK, at, dayOf, kW, pct, sig } from './looks';
 import { TERM_LABELS, type BaselineSummary, type FitView, type ModelSummary } from './types';
 

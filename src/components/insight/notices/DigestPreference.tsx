@@ -1,5 +1,6 @@
 import { useEffect, useState } from 'react';
-import { Notice, call, messageOf, type Message } from '~/components/plant/common';
+import { Notice } from '~/components/plant/common';
+import { call, messageOf, type Message } from '~/components/api';
 
 /** The signed-in person's opt-in to the daily digest of notices not yet closed. */
 export default function DigestPreference() {

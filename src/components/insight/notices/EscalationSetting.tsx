@@ -1,5 +1,6 @@
 import { useEffect, useState } from 'react';
-import { Notice, call, messageOf, type Message } from '~/components/plant/common';
+import { Notice } from '~/components/plant/common';
+import { call, messageOf, type Message } from '~/components/api';
 
 interface Settings {
   siteId: string;

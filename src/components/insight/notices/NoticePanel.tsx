@@ -1,6 +1,7 @@
 import { useState } from 'react';
 import { StateMark } from '~/components/StateMark';
-import { Notice as Message, call, messageOf, type Message as Msg } from '~/components/plant/common';
+import { Notice as Message } from '~/components/plant/common';
+import { call, messageOf, type Message as Msg } from '~/components/api';
 import { at, dayOf } from '../baselines/looks';
 import { NoticeChart } from './NoticeChart';
 import {

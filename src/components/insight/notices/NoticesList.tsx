@@ -1,6 +1,7 @@
 import { useEffect, useMemo, useState } from 'react';
 import { StateMark } from '~/components/StateMark';
-import { Notice as Message, call, messageOf, type Message as Msg } from '~/components/plant/common';
+import { Notice as Message } from '~/components/plant/common';
+import { call, messageOf, type Message as Msg } from '~/components/api';
 import { at } from '../baselines/looks';
 import { LIFE_LOOK, NOTICE_LOOK, TREND_LOOK, money, plusMinusKW, signedKW, type Notice } from './looks';
 

@@ -3,7 +3,8 @@
  * of the site's clock, with the site totals and the exergy flow picture of the same period.
  */
 import { useEffect, useState } from 'react';
-import { COLORS, ErrorNote, HourStateMark, Loading, useJson } from './common';
+import { COLORS, ErrorNote, HourStateMark, Loading } from './common';
+import { useApi } from '~/components/api';
 import { FlowPicture, type FlowAnswer } from './FlowPicture';
 import { money, mwh, mwhDecimals, pct, type HourState } from './format';
 import { PeriodPicker, periodFromSearch, periodQuery, syncSearch, type PeriodInfo, type PeriodValue } from './PeriodPicker';
@@ -49,8 +50,8 @@ export default function LedgerView({ sites, initialSiteId, initialSearch }: { si
   const [siteId, setSiteId] = useState<string>(initialSiteId && sites.some((s) => s.id === initialSiteId) ? initialSiteId : (sites[0]?.id ?? ''));
   const [value, setValue] = useState<PeriodValue>(() => periodFromSearch(initialSearch, 'month'));
   const q = periodQuery(value);
-  const ledger = useJson<LedgerAnswer>(siteId ? `/api/sites/${siteId}/ledger?${q}` : null);
-  const flow = useJson<FlowAnswer>(siteId ? `/api/sites/${siteId}/flow?${q}` : null);
+  const ledger = useApi<LedgerAnswer>(siteId ? `/api/sites/${siteId}/ledger?${q}` : null);
+  const flow = useApi<FlowAnswer>(siteId ? `/api/sites/${siteId}/flow?${q}` : null);
   const [info, setInfo] = useState<PeriodInfo | null>(null);
   useEffect(() => {
     if (ledger.data) setInfo({ ...ledger.data.period, timeZone: ledger.data.site.timeZone });

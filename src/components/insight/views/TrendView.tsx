@@ -4,7 +4,8 @@
  * notices of the period.
  */
 import { useEffect, useMemo, useState } from 'react';
-import { ErrorNote, HourStateMark, Loading, ViewsCaution, useJson } from './common';
+import { ErrorNote, HourStateMark, Loading, ViewsCaution } from './common';
+import { useApi } from '~/components/api';
 import { pct, power, siteTime, type HourState } from './format';
 import { PeriodPicker, periodFromSearch, periodQuery, syncSearch, type PeriodInfo, type PeriodValue } from './PeriodPicker';
 import { LoadScatter, TimeChart, TrendLegend, type ContextSpan, type CurvePoint, type NoticeMark, type ScatterPoint, type TrendPoint } from './TrendCharts';
@@ -62,7 +63,7 @@ function Stat({ label, value, sub, testId }: { label: string; value: string; sub
 export default function TrendView({ unitId, initialSearch }: { unitId: string; initialSearch: string }) {
   const [value, setValue] = useState<PeriodValue>(() => periodFromSearch(initialSearch, 'week'));
   const url = `/api/units/${unitId}/trend?${periodQuery(value)}`;
-  const { data, error, loading } = useJson<TrendAnswer>(url);
+  const { data, error, loading } = useApi<TrendAnswer>(url);
   const [info, setInfo] = useState<PeriodInfo | null>(null);
   useEffect(() => {
     if (data) setInfo({ ...data.period, timeZone: data.site.timeZone });

@@ -1,4 +1,3 @@
-import { useEffect, useState } from 'react';
 import { StateMark, type MarkShape } from '~/components/StateMark';
 import type { HourState } from './format';
 
@@ -28,28 +27,6 @@ export const COLORS = {
 export function HourStateMark({ state, count }: { state: HourState; count?: number }) {
   const l = STATE_LOOK[state];
   return <StateMark shape={l.shape} className={l.className} label={count === undefined ? l.label : `${l.label} ${count} h`} />;
-}
-
-/** A JSON GET with loading and error states; refetches when the URL changes. */
-export function useJson<T>(url: string | null): { data: T | null; error: string | null; loading: boolean } {
-  const [state, setState] = useState<{ data: T | null; error: string | null; loading: boolean }>({ data: null, error: null, loading: !!url });
-  useEffect(() => {
-    if (!url) return;
-    let live = true;
-    setState((s) => ({ ...s, loading: true, error: null }));
-    fetch(url)
-      .then(async (res) => {
-        const body = await res.json().catch(() => ({}));
-        if (!res.ok) throw new Error(body?.error?.message ?? `The server answered ${res.status}.`);
-        return body as T;
-      })
-      .then((data) => live && setState({ data, error: null, loading: false }))
-      .catch((e: Error) => live && setState({ data: null, error: e.message, loading: false }));
-    return () => {
-      live = false;
-    };
-  }, [url]);
-  return state;
 }
 
 export function Loading({ what }: { what: string }) {

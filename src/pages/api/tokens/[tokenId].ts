@@ -1,6 +1,8 @@
-import type { APIRoute } from 'astro';
-import { apiError } from '~/server/errors';
+import { endpoint } from '~/server/endpoint';
+import { AppError } from '~/server/errors';
 import { revokeApiToken } from '~/server/tokens';
 
-export const DELETE: APIRoute = async ({ params }) =>
-  (await revokeApiToken(params.tokenId!)) ? Response.json({ revoked: true }) : apiError('NOT_FOUND', 'No such live token.');
+export const DELETE = endpoint({}, async (_ctx, { params }) => {
+  if (!(await revokeApiToken(params.tokenId!))) throw new AppError('NOT_FOUND', 'No such live token.');
+  return Response.json({ revoked: true });
+});

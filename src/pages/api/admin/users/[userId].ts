@@ -1,15 +1,8 @@
-import type { APIRoute } from 'astro';
-import { apiError } from '~/server/errors';
-import { UpdateUserInput, UserRuleError, updateUser } from '~/server/services/users';
+import { z } from 'zod';
+import { endpoint } from '~/server/endpoint';
+import { UpdateUserInput, updateUser } from '~/server/services/users';
 
-export const PATCH: APIRoute = async ({ request, params, locals }) => {
-  const parsed = UpdateUserInput.safeParse(await request.json().catch(() => null));
-  if (!parsed.success) return apiError('VALIDATION_FAILED', 'Nothing to change, or a value is not allowed.', parsed.error.issues);
-  try {
-    await updateUser(params.userId!, parsed.data, locals.user!.id);
-    return Response.json({ ok: true });
-  } catch (err) {
-    if (err instanceof UserRuleError) return apiError(err.code, err.message);
-    throw err;
-  }
-};
+export const PATCH = endpoint({ params: z.object({ userId: z.string().min(1).max(200) }), body: UpdateUserInput }, async ({ locals }, { params, body }) => {
+  await updateUser(params.userId, body, locals.user!.id);
+  return Response.json({ ok: true });
+});

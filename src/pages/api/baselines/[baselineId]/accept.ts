@@ -1,7 +1,5 @@
-import type { APIRoute } from 'astro';
-import { answer } from '~/server/http';
+import { endpoint } from '~/server/endpoint';
 import { acceptBaseline } from '~/server/services/baselines';
 
 /** Accepts a draft: it becomes the unit's active baseline; the previous active one is retired. */
-export const POST: APIRoute = async ({ params, locals }) =>
-  answer(async () => Response.json({ baseline: await acceptBaseline(params.baselineId!, locals.user!.id) }));
+export const POST = endpoint({}, async ({ locals }, { params }) => Response.json({ baseline: await acceptBaseline(params.baselineId!, locals.user!.id) }));

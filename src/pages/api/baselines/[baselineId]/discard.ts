@@ -1,7 +1,5 @@
-import type { APIRoute } from 'astro';
-import { answer } from '~/server/http';
+import { endpoint } from '~/server/endpoint';
 import { discardBaseline } from '~/server/services/baselines';
 
 /** Discards a draft (kept for the record, never used). */
-export const POST: APIRoute = async ({ params, locals }) =>
-  answer(async () => Response.json({ baseline: await discardBaseline(params.baselineId!, locals.user!.id) }));
+export const POST = endpoint({}, async ({ locals }, { params }) => Response.json({ baseline: await discardBaseline(params.baselineId!, locals.user!.id) }));

@@ -1,11 +1,7 @@
-import type { APIRoute } from 'astro';
-import { answer } from '~/server/http';
+import { endpoint } from '~/server/endpoint';
 import { AcknowledgeInput, acknowledgeNotice } from '~/server/services/notices';
-import { parseBody } from '~/server/services/plant-http';
 
 /** Marks an open notice as seen (with an optional comment). */
-export const POST: APIRoute = async ({ params, request, locals }) => {
-  const body = await parseBody(request, AcknowledgeInput);
-  if (!body.ok) return body.response;
-  return answer(async () => Response.json({ notice: await acknowledgeNotice(params.noticeId!, locals.user!.id, body.data.comment) }));
-};
+export const POST = endpoint({ body: AcknowledgeInput }, async ({ locals }, { params, body }) =>
+  Response.json({ notice: await acknowledgeNotice(params.noticeId!, locals.user!.id, body.comment) }),
+);

@@ -1,13 +1,6 @@
-import type { APIRoute } from 'astro';
-import { apiError } from '~/server/errors';
-import { answer } from '~/server/http';
+import { endpoint } from '~/server/endpoint';
 import { siteFlow } from '~/server/services/views';
-import { PeriodQuery, periodParams } from '~/server/services/views-period';
+import { PeriodQuery } from '~/server/services/views-period';
 
 /** The site's exergy flow over a period: sources into units, out as product, loss and destruction. */
-export const GET: APIRoute = ({ params, url }) =>
-  answer(async () => {
-    const q = PeriodQuery.safeParse(periodParams(url));
-    if (!q.success) return apiError('VALIDATION_FAILED', 'The period is not valid.', q.error.issues);
-    return Response.json(await siteFlow(params.siteId!, q.data));
-  });
+export const GET = endpoint({ query: PeriodQuery }, async (_ctx, { params, query }) => Response.json(await siteFlow(params.siteId!, query)));

@@ -1,11 +1,10 @@
-import type { APIRoute } from 'astro';
-import { apiError } from '~/server/errors';
-import { isId, siteTags, unlinkedTags } from '~/server/services/plant';
+import { z } from 'zod';
+import { endpoint } from '~/server/endpoint';
+import { siteTags, unlinkedTags } from '~/server/services/plant';
+
+const Query = z.object({ q: z.string().max(200).optional(), unlinked: z.string().max(10).optional() });
 
 /** Tags of the site: ?unlinked=1 for those without a current link; ?q= searches name and description. */
-export const GET: APIRoute = async ({ params, url }) => {
-  if (!isId(params.siteId)) return apiError('NOT_FOUND', 'No such site.');
-  const q = url.searchParams.get('q') ?? undefined;
-  const tags = url.searchParams.get('unlinked') ? await unlinkedTags(params.siteId!, q) : await siteTags(params.siteId!, q);
-  return Response.json({ tags });
-};
+export const GET = endpoint({ query: Query }, async (_ctx, { params, query }) =>
+  Response.json({ tags: query.unlinked ? await unlinkedTags(params.siteId!, query.q) : await siteTags(params.siteId!, query.q) }),
+);

@@ -1,5 +1,4 @@
-import type { APIRoute } from 'astro';
-import { answer } from '~/server/http';
+import { endpoint } from '~/server/endpoint';
 import { completeBrowserUpload } from '~/server/services/uploads';
 
-export const POST: APIRoute = ({ params }) => answer(async () => Response.json(await completeBrowserUpload(params.uploadId!), { status: 202 }));
+export const POST = endpoint({}, async (_ctx, { params }) => Response.json(await completeBrowserUpload(params.uploadId!), { status: 202 }));

@@ -1,16 +1,10 @@
-import type { APIRoute } from 'astro';
 import { z } from 'zod';
 import { LayoutProfileSchema } from '~/lib/ingest/profile';
-import { apiError } from '~/server/errors';
-import { answer, jsonBody } from '~/server/http';
+import { endpoint } from '~/server/endpoint';
 import { confirmLayout } from '~/server/services/uploads';
 
 const Body = z.object({ name: z.string().trim().min(1).max(120), profile: LayoutProfileSchema });
 
-export const POST: APIRoute = ({ params, request, locals }) =>
-  answer(async () => {
-    const parsed = Body.safeParse(await jsonBody(request));
-    if (!parsed.success) return apiError('VALIDATION_FAILED', 'The layout is not complete.', parsed.error.issues);
-    const out = await confirmLayout(params.uploadId!, parsed.data.profile as never, parsed.data.name, locals.user!.id);
-    return Response.json(out, { status: 202 });
-  });
+export const POST = endpoint({ body: Body }, async ({ locals }, { params, body }) =>
+  Response.json(await confirmLayout(params.uploadId!, body.profile as never, body.name, locals.user!.id), { status: 202 }),
+);

@@ -1,14 +1,12 @@
-import type { APIRoute } from 'astro';
-import { answer } from '~/server/http';
+import { endpoint } from '~/server/endpoint';
 import { getUploadRow, rejectsCsv } from '~/server/services/uploads';
 
-export const GET: APIRoute = ({ params }) =>
-  answer(async () => {
-    const up = await getUploadRow(params.uploadId!);
-    return new Response(await rejectsCsv(up.id), {
-      headers: {
-        'content-type': 'text/csv; charset=utf-8',
-        'content-disposition': `attachment; filename="rejected-cells-${up.fileName.replace(/[^\w.-]+/g, '_')}.csv"`,
-      },
-    });
+export const GET = endpoint({}, async (_ctx, { params }) => {
+  const up = await getUploadRow(params.uploadId!);
+  return new Response(await rejectsCsv(up.id), {
+    headers: {
+      'content-type': 'text/csv; charset=utf-8',
+      'content-disposition': `attachment; filename="rejected-cells-${up.fileName.replace(/[^\w.-]+/g, '_')}.csv"`,
+    },
   });
+});

@@ -1,9 +1,7 @@
-import type { APIRoute } from 'astro';
-import { answer } from '~/server/http';
+import { endpoint } from '~/server/endpoint';
 import { retryUpload } from '~/server/services/uploads';
 
-export const POST: APIRoute = ({ params }) =>
-  answer(async () => {
-    await retryUpload(params.uploadId!);
-    return Response.json({ status: 'queued' }, { status: 202 });
-  });
+export const POST = endpoint({}, async (_ctx, { params }) => {
+  await retryUpload(params.uploadId!);
+  return Response.json({ status: 'queued' }, { status: 202 });
+});

@@ -1,10 +1,8 @@
-import type { APIRoute } from 'astro';
-import { answer, siteAllowed, tokenForOtherSite } from '~/server/http';
+import { endpoint, requireSite } from '~/server/endpoint';
 import { getUploadRow, uploadView } from '~/server/services/uploads';
 
-export const GET: APIRoute = ({ params, locals }) =>
-  answer(async () => {
-    const up = await getUploadRow(params.uploadId!);
-    if (!siteAllowed(locals, up.siteId)) return tokenForOtherSite();
-    return Response.json(uploadView(up));
-  });
+export const GET = endpoint({}, async ({ locals }, { params }) => {
+  const up = await getUploadRow(params.uploadId!);
+  requireSite(locals, up.siteId);
+  return Response.json(uploadView(up));
+});

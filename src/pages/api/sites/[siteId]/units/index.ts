@@ -1,21 +1,6 @@
-import type { APIRoute } from 'astro';
+import { endpoint } from '~/server/endpoint';
 import { UnitCreateInput, createUnit, siteOverview } from '~/server/services/plant';
-import { parseBody, plantErrorResponse } from '~/server/services/plant-http';
 
-export const GET: APIRoute = async ({ params }) => {
-  try {
-    return Response.json({ units: (await siteOverview(params.siteId!)).units });
-  } catch (err) {
-    return plantErrorResponse(err);
-  }
-};
+export const GET = endpoint({}, async (_ctx, { params }) => Response.json({ units: (await siteOverview(params.siteId!)).units }));
 
-export const POST: APIRoute = async ({ params, request }) => {
-  const body = await parseBody(request, UnitCreateInput);
-  if (!body.ok) return body.response;
-  try {
-    return Response.json({ unit: await createUnit(params.siteId!, body.data) }, { status: 201 });
-  } catch (err) {
-    return plantErrorResponse(err);
-  }
-};
+export const POST = endpoint({ body: UnitCreateInput }, async (_ctx, { params, body }) => Response.json({ unit: await createUnit(params.siteId!, body) }, { status: 201 }));

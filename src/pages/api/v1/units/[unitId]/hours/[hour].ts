@@ -1,17 +1,17 @@
-import type { APIRoute } from 'astro';
-import { answer, siteAllowed, tokenForOtherSite } from '~/server/http';
+import { z } from 'zod';
+import { InstantText, endpoint, requireSite } from '~/server/endpoint';
 import { unitHeader, unitHourDetail } from '~/server/services/engine-results';
+
+/** The hour as it comes in the path (an encoded ISO 8601 instant, or ms). */
+const Params = z.object({ hour: z.string().transform((v) => decodeURIComponent(v)).pipe(InstantText) });
 
 /**
  * One unit hour opened up: its stored figures and the audit trail (detail), rebuilt on demand from the
  * stored tag hours (`rebuilt.matches`: the same inputs hash as the stored hour). The hour: ISO 8601 instant or ms.
  */
-export const GET: APIRoute = ({ params, locals }) =>
-  answer(async () => {
-    const unit = await unitHeader(params.unitId);
-    if (!siteAllowed(locals, unit.siteId)) return tokenForOtherSite();
-    const raw = decodeURIComponent(params.hour ?? '');
-    const at = /^\d+$/.test(raw) ? new Date(Number(raw)) : new Date(raw);
-    const hour = await unitHourDetail(unit.id, at);
-    return Response.json({ unit: { id: unit.id, name: unit.name, kind: unit.kind, siteId: unit.siteId, currency: unit.currency }, hour });
-  });
+export const GET = endpoint({ params: Params }, async ({ locals }, { params }) => {
+  const unit = await unitHeader(params.unitId);
+  requireSite(locals, unit.siteId);
+  const hour = await unitHourDetail(unit.id, params.hour);
+  return Response.json({ unit: { id: unit.id, name: unit.name, kind: unit.kind, siteId: unit.siteId, currency: unit.currency }, hour });
+});
