@@ -1,4 +1,5 @@
 import { useEffect, useState } from 'react';
+import { Caution } from '../Caution';
 import { HourStateMark } from './HourStateMark';
 import { fmt, siteTime } from './format';
 import type { UnitInfo } from './UnitResults';
@@ -135,11 +136,7 @@ export function HourDetail({ unit, hourStart, onClose }: { unit: UnitInfo; hourS
         </button>
       </div>
 
-      <p className="caution" role="note">
-        Steam, hot water, compressed gas and fuel systems can kill. Lossline is a monitoring aid: its figures are not alarms, it is not a
-        protective or control system, and they depend on the instruments behind them. Any intervention follows the site's procedures, local
-        codes and the judgement of licensed engineers.
-      </p>
+      <Caution className="caution" />
 
       <div>
         <h3 className="mb-1 font-medium">Why this hour is {hour.state}</h3>

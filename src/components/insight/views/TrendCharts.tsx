@@ -19,7 +19,7 @@ import {
   YAxis,
 } from 'recharts';
 import { COLORS, HourStateMark, STATE_LOOK } from './common';
-import type { ContextSpan, ExpectedHour, NoticeMark, TrendPoint } from '~/lib/trend-view';
+import type { ContextSpan, ExpectedHour, NoticeMark, TrendPoint } from '~/lib/views/trend';
 export type { ContextSpan, ExpectedHour, NoticeMark, TrendPoint };
 import { load as showLoad, loadAxis, pct, power, powerUnit, siteTime, type HourState } from './format';
 

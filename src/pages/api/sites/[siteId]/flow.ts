@@ -2,7 +2,7 @@ import type { APIRoute } from 'astro';
 import { apiError } from '~/server/errors';
 import { answer } from '~/server/http';
 import { siteFlow } from '~/server/services/views';
-import { PeriodQuery, periodParams } from '~/server/services/views-period';
+import { PeriodQuery, periodParams } from '~/lib/views/period';
 
 /** The site's exergy flow over a period: sources into units, out as product, loss and destruction. */
 export const GET: APIRoute = ({ params, url }) =>

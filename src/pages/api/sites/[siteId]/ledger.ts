@@ -2,7 +2,7 @@ import type { APIRoute } from 'astro';
 import { apiError } from '~/server/errors';
 import { answer } from '~/server/http';
 import { siteLedger } from '~/server/services/views';
-import { PeriodQuery, periodParams } from '~/server/services/views-period';
+import { PeriodQuery, periodParams } from '~/lib/views/period';
 
 /** The loss ledger: a site's units ranked by the cost of their destruction over a period. */
 export const GET: APIRoute = ({ params, url }) =>

@@ -2,7 +2,7 @@ import type { APIRoute } from 'astro';
 import { apiError } from '~/server/errors';
 import { answer } from '~/server/http';
 import { unitTrend } from '~/server/services/views';
-import { PeriodQuery, periodParams } from '~/server/services/views-period';
+import { PeriodQuery, periodParams } from '~/lib/views/period';
 
 /** A unit's hours over a period of the site's clock, with the expected band, context and notices. */
 export const GET: APIRoute = ({ params, url }) =>
