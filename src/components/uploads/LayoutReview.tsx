@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import type { UploadRow } from './UploadsPanel';
+import type { UploadRow } from '~/lib/upload-view';
 
 const SEP_LABEL: Record<string, string> = { ',': 'comma', ';': 'semicolon', '\t': 'tab', '|': 'bar' };
 

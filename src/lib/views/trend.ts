@@ -298,8 +298,8 @@ export function scatterOf(steady: readonly TrendHour[]): ScatterPoint[] {
     .map((r) => ({ t: r.hourStart.getTime(), load: r.load!, efficiency: r.efficiency, efficiency_U: r.efficiency_U, destruction_W: r.destruction_W }));
 }
 
-/** n + 1 evenly spaced loads over the scatter's range, where the baseline's curve is drawn; none below two points. */
-export function curveLoads(scatter: readonly ScatterPoint[], n = 24): number[] {
+/** n + 1 evenly spaced loads over the points' load range, where a baseline's curve is drawn; none below two points. */
+export function curveLoads(scatter: readonly { load: number }[], n = 24): number[] {
   if (scatter.length < 2) return [];
   const loads = scatter.map((s) => s.load);
   const lo = Math.min(...loads);
