@@ -42,3 +42,20 @@ export interface BaselineSummary {
   label: string;
 }
 
+/** A reference hour of a baseline with the fitted values. Efficiency [-], destruction [W], T0 [K]. */
+export interface FitPoint {
+  hourStart: string;
+  load: number;
+  T0_K: number;
+  efficiency: number | null;
+  destruction_W: number;
+  expectedEfficiency: number | null;
+  expectedDestruction_W: number;
+}
+
+/** GET /api/baselines/:id fit: the reference hours and the fitted curve against load at the mean T0. */
+export interface FitView {
+  points: FitPoint[];
+  curve: { load: number; efficiency: number | null; destruction_W: number }[];
+  meanT0_K: number;
+}

@@ -15,7 +15,8 @@ import { sendMail } from '~/server/mail';
 import { queue } from '~/server/queue';
 import { acceptBaseline, fitDraft } from '~/server/services/baselines';
 import { checkDrift } from '~/server/services/drift';
-import { NOTICE_CAUTION, closeNotice, getNotice, listNotices, noticeDetail, noticeSettingsFor, setNoticeSettings } from '~/server/services/notices';
+import { SAFETY_CAUTION } from '~/lib/caution';
+import { closeNotice, getNotice, listNotices, noticeDetail, noticeSettingsFor, setNoticeSettings } from '~/server/services/notices';
 import { createSite, createUnit } from '~/server/services/plant';
 import { expectClose } from '../support/expect-close';
 import { caughtMail, describeIntegration } from '../support/integration';
@@ -123,7 +124,7 @@ describeIntegration('drift notices that live: headline, fading, larger shifts, e
     expectClose(view.headline_W, 3.77 * s, { rtol: 1e-9 });
     expect(view.life).toBe('live');
     const d = await noticeDetail(n!.id);
-    expect(d.caution).toBe(NOTICE_CAUTION);
+    expect(d.caution).toBe(SAFETY_CAUTION);
     expect(d.chart.span).toBe('hour');
     expect(d.chart.points).toHaveLength(110);
     expect(d.chart.events.map((e) => e.label)).toEqual(['onset', 'signal', 'latest signal']);

@@ -2,6 +2,7 @@ import { randomInt, randomUUID } from 'node:crypto';
 import { eq, sql } from 'drizzle-orm';
 import { beforeAll, expect, it } from 'vitest';
 import { QUEUES, SendMailPayload } from '~/jobs';
+import { SAFETY_CAUTION } from '~/lib/caution';
 import { db } from '~/server/db/client';
 import { driftNotices, noticeDigests, noticeMails, personSites, unitHours, user } from '~/server/db/schema';
 import { sendMail } from '~/server/mail';
@@ -9,7 +10,6 @@ import { queue } from '~/server/queue';
 import { acceptBaseline, fitDraft } from '~/server/services/baselines';
 import { checkDrift } from '~/server/services/drift';
 import {
-  NOTICE_CAUTION,
   acknowledgeNotice,
   closeNotice,
   getNotice,
@@ -17,7 +17,6 @@ import {
   noticeDetail,
   sendNoticeDigests,
   setNoticePreferences,
-  shiftAgainstUncertainty,
 } from '~/server/services/notices';
 import { createSite, createUnit } from '~/server/services/plant';
 import { expectClose } from '../support/expect-close';
@@ -33,7 +32,8 @@ let plannerId: string;
  * worked in tests/insight/baselines.test.ts), then three steady hours 60 kW above the line: about
  * 29 s each, so the CUSUM (k = 0.5, h = 5) is over h from the first (C+ = 28.5) and signals at the
  * third, when the shift has lasted SUSTAINED_HOURS = 3 hours (C+ = 85.5, N+ = 3, onset the first).
- * The hours carry no cost of their own; the site has a fuel price of 36 EUR/MWh (LHV).
+ * The hours carry no cost of their own; the site has a fuel price of 36 EUR/MWh (LHV) and an
+ * electricity price of 90 EUR/MWh: a compressor's fuel is electric power (docs/domain.md section 3).
  */
 async function unitWithNotice(label: string, extraHourU_W: number | null = 4000) {
   const site = await createSite({
@@ -42,7 +42,10 @@ async function unitWithNotice(label: string, extraHourU_W: number | null = 4000)
     T0_K: 298.15,
     p0_Pa: 101325,
     currency: 'EUR',
-    prices: [{ name: 'gas', kind: 'fuel', price_per_MWh: 36, currency: 'EUR' }],
+    prices: [
+      { name: 'gas', kind: 'fuel', price_per_MWh: 36, currency: 'EUR' },
+      { name: 'grid', kind: 'electricity', price_per_MWh: 90, currency: 'EUR' },
+    ],
   });
   const unit = await createUnit(site.id, { name: `Air compressor ${randomUUID().slice(0, 6)}`, kind: 'compressor' });
   const rows: (typeof unitHours.$inferInsert)[] = [];
@@ -75,14 +78,7 @@ describeIntegration('drift notices: figures, seen and closed, the daily digest',
     });
   });
 
-  it('the uncertainty rule: |shift| against U(hour)/sqrt(n) (hand-worked: 3000 W / sqrt(4) = 1500 W)', () => {
-    expect(shiftAgainstUncertainty(4000, 3000, 4)).toEqual({ shiftU_W: 1500, exceeds: true });
-    expect(shiftAgainstUncertainty(-1400, 3000, 4)).toEqual({ shiftU_W: 1500, exceeds: false });
-    expect(shiftAgainstUncertainty(-1600, 3000, 4)).toEqual({ shiftU_W: 1500, exceeds: true });
-    expect(shiftAgainstUncertainty(4000, null, 4)).toEqual({ shiftU_W: null, exceeds: null });
-  });
-
-  it('a notice states its cost from the site fuel price when the hours carry none, and the caution with the chart rows', async () => {
+  it('a compressor notice whose hours carry no cost is priced at the electricity price (SPECO: its fuel is power), with the caution and chart rows', async () => {
     const u = await unitWithNotice('cost');
     const n = await getNotice(u.noticeId);
     expect(n.status).toBe('open');
@@ -90,10 +86,10 @@ describeIntegration('drift notices: figures, seen and closed, the daily digest',
     expect(n.hours).toBe(3);
     // The hour is 60 kW above the fitted line at x = 10 (the line is the baseline itself).
     expectClose(n.extra_W, 60_000, { rtol: 1e-9 });
-    // Fallback cost: c_F = 36 EUR/MWh / 3.6e9 J/MWh / 1.04 (natural gas exergy/LHV, docs/domain.md section 4);
-    // per day: c_F * 60 000 W * 86 400 s = 36 / 3.6e9 / 1.04 * 60000 * 86400 = 49.846... EUR/day.
-    expectClose(n.extraCost_per_day!, (36 / 3.6e9 / 1.04) * 60000 * 86400, { rtol: 1e-9 });
-    expect(n.costBasis).toMatch(/site's fuel price 'gas'/);
+    // Hand-worked: c_F = 90 EUR/MWh / 3.6e9 J/MWh (electricity, exergy factor 1, docs/domain.md section 2);
+    // per day: c_F * 60 000 W * 86 400 s = 0.06 MW * 24 h * 90 EUR/MWh = 129.6 EUR/day (not the gas price).
+    expectClose(n.extraCost_per_day!, 129.6, { rtol: 1e-9 });
+    expect(n.costBasis).toMatch(/electricity 'grid'/);
     // Three hours, U = 4000 W each: U of their mean 4000 / sqrt(3) = 2309.4 W; the 60 kW shift exceeds it.
     expectClose(n.shiftU_W!, 4000 / Math.sqrt(3), { rtol: 1e-9 });
     expect(n.exceedsUncertainty).toBe(true);
@@ -101,7 +97,7 @@ describeIntegration('drift notices: figures, seen and closed, the daily digest',
     // Period [2025-07-01 00:00Z, 2025-07-02 00:00Z) is 02:00 to 01:59 the next day in Madrid (UTC+2).
     expect(n.baselineLabel).toBe('Baseline v1 (2025-07-01 to 2025-07-02)');
     const d = await noticeDetail(u.noticeId);
-    expect(d.caution).toBe(NOTICE_CAUTION);
+    expect(d.caution).toBe(SAFETY_CAUTION);
     expect(d.caution).toMatch(/not an alarm/);
     expect(d.caution).toMatch(/not a protective or control system/);
     expect(d.caution).toMatch(/depend on the instruments/);

@@ -108,7 +108,7 @@ describeIntegration('unit rules: a unit that should be idle, a limit', () => {
 
     // its page shows the caution, speaking of this notice
     const detail = await noticeDetail(n.id);
-    expect(detail.caution).toContain('this notice is not an alarm');
+    expect(detail.caution).toContain('a notice is not an alarm');
     expect(detail.caution).toContain("site's procedures, local codes and the judgement of licensed engineers");
 
     // the list shows it beside drift notices

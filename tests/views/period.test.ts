@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { PeriodQuery, monthPeriod, resolvePeriod } from '~/server/services/views-period';
+import { PeriodQuery, monthPeriod, resolvePeriod } from '~/lib/views/period';
 
 /**
  * Periods in the site's clock. Offsets from the IANA time zone database (tzdata):

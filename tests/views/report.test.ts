@@ -5,7 +5,8 @@ import { GET as getMonths } from '~/pages/api/sites/[siteId]/reports/index';
 import { db } from '~/server/db/client';
 import { driftNotices } from '~/server/db/schema';
 import { acceptBaseline, fitDraft } from '~/server/services/baselines';
-import { REPORT_CAUTION, reportData } from '~/server/services/report';
+import { SAFETY_CAUTION } from '~/lib/caution';
+import { reportData } from '~/server/services/report';
 import { reportCell } from '~/server/services/report-csv';
 import { describeIntegration } from '../support/integration';
 import { expectClose } from '../support/expect-close';
@@ -141,7 +142,7 @@ describeIntegration('monthly report', () => {
     const eff = rows.find((r) => r[0] === 'Steam turbine ST1' && r[2]?.startsWith('Baseline'))!;
     expect(Number(eff[8])).toBeCloseTo(-2, 0);
     expect(eff[8]).toMatch(/^-\d/);
-    expect(all).toContain(REPORT_CAUTION);
+    expect(all).toContain(SAFETY_CAUTION);
     expect(reportCell('=1+2')).toBe("'=1+2");
     expect(reportCell(-3.5)).toBe('-3.5');
     expect(reportCell('-3.5')).toBe('-3.5');

@@ -90,12 +90,5 @@ export function showComposition(c: Record<string, number> | undefined): string {
   return c ? Object.entries(c).map(([k, v]) => `${k}=${v}`).join(', ') : '';
 }
 
-/** The caution of docs/domain.md section 8, in one line. */
-export function Caution() {
-  return (
-    <p className="caution text-xs">
-      Lossline is a monitoring aid, not a protective or control system. Any work on the plant follows the site's procedures, local codes
-      and the judgement of licensed engineers.
-    </p>
-  );
-}
+/** The caution of docs/domain.md section 8. */
+export { Caution } from '../Caution';

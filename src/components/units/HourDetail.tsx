@@ -1,90 +1,9 @@
 import { useEffect, useState } from 'react';
+import { Caution } from '../Caution';
 import { HourStateMark } from './HourStateMark';
 import { fmt, siteTime } from './format';
-import type { UnitInfo } from './UnitResults';
 import { call } from '~/components/api';
-
-/* The stored audit trail of one hour (src/lib/engine/compute.ts builds it). */
-interface Detail {
-  engine: string;
-  kind: string;
-  balanceKind: string | null;
-  deadState: { T0_K: number; p0_Pa: number; source: string; tag?: string };
-  load: { value: number | null; unit: string; label: string; tags: string[]; minLoad: number } | null;
-  plan: { name: string; slot: string; direction: string; fluid: string; state: string; flow: string }[];
-  inputs: { name: string; value: number | null; u: number; source: { kind: string; tag?: string; engUnit?: string; reading?: number; key?: string; what?: string; note?: string; of?: string } }[];
-  ports: {
-    name: string;
-    direction: string;
-    mDot_kg_per_s: number;
-    p_Pa: number;
-    T_K: number;
-    h_J_per_kg: number;
-    s_J_per_kgK: number;
-    x: number | null;
-    phase: string;
-    psi_J_per_kg: number;
-    eCh_J_per_kg: number | null;
-    exergy_W: number;
-    flags: string[];
-  }[];
-  terms: { label: string; role: string; exergy_W: number }[];
-  balance: null | {
-    fuel_W: number;
-    product_W: number | null;
-    loss_W: number;
-    destruction_W: number;
-    efficiency: number | null;
-    entropyGeneration_W_per_K: number | null;
-    T0Sgen_W: number | null;
-    gouyStodolaResidual_W: number | null;
-    massResidual_kg_per_s: number;
-    massClosureShare: number | null;
-    energyResidual_W: number;
-    energyClosure_pct: number;
-    extras: Record<string, number | null>;
-    flags: string[];
-  };
-  balanceError: { code: string; input: string; message: string } | null;
-  uncertainty: null | {
-    k: number;
-    method: string;
-    efficiency: { u: number | null; U: number | null } | null;
-    destruction_W: { u: number | null; U: number | null };
-    contributors: { input: string; tag?: string; u_SI: number; share_efficiency: number | null; share_destruction: number | null }[];
-    unavailable: string[];
-  };
-  tagHours: {
-    tag: string;
-    port?: string | null;
-    quantity?: string;
-    engUnit?: string;
-    role?: string;
-    uncertainty?: { mode: string; value: number };
-    validMin?: number | null;
-    validMax?: number | null;
-    validFromMs?: number;
-    validToMs?: number | null;
-    hour: null | { mean: number | null; min: number | null; max: number | null; samples: number; coveredFraction: number; nonNumeric: number; outOfRange: number; flatline: boolean };
-  }[];
-  cost: null | { cF_per_MWh: number; basis: string; currency: string };
-  notes: string[];
-}
-
-interface Hour {
-  hourStart: string;
-  state: string;
-  reasons: { code: string; message: string; tag?: string }[];
-  efficiency_U: number | null;
-  destruction_U_W: number | null;
-  destructionCost_per_h: number | null;
-  modelVersion: string;
-  inputsHash: string;
-  computedAt: string;
-  detail: Detail | null;
-  /** The detail is rebuilt on demand; matches: the same model version and inputs hash as the stored hour. */
-  rebuilt?: { matches: boolean; inputsHash: string | null; ms: number };
-}
+import type { HourAudit as Detail, UnitHourDetailView as Hour, UnitInfo } from '~/lib/views/unit-hour';
 
 const kW = (w: number | null | undefined) => fmt(w, 1, 1e-3);
 const ROLE_WORD: Record<string, string> = { fuel: 'fuel F', product: 'product P', loss: 'loss L' };
@@ -135,11 +54,7 @@ export function HourDetail({ unit, hourStart, onClose }: { unit: UnitInfo; hourS
         </button>
       </div>
 
-      <p className="caution" role="note">
-        Steam, hot water, compressed gas and fuel systems can kill. Lossline is a monitoring aid: its figures are not alarms, it is not a
-        protective or control system, and they depend on the instruments behind them. Any intervention follows the site's procedures, local
-        codes and the judgement of licensed engineers.
-      </p>
+      <Caution className="caution" />
 
       <div>
         <h3 className="mb-1 font-medium">Why this hour is {hour.state}</h3>

@@ -3,38 +3,10 @@ import { HourDetail } from './HourDetail';
 import { HourStateMark } from './HourStateMark';
 import { fmt, siteDay, siteDayStart, siteTime } from './format';
 import { call } from '~/components/api';
+import { DAY_MS } from '~/lib/time';
+import type { UnitHourView as HourRow, UnitInfo } from '~/lib/views/unit-hour';
 
-export interface HourRow {
-  hourStart: string;
-  state: string;
-  reasons: { code: string; message: string; tag?: string }[];
-  load: number | null;
-  loadUnit: string | null;
-  T0_K: number | null;
-  fuel_W: number | null;
-  product_W: number | null;
-  loss_W: number | null;
-  destruction_W: number | null;
-  efficiency: number | null;
-  efficiency_U: number | null;
-  destruction_U_W: number | null;
-  closure_pct: number | null;
-  destructionCost_per_h: number | null;
-  modelVersion: string;
-  inputsHash: string;
-  computedAt: string;
-}
 
-export interface UnitInfo {
-  id: string;
-  name: string;
-  kind: string;
-  siteName: string;
-  timeZone: string;
-  currency: string;
-}
-
-const DAY_ms = 86_400_000;
 
 /**
  * A unit's hours in a table over a date range (site-local days), one hour opened up below it.
@@ -50,7 +22,7 @@ export default function UnitResults({ unit, initialFrom, initialTo, initialHour 
 
   const range = useCallback(() => {
     const from = siteDayStart(fromDay, tz);
-    const to = new Date(new Date(siteDayStart(toDay, tz)).getTime() + DAY_ms).toISOString();
+    const to = new Date(new Date(siteDayStart(toDay, tz)).getTime() + DAY_MS).toISOString();
     return { from, to };
   }, [fromDay, toDay, tz]);
 

@@ -1,6 +1,6 @@
 import { useState } from 'react';
-import type { UploadRow } from './UploadsPanel';
 import { call } from '~/components/api';
+import type { UploadRow } from '~/lib/upload-view';
 
 const SEP_LABEL: Record<string, string> = { ',': 'comma', ';': 'semicolon', '\t': 'tab', '|': 'bar' };
 

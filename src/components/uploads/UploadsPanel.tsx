@@ -8,34 +8,12 @@ import { StateMark } from '../StateMark';
 import { call, useApi } from '~/components/api';
 import { LayoutReview } from './LayoutReview';
 import { UPLOAD_STATE_LOOK } from './uploadStates';
+import type { UploadRow } from '~/lib/upload-view';
 
 interface Site {
   id: string;
   name: string;
   timeZone: string;
-}
-
-export interface UploadRow {
-  uploadId: string;
-  fileName: string;
-  sizeBytes: number | null;
-  status: string;
-  progress: number;
-  rowsRead: number;
-  duplicateOf: string | null;
-  reason: string | null;
-  createdAt: string;
-  summary: null | {
-    rows?: number;
-    tags?: number;
-    newTags?: number;
-    hours?: number;
-    values?: number;
-    rejected?: number;
-    warnings?: { code: string; message: string; count: number }[];
-    note?: string;
-  };
-  detection?: { profile: any; preview: any[] };
 }
 
 /** An empty JSON body: the API takes JSON, never form posts (which Astro's origin check refuses cross-site). */

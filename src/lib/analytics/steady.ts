@@ -30,6 +30,7 @@
  * they are configurable per unit and per tag. Performance test codes (ASME PTC 19.1 and the PTC of
  * each equipment type) are the place to take site-specific limits from.
  */
+import type { HourState } from '../hour-states';
 
 /** Hourly statistics of one tag (field names as produced by the ingest's tag-hour aggregation). */
 export interface TagHourStats {
@@ -143,7 +144,6 @@ export const STEADY_DEFAULTS = {
   maxBalanceResidual: 0.05,
 } as const;
 
-export type HourStateName = 'steady' | 'unsettled' | 'idle' | 'suspect';
 
 export type HourReasonCode =
   | 'TAG_MISSING'
@@ -158,7 +158,7 @@ export type HourReasonCode =
 export interface HourReason {
   code: HourReasonCode;
   /** The state this reason implies on its own. */
-  state: Exclude<HourStateName, 'steady'>;
+  state: Exclude<HourState, 'steady'>;
   tag?: string;
   balance?: string;
   /** The offending value and its limit, when there is one. */
@@ -167,13 +167,14 @@ export interface HourReason {
   message: string;
 }
 
-export interface HourState {
-  state: HourStateName;
+/** An hour's state with the reasons for it. */
+export interface HourClassification {
+  state: HourState;
   /** Every reason found, most severe first. */
   reasons: HourReason[];
 }
 
-const RANK: Record<HourStateName, number> = { suspect: 3, idle: 2, unsettled: 1, steady: 0 };
+const RANK: Record<HourState, number> = { suspect: 3, idle: 2, unsettled: 1, steady: 0 };
 
 /**
  * Classifies one hour of one unit.
@@ -186,7 +187,7 @@ const RANK: Record<HourStateName, number> = { suspect: 3, idle: 2, unsettled: 1,
 export function classifyHour(
   input: { tags: Readonly<Record<string, TagHourStats | null | undefined>>; balances?: readonly BalanceClosure[] },
   limits: SteadyLimits,
-): HourState {
+): HourClassification {
   const lim = { ...STEADY_DEFAULTS, ...dropUndefined(limits) };
   const keyTags = [...new Set([...(limits.keyTags ?? Object.keys(input.tags)), limits.loadTag])];
   const reasons: HourReason[] = [];
@@ -310,7 +311,7 @@ export function classifyHour(
   }
 
   reasons.sort((a, b) => RANK[b.state] - RANK[a.state]);
-  const state: HourStateName = reasons.length > 0 ? reasons[0].state : 'steady';
+  const state: HourState = reasons.length > 0 ? reasons[0].state : 'steady';
   return { state, reasons };
 }
 

@@ -12,12 +12,13 @@
  *   efficiency is not a steady-state figure, docs/domain.md section 2).
  * Any other hour, a missing hour included, ends a run: a notice needs hours that say the unit ran.
  */
+import type { HourState } from '../hour-states';
 import type { NormallyIdle, Weekday } from '../plant/idle';
 import { DEFAULT_RULE_HOURS, WEEKDAYS } from '../plant/idle';
 
 const HOUR_ms = 3_600_000;
 
-export type RuleHourState = 'steady' | 'unsettled' | 'idle' | 'suspect';
+export type RuleHourState = HourState;
 
 export interface RuleHour {
   hourStartMs: number;

@@ -2,6 +2,7 @@
  * What the hourly engine takes and gives, as plain data. Pure: the server reads the plant model and
  * the tag hours from the database and hands them over in these shapes.
  */
+import type { HourState } from '../hour-states';
 import type { EnergyPrice, Fluid as PlantFluid, FuelDefinition } from '../plant/model';
 import type { LinkQuantity, ParamValue, UnitKind as PlantKind } from '../plant/kinds';
 
@@ -103,7 +104,7 @@ export interface UnitHourInput {
   flueGasSources?: Readonly<Record<string, FlueGasSource>>;
 }
 
-export type EngineHourState = 'steady' | 'unsettled' | 'idle' | 'suspect';
+export type EngineHourState = HourState;
 
 /** A reason for an hour's state, most severe first when listed. */
 export interface EngineReason {

@@ -2,9 +2,9 @@ import { sql } from 'drizzle-orm';
 import { doublePrecision, jsonb, pgTable, primaryKey, text, timestamp, uuid } from 'drizzle-orm/pg-core';
 import { plantUnits } from './plant-schema';
 
-/** Hour states, in Lossline's words (docs/design.md). Only steady hours feed trends, baselines, drift. */
-export const HOUR_STATES = ['steady', 'unsettled', 'idle', 'suspect'] as const;
-export type HourState = (typeof HOUR_STATES)[number];
+/** Hour states, in Lossline's words (src/lib/hour-states.ts). Only steady hours feed trends, baselines, drift. */
+export { HOUR_STATES, type HourState } from '~/lib/hour-states';
+import type { HourState } from '~/lib/hour-states';
 
 /**
  * One unit's steady-state exergy balance for one local clock hour (hourStart = the UTC instant it

@@ -7,8 +7,6 @@
  *
  * Stable names other screens call: activeBaseline(unitId) and expectedFor(unitId, rows).
  */
-import { TZDate } from '@date-fns/tz';
-import { format } from 'date-fns';
 import { and, asc, desc, eq, gte, isNotNull, lt, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import { z } from 'zod';
@@ -25,7 +23,10 @@ import {
 } from '~/lib/analytics/baseline';
 import { QUEUES, sendJob } from '~/jobs';
 import { db } from '../db/client';
-import type { BaselineSummary, ModelSummary } from '~/lib/baseline-view';
+import type { BaselineSummary, FitView, ModelSummary } from '~/lib/baseline-view';
+import { siteDay } from '~/lib/site-time';
+import { hourCeil } from '~/lib/time';
+import { curveLoads } from '~/lib/views/trend';
 import { baselines, plantUnits, sites, unitHours, user, type BaselineStatus } from '../db/schema';
 import { isId } from '../access';
 import { AppError } from '../errors';
@@ -55,11 +56,9 @@ function summariseModel(m: BaselineModel): ModelSummary {
   return { coefficients: m.coefficients, stats: { n, p, s, r2, ybar, cvRmse, nmbe }, guideline14: meetsGuideline14(m.stats, 'hourly') };
 }
 
-const day = (d: Date, tz: string) => format(new TZDate(d.getTime(), tz), 'yyyy-MM-dd');
-
 /** The label of a baseline on charts; the period end is shown as its last day (the end is exclusive). */
 export function baselineLabel(version: number, periodFrom: Date, periodTo: Date, timeZone: string): string {
-  return `Baseline v${version} (${day(periodFrom, timeZone)} to ${day(new Date(periodTo.getTime() - 1), timeZone)})`;
+  return `Baseline v${version} (${siteDay(periodFrom, timeZone)} to ${siteDay(periodTo.getTime() - 1, timeZone)})`;
 }
 
 const creator = alias(user, 'creator');
@@ -345,7 +344,7 @@ export async function acceptBaseline(baselineId: string, userId: string | null):
   });
   // The hours after the reference period are checked against the new baseline right away.
   const boss = await queue();
-  await sendJob(boss, QUEUES.checkDrift, { siteId: b.siteId, fromMs: new Date(b.periodTo).getTime(), toMs: Math.ceil(Date.now() / 3_600_000) * 3_600_000, unitIds: [b.unitId] });
+  await sendJob(boss, QUEUES.checkDrift, { siteId: b.siteId, fromMs: new Date(b.periodTo).getTime(), toMs: hourCeil(Date.now()), unitIds: [b.unitId] });
   return getBaseline(baselineId);
 }
 
@@ -361,25 +360,13 @@ export async function discardBaseline(baselineId: string, userId: string | null)
   return getBaseline(baselineId);
 }
 
-export interface FitPoint {
-  hourStart: string;
-  load: number;
-  T0_K: number;
-  efficiency: number | null;
-  destruction_W: number;
-  expectedEfficiency: number | null;
-  expectedDestruction_W: number;
-}
+export type { FitPoint, FitView } from '~/lib/baseline-view';
 
 /**
  * The reference hours of a version with the fitted values, and the fitted curve against load at the
  * period's mean T0, for the builder's scatter.
  */
-export async function baselineFitView(baselineId: string): Promise<{
-  points: FitPoint[];
-  curve: { load: number; efficiency: number | null; destruction_W: number }[];
-  meanT0_K: number;
-}> {
+export async function baselineFitView(baselineId: string): Promise<FitView> {
   if (!isId(baselineId)) throw new AppError('NOT_FOUND', 'No such baseline.');
   const [b] = await db().select().from(baselines).where(eq(baselines.id, baselineId));
   if (!b) throw new AppError('NOT_FOUND', 'No such baseline.');
@@ -394,17 +381,11 @@ export async function baselineFitView(baselineId: string): Promise<{
     expectedDestruction_W: predict(b.destructionModel, h.load!, h.T0_K!),
   }));
   const meanT0_K = b.destructionModel.centre.T_amb_K;
-  const loads = points.map((p) => p.load);
-  const lo = Math.min(...loads);
-  const hi = Math.max(...loads);
-  const curve = Array.from({ length: 25 }, (_, i) => {
-    const load = lo + ((hi - lo) * i) / 24;
-    return {
-      load,
-      efficiency: b.efficiencyModel ? predict(b.efficiencyModel, load, meanT0_K) : null,
-      destruction_W: predict(b.destructionModel, load, meanT0_K),
-    };
-  });
+  const curve = curveLoads(points).map((load) => ({
+    load,
+    efficiency: b.efficiencyModel ? predict(b.efficiencyModel, load, meanT0_K) : null,
+    destruction_W: predict(b.destructionModel, load, meanT0_K),
+  }));
   return { points, curve, meanT0_K };
 }
 

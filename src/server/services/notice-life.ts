@@ -17,6 +17,7 @@ import { randomUUID } from 'node:crypto';
 import { and, asc, desc, eq, gte, isNotNull, isNull, ne } from 'drizzle-orm';
 import type { DriftSignal } from '~/lib/analytics/drift';
 import { extraDestructionCost_per_day } from '~/lib/analytics/cost';
+import { costOfHours } from '~/lib/engine/unit-cost';
 import {
   CURRENT_WINDOW_HOURS,
   VERIFY_HOURS,
@@ -31,7 +32,7 @@ import {
 } from '~/lib/analytics/notice-figures';
 import { driftNotices, driftPoints, type PriorReason } from '../db/schema';
 import type { Exec, Tx } from './drift-tx';
-import { costRate, escalationMultipleFor, queueEscalationMails, queueNoticeMails, shiftAgainstUncertainty } from './notices';
+import { costRate, escalationMultipleFor, queueEscalationMails, queueNoticeMails } from './notices';
 
 export interface PendingSignals {
   hourStart: Date;
@@ -265,13 +266,9 @@ async function openNotice(
   const fig = shiftFigure(hours, ctx.sigma_W, ctx.phi);
   const expected_W = hours.reduce((a, p) => a + p.expected_W, 0) / n;
   const measured_W = hours.reduce((a, p) => a + p.destruction_W, 0) / n;
-  const costed = hours.filter((p) => p.destructionCost_per_h !== null);
-  const costedJ = costed.reduce((a, p) => a + p.destruction_W * 3600, 0);
-  const unitCost = costed.length && costedJ > 0 ? costed.reduce((a, p) => a + p.destructionCost_per_h!, 0) / costedJ : null;
   const allU = hours.every((p) => p.hourU_W !== null);
   const hourU_W = allU ? hours.reduce((a, p) => a + p.hourU_W!, 0) / n : null;
-  const cost = await costRate(tx, ctx.unitId, unitCost);
-  const u = shiftAgainstUncertainty(fig.mean_W, hourU_W, n);
+  const cost = await costRate(tx, ctx.unitId, costOfHours(hours));
   const first = cost.cF === null ? null : extraDestructionCost_per_day(cost.cF, measured_W, expected_W).cost_per_day;
   const live = liveFigures(hours, ctx.sigma_W, ctx.phi, direction);
   const liveCost = costPerDay(live.current, cost.cF);
@@ -296,8 +293,8 @@ async function openNotice(
       cF_per_J: cost.cF,
       costBasis: cost.basis,
       hourU_W,
-      shiftU_W: u.shiftU_W,
-      exceedsUncertainty: u.exceeds,
+      shiftU_W: fig.measU_W,
+      exceedsUncertainty: fig.exceedsMeasurement,
       k: ctx.k,
       h: ctx.h,
       current_W: live.current.mean_W,

@@ -4,19 +4,15 @@
  */
 import { TZDate } from '@date-fns/tz';
 import { format } from 'date-fns';
+import { SAFETY_CAUTION } from '~/lib/caution';
 import type { NoticeView } from '~/lib/notice-view';
 import { escapeHtml } from '../mail';
 import { ruleFigureLines, ruleNoticeMail } from './unit-rule-words';
 
-/** docs/domain.md section 8, shown on every notice page and in every notice mail. */
-export const NOTICE_CAUTION =
-  'Steam, hot water, compressed gas and fuel systems can kill. Lossline is a monitoring aid: this drift notice is not an alarm, ' +
-  'and Lossline is not a protective or control system. Its figures depend on the instruments behind them. Any intervention ' +
-  "follows the site's procedures, local codes and the judgement of licensed engineers.";
 
 /** The link and the caution every notice mail ends with, as text and as HTML. */
-const textTail = (url: string) => ['', `Open the notice: ${url}`, '', NOTICE_CAUTION];
-const htmlCaution = () => `<p style="border:1px solid #c98a12;background:#f7e6bf;padding:8px">${escapeHtml(NOTICE_CAUTION)}</p>`;
+const textTail = (url: string) => ['', `Open the notice: ${url}`, '', SAFETY_CAUTION];
+const htmlCaution = () => `<p style="border:1px solid #c98a12;background:#f7e6bf;padding:8px">${escapeHtml(SAFETY_CAUTION)}</p>`;
 const htmlBody = (headHtml: string, lines: string[], url: string) =>
   [`<p>${headHtml}</p>`, `<ul>${lines.map((l) => `<li>${escapeHtml(l)}</li>`).join('')}</ul>`, `<p><a href="${escapeHtml(url)}">Open the notice</a></p>`, htmlCaution()].join('\n');
 
@@ -62,7 +58,7 @@ export function noticeFigureLines(n: NoticeView): string[] {
 }
 
 export function noticeMail(n: NoticeView, to: string) {
-  if (n.kind !== 'drift') return ruleNoticeMail(n, to, NOTICE_CAUTION);
+  if (n.kind !== 'drift') return ruleNoticeMail(n, to, SAFETY_CAUTION);
   const more = n.direction === 'up' ? 'more' : 'less';
   const subject = `Drift notice: ${n.unitName} at ${n.siteName} destroys ${kW(Math.abs(n.headline_W))} ${more} exergy than expected`;
   const lines = noticeFigureLines(n);
@@ -88,7 +84,7 @@ export function escalationMail(n: NoticeView, to: string, step: number, fromCost
 export function digestMail(open: NoticeView[], to: string, day: string) {
   const subject = `Lossline: ${open.length} drift notice${open.length === 1 ? '' : 's'} not closed (${day})`;
   const blocks = open.map((n) => [`${n.unitName} at ${n.siteName} - ${n.statusWord}`, ...noticeFigureLines(n).map((l) => `  ${l}`), `  ${n.url}`].join('\n'));
-  const text = [`Drift notices not yet closed on ${day}:`, '', ...blocks.flatMap((b) => [b, '']), NOTICE_CAUTION].join('\n');
+  const text = [`Drift notices not yet closed on ${day}:`, '', ...blocks.flatMap((b) => [b, '']), SAFETY_CAUTION].join('\n');
   const html = [
     `<p>Drift notices not yet closed on ${escapeHtml(day)}:</p>`,
     ...open.map(

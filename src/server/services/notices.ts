@@ -13,7 +13,8 @@ import { and, asc, desc, eq, gte, inArray, lt, ne, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import { z } from 'zod';
 import { QUEUES, sendJob } from '~/jobs';
-import { fuelExergyCost_per_J } from '~/lib/analytics/cost';
+import { unitFuelCost } from '~/lib/engine/unit-cost';
+import type { UnitKind } from '~/lib/plant/kinds';
 import { chartSeries, type ResidualHour } from '~/lib/analytics/notice-figures';
 import type { Role } from '~/lib/roles';
 import { db } from '../db/client';
@@ -28,6 +29,7 @@ import {
   noticeMails,
   noticePreferences,
   noticeSiteSettings,
+  plantPorts,
   plantUnits,
   sites,
   user,
@@ -39,10 +41,11 @@ import { queue } from '../queue';
 import { isId } from '../access';
 import { AppError } from '../errors';
 import { inInsightTx, type Exec, type Tx } from './drift-tx';
-import { NOTICE_CAUTION, digestMail, escalationMail, noticeMail } from './notice-mail';
+import { digestMail, escalationMail, noticeMail } from './notice-mail';
+import { SAFETY_CAUTION } from '~/lib/caution';
 import { ruleViewFields } from './unit-rule-words';
 
-export { NOTICE_CAUTION, TREND_WORDS, digestMail, escalationMail, noticeFigureLines, noticeMail } from './notice-mail';
+export { TREND_WORDS, digestMail, escalationMail, noticeFigureLines, noticeMail } from './notice-mail';
 
 /** The product's words for the statuses (docs/design.md): open, seen, closed. */
 export const NOTICE_STATUS_WORDS: Record<NoticeStatus, string> = { open: 'open', acknowledged: 'seen', closed: 'closed' };
@@ -53,42 +56,28 @@ export const NOTICE_RECIPIENT_ROLES: readonly Role[] = ['planner', 'energy-lead'
 export const NOTICE_ACTORS: readonly Role[] = ['admin', 'energy-lead', 'planner'];
 
 /**
- * Exergy-to-LHV ratio used when a notice's cost falls back to the site's fuel price because the hours
- * carry no cost: about 1.04 for natural gas (docs/domain.md section 4, Kotas 1985, from memory).
+ * The cost rate of a unit's destroyed exergy: the hours' own, else the site's price of the unit's
+ * fuel by the engine's rule (src/lib/engine/unit-cost.ts): electricity for pumps, compressors, fans
+ * and motors, the boiler's fuel for boilers and the units downstream of them.
  */
-export const FALLBACK_EXERGY_TO_LHV = 1.04;
-
-/**
- * Whether a shift exceeds the measurement uncertainty. Rule: the shift is the mean of n hourly
- * residuals; with the hours' errors independent, the expanded uncertainty of that mean is
- * U_hour / sqrt(n) (GUM, JCGM 100:2008, 4.2.3, applied to the mean of n readings). The shift exceeds
- * the measurement uncertainty when |shift| > U_hour / sqrt(n). A slow instrument drift is not
- * independent hour to hour; the notice therefore also shows U_hour itself.
- */
-export function shiftAgainstUncertainty(extra_W: number, hourU_W: number | null, n: number): { shiftU_W: number | null; exceeds: boolean | null } {
-  if (hourU_W === null || !Number.isFinite(hourU_W) || n < 1) return { shiftU_W: null, exceeds: null };
-  const shiftU_W = hourU_W / Math.sqrt(n);
-  return { shiftU_W, exceeds: Math.abs(extra_W) > shiftU_W };
-}
-
-/** The cost rate of a unit's destroyed exergy: the hours' own, else the site's fuel price. */
 export async function costRate(tx: Tx, unitId: string, unitCost: number | null): Promise<{ cF: number | null; basis: string | null; currency: string }> {
   const [u] = await tx
-    .select({ currency: sites.currency, prices: sites.prices, fuel: plantUnits.fuel })
+    .select({ siteId: sites.id, currency: sites.currency, prices: sites.prices, T0_K: sites.T0_K, kind: plantUnits.kind, fuel: plantUnits.fuel })
     .from(plantUnits)
     .innerJoin(sites, eq(sites.id, plantUnits.siteId))
     .where(eq(plantUnits.id, unitId));
-  const currency = u?.currency ?? 'EUR';
+  if (!u) return { cF: null, basis: null, currency: 'EUR' };
+  const currency = u.currency;
   if (unitCost !== null && Number.isFinite(unitCost)) return { cF: unitCost, basis: "the unit's hours (cost of destruction per hour)", currency };
-  const fuels = (u?.prices ?? []).filter((p) => p.kind === 'fuel');
-  const named = u?.fuel?.price ? fuels.find((p) => p.name === u.fuel!.price) : undefined;
-  const price = named ?? fuels[0];
-  if (!price) return { cF: null, basis: null, currency };
-  return {
-    cF: fuelExergyCost_per_J(price.price_per_MWh, FALLBACK_EXERGY_TO_LHV),
-    basis: `the site's fuel price '${price.name}' (${price.price_per_MWh} ${price.currency}/MWh LHV, exergy/LHV ${FALLBACK_EXERGY_TO_LHV})`,
-    currency,
-  };
+  const ports = await tx.select({ fluid: plantPorts.fluid }).from(plantPorts).where(eq(plantPorts.unitId, unitId));
+  const boilers = await tx
+    .select({ fuel: plantUnits.fuel })
+    .from(plantUnits)
+    .where(and(eq(plantUnits.siteId, u.siteId), eq(plantUnits.kind, 'boiler')))
+    .orderBy(asc(plantUnits.name));
+  const unit = { kind: u.kind as UnitKind, fuel: u.fuel ?? null, ports: ports.map((p) => ({ fluid: p.fluid ?? null })) };
+  const c = unitFuelCost(unit, { prices: u.prices, currency, T0_K: u.T0_K }, boilers.map((b) => ({ fuel: b.fuel ?? null })));
+  return c ? { cF: c.cF_per_J, basis: `the site's prices: ${c.basis}`, currency } : { cF: null, basis: null, currency };
 }
 
 /** Default multiple of the cost per day at the last mail that sends an escalation mail (common practice). */
@@ -297,7 +286,7 @@ export async function noticeDetail(noticeId: string) {
   events.sort((x, y) => x.t.localeCompare(y.t));
   return {
     notice,
-    caution: notice.kind === 'drift' ? NOTICE_CAUTION : NOTICE_CAUTION.replace('this drift notice', 'this notice'),
+    caution: SAFETY_CAUTION,
     chart: { span: chart.span, points: chart.points, events },
     /** The hourly rows as before (kept for API callers): residual [W], x and the sums [sigma]. */
     series: rows.slice(0, 1000).map((r) => ({ hourStart: r.hourStart.toISOString(), residual_W: r.residual_W, x: r.x, cPlus: r.cPlus, cMinus: r.cMinus })),

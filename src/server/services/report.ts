@@ -6,18 +6,17 @@
  */
 import { and, asc, eq, gte, lt, sql } from 'drizzle-orm';
 import { db } from '../db/client';
-import { plantUnits, sites, unitHours, type HourState } from '../db/schema';
+import { SAFETY_CAUTION } from '~/lib/caution';
+import type { HourState, StateCounts } from '~/lib/hour-states';
+import { siteStamp } from '~/lib/site-time';
+import { kindLabel, ledgerFrom, type LedgerAnswer } from '~/lib/views/ledger';
+import { monthPeriod, type Period } from '~/lib/views/period';
+import { meanOf } from '~/lib/views/trend';
+import { plantUnits, sites, unitHours } from '../db/schema';
 import { AppError } from '../errors';
 import { isId } from '../access';
-import { localStamp, monthPeriod, type Period } from './views-period';
 import { expectedBand, siteNotices, type NoticeMark } from './views-insight';
-import { kindLabel, ledgerFrom, unitAggregates, type LedgerAnswer, type StateCounts } from './views';
-
-/** docs/domain.md section 8, as every report carries it. */
-export const REPORT_CAUTION =
-  'Steam, hot water, compressed gas and fuel systems can kill. Lossline is a monitoring aid: its drift notices are not alarms, ' +
-  'it is not a protective or control system, and its figures depend on the instruments behind them. Any intervention follows ' +
-  "the site's procedures, local codes and the judgement of licensed engineers.";
+import { unitSums } from './views';
 
 /** How the report's uncertainties are to be read. */
 export const REPORT_UNCERTAINTY_NOTE =
@@ -75,14 +74,13 @@ function monthOrError(month: string, timeZone: string): Period {
   }
 }
 
-const mean = (xs: number[]) => (xs.length ? xs.reduce((a, b) => a + b, 0) / xs.length : null);
 
 /** Every figure of a site's report for a calendar month 'yyyy-MM' of the site. */
 export async function reportData(siteId: string, month: string, nowMs = Date.now()): Promise<ReportData> {
   const site = await siteRow(siteId);
   const period = monthOrError(month, site.timeZone);
-  const aggs = await unitAggregates(site.id, period.fromMs, period.toMs);
-  const ledger = ledgerFrom(aggs);
+  const sums = await unitSums(site.id, period.fromMs, period.toMs);
+  const ledger = ledgerFrom(sums);
 
   const units = await db().select({ id: plantUnits.id, name: plantUnits.name, kind: plantUnits.kind }).from(plantUnits).where(eq(plantUnits.siteId, site.id)).orderBy(asc(plantUnits.name));
   const efficiency: EfficiencyVsBaseline[] = [];
@@ -96,7 +94,7 @@ export async function reportData(siteId: string, month: string, nowMs = Date.now
     const paired = hours.map((h, i) => ({ h, e: expected[i] })).filter((p) => p.e);
     // Without a baseline the measured means still stand, over every steady hour.
     const basis = paired.length ? paired : hours.map((h) => ({ h, e: null }));
-    const m = (list: typeof basis, f: (p: (typeof basis)[number]) => number | null | undefined) => mean(list.map(f).filter((v): v is number => v !== null && v !== undefined));
+    const m = (list: typeof basis, f: (p: (typeof basis)[number]) => number | null | undefined) => meanOf(list.map((p) => f(p) ?? null));
     const effBasis = basis.filter((p) => p.h.efficiency !== null && (!p.e || p.e.efficiency !== null));
     efficiency.push({
       unitId: u.id,
@@ -135,19 +133,18 @@ export async function reportData(siteId: string, month: string, nowMs = Date.now
     site: { id: site.id, name: site.name, timeZone: site.timeZone, currency: site.currency },
     month,
     period,
-    generated: localStamp(nowMs, site.timeZone),
+    generated: siteStamp(nowMs, site.timeZone),
     ledger,
     efficiency,
     notices,
     quality: {
-      units: aggs.map((a) => {
-        const hours: StateCounts = { steady: a.steady, unsettled: a.unsettled, idle: a.idle, suspect: a.suspect };
-        const counted = a.steady + a.unsettled + a.idle + a.suspect;
-        return { unitId: a.unit_id, name: a.name, hours, noHour: Math.max(0, period.hours - counted) };
+      units: sums.map((a) => {
+        const counted = a.hours.steady + a.hours.unsettled + a.hours.idle + a.hours.suspect;
+        return { unitId: a.unitId, name: a.name, hours: a.hours, noHour: Math.max(0, period.hours - counted) };
       }),
       reasons: reasonRows.rows.map((r) => ({ code: String(r.code ?? 'unspecified'), example: String(r.example ?? ''), hours: Number(r.hours) })),
     },
-    caution: REPORT_CAUTION,
+    caution: SAFETY_CAUTION,
     uncertaintyNote: REPORT_UNCERTAINTY_NOTE,
   };
 }

@@ -64,14 +64,13 @@ export function ruleNoticeMail(n: NoticeView, to: string, caution: string) {
     n.kind === 'idle'
       ? `${n.unitName} (${n.siteName}) is declared normally idle, and it has been running.`
       : `${n.unitName} (${n.siteName}) has crossed a limit set for it.`;
-  const caution2 = caution.replace('this drift notice', 'this notice');
   const lines = ruleFigureLines(n);
-  const text = [intro, '', ...lines, '', `Open the notice: ${n.url}`, '', caution2].join('\n');
+  const text = [intro, '', ...lines, '', `Open the notice: ${n.url}`, '', caution].join('\n');
   const html = [
     `<p>${escapeHtml(intro)}</p>`,
     `<ul>${lines.map((l) => `<li>${escapeHtml(l)}</li>`).join('')}</ul>`,
     `<p><a href="${escapeHtml(n.url)}">Open the notice</a></p>`,
-    `<p style="border:1px solid #c98a12;background:#f7e6bf;padding:8px">${escapeHtml(caution2)}</p>`,
+    `<p style="border:1px solid #c98a12;background:#f7e6bf;padding:8px">${escapeHtml(caution)}</p>`,
   ].join('\n');
   return { to, subject, text, html };
 }

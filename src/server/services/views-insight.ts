@@ -3,27 +3,12 @@
  * expectedFor with k = 2) and drift notices (drift_notices), shaped for charts and reports.
  */
 import { and, asc, eq, gte, inArray, lt, ne, or, isNull, sql } from 'drizzle-orm';
-import type { ExpectedHour, NoticeMark } from '~/lib/trend-view';
+import type { BaselineInfo, ExpectedHour, NoticeMark } from '~/lib/views/trend';
 import { db } from '../db/client';
 import { driftNotices, plantUnits } from '../db/schema';
 import { expectedFor, type BaselineSummary } from './baselines';
 
-/** The baseline named on every chart. */
-export interface BaselineInfo {
-  id: string;
-  version: number;
-  /** 'Baseline v3 (2026-01-05 to 2026-02-01)', dates in the site's time zone. */
-  label: string;
-  loadUnit: string | null;
-  hasEfficiency: boolean;
-  meetsGuideline14: boolean;
-  /** CV(RMSE) of the fits [-]. */
-  efficiencyCvRmse: number | null;
-  destructionCvRmse: number;
-}
-
-
-export type { ExpectedHour, NoticeMark } from '~/lib/trend-view';
+export type { BaselineInfo, ExpectedHour, NoticeMark } from '~/lib/views/trend';
 
 export function baselineInfo(b: BaselineSummary): BaselineInfo {
   return {

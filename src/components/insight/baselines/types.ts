@@ -2,13 +2,8 @@
 import type { BaselineTerm } from '~/lib/analytics/baseline';
 export type { BaselineTerm };
 
-export type { BaselineSummary, ModelSummary } from '~/lib/baseline-view';
+export type { BaselineSummary, FitView, ModelSummary } from '~/lib/baseline-view';
 
-export interface FitView {
-  points: { hourStart: string; load: number; T0_K: number; efficiency: number | null; destruction_W: number; expectedEfficiency: number | null; expectedDestruction_W: number }[];
-  curve: { load: number; efficiency: number | null; destruction_W: number }[];
-  meanT0_K: number;
-}
 
 export const TERM_LABELS: Record<BaselineTerm, string> = {
   load: 'load',

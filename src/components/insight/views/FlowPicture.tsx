@@ -6,15 +6,10 @@
  */
 import { COLORS } from './common';
 import { mwh, mwhDecimals } from './format';
+import type { FlowAnswer } from '~/lib/views/ledger';
 
-export interface FlowAnswer {
-  site: { id: string; name: string; timeZone: string; currency: string };
-  period: { label: string };
-  sources: { key: 'fuel' | 'power' | 'streams'; label: string; MWh: number }[];
-  units: { unitId: string; name: string; kindLabel: string; source: 'fuel' | 'power' | 'streams'; fuel_MWh: number; product_MWh: number; loss_MWh: number; destruction_MWh: number; destruction_U_MWh: number }[];
-  totals: { fuel_MWh: number; product_MWh: number; loss_MWh: number; destruction_MWh: number };
-  steadyHours: number;
-}
+export type { FlowAnswer };
+
 
 const W = 1120;
 const NODE_W = 14;

@@ -5,34 +5,12 @@
 import { useEffect, useState } from 'react';
 import { COLORS, ErrorNote, HourStateMark, Loading } from './common';
 import { useApi } from '~/components/api';
-import { FlowPicture, type FlowAnswer } from './FlowPicture';
+import { FlowPicture } from './FlowPicture';
+import { HOUR_STATES as STATES } from '~/lib/hour-states';
+import type { FlowAnswer, LedgerAnswer } from '~/lib/views/ledger';
 import { money, mwh, mwhDecimals, pct, type HourState } from './format';
 import { PeriodPicker, periodFromSearch, periodQuery, syncSearch, type PeriodInfo, type PeriodValue } from './PeriodPicker';
 
-interface LedgerRow {
-  rank: number;
-  unitId: string;
-  name: string;
-  kindLabel: string;
-  hours: Record<HourState, number>;
-  destruction_MWh: number;
-  destruction_U_MWh: number;
-  cost: number | null;
-  cost_U: number | null;
-  hoursWithoutCost: number;
-  share: number | null;
-  efficiencyMean: number | null;
-  efficiencyMean_U: number | null;
-}
-interface LedgerAnswer {
-  site: { id: string; name: string; timeZone: string; currency: string };
-  period: PeriodInfo;
-  rows: LedgerRow[];
-  shareBasis: 'cost' | 'destruction';
-  totals: { hours: Record<HourState, number>; destruction_MWh: number; destruction_U_MWh: number; cost: number | null; cost_U: number | null };
-}
-
-const STATES: HourState[] = ['steady', 'unsettled', 'idle', 'suspect'];
 
 function ShareBar({ share }: { share: number | null }) {
   if (share === null) return <span>—</span>;

@@ -1,23 +1,16 @@
 import { useEffect, useState } from 'react';
 
-export type Range = 'day' | 'week' | 'month' | 'year' | 'custom';
+import type { Period, Range } from '~/lib/views/period';
+
+export type { Range };
 export interface PeriodValue {
   range: Range;
   anchor?: string;
   from?: string;
   to?: string;
 }
-/** What the server answered for the period (src/server/services/views-period.ts). */
-export interface PeriodInfo {
-  range: Range;
-  label: string;
-  firstDay: string;
-  lastDay: string;
-  prevAnchor: string;
-  nextAnchor: string;
-  hours: number;
-  timeZone: string;
-}
+/** What the server answered for the period (src/lib/views/period.ts). */
+export type PeriodInfo = Pick<Period, 'range' | 'label' | 'firstDay' | 'lastDay' | 'prevAnchor' | 'nextAnchor' | 'hours' | 'timeZone'>;
 
 const RANGES: { key: Range; label: string }[] = [
   { key: 'day', label: 'Day' },

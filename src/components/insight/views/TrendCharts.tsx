@@ -19,8 +19,8 @@ import {
   YAxis,
 } from 'recharts';
 import { COLORS, HourStateMark, STATE_LOOK } from './common';
-import type { ContextSpan, ExpectedHour, NoticeMark, TrendPoint } from '~/lib/trend-view';
-export type { ContextSpan, ExpectedHour, NoticeMark, TrendPoint };
+import type { ContextSpan, CurvePoint, ExpectedHour, NoticeMark, ScatterPoint, TrendPoint } from '~/lib/views/trend';
+export type { ContextSpan, CurvePoint, ExpectedHour, NoticeMark, ScatterPoint, TrendPoint };
 import { load as showLoad, loadAxis, pct, power, powerUnit, siteTime, type HourState } from './format';
 
 
@@ -295,23 +295,6 @@ export function TrendLegend({ kind, shown }: { kind: Kind; shown: Set<string> })
       </li>
     </ul>
   );
-}
-
-export interface ScatterPoint {
-  t: number;
-  load: number;
-  efficiency: number | null;
-  efficiency_U: number | null;
-  destruction_W: number | null;
-}
-export interface CurvePoint {
-  load: number;
-  efficiency: number | null;
-  lo: number | null;
-  hi: number | null;
-  destruction_W: number | null;
-  dLo_W: number | null;
-  dHi_W: number | null;
 }
 
 function ScatterTooltip({ active, payload, kind, timeZone, loadUnit }: { active?: boolean; payload?: { payload: Record<string, unknown> }[]; kind: Kind; timeZone: string; loadUnit: string | null }) {

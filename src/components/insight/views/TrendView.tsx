@@ -8,32 +8,9 @@ import { ErrorNote, HourStateMark, Loading, ViewsCaution } from './common';
 import { useApi } from '~/components/api';
 import { pct, power, siteTime, type HourState } from './format';
 import { PeriodPicker, periodFromSearch, periodQuery, syncSearch, type PeriodInfo, type PeriodValue } from './PeriodPicker';
-import { LoadScatter, TimeChart, TrendLegend, type ContextSpan, type CurvePoint, type NoticeMark, type ScatterPoint, type TrendPoint } from './TrendCharts';
+import { LoadScatter, TimeChart, TrendLegend } from './TrendCharts';
+import type { TrendAnswer } from '~/lib/views/trend';
 
-interface TrendAnswer {
-  unit: { id: string; name: string; kind: string; kindLabel: string };
-  site: { id: string; name: string; timeZone: string; currency: string };
-  period: PeriodInfo & { fromMs: number; toMs: number };
-  bucket: 'hour' | 'day';
-  points: TrendPoint[];
-  context: ContextSpan[];
-  stateHours: Record<HourState, number>;
-  missingHours: number;
-  summary: {
-    steadyHours: number;
-    efficiencyMean: number | null;
-    efficiencyMean_U: number | null;
-    destructionMean_W: number | null;
-    destructionMean_U_W: number | null;
-    expectedEfficiencyMean: number | null;
-    expectedDestructionMean_W: number | null;
-  };
-  loadUnit: string | null;
-  scatter: ScatterPoint[];
-  curve: CurvePoint[];
-  baseline: { id: string; label: string; meetsGuideline14: boolean; efficiencyCvRmse: number | null; destructionCvRmse: number } | null;
-  notices: NoticeMark[];
-}
 
 function BaselineName({ b }: { b: TrendAnswer['baseline'] }) {
   return (

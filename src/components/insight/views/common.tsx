@@ -49,11 +49,4 @@ export function ErrorNote({ text }: { text: string }) {
 }
 
 /** The caution of docs/domain.md section 8. */
-export function ViewsCaution() {
-  return (
-    <p className="caution text-xs">
-      Lossline is a monitoring aid: drift notices are not alarms, it is not a protective or control system, and its figures depend on the
-      instruments behind them. Any intervention follows the site's procedures, local codes and the judgement of licensed engineers.
-    </p>
-  );
-}
+export { Caution as ViewsCaution } from '../../Caution';

@@ -5,7 +5,7 @@
 import { TZDate } from '@date-fns/tz';
 import { format } from 'date-fns';
 
-import type { HourState } from '~/lib/trend-view';
+import type { HourState } from '~/lib/hour-states';
 export type { HourState };
 
 export const STATE_LABELS: Record<HourState, string> = {

@@ -9,6 +9,7 @@
 import { TZDate } from '@date-fns/tz';
 import { addDays, addMonths, addWeeks, addYears, format, startOfDay, startOfMonth, startOfWeek, startOfYear } from 'date-fns';
 import { z } from 'zod';
+import { DAY_MS, HOUR_MS } from '../time';
 
 export const RANGES = ['day', 'week', 'month', 'year', 'custom'] as const;
 export type Range = (typeof RANGES)[number];
@@ -121,7 +122,7 @@ export function resolvePeriod(q: PeriodQuery, timeZone: string, nowMs = Date.now
       const last = atLocalDay(q.to!, timeZone);
       if (last.getTime() < start.getTime()) throw new RangeError('The custom period ends before it starts.');
       end = addDays(last, 1);
-      const days = Math.round((end.getTime() - start.getTime()) / 86_400_000);
+      const days = Math.round((end.getTime() - start.getTime()) / DAY_MS);
       if (days > CUSTOM_MAX_DAYS) throw new RangeError(`A custom period may span at most ${CUSTOM_MAX_DAYS} days; this one spans ${days}.`);
       label = `${format(start, 'd MMM yyyy')} – ${format(last, 'd MMM yyyy')}`;
       prev = addDays(start, -days);
@@ -141,7 +142,7 @@ export function resolvePeriod(q: PeriodQuery, timeZone: string, nowMs = Date.now
     label,
     prevAnchor: day(prev),
     nextAnchor: day(next),
-    hours: Math.round((end.getTime() - start.getTime()) / 3_600_000),
+    hours: Math.round((end.getTime() - start.getTime()) / HOUR_MS),
   };
 }
 
@@ -151,7 +152,3 @@ export function monthPeriod(month: string, timeZone: string): Period {
   return resolvePeriod({ range: 'month', anchor: `${month}-01` }, timeZone);
 }
 
-/** The local date (yyyy-MM-dd) and hour label of an instant on site. */
-export function localStamp(ms: number, timeZone: string, pattern = 'yyyy-MM-dd HH:mm'): string {
-  return format(new TZDate(ms, timeZone), pattern);
-}

@@ -1,0 +1,18 @@
+/**
+ * The states of a unit hour (docs/design.md "Hour states"), one list for the engine, the database,
+ * the views, reports and islands. Only steady hours feed efficiency, destruction and cost figures.
+ */
+export const HOUR_STATES = ['steady', 'unsettled', 'idle', 'suspect'] as const;
+export type HourState = (typeof HOUR_STATES)[number];
+
+/** The states an hour is counted in and shown as context, not drawn in the figures. */
+export const CONTEXT_STATES = ['unsettled', 'idle', 'suspect'] as const satisfies readonly HourState[];
+export type ContextState = (typeof CONTEXT_STATES)[number];
+
+/** Hours of each state. */
+export type StateCounts = Record<HourState, number>;
+
+/** No hours of any state. */
+export const zeroStateCounts = (): StateCounts => ({ steady: 0, unsettled: 0, idle: 0, suspect: 0 });
+
+export const isHourState = (s: unknown): s is HourState => typeof s === 'string' && (HOUR_STATES as readonly string[]).includes(s);

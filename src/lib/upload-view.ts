@@ -1,0 +1,29 @@
+/**
+ * An upload as the uploads API answers it (src/server/services/uploads.ts uploadView) and the
+ * uploads islands show it (src/components/uploads): one definition for both. Types only.
+ */
+
+/** One upload on the uploads page; `detection` while a person must answer a layout question. */
+export interface UploadRow {
+  uploadId: string;
+  fileName: string;
+  sizeBytes: number | null;
+  status: string;
+  progress: number;
+  rowsRead: number;
+  duplicateOf: string | null;
+  reason: string | null;
+  createdAt: string;
+  summary: null | {
+    rows?: number;
+    tags?: number;
+    newTags?: number;
+    hours?: number;
+    values?: number;
+    rejected?: number;
+    warnings?: { code: string; message: string; count: number }[];
+    note?: string;
+  };
+  /** The layout profile of src/lib/ingest and the first rows, drawn as they come. */
+  detection?: { profile: any; preview: any[] };
+}
