@@ -8,6 +8,10 @@ import type PgBoss from 'pg-boss';
 export const QUEUES = {
   ingestFile: 'ingest-file',
   computeUnitHours: 'compute-unit-hours',
+  /** One unit x one month of a compute request (the worker cuts compute-unit-hours into these). */
+  computeUnitMonth: 'compute-unit-month',
+  /** Waits until every unit-month of a compute request is done, then sends check-drift once. */
+  computeSettle: 'compute-settle',
   checkDrift: 'check-drift',
   sendMail: 'send-mail',
   /** Idle and limit rules of units over an hour range (also run by every drift check); sent when a rule changes. */
@@ -27,6 +31,17 @@ export const ComputeUnitHoursPayload = z.object({
   toMs: z.number().int(),
   unitIds: z.array(z.string().uuid()).optional(),
 });
+/** One unit over [fromMs, toMs) within one month, as part of the compute request `runId`. */
+export const ComputeUnitMonthPayload = z.object({
+  runId: z.string().uuid(),
+  siteId: z.string().uuid(),
+  unitId: z.string().uuid(),
+  fromMs: z.number().int(),
+  toMs: z.number().int(),
+});
+export const ComputeSettlePayload = z.object({ runId: z.string().uuid(), siteId: z.string().uuid() });
+/** Queues that are not pg-boss's default policy: at most one job per key queued and one active. */
+export const QUEUE_POLICIES: Partial<Record<QueueName, 'stately'>> = { 'compute-unit-month': 'stately', 'compute-settle': 'stately' };
 /** Sent by the engine after it stored unit hours: the drift check looks at these hours. */
 export const CheckDriftPayload = z.object({
   siteId: z.string().uuid(),
@@ -49,6 +64,8 @@ export const SendMailPayload = z.object({
 export const JOB_PAYLOADS = {
   [QUEUES.ingestFile]: IngestFilePayload,
   [QUEUES.computeUnitHours]: ComputeUnitHoursPayload,
+  [QUEUES.computeUnitMonth]: ComputeUnitMonthPayload,
+  [QUEUES.computeSettle]: ComputeSettlePayload,
   [QUEUES.checkDrift]: CheckDriftPayload,
   [QUEUES.sendMail]: SendMailPayload,
   [QUEUES.checkUnitRules]: CheckUnitRulesPayload,

@@ -1,5 +1,5 @@
 import PgBoss from 'pg-boss';
-import { QUEUES } from '../jobs';
+import { QUEUE_POLICIES, QUEUES } from '../jobs';
 import { env } from './env';
 import { redact } from './log';
 
@@ -16,7 +16,7 @@ export function queue(): Promise<PgBoss> {
     const b = new PgBoss({ connectionString: env().DATABASE_URL, schema: 'pgboss', max: 4 });
     b.on('error', (err) => console.error('[queue]', redact(err.message)));
     await b.start();
-    for (const name of Object.values(QUEUES)) await b.createQueue(name);
+    for (const name of Object.values(QUEUES)) await b.createQueue(name, { name, policy: QUEUE_POLICIES[name] ?? 'standard' });
     boss = b;
     return b;
   })();

@@ -2,7 +2,7 @@ import type PgBoss from 'pg-boss';
 import { CheckDriftPayload, CheckUnitRulesPayload, IngestFilePayload, NoticeDigestPayload, QUEUES } from '../jobs';
 import { checkUnitRules } from '../server/services/unit-rules';
 import { checkDrift } from '../server/services/drift';
-import { handleComputeUnitHours } from '../server/services/engine';
+import { computeUnitMonth, fanOutCompute, settleCompute } from '../server/services/engine-jobs';
 import { partitionUpkeep } from '../server/db/partitions';
 import { sendNoticeDigests } from '../server/services/notices';
 import { ingestUpload } from '../server/services/ingest';
@@ -21,10 +21,7 @@ export async function registerHandlers(boss: PgBoss): Promise<void> {
     console.log(redactForLog(`[worker ${process.pid}] ingest ${uploadId}: ${out.kind}${'reason' in out ? ' - ' + out.reason : 'why' in out ? ' - ' + out.why : ''}`));
   });
   // --- engine ---
-  await boss.work(QUEUES.computeUnitHours, { pollingIntervalSeconds: 1, batchSize: 1 }, async ([job]) => {
-    const out = await handleComputeUnitHours(job!.data);
-    if (out.computed) console.log(`[worker] compute-unit-hours ${out.siteId}: ${out.computed} unit hours, ${out.written} written, ${out.unchanged} unchanged`);
-  });
+  await registerEngineHandlers(boss);
   // --- baselines and drift ---
   await boss.work(QUEUES.checkDrift, { pollingIntervalSeconds: 1, batchSize: 1 }, async ([job]) => {
     const out = await checkDrift(CheckDriftPayload.parse(job!.data));
@@ -51,4 +48,17 @@ async function runUnitRules(data: unknown): Promise<void> {
   const out = await checkUnitRules(CheckUnitRulesPayload.parse(data));
   const opened = out.flatMap((u) => u.opened);
   if (opened.length) console.log(`[worker] unit rules: ${opened.length} notice(s) opened`);
+}
+
+/** The engine's queues: a site's request is cut into unit-month jobs that every worker process shares (engine-jobs.ts). */
+export async function registerEngineHandlers(boss: PgBoss): Promise<void> {
+  await boss.work(QUEUES.computeUnitHours, { pollingIntervalSeconds: 1, batchSize: 1 }, async ([job]) => {
+    const out = await fanOutCompute(job!.data);
+    if (out.queued) console.log(`[worker] compute-unit-hours: ${out.queued} unit-month job(s) queued (${out.alreadyQueued} already were)`);
+  });
+  await boss.work(QUEUES.computeUnitMonth, { pollingIntervalSeconds: 0.5, batchSize: 1 }, async ([job]) => ({ ...(await computeUnitMonth(job!.data)), pid: process.pid }));
+  await boss.work(QUEUES.computeSettle, { pollingIntervalSeconds: 1, batchSize: 1 }, async ([job]) => {
+    const out = await settleCompute(job!.data);
+    if (out.touched) console.log(`[worker] compute settled: check-drift sent for ${out.touched.unitIds.length} unit(s)`);
+  });
 }

@@ -15,47 +15,13 @@ import { setLink } from '~/server/services/plant-links';
 import { expectClose } from '../support/expect-close';
 import { describeIntegration } from '../support/integration';
 import { recomputeJobs, uniqueName } from '../plant/support';
-import { ALL_CASES, P_ATM_Pa, steadyHour, type EngineCase } from './cases';
+import { ALL_CASES, steadyHour } from './cases';
+import { GAS_PRICE, POWER_PRICE, modelOf } from './model-file';
 
 const H = 3_600_000;
 const H0 = Date.UTC(2024, 1, 12, 8);
 const HOURS = 3;
 const RTOL = 1e-3;
-const GAS_PRICE = 30; // EUR/MWh (LHV), invented
-const POWER_PRICE = 90; // EUR/MWh, invented
-
-function modelOf(name: string, cases: EngineCase[]) {
-  return {
-    format: 'lossline-plant-model',
-    version: 1,
-    site: {
-      name,
-      timeZone: 'UTC',
-      p_atm_Pa: P_ATM_Pa,
-      deadState: { T0_K: 298.15, p0_Pa: 101325 },
-      currency: 'EUR',
-      prices: [
-        { name: 'pipeline gas', kind: 'fuel', price_per_MWh: GAS_PRICE, currency: 'EUR' },
-        { name: 'grid', kind: 'electricity', price_per_MWh: POWER_PRICE, currency: 'EUR' },
-      ],
-    },
-    units: cases.map((c) => ({
-      name: c.id,
-      kind: c.kind,
-      parameters: c.parameters,
-      ...(c.fuel ? { fuel: c.fuel } : {}),
-      ports: c.ports,
-      links: c.links.map((l) => ({
-        ...(l.port ? { port: l.port } : {}),
-        quantity: l.quantity,
-        tag: l.tag,
-        unit: l.unit,
-        ...(l.basis ? { basis: l.basis } : {}),
-        ...(l.uncertainty ? { uncertainty: l.uncertainty } : {}),
-      })),
-    })),
-  };
-}
 
 async function tagIdOf(siteId: string, name: string) {
   const [t] = await db().select({ seq: tags.seq }).from(tags).where(and(eq(tags.siteId, siteId), eq(tags.name, name)));

@@ -278,7 +278,6 @@ export function classifyHour(
     const maxRel = own?.maxRelSpread ?? (own?.maxStd === undefined ? lim.defaultMaxRelSpread : undefined);
     const mean = st.mean!;
     const floor = resolvableSpread(mean, own?.instrument, lim.resolutionFactor);
-    const floorText = floor > 0 ? `; what the instrument resolves: ${fmt(floor)}` : '';
     // At the limit counts as settled: only a spread above it makes the hour unsettled.
     if (maxRel !== undefined && mean !== 0) {
       const rel = st.stdDev / Math.abs(mean);
@@ -290,7 +289,7 @@ export function classifyHour(
           tag,
           value: rel,
           limit: relLimit,
-          message: `${tag}: spread ${(100 * rel).toFixed(1)} % of the mean, above its limit ${(100 * relLimit).toFixed(1)} % (${(100 * maxRel).toFixed(1)} % of the mean${floorText}; a spread at the limit counts as settled)`,
+          message: `${tag}: spread ${(100 * rel).toFixed(1)} % of the mean, above its limit ${(100 * relLimit).toFixed(1)} % (${(100 * maxRel).toFixed(1)} % of the mean${floorNote(floor)}; a spread at the limit counts as settled)`,
         });
         continue;
       }
@@ -304,7 +303,7 @@ export function classifyHour(
           tag,
           value: st.stdDev,
           limit: absLimit,
-          message: `${tag}: spread ${fmt(st.stdDev)} within the hour, above its limit ${fmt(absLimit)} (set ${fmt(own.maxStd)}${floorText}; a spread at the limit counts as settled)`,
+          message: `${tag}: spread ${fmt(st.stdDev)} within the hour, above its limit ${fmt(absLimit)} (set ${fmt(own.maxStd)}${floorNote(floor)}; a spread at the limit counts as settled)`,
         });
       }
     }
@@ -316,6 +315,8 @@ export function classifyHour(
 }
 
 const fmt = (v: number) => Number(v.toPrecision(3)).toString();
+/** The instrument's floor in a reason's words (formatted only when a reason is written). */
+const floorNote = (floor: number) => (floor > 0 ? `; what the instrument resolves: ${fmt(floor)}` : '');
 
 function dropUndefined<T extends object>(o: T): Partial<T> {
   return Object.fromEntries(Object.entries(o).filter(([, v]) => v !== undefined)) as Partial<T>;

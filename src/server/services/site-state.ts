@@ -26,7 +26,7 @@ export interface SiteProcessingState {
     /** Files stopped for a person's answer (a layout question); not counted against `settled`. */
     needsReview: number;
   };
-  /** Unit hours waiting to be computed or being computed (jobs of the engine). */
+  /** Unit hours waiting to be computed or being computed: the engine's requests, unit-months and the settle step that sends the drift check. */
   compute: SiteWorkCounts;
   /** Drift checks and the idle and limit rules of units, after the engine stored hours. */
   driftCheck: SiteWorkCounts;
@@ -77,7 +77,7 @@ async function latestHours(siteId: string) {
 export async function siteProcessingState(siteId: string): Promise<SiteProcessingState> {
   const [files, compute, driftCheck, latest] = await Promise.all([
     fileCounts(siteId),
-    jobCounts(siteId, [QUEUES.computeUnitHours]),
+    jobCounts(siteId, [QUEUES.computeUnitHours, QUEUES.computeUnitMonth, QUEUES.computeSettle]),
     jobCounts(siteId, [QUEUES.checkDrift, QUEUES.checkUnitRules]),
     latestHours(siteId),
   ]);

@@ -1,0 +1,105 @@
+/**
+ * The unit_hours rows the engine writes: a computed hour's row, a fault row (an hour that could not
+ * be computed), and the batched insert-or-replace; and the span of hours the engine computes at all.
+ */
+import { sql } from 'drizzle-orm';
+import type { UnitHourResult } from '~/lib/engine';
+import { unitHours } from '../db/schema';
+import type { Reader } from './engine-inputs';
+
+const HOUR_ms = 3_600_000;
+/** Rows per INSERT ... ON CONFLICT statement. */
+const WRITE_BATCH = 200;
+
+/** The span of hours the engine computes: 1900 to two days from now (uploads accept up to one). */
+export function saneSpan(nowMs = Date.now()): [number, number] {
+  return [Date.UTC(1900, 0, 1), Math.ceil((nowMs + 2 * 86_400_000) / HOUR_ms) * HOUR_ms];
+}
+
+/** The row of an hour whose computation failed: suspect, with the reason, no figures. */
+export function faultRow(unitId: string, t: number, message: string, now: Date): typeof unitHours.$inferInsert {
+  return {
+    unitId,
+    hourStart: new Date(t),
+    state: 'suspect',
+    reasons: [{ code: 'COMPUTE_FAILED', message: `This hour could not be computed (${message.slice(0, 300)}); the other hours were.` }],
+    load: null,
+    loadUnit: null,
+    T0_K: null,
+    p0_Pa: null,
+    fuel_W: null,
+    product_W: null,
+    loss_W: null,
+    destruction_W: null,
+    efficiency: null,
+    efficiency_U: null,
+    destruction_U_W: null,
+    closure_pct: null,
+    entropyGeneration_W_per_K: null,
+    destructionCost_per_h: null,
+    modelVersion: 'fault',
+    inputsHash: `fault:${now.getTime()}`,
+    computedAt: now,
+  };
+}
+
+/** The unit_hours row of a computed hour. */
+export function unitHourRowOf(unitId: string, t: number, res: UnitHourResult, now: Date): typeof unitHours.$inferInsert {
+  return {
+    unitId,
+    hourStart: new Date(t),
+    state: res.state,
+    reasons: res.reasons,
+    load: res.load,
+    loadUnit: res.loadUnit,
+    T0_K: res.T0_K,
+    p0_Pa: res.p0_Pa,
+    fuel_W: res.fuel_W,
+    product_W: res.product_W,
+    loss_W: res.loss_W,
+    destruction_W: res.destruction_W,
+    efficiency: res.efficiency,
+    efficiency_U: res.efficiency_U,
+    destruction_U_W: res.destruction_U_W,
+    closure_pct: res.closure_pct,
+    entropyGeneration_W_per_K: res.entropyGeneration_W_per_K,
+    destructionCost_per_h: res.destructionCost_per_h,
+    modelVersion: res.modelVersion,
+    inputsHash: res.inputsHash,
+    computedAt: now,
+  };
+}
+
+/** Writes unit hours (insert or replace), in batches. */
+export async function writeUnitHours(tx: Reader, rows: (typeof unitHours.$inferInsert)[]) {
+  for (let i = 0; i < rows.length; i += WRITE_BATCH) {
+    await tx
+      .insert(unitHours)
+      .values(rows.slice(i, i + WRITE_BATCH))
+      .onConflictDoUpdate({
+        target: [unitHours.unitId, unitHours.hourStart],
+        set: {
+          state: sql`excluded.state`,
+          reasons: sql`excluded.reasons`,
+          load: sql`excluded.load`,
+          loadUnit: sql`excluded.load_unit`,
+          T0_K: sql`excluded.t0_k`,
+          p0_Pa: sql`excluded.p0_pa`,
+          fuel_W: sql`excluded.fuel_w`,
+          product_W: sql`excluded.product_w`,
+          loss_W: sql`excluded.loss_w`,
+          destruction_W: sql`excluded.destruction_w`,
+          efficiency: sql`excluded.efficiency`,
+          efficiency_U: sql`excluded.efficiency_u`,
+          destruction_U_W: sql`excluded.destruction_u_w`,
+          closure_pct: sql`excluded.closure_pct`,
+          entropyGeneration_W_per_K: sql`excluded.entropy_generation_w_per_k`,
+          destructionCost_per_h: sql`excluded.destruction_cost_per_h`,
+          modelVersion: sql`excluded.model_version`,
+          inputsHash: sql`excluded.inputs_hash`,
+          computedAt: sql`excluded.computed_at`,
+        },
+      });
+  }
+}
+
