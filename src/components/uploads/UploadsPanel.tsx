@@ -6,7 +6,8 @@ import '@uppy/dashboard/css/style.min.css';
 import { Fragment, useCallback, useEffect, useMemo, useState } from 'react';
 import { StateMark } from '../StateMark';
 import { LayoutReview } from './LayoutReview';
-import { UPLOAD_STATE_LOOK } from './uploadStates';
+import { READ_STATES, UPLOAD_STATE_LOOK } from './uploadStates';
+import { TagCounts, type TagCountRow } from './TagCounts';
 
 interface Site {
   id: string;
@@ -33,6 +34,9 @@ export interface UploadRow {
     rejected?: number;
     warnings?: { code: string; message: string; count: number }[];
     note?: string;
+    perTag?: TagCountRow[];
+    problems?: string | null;
+    goodQualityCodes?: string[];
   };
   detection?: { profile: any; preview: any[] };
 }
@@ -180,7 +184,7 @@ export default function UploadsPanel({ sites, initialSiteId }: { sites: Site[]; 
                         {r.status === 'failed' && (
                           <button className="btn" type="button" onClick={() => retry(r.uploadId)}>Read again</button>
                         )}
-                        {(r.status === 'done' || r.status === 'failed' || r.status === 'needs-review') && (
+                        {(READ_STATES.includes(r.status) || r.status === 'failed' || r.status === 'needs-review') && (
                           <button className="btn ml-1" type="button" onClick={() => setOpen(open === r.uploadId ? null : r.uploadId)}>
                             {r.status === 'needs-review' || r.detection ? 'Review layout' : open === r.uploadId ? 'Hide report' : 'Report'}
                           </button>
@@ -239,6 +243,10 @@ function UploadReport({ row }: { row: UploadRow }) {
           ))}
         </ul>
       )}
+      {!!s.goodQualityCodes?.length && (
+        <p className="text-sm text-ink-soft">Good quality codes of this site: {s.goodQualityCodes.join(', ')}; samples with other codes were rejected with their code.</p>
+      )}
+      {!!s.perTag?.length && <TagCounts rows={s.perTag} />}
       {!!s.rejected && (
         <a className="text-sm" href={`/api/uploads/${row.uploadId}/rejects.csv`} download>
           Download every rejected cell with its reason (CSV)

@@ -38,6 +38,8 @@ export interface FileIngestOptions {
    * count: the source said so.
    */
   maxRejectedShare?: number;
+  /** Good quality codes of wide files with quality columns (see RowReaderOptions). */
+  goodQualityCodes?: readonly string[];
 }
 
 export interface FileIngestResult {
@@ -78,6 +80,7 @@ export function createFileIngest(options: FileIngestOptions): FileIngest {
       maxRecordChars: options.maxRecordChars,
       valueLimits: options.valueLimits,
       timeWindow: options.timeWindow,
+      goodQualityCodes: options.goodQualityCodes,
     });
     reader.push(held);
     held = '';

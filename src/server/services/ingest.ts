@@ -11,7 +11,10 @@ import {
   createDecoder,
   valueLimitsFor,
   createFileIngest,
+  fileVerdict,
   previewRows,
+  qualityCodesOf,
+  tagReadCounts,
   sniffLayout,
   type LayoutProfile,
   type RejectedCell,
@@ -19,7 +22,7 @@ import {
 } from '~/lib/ingest';
 import { isLinkQuantity, unitsQuantityOf } from '~/lib/plant/kinds';
 import { db, pgPool } from '../db/client';
-import { TAG_HOUR_FLAGS, layoutProfiles, sites, tagLinks, tags, uploads } from '../db/schema';
+import { TAG_HOUR_FLAGS, layoutProfiles, siteQualityCodes, sites, tagLinks, tags, uploads } from '../db/schema';
 import { ensureMonthPartitions } from '../db/partitions';
 import { QUEUES } from '~/jobs';
 import { queue } from '../queue';
@@ -66,6 +69,7 @@ const storableJson = (value: unknown) => JSON.stringify(value).replace(/\\u0000/
 
 export type IngestOutcome =
   | { kind: 'done'; summary: Record<string, unknown> }
+  | { kind: 'read-with-problems'; summary: Record<string, unknown> }
   | { kind: 'needs-review' }
   | { kind: 'failed'; reason: string }
   | { kind: 'skipped'; why: string };
@@ -213,9 +217,9 @@ async function ingestLocked(uploadId: string, client: pg.PoolClient): Promise<In
       profileId = saved!.id;
     }
     const result = await readIntoTransaction(up, profile, timeZone, site?.createdAt ?? new Date(), client);
-    const summary = await finish(up, profile, result, profileId ?? null, client);
+    const { summary, state } = await finish(up, profile, result, profileId ?? null, client);
     if (process.env.LOSSLINE_INGEST_TIMING) console.log(`[ingest] ${uploadId}: read and committed in ${((performance.now() - startedMs) / 1000).toFixed(2)} s`);
-    return { kind: 'done', summary };
+    return { kind: state === 'done' ? 'done' : 'read-with-problems', summary };
   } catch (err) {
     await client.query('rollback').catch(() => undefined);
     const fileError = asFileError(err);
@@ -275,6 +279,8 @@ interface StreamResult {
   newTags: number;
   rejectsStored: number;
   bytes: number;
+  /** The site's good quality codes the file was read with. */
+  goodCodes: string[];
 }
 
 /** Batches in flight on the connection while the parser reads on (bounded, so memory stays flat). */
@@ -301,6 +307,7 @@ async function readIntoTransaction(
     .innerJoin(tags, eq(tags.id, tagLinks.tagId))
     .where(and(eq(tags.siteId, up.siteId), isNull(tagLinks.validTo)));
   const linkOf = new Map(linked.map((l) => [l.name, l]));
+  const goodCodes = await goodQualityCodes(up.siteId);
   const byName = new Map(known.map((t) => [t.name, t]));
   const tagId = new Map(known.map((t) => [t.name, String(t.seq)])); // tags.seq, the key of tag hours
   const unitOf = new Map<string, string | null>();
@@ -389,6 +396,7 @@ async function readIntoTransaction(
     timeZone,
     profile,
     timeWindow: timeWindowFor(siteCreatedAt),
+    goodQualityCodes: goodCodes,
     valueLimits: (tag, unit) => {
       const link = linkOf.get(tag);
       if (link && isLinkQuantity(link.quantity)) return valueLimitsFor(link.engUnit, unitsQuantityOf(link.quantity));
@@ -448,7 +456,7 @@ async function readIntoTransaction(
   await chain;
   if (failure) throw failure;
   if (process.env.LOSSLINE_INGEST_TIMING) console.log(`[ingest] ${up.id}: ${hours} tag hours, database writes ${(writeMs / 1000).toFixed(2)} s`);
-  return { report, encoding: encoding.encoding, hours, replaced, combined, newTags, rejectsStored, bytes };
+  return { report, encoding: encoding.encoding, hours, replaced, combined, newTags, rejectsStored, bytes, goodCodes };
 }
 
 const toIso = (ms: number | null) => (ms === null ? null : new Date(ms).toISOString());
@@ -674,9 +682,15 @@ async function insertRejects(client: pg.PoolClient, uploadId: string, startSeq: 
       rows.map((r) => r.tag),
       rows.map((r) => (Number.isFinite(r.timeMs) ? new Date(r.timeMs).toISOString() : null)),
       rows.map((r) => storable(r.text.slice(0, 500))),
-      rows.map((r) => REJECT_REASON_TEXT[r.reason]),
+      rows.map((r) => (r.reason === 'bad-quality' && r.code !== undefined ? `${REJECT_REASON_TEXT[r.reason]} ${storable(r.code.slice(0, 100))}` : REJECT_REASON_TEXT[r.reason])),
     ],
   );
+}
+
+/** The site's good quality codes (the defaults when it set none). */
+export async function goodQualityCodes(siteId: string): Promise<string[]> {
+  const [row] = await db().select().from(siteQualityCodes).where(eq(siteQualityCodes.siteId, siteId));
+  return qualityCodesOf(row?.goodCodes);
 }
 
 /** The reason of a rejected cell as stored and shown in the rejected-cells report. */
@@ -715,6 +729,8 @@ async function finish(up: typeof uploads.$inferSelect, profile: LayoutProfile, r
       lines: [],
     });
   }
+  const verdict = fileVerdict(r.report);
+  if (verdict.message) warnings.unshift({ code: 'TAGS_MOSTLY_REJECTED', message: verdict.message, count: verdict.problemTags.length, lines: [] });
   const summary = {
     rows: r.report.dataRowCount,
     tags: r.report.tags.length,
@@ -734,25 +750,34 @@ async function finish(up: typeof uploads.$inferSelect, profile: LayoutProfile, r
     encoding: r.encoding,
     layout: profile.layout,
     warnings,
-    perTag: r.report.tags.map((t) => ({
-      tag: t.tag,
-      values: t.valueCount,
-      notNumbers: t.textCount,
-      badQuality: t.badQualityCount,
-      impossible: t.impossibleCount,
-      outsideTimeWindow: t.outsideWindowCount,
-      blank: t.blankCount,
-      examples: t.rejectedTexts.slice(0, 3),
-    })),
+    perTag: r.report.tags.map((t) => {
+      const c = tagReadCounts(t);
+      return {
+        tag: t.tag,
+        values: t.valueCount,
+        read: c.read,
+        rejected: c.rejected,
+        notNumbers: t.textCount,
+        badQuality: t.badQualityCount,
+        impossible: t.impossibleCount,
+        outsideTimeWindow: t.outsideWindowCount,
+        blank: t.blankCount,
+        lostShare: c.lostShare,
+        examples: c.examples,
+      };
+    }),
+    problemTags: verdict.problemTags,
+    problems: verdict.message,
+    goodQualityCodes: profile.quality ? qualityCodesOf(r.goodCodes) : undefined,
   };
   // clock_timestamp(): the moment the upload finished (now() would be when its transaction began).
   await client.query(
-    `update uploads set status = 'done', finished_at = clock_timestamp(), summary = $2, profile_id = $3, bytes_read = $4, rows_read = $5, detection = null where id = $1`,
-    [up.id, storableJson(summary), profileId, r.bytes, r.report.dataRowCount],
+    `update uploads set status = $6, finished_at = clock_timestamp(), summary = $2, profile_id = $3, bytes_read = $4, rows_read = $5, detection = null where id = $1`,
+    [up.id, storableJson(summary), profileId, r.bytes, r.report.dataRowCount, verdict.state],
   );
   await queueRecompute(up.siteId, r.report.firstTimeMs, r.report.lastTimeMs, client);
   await client.query('commit');
-  return summary;
+  return { summary, state: verdict.state };
 }
 
 const OVERLAP = `(excluded.span_start_ms is not null and o.span_start_ms is not null and excluded.span_start_ms <= o.span_end_ms and o.span_start_ms <= excluded.span_end_ms)`;
