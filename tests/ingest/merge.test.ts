@@ -49,6 +49,14 @@ describe('aggregateSamples', () => {
     expect(contributors.get(tagHourKey('B1.FT-101', at('10:00')))).toEqual([2]);
   });
 
+  it("a newer file's rejected cell does not erase an older reading at the same instant", () => {
+    const older = { priority: 1, samples: series('B1.FT-101', '10:00', '10:50', 10, 10) };
+    const newer = { priority: 2, samples: [{ tag: 'B1.FT-101', timeMs: at('10:20'), value: null, raw: '1e308' }, { tag: 'B1.FT-101', timeMs: at('10:30'), value: 30 }] };
+    const { hours } = mergeHours([older, newer], { timeZone: 'UTC' });
+    // kept: 10 @10:00, 10:10, 10:20 (older: the newer cell was rejected), 30 @10:30 (newer), 10 @10:40, 10:50
+    expect(hours[0]).toMatchObject({ sampleCount: 6, nonNumericCount: 0, max: 30 });
+  });
+
   it('an explicit span drops older samples even where the newer source has none', () => {
     const older = { priority: 1, samples: series('B1.FT-101', '10:00', '11:00', 10, 10) };
     const newer = { priority: 2, spanStartMs: at('10:00'), spanEndMs: at('10:35'), samples: series('B1.FT-101', '10:00', '10:30', 10, 30) };

@@ -98,30 +98,56 @@ export function aggregateSamples(input: readonly Sample[] | readonly SampleSourc
   return out;
 }
 
+/** A sample with a number the statistics can use (not rejected, not of bad quality). */
+function usable(s: Sample): boolean {
+  return s.value !== null && Number.isFinite(s.value) && (s.quality === undefined || classifyQuality(s.quality) !== QualityClass.Bad);
+}
+
 /**
- * Per tag and source (highest priority first): the samples kept, in the order given. A sample is
- * dropped when a higher-priority source has a sample of the same tag at the same instant, or when
- * it lies inside a higher-priority source's explicit span.
+ * Per tag and source (highest priority first): the samples kept, in the order given. At one instant
+ * of one tag, the source that wins is the highest-priority one with a usable value there (a newer
+ * file's rejected cell does not erase an older reading), else the highest-priority one; the other
+ * sources' samples at that instant are dropped. A sample inside a higher-priority source's explicit
+ * span is dropped too.
  */
 export function keptSamples(sources: readonly SampleSource[]): { byTag: Map<string, Sample[][]>; priorities: Map<string, number[]> } {
-  const byTag = new Map<string, Sample[][]>();
-  const priorities = new Map<string, number[]>();
-  const timesByTag = new Map<string, Set<number>>();
-  const spansByTag = new Map<string, [number, number][]>();
   const ordered = [...sources].sort((a, b) => b.priority - a.priority);
-  for (const src of ordered) {
+  const perSource = ordered.map((src) => {
     const perTag = new Map<string, Sample[]>();
     for (const s of src.samples) {
       let list = perTag.get(s.tag);
       if (!list) perTag.set(s.tag, (list = []));
       list.push(s);
     }
-    for (const [tag, list] of perTag) {
+    return perTag;
+  });
+  const usableTimes = perSource.map((perTag) => {
+    const m = new Map<string, Set<number>>();
+    for (const [tag, list] of perTag) m.set(tag, new Set(list.filter(usable).map((x) => x.timeMs)));
+    return m;
+  });
+  // winner per tag and instant: index into `ordered`
+  const winner = new Map<string, Map<number, number>>();
+  for (let i = 0; i < ordered.length; i++) {
+    for (const [tag, list] of perSource[i]!) {
+      let w = winner.get(tag);
+      if (!w) winner.set(tag, (w = new Map()));
+      for (const s of list) {
+        const cur = w.get(s.timeMs);
+        if (cur === undefined) w.set(s.timeMs, i);
+        else if (cur !== i && usable(s) && !usableTimes[cur]!.get(tag)!.has(s.timeMs)) w.set(s.timeMs, i);
+      }
+    }
+  }
+  const byTag = new Map<string, Sample[][]>();
+  const priorities = new Map<string, number[]>();
+  const spansByTag = new Map<string, [number, number][]>();
+  for (let i = 0; i < ordered.length; i++) {
+    const src = ordered[i]!;
+    for (const [tag, list] of perSource[i]!) {
       const spans = spansByTag.get(tag) ?? [];
-      const taken = timesByTag.get(tag) ?? new Set<number>();
-      const kept = list.filter((s) => !taken.has(s.timeMs) && !spans.some(([a, b]) => s.timeMs >= a && s.timeMs <= b));
-      for (const s of list) taken.add(s.timeMs);
-      timesByTag.set(tag, taken);
+      const w = winner.get(tag)!;
+      const kept = list.filter((s) => w.get(s.timeMs) === i && !spans.some(([a, b]) => s.timeMs >= a && s.timeMs <= b));
       if (src.spanStartMs !== undefined && src.spanEndMs !== undefined) spans.push([src.spanStartMs, src.spanEndMs]);
       spansByTag.set(tag, spans);
       byTag.set(tag, [...(byTag.get(tag) ?? []), kept]);
