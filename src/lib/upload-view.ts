@@ -3,6 +3,15 @@
  * uploads islands show it (src/components/uploads): one definition for both. Types only.
  */
 
+/** One tag's values in a file: read, rejected, the share lost, the commonest rejected texts. */
+export interface TagCountRow {
+  tag: string;
+  values: number;
+  rejected?: number;
+  lostShare?: number;
+  examples?: { text: string; count: number }[];
+}
+
 /** One upload on the uploads page; `detection` while a person must answer a layout question. */
 export interface UploadRow {
   uploadId: string;
@@ -23,6 +32,12 @@ export interface UploadRow {
     rejected?: number;
     warnings?: { code: string; message: string; count: number }[];
     note?: string;
+    /** Per tag: values read and rejected (src/lib/ingest); a tag that lost more than half is a problem. */
+    perTag?: TagCountRow[];
+    /** Why the upload ended read-with-problems, in words. */
+    problems?: string | null;
+    /** The quality codes the site counts as good, as the file was read with them. */
+    goodQualityCodes?: string[];
   };
   /** The layout profile of src/lib/ingest and the first rows, drawn as they come. */
   detection?: { profile: any; preview: any[] };

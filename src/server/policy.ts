@@ -28,6 +28,7 @@ export const API_POLICY: Record<string, RoutePolicy> = {
   '/api/admin/users/[userId]': { methods: { PATCH: ADMIN } },
   // --- ingest (uploads, API tokens, tag hours) ---
   '/api/sites/[siteId]/uploads': { methods: { GET: ANY_ROLE, POST: UPLOADERS } },
+  '/api/sites/[siteId]/quality-codes': { methods: { GET: ANY_ROLE, PUT: LEADS } },
   '/api/uploads/[uploadId]/complete': { methods: { POST: UPLOADERS } },
   '/api/uploads/[uploadId]/retry': { methods: { POST: UPLOADERS } },
   '/api/uploads/[uploadId]/layout': { methods: { POST: UPLOADERS } },

@@ -143,12 +143,12 @@ describeIntegration('historian file ingest through the real worker, PostgreSQL a
       '2026-03-10T02:00:00.000Z',
       '2026-03-10T03:00:00.000Z',
     ]);
-    // Hour 02:00: file A covers 02:00-02:29, file B 02:30-03:00 (its 03:00 sample closes the hour).
-    const a = trapezoid(Array.from({ length: 30 }, (_, i) => [120 + i, pressure(120 + i)] as [number, number]), 120);
-    const b = trapezoid(Array.from({ length: 31 }, (_, i) => [150 + i, pressure(150 + i)] as [number, number]), 120);
-    const pooled = (a.mean * a.coveredMin + b.mean * b.coveredMin) / (a.coveredMin + b.coveredMin);
-    expectClose(h[2]!.mean!, pooled, { rtol: 1e-7, label: 'self-consistency: pooled mean of two files (float4)' });
-    expectClose(h[2]!.coveredFraction, (a.coveredMin + b.coveredMin) / 60, { rtol: 1e-12 });
+    // Hour 02:00: file A holds 02:00-02:29, file B 02:30-03:00 (its 03:00 sample closes the hour).
+    // Merged sample by sample, they are one series: the minute 02:29-02:30 between the files is
+    // drawn too, so the hour is fully covered (independent trapezoids over the union of samples).
+    const merged = trapezoid(Array.from({ length: 61 }, (_, i) => [120 + i, pressure(120 + i)] as [number, number]), 120);
+    expectClose(h[2]!.mean!, merged.mean, { rtol: 1e-7, label: 'self-consistency: mean of the merged samples (float4)' });
+    expectClose(h[2]!.coveredFraction, 1, { rtol: 1e-12 });
     expect(h[2]!.samples).toBe(60);
     expect(h[2]!.uploadIds.length).toBe(2);
     expect(h[2]!.flags).toContain('combined-files');

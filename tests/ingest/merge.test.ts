@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { aggregateSamples, createHourAggregator, createRowReader, createSampleEmitter, teeSinks } from '~/lib/ingest/index';
+import { aggregateSamples, createHourAggregator, mergeHours, tagHourKey, createRowReader, createSampleEmitter, teeSinks } from '~/lib/ingest/index';
 import type { RowReader, Sample, TagHour } from '~/lib/ingest/index';
 import { fixtureProfile, fixtureText, utc } from './helpers';
 
@@ -27,6 +27,34 @@ describe('aggregateSamples', () => {
     // trapezoids of 10 min: 10, 15, 20, 20, 15, 10 -> 90 / 6 = 15
     expect(hours).toHaveLength(1);
     expect(hours[0]).toMatchObject({ mean: 15, sampleCount: 6, min: 10, max: 20, coveredSeconds: 3600, duplicateCount: 0 });
+  });
+
+  it('samples of two files are pooled by time; the newer value wins only at the same instant', () => {
+    const older = { priority: 1, samples: series('B1.FT-101', '10:00', '11:00', 10, 10) };
+    const newer = { priority: 2, samples: [...series('B1.FT-101', '10:05', '10:25', 10, 40), { tag: 'B1.FT-101', timeMs: at('10:30'), value: 70 }] };
+    const { hours, contributors } = mergeHours([older, newer], { timeZone: 'UTC', toMs: at('11:00') });
+    // kept: 10 @10:00, 40 @10:05, 10 @10:10, 40 @10:15, 10 @10:20, 40 @10:25, 70 @10:30 (newer wins), 10 @10:40, 10 @10:50, 10 @11:00
+    // 5-min trapezoids 10:00-10:30: 25 x5 (area 125), then 40->70 (5 min: 275); 10:30-10:40 70->10 (400); 10:40-11:00 10 (200)
+    // mean = (5*25*5 + 275 + 400 + 200) / 60 = 1500 / 60 = 25
+    expect(hours).toHaveLength(1);
+    expect(hours[0]).toMatchObject({ mean: 25, sampleCount: 9, min: 10, max: 70, first: 10, last: 10, coveredSeconds: 3600 });
+    expect(contributors.get(tagHourKey('B1.FT-101', at('10:00')))).toEqual([2, 1]);
+  });
+
+  it('an hour whose older samples were all replaced has the newer file as its only contributor', () => {
+    const older = { priority: 1, samples: series('B1.FT-101', '10:00', '10:50', 10, 10) };
+    const newer = { priority: 2, samples: series('B1.FT-101', '10:00', '10:50', 10, 11) };
+    const { hours, contributors } = mergeHours([older, newer], { timeZone: 'UTC' });
+    expect(hours[0].mean).toBe(11);
+    expect(contributors.get(tagHourKey('B1.FT-101', at('10:00')))).toEqual([2]);
+  });
+
+  it("a newer file's rejected cell does not erase an older reading at the same instant", () => {
+    const older = { priority: 1, samples: series('B1.FT-101', '10:00', '10:50', 10, 10) };
+    const newer = { priority: 2, samples: [{ tag: 'B1.FT-101', timeMs: at('10:20'), value: null, raw: '1e308' }, { tag: 'B1.FT-101', timeMs: at('10:30'), value: 30 }] };
+    const { hours } = mergeHours([older, newer], { timeZone: 'UTC' });
+    // kept: 10 @10:00, 10:10, 10:20 (older: the newer cell was rejected), 30 @10:30 (newer), 10 @10:40, 10:50
+    expect(hours[0]).toMatchObject({ sampleCount: 6, nonNumericCount: 0, max: 30 });
   });
 
   it('an explicit span drops older samples even where the newer source has none', () => {

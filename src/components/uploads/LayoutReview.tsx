@@ -1,5 +1,6 @@
 import { useState } from 'react';
 import { call } from '~/components/api';
+import { answerColumnNumbers } from '~/lib/ingest/column-numbers';
 import type { UploadRow } from '~/lib/upload-view';
 
 const SEP_LABEL: Record<string, string> = { ',': 'comma', ';': 'semicolon', '\t': 'tab', '|': 'bar' };
@@ -18,13 +19,29 @@ export function LayoutReview({ upload, onSaved }: { upload: UploadRow; onSaved: 
   const set = (patch: any) => setProfile((p: any) => ({ ...p, ...patch }));
   const setTime = (patch: any) => setProfile((p: any) => ({ ...p, time: { ...p.time, ...patch } }));
 
+  // quoted numbers that read two ways ('1,234'): one choice per column, answered here
+  const numberQuestions = profile.questions.filter((q: any) => q.field.startsWith('columnNumbers.'));
+  const [numberAnswers, setNumberAnswers] = useState<Record<number, 'thousands' | 'decimal'>>({});
+
   async function save() {
-    const answered = { ...profile, questions: profile.questions.filter((q: any) => !q.blocking || q.field !== 'time.dateOrder' || profile.time.dateOrder === 'ambiguous') };
+    let columnNumbers = profile.columnNumbers;
+    for (const [col, a] of Object.entries(numberAnswers)) columnNumbers = answerColumnNumbers(columnNumbers, Number(col), a);
+    const answered = {
+      ...profile,
+      columnNumbers,
+      questions: profile.questions.filter(
+        (q: any) =>
+          (!q.blocking || q.field !== 'time.dateOrder' || profile.time.dateOrder === 'ambiguous') &&
+          !(q.field.startsWith('columnNumbers.') && numberAnswers[Number(q.field.split('.')[1])]),
+      ),
+    };
     const saved = await call(`/api/uploads/${upload.uploadId}/layout`, 'POST', { name, profile: answered }).then(() => true, (e: Error) => setError(e.message));
     if (saved) onSaved();
   }
 
-  const blockingLeft = profile.time.kind === 'text' && profile.time.dateOrder === 'ambiguous';
+  const numbersLeft = numberQuestions.some((q: any) => q.blocking && !numberAnswers[Number(q.field.split('.')[1])]);
+  const blockingLeft = (profile.time.kind === 'text' && profile.time.dateOrder === 'ambiguous') || numbersLeft;
+  const pairs: { value: number; quality: number }[] = profile.quality?.pairs ?? [];
   const tagColumns: { index: number; tag: string; unit: string | null }[] = profile.wide?.columns ?? [];
 
   return (
@@ -94,6 +111,33 @@ export function LayoutReview({ upload, onSaved }: { upload: UploadRow; onSaved: 
           </select>
         </div>
       </div>
+      {numberQuestions.map((q: any) => {
+        const col = Number(q.field.split('.')[1]);
+        return (
+          <div key={q.field}>
+            <label className="label" htmlFor={`lr-num-${col}`}>Numbers of {profile.columnNames[col]}</label>
+            <select
+              id={`lr-num-${col}`}
+              className="field"
+              value={numberAnswers[col] ?? ''}
+              onChange={(e) => setNumberAnswers((a) => ({ ...a, [col]: e.target.value as 'thousands' | 'decimal' }))}
+            >
+              <option value="">choose</option>
+              <option value="thousands">comma between thousands (1,234 = 1234)</option>
+              <option value="decimal">decimal comma (1,234 = 1.234)</option>
+            </select>
+          </div>
+        );
+      })}
+      {profile.quality && (
+        <p className="text-sm" data-testid="quality-columns">
+          Quality codes:{' '}
+          {profile.quality.kind === 'row'
+            ? `column ${profile.columnNames[profile.quality.rowColumn]} applies to the whole row`
+            : pairs.map((p) => `${profile.columnNames[p.value]} with ${profile.columnNames[p.quality]}`).join('; ')}
+          . Samples whose code is not one of the site's good codes are rejected with their code.
+        </p>
+      )}
       <p className="text-xs text-ink-soft">
         Time as written: <code>{profile.time.example}</code> · {profile.time.clock === '12h' ? '12-hour clock' : '24-hour clock'} · units row:{' '}
         {profile.unitRowIndex === null ? 'none' : `line ${profile.unitRowIndex + 1}`}
@@ -131,7 +175,11 @@ export function LayoutReview({ upload, onSaved }: { upload: UploadRow; onSaved: 
           Save layout and read the file
         </button>
       </div>
-      {blockingLeft && <p className="text-sm text-copper-deep">Choose the date order first: the file does not decide it.</p>}
+      {blockingLeft && (
+        <p className="text-sm text-copper-deep">
+          {numbersLeft ? 'Choose how the quoted numbers are written first: the file does not decide it.' : 'Choose the date order first: the file does not decide it.'}
+        </p>
+      )}
       {error && <p role="alert" className="notice-error">{error}</p>}
     </div>
   );

@@ -7,7 +7,8 @@ import { Fragment, useEffect, useMemo, useState } from 'react';
 import { StateMark } from '../StateMark';
 import { call, useApi } from '~/components/api';
 import { LayoutReview } from './LayoutReview';
-import { UPLOAD_STATE_LOOK } from './uploadStates';
+import { READ_STATES, UPLOAD_STATE_LOOK } from './uploadStates';
+import { TagCounts } from './TagCounts';
 import type { UploadRow } from '~/lib/upload-view';
 
 interface Site {
@@ -143,7 +144,7 @@ export default function UploadsPanel({ sites, initialSiteId }: { sites: Site[]; 
                         {r.status === 'failed' && (
                           <button className="btn" type="button" onClick={() => retry(r.uploadId)}>Read again</button>
                         )}
-                        {(r.status === 'done' || r.status === 'failed' || r.status === 'needs-review') && (
+                        {(READ_STATES.includes(r.status) || r.status === 'failed' || r.status === 'needs-review') && (
                           <button className="btn ml-1" type="button" onClick={() => setOpen(open === r.uploadId ? null : r.uploadId)}>
                             {r.status === 'needs-review' || r.detection ? 'Review layout' : open === r.uploadId ? 'Hide report' : 'Report'}
                           </button>
@@ -202,6 +203,10 @@ function UploadReport({ row }: { row: UploadRow }) {
           ))}
         </ul>
       )}
+      {!!s.goodQualityCodes?.length && (
+        <p className="text-sm text-ink-soft">Good quality codes of this site: {s.goodQualityCodes.join(', ')}; samples with other codes were rejected with their code.</p>
+      )}
+      {!!s.perTag?.length && <TagCounts rows={s.perTag} />}
       {!!s.rejected && (
         <a className="text-sm" href={`/api/uploads/${row.uploadId}/rejects.csv`} download>
           Download every rejected cell with its reason (CSV)

@@ -7,5 +7,9 @@ export const UPLOAD_STATE_LOOK: Record<string, { label: string; shape: MarkShape
   'needs-review': { label: 'needs your review', shape: 'triangle', className: 'text-amber' },
   processing: { label: 'being read', shape: 'bar', className: 'text-teal' },
   done: { label: 'read', shape: 'circle', className: 'text-teal-deep' },
+  'read-with-problems': { label: 'read with problems', shape: 'square', className: 'text-copper-deep' },
   failed: { label: 'not read', shape: 'diamond', className: 'text-alert' },
 };
+
+/** States whose file was read and stored: they have a report. */
+export const READ_STATES = ['done', 'read-with-problems'];

@@ -24,3 +24,7 @@ export * from './merge';
 export * from './pipeline';
 export * from './limits';
 export * from './layout-check';
+export * from './column-numbers';
+export * from './verdict';
+export * from './quality-codes';
+export * from './quality-columns';

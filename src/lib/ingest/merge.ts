@@ -1,12 +1,14 @@
 /**
- * Re-aggregation from stored samples, for overlapping uploads.
+ * Re-aggregation from samples, for overlapping uploads (src/server/services/ingest-merge.ts).
  *
- * Design: the server keeps the raw samples of every upload (per tag, with the upload as source).
- * When a new file covers hours that are already aggregated, it recomputes those hours from the union
- * of the samples of all uploads covering them, the newer upload winning where spans overlap: inside
- * the time span a higher-priority source covers, samples of lower-priority sources are dropped. Feed
- * the samples of the hours to recompute plus the neighbouring samples just outside them (so segments
- * across the hour boundaries are drawn), and keep only the hours asked for.
+ * When a new file brings hours that are already stored, the server re-reads the samples of those
+ * hours (and of their neighbourhood) from the raw files in the store and recomputes the hours from
+ * the union of the samples of every file: samples are pooled by time, and where two files hold a
+ * sample of the same tag at the same instant, the higher priority (the newer upload) wins. A source
+ * may also declare an explicit span: inside it, lower-priority samples are dropped even where it has
+ * none (a file that says "this is the whole truth for this time"). Feed the samples of the hours to
+ * recompute plus the neighbouring samples just outside them (so segments across the hour boundaries
+ * are drawn), and keep only the hours asked for.
  */
 import { createHourAggregator } from './aggregate';
 import type { TagHour, TagOptions } from './aggregate';
@@ -27,9 +29,10 @@ export interface Sample {
 }
 
 export interface SampleSource {
-  /** Higher wins (for example the upload's sequence number). */
+  /** Higher wins at the same instant (for example the upload's sequence number). */
   priority: number;
-  /** The time span this source covers [UTC ms]; default: from its first to its last sample, per tag. */
+  /** An explicit span [UTC ms] inside which lower-priority samples are dropped; default: none (only
+   *  samples at the same instant are replaced). */
   spanStartMs?: number;
   spanEndMs?: number;
   samples: readonly Sample[];
@@ -62,34 +65,7 @@ export function aggregateSamples(input: readonly Sample[] | readonly SampleSourc
   const sources: SampleSource[] =
     input.length > 0 && 'samples' in (input[0] as object) ? [...(input as readonly SampleSource[])] : [{ priority: 0, samples: input as readonly Sample[] }];
   sources.sort((a, b) => b.priority - a.priority);
-  // per tag and source: kept samples, in the order stored
-  const byTag = new Map<string, Sample[][]>();
-  const spansByTag = new Map<string, [number, number][]>();
-  for (const src of sources) {
-    const perTag = new Map<string, Sample[]>();
-    for (const s of src.samples) {
-      let list = perTag.get(s.tag);
-      if (!list) perTag.set(s.tag, (list = []));
-      list.push(s);
-    }
-    for (const [tag, list] of perTag) {
-      const higher = spansByTag.get(tag) ?? [];
-      let lo = Infinity;
-      let hi = -Infinity;
-      const kept: Sample[] = [];
-      for (const s of list) {
-        if (s.timeMs < lo) lo = s.timeMs;
-        if (s.timeMs > hi) hi = s.timeMs;
-        if (higher.some(([a, b]) => s.timeMs >= a && s.timeMs <= b)) continue;
-        kept.push(s);
-      }
-      const lists = byTag.get(tag) ?? [];
-      lists.push(kept);
-      byTag.set(tag, lists);
-      higher.push([src.spanStartMs ?? lo, src.spanEndMs ?? hi]);
-      spansByTag.set(tag, higher);
-    }
-  }
+  const byTag = keptSamples(sources).byTag;
   const out: TagHour[] = [];
   const agg = createHourAggregator({
     timeZone: options.timeZone,
@@ -120,6 +96,65 @@ export function aggregateSamples(input: readonly Sample[] | readonly SampleSourc
   }
   agg.flush();
   return out;
+}
+
+/** A sample with a number the statistics can use (not rejected, not of bad quality). */
+function usable(s: Sample): boolean {
+  return s.value !== null && Number.isFinite(s.value) && (s.quality === undefined || classifyQuality(s.quality) !== QualityClass.Bad);
+}
+
+/**
+ * Per tag and source (highest priority first): the samples kept, in the order given. At one instant
+ * of one tag, the source that wins is the highest-priority one with a usable value there (a newer
+ * file's rejected cell does not erase an older reading), else the highest-priority one; the other
+ * sources' samples at that instant are dropped. A sample inside a higher-priority source's explicit
+ * span is dropped too.
+ */
+export function keptSamples(sources: readonly SampleSource[]): { byTag: Map<string, Sample[][]>; priorities: Map<string, number[]> } {
+  const ordered = [...sources].sort((a, b) => b.priority - a.priority);
+  const perSource = ordered.map((src) => {
+    const perTag = new Map<string, Sample[]>();
+    for (const s of src.samples) {
+      let list = perTag.get(s.tag);
+      if (!list) perTag.set(s.tag, (list = []));
+      list.push(s);
+    }
+    return perTag;
+  });
+  const usableTimes = perSource.map((perTag) => {
+    const m = new Map<string, Set<number>>();
+    for (const [tag, list] of perTag) m.set(tag, new Set(list.filter(usable).map((x) => x.timeMs)));
+    return m;
+  });
+  // winner per tag and instant: index into `ordered`
+  const winner = new Map<string, Map<number, number>>();
+  for (let i = 0; i < ordered.length; i++) {
+    for (const [tag, list] of perSource[i]!) {
+      let w = winner.get(tag);
+      if (!w) winner.set(tag, (w = new Map()));
+      for (const s of list) {
+        const cur = w.get(s.timeMs);
+        if (cur === undefined) w.set(s.timeMs, i);
+        else if (cur !== i && usable(s) && !usableTimes[cur]!.get(tag)!.has(s.timeMs)) w.set(s.timeMs, i);
+      }
+    }
+  }
+  const byTag = new Map<string, Sample[][]>();
+  const priorities = new Map<string, number[]>();
+  const spansByTag = new Map<string, [number, number][]>();
+  for (let i = 0; i < ordered.length; i++) {
+    const src = ordered[i]!;
+    for (const [tag, list] of perSource[i]!) {
+      const spans = spansByTag.get(tag) ?? [];
+      const w = winner.get(tag)!;
+      const kept = list.filter((s) => w.get(s.timeMs) === i && !spans.some(([a, b]) => s.timeMs >= a && s.timeMs <= b));
+      if (src.spanStartMs !== undefined && src.spanEndMs !== undefined) spans.push([src.spanStartMs, src.spanEndMs]);
+      spansByTag.set(tag, spans);
+      byTag.set(tag, [...(byTag.get(tag) ?? []), kept]);
+      priorities.set(tag, [...(priorities.get(tag) ?? []), src.priority]);
+    }
+  }
+  return { byTag, priorities };
 }
 
 /**
@@ -165,4 +200,32 @@ export function teeSinks(...sinks: SampleSink[]): SampleSink {
       for (const s of sinks) s.addSample(k, timeMs, value, status);
     },
   };
+}
+
+/** Key of one tag hour in mergeHours' answers. */
+export const tagHourKey = (tag: string, hourStartMs: number) => `${tag}\u0000${hourStartMs}`;
+
+/**
+ * The hours of several sources merged sample by sample (see keptSamples), with, per hour, the
+ * priorities of the sources that still have a sample inside it [hourStartMs, hourStartMs + 1 h):
+ * the history of what each file contributed. `wanted` limits the answer to some tag hours.
+ */
+export function mergeHours(
+  sources: readonly SampleSource[],
+  options: AggregateSamplesOptions & { wanted?: ReadonlySet<string> },
+): { hours: TagHour[]; contributors: Map<string, number[]> } {
+  const all = aggregateSamples(sources as SampleSource[], options);
+  const hours = options.wanted ? all.filter((h) => options.wanted!.has(tagHourKey(h.tag, h.hourStartMs))) : all;
+  const { byTag, priorities } = keptSamples(sources);
+  const contributors = new Map<string, number[]>();
+  for (const h of hours) {
+    const lists = byTag.get(h.tag) ?? [];
+    const prio = priorities.get(h.tag) ?? [];
+    const end = h.hourStartMs + 3_600_000;
+    contributors.set(
+      tagHourKey(h.tag, h.hourStartMs),
+      prio.filter((_, i) => lists[i]!.some((s) => s.timeMs >= h.hourStartMs && s.timeMs < end)),
+    );
+  }
+  return { hours, contributors };
 }

@@ -12,6 +12,8 @@ import type { LayoutProfile } from './profile';
 import { createRowReader } from './reader';
 import type { ReadReport, RejectedCell, RowReader, RowReaderOptions } from './reader';
 import { sniffLayout } from './sniff';
+import { createSampleEmitter, teeSinks } from './merge';
+import type { Sample } from './merge';
 
 export interface FileIngestOptions {
   timeZone: string;
@@ -38,6 +40,10 @@ export interface FileIngestOptions {
    * count: the source said so.
    */
   maxRejectedShare?: number;
+  /** Every sample read, as an object (for re-reading the samples of overlapped hours; slower). */
+  onSample?: (sample: Sample) => void;
+  /** Good quality codes of wide files with quality columns (see RowReaderOptions). */
+  goodQualityCodes?: readonly string[];
 }
 
 export interface FileIngestResult {
@@ -71,13 +77,16 @@ export function createFileIngest(options: FileIngestOptions): FileIngest {
       const sniffed = sniffLayout(held, { complete, encoding: decoder.decision?.encoding ?? null });
       profile = options.answer ? options.answer(sniffed) : sniffed;
     }
+    const onSample = options.onSample;
+    const sink = onSample ? teeSinks(aggregator, createSampleEmitter(onSample, { cellText: (k) => reader!.cellText(k) })) : aggregator;
     reader = createRowReader(profile, {
       timeZone: options.timeZone,
-      sink: aggregator,
+      sink,
       onRejectedCell: options.onRejectedCell,
       maxRecordChars: options.maxRecordChars,
       valueLimits: options.valueLimits,
       timeWindow: options.timeWindow,
+      goodQualityCodes: options.goodQualityCodes,
     });
     reader.push(held);
     held = '';

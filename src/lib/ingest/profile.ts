@@ -43,6 +43,32 @@ export const WideColumnSchema = z.object({
 });
 export type WideColumn = z.infer<typeof WideColumnSchema>;
 
+/**
+ * The number format of one column where it differs from the file's: quoted cells of a
+ * comma-separated file keep their own format ("10,954.58" has comma thousands groups and a decimal
+ * point even though the comma separates the fields).
+ */
+export const ColumnNumberFormatSchema = z.object({
+  column: z.number().int().min(0),
+  decimalMark: z.enum(['.', ',']),
+  /** '' for none. */
+  thousandsSeparator: z.enum(['', ',', '.', ' ', "'"]),
+});
+export type ColumnNumberFormat = z.infer<typeof ColumnNumberFormatSchema>;
+
+/**
+ * Wide files with a quality (status) column: per value column (`value`, `quality` pairs), or one
+ * column for the whole row (`row`). A bad code rejects the sample with the code as its reason.
+ */
+export const QualityPairsSchema = z.object({
+  kind: z.enum(['pairs', 'row']),
+  /** value column index -> quality column index ('pairs'); empty for 'row'. */
+  pairs: z.array(z.object({ value: z.number().int().min(0), quality: z.number().int().min(0) })),
+  /** 'row': the one status column of the whole row. */
+  rowColumn: z.number().int().min(0).nullable(),
+});
+export type QualityPairs = z.infer<typeof QualityPairsSchema>;
+
 export const LayoutProfileSchema = z.object({
   version: z.literal(1),
   /** Encoding the decoder chose, when the caller passed it in. */
@@ -77,6 +103,11 @@ export const LayoutProfileSchema = z.object({
       unitColumn: z.number().int().min(0).nullable(),
     })
     .nullable(),
+  /** Columns whose numbers are written differently from the file's decimalMark/thousandsSeparator
+   *  (absent in profiles saved before it existed: then none). */
+  columnNumbers: z.array(ColumnNumberFormatSchema).optional(),
+  /** Wide layout: quality columns beside the values (absent or null: none). */
+  quality: QualityPairsSchema.nullable().optional(),
   /** FNV-1a 64-bit hex of layout, separator and the normalised names, units and description rows. */
   fingerprint: z.string().regex(/^[0-9a-f]{16}$/),
   /** 1 when every decision had clear evidence; lower for guesses; each question halves it. */

@@ -22,6 +22,7 @@ import { isBlankAt, parseNumberAt } from './numbers';
 import { LayoutProfileSchema } from './profile';
 import type { LayoutProfile } from './profile';
 import { classifyQuality, QualityClass } from './quality';
+import { createQualityJudge } from './quality-codes';
 import { assertTimeZone, dayFromScan, daysFromCivil, isoUtc, LocalClock, newScan, scanDateTime, scanTimeOnly, timeOfDayMs, wallMsFromScan, wallMsFromSerial } from './time';
 import type { DateOrder } from './time';
 
@@ -58,6 +59,8 @@ export interface RejectedCell {
    *  possible range (see limits.ts); outside-window: the row's time is outside the accepted window. */
   reason: RejectReason;
   text: string;
+  /** bad-quality: the quality code the file gave the sample. */
+  code?: string;
 }
 
 export type RejectReason = 'text' | 'bad-quality' | 'impossible' | 'outside-window';
@@ -86,6 +89,8 @@ export interface RowReaderOptions {
   valueLimits?: (tag: string, unitText: string | null) => ValueLimits | null;
   /** Accepted times [UTC ms, inclusive]; rows outside have their cells rejected as 'outside-window'. */
   timeWindow?: { minMs: number; maxMs: number };
+  /** Wide files with quality columns: the site's good codes (default DEFAULT_GOOD_QUALITY_CODES). */
+  goodQualityCodes?: readonly string[];
 }
 
 export type IngestWarningCode =
@@ -335,6 +340,19 @@ export function createRowReader(profile: LayoutProfile, options: RowReaderOption
   const nWide = valueCols.length;
   const values = new Float64Array(nWide);
   const status = new Uint8Array(nWide);
+  // number format per value column (quoted cells of a comma file keep their own: column-numbers.ts)
+  const colFormat = new Map((p.columnNumbers ?? []).map((f) => [f.column, f]));
+  const codesOf = (col: number): [number, number] => {
+    const f = colFormat.get(col);
+    if (!f) return [decCode, thouCode];
+    return [f.decimalMark.charCodeAt(0), f.thousandsSeparator === '' ? -1 : f.thousandsSeparator.charCodeAt(0)];
+  };
+  const decK = Int32Array.from(valueCols, (col) => codesOf(col)[0]);
+  const thouK = Int32Array.from(valueCols, (col) => codesOf(col)[1]);
+  const [longDec, longThou] = p.long ? codesOf(p.long.valueColumn) : [decCode, thouCode];
+  // quality column per value column (-1: none), from the profile's pairs or its row column
+  const qualityCols = wideQualityColumns(p, valueCols);
+  const judge = createQualityJudge(options.goodQualityCodes);
   if (p.wide) {
     for (const c of p.wide.columns) {
       const bad = badTagName(c.tag);
@@ -350,7 +368,7 @@ export function createRowReader(profile: LayoutProfile, options: RowReaderOption
   let lastQualityRaw = '\u0000';
   let lastQualityClass = 0;
 
-  function reject(k: number, rec: CsvRecord, col: number, timeMs: number, reason: RejectReason): void {
+  function reject(k: number, rec: CsvRecord, col: number, timeMs: number, reason: RejectReason, code?: string): void {
     const st = tagStates[k];
     const text = fieldText(rec, col).trim();
     if (reason === 'text') st.textCount++;
@@ -360,12 +378,13 @@ export function createRowReader(profile: LayoutProfile, options: RowReaderOption
       impossible.add(rec.line);
       if (impossibleExamples.length < 3) impossibleExamples.push(`${st.tag} = ${text.slice(0, 40)} (${limWhy[k]})`);
     } else st.outsideWindowCount++;
-    const key = reason === 'text' ? text : `[${reason === 'bad-quality' ? 'bad quality' : reason === 'impossible' ? 'impossible value' : 'time outside window'}] ${text}`;
+    const why = reason === 'bad-quality' ? (code !== undefined ? `bad quality ${code}` : 'bad quality') : reason === 'impossible' ? 'impossible value' : 'time outside window';
+    const key = reason === 'text' ? text : `[${why}] ${text}`;
     const n = st.texts.get(key);
     if (n !== undefined) st.texts.set(key, n + 1);
     else if (st.texts.size < maxExamples) st.texts.set(key, 1);
     if (st.rejectedLines.length < cap) st.rejectedLines.push(rec.line);
-    options.onRejectedCell?.({ tag: st.tag, timeMs, line: rec.line, reason, text });
+    options.onRejectedCell?.(code !== undefined ? { tag: st.tag, timeMs, line: rec.line, reason, text, code } : { tag: st.tag, timeMs, line: rec.line, reason, text });
   }
 
   /** UTC ms of the record's time, or NaN. */
@@ -419,7 +438,7 @@ export function createRowReader(profile: LayoutProfile, options: RowReaderOption
 
   /** Usable numbers of a tag (wide files count them from the rows). */
   function wideValueCount(st: TagState, _k: number): number {
-    return p.wide ? dataRows - st.blankCount - st.textCount - st.impossibleCount : st.valueCount;
+    return p.wide ? dataRows - st.blankCount - st.textCount - st.impossibleCount - st.badQualityCount : st.valueCount;
   }
 
   function isBlankRecord(rec: CsvRecord): boolean {
@@ -469,7 +488,7 @@ export function createRowReader(profile: LayoutProfile, options: RowReaderOption
           continue;
         }
         const f = fields[col];
-        const v = parseNumberAt(f, 0, f.length, decCode, thouCode);
+        const v = parseNumberAt(f, 0, f.length, decK[k], thouK[k]);
         if (v === v) {
           if (v < limMin[k] || v > limMax[k]) {
             values[k] = NaN;
@@ -479,6 +498,18 @@ export function createRowReader(profile: LayoutProfile, options: RowReaderOption
           }
           values[k] = v;
           status[k] = CellStatus.Ok;
+          const qc = qualityCols[k];
+          if (qc >= 0 && qc < count) {
+            const q = judge(fields[qc]);
+            if (q === QualityClass.Bad) {
+              values[k] = NaN;
+              status[k] = CellStatus.BadQuality;
+              reject(k, rec, col, t, 'bad-quality', fields[qc].trim());
+            } else if (q === QualityClass.Uncertain) {
+              status[k] = CellStatus.Uncertain;
+              tagStates[k].uncertainCount++;
+            }
+          }
         } else if (isBlankAt(f, 0, f.length)) {
           values[k] = NaN;
           status[k] = CellStatus.Blank;
@@ -554,7 +585,7 @@ export function createRowReader(profile: LayoutProfile, options: RowReaderOption
     let cell: number = CellStatus.Blank;
     if (vc < rec.count) {
       const tx = rec.fields[vc];
-      value = parseNumberAt(tx, 0, tx.length, decCode, thouCode);
+      value = parseNumberAt(tx, 0, tx.length, longDec, longThou);
       if (value === value && (value < limMin[k] || value > limMax[k])) {
         reject(k, rec, vc, t, 'impossible');
         sink.addSample(k, t, NaN, CellStatus.Text);
@@ -841,3 +872,15 @@ function badTagName(name: string): string | null {
 }
 
 const windowIso = (ms: number) => (Number.isFinite(ms) ? isoUtc(ms) : 'open');
+
+/** The quality column of each wide value column, or -1. */
+function wideQualityColumns(p: LayoutProfile, valueCols: Int32Array): Int32Array {
+  const out = new Int32Array(valueCols.length).fill(-1);
+  const q = p.quality;
+  if (!q) return out;
+  const pairOf = new Map(q.pairs.map((x) => [x.value, x.quality]));
+  valueCols.forEach((col, k) => {
+    out[k] = q.kind === 'row' ? (q.rowColumn ?? -1) : (pairOf.get(col) ?? -1);
+  });
+  return out;
+}

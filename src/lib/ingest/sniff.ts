@@ -7,8 +7,10 @@
 import { IngestError } from './errors';
 import { fnv1a64Hex, normaliseHeaderCell } from './fingerprint';
 import { LayoutProfileSchema, SEPARATORS } from './profile';
-import type { LayoutProfile, LayoutQuestion, TimeColumns, WideColumn } from './profile';
+import type { LayoutProfile, LayoutQuestion, QualityPairs, TimeColumns, WideColumn } from './profile';
 import { looksLikeQuality } from './quality';
+import { decideColumnNumbers, holdsSeparator } from './column-numbers';
+import { detectQualityColumns } from './quality-columns';
 import { newScan, scanDateTime, scanTimeOnly, wallMsFromScan } from './time';
 import type { DateTimeScan } from './time';
 import { tokenizeAll } from './csv';
@@ -601,11 +603,24 @@ export function sniffLayout(sampleText: string, options: SniffOptions = {}): Lay
   // --- numbers
   const numberCells: string[] = [];
   const numberCols = layout === 'long' ? [valueColumn] : valueIdx;
-  for (const r of data) for (const j of numberCols) if (isNumericLike(r.fields[j] ?? '')) numberCells.push(r.fields[j]);
+  const cellsByColumn = new Map<number, string[]>(numberCols.map((j) => [j, []]));
+  for (const r of data) {
+    for (const j of numberCols) {
+      const cell = r.fields[j] ?? '';
+      if (!isNumericLike(cell)) continue;
+      // a comma inside a field of a comma file was quoted: that column keeps its own format
+      if (holdsSeparator(cell, sep)) cellsByColumn.get(j)!.push(cell);
+      else numberCells.push(cell);
+    }
+  }
   const dec = decimalEvidence(numberCells, sep);
   notes.push(dec.note);
   confidence *= dec.confidence;
   if (dec.question) questions.push(dec.question);
+  const columnNumbers = decideColumnNumbers(sep, cellsByColumn, (j) => `${j + 1} ('${(tagRec?.fields[j] ?? '').trim() || `column ${j + 1}`}')`);
+  notes.push(...columnNumbers.notes);
+  questions.push(...columnNumbers.questions);
+  if (columnNumbers.questions.length > 0) confidence *= 0.5;
 
   // --- time format
   let time: TimeColumns;
@@ -630,9 +645,14 @@ export function sniffLayout(sampleText: string, options: SniffOptions = {}): Lay
   // --- columns
   let wide: LayoutProfile['wide'] = null;
   let long: LayoutProfile['long'] = null;
+  let quality: QualityPairs | null = null;
   if (layout === 'wide') {
+    const qd = detectQualityColumns(tagRec ? columnNames : columnNames.map(() => ''), valueIdx, stats);
+    quality = qd.quality;
+    notes.push(...qd.notes);
     const cols: WideColumn[] = [];
     for (const j of valueIdx) {
+      if (qd.columns.includes(j)) continue;
       const rawName = tagRec ? (tagRec.fields[j] ?? '').trim() : '';
       if (rawName.length === 0 && stats[j].nonBlank === 0) continue; // trailing separator column
       const split = splitNameUnit(rawName);
@@ -697,6 +717,8 @@ export function sniffLayout(sampleText: string, options: SniffOptions = {}): Lay
     time,
     wide,
     long,
+    ...(columnNumbers.formats.length > 0 ? { columnNumbers: columnNumbers.formats } : {}),
+    ...(quality ? { quality } : {}),
     fingerprint: fnv1a64Hex(fingerprintSource),
     confidence: Math.max(0, Math.min(1, blockingCount > 0 ? Math.min(confidence, 0.5) : confidence)),
     questions,

@@ -18,7 +18,9 @@ import { user } from './auth-schema';
 import { sites } from './plant-schema';
 
 /** Upload states, in Lossline's words (also the API's). */
-export const UPLOAD_STATUSES = ['awaiting-file', 'queued', 'needs-review', 'processing', 'done', 'failed'] as const;
+export const UPLOAD_STATUSES = ['awaiting-file', 'queued', 'needs-review', 'processing', 'done', 'read-with-problems', 'failed'] as const;
+/** States of an upload whose file was read and whose hours are stored. */
+export const READ_STATUSES = ['done', 'read-with-problems'] as const;
 export type UploadStatus = (typeof UPLOAD_STATUSES)[number];
 
 /**
@@ -58,6 +60,19 @@ export const uploads = pgTable(
   },
   (t) => [index('uploads_site_idx').on(t.siteId, t.createdAt), index('uploads_sha_idx').on(t.siteId, t.sha256)],
 );
+
+/**
+ * Which quality codes of a site's wide files are good (src/lib/ingest/quality-codes.ts); a site
+ * without a row uses DEFAULT_GOOD_QUALITY_CODES.
+ */
+export const siteQualityCodes = pgTable('site_quality_codes', {
+  siteId: uuid('site_id')
+    .primaryKey()
+    .references(() => sites.id, { onDelete: 'cascade' }),
+  goodCodes: jsonb('good_codes').$type<string[]>().notNull(),
+  updatedBy: text('updated_by').references(() => user.id, { onDelete: 'set null' }),
+  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+});
 
 /** A site's saved file shape: later files with the same header fingerprint use it without asking. */
 export const layoutProfiles = pgTable(

@@ -11,7 +11,10 @@ import {
   createDecoder,
   valueLimitsFor,
   createFileIngest,
+  fileVerdict,
   previewRows,
+  qualityCodesOf,
+  tagReadCounts,
   sniffLayout,
   type LayoutProfile,
   type RejectedCell,
@@ -19,12 +22,13 @@ import {
 } from '~/lib/ingest';
 import { isLinkQuantity, unitsQuantityOf } from '~/lib/plant/kinds';
 import { db, pgPool } from '../db/client';
-import { TAG_HOUR_FLAGS, layoutProfiles, sites, tagLinks, tags, uploads } from '../db/schema';
+import { TAG_HOUR_FLAGS, layoutProfiles, siteQualityCodes, sites, tagLinks, tags, uploads } from '../db/schema';
 import { ensureMonthPartitions } from '../db/partitions';
 import { QUEUES, sendJob } from '~/jobs';
 import { queue } from '../queue';
 import { bucket, objectStream, s3 } from '../storage';
 import { findDuplicate, storedObjectMismatch } from './uploads';
+import { mergeOverlappedHours, readerFlags, type ClashKey, type RereadOptions } from './ingest-merge';
 
 /** Bytes read from the start of a file to decide its layout. */
 const SAMPLE_BYTES = 96 * 1024;
@@ -66,6 +70,7 @@ const storableJson = (value: unknown) => JSON.stringify(value).replace(/\\u0000/
 
 export type IngestOutcome =
   | { kind: 'done'; summary: Record<string, unknown> }
+  | { kind: 'read-with-problems'; summary: Record<string, unknown> }
   | { kind: 'needs-review' }
   | { kind: 'failed'; reason: string }
   | { kind: 'skipped'; why: string };
@@ -213,9 +218,9 @@ async function ingestLocked(uploadId: string, client: pg.PoolClient): Promise<In
       profileId = saved!.id;
     }
     const result = await readIntoTransaction(up, profile, timeZone, site?.createdAt ?? new Date(), client);
-    const summary = await finish(up, profile, result, profileId ?? null, client);
+    const { summary, state } = await finish(up, profile, result, profileId ?? null, client);
     if (process.env.LOSSLINE_INGEST_TIMING) console.log(`[ingest] ${uploadId}: read and committed in ${((performance.now() - startedMs) / 1000).toFixed(2)} s`);
-    return { kind: 'done', summary };
+    return { kind: state === 'done' ? 'done' : 'read-with-problems', summary };
   } catch (err) {
     await client.query('rollback').catch(() => undefined);
     const fileError = asFileError(err);
@@ -275,6 +280,8 @@ interface StreamResult {
   newTags: number;
   rejectsStored: number;
   bytes: number;
+  /** The site's good quality codes the file was read with. */
+  goodCodes: string[];
 }
 
 /** Batches in flight on the connection while the parser reads on (bounded, so memory stays flat). */
@@ -301,6 +308,7 @@ async function readIntoTransaction(
     .innerJoin(tags, eq(tags.id, tagLinks.tagId))
     .where(and(eq(tags.siteId, up.siteId), isNull(tagLinks.validTo)));
   const linkOf = new Map(linked.map((l) => [l.name, l]));
+  const goodCodes = await goodQualityCodes(up.siteId);
   const byName = new Map(known.map((t) => [t.name, t]));
   const tagId = new Map(known.map((t) => [t.name, String(t.seq)])); // tags.seq, the key of tag hours
   const unitOf = new Map<string, string | null>();
@@ -319,6 +327,7 @@ async function readIntoTransaction(
   let combined = 0;
   let newTags = 0;
   let latestExistingMs: number | null = null;
+  const clashes: ClashKey[] = [];
   // Writes run one after another on the transaction's connection while the parser reads on (the
   // database works on the other core); the parser waits when more than MAX_IN_FLIGHT batches are
   // queued, so memory stays bounded.
@@ -371,9 +380,7 @@ async function readIntoTransaction(
     const names = rows.map((h) => h.tag);
     enqueue(async () => {
       await ensureTags(names);
-      const w = await writeHours(client, up.id, rows, tagId, latestExistingMs);
-      replaced += w.replaced;
-      combined += w.combined;
+      clashes.push(...(await writeHours(client, up.id, rows, tagId, latestExistingMs)));
     });
   };
   const flushRejects = () => {
@@ -385,10 +392,10 @@ async function readIntoTransaction(
     enqueue(() => insertRejects(client, up.id, start, rows));
   };
 
-  const ingest = createFileIngest({
+  const rereadOptions: RereadOptions = {
     timeZone,
-    profile,
     timeWindow: timeWindowFor(siteCreatedAt),
+    goodQualityCodes: goodCodes,
     valueLimits: (tag, unit) => {
       const link = linkOf.get(tag);
       if (link && isLinkQuantity(link.quantity)) return valueLimitsFor(link.engUnit, unitsQuantityOf(link.quantity));
@@ -404,6 +411,10 @@ async function readIntoTransaction(
         validMax: t.validMax ?? undefined,
       };
     },
+  };
+  const ingest = createFileIngest({
+    ...rereadOptions,
+    profile,
     onHour: (h) => {
       batch.push(h);
       if (batch.length >= STAGE_BATCH) flushHours();
@@ -447,33 +458,23 @@ async function readIntoTransaction(
   flushRejects();
   await chain;
   if (failure) throw failure;
+  // Hours another file brought too: recomputed from the samples of both (ingest-merge.ts).
+  if (clashes.length > 0) ({ replaced, combined } = await mergeOverlappedHours(client, up.id, clashes, { ...rereadOptions, profile }));
   if (process.env.LOSSLINE_INGEST_TIMING) console.log(`[ingest] ${up.id}: ${hours} tag hours, database writes ${(writeMs / 1000).toFixed(2)} s`);
-  return { report, encoding: encoding.encoding, hours, replaced, combined, newTags, rejectsStored, bytes };
+  return { report, encoding: encoding.encoding, hours, replaced, combined, newTags, rejectsStored, bytes, goodCodes };
 }
 
 const toIso = (ms: number | null) => (ms === null ? null : new Date(ms).toISOString());
 
-/** TAG_HOUR_FLAGS bits of an hour as the reader made it. */
-function flagsOf(h: TagHour): number {
-  let f = 0;
-  if (h.flatline) f |= TAG_HOUR_FLAGS.flatline;
-  if (h.duplicateCount) f |= TAG_HOUR_FLAGS['duplicate-times'];
-  if (h.outOfOrderCount) f |= TAG_HOUR_FLAGS['backwards-times'];
-  if (h.badQualityCount) f |= TAG_HOUR_FLAGS['bad-quality'];
-  if (h.uncertainCount) f |= TAG_HOUR_FLAGS['uncertain-quality'];
-  return f;
-}
 /** Counts are smallint in tag hours (32767 and more is "very many"). */
 const count16 = (n: number) => Math.min(32767, n);
 const spanOf = (ms: number | null, hourStartMs: number) => (ms === null ? null : ms - hourStartMs);
 
 /**
- * Writes a batch of an upload's tag hours. A tag hour already holding another file's figures (two
- * shift exports sharing an hour) is combined: when the two files' sample spans in that hour do not
- * overlap, the figures are pooled exactly (mean and spread weighted by covered time, extremes,
- * counts); when they overlap, the same readings arrived twice and the newer file's figures replace
- * the older ones for that hour. Either way the previous figures go to tag_hour_history with the
- * upload that replaced them. Returns how many existing hours were touched.
+ * Writes a batch of an upload's tag hours. Hours not stored yet go in by COPY; a tag hour already
+ * holding another file's figures (two shift exports sharing an hour, or the same readings again) is
+ * left for ingest-merge.ts, which recomputes it from the samples of both files after the stream:
+ * returned as a clash.
  *
  * Where the writes go (docs/scale.md): the month partitions the batch needs are made first; new
  * hours go in by COPY sorted by their key; which upload brought which tag's hours is one row per
@@ -485,7 +486,7 @@ async function writeHours(
   rows: TagHour[],
   tagId: Map<string, string>,
   latestExistingMs: number | null,
-): Promise<{ replaced: number; combined: number }> {
+): Promise<ClashKey[]> {
   let minMs = Infinity;
   let maxMs = -Infinity;
   for (const h of rows) {
@@ -498,58 +499,19 @@ async function writeHours(
   // once, under the site's ingest lock) cannot clash; otherwise one query looks for clashes.
   if (latestExistingMs === null || minMs > latestExistingMs) {
     await copyNewHours(client, rows, tagId);
-    return { replaced: 0, combined: 0 };
+    return [];
   }
   const ids = rows.map((h) => tagId.get(h.tag));
   const starts = rows.map((h) => isoOf(h.hourStartMs));
   const clash = await client.query(
-    `select 1 from tag_hours where tag_id = any($1::int[]) and hour_start between $2 and $3
-       and (tag_id, hour_start) in (select * from unnest($1::int[], $4::timestamptz[])) limit 1`,
+    `select tag_id::text as tag_id, hour_start from tag_hours where tag_id = any($1::int[]) and hour_start between $2 and $3
+       and (tag_id, hour_start) in (select * from unnest($1::int[], $4::timestamptz[]))`,
     [ids, isoOf(minMs), isoOf(maxMs), starts],
   );
-  const params = clash.rowCount === 0 ? null : hourParams(uploadId, rows, tagId);
-  if (!params) {
-    await copyNewHours(client, rows, tagId);
-    return { replaced: 0, combined: 0 };
-  }
-  const res = await client.query(
-    `with s as (
-       select * from ${UNNEST_HOURS}
-     ), hist as (
-       insert into tag_hour_history (tag_id, hour_start, replaced_by_upload_id, previous)
-       select th.tag_id, th.hour_start, $1, to_jsonb(th) from tag_hours th join s on s.tag_id = th.tag_id and s.hour_start = th.hour_start
-       returning tag_id, hour_start
-     ), ins as (
-       insert into tag_hours as o (hour_start, tag_id, samples, mean, min, max, std, first, last, span_start_ms, span_end_ms,
-         covered_s, non_numeric, out_of_range, flags)
-       select hour_start, tag_id, samples, mean, min, max, std, first, last, span_start_ms, span_end_ms,
-         covered_s, non_numeric, out_of_range, flags
-       from s
-       on conflict (tag_id, hour_start) do update set
-         mean = case when ${OVERLAP} then excluded.mean else ${POOLED_MEAN} end,
-         std = case when ${OVERLAP} then excluded.std else ${POOLED_STD} end,
-         min = case when ${OVERLAP} then excluded.min else least(o.min, excluded.min) end,
-         max = case when ${OVERLAP} then excluded.max else greatest(o.max, excluded.max) end,
-         first = case when ${OVERLAP} or excluded.span_start_ms < o.span_start_ms then excluded.first else o.first end,
-         last = case when ${OVERLAP} or excluded.span_end_ms > o.span_end_ms then excluded.last else o.last end,
-         samples = case when ${OVERLAP} then excluded.samples else o.samples + excluded.samples end,
-         covered_s = case when ${OVERLAP} then excluded.covered_s else least(3600, o.covered_s + excluded.covered_s) end,
-         non_numeric = case when ${OVERLAP} then excluded.non_numeric else least(32767, o.non_numeric + excluded.non_numeric) end,
-         out_of_range = case when ${OVERLAP} then excluded.out_of_range else least(32767, o.out_of_range + excluded.out_of_range) end,
-         span_start_ms = case when ${OVERLAP} then excluded.span_start_ms else least(o.span_start_ms, excluded.span_start_ms) end,
-         span_end_ms = case when ${OVERLAP} then excluded.span_end_ms else greatest(o.span_end_ms, excluded.span_end_ms) end,
-         flags = case when ${OVERLAP} then excluded.flags | ${TAG_HOUR_FLAGS['replaced-older-file']}
-                 else excluded.flags | o.flags | ${TAG_HOUR_FLAGS['combined-files']} end
-       returning tag_id, hour_start, (flags & ${TAG_HOUR_FLAGS['combined-files']}) <> 0 as combined_mark
-     )
-     -- hours that existed are those with a history row (xmax cannot be read on a partitioned table)
-     select (select count(*) from ins join hist using (tag_id, hour_start) where not combined_mark)::int as replaced,
-            (select count(*) from ins join hist using (tag_id, hour_start) where combined_mark)::int as combined,
-            (select count(*) from hist)::int as touched`,
-    params,
-  );
-  const r = res.rows[0] as { replaced: number; combined: number };
-  return { replaced: r.replaced, combined: r.combined };
+  const taken = new Set((clash.rows as { tag_id: string; hour_start: Date }[]).map((r) => `${r.tag_id}@${r.hour_start.getTime()}`));
+  const fresh = taken.size === 0 ? rows : rows.filter((h) => !taken.has(`${tagId.get(h.tag)}@${h.hourStartMs}`));
+  if (fresh.length > 0) await copyNewHours(client, fresh, tagId);
+  return rows.filter((h) => taken.has(`${tagId.get(h.tag)}@${h.hourStartMs}`)).map((h) => ({ tag: h.tag, tagId: tagId.get(h.tag)!, hourStartMs: h.hourStartMs }));
 }
 
 /** Which uploads brought which tag's hours: one row per upload and tag, widened batch by batch. */
@@ -626,7 +588,7 @@ async function copyNewHours(client: pg.PoolClient, rows: TagHour[], tagId: Map<s
       '\t' +
       count16(h.outOfRangeCount) +
       '\t' +
-      flagsOf(h) +
+      readerFlags(h) +
       '\n';
   }
   const sink = client.query(
@@ -636,31 +598,6 @@ async function copyNewHours(client: pg.PoolClient, rows: TagHour[], tagId: Map<s
     ),
   );
   await pipeline(Readable.from([text]), sink);
-}
-
-const UNNEST_HOURS = `unnest($2::int[], $3::timestamptz[], $4::float4[], $5::float4[], $6::float4[], $7::float4[], $8::float4[],
-    $9::float4[], $10::int[], $11::smallint[], $12::smallint[], $13::smallint[], $14::int[], $15::int[], $16::smallint[])
-    as x(tag_id, hour_start, mean, min, max, std, first, last, samples, covered_s, non_numeric, out_of_range, span_start_ms, span_end_ms, flags)`;
-
-function hourParams(uploadId: string, rows: TagHour[], tagId: Map<string, string>) {
-  return [
-    uploadId,
-    rows.map((h) => tagId.get(h.tag)),
-    rows.map((h) => isoOf(h.hourStartMs)),
-    rows.map((h) => h.mean),
-    rows.map((h) => h.min),
-    rows.map((h) => h.max),
-    rows.map((h) => h.stdDev),
-    rows.map((h) => h.first),
-    rows.map((h) => h.last),
-    rows.map((h) => h.sampleCount),
-    rows.map((h) => Math.round(h.coveredSeconds)),
-    rows.map((h) => count16(h.nonNumericCount + h.badQualityCount)),
-    rows.map((h) => count16(h.outOfRangeCount)),
-    rows.map((h) => spanOf(h.firstMs, h.hourStartMs)),
-    rows.map((h) => spanOf(h.lastMs, h.hourStartMs)),
-    rows.map(flagsOf),
-  ] as [string, (string | undefined)[], string[], ...unknown[]];
 }
 
 async function insertRejects(client: pg.PoolClient, uploadId: string, startSeq: number, rows: RejectedCell[]) {
@@ -674,9 +611,15 @@ async function insertRejects(client: pg.PoolClient, uploadId: string, startSeq: 
       rows.map((r) => r.tag),
       rows.map((r) => (Number.isFinite(r.timeMs) ? new Date(r.timeMs).toISOString() : null)),
       rows.map((r) => storable(r.text.slice(0, 500))),
-      rows.map((r) => REJECT_REASON_TEXT[r.reason]),
+      rows.map((r) => (r.reason === 'bad-quality' && r.code !== undefined ? `${REJECT_REASON_TEXT[r.reason]} ${storable(r.code.slice(0, 100))}` : REJECT_REASON_TEXT[r.reason])),
     ],
   );
+}
+
+/** The site's good quality codes (the defaults when it set none). */
+export async function goodQualityCodes(siteId: string): Promise<string[]> {
+  const [row] = await db().select().from(siteQualityCodes).where(eq(siteQualityCodes.siteId, siteId));
+  return qualityCodesOf(row?.goodCodes);
 }
 
 /** The reason of a rejected cell as stored and shown in the rejected-cells report. */
@@ -710,11 +653,13 @@ async function finish(up: typeof uploads.$inferSelect, profile: LayoutProfile, r
   if (r.replaced > 0) {
     warnings.push({
       code: 'REPLACED_HOURS',
-      message: `This file replaced the stored figures of ${r.replaced} tag hour(s): it holds readings for the same times as an earlier file. The earlier figures are kept in the history.`,
+      message: `This file's readings took the place of an earlier file's in ${r.replaced} tag hour(s): it holds readings for the same times. The earlier figures are kept in the history.`,
       count: r.replaced,
       lines: [],
     });
   }
+  const verdict = fileVerdict(r.report);
+  if (verdict.message) warnings.unshift({ code: 'TAGS_MOSTLY_REJECTED', message: verdict.message, count: verdict.problemTags.length, lines: [] });
   const summary = {
     rows: r.report.dataRowCount,
     tags: r.report.tags.length,
@@ -734,35 +679,35 @@ async function finish(up: typeof uploads.$inferSelect, profile: LayoutProfile, r
     encoding: r.encoding,
     layout: profile.layout,
     warnings,
-    perTag: r.report.tags.map((t) => ({
-      tag: t.tag,
-      values: t.valueCount,
-      notNumbers: t.textCount,
-      badQuality: t.badQualityCount,
-      impossible: t.impossibleCount,
-      outsideTimeWindow: t.outsideWindowCount,
-      blank: t.blankCount,
-      examples: t.rejectedTexts.slice(0, 3),
-    })),
+    perTag: r.report.tags.map((t) => {
+      const c = tagReadCounts(t);
+      return {
+        tag: t.tag,
+        values: t.valueCount,
+        read: c.read,
+        rejected: c.rejected,
+        notNumbers: t.textCount,
+        badQuality: t.badQualityCount,
+        impossible: t.impossibleCount,
+        outsideTimeWindow: t.outsideWindowCount,
+        blank: t.blankCount,
+        lostShare: c.lostShare,
+        examples: c.examples,
+      };
+    }),
+    problemTags: verdict.problemTags,
+    problems: verdict.message,
+    goodQualityCodes: profile.quality ? qualityCodesOf(r.goodCodes) : undefined,
   };
   // clock_timestamp(): the moment the upload finished (now() would be when its transaction began).
   await client.query(
-    `update uploads set status = 'done', finished_at = clock_timestamp(), summary = $2, profile_id = $3, bytes_read = $4, rows_read = $5, detection = null where id = $1`,
-    [up.id, storableJson(summary), profileId, r.bytes, r.report.dataRowCount],
+    `update uploads set status = $6, finished_at = clock_timestamp(), summary = $2, profile_id = $3, bytes_read = $4, rows_read = $5, detection = null where id = $1`,
+    [up.id, storableJson(summary), profileId, r.bytes, r.report.dataRowCount, verdict.state],
   );
   await queueRecompute(up.siteId, r.report.firstTimeMs, r.report.lastTimeMs, client);
   await client.query('commit');
-  return summary;
+  return { summary, state: verdict.state };
 }
-
-const OVERLAP = `(excluded.span_start_ms is not null and o.span_start_ms is not null and excluded.span_start_ms <= o.span_end_ms and o.span_start_ms <= excluded.span_end_ms)`;
-// Weights: covered seconds, or sample counts for hours with no covered time (lone samples).
-const W1 = `(case when o.covered_s + excluded.covered_s > 0 then o.covered_s::float8 else o.samples end)`;
-const W2 = `(case when o.covered_s + excluded.covered_s > 0 then excluded.covered_s::float8 else excluded.samples end)`;
-const POOLED_MEAN = `(case when o.mean is null then excluded.mean when excluded.mean is null then o.mean when ${W1} + ${W2} = 0 then excluded.mean
-  else (${W1} * o.mean + ${W2} * excluded.mean) / (${W1} + ${W2}) end)`;
-const POOLED_STD = `(case when o.mean is null or o.std is null then excluded.std when excluded.mean is null or excluded.std is null then o.std when ${W1} + ${W2} = 0 then excluded.std
-  else sqrt(greatest(0, (${W1} * (o.std ^ 2 + (o.mean - ${POOLED_MEAN}) ^ 2) + ${W2} * (excluded.std ^ 2 + (excluded.mean - ${POOLED_MEAN}) ^ 2)) / (${W1} + ${W2}))) end)`;
 
 /**
  * An upload left 'processing' by a worker that died is queued again, to be read from the start (its

@@ -7,7 +7,7 @@ import { z } from 'zod';
 import { QUEUES, sendJob } from '~/jobs';
 import { db } from '../db/client';
 import { AppError } from '../errors';
-import { layoutProfiles, sites, uploadRejects, uploads, type UploadStatus } from '../db/schema';
+import { READ_STATUSES, layoutProfiles, sites, uploadRejects, uploads, type UploadStatus } from '../db/schema';
 import { queue } from '../queue';
 import { bucket, objectHead, objectSize, presignPut, s3 } from '../storage';
 
@@ -73,7 +73,7 @@ export async function findDuplicate(siteId: string, sha256: string, exceptId?: s
       and(
         eq(uploads.siteId, siteId),
         eq(uploads.sha256, sha256),
-        inArray(uploads.status, ['queued', 'processing', 'done', 'needs-review']),
+        inArray(uploads.status, ['queued', 'processing', ...READ_STATUSES, 'needs-review']),
         sql`${uploads.duplicateOf} is null`,
         exceptId ? ne(uploads.id, exceptId) : sql`true`,
         before ? sql`(${uploads.createdAt}, ${uploads.id}) < (${before.createdAt.toISOString()}::timestamptz, ${before.id}::uuid)` : sql`true`,
@@ -228,7 +228,7 @@ export async function getUploadRow(uploadId: string) {
 
 /** The public view of an upload (API and uploads page). */
 export function uploadView(u: typeof uploads.$inferSelect) {
-  const progress = u.status === 'done' ? 1 : u.sizeBytes ? Math.min(1, (u.bytesRead ?? 0) / u.sizeBytes) : 0;
+  const progress = (READ_STATUSES as readonly string[]).includes(u.status) ? 1 : u.sizeBytes ? Math.min(1, (u.bytesRead ?? 0) / u.sizeBytes) : 0;
   return {
     uploadId: u.id,
     siteId: u.siteId,
