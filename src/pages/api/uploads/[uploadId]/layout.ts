@@ -11,6 +11,6 @@ export const POST: APIRoute = ({ params, request, locals }) =>
   answer(async () => {
     const parsed = Body.safeParse(await jsonBody(request));
     if (!parsed.success) return apiError('VALIDATION_FAILED', 'The layout is not complete.', parsed.error.issues);
-    const out = await confirmLayout(params.uploadId!, parsed.data.profile as never, parsed.data.name, locals.user!.id);
+    const out = await confirmLayout(params.uploadId!, parsed.data.profile, parsed.data.name, locals.user!.id);
     return Response.json(out, { status: 202 });
   });
