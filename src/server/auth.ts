@@ -2,6 +2,9 @@ import { createHash } from 'node:crypto';
 import { APIError, betterAuth } from 'better-auth';
 import { drizzleAdapter } from 'better-auth/adapters/drizzle';
 import { createAuthMiddleware } from 'better-auth/api';
+import { createAccessControl } from 'better-auth/plugins/access';
+import { admin } from 'better-auth/plugins/admin';
+import { defaultStatements } from 'better-auth/plugins/admin/access';
 import { and, eq, lt, ne, sql } from 'drizzle-orm';
 import { QUEUES, sendJob } from '../jobs';
 import { passwordProblem } from './password-strength';
@@ -11,6 +14,7 @@ import * as schema from './db/schema';
 import { env, type AppEnv } from './env';
 import { escapeHtml, type OutgoingMail } from './mail';
 import { queue } from './queue';
+import type { Role } from '~/lib/roles';
 
 /** Minimum password length; better-auth rejects shorter ones with PASSWORD_TOO_SHORT. */
 export const MIN_PASSWORD_LENGTH = 10;
@@ -43,6 +47,46 @@ export const RESET_REQUEST_FLOOR_MS = 400;
 export function hashIdentifier(identifier: string): string {
   return createHash('sha256').update(identifier).digest('hex');
 }
+
+/** The answer to a deactivated person's sign-in (code ACCOUNT_DEACTIVATED, 403). */
+export const DEACTIVATED_MESSAGE = 'This account has been deactivated. Ask a Lossline admin to reactivate it.';
+
+const ac = createAccessControl(defaultStatements);
+
+/**
+ * What each role may do through better-auth's admin plugin: admins deactivate and reactivate people
+ * (the plugin's ban, which also ends their sessions) and end sessions; nothing else of the plugin is
+ * granted (no impersonation, no accounts made or removed around the invitations).
+ */
+const PLUGIN_ROLES = {
+  admin: ac.newRole({ user: ['ban', 'get'], session: ['revoke'] }),
+  'energy-lead': ac.newRole({}),
+  operator: ac.newRole({}),
+  planner: ac.newRole({}),
+} satisfies Record<Role, unknown>;
+
+/**
+ * The admin plugin's HTTP routes are closed: people are managed through /api/admin/users, whose rules
+ * (the last active admin, no self-deactivation, invitations, sites) the plugin does not know. The
+ * service calls the plugin's endpoints on the server with the acting admin's session.
+ */
+const ADMIN_PLUGIN_PATHS = [
+  '/admin/set-role',
+  '/admin/get-user',
+  '/admin/create-user',
+  '/admin/update-user',
+  '/admin/list-users',
+  '/admin/list-user-sessions',
+  '/admin/unban-user',
+  '/admin/ban-user',
+  '/admin/impersonate-user',
+  '/admin/stop-impersonating',
+  '/admin/revoke-user-session',
+  '/admin/revoke-user-sessions',
+  '/admin/remove-user',
+  '/admin/set-user-password',
+  '/admin/has-permission',
+];
 
 function resetMail(kind: 'invite' | 'reset', to: string, name: string, url: string): OutgoingMail {
   const intro =
@@ -90,11 +134,19 @@ export function createAuth(e: AppEnv = env()) {
       schema: { ...schema, rateLimit: schema.rateLimit },
     }),
     // Accounts come by invitation only; people do not rename, re-address or delete themselves here.
-    disabledPaths: ['/sign-up/email', '/update-user', '/change-email', '/delete-user'],
+    disabledPaths: ['/sign-up/email', '/update-user', '/change-email', '/delete-user', ...ADMIN_PLUGIN_PATHS],
+    plugins: [
+      admin({
+        roles: PLUGIN_ROLES,
+        adminRoles: ['admin'],
+        defaultRole: 'operator',
+        bannedUserMessage: DEACTIVATED_MESSAGE,
+        // The plugin's "banned" is Lossline's "deactivated" (the column and the API keep that word).
+        schema: { user: { fields: { banned: 'deactivated' } } },
+      }),
+    ],
     user: {
       additionalFields: {
-        role: { type: 'string', required: false, defaultValue: 'operator', input: false },
-        deactivated: { type: 'boolean', required: false, defaultValue: false, input: false },
         allSites: { type: 'boolean', required: false, defaultValue: true, input: false },
       },
     },
@@ -150,6 +202,11 @@ export function createAuth(e: AppEnv = env()) {
         }
       }),
       after: createAuthMiddleware(async (ctx) => {
+        const returned = ctx.context.returned;
+        if (returned instanceof APIError && (returned.body as { code?: string } | undefined)?.code === 'BANNED_USER') {
+          // The plugin refuses a deactivated person's new session; the answer keeps Lossline's code.
+          throw new APIError('FORBIDDEN', { code: 'ACCOUNT_DEACTIVATED', message: DEACTIVATED_MESSAGE });
+        }
         if (ctx.path !== '/change-password') return;
         const userId = ctx.context.session?.user.id ?? ctx.context.newSession?.user.id;
         const ok = !(ctx.context.returned instanceof Error);
@@ -160,19 +217,6 @@ export function createAuth(e: AppEnv = env()) {
       user: {
         create: { before: async (u) => void checkName(u.name) },
         update: { before: async (u) => void checkName(u.name) },
-      },
-      session: {
-        create: {
-          before: async (s) => {
-            const [u] = await db().select().from(schema.user).where(eq(schema.user.id, s.userId)).limit(1);
-            if (u?.deactivated) {
-              throw new APIError('FORBIDDEN', {
-                code: 'ACCOUNT_DEACTIVATED',
-                message: 'This account has been deactivated. Ask a Lossline admin to reactivate it.',
-              });
-            }
-          },
-        },
       },
     },
   });

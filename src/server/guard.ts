@@ -98,8 +98,8 @@ async function decideAndRun(ctx: GuardContext, next: GuardNext, isApi: boolean):
   if (isApi && path.startsWith('/api/auth/')) return next(); // better-auth checks origins itself
 
   const found = await auth().api.getSession({ headers: ctx.request.headers }).catch(() => null);
-  if (found?.user && !(found.user as { deactivated?: boolean }).deactivated) {
-    const role = (found.user as { role?: unknown }).role;
+  if (found?.user && !found.user.banned) {
+    const role = found.user.role;
     ctx.locals.user = {
       id: found.user.id,
       name: found.user.name,

@@ -24,8 +24,9 @@ describe('AR(1) of hourly residuals', () => {
     const model = { phi: reference.phi, sInnovation: reference.sInnovation };
     const x = prewhiten(reference.residuals, reference.hourStartMs, model);
     expect(x).toHaveLength(reference.innovations.length);
-    // the reference solves a 60 x 60 system per hour: agreement to about 1e-8 is what it can give
-    x.forEach((v, i) => expectClose(v, reference.innovations[i], { atol: 1e-7, label: `hour ${i}` }));
+    // the reference solves a 60 x 60 system per hour; the two agree to about 1e-15 here, and 1e-9
+    // leaves room for that solve's conditioning on other data
+    x.forEach((v, i) => expectClose(v, reference.innovations[i], { atol: 1e-9, label: `hour ${i}` }));
     // some of those hours follow a gap (of up to 31 hours): the fixture covers the g-step rule
     const gaps = reference.hourStartMs.slice(1).map((t, i) => (t - reference.hourStartMs[i]) / 3_600_000);
     expect(Math.max(...gaps)).toBeGreaterThan(20);

@@ -11,6 +11,7 @@ import {
   type BaselineTerm,
 } from '~/lib/analytics/baseline';
 import reference from '../fixtures/baseline-reference.json';
+import distributions from '../fixtures/distributions-reference.json';
 
 describe('fitBaseline: one regressor against closed-form simple linear regression', () => {
   // Invented hours: y against load only (T_amb varies but is not a term).
@@ -47,8 +48,9 @@ describe('fitBaseline: one regressor against closed-form simple linear regressio
     expectClose(pi.yhat, intercept + slope * x0, { rtol: 1e-12 });
     expectClose(pi.se, s * Math.sqrt(1 + 1 / n + (x0 - xbar) ** 2 / sxx), { rtol: 1e-12 });
     expectClose(pi.upper - pi.lower, 4 * pi.se, { rtol: 1e-14 });
-    // default: two-sided 95 % t quantile with 5 dof, 2.571 (NIST/SEMATECH e-Handbook 1.3.6.7.2, from memory)
-    expectClose(predictionInterval(m, x0, 290).k, 2.571, { atol: 0.0005 });
+    // default: the two-sided 95 % t quantile with 5 dof (scipy, scripts/distributions-reference.py)
+    const t975 = distributions.tQuantiles.find((q) => q.p === 0.975 && q.nu === 5)!.t;
+    expectClose(predictionInterval(m, x0, 290).k, t975, { rtol: 1e-8 });
   });
 });
 

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { classifyHour, resolvableSpread, LOW_RANGE_FRACTION, STEADY_DEFAULTS, type SteadyLimits, type TagHourStats } from '~/lib/analytics/steady';
+import { classifyHour, resolvableSpread, STEADY_DEFAULTS, type SteadyLimits, type TagHourStats } from '~/lib/analytics/steady';
 
 // Invented tag hours of a steam turbine: power (kW), steam flow (kg/s), inlet temperature (K).
 function hour(mean: number, stdDev: number, extra: Partial<TagHourStats> = {}): TagHourStats {
@@ -117,7 +117,6 @@ describe('classifyHour (common practice defaults, docs/domain.md section 6)', ()
     const meter = { uRel: 0.02, span: 31 };
     const valve: SteadyLimits = { loadTag: 'flow', minLoad: 0.1, spread: { flow: { maxRelSpread: 0.05, instrument: meter } } };
     it('near the bottom of its range a flow meter resolves 2 x 2 % of a tenth of its span: 0.124 t/h', () => {
-      expect(LOW_RANGE_FRACTION).toBe(0.1);
       expect(resolvableSpread(1, meter)).toBeCloseTo(2 * 0.02 * 3.1, 12);
       // above a tenth of the span, 2 % of the reading itself
       expect(resolvableSpread(20, meter)).toBeCloseTo(2 * 0.02 * 20, 12);

@@ -90,7 +90,7 @@ describeIntegration('hostile exports through the token API', () => {
     }
     const counts: Record<string, number> = {};
     for (const u of rows) {
-      const code = (u.summary as { code?: string } | null)?.code;
+      const code = u.summary?.code;
       const key = u.status === 'failed' ? `failed ${code}` : u.duplicateOf ? 'done (repeat)' : u.status;
       counts[key] = (counts[key] ?? 0) + 1;
       if (u.status === 'failed') {

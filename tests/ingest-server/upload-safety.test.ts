@@ -75,7 +75,7 @@ describeIntegration('upload safety: declared hashes, sizes, ambiguous layouts, i
     expect(out.status).toBe('failed');
     expect(out.duplicateOf).toBeNull();
     expect(out.failureReason).toMatch(/SHA-256/);
-    expect((out.summary as { code: string }).code).toBe('HASH_MISMATCH');
+    expect(out.summary?.code).toBe('HASH_MISMATCH');
     expect(out.sha256).toBeNull();
     expect((await hoursOf('SF.PT-1')).some((h) => h.hourStart.toISOString().startsWith('2026-04-02'))).toBe(false);
 
@@ -99,7 +99,7 @@ describeIntegration('upload safety: declared hashes, sizes, ambiguous layouts, i
       await expect(completeBrowserUpload(short.uploadId)).rejects.toThrow(/bytes/);
       const u = await waitFor(short.uploadId, FINAL);
       expect(u.status).toBe('failed');
-      expect((u.summary as { code: string }).code).toBe('SIZE_MISMATCH');
+      expect(u.summary?.code).toBe('SIZE_MISMATCH');
     } else {
       // the store refused the body outright (the signed length): nothing arrived
       await expect(completeBrowserUpload(short.uploadId)).rejects.toThrow(/not arrived/);
@@ -128,12 +128,12 @@ describeIntegration('upload safety: declared hashes, sizes, ambiguous layouts, i
     const october = await machineUpload('october.csv', hourly('mdy', '2026-10-03T00:00:00Z', 72), s!.id);
     const asked = await waitFor(october.uploadId, FINAL);
     expect(asked.status).toBe('failed');
-    expect((asked.summary as { code: string }).code).toBe('LAYOUT_QUESTION');
+    expect(asked.summary?.code).toBe('LAYOUT_QUESTION');
     expect(asked.failureReason).toMatch(/month first/);
     const stored = (await hoursOf('DO.FT-1', s!.id)).map((h) => h.hourStart.toISOString());
     expect(stored.some((x) => x.startsWith('2026-10') || x.startsWith('2026-04-10') || x.startsWith('2026-05-10'))).toBe(false);
     // A person answers: month first.
-    const profile = (asked.detection as { profile: Record<string, unknown> & { fingerprint: string; time: Record<string, unknown> } }).profile;
+    const profile = asked.detection!.profile;
     await confirmLayout(october.uploadId, { ...profile, questions: [], time: { ...profile.time, dateOrder: 'mdy' } }, 'month-first export', userId);
     expect((await waitFor(october.uploadId, FINAL)).status).toBe('done');
     const after = (await hoursOf('DO.FT-1', s!.id)).map((h) => h.hourStart.toISOString());
@@ -148,7 +148,7 @@ describeIntegration('upload safety: declared hashes, sizes, ambiguous layouts, i
     const up = await machineUpload('semicolon.csv', Buffer.from(lines.join('\n') + '\n'), s!.id);
     const out = await waitFor(up.uploadId, FINAL);
     expect(out.status).toBe('failed');
-    expect((out.summary as { code: string }).code).toBe('LAYOUT_QUESTION');
+    expect(out.summary?.code).toBe('LAYOUT_QUESTION');
     expect(out.failureReason).toMatch(/decimal|thousands/i);
     expect(await hoursOf('DM.A', s!.id)).toEqual([]);
   });

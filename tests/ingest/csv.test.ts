@@ -1,18 +1,8 @@
+import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { CsvTokenizer, IngestError, tokenizeAll } from '~/lib/ingest/index';
 import type { CsvTokenizerOptions } from '~/lib/ingest/index';
-
-/** Small deterministic generator (mulberry32) so a failure can be replayed. */
-function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { draws, runs } from '../support/random';
 
 interface Rec {
   fields: string[];
@@ -107,35 +97,41 @@ describe('CsvTokenizer (papaparse underneath)', () => {
   });
 
   it('random records survive quoting and any chunking, also across the 64 KiB pieces of one big push', () => {
-    const r = rng(20240305);
     const alphabet = ['a', 'B', '1', '.', ',', ';', '\t', '|', ' ', '"', '\n', '\r\n', '°', 'x', '""'];
-    for (let round = 0; round < 60; round++) {
-      const sep = [',', ';', '\t', '|'][round % 4];
-      const newline = round % 3 === 0 ? '\r\n' : '\n';
-      const big = round % 13 === 0;
-      const nRows = big ? 30000 : 1 + Math.floor(r() * 8);
-      const nCols = 2 + Math.floor(r() * 4);
-      const expected: Rec[] = [];
-      const lines: string[] = [];
-      let line = 1;
-      for (let i = 0; i < nRows; i++) {
-        const fields: string[] = [];
-        for (let j = 0; j < nCols; j++) {
-          let f = '';
-          const len = Math.floor(r() * 7);
-          for (let k = 0; k < len; k++) f += alphabet[Math.floor(r() * alphabet.length)];
-          fields.push(f);
+    let bigRounds = 0;
+    fc.assert(
+      fc.property(fc.noBias(fc.nat(59)), draws(4096), (round, { next: r }) => {
+        const sep = [',', ';', '\t', '|'][round % 4];
+        const newline = round % 3 === 0 ? '\r\n' : '\n';
+        const big = round % 13 === 0;
+        const nRows = big ? 30000 : 1 + Math.floor(r() * 8);
+        const nCols = 2 + Math.floor(r() * 4);
+        const expected: Rec[] = [];
+        const lines: string[] = [];
+        let line = 1;
+        for (let i = 0; i < nRows; i++) {
+          const fields: string[] = [];
+          for (let j = 0; j < nCols; j++) {
+            let f = '';
+            const len = Math.floor(r() * 7);
+            for (let k = 0; k < len; k++) f += alphabet[Math.floor(r() * alphabet.length)];
+            fields.push(f);
+          }
+          expected.push({ fields, line });
+          line += 1 + fields.reduce((n, f) => n + f.split('\n').length - 1, 0);
+          lines.push(fields.map((f) => (/["\r\n]/.test(f) || f.includes(sep) || r() < 0.2 ? `"${f.replace(/"/g, '""')}"` : f)).join(sep));
         }
-        expected.push({ fields, line });
-        line += 1 + fields.reduce((n, f) => n + f.split('\n').length - 1, 0);
-        lines.push(fields.map((f) => (/["\r\n]/.test(f) || f.includes(sep) || r() < 0.2 ? `"${f.replace(/"/g, '""')}"` : f)).join(sep));
-      }
-      const text = lines.join(newline) + (r() < 0.5 ? newline : '');
-      if (big) expect(text.length).toBeGreaterThan(3 * 65536);
-      expect(tokenizeAll(text, sep), `round ${round} whole`).toEqual(expected);
-      const max = big ? 5000 : 7;
-      expect(tokenizeChunked(text, sep, () => 1 + Math.floor(r() * max)), `round ${round} chunked: ${big ? '' : JSON.stringify(text)}`).toEqual(expected);
-    }
+        const text = lines.join(newline) + (r() < 0.5 ? newline : '');
+        if (big) expect(text.length).toBeGreaterThan(3 * 65536);
+        expect(tokenizeAll(text, sep), `round ${round} whole`).toEqual(expected);
+        const max = big ? 5000 : 7;
+        expect(tokenizeChunked(text, sep, () => 1 + Math.floor(r() * max)), `round ${round} chunked: ${big ? '' : JSON.stringify(text)}`).toEqual(expected);
+        if (big) bigRounds++;
+      }),
+      runs(20240305, 60),
+    );
+    // the 64 KiB pieces of one big push were exercised
+    expect(bigRounds).toBeGreaterThan(0);
   });
 
   it('numbers records by their physical start line, counting line breaks inside quotes; LF and CR LF may mix', () => {

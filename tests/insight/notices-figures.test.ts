@@ -7,7 +7,6 @@
  */
 import { describe, expect, it } from 'vitest';
 import {
-  DAYS_PER_MONTH,
   chartSeries,
   clearlyLarger,
   costPerDay,
@@ -147,7 +146,6 @@ describe('repair verdict (IPMVP: adjusted baseline against the reporting period)
     // sqrt(408.248^2 + 235.702^2) = 471.40 W
     expectClose(v.avoidedU_W, 471.4045208, { rtol: 1e-9 });
     // 30/3.6e9 EUR/J x 6000 W x 86400 s/day x 30.4375 days/month = 4.32 x 30.4375 = 131.49 EUR/month
-    expect(DAYS_PER_MONTH).toBe(30.4375);
     expectClose(v.avoidedCost_per_month!, 131.49, { rtol: 1e-9 });
     expectClose(v.avoidedCostU_per_month!, (30 / 3.6e9) * 471.4045208 * 86400 * 30.4375, { rtol: 1e-9 });
   });

@@ -1,5 +1,7 @@
 import { describe, expect, it } from 'vitest';
+import fc from 'fast-check';
 import { expectClose } from '../support/expect-close';
+import { draws, runs } from '../support/random';
 import {
   ATOMIC_MASS_kg_per_mol,
   DH_VAP_H2O_298_J_per_mol,
@@ -75,18 +77,6 @@ describe('heating values', () => {
   });
 });
 
-/** Deterministic pseudo-random numbers (mulberry32) so failures reproduce. */
-function rng(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
-
 function randomGasFuel(r: () => number): Fuel {
   const raw: Partial<Record<SpeciesName, number>> = {
     CH4: 0.5 + r(),
@@ -128,45 +118,49 @@ function atomsIn(fuel: Fuel, res: CombustionResult, w: number): Record<Element, 
 
 describe('combustion balance', () => {
   it('self-consistency: element and mass balances close for random fuels, lambda and humidity', () => {
-    const r = rng(20240611);
-    for (let i = 0; i < 40; i++) {
-      const fuel =
-        i % 4 === 3
-          ? fuelByHeatingValue(['light-fuel-oil', 'heavy-fuel-oil', 'bituminous-coal'][i % 3] as never, 30e6 + 15e6 * r())
-          : randomGasFuel(r);
-      const lambda = 1 + 2 * r();
-      const w = 0.03 * r();
-      const res = combustionAtLambda(fuel, lambda, { H2O_mol_per_molDryAir: w });
-      const ain = atomsIn(fuel, res, w);
-      const aout = atomsOut(res);
-      for (const el of ['C', 'H', 'O', 'N', 'S', 'Ar'] as Element[]) {
-        expectClose(aout[el], ain[el], { rtol: 1e-12, atol: 1e-12, label: `${fuel.label} ${el}` });
-      }
-      // mass: 1 kg fuel + humid air = flue gas + ash
-      expectClose(res.flue_kg_per_kgFuel + res.ash_kg_per_kgFuel, 1 + res.air_kg_per_kgFuel, { rtol: 1e-12 });
-      expectClose(res.lambda, lambda, { rtol: 1e-12 });
-      const sumWet = Object.values(res.flueMoleFractions).reduce((s, v) => s + v!, 0);
-      const sumDry = Object.values(res.flueDryMoleFractions).reduce((s, v) => s + v!, 0);
-      expectClose(sumWet, 1, { rtol: 1e-12 });
-      expectClose(sumDry, 1, { rtol: 1e-12 });
-      expectClose(res.flueGas.M_kg_per_mol * res.flueWet_mol_per_kgFuel, res.flue_kg_per_kgFuel, { rtol: 1e-12 });
-    }
+    fc.assert(
+      fc.property(fc.nat(39), draws(24), (i, { next: r }) => {
+        const fuel =
+          i % 4 === 3
+            ? fuelByHeatingValue(['light-fuel-oil', 'heavy-fuel-oil', 'bituminous-coal'][i % 3] as never, 30e6 + 15e6 * r())
+            : randomGasFuel(r);
+        const lambda = 1 + 2 * r();
+        const w = 0.03 * r();
+        const res = combustionAtLambda(fuel, lambda, { H2O_mol_per_molDryAir: w });
+        const ain = atomsIn(fuel, res, w);
+        const aout = atomsOut(res);
+        for (const el of ['C', 'H', 'O', 'N', 'S', 'Ar'] as Element[]) {
+          expectClose(aout[el], ain[el], { rtol: 1e-12, atol: 1e-12, label: `${fuel.label} ${el}` });
+        }
+        // mass: 1 kg fuel + humid air = flue gas + ash
+        expectClose(res.flue_kg_per_kgFuel + res.ash_kg_per_kgFuel, 1 + res.air_kg_per_kgFuel, { rtol: 1e-12 });
+        expectClose(res.lambda, lambda, { rtol: 1e-12 });
+        const sumWet = Object.values(res.flueMoleFractions).reduce((s, v) => s + v!, 0);
+        const sumDry = Object.values(res.flueDryMoleFractions).reduce((s, v) => s + v!, 0);
+        expectClose(sumWet, 1, { rtol: 1e-12 });
+        expectClose(sumDry, 1, { rtol: 1e-12 });
+        expectClose(res.flueGas.M_kg_per_mol * res.flueWet_mol_per_kgFuel, res.flue_kg_per_kgFuel, { rtol: 1e-12 });
+      }),
+      runs(20240611, 40),
+    );
   });
 
   it('self-consistency: the O2 of a balance, fed back on dry and wet basis, reproduces lambda', () => {
-    const r = rng(7);
-    for (let i = 0; i < 30; i++) {
-      const fuel = i % 3 === 0 ? fuelByHeatingValue('heavy-fuel-oil', 40.5e6) : randomGasFuel(r);
-      const lambda = 1 + 1.5 * r();
-      const air = { humidityRatio_kg_per_kg: 0.015 * r() };
-      const fwd = combustionAtLambda(fuel, lambda, air);
-      const dry = combustionFromO2(fuel, { O2_fraction: fwd.O2_dry, basis: 'dry' }, air);
-      const wet = combustionFromO2(fuel, { O2_fraction: fwd.O2_wet, basis: 'wet' }, air);
-      expectClose(dry.lambda, lambda, { rtol: 1e-10 });
-      expectClose(wet.lambda, lambda, { rtol: 1e-10 });
-      expectClose(dry.O2_dry, fwd.O2_dry, { rtol: 1e-10 });
-      expectClose(wet.O2_wet, fwd.O2_wet, { rtol: 1e-10 });
-    }
+    fc.assert(
+      fc.property(fc.nat(29), draws(16), (i, { next: r }) => {
+        const fuel = i % 3 === 0 ? fuelByHeatingValue('heavy-fuel-oil', 40.5e6) : randomGasFuel(r);
+        const lambda = 1 + 1.5 * r();
+        const air = { humidityRatio_kg_per_kg: 0.015 * r() };
+        const fwd = combustionAtLambda(fuel, lambda, air);
+        const dry = combustionFromO2(fuel, { O2_fraction: fwd.O2_dry, basis: 'dry' }, air);
+        const wet = combustionFromO2(fuel, { O2_fraction: fwd.O2_wet, basis: 'wet' }, air);
+        expectClose(dry.lambda, lambda, { rtol: 1e-10 });
+        expectClose(wet.lambda, lambda, { rtol: 1e-10 });
+        expectClose(dry.O2_dry, fwd.O2_dry, { rtol: 1e-10 });
+        expectClose(wet.O2_wet, fwd.O2_wet, { rtol: 1e-10 });
+      }),
+      runs(7, 30),
+    );
   });
 
   it('self-consistency (hand calculation): methane at lambda = 1 in standard dry air', () => {

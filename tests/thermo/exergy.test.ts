@@ -1,5 +1,7 @@
 import { describe, expect, it } from 'vitest';
+import fc from 'fast-check';
 import { expectClose } from '../support/expect-close';
+import { draws, runs } from '../support/random';
 import {
   G_m_per_s2,
   controlVolumeBalance,
@@ -16,18 +18,6 @@ import { ThermoRangeError } from '~/lib/thermo/errors';
 
 const T0 = 298.15;
 const p0 = 101325;
-
-/** Deterministic pseudo-random numbers (mulberry32) so failures reproduce. */
-function rng(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 function gasStream(mix: GasMixture, dead: DeadState, T: number, p: number, m: number, direction: 'in' | 'out', V = 0, z = 0): BalanceStream {
   const h = mix.h(T);
@@ -106,45 +96,47 @@ describe('control-volume balance', () => {
   });
 
   it('self-consistency (Gouy-Stodola): X_D = T0 S_gen on random energy-closed gas balances', () => {
-    const r = rng(42);
     const flue = mixture({ N2: 0.72, CO2: 0.09, H2O: 0.16, O2: 0.025, Ar: 0.005 }, 'mole');
-    for (let i = 0; i < 200; i++) {
-      const mix = i % 2 ? flue : dryAir;
-      const T0i = 270 + 40 * r();
-      const p0i = 95e3 + 10e3 * r();
-      const dead = deadState.gas(mix, T0i, p0i);
-      const nIn = 1 + Math.floor(3 * r());
-      const streams: BalanceStream[] = [];
-      let mTot = 0;
-      let Ein = 0;
-      for (let k = 0; k < nIn; k++) {
-        const m = 0.1 + 10 * r();
-        const V = 60 * r();
-        const z = 20 * r();
-        const st = gasStream(mix, dead, 250 + 1500 * r(), 5e4 + 3e6 * r(), m, 'in', V, z);
-        streams.push(st);
-        mTot += m;
-        Ein += m * (st.h_J_per_kg + V * V / 2 + G_m_per_s2 * z);
-      }
-      // two outlets share the mass; heat at a random boundary temperature; power closes the energy balance
-      const split = 0.2 + 0.6 * r();
-      const outA = gasStream(mix, dead, 250 + 1500 * r(), 5e4 + 3e6 * r(), split * mTot, 'out', 40 * r(), 0);
-      const outB = gasStream(mix, dead, 250 + 1500 * r(), 5e4 + 3e6 * r(), (1 - split) * mTot, 'out');
-      streams.push(outA, outB);
-      const Eout = outA.mDot_kg_per_s * (outA.h_J_per_kg + outA.velocity_m_per_s! ** 2 / 2) + outB.mDot_kg_per_s * outB.h_J_per_kg;
-      const Q = (r() - 0.5) * 2e6;
-      const Tb = 200 + 1500 * r();
-      const W = Q + Ein - Eout;
-      const bal = controlVolumeBalance({
-        T0_K: T0i,
-        streams,
-        heat: [{ Q_W: Q, Tb_K: Tb }],
-        power_W: [{ power_W: W * 0.3, label: 'shaft' }, { power_W: W * 0.7, label: 'generator' }],
-      });
-      const scale = bal.exergyIn_W + bal.exergyOut_W;
-      expect(Math.abs(bal.energyResidual_W)).toBeLessThan(1e-9 * (Math.abs(Ein) + Math.abs(Eout) + Math.abs(Q)));
-      expectClose(bal.exergyDestroyed_W, T0i * bal.entropyGeneration_W_per_K, { atol: 1e-9 * scale, label: `case ${i}` });
-    }
+    fc.assert(
+      fc.property(fc.nat(199), draws(40), (i, { next: r }) => {
+        const mix = i % 2 ? flue : dryAir;
+        const T0i = 270 + 40 * r();
+        const p0i = 95e3 + 10e3 * r();
+        const dead = deadState.gas(mix, T0i, p0i);
+        const nIn = 1 + Math.floor(3 * r());
+        const streams: BalanceStream[] = [];
+        let mTot = 0;
+        let Ein = 0;
+        for (let k = 0; k < nIn; k++) {
+          const m = 0.1 + 10 * r();
+          const V = 60 * r();
+          const z = 20 * r();
+          const st = gasStream(mix, dead, 250 + 1500 * r(), 5e4 + 3e6 * r(), m, 'in', V, z);
+          streams.push(st);
+          mTot += m;
+          Ein += m * (st.h_J_per_kg + V * V / 2 + G_m_per_s2 * z);
+        }
+        // two outlets share the mass; heat at a random boundary temperature; power closes the energy balance
+        const split = 0.2 + 0.6 * r();
+        const outA = gasStream(mix, dead, 250 + 1500 * r(), 5e4 + 3e6 * r(), split * mTot, 'out', 40 * r(), 0);
+        const outB = gasStream(mix, dead, 250 + 1500 * r(), 5e4 + 3e6 * r(), (1 - split) * mTot, 'out');
+        streams.push(outA, outB);
+        const Eout = outA.mDot_kg_per_s * (outA.h_J_per_kg + outA.velocity_m_per_s! ** 2 / 2) + outB.mDot_kg_per_s * outB.h_J_per_kg;
+        const Q = (r() - 0.5) * 2e6;
+        const Tb = 200 + 1500 * r();
+        const W = Q + Ein - Eout;
+        const bal = controlVolumeBalance({
+          T0_K: T0i,
+          streams,
+          heat: [{ Q_W: Q, Tb_K: Tb }],
+          power_W: [{ power_W: W * 0.3, label: 'shaft' }, { power_W: W * 0.7, label: 'generator' }],
+        });
+        const scale = bal.exergyIn_W + bal.exergyOut_W;
+        expect(Math.abs(bal.energyResidual_W)).toBeLessThan(1e-9 * (Math.abs(Ein) + Math.abs(Eout) + Math.abs(Q)));
+        expectClose(bal.exergyDestroyed_W, T0i * bal.entropyGeneration_W_per_K, { atol: 1e-9 * scale, label: `case ${i}` });
+      }),
+      runs(42, 200),
+    );
   });
 
   it('self-consistency: the Gouy-Stodola gap equals the energy residual when mass closes', () => {
@@ -159,34 +151,36 @@ describe('control-volume balance', () => {
   });
 
   it('self-consistency (Gouy-Stodola): random energy-closed water and steam balances (turbines, valves, heaters)', () => {
-    const r = rng(97);
     const dead = deadState.water(T0, p0);
-    for (let i = 0; i < 150; i++) {
-      const m = 1 + 50 * r();
-      const p1 = 0.5e6 + 15e6 * r();
-      const T1 = water.tsat(p1) + 20 + 300 * r(); // superheated steam
-      const s1 = water.pt(p1, T1);
-      const p2 = 5e3 + (p1 - 5e3) * r();
-      const kind = i % 3; // 0 turbine with heat loss, 1 let-down valve, 2 heater with heat in
-      const Q = kind === 0 ? -1e4 * m * r() : kind === 2 ? 5e5 * m * r() : 0;
-      const dh = kind === 0 ? -(0.05 + 0.3 * r()) * 1e6 : kind === 2 ? Q / m : 0;
-      const W = kind === 0 ? Q - m * dh : 0; // energy closes: Q - W + m (h1 - h2) = 0
-      const s2 = water.ph(p2, s1.h + (kind === 0 ? (Q - W) / m : dh));
-      const bal = controlVolumeBalance({
-        T0_K: T0,
-        streams: [waterStream(dead, s1, m, 'in'), waterStream(dead, s2, m, 'out')],
-        heat: Q !== 0 ? [{ Q_W: Q, Tb_K: kind === 0 ? 320 : 900 }] : [],
-        power_W: W,
-      });
-      const scale = bal.exergyIn_W + bal.exergyOut_W;
-      expect(Math.abs(bal.energyResidual_W)).toBeLessThan(1e-9 * m * s1.h);
-      expectClose(bal.exergyDestroyed_W, T0 * bal.entropyGeneration_W_per_K, { atol: 1e-9 * scale, label: `case ${i}` });
-      if (kind === 1) {
-        // let-down valve: h1 = h2, so psi1 - psi2 = T0 (s2 - s1) >= 0
-        expectClose(bal.exergyDestroyed_W, m * T0 * (s2.s - s1.s), { rtol: 1e-9, atol: 1e-6 });
-        expect(bal.exergyDestroyed_W).toBeGreaterThanOrEqual(0);
-      }
-    }
+    fc.assert(
+      fc.property(fc.nat(149), draws(12), (i, { next: r }) => {
+        const m = 1 + 50 * r();
+        const p1 = 0.5e6 + 15e6 * r();
+        const T1 = water.tsat(p1) + 20 + 300 * r(); // superheated steam
+        const s1 = water.pt(p1, T1);
+        const p2 = 5e3 + (p1 - 5e3) * r();
+        const kind = i % 3; // 0 turbine with heat loss, 1 let-down valve, 2 heater with heat in
+        const Q = kind === 0 ? -1e4 * m * r() : kind === 2 ? 5e5 * m * r() : 0;
+        const dh = kind === 0 ? -(0.05 + 0.3 * r()) * 1e6 : kind === 2 ? Q / m : 0;
+        const W = kind === 0 ? Q - m * dh : 0; // energy closes: Q - W + m (h1 - h2) = 0
+        const s2 = water.ph(p2, s1.h + (kind === 0 ? (Q - W) / m : dh));
+        const bal = controlVolumeBalance({
+          T0_K: T0,
+          streams: [waterStream(dead, s1, m, 'in'), waterStream(dead, s2, m, 'out')],
+          heat: Q !== 0 ? [{ Q_W: Q, Tb_K: kind === 0 ? 320 : 900 }] : [],
+          power_W: W,
+        });
+        const scale = bal.exergyIn_W + bal.exergyOut_W;
+        expect(Math.abs(bal.energyResidual_W)).toBeLessThan(1e-9 * m * s1.h);
+        expectClose(bal.exergyDestroyed_W, T0 * bal.entropyGeneration_W_per_K, { atol: 1e-9 * scale, label: `case ${i}` });
+        if (kind === 1) {
+          // let-down valve: h1 = h2, so psi1 - psi2 = T0 (s2 - s1) >= 0
+          expectClose(bal.exergyDestroyed_W, m * T0 * (s2.s - s1.s), { rtol: 1e-9, atol: 1e-6 });
+          expect(bal.exergyDestroyed_W).toBeGreaterThanOrEqual(0);
+        }
+      }),
+      runs(97, 150),
+    );
   });
 
   it('self-consistency: mixed substances (air heating a liquid loop) close when each substance keeps its dead state', () => {

@@ -3,7 +3,9 @@
  * relations the equations must satisfy, not published numbers.
  */
 import { describe, expect, it } from 'vitest';
+import fc from 'fast-check';
 import { expectClose } from '../support/expect-close';
+import { runs, unit } from '../support/random';
 import { water } from '~/lib/thermo/water';
 import { ThermoRangeError } from '~/lib/thermo/errors';
 import { props1 } from '~/lib/thermo/water/region1';
@@ -14,29 +16,12 @@ import { props5 } from '~/lib/thermo/water/region5';
 const SC = 'self-consistency';
 const MPa = 1e6;
 
-/** Deterministic pseudo-random states (mulberry32), so every run checks the same points. */
-function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
-
-/** Random (p, T) over IF97's whole range: log-uniform p, uniform T. */
-function randomStates(n: number, seed: number): { p: number; T: number }[] {
-  const r = rng(seed);
-  const out: { p: number; T: number }[] = [];
-  while (out.length < n) {
-    const T = 273.15 + r() * 2000;
-    const pMax = T > 1073.15 ? 50e6 : 100e6;
-    out.push({ T, p: 100 * Math.pow(pMax / 100, r()) });
-  }
-  return out;
-}
+/** (p, T) over IF97's whole range: uniform T, log-uniform p (fast-check). */
+const anyState = fc.tuple(unit, unit).map(([a, b]) => {
+  const T = 273.15 + a * 2000;
+  const pMax = T > 1073.15 ? 50e6 : 100e6;
+  return { T, p: 100 * Math.pow(pMax / 100, b) };
+});
 
 const statesByRegion = [
   { region: 1, p: 3e6, T: 300 },
@@ -84,28 +69,29 @@ describe('thermodynamic identities', () => {
 });
 
 describe('round trips between forward and inverse functions', () => {
-  const states = randomStates(3000, 97);
   it(`${SC}: pt -> h -> ph gives T back within 1e-9 relative over 3000 random states of all regions`, () => {
-    let worst = 0;
     const seen = new Set<number>();
-    for (const { p, T } of states) {
-      const st = water.pt(p, T);
-      seen.add(st.region);
-      const back = water.ph(p, st.h);
-      expect(back.region).toBe(st.region);
-      worst = Math.max(worst, Math.abs(back.T - T) / T);
-    }
+    fc.assert(
+      fc.property(anyState, ({ p, T }) => {
+        const st = water.pt(p, T);
+        seen.add(st.region);
+        const back = water.ph(p, st.h);
+        expect(back.region).toBe(st.region);
+        expect(Math.abs(back.T - T) / T).toBeLessThan(1e-9);
+      }),
+      runs(97, 3000),
+    );
     expect([...seen].sort()).toEqual([1, 2, 3, 5]);
-    expect(worst).toBeLessThan(1e-9);
   });
 
   it(`${SC}: pt -> s -> ps gives T back within 1e-9 relative over 3000 random states`, () => {
-    let worst = 0;
-    for (const { p, T } of states) {
-      const back = water.ps(p, water.pt(p, T).s);
-      worst = Math.max(worst, Math.abs(back.T - T) / T);
-    }
-    expect(worst).toBeLessThan(1e-9);
+    fc.assert(
+      fc.property(anyState, ({ p, T }) => {
+        const back = water.ps(p, water.pt(p, T).s);
+        expect(Math.abs(back.T - T) / T).toBeLessThan(1e-9);
+      }),
+      runs(97, 3000),
+    );
   });
 
   it(`${SC}: round trips near the critical point (region 3, 640..660 K, 21.9..23 MPa)`, () => {
@@ -122,17 +108,20 @@ describe('round trips between forward and inverse functions', () => {
   });
 
   it(`${SC}: the allocation-free functions agree with the state functions`, () => {
-    for (const { p, T } of states.slice(0, 200)) {
-      const st = water.pt(p, T);
-      expect(water.h_pt(p, T)).toBe(st.h);
-      expect(water.s_pt(p, T)).toBe(st.s);
-      expect(water.v_pt(p, T)).toBe(st.v);
-      expect(water.cp_pt(p, T)).toBe(st.cp);
-      expect(water.T_ph(p, st.h)).toBe(water.ph(p, st.h).T);
-      expect(water.s_ph(p, st.h)).toBe(water.ph(p, st.h).s);
-      expect(water.T_ps(p, st.s)).toBe(water.ps(p, st.s).T);
-      expect(water.h_ps(p, st.s)).toBe(water.ps(p, st.s).h);
-    }
+    fc.assert(
+      fc.property(anyState, ({ p, T }) => {
+        const st = water.pt(p, T);
+        expect(water.h_pt(p, T)).toBe(st.h);
+        expect(water.s_pt(p, T)).toBe(st.s);
+        expect(water.v_pt(p, T)).toBe(st.v);
+        expect(water.cp_pt(p, T)).toBe(st.cp);
+        expect(water.T_ph(p, st.h)).toBe(water.ph(p, st.h).T);
+        expect(water.s_ph(p, st.h)).toBe(water.ph(p, st.h).s);
+        expect(water.T_ps(p, st.s)).toBe(water.ps(p, st.s).T);
+        expect(water.h_ps(p, st.s)).toBe(water.ps(p, st.s).h);
+      }),
+      runs(97, 200),
+    );
   });
 
   it(`${SC}: tsat(psat(T)) = T within 1e-9 from 273.15 K to 647.09 K`, () => {

@@ -123,11 +123,11 @@ describeIntegration('unit trend', () => {
     const p = t.points[10]!; // index 11: load 0.72, T0 296.1 K
     expect(p.load).toBeCloseTo(0.72, 12);
     // 0.60 + 0.20 x 0.72 - 0.001 x 6.1 = 0.7379; the fit's wiggle is at most 0.001.
-    expectClose(p.expected!.efficiency!, 0.7379, { atol: 1.5e-3 });
+    expectClose(p.expected!.efficiency!, 0.7379, { atol: 1e-3 });
     expect(p.expected!.efficiencyLo!).toBeLessThan(p.expected!.efficiency!);
     expect(p.expected!.efficiencyHi!).toBeGreaterThan(p.expected!.efficiency!);
     // 100 kW + 400 kW x 0.72 = 388 kW, within the 1 kW wiggle.
-    expectClose(p.expected!.destruction_W!, 388e3, { atol: 1.5e3 });
+    expectClose(p.expected!.destruction_W!, 388e3, { atol: 1e3 });
     expect(t.points[4]!.expected).toBeNull();
     // The curve for the scatter spans the steady loads at the period's mean T0.
     expect(t.scatter).toHaveLength(21);

@@ -2,7 +2,9 @@ import { bigint, boolean, index, integer, pgTable, text, timestamp } from 'drizz
 
 /**
  * Tables better-auth reads and writes (user, session, account, verification, rateLimit), in the shape
- * its Drizzle adapter expects, plus Lossline's own user fields: role and deactivated.
+ * its Drizzle adapter expects, with the fields of its admin plugin (role; banned, which Lossline calls
+ * deactivated, with banReason and banExpires; session.impersonatedBy, never set: impersonation is
+ * not granted) plus Lossline's own allSites.
  */
 export const user = pgTable('user', {
   id: text('id').primaryKey(),
@@ -11,7 +13,10 @@ export const user = pgTable('user', {
   emailVerified: boolean('email_verified').notNull().default(false),
   image: text('image'),
   role: text('role').notNull().default('operator'),
+  /** The admin plugin's "banned": no sign-in, no session, no API token of theirs works. */
   deactivated: boolean('deactivated').notNull().default(false),
+  banReason: text('ban_reason'),
+  banExpires: timestamp('ban_expires', { withTimezone: true }),
   /** Every site, those added later included (true), or only the sites listed in person_sites. */
   allSites: boolean('all_sites').notNull().default(true),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
@@ -28,6 +33,7 @@ export const session = pgTable(
     updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
     ipAddress: text('ip_address'),
     userAgent: text('user_agent'),
+    impersonatedBy: text('impersonated_by'),
     userId: text('user_id')
       .notNull()
       .references(() => user.id, { onDelete: 'cascade' }),

@@ -14,6 +14,8 @@ import {
   uniqueIndex,
   uuid,
 } from 'drizzle-orm/pg-core';
+import type { LayoutProfile } from '~/lib/ingest/profile';
+import type { UploadDetection, UploadSummary } from '~/lib/upload-summary';
 import { user } from './auth-schema';
 import { sites } from './plant-schema';
 
@@ -49,9 +51,9 @@ export const uploads = pgTable(
     profileId: uuid('profile_id'),
     rowsRead: bigint('rows_read', { mode: 'number' }).notNull().default(0),
     bytesRead: bigint('bytes_read', { mode: 'number' }).notNull().default(0),
-    summary: jsonb('summary').$type<Record<string, unknown>>(),
+    summary: jsonb('summary').$type<UploadSummary>(),
     /** Detected layout and questions while the upload needs review. */
-    detection: jsonb('detection').$type<Record<string, unknown>>(),
+    detection: jsonb('detection').$type<UploadDetection>(),
     failureReason: text('failure_reason'),
     attempts: integer('attempts').notNull().default(0),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
@@ -84,7 +86,7 @@ export const layoutProfiles = pgTable(
       .references(() => sites.id, { onDelete: 'cascade' }),
     fingerprint: text('fingerprint').notNull(),
     name: text('name').notNull(),
-    profile: jsonb('profile').$type<Record<string, unknown>>().notNull(),
+    profile: jsonb('profile').$type<LayoutProfile>().notNull(),
     confirmedBy: text('confirmed_by').references(() => user.id, { onDelete: 'set null' }),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },

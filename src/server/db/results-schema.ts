@@ -1,5 +1,6 @@
 import { sql } from 'drizzle-orm';
 import { doublePrecision, jsonb, pgTable, primaryKey, text, timestamp, uuid } from 'drizzle-orm/pg-core';
+import type { EngineReason } from '~/lib/engine/types';
 import { plantUnits } from './plant-schema';
 
 /** Hour states, in Lossline's words (src/lib/hour-states.ts). Only steady hours feed trends, baselines, drift. */
@@ -26,7 +27,7 @@ export const unitHours = pgTable(
     hourStart: timestamp('hour_start', { withTimezone: true }).notNull(),
     state: text('state').$type<HourState>().notNull(),
     /** Why the hour has its state: [{ code, message, tag? }], most severe first. */
-    reasons: jsonb('reasons').$type<{ code: string; message: string; tag?: string }[]>().notNull().default(sql`'[]'::jsonb`),
+    reasons: jsonb('reasons').$type<EngineReason[]>().notNull().default(sql`'[]'::jsonb`),
     /** The unit's load measure for the hour (its kind decides: power, steam flow ...) [W or kg/s]. */
     load: doublePrecision('load'),
     loadUnit: text('load_unit'),

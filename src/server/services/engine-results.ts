@@ -7,7 +7,7 @@ import { isId } from '../access';
 import { db } from '../db/client';
 import { AppError } from '../errors';
 import { plantUnits, sites, unitHours } from '../db/schema';
-import { csvCell } from './uploads';
+import { toCsv, type CsvCell } from '~/lib/csv-write';
 import { rebuildUnitHour } from './engine';
 
 /** Longest range one request may ask for: 400 days of hours. */
@@ -142,18 +142,16 @@ const CSV_FIELDS = [
 ] as const;
 
 /**
- * The hours as CSV (RFC 4180, CR LF), the JSON field names as the header; reasons as their codes
- * separated by '; '. Text cells a spreadsheet would run as a formula are neutralised (csvCell).
+ * The hours as CSV (RFC 4180, CR LF, written by Papa.unparse), the JSON field names as the header;
+ * reasons as their codes separated by '; '. Numbers are written as they are (a finite number is never
+ * a formula, and -0.3 stays a number); a text cell a spreadsheet would run as a formula is neutralised.
  */
 export function unitHoursCsv(rows: readonly UnitHourRow[], currency: string): string {
-  const lines = [CSV_FIELDS.join(',')];
-  for (const r of rows) {
-    const rec: Record<(typeof CSV_FIELDS)[number], unknown> = { ...r, reasons: r.reasons.map((x) => x.code).join('; '), currency };
-    // Numbers are written as they are (a finite number is never a formula, and '-0.3' must stay a number);
-    // every text goes through csvCell, which neutralises a leading = + - @ or control character.
-    lines.push(CSV_FIELDS.map((f) => (typeof rec[f] === 'number' ? String(rec[f]) : csvCell(rec[f]))).join(','));
-  }
-  return lines.join('\r\n') + '\r\n';
+  const records = rows.map((r) => {
+    const rec: Record<(typeof CSV_FIELDS)[number], CsvCell> = { ...r, reasons: r.reasons.map((x) => x.code).join('; '), currency };
+    return CSV_FIELDS.map((f) => rec[f]);
+  });
+  return toCsv([[...CSV_FIELDS], ...records]);
 }
 
 /** Every site's units with the state of their latest computed hour, for the results index. */

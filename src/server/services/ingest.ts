@@ -88,7 +88,7 @@ async function decideLayout(up: typeof uploads.$inferSelect, timeZone: string) {
   if (up.profileId) {
     // A person confirmed this layout for this very upload: no second guessing.
     const [p] = await db().select().from(layoutProfiles).where(eq(layoutProfiles.id, up.profileId));
-    if (p) return { profile: p.profile as unknown as LayoutProfile, saved: true as const, confirmed: true as const };
+    if (p) return { profile: p.profile, saved: true as const, confirmed: true as const };
   }
   const bytes = await headBytes(up.objectKey, SAMPLE_BYTES, up.sizeBytes);
   const decoder = createDecoder();
@@ -106,7 +106,7 @@ async function decideLayout(up: typeof uploads.$inferSelect, timeZone: string) {
     preview = [];
   }
   const sample = { text, complete };
-  if (known) return { profile: known.profile as unknown as LayoutProfile, saved: true as const, profileId: known.id, sniffed, preview, sample, encoding: decoder.decision };
+  if (known) return { profile: known.profile, saved: true as const, profileId: known.id, sniffed, preview, sample, encoding: decoder.decision };
   return { profile: sniffed, saved: false as const, preview, encoding: decoder.decision, sample };
 }
 
@@ -211,10 +211,10 @@ async function ingestLocked(uploadId: string, client: pg.PoolClient): Promise<In
       // A machine upload of a shape the file itself decides: keep the decision as the site's profile.
       const [saved] = await db()
         .insert(layoutProfiles)
-        .values({ siteId: up.siteId, fingerprint: profile.fingerprint, name: `detected from ${up.fileName}`, profile: profile as unknown as Record<string, unknown> })
+        .values({ siteId: up.siteId, fingerprint: profile.fingerprint, name: `detected from ${up.fileName}`, profile })
         .onConflictDoUpdate({ target: [layoutProfiles.siteId, layoutProfiles.fingerprint], set: { fingerprint: profile.fingerprint } })
         .returning();
-      profile = saved!.profile as unknown as LayoutProfile;
+      profile = saved!.profile;
       profileId = saved!.id;
     }
     const result = await readIntoTransaction(up, profile, timeZone, site?.createdAt ?? new Date(), client);

@@ -1,29 +1,19 @@
 /**
  * The monthly report as CSV: one file, sections one after the other, each with its own head row and
  * a blank line between them; units in the heads, numbers with a decimal point and no grouping. Every
- * cell goes through csvCell, so text a spreadsheet would run as a formula (=, +, -, @ ...) is
- * written as text (plain decimal numbers, negative ones included, stay numbers).
+ * record is written by Papa.unparse (csvLine), so text a spreadsheet would run as a formula (=, +, -,
+ * @ ...) is written as text (plain decimal numbers, negative ones included, stay numbers).
  */
-import { csvCell } from './uploads';
+import { csvLine, type CsvCell } from '~/lib/csv-write';
 import type { ReportData } from './report';
 import { fixed, mwhDecimals } from './report-format';
 
 const STATES = ['steady', 'unsettled', 'idle', 'suspect'] as const;
 
-/**
- * One cell. A plain decimal number (optionally negative) is written as it is, so a spreadsheet reads
- * -1.25 as a number; anything else goes through csvCell, which turns a would-be formula into text.
- */
-export function reportCell(v: unknown): string {
-  if (typeof v === 'number' && Number.isFinite(v)) return String(v);
-  if (typeof v === 'string' && /^-?\d+(\.\d+)?$/.test(v)) return v;
-  return csvCell(v);
-}
-
 /** The lines of the CSV, each already joined (CRLF is added by the writer). */
 export function reportCsvLines(r: ReportData): string[] {
   const cur = r.site.currency;
-  const line = (...cells: unknown[]) => cells.map(reportCell).join(',');
+  const line = (...cells: CsvCell[]) => csvLine(cells);
   const out: string[] = [];
   const dMWh = mwhDecimals(Math.max(0, ...r.ledger.rows.map((x) => x.destruction_MWh), r.ledger.totals.destruction_MWh));
 

@@ -3,6 +3,7 @@ import { Transform, type Readable } from 'node:stream';
 import { Upload } from '@aws-sdk/lib-storage';
 import { and, desc, eq, inArray, ne, sql } from 'drizzle-orm';
 import { INGEST_ERROR_CATALOGUE } from '~/lib/ingest/errors';
+import type { LayoutProfile } from '~/lib/ingest/profile';
 import { z } from 'zod';
 import { QUEUES, sendJob } from '~/jobs';
 import { db } from '../db/client';
@@ -243,7 +244,7 @@ export function uploadView(u: typeof uploads.$inferSelect) {
     summary: u.summary,
     // The layout and its questions while a person must answer (a machine upload stopped with a
     // layout question is failed, with the same detection).
-    detection: u.status === 'needs-review' || (u.status === 'failed' && (u.summary as { code?: string } | null)?.code === 'LAYOUT_QUESTION') ? u.detection : undefined,
+    detection: u.status === 'needs-review' || (u.status === 'failed' && u.summary?.code === 'LAYOUT_QUESTION') ? u.detection : undefined,
     reason: u.status === 'failed' ? u.failureReason : null,
     createdAt: u.createdAt,
     finishedAt: u.finishedAt,
@@ -266,9 +267,9 @@ export async function retryUpload(uploadId: string) {
 
 /** Saves the operator's confirmed layout as a profile of the site and queues the reading. A machine
  * upload stopped with a layout question (failed, LAYOUT_QUESTION) may be answered the same way. */
-export async function confirmLayout(uploadId: string, profile: Record<string, unknown> & { fingerprint: string }, name: string, userId: string) {
+export async function confirmLayout(uploadId: string, profile: LayoutProfile, name: string, userId: string) {
   const up = await getUploadRow(uploadId);
-  const askedMachine = up.status === 'failed' && (up.summary as { code?: string } | null)?.code === 'LAYOUT_QUESTION';
+  const askedMachine = up.status === 'failed' && up.summary?.code === 'LAYOUT_QUESTION';
   if (up.status !== 'needs-review' && !askedMachine) throw new AppError('CONFLICT', `This upload is ${up.status}, not waiting for a layout.`);
   const [saved] = await db()
     .insert(layoutProfiles)

@@ -6,7 +6,7 @@ import { ROLES, type Role } from '~/lib/roles';
 import { auth } from '../auth';
 import { db } from '../db/client';
 import { AppError } from '../errors';
-import { invitations, personSites, session, sites, user } from '../db/schema';
+import { invitations, personSites, sites, user } from '../db/schema';
 
 export { InviteInput, SitesInput };
 export const UpdateUserInput = z
@@ -82,8 +82,13 @@ async function adminCount(exceptUserId: string): Promise<number> {
   return row?.n ?? 0;
 }
 
-/** Changes a role or (de)activates an account; deactivation ends the person's sessions at once. */
-export async function updateUser(userId: string, input: z.infer<typeof UpdateUserInput>, actingUserId: string) {
+/**
+ * Changes a role or sites, or (de)activates an account. Deactivation is better-auth's admin plugin
+ * ban (no expiry), which ends the person's sessions at once; reactivation is its unban. Both are
+ * called with the acting admin's request headers (their session), as the plugin checks its caller.
+ */
+export async function updateUser(userId: string, input: z.infer<typeof UpdateUserInput>, acting: { userId: string; headers: Headers }) {
+  const actingUserId = acting.userId;
   const [target] = await db().select().from(user).where(eq(user.id, userId)).limit(1);
   if (!target) throw new AppError('NOT_FOUND', 'No such account.');
   const losesAdmin =
@@ -94,12 +99,18 @@ export async function updateUser(userId: string, input: z.infer<typeof UpdateUse
   if (userId === actingUserId && input.deactivated) {
     throw new AppError('CONFLICT', 'You cannot deactivate your own account.');
   }
-  const patch: Partial<{ role: Role; deactivated: boolean; updatedAt: Date }> = { updatedAt: new Date() };
+  const patch: Partial<{ role: Role; updatedAt: Date }> = { updatedAt: new Date() };
   if (input.role) patch.role = input.role;
-  if (input.deactivated !== undefined) patch.deactivated = input.deactivated;
   await db().transaction(async (tx) => {
     await tx.update(user).set(patch).where(eq(user.id, userId));
     if (input.sites !== undefined) await setSites(tx, userId, input.sites);
-    if (input.deactivated) await tx.delete(session).where(eq(session.userId, userId));
   });
+  if (input.deactivated === true && !target.deactivated) {
+    await auth().api.banUser({ body: { userId, banReason: DEACTIVATION_REASON }, headers: acting.headers });
+  } else if (input.deactivated === false && target.deactivated) {
+    await auth().api.unbanUser({ body: { userId }, headers: acting.headers });
+  }
 }
+
+/** The reason stored with a deactivation (the plugin's banReason). */
+const DEACTIVATION_REASON = 'Deactivated by a Lossline admin.';
