@@ -3,7 +3,14 @@ import { InstantText, endpoint, requireSite } from '~/server/endpoint';
 import { unitHeader, unitHourDetail } from '~/server/services/engine-results';
 
 /** The hour as it comes in the path (an encoded ISO 8601 instant, or ms). */
-const Params = z.object({ hour: z.string().transform((v) => decodeURIComponent(v)).pipe(InstantText) });
+const decoded = (v: string) => {
+  try {
+    return decodeURIComponent(v);
+  } catch {
+    return v; // a stray % is left for InstantText to refuse
+  }
+};
+const Params = z.object({ hour: z.string().transform(decoded).pipe(InstantText) });
 
 /**
  * One unit hour opened up: its stored figures and the audit trail (detail), rebuilt on demand from the
