@@ -1,4 +1,3 @@
-import { createHash } from 'node:crypto';
 import { APIError, betterAuth } from 'better-auth';
 import { drizzleAdapter } from 'better-auth/adapters/drizzle';
 import { createAuthMiddleware } from 'better-auth/api';
@@ -14,6 +13,7 @@ import * as schema from './db/schema';
 import { env, type AppEnv } from './env';
 import { escapeHtml, type OutgoingMail } from './mail';
 import { queue } from './queue';
+import { sha256Hex } from '~/lib/engine/hash';
 import type { Role } from '~/lib/roles';
 
 /** Minimum password length; better-auth rejects shorter ones with PASSWORD_TOO_SHORT. */
@@ -45,7 +45,7 @@ export const RESET_REQUEST_FLOOR_MS = 400;
 
 /** How reset and invitation tokens are stored: SHA-256 of the identifier, never the token itself. */
 export function hashIdentifier(identifier: string): string {
-  return createHash('sha256').update(identifier).digest('hex');
+  return sha256Hex(identifier);
 }
 
 /** The answer to a deactivated person's sign-in (code ACCOUNT_DEACTIVATED, 403). */

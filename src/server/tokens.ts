@@ -1,4 +1,5 @@
-import { createHash, randomBytes } from 'node:crypto';
+import { randomBytes } from 'node:crypto';
+import { sha256Hex } from '~/lib/engine/hash';
 import { and, eq, isNull, or } from 'drizzle-orm';
 import { isRole, type Role } from '../lib/roles';
 import { db } from './db/client';
@@ -7,7 +8,7 @@ import { apiTokens, user } from './db/schema';
 const PREFIX = 'llt_';
 
 export function hashToken(secret: string): string {
-  return createHash('sha256').update(secret).digest('hex');
+  return sha256Hex(secret);
 }
 
 /** Issues a token for a site; the secret is returned once and only its hash is stored. */
