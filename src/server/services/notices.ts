@@ -7,13 +7,13 @@
  * per person (notice_preferences, notice_digests).
  */
 import { personMayUseSite, siteScopeFor } from '../access';
-import { TZDate } from '@date-fns/tz';
-import { format } from 'date-fns';
 import { and, asc, desc, eq, gte, inArray, lt, ne, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import { z } from 'zod';
 import { QUEUES } from '~/jobs';
 import { unitFuelCost } from '~/lib/engine/unit-cost';
+import { siteDay, siteDayStart, siteMidnight } from '~/lib/site-time';
+import { DAY_MS, HOUR_MS, hourCeil, hourFloor } from '~/lib/time';
 import type { UnitKind } from '~/lib/plant/kinds';
 import { chartSeries, type ResidualHour } from '~/lib/analytics/notice-figures';
 import type { Role } from '~/lib/roles';
@@ -131,7 +131,7 @@ type NoticeRow = Awaited<ReturnType<ReturnType<typeof noticeQuery>['execute']>>[
 
 export type { NoticeView } from '~/lib/notice-view';
 
-const localDay = (d: Date, tz: string) => format(new TZDate(d.getTime(), tz), 'yyyy-MM-dd');
+const localDay = siteDay;
 
 function toView(r: NoticeRow): NoticeView {
   const n = r.n;
@@ -247,7 +247,7 @@ export async function getNotice(noticeId: string): Promise<NoticeView> {
 }
 
 /** Hours of context drawn before the onset and after the latest signal on a notice's chart. */
-const CHART_MARGIN_ms = 72 * 3_600_000;
+const CHART_MARGIN_ms = 72 * HOUR_MS;
 
 /**
  * A notice with its caution and its chart: the unit's residuals and the CUSUM sum in the notice's
@@ -273,7 +273,7 @@ export async function noticeDetail(noticeId: string) {
     .orderBy(asc(driftPoints.hourStart))
     .limit(24 * 800);
   const hours: ResidualHour[] = rows.map((r) => ({ hourStart_ms: r.hourStart.getTime(), residual_W: r.residual_W, hourU_W: null, cPlus: r.cPlus, cMinus: r.cMinus, signal: r.signal }));
-  const chart = chartSeries(hours, notice.direction, (ms) => new TZDate(ms, notice.timeZone).setHours(0, 0, 0, 0));
+  const chart = chartSeries(hours, notice.direction, (ms) => siteMidnight(ms, notice.timeZone));
   const events: NoticeChartEvent[] = [
     { t: notice.onsetHour, label: 'onset' },
     { t: notice.signalHour, label: 'signal' },
@@ -336,11 +336,8 @@ export async function acknowledgeNotice(noticeId: string, userId: string, commen
 
 /** A date given as YYYY-MM-DD is the start of that day in the site's time zone. */
 function siteDate(text: string, tz: string): Date {
-  if (/^\d{4}-\d{2}-\d{2}$/.test(text)) {
-    const [y, m, d] = text.split('-').map(Number) as [number, number, number];
-    return new Date(new TZDate(y, m - 1, d, 0, 0, 0, tz).getTime());
-  }
-  return new Date(text);
+  const day = siteDayStart(text, tz);
+  return day !== null ? new Date(day) : new Date(text);
 }
 
 /**
@@ -357,7 +354,7 @@ export async function closeNotice(noticeId: string, userId: string, comment: str
   if (repairedAt) {
     if (Number.isNaN(repairedAt.getTime())) throw new InsightError('VALIDATION_FAILED', 'The repair date is not a date.');
     if (repairedAt.getTime() < new Date(n.onsetHour).getTime()) throw new InsightError('VALIDATION_FAILED', 'The repair date is before the shift began.');
-    if (repairedAt.getTime() > Date.now() + 86_400_000) throw new InsightError('VALIDATION_FAILED', 'The repair date is in the future.');
+    if (repairedAt.getTime() > Date.now() + DAY_MS) throw new InsightError('VALIDATION_FAILED', 'The repair date is in the future.');
   }
   if (newNormalFrom && Number.isNaN(newNormalFrom.getTime())) throw new InsightError('VALIDATION_FAILED', 'The date of the new normal is not a date.');
   const closed = await inInsightTx(async (tx, exec) => {
@@ -369,10 +366,10 @@ export async function closeNotice(noticeId: string, userId: string, comment: str
     if (!done.length) return false;
     if (repairedAt) {
       const boss = await queue();
-      const hourMs = Math.floor(repairedAt.getTime() / 3_600_000) * 3_600_000;
+      const hourMs = hourFloor(repairedAt.getTime());
       await boss.send(
         QUEUES.checkDrift,
-        { siteId: n.siteId, fromMs: hourMs, toMs: Math.ceil(Date.now() / 3_600_000) * 3_600_000, unitIds: [n.unitId] },
+        { siteId: n.siteId, fromMs: hourMs, toMs: hourCeil(Date.now()), unitIds: [n.unitId] },
         { db: { executeSql: exec as never } },
       );
     }

@@ -1,5 +1,6 @@
 import type { z } from 'zod';
 import { ComputeUnitHoursPayload, QUEUES } from '~/jobs';
+import { hourCeil } from '~/lib/time';
 import type { ModelIssue } from '~/lib/plant/model';
 import { withTransaction, type Tx } from '../db/tx';
 import { queue } from '../queue';
@@ -18,12 +19,9 @@ export class PlantRuleError extends Error {
   }
 }
 
-/** One hour [ms]. */
-export const HOUR_ms = 3_600_000;
-
 /** The end of the current hour [ms]: where an open-ended recompute stops (no later hour has data). */
 export function openEndMs(now = Date.now()): number {
-  return Math.ceil(now / HOUR_ms) * HOUR_ms;
+  return hourCeil(now);
 }
 
 /**

@@ -8,7 +8,7 @@ import { csvCell } from './uploads';
 import type { ReportData } from './report';
 import { fixed, mwhDecimals } from './report-format';
 
-const STATES = ['steady', 'unsettled', 'idle', 'suspect'] as const;
+import { HOUR_STATES as STATES } from '~/lib/hour-states';
 
 /**
  * One cell. A plain decimal number (optionally negative) is written as it is, so a spreadsheet reads
