@@ -1,5 +1,4 @@
-import { TZDate } from '@date-fns/tz';
-import { format } from 'date-fns';
+import { siteNowWall, siteStamp, siteWallTime } from '~/lib/site-time';
 import type { ReactNode } from 'react';
 import { canConvert, fromSI, toSI, type Quantity } from '~/lib/units';
 import type { Message } from '~/components/api';
@@ -59,20 +58,18 @@ export function showInstant(iso: string | null | undefined, timeZone: string): s
   if (!iso) return '';
   const d = new Date(iso);
   if (d.getTime() === 0) return 'from the start';
-  return format(new TZDate(d.getTime(), timeZone), 'yyyy-MM-dd HH:mm');
+  return siteStamp(d, timeZone);
 }
 
 /** A 'yyyy-MM-ddTHH:mm' input read as wall time in the site's time zone, to an ISO instant. */
 export function wallTimeToIso(local: string, timeZone: string): string | null {
-  const m = /^(\d{4})-(\d{2})-(\d{2})(?:T(\d{2}):(\d{2}))?$/.exec(local.trim());
-  if (!m) return null;
-  const d = new TZDate(Number(m[1]), Number(m[2]) - 1, Number(m[3]), Number(m[4] ?? 0), Number(m[5] ?? 0), timeZone);
-  return new Date(d.getTime()).toISOString();
+  const ms = siteWallTime(local, timeZone);
+  return ms === null ? null : new Date(ms).toISOString();
 }
 
 /** Now as a 'yyyy-MM-ddTHH:mm' wall time in the site's time zone. */
 export function nowWallTime(timeZone: string): string {
-  return format(new TZDate(Date.now(), timeZone), "yyyy-MM-dd'T'HH:mm");
+  return siteNowWall(timeZone);
 }
 
 /** 'CH4=0.93, C2H6=0.04' to { CH4: 0.93, C2H6: 0.04 }; null when it does not read. */

@@ -1,7 +1,7 @@
 import { useEffect, useState } from 'react';
 import { Caution } from '../Caution';
 import { HourStateMark } from './HourStateMark';
-import { fmt, siteTime } from './format';
+import { fmt, fmtU, siteTime } from './format';
 import { call } from '~/components/api';
 import type { HourAudit as Detail, UnitHourDetailView as Hour, UnitInfo } from '~/lib/views/unit-hour';
 
@@ -92,12 +92,12 @@ export function HourDetail({ unit, hourStart, onClose }: { unit: UnitInfo; hourS
               <tr>
                 <td className="text-copper-deep">Exergy destruction D [kW] ± U (k = 2)</td>
                 <td className="num">
-                  {kW(b.destruction_W)} ± {kW(hour.destruction_U_W)}
+                  {fmtU(b.destruction_W, hour.destruction_U_W, 1, 1e-3)}
                 </td>
               </tr>
               <tr>
                 <td>Exergy efficiency P / F [%] ± U (k = 2)</td>
-                <td className="num">{b.efficiency === null ? 'none' : `${fmt(b.efficiency, 2, 100)} ± ${fmt(hour.efficiency_U, 2, 100)}`}</td>
+                <td className="num">{b.efficiency === null ? 'none' : fmtU(b.efficiency, hour.efficiency_U, 2, 100)}</td>
               </tr>
               <tr>
                 <td>T0 Sgen from the entropy balance [kW]</td>

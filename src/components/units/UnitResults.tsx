@@ -1,8 +1,9 @@
 import { useCallback, useEffect, useState } from 'react';
 import { HourDetail } from './HourDetail';
 import { HourStateMark } from './HourStateMark';
-import { fmt, siteDay, siteDayStart, siteTime } from './format';
+import { fmt, fmtU, siteDay, siteDayStart, siteTime } from './format';
 import { call } from '~/components/api';
+import { HOUR_STATES } from '~/lib/hour-states';
 import { DAY_MS } from '~/lib/time';
 import type { UnitHourView as HourRow, UnitInfo } from '~/lib/views/unit-hour';
 
@@ -71,7 +72,7 @@ export default function UnitResults({ unit, initialFrom, initialTo, initialHour 
         {rows && rows.length > 0 && (
           <p className="text-sm text-ink-soft" data-testid="state-counts">
             {rows.length} hours:{' '}
-            {(['steady', 'unsettled', 'idle', 'suspect'] as const)
+            {HOUR_STATES
               .filter((s) => counts[s])
               .map((s) => `${counts[s]} ${s}`)
               .join(', ')}
@@ -118,7 +119,7 @@ export default function UnitResults({ unit, initialFrom, initialTo, initialHour 
                     <td className="num text-copper-deep">{fmt(r.loss_W, 1, 1e-3)}</td>
                     <td className="num text-copper-deep">{fmt(r.destruction_W, 1, 1e-3)}</td>
                     <td className="num whitespace-nowrap">
-                      {r.efficiency === null ? '–' : `${fmt(r.efficiency, 1, 100)} ± ${fmt(r.efficiency_U, 1, 100)}`}
+                      {r.efficiency === null ? '–' : fmtU(r.efficiency, r.efficiency_U, 1, 100)}
                     </td>
                     <td className="num">{fmt(r.closure_pct, 2)}</td>
                     <td className="num">{fmt(r.destructionCost_per_h, 2)}</td>

@@ -20,6 +20,7 @@
  *
  * Pure: no I/O.
  */
+import { HOUR_MS } from '../time';
 
 /** AR(1) fit of hourly residuals. */
 export interface Ar1Fit {
@@ -38,7 +39,6 @@ export const PHI_MAX = 0.95;
 /** Fewest pairs of consecutive hours to fit phi on (two days); with fewer, phi = 0. Common practice. */
 export const MIN_AR1_PAIRS = 48;
 
-const HOUR_ms = 3_600_000;
 
 /**
  * Fits AR(1) by least squares through the origin on pairs of consecutive hours:
@@ -60,7 +60,7 @@ export function fitAr1(residuals: ArrayLike<number>, hourStartMs?: ArrayLike<num
   let sxx = 0;
   let pairs = 0;
   for (let i = 1; i < n; i++) {
-    if (hourStartMs && hourStartMs[i] - hourStartMs[i - 1] !== HOUR_ms) continue;
+    if (hourStartMs && hourStartMs[i] - hourStartMs[i - 1] !== HOUR_MS) continue;
     const a = residuals[i - 1];
     const b = residuals[i];
     if (!Number.isFinite(a) || !Number.isFinite(b)) continue;
@@ -81,7 +81,7 @@ export function fitAr1(residuals: ArrayLike<number>, hourStartMs?: ArrayLike<num
   const phi = Math.max(-PHI_MAX, Math.min(PHI_MAX, sxy / sxx));
   let sse = 0;
   for (let i = 1; i < n; i++) {
-    if (hourStartMs && hourStartMs[i] - hourStartMs[i - 1] !== HOUR_ms) continue;
+    if (hourStartMs && hourStartMs[i] - hourStartMs[i - 1] !== HOUR_MS) continue;
     const a = residuals[i - 1];
     const b = residuals[i];
     if (!Number.isFinite(a) || !Number.isFinite(b)) continue;
@@ -127,7 +127,7 @@ export function ar1Innovation(r: number, prev: { r: number; hoursBack: number } 
 export function prewhiten(residuals: ArrayLike<number>, hourStartMs: ArrayLike<number> | undefined, model: Ar1Model): number[] {
   const out: number[] = [];
   for (let i = 0; i < residuals.length; i++) {
-    const prev = i === 0 ? null : { r: residuals[i - 1], hoursBack: hourStartMs ? (hourStartMs[i] - hourStartMs[i - 1]) / HOUR_ms : 1 };
+    const prev = i === 0 ? null : { r: residuals[i - 1], hoursBack: hourStartMs ? (hourStartMs[i] - hourStartMs[i - 1]) / HOUR_MS : 1 };
     out.push(ar1Innovation(residuals[i], prev, model));
   }
   return out;

@@ -7,11 +7,10 @@
  *      efficiencies and costs in thermal systems", Energy 31 (2006) 1257-1289.
  * @see A. Bejan, G. Tsatsaronis and M. Moran, Thermal Design and Optimization (Wiley, 1996), ch. 8.
  */
+import { DAY_S, HOUR_S } from '../time';
 
 /** Joules in one megawatt hour [J/MWh]. */
 export const J_PER_MWH = 3.6e9;
-const S_PER_HOUR = 3600;
-const S_PER_DAY = 86400;
 
 function finite(name: string, v: number): void {
   if (!Number.isFinite(v)) throw new RangeError(`${name} = ${v} must be a finite number`);
@@ -88,12 +87,12 @@ export function destructionCost_per_s(cF_per_J: number, XD_W: number): number {
 
 /** Cost of one hour of destruction at XD_W [currency/h]. @param cF_per_J [currency/J] @param XD_W [W] */
 export function destructionCost_per_hour(cF_per_J: number, XD_W: number): number {
-  return destructionCost_per_s(cF_per_J, XD_W) * S_PER_HOUR;
+  return destructionCost_per_s(cF_per_J, XD_W) * HOUR_S;
 }
 
 /** Cost of one day of destruction at XD_W [currency/day]. @param cF_per_J [currency/J] @param XD_W [W] */
 export function destructionCost_per_day(cF_per_J: number, XD_W: number): number {
-  return destructionCost_per_s(cF_per_J, XD_W) * S_PER_DAY;
+  return destructionCost_per_s(cF_per_J, XD_W) * DAY_S;
 }
 
 /**
@@ -114,7 +113,7 @@ export function destructionCostOverHours(
   for (let i = 0; i < XD_W_perHour.length; i++) {
     const v = XD_W_perHour[i];
     if (!Number.isFinite(v)) continue;
-    XD_J += v * S_PER_HOUR;
+    XD_J += v * HOUR_S;
     counted++;
   }
   return { cost: cF_per_J * XD_J, XD_J, hoursCounted: counted, hoursSkipped: XD_W_perHour.length - counted };

@@ -22,6 +22,7 @@
  *   the windows overlap). Above it: growing; below minus it: receding; otherwise steady.
  * - Faded: see fadedAt. Clearly larger: see clearlyLarger. Repair verdict: see repairVerdict.
  */
+import { DAY_S, HOUR_MS } from '../time';
 
 /** Steady hours of the current figure (the last day of steady operation); common practice. */
 export const CURRENT_WINDOW_HOURS = 24;
@@ -40,7 +41,6 @@ export const LARGER_FACTOR = 1.5;
 export const LARGER_MARGIN = 1.5;
 /** Days in an average month (365.25 / 12), for the avoided cost per month. */
 export const DAYS_PER_MONTH = 365.25 / 12;
-const S_PER_DAY = 86_400;
 
 export type Direction = 'up' | 'down';
 export type Trend = 'growing' | 'steady' | 'receding';
@@ -145,7 +145,7 @@ export function liveFigures(sinceOnset: readonly ResidualHour[], sigma_W: number
 /** Cost per day of a shift [currency/day] and its uncertainty, at c_F [currency/J] (SPECO, Cdot_D = c_F Xdot_D). */
 export function costPerDay(f: Pick<ShiftFigure, 'mean_W' | 'U_W'>, cF_per_J: number | null): { cost_per_day: number | null; costU_per_day: number | null } {
   if (cF_per_J === null || !Number.isFinite(cF_per_J)) return { cost_per_day: null, costU_per_day: null };
-  return { cost_per_day: cF_per_J * f.mean_W * S_PER_DAY, costU_per_day: Number.isFinite(f.U_W) ? cF_per_J * f.U_W * S_PER_DAY : null };
+  return { cost_per_day: cF_per_J * f.mean_W * DAY_S, costU_per_day: Number.isFinite(f.U_W) ? cF_per_J * f.U_W * DAY_S : null };
 }
 
 /**
@@ -215,7 +215,7 @@ export function repairVerdict(before: ShiftFigure, after: ShiftFigure, direction
   const back = s * after.mean_W <= after.U_W;
   const avoided_W = s * (before.mean_W - after.mean_W);
   const avoidedU_W = Math.sqrt(before.U_W ** 2 + after.U_W ** 2);
-  const k = cF_per_J === null || !Number.isFinite(cF_per_J) ? null : cF_per_J * S_PER_DAY * DAYS_PER_MONTH;
+  const k = cF_per_J === null || !Number.isFinite(cF_per_J) ? null : cF_per_J * DAY_S * DAYS_PER_MONTH;
   return {
     back,
     before,
@@ -252,7 +252,7 @@ export const CHART_DAILY_ABOVE_HOURS = 24 * 14;
 export function chartSeries(hours: readonly ResidualHour[], direction: Direction, dayOf: (ms: number) => number): { span: 'hour' | 'day'; points: ChartPoint[] } {
   const c = (h: ResidualHour) => (direction === 'up' ? h.cPlus : h.cMinus) ?? 0;
   const sig = (h: ResidualHour) => h.signal === direction || h.signal === 'both';
-  const spanH = hours.length ? (hours[hours.length - 1]!.hourStart_ms - hours[0]!.hourStart_ms) / 3_600_000 : 0;
+  const spanH = hours.length ? (hours[hours.length - 1]!.hourStart_ms - hours[0]!.hourStart_ms) / HOUR_MS : 0;
   if (spanH <= CHART_DAILY_ABOVE_HOURS) {
     return { span: 'hour', points: hours.map((h) => ({ t: new Date(h.hourStart_ms).toISOString(), hours: 1, residual_W: h.residual_W, cusum: c(h), signal: sig(h) })) };
   }

@@ -15,8 +15,8 @@
 import type { HourState } from '../hour-states';
 import type { NormallyIdle, Weekday } from '../plant/idle';
 import { DEFAULT_RULE_HOURS, WEEKDAYS } from '../plant/idle';
+import { HOUR_MS } from '../time';
 
-const HOUR_ms = 3_600_000;
 
 export type RuleHourState = HourState;
 
@@ -133,7 +133,7 @@ export function longRuns(hours: readonly RuleHour[], crossing: (h: RuleHour) => 
   for (const h of hours) {
     const c = crossing(h);
     const hit = Array.isArray(c) ? c.length > 0 : c;
-    if (!hit || h.hourStartMs !== prevMs + HOUR_ms) close();
+    if (!hit || h.hourStartMs !== prevMs + HOUR_MS) close();
     if (hit) {
       run ??= { hours: [], crossed: new Set() };
       run.hours.push(h);

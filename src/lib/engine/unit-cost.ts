@@ -15,6 +15,7 @@ import type { UnitKind } from '../plant/kinds';
 import type { EnergyPrice, Fluid, FuelDefinition } from '../plant/model';
 import { costKindOf, electricityCost, fuelExergyCost, steamCost, type BoilerHour } from './cost';
 import type { CostBasis, EngineUnit } from './types';
+import { HOUR_S } from '../time';
 
 /** What the rule reads of a unit: its kind, a boiler's fuel, the fluids of its ports. */
 export interface CostUnit {
@@ -63,7 +64,7 @@ export function costOfHours(hours: readonly { destruction_W: number; destruction
   for (const h of hours) {
     if (h.destructionCost_per_h === null) continue;
     cost += h.destructionCost_per_h;
-    J += h.destruction_W * 3600;
+    J += h.destruction_W * HOUR_S;
     n++;
   }
   return n && J > 0 ? cost / J : null;

@@ -24,8 +24,8 @@ import { isId } from '../access';
 import { AppError } from '../errors';
 import { inInsightTx, type Tx } from './drift-tx';
 import { reconcileNotices } from './notice-life';
+import { HOUR_MS } from '~/lib/time';
 
-const HOUR_ms = 3_600_000;
 
 /**
  * CUSUM defaults on the standardised innovations (docs/domain.md section 7): k = 0.5 sigma (the
@@ -66,7 +66,7 @@ export async function setDriftSettings(unitId: string, input: z.infer<typeof Dri
       .onConflictDoUpdate({ target: driftSettings.unitId, set: { k: input.k, h: input.h, updatedBy: userId, updatedAt: new Date() } });
     await tx.delete(driftPoints).where(eq(driftPoints.unitId, unitId));
     const boss = await queue();
-    await sendJob(boss, QUEUES.checkDrift, { siteId: unit!.siteId, fromMs: 0, toMs: Math.ceil(Date.now() / HOUR_ms) * HOUR_ms, unitIds: [unitId] }, { db: { executeSql: exec as never } });
+    await sendJob(boss, QUEUES.checkDrift, { siteId: unit!.siteId, fromMs: 0, toMs: Math.ceil(Date.now() / HOUR_MS) * HOUR_MS, unitIds: [unitId] }, { db: { executeSql: exec as never } });
   });
   return driftSettingsFor(unitId);
 }
@@ -127,7 +127,7 @@ export async function checkUnit(unitId: string, fromMs: number): Promise<UnitChe
 
     // Rows of an earlier baseline say nothing about this one.
     await tx.delete(driftPoints).where(and(eq(driftPoints.unitId, unitId), ne(driftPoints.baselineId, b.id)));
-    const from = new Date(Math.max(Math.floor(fromMs / HOUR_ms) * HOUR_ms, b.periodTo.getTime()));
+    const from = new Date(Math.max(Math.floor(fromMs / HOUR_MS) * HOUR_MS, b.periodTo.getTime()));
     const [prev] = await tx
       .select()
       .from(driftPoints)
@@ -190,7 +190,7 @@ export async function checkUnit(unitId: string, fromMs: number): Promise<UnitChe
       const residual_W = h.destruction_W! - expected_W;
       // The standardised one-step innovation; after a gap of g hours the g-step prediction (autocorrelation.ts).
       // A baseline without spread (a perfect fit) gives no CUSUM input: the hour is counted as skipped, as before.
-      const x = ar1.sInnovation > 0 ? ar1Innovation(residual_W, last ? { r: last.r, hoursBack: (h.hourStart.getTime() - last.ms) / HOUR_ms } : null, ar1) : NaN;
+      const x = ar1.sInnovation > 0 ? ar1Innovation(residual_W, last ? { r: last.r, hoursBack: (h.hourStart.getTime() - last.ms) / HOUR_MS } : null, ar1) : NaN;
       last = { r: residual_W, ms: h.hourStart.getTime() };
       const r = cusumStep(state, x, options);
       state = r.state;

@@ -2,8 +2,8 @@
  * The texts of notice mails (opening, escalation, daily digest) and the lines of figures they share:
  * composition only, no I/O. Queueing them is the work of ./notices.ts.
  */
-import { TZDate } from '@date-fns/tz';
-import { format } from 'date-fns';
+import { fixed } from '~/lib/format';
+import { siteStampWithZone } from '~/lib/site-time';
 import { SAFETY_CAUTION } from '~/lib/caution';
 import type { NoticeView } from '~/lib/notice-view';
 import { escapeHtml } from '../mail';
@@ -16,9 +16,9 @@ const htmlCaution = () => `<p style="border:1px solid #c98a12;background:#f7e6bf
 const htmlBody = (headHtml: string, lines: string[], url: string) =>
   [`<p>${headHtml}</p>`, `<ul>${lines.map((l) => `<li>${escapeHtml(l)}</li>`).join('')}</ul>`, `<p><a href="${escapeHtml(url)}">Open the notice</a></p>`, htmlCaution()].join('\n');
 
-const kW = (W: number) => `${(W / 1000).toLocaleString('en-GB', { maximumFractionDigits: 1, minimumFractionDigits: 1 })} kW`;
-const money = (v: number, currency: string) => `${currency} ${v.toLocaleString('en-GB', { maximumFractionDigits: 0 })}`;
-const when = (iso: string, tz: string) => `${format(new TZDate(new Date(iso).getTime(), tz), 'yyyy-MM-dd HH:mm')} (${tz})`;
+const kW = (W: number) => `${fixed(W / 1000, 1, { group: ' ' })} kW`;
+const money = (v: number, currency: string) => `${currency} ${fixed(v, 0, { group: ' ' })}`;
+const when = siteStampWithZone;
 
 const signed = (W: number) => `${W >= 0 ? '+' : '-'}${kW(Math.abs(W))}`;
 

@@ -7,23 +7,21 @@
  * per person (notice_preferences, notice_digests).
  */
 import { personMayUseSite, siteScopeFor } from '../access';
-import { TZDate } from '@date-fns/tz';
-import { format } from 'date-fns';
-import { and, asc, desc, eq, gte, inArray, lt, ne, sql } from 'drizzle-orm';
-import { alias } from 'drizzle-orm/pg-core';
+import { and, asc, eq, inArray, ne, sql } from 'drizzle-orm';
 import { z } from 'zod';
-import { QUEUES, sendJob } from '~/jobs';
+import { QUEUES, sendJob, type SendMailPayload } from '~/jobs';
+type MailJob = z.infer<typeof SendMailPayload>;
 import { unitFuelCost } from '~/lib/engine/unit-cost';
+import { siteDayStart } from '~/lib/site-time';
+import { DAY_MS, hourCeil, hourFloor } from '~/lib/time';
 import type { UnitKind } from '~/lib/plant/kinds';
-import { chartSeries, type ResidualHour } from '~/lib/analytics/notice-figures';
 import type { Role } from '~/lib/roles';
 import { db } from '../db/client';
-import type { NoticeChartEvent, NoticeLife, NoticeView } from '~/lib/notice-view';
+import type { NoticeView } from '~/lib/notice-view';
 import {
   CLOSE_OUTCOMES,
   baselines,
   driftNotices,
-  driftPoints,
   noticeDigests,
   noticeEscalations,
   noticeMails,
@@ -34,21 +32,17 @@ import {
   sites,
   user,
   type CloseOutcome,
-  type NoticeStatus,
 } from '../db/schema';
-import { env } from '../env';
 import { queue } from '../queue';
 import { isId } from '../access';
 import { AppError } from '../errors';
 import { inInsightTx, type Exec, type Tx } from './drift-tx';
 import { digestMail, escalationMail, noticeMail } from './notice-mail';
-import { SAFETY_CAUTION } from '~/lib/caution';
-import { ruleViewFields } from './unit-rule-words';
 
 export { TREND_WORDS, digestMail, escalationMail, noticeFigureLines, noticeMail } from './notice-mail';
+export { NOTICE_SORTS, NOTICE_STATUS_WORDS, getNotice, listNotices, noticeDetail, noticeUrl, type NoticeSort, type NoticeView } from './notice-read';
+import { getNotice, listNotices, noticeQueryOn, toView } from './notice-read';
 
-/** The product's words for the statuses (docs/design.md): open, seen, closed. */
-export const NOTICE_STATUS_WORDS: Record<NoticeStatus, string> = { open: 'open', acknowledged: 'seen', closed: 'closed' };
 
 /** Who receives a notice's opening mail. */
 export const NOTICE_RECIPIENT_ROLES: readonly Role[] = ['planner', 'energy-lead'];
@@ -119,180 +113,6 @@ export async function setNoticeSettings(siteId: string, input: z.infer<typeof No
   return noticeSettingsFor(siteId);
 }
 
-// ---- reading -------------------------------------------------------------------------------------
-
-const acker = alias(user, 'acker');
-const closer = alias(user, 'closer');
-
-function noticeQuery() {
-  return noticeQueryOn(db());
-}
-
-type NoticeRow = Awaited<ReturnType<ReturnType<typeof noticeQuery>['execute']>>[number];
-
-export type { NoticeView } from '~/lib/notice-view';
-
-const localDay = (d: Date, tz: string) => format(new TZDate(d.getTime(), tz), 'yyyy-MM-dd');
-
-function toView(r: NoticeRow): NoticeView {
-  const n = r.n;
-  return {
-    id: n.id,
-    siteId: n.siteId,
-    siteName: r.siteName,
-    timeZone: r.timeZone,
-    unitId: n.unitId,
-    unitName: r.unitName,
-    unitKind: r.unitKind,
-    baselineId: n.baselineId,
-    baselineLabel:
-      r.baselineVersion !== null && r.baselinePeriodFrom && r.baselinePeriodTo
-        ? `Baseline v${r.baselineVersion} (${localDay(r.baselinePeriodFrom, r.timeZone)} to ${localDay(new Date(r.baselinePeriodTo.getTime() - 1), r.timeZone)})`
-        : null,
-    direction: n.direction,
-    ...ruleViewFields(n),
-    status: n.status,
-    statusWord: NOTICE_STATUS_WORDS[n.status],
-    onsetHour: n.onsetHour.toISOString(),
-    signalHour: n.signalHour.toISOString(),
-    lastSignalHour: n.lastSignalHour.toISOString(),
-    hours: n.hours,
-    extra_W: n.extra_W,
-    expected_W: n.expected_W,
-    shift_sigma: n.shift_sigma,
-    extraCost_per_day: n.extraCost_per_day,
-    currency: n.currency,
-    costBasis: n.costBasis,
-    hourU_W: n.hourU_W,
-    shiftU_W: n.shiftU_W,
-    exceedsUncertainty: n.exceedsUncertainty,
-    k: n.k,
-    h: n.h,
-    openedAt: n.openedAt.toISOString(),
-    acknowledgedBy: r.acknowledgedByName,
-    acknowledgedAt: n.acknowledgedAt?.toISOString() ?? null,
-    acknowledgeComment: n.acknowledgeComment,
-    closedBy: r.closedByName,
-    closedAt: n.closedAt?.toISOString() ?? null,
-    closeComment: n.closeComment,
-    url: noticeUrl(n.id),
-    headline_W: n.current_W ?? n.extra_W,
-    headlineU_W: n.current_W !== null ? n.currentU_W : n.shiftU_W,
-    headlineCost_per_day: n.current_W !== null ? n.currentCost_per_day : n.extraCost_per_day,
-    headlineCostU_per_day: n.current_W !== null ? n.currentCostU_per_day : null,
-    headlineExceeds: n.current_W !== null ? n.currentExceeds : n.exceedsUncertainty,
-    current_W: n.current_W,
-    currentU_W: n.currentU_W,
-    currentMeasU_W: n.currentMeasU_W,
-    currentHours: n.currentHours,
-    sinceOnset_W: n.sinceOnset_W,
-    sinceOnsetU_W: n.sinceOnsetU_W,
-    sinceOnsetHours: n.sinceOnsetHours,
-    trend: n.trend,
-    figuresHour: n.figuresHour?.toISOString() ?? null,
-    life: lifeOf(n),
-    fadedSince: n.fadedSince?.toISOString() ?? null,
-    supersededBy: n.supersededBy,
-    priorNoticeId: n.priorNoticeId,
-    priorReason: n.priorReason,
-    closeOutcome: n.closeOutcome,
-    repairedAt: n.repairedAt?.toISOString() ?? null,
-    newNormalFrom: n.newNormalFrom?.toISOString() ?? null,
-    verdict: n.verdict && n.verdictHour && n.verdictBack !== null ? { hour: n.verdictHour.toISOString(), back: n.verdictBack, ...n.verdict } : null,
-    followUpNoticeId: n.followUpNoticeId,
-    escalationStep: n.escalationStep,
-  };
-}
-
-function lifeOf(n: { status: NoticeStatus; fadedSince: Date | null; supersededBy: string | null }): NoticeLife {
-  return n.status === 'closed' ? 'closed' : n.supersededBy ? 'superseded' : n.fadedSince ? 'faded' : 'live';
-}
-
-export function noticeUrl(id: string): string {
-  return `${env().PUBLIC_BASE_URL.replace(/\/+$/, '')}/notices/${id}`;
-}
-
-export const NOTICE_SORTS = ['cost', 'newest'] as const;
-export type NoticeSort = (typeof NOTICE_SORTS)[number];
-
-/**
- * Notices, those not closed first. Within that, by default the largest current cost per day first
- * (notices without a cost after those with one), then the newest; sort 'newest' keeps the opening
- * order (open, then seen, newest first).
- */
-export async function listNotices(
-  filter: { status?: NoticeStatus | 'not-closed'; unitId?: string; siteId?: string; limit?: number; sort?: NoticeSort } = {},
-): Promise<NoticeView[]> {
-  const where = and(
-    filter.status === 'not-closed' ? ne(driftNotices.status, 'closed') : filter.status ? eq(driftNotices.status, filter.status) : undefined,
-    filter.unitId && isId(filter.unitId) ? eq(driftNotices.unitId, filter.unitId) : undefined,
-    filter.siteId && isId(filter.siteId) ? eq(driftNotices.siteId, filter.siteId) : undefined,
-  );
-  const closedLast = sql`case ${driftNotices.status} when 'closed' then 1 else 0 end`;
-  const order =
-    filter.sort === 'newest'
-      ? [sql`case ${driftNotices.status} when 'open' then 0 when 'acknowledged' then 1 else 2 end`, desc(driftNotices.openedAt)]
-      : [closedLast, sql`coalesce(${driftNotices.currentCost_per_day}, ${driftNotices.extraCost_per_day}) desc nulls last`, desc(driftNotices.openedAt)];
-  const rows = await noticeQuery()
-    .where(where)
-    .orderBy(...order)
-    .limit(filter.limit ?? 500);
-  return rows.map(toView);
-}
-
-export async function getNotice(noticeId: string): Promise<NoticeView> {
-  if (!isId(noticeId)) throw new AppError('NOT_FOUND', 'No such drift notice.');
-  const [r] = await noticeQuery().where(eq(driftNotices.id, noticeId));
-  if (!r) throw new AppError('NOT_FOUND', 'No such drift notice.');
-  return toView(r);
-}
-
-/** Hours of context drawn before the onset and after the latest signal on a notice's chart. */
-const CHART_MARGIN_ms = 72 * 3_600_000;
-
-/**
- * A notice with its caution and its chart: the unit's residuals and the CUSUM sum in the notice's
- * direction around it, per hour, or per local day over long spans (aggregated here, not in the page),
- * with the dated marks (onset, signal, faded, repair, verdict).
- */
-export async function noticeDetail(noticeId: string) {
-  const notice = await getNotice(noticeId);
-  const endIso = notice.verdict?.hour ?? notice.figuresHour ?? notice.lastSignalHour;
-  const from = new Date(new Date(notice.onsetHour).getTime() - CHART_MARGIN_ms);
-  const to = new Date(Math.max(new Date(endIso).getTime(), new Date(notice.lastSignalHour).getTime()) + CHART_MARGIN_ms);
-  const rows = await db()
-    .select({
-      hourStart: driftPoints.hourStart,
-      residual_W: driftPoints.residual_W,
-      x: driftPoints.x,
-      cPlus: driftPoints.cPlus,
-      cMinus: driftPoints.cMinus,
-      signal: driftPoints.signal,
-    })
-    .from(driftPoints)
-    .where(and(eq(driftPoints.unitId, notice.unitId), gte(driftPoints.hourStart, from), lt(driftPoints.hourStart, to)))
-    .orderBy(asc(driftPoints.hourStart))
-    .limit(24 * 800);
-  const hours: ResidualHour[] = rows.map((r) => ({ hourStart_ms: r.hourStart.getTime(), residual_W: r.residual_W, hourU_W: null, cPlus: r.cPlus, cMinus: r.cMinus, signal: r.signal }));
-  const chart = chartSeries(hours, notice.direction, (ms) => new TZDate(ms, notice.timeZone).setHours(0, 0, 0, 0));
-  const events: NoticeChartEvent[] = [
-    { t: notice.onsetHour, label: 'onset' },
-    { t: notice.signalHour, label: 'signal' },
-  ];
-  if (notice.lastSignalHour !== notice.signalHour) events.push({ t: notice.lastSignalHour, label: 'latest signal' });
-  if (notice.fadedSince) events.push({ t: notice.fadedSince, label: 'faded' });
-  if (notice.repairedAt) events.push({ t: notice.repairedAt, label: 'repaired' });
-  if (notice.verdict) events.push({ t: notice.verdict.hour, label: 'verdict' });
-  events.sort((x, y) => x.t.localeCompare(y.t));
-  return {
-    notice,
-    caution: SAFETY_CAUTION,
-    chart: { span: chart.span, points: chart.points, events },
-    /** The hourly rows as before (kept for API callers): residual [W], x and the sums [sigma]. */
-    series: rows.slice(0, 1000).map((r) => ({ hourStart: r.hourStart.toISOString(), residual_W: r.residual_W, x: r.x, cPlus: r.cPlus, cMinus: r.cMinus })),
-  };
-}
-
 // ---- acting --------------------------------------------------------------------------------------
 
 export const AcknowledgeInput = z.strictObject({ comment: z.string().trim().max(2000).optional() });
@@ -337,11 +157,8 @@ export async function acknowledgeNotice(noticeId: string, userId: string, commen
 
 /** A date given as YYYY-MM-DD is the start of that day in the site's time zone. */
 function siteDate(text: string, tz: string): Date {
-  if (/^\d{4}-\d{2}-\d{2}$/.test(text)) {
-    const [y, m, d] = text.split('-').map(Number) as [number, number, number];
-    return new Date(new TZDate(y, m - 1, d, 0, 0, 0, tz).getTime());
-  }
-  return new Date(text);
+  const day = siteDayStart(text, tz);
+  return day !== null ? new Date(day) : new Date(text);
 }
 
 /**
@@ -358,7 +175,7 @@ export async function closeNotice(noticeId: string, userId: string, comment: str
   if (repairedAt) {
     if (Number.isNaN(repairedAt.getTime())) throw new AppError('VALIDATION_FAILED', 'The repair date is not a date.');
     if (repairedAt.getTime() < new Date(n.onsetHour).getTime()) throw new AppError('VALIDATION_FAILED', 'The repair date is before the shift began.');
-    if (repairedAt.getTime() > Date.now() + 86_400_000) throw new AppError('VALIDATION_FAILED', 'The repair date is in the future.');
+    if (repairedAt.getTime() > Date.now() + DAY_MS) throw new AppError('VALIDATION_FAILED', 'The repair date is in the future.');
   }
   if (newNormalFrom && Number.isNaN(newNormalFrom.getTime())) throw new AppError('VALIDATION_FAILED', 'The date of the new normal is not a date.');
   const closed = await inInsightTx(async (tx, exec) => {
@@ -370,11 +187,10 @@ export async function closeNotice(noticeId: string, userId: string, comment: str
     if (!done.length) return false;
     if (repairedAt) {
       const boss = await queue();
-      const hourMs = Math.floor(repairedAt.getTime() / 3_600_000) * 3_600_000;
-      await sendJob(
-        boss,
+      const hourMs = hourFloor(repairedAt.getTime());
+      await boss.send(
         QUEUES.checkDrift,
-        { siteId: n.siteId, fromMs: hourMs, toMs: Math.ceil(Date.now() / 3_600_000) * 3_600_000, unitIds: [n.unitId] },
+        { siteId: n.siteId, fromMs: hourMs, toMs: hourCeil(Date.now()), unitIds: [n.unitId] },
         { db: { executeSql: exec as never } },
       );
     }
@@ -402,25 +218,13 @@ function noticeRecipients(tx: Tx, noticeId: string) {
  * @returns the addresses queued now
  */
 export async function queueNoticeMails(tx: Tx, exec: Exec, noticeId: string): Promise<string[]> {
-  const people = await noticeRecipients(tx, noticeId);
-  if (!people.length) return [];
-  const marked = await tx
-    .insert(noticeMails)
-    .values(people.map((p) => ({ noticeId, userId: p.id })))
-    .onConflictDoNothing()
-    .returning({ userId: noticeMails.userId });
-  if (!marked.length) return [];
-  const [r] = await noticeQueryOn(tx).where(eq(driftNotices.id, noticeId));
-  const view = toView(r!);
-  const boss = await queue();
-  const byId = new Map(people.map((p) => [p.id, p.email]));
-  const sent: string[] = [];
-  for (const m of marked) {
-    const to = byId.get(m.userId)!;
-    await sendJob(boss, QUEUES.sendMail, noticeMail(view, to), { retryLimit: 3, retryDelay: 30, db: { executeSql: exec as never } });
-    sent.push(to);
-  }
-  return sent;
+  return queueMarkedMails(
+    tx,
+    exec,
+    noticeId,
+    async (people) => tx.insert(noticeMails).values(people.map((p) => ({ noticeId, userId: p.id }))).onConflictDoNothing().returning({ userId: noticeMails.userId }),
+    noticeMail,
+  );
 }
 
 /**
@@ -429,13 +233,35 @@ export async function queueNoticeMails(tx: Tx, exec: Exec, noticeId: string): Pr
  * step is mailed at most once per person.
  */
 export async function queueEscalationMails(tx: Tx, exec: Exec, noticeId: string, step: number, fromCost_per_day: number, toCost_per_day: number): Promise<string[]> {
+  return queueMarkedMails(
+    tx,
+    exec,
+    noticeId,
+    async (people) =>
+      tx
+        .insert(noticeEscalations)
+        .values(people.map((p) => ({ noticeId, step, userId: p.id, cost_per_day: toCost_per_day })))
+        .onConflictDoNothing()
+        .returning({ userId: noticeEscalations.userId }),
+    (view, to) => escalationMail(view, to, step, fromCost_per_day, toCost_per_day),
+  );
+}
+
+/**
+ * The one marker-then-send loop of notice mails: mark the people who have not had this mail (the
+ * marker's unique key refuses a second), then queue one mail job for each person marked now, both
+ * in the caller's transaction. @returns the addresses queued now
+ */
+async function queueMarkedMails(
+  tx: Tx,
+  exec: Exec,
+  noticeId: string,
+  mark: (people: { id: string; email: string }[]) => Promise<{ userId: string }[]>,
+  compose: (view: NoticeView, to: string) => MailJob,
+): Promise<string[]> {
   const people = await noticeRecipients(tx, noticeId);
   if (!people.length) return [];
-  const marked = await tx
-    .insert(noticeEscalations)
-    .values(people.map((p) => ({ noticeId, step, userId: p.id, cost_per_day: toCost_per_day })))
-    .onConflictDoNothing()
-    .returning({ userId: noticeEscalations.userId });
+  const marked = await mark(people);
   if (!marked.length) return [];
   const [r] = await noticeQueryOn(tx).where(eq(driftNotices.id, noticeId));
   const view = toView(r!);
@@ -444,33 +270,10 @@ export async function queueEscalationMails(tx: Tx, exec: Exec, noticeId: string,
   const sent: string[] = [];
   for (const m of marked) {
     const to = byId.get(m.userId)!;
-    await sendJob(boss, QUEUES.sendMail, escalationMail(view, to, step, fromCost_per_day, toCost_per_day), { retryLimit: 3, retryDelay: 30, db: { executeSql: exec as never } });
+    await sendJob(boss, QUEUES.sendMail, compose(view, to), { retryLimit: 3, retryDelay: 30, db: { executeSql: exec as never } });
     sent.push(to);
   }
   return sent;
-}
-
-/** Notices with their unit, site, baseline and people, on the pool or a transaction. */
-function noticeQueryOn(tx: Pick<Tx, 'select'>) {
-  return tx
-    .select({
-      n: driftNotices,
-      unitName: plantUnits.name,
-      unitKind: plantUnits.kind,
-      siteName: sites.name,
-      timeZone: sites.timeZone,
-      baselineVersion: baselines.version,
-      baselinePeriodFrom: baselines.periodFrom,
-      baselinePeriodTo: baselines.periodTo,
-      acknowledgedByName: acker.name,
-      closedByName: closer.name,
-    })
-    .from(driftNotices)
-    .innerJoin(plantUnits, eq(plantUnits.id, driftNotices.unitId))
-    .innerJoin(sites, eq(sites.id, driftNotices.siteId))
-    .leftJoin(baselines, eq(baselines.id, driftNotices.baselineId))
-    .leftJoin(acker, eq(acker.id, driftNotices.acknowledgedBy))
-    .leftJoin(closer, eq(closer.id, driftNotices.closedBy));
 }
 
 /** Queues a notice's opening mails to whoever has not had one (idempotent; for retries by hand). */

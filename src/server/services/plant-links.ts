@@ -14,6 +14,7 @@ import { db } from '../db/client';
 import { plantPorts, plantUnits, tagLinks, tags } from '../db/schema';
 import { AppError } from '../errors';
 import { inTransaction, openEndMs, type Tx } from './plant-tx';
+import { HOUR_MS } from '~/lib/time';
 
 type Reader = Tx | ReturnType<typeof db>;
 
@@ -213,7 +214,7 @@ export async function setLink(siteId: string, input: LinkInput, createdBy: strin
         createdBy,
       })
       .returning();
-    const range = { siteId, fromMs: tMs, toMs: newTo ? newTo.getTime() : Math.max(openEndMs(), tMs + 3_600_000), unitIds: [unit.id] };
+    const range = { siteId, fromMs: tMs, toMs: newTo ? newTo.getTime() : Math.max(openEndMs(), tMs + HOUR_MS), unitIds: [unit.id] };
     await recompute(range);
     await tx.update(plantUnits).set({ updatedAt: new Date() }).where(eq(plantUnits.id, unit.id));
     return { link: row!, recompute: range };
@@ -234,7 +235,7 @@ export async function endLink(siteId: string, linkId: string, at: Date = new Dat
       throw new AppError('CONFLICT', 'This version does not hold at that instant; end the version that does.');
     }
     await tx.update(tagLinks).set({ validTo: at }).where(eq(tagLinks.id, linkId));
-    const range = { siteId, fromMs: atMs, toMs: row.validTo ? row.validTo.getTime() : Math.max(openEndMs(), atMs + 3_600_000), unitIds: [row.unitId] };
+    const range = { siteId, fromMs: atMs, toMs: row.validTo ? row.validTo.getTime() : Math.max(openEndMs(), atMs + HOUR_MS), unitIds: [row.unitId] };
     await recompute(range);
     return { recompute: range };
   });

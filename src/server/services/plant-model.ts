@@ -22,6 +22,7 @@ import { dataSpan, ensureTag, getSite, resolveAtmosphere, siteModel } from './pl
 import { AppError } from '../errors';
 import { inTransaction, openEndMs, type RecomputeRequest, type Tx } from './plant-tx';
 import { queueUnitRuleCheck } from './unit-rules';
+import { HOUR_MS } from '~/lib/time';
 
 /** The site's model file. */
 export async function exportModel(siteId: string): Promise<PlantModel> {
@@ -93,7 +94,7 @@ async function recomputeFor(tx: Tx, siteId: string, before: PlantModel | null, a
       continue;
     }
     const from = firstLinkDifferenceMs(old?.links ?? [], unit.links);
-    if (from !== null) out.push({ siteId, fromMs: from, toMs: Math.max(end, from + 3_600_000), unitIds: [id] });
+    if (from !== null) out.push({ siteId, fromMs: from, toMs: Math.max(end, from + HOUR_MS), unitIds: [id] });
   }
   return out;
 }

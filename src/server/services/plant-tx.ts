@@ -1,17 +1,16 @@
 import type { z } from 'zod';
 import { ComputeUnitHoursPayload, QUEUES, sendJob } from '~/jobs';
+import { hourCeil } from '~/lib/time';
 import { withTransaction, type Tx } from '../db/tx';
 import { queue } from '../queue';
 
 export type { Tx };
 export type RecomputeRequest = z.infer<typeof ComputeUnitHoursPayload>;
 
-/** One hour [ms]. */
-export const HOUR_ms = 3_600_000;
 
 /** The end of the current hour [ms]: where an open-ended recompute stops (no later hour has data). */
 export function openEndMs(now = Date.now()): number {
-  return Math.ceil(now / HOUR_ms) * HOUR_ms;
+  return hourCeil(now);
 }
 
 /**

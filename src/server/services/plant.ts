@@ -29,6 +29,7 @@ import { isId } from '../access';
 import { AppError } from '../errors';
 import { inTransaction, openEndMs, type Tx } from './plant-tx';
 import { queueUnitRuleCheck } from './unit-rules';
+import { HOUR_MS } from '~/lib/time';
 
 type Reader = Tx | ReturnType<typeof db>;
 
@@ -134,7 +135,7 @@ export async function dataSpan(r: Reader, siteId: string): Promise<{ fromMs: num
   );
   const row = res.rows[0];
   if (!row?.lo || !row.hi) return null;
-  return { fromMs: new Date(row.lo).getTime(), toMs: new Date(row.hi).getTime() + 3_600_000 };
+  return { fromMs: new Date(row.lo).getTime(), toMs: new Date(row.hi).getTime() + HOUR_MS };
 }
 
 // ---- units and ports ---------------------------------------------------------------------------

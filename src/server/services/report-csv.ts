@@ -8,7 +8,7 @@ import { csvLine, type CsvCell } from '~/lib/csv-write';
 import type { ReportData } from './report';
 import { fixed, mwhDecimals } from './report-format';
 
-const STATES = ['steady', 'unsettled', 'idle', 'suspect'] as const;
+import { HOUR_STATES as STATES } from '~/lib/hour-states';
 
 /** The lines of the CSV, each already joined (CRLF is added by the writer). */
 export function reportCsvLines(r: ReportData): string[] {

@@ -2,25 +2,19 @@
  * Number formatting of the report: fixed decimals chosen per quantity, a thin grouping space, units
  * said in the column heads. Pure.
  */
+import { fixed as fixedNumber, sizeDecimals, withU } from '~/lib/format';
 
-/** A number with a fixed count of decimals, '' when absent. `group` puts a space every three digits. */
+/** A number with a fixed count of decimals (src/lib/format.ts), '' when absent. `group` puts a space every three digits. */
 export function fixed(v: number | null | undefined, decimals: number, group = false): string {
-  if (v === null || v === undefined || !Number.isFinite(v)) return '';
-  const s = v.toFixed(decimals);
-  if (!group) return s;
-  const [int, frac] = s.split('.');
-  const sign = int!.startsWith('-') ? '-' : '';
-  const digits = sign ? int!.slice(1) : int!;
-  const grouped = digits.replace(/\B(?=(\d{3})+(?!\d))/g, ' ');
-  return sign + grouped + (frac !== undefined ? '.' + frac : '');
+  return fixedNumber(v, decimals, { group: group ? ' ' : '', none: '' });
 }
 
 /** Decimals that keep about three significant figures of MWh without pretending more. */
-export function mwhDecimals(maxAbs: number): number {
-  if (maxAbs >= 100) return 0;
-  if (maxAbs >= 10) return 1;
-  if (maxAbs >= 1) return 2;
-  return 3;
+export const mwhDecimals = sizeDecimals;
+
+/** Value and U at the decimals U asks for, "a ± b" ('' when absent); `group` as for fixed. */
+export function fixedU(v: number | null | undefined, U: number | null | undefined, decimals: number, group = false): string {
+  return withU(v, U, { decimals, group: group ? ' ' : '', none: '' });
 }
 
 /** Efficiency [-] to percent with one decimal. */

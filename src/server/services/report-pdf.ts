@@ -155,7 +155,7 @@ class Writer {
   }
 }
 
-const STATES = ['steady', 'unsettled', 'idle', 'suspect'] as const;
+import { HOUR_STATES as STATES } from '~/lib/hour-states';
 
 /** Writes the report; returns the pdfkit document (a readable stream), already ended. */
 export function reportPdf(r: ReportData): PDFKit.PDFDocument {

@@ -2,8 +2,8 @@
  * The words of idle and limit notices (src/server/services/unit-rules.ts) in the notice view, the
  * opening mail and the digest. Kept apart from notices.ts, which calls into it for these kinds.
  */
-import { TZDate } from '@date-fns/tz';
-import { format } from 'date-fns';
+import { fixed } from '~/lib/format';
+import { siteStampWithZone } from '~/lib/site-time';
 import type { NoticeKind, NoticeView } from '~/lib/notice-view';
 import { escapeHtml } from '../mail';
 
@@ -28,9 +28,9 @@ export function ruleViewFields(n: {
   };
 }
 
-const kW = (W: number) => `${(W / 1000).toLocaleString('en-GB', { maximumFractionDigits: 1, minimumFractionDigits: 1 })} kW`;
-const money = (v: number, currency: string) => `${currency} ${v.toLocaleString('en-GB', { maximumFractionDigits: 0 })}`;
-const when = (iso: string, tz: string) => `${format(new TZDate(new Date(iso).getTime(), tz), 'yyyy-MM-dd HH:mm')} (${tz})`;
+const kW = (W: number) => `${fixed(W / 1000, 1, { group: ' ' })} kW`;
+const money = (v: number, currency: string) => `${currency} ${fixed(v, 0, { group: ' ' })}`;
+const when = siteStampWithZone;
 
 /** One line saying why the notice opened. */
 export function ruleReason(n: NoticeView): string {

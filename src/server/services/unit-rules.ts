@@ -23,10 +23,10 @@ import { isId } from '../access';
 import { AppError } from '../errors';
 import { inInsightTx, type Exec, type Tx } from './drift-tx';
 import { queueNoticeMails } from './notices';
+import { HOUR_MS } from '~/lib/time';
 
-const HOUR_ms = 3_600_000;
 /** How far before the checked hours a run is looked for (a run that began earlier keeps its onset). */
-const LOOKBACK_ms = 31 * 24 * HOUR_ms;
+const LOOKBACK_ms = 31 * 24 * HOUR_MS;
 
 // ---- limits (energy leads) ---------------------------------------------------------------------------
 
@@ -74,7 +74,7 @@ export async function setUnitLimits(unitId: string, input: z.input<typeof UnitLi
 /** Queues a check of every hour of the units (after a rule changed); in the caller's transaction when `exec` is given. */
 export async function queueUnitRuleCheck(siteId: string, unitIds?: string[], exec?: Exec): Promise<void> {
   const boss = await queue();
-  const payload = CheckUnitRulesPayload.parse({ siteId, fromMs: 0, toMs: Math.ceil(Date.now() / HOUR_ms) * HOUR_ms, ...(unitIds ? { unitIds } : {}) });
+  const payload = CheckUnitRulesPayload.parse({ siteId, fromMs: 0, toMs: Math.ceil(Date.now() / HOUR_MS) * HOUR_MS, ...(unitIds ? { unitIds } : {}) });
   await sendJob(boss, QUEUES.checkUnitRules, payload, exec ? { db: { executeSql: exec as never } } : { retryLimit: 2, retryDelay: 10 });
 }
 

@@ -1,5 +1,5 @@
-import { TZDate } from '@date-fns/tz';
-import { format } from 'date-fns';
+import { fixed } from '~/lib/format';
+import { siteDay, siteDayStart, siteStamp } from '~/lib/site-time';
 import type { MarkShape } from '~/components/StateMark';
 
 /** Baseline statuses in words and shapes; colour is only a third cue. */
@@ -17,24 +17,19 @@ export const CHECK_LOOK = {
 };
 
 /** A value in percent with one decimal (fractions in). */
-export const pct = (v: number | null | undefined) => (v === null || v === undefined || !Number.isFinite(v) ? '–' : (v * 100).toFixed(1));
-export const kW = (W: number | null | undefined, digits = 1) => (W === null || W === undefined || !Number.isFinite(W) ? '–' : (W / 1000).toFixed(digits));
+export const pct = (v: number | null | undefined) => fixed(v === null || v === undefined ? v : v * 100, 1, { none: '–' });
+/** A power [W] in kW. */
+export const kW = (W: number | null | undefined, digits = 1) => fixed(W === null || W === undefined ? W : W / 1000, digits, { none: '–' });
+/** A number to `digits` significant figures. */
 export const sig = (v: number | null | undefined, digits = 4) => (v === null || v === undefined || !Number.isFinite(v) ? '–' : Number(v.toPrecision(digits)).toString());
 
 /** An instant as 'yyyy-MM-dd HH:mm' in a time zone. */
-export const at = (iso: string | null | undefined, tz: string) => (iso ? format(new TZDate(new Date(iso).getTime(), tz), 'yyyy-MM-dd HH:mm') : '');
+export const at = (iso: string | null | undefined, tz: string) => (iso ? siteStamp(iso, tz) : '');
 /** An instant as 'yyyy-MM-dd' in a time zone. */
-export const dayOf = (iso: string, tz: string) => format(new TZDate(new Date(iso).getTime(), tz), 'yyyy-MM-dd');
+export const dayOf = (iso: string, tz: string) => siteDay(iso, tz);
 
+const isoOf = (ms: number | null) => (ms === null ? null : new Date(ms).toISOString());
 /** The start of a 'yyyy-MM-dd' day in a time zone, as an ISO instant. */
-export function dayStartIso(day: string, tz: string): string | null {
-  const m = /^(\d{4})-(\d{2})-(\d{2})$/.exec(day.trim());
-  if (!m) return null;
-  return new Date(new TZDate(Number(m[1]), Number(m[2]) - 1, Number(m[3]), 0, 0, tz).getTime()).toISOString();
-}
+export const dayStartIso = (day: string, tz: string): string | null => isoOf(siteDayStart(day.trim(), tz));
 /** The end of a 'yyyy-MM-dd' day in a time zone (the next day's start), as an ISO instant. */
-export function dayEndIso(day: string, tz: string): string | null {
-  const m = /^(\d{4})-(\d{2})-(\d{2})$/.exec(day.trim());
-  if (!m) return null;
-  return new Date(new TZDate(Number(m[1]), Number(m[2]) - 1, Number(m[3]) + 1, 0, 0, tz).getTime()).toISOString();
-}
+export const dayEndIso = (day: string, tz: string): string | null => isoOf(siteDayStart(day.trim(), tz, 1));

@@ -308,7 +308,7 @@ export default function NoticePanel({
             </tr>
             <tr>
               <td>Cost basis</td>
-              <td className="num">{n.costBasis ?? 'none: the hours carry no cost and the site has no fuel price'}</td>
+              <td className="num">{n.costBasis ?? "none: the hours carry no cost and the site has no price for the unit's fuel"}</td>
             </tr>
             <tr>
               <td>Cumulative sum settings</td>

@@ -1,3 +1,4 @@
+import { fixed } from '~/lib/format';
 import type { MarkShape } from '~/components/StateMark';
 import type { CloseOutcome, NoticeLife, NoticeTrend, PriorReason } from '~/lib/notice-view';
 
@@ -48,6 +49,6 @@ export interface SeriesPoint {
   cMinus: number;
 }
 
-export const signedKW = (W: number) => `${W >= 0 ? '+' : '−'}${(Math.abs(W) / 1000).toFixed(1)}`;
-export const plusMinusKW = (U: number | null) => (U === null || !Number.isFinite(U) ? '' : `± ${(U / 1000).toFixed(1)}`);
-export const money = (v: number | null) => (v === null ? '–' : v.toLocaleString('en-GB', { maximumFractionDigits: 0 }));
+export const signedKW = (W: number) => `${W >= 0 ? '+' : '−'}${fixed(Math.abs(W) / 1000, 1)}`;
+export const plusMinusKW = (U: number | null) => (U === null || !Number.isFinite(U) ? '' : `± ${fixed(U / 1000, 1)}`);
+export const money = (v: number | null) => fixed(v, 0, { none: '–' });

@@ -6,6 +6,7 @@
  */
 import { COLORS } from './common';
 import { mwh, mwhDecimals } from './format';
+import { withU } from '~/lib/format';
 import type { FlowAnswer } from '~/lib/views/ledger';
 
 export type { FlowAnswer };
@@ -179,7 +180,7 @@ export function FlowPicture({ flow }: { flow: FlowAnswer }) {
             return (
               <g key={`dn-${u.unitId}`}>
                 <rect x={COL.out} y={n.y} width={NODE_W} height={Math.max(n.h, 1)} fill={COLORS.copper} />
-                {label(COL.out + NODE_W + 6, mid(n), `Destroyed in ${u.name}`, `${mwh(u.destruction_MWh)} MWh ± ${mwh(u.destruction_U_MWh, mwhDecimals(u.destruction_MWh))} MWh`, 'start', COLORS.copperDeep)}
+                {label(COL.out + NODE_W + 6, mid(n), `Destroyed in ${u.name}`, withU(u.destruction_MWh, u.destruction_U_MWh, { unit: 'MWh', decimals: mwhDecimals(u.destruction_MWh) }), 'start', COLORS.copperDeep)}
               </g>
             );
           })}

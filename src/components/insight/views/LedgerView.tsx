@@ -8,7 +8,8 @@ import { useApi } from '~/components/api';
 import { FlowPicture } from './FlowPicture';
 import { HOUR_STATES as STATES } from '~/lib/hour-states';
 import type { FlowAnswer, LedgerAnswer } from '~/lib/views/ledger';
-import { money, mwh, mwhDecimals, pct, type HourState } from './format';
+import { money, moneyDecimals, mwh, mwhDecimals, pct } from './format';
+import { withU } from '~/lib/format';
 import { PeriodPicker, periodFromSearch, periodQuery, syncSearch, type PeriodInfo, type PeriodValue } from './PeriodPicker';
 
 
@@ -79,13 +80,11 @@ export default function LedgerView({ sites, initialSiteId, initialSearch }: { si
           <div className="flex flex-wrap items-baseline justify-between gap-2">
             <h2>Loss ledger</h2>
             <p className="text-sm text-ink-soft" data-testid="ledger-total">
-              Site total: <b>{mwh(l.totals.destruction_MWh, d)} MWh ± {mwh(l.totals.destruction_U_MWh, d)} MWh</b> destroyed
+              Site total: <b>{withU(l.totals.destruction_MWh, l.totals.destruction_U_MWh, { unit: 'MWh', decimals: d })}</b> destroyed
               {l.totals.cost !== null && (
                 <>
                   , costing{' '}
-                  <b>
-                    {money(l.totals.cost)} {cur} ± {money(l.totals.cost_U)} {cur}
-                  </b>
+                  <b>{withU(l.totals.cost, l.totals.cost_U, { unit: cur, decimals: moneyDecimals(l.totals.cost) })}</b>
                 </>
               )}
             </p>
@@ -124,10 +123,10 @@ export default function LedgerView({ sites, initialSiteId, initialSearch }: { si
                     </td>
                     <td className="text-ink-soft">{r.kindLabel}</td>
                     <td className="num">
-                      {mwh(r.destruction_MWh, Math.max(d, mwhDecimals(r.destruction_MWh)))} ± {mwh(r.destruction_U_MWh, Math.max(d, mwhDecimals(r.destruction_MWh)))}
+                      {withU(r.destruction_MWh, r.destruction_U_MWh, { decimals: Math.max(d, mwhDecimals(r.destruction_MWh)) })}
                     </td>
                     <td className="num" title={r.hoursWithoutCost ? `${r.hoursWithoutCost} steady hours have no price for the unit's fuel` : undefined}>
-                      {r.cost === null ? (r.hours.steady ? 'no price' : '—') : `${money(r.cost)} ± ${money(r.cost_U)}`}
+                      {r.cost === null ? (r.hours.steady ? 'no price' : '—') : withU(r.cost, r.cost_U, { decimals: moneyDecimals(r.cost) })}
                       {r.cost !== null && r.hoursWithoutCost > 0 && <span className="text-amber"> *</span>}
                     </td>
                     <td className="num">
@@ -148,9 +147,9 @@ export default function LedgerView({ sites, initialSiteId, initialSearch }: { si
                   <td>Site total</td>
                   <td />
                   <td className="num">
-                    {mwh(l.totals.destruction_MWh, d)} ± {mwh(l.totals.destruction_U_MWh, d)}
+                    {withU(l.totals.destruction_MWh, l.totals.destruction_U_MWh, { decimals: d })}
                   </td>
-                  <td className="num">{l.totals.cost === null ? '—' : `${money(l.totals.cost)} ± ${money(l.totals.cost_U)}`}</td>
+                  <td className="num">{l.totals.cost === null ? '—' : withU(l.totals.cost, l.totals.cost_U, { decimals: moneyDecimals(l.totals.cost) })}</td>
                   <td className="num">{anyHours ? '100.0' : '—'}</td>
                   <td />
                   {STATES.map((s) => (

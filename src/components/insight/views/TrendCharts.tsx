@@ -4,7 +4,9 @@
  * axis, and the scatter against load with the baseline's curve.
  */
 import { TZDate } from '@date-fns/tz';
-import { addDays, addHours, addMonths, format } from 'date-fns';
+import { addDays, addHours, addMonths } from 'date-fns';
+import { siteStamp } from '~/lib/site-time';
+import { HOUR_MS } from '~/lib/time';
 import {
   Area,
   CartesianGrid,
@@ -91,7 +93,7 @@ export function niceTicks(values: (number | null | undefined)[]): { domain: [num
 
 /** Tick instants on the site's clock for a period. */
 export function timeTicks(fromMs: number, toMs: number, timeZone: string): { ticks: number[]; pattern: string } {
-  const hours = (toMs - fromMs) / 3_600_000;
+  const hours = (toMs - fromMs) / HOUR_MS;
   const start = new TZDate(fromMs, timeZone);
   const out: number[] = [];
   let pattern = 'HH:mm';
@@ -128,7 +130,7 @@ type Kind = 'efficiency' | 'destruction';
 function TrendTooltip({ active, payload, kind, timeZone, bucket, loadUnit }: { active?: boolean; payload?: { payload: ChartRow }[]; kind: Kind; timeZone: string; bucket: 'hour' | 'day'; loadUnit: string | null }) {
   if (!active || !payload?.length) return null;
   const p = payload[0]!.payload.point;
-  const when = bucket === 'hour' ? `${siteTime(p.t, timeZone)}–${siteTime(p.t + 3_600_000, timeZone, 'HH:mm')}` : siteTime(p.t, timeZone, 'EEE d MMM yyyy');
+  const when = bucket === 'hour' ? `${siteTime(p.t, timeZone)}–${siteTime(p.t + HOUR_MS, timeZone, 'HH:mm')}` : siteTime(p.t, timeZone, 'EEE d MMM yyyy');
   const states = (Object.keys(p.states) as HourState[]).filter((s) => p.states[s] > 0);
   const e = p.expected;
   return (
@@ -225,7 +227,7 @@ export function TimeChart({
             scale="time"
             domain={[fromMs, toMs]}
             ticks={ticks}
-            tickFormatter={(t: number) => format(new TZDate(t, timeZone), pattern)}
+            tickFormatter={(t: number) => siteStamp(t, timeZone, pattern)}
             tick={{ fontSize: 11, fill: COLORS.soft }}
             allowDataOverflow
           />

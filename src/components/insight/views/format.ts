@@ -2,9 +2,10 @@
  * Display formatting of the views: SI values from the API to the units people read (%, kW or MW,
  * MWh), always with the unit and, where known, the expanded uncertainty; instants in the site's clock.
  */
-import { TZDate } from '@date-fns/tz';
-import { format } from 'date-fns';
+import { fixed, pairU, sizeDecimals, withU } from '~/lib/format';
+import { siteStamp } from '~/lib/site-time';
 
+export { pairU };
 import type { HourState } from '~/lib/hour-states';
 export type { HourState };
 
@@ -15,15 +16,12 @@ export const STATE_LABELS: Record<HourState, string> = {
   suspect: 'suspect',
 };
 
-function dec(v: number, decimals: number): string {
-  return v.toLocaleString('en-GB', { minimumFractionDigits: decimals, maximumFractionDigits: decimals }).replace(/,/g, '\u2009');
-}
+const dec = (v: number, decimals: number): string => fixed(v, decimals);
 
-/** Efficiency [-] as "71.3 %" or "71.3 % ± 1.2 %". */
+/** Efficiency [-] as "71.3 %" or "71.3 % ± 1.2 %" (the decimals of U when it is known). */
 export function pct(v: number | null | undefined, U?: number | null, decimals = 1): string {
   if (v === null || v === undefined || !Number.isFinite(v)) return '—';
-  const a = `${dec(v * 100, decimals)} %`;
-  return U !== null && U !== undefined && Number.isFinite(U) ? `${a} ± ${dec(U * 100, decimals)} %` : a;
+  return withU(v * 100, U === null || U === undefined ? null : U * 100, { unit: '%', decimals });
 }
 
 /** A display unit for powers [W] of this size: kW below 10 MW, MW above. */
@@ -41,9 +39,7 @@ export function power(v_W: number | null | undefined, U_W?: number | null, unit?
   if (v_W === null || v_W === undefined || !Number.isFinite(v_W)) return '—';
   const u = unit ?? powerUnit(Math.abs(v_W));
   const x = v_W / u.factor;
-  const d = powerDecimals(x);
-  const a = `${dec(x, d)} ${u.unit}`;
-  return U_W !== null && U_W !== undefined && Number.isFinite(U_W) ? `${a} ± ${dec(U_W / u.factor, d)} ${u.unit}` : a;
+  return withU(x, U_W === null || U_W === undefined ? null : U_W / u.factor, { unit: u.unit, decimals: powerDecimals(x) });
 }
 
 /** Energy [MWh] with about three significant figures. */
@@ -52,14 +48,15 @@ export function mwh(v: number | null | undefined, decimals?: number): string {
   return dec(v, decimals ?? mwhDecimals(Math.abs(v)));
 }
 
-export function mwhDecimals(maxAbs: number): number {
-  return maxAbs >= 100 ? 0 : maxAbs >= 10 ? 1 : maxAbs >= 1 ? 2 : 3;
-}
+export const mwhDecimals = sizeDecimals;
+
+/** Decimals of money: whole units, cents below 100. */
+export const moneyDecimals = (v: number): number => (Math.abs(v) < 100 ? 2 : 0);
 
 /** Money in the site's currency, whole units (cents below 100). */
 export function money(v: number | null | undefined, currency?: string): string {
   if (v === null || v === undefined || !Number.isFinite(v)) return '—';
-  const s = dec(v, Math.abs(v) < 100 ? 2 : 0);
+  const s = dec(v, moneyDecimals(v));
   return currency ? `${s} ${currency}` : s;
 }
 
@@ -69,9 +66,7 @@ export function num(v: number | null | undefined, decimals = 0): string {
 }
 
 /** An instant in the site's clock. */
-export function siteTime(ms: number, timeZone: string, pattern = 'EEE d MMM yyyy, HH:mm'): string {
-  return format(new TZDate(ms, timeZone), pattern);
-}
+export const siteTime = (ms: number, timeZone: string, pattern = 'EEE d MMM yyyy, HH:mm'): string => siteStamp(ms, timeZone, pattern);
 
 /** A load with its unit as the engine reports it ('-' means a fraction of rating). */
 export function load(v: number | null | undefined, unit: string | null): string {

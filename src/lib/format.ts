@@ -1,0 +1,78 @@
+/**
+ * Numbers as people read them, one rule for pages, islands, mails and reports:
+ * - a fixed count of decimals, never "-0.0" (a value that rounds to zero shows without its sign);
+ * - digits grouped by three with a thin space (SI Brochure, 9th ed., 5.4.4), or a given separator;
+ * - a value with its expanded uncertainty U: U to two significant digits and the value to the same
+ *   decimal place (JCGM 100:2008, 7.2.6), "1 567 ± 70", never "1 567 ± 69.95".
+ * Pure; no locale.
+ */
+
+/** The grouping separator of displays: a thin space. */
+export const THIN_SPACE = '\u2009';
+
+export interface NumberStyle {
+  /** Separator of thousands; '' for none (machine-read CSV). Default THIN_SPACE. */
+  group?: string;
+  /** What an absent or non-finite value shows as. Default '—'. */
+  none?: string;
+}
+
+const absent = (v: number | null | undefined): v is null | undefined => v === null || v === undefined || !Number.isFinite(v);
+
+/** A number with `decimals` decimals, grouped, never "-0". */
+export function fixed(v: number | null | undefined, decimals: number, style: NumberStyle = {}): string {
+  if (absent(v)) return style.none ?? '—';
+  let s = v.toFixed(Math.max(0, Math.min(20, Math.round(decimals))));
+  if (/^-0(\.0*)?$/.test(s)) s = s.slice(1);
+  const group = style.group ?? THIN_SPACE;
+  if (!group) return s;
+  const [int, frac] = s.split('.') as [string, string | undefined];
+  const sign = int.startsWith('-') ? '-' : '';
+  const grouped = (sign ? int.slice(1) : int).replace(/\B(?=(\d{3})+(?!\d))/g, group);
+  return sign + grouped + (frac !== undefined ? `.${frac}` : '');
+}
+
+/**
+ * Decimals that show an uncertainty with two significant digits (0 for U >= 10), at most `max`.
+ * @param U expanded uncertainty in the unit shown, > 0
+ */
+export function decimalsForU(U: number, max = 6): number {
+  if (!(U > 0) || !Number.isFinite(U)) return 0;
+  return Math.min(max, Math.max(0, 1 - Math.floor(Math.log10(U))));
+}
+
+export interface UStyle extends NumberStyle {
+  /** Decimals when there is no uncertainty to match (default 1). */
+  decimals?: number;
+  /** Unit written after the value and after U ('kW', '%'); none by default. */
+  unit?: string;
+  /** Written between value and unit; default a space. */
+  unitSpace?: string;
+}
+
+/**
+ * A value with its expanded uncertainty, both at the decimals U asks for: "412 kW ± 18 kW".
+ * Without U (null, not finite or 0) the value alone at style.decimals.
+ */
+export function withU(v: number | null | undefined, U: number | null | undefined, style: UStyle = {}): string {
+  if (absent(v)) return style.none ?? '—';
+  const u = style.unit ? `${style.unitSpace ?? ' '}${style.unit}` : '';
+  if (absent(U) || U === 0) return `${fixed(v, style.decimals ?? 1, style)}${u}`;
+  const d = decimalsForU(Math.abs(U));
+  return `${fixed(v, d, style)}${u} ± ${fixed(Math.abs(U), d, style)}${u}`;
+}
+
+/** Value and U as two texts at the decimals U asks for (for tables that place them apart). */
+export function pairU(v: number | null | undefined, U: number | null | undefined, style: UStyle = {}): [string, string] {
+  if (absent(U) || U === 0) return [fixed(v, style.decimals ?? 1, style), ''];
+  const d = decimalsForU(Math.abs(U));
+  return [fixed(v, d, style), fixed(Math.abs(U), d, style)];
+}
+
+/** Decimals that keep about three significant figures of a size [any unit] without pretending more. */
+export function sizeDecimals(maxAbs: number): number {
+  if (maxAbs >= 100) return 0;
+  if (maxAbs >= 10) return 1;
+  if (maxAbs >= 1) return 2;
+  return 3;
+}

@@ -1,0 +1,42 @@
+/**
+ * The one number formatter (src/lib/format.ts). Rules: JCGM 100:2008 (GUM) 7.2.6 (U with at most two
+ * significant digits, the value rounded to the same place); SI Brochure 9th ed. 5.4.4 (digits in
+ * groups of three separated by a thin space).
+ */
+import { describe, expect, it } from 'vitest';
+import { THIN_SPACE as T, decimalsForU, fixed, sizeDecimals, withU } from '~/lib/format';
+
+describe('numbers as people read them', () => {
+  it('GUM 7.2.6: 1567.3 with U = 69.95 reads 1 567 ± 70, not 1 567 ± 69.95', () => {
+    expect(withU(1567.3, 69.95)).toBe(`1${T}567 ± 70`);
+  });
+
+  it('GUM 7.2.6: the value takes the decimals of U: 0.7134 ± 0.0123 -> 0.713 ± 0.012; 71.34 % ± 1.23 % -> 71.3 % ± 1.2 %', () => {
+    expect(withU(0.7134, 0.0123)).toBe('0.713 ± 0.012');
+    expect(withU(71.34, 1.23, { unit: '%' })).toBe('71.3 % ± 1.2 %');
+    expect(decimalsForU(9.96)).toBe(1);
+    expect(decimalsForU(10)).toBe(0);
+  });
+
+  it('a value that rounds to zero never shows "-0.0"', () => {
+    expect(fixed(-0.04, 1)).toBe('0.0');
+    expect(fixed(-0.4, 0)).toBe('0');
+    expect(fixed(-0.06, 1)).toBe('-0.1');
+  });
+
+  it('SI 5.4.4: thousands grouped with a thin space, or the separator asked for; none for machine-read files', () => {
+    expect(fixed(-1234567.891, 2)).toBe(`-1${T}234${T}567.89`);
+    expect(fixed(96000, 0, { group: ' ' })).toBe('96 000');
+    expect(fixed(96000, 0, { group: '' })).toBe('96000');
+  });
+
+  it('without an uncertainty the value alone; an absent value shows the caller’s mark', () => {
+    expect(withU(412.34, null, { unit: 'kW', decimals: 0 })).toBe('412 kW');
+    expect(withU(null, 1)).toBe('—');
+    expect(fixed(Number.NaN, 1, { none: '' })).toBe('');
+  });
+
+  it('self-consistency: about three significant figures by size', () => {
+    expect([250, 25, 2.5, 0.25].map(sizeDecimals)).toEqual([0, 1, 2, 3]);
+  });
+});
