@@ -28,7 +28,7 @@ const UNITS = 50;
 const H = 3_600_000;
 const T_START = Date.UTC(2025, 0, 1);
 
-const MIX: [() => EngineCase, number][] = [
+export const MIX: [() => EngineCase, number][] = [
   [boilerCase, 4],
   [turbineCase, 6],
   [valveCase, 8],

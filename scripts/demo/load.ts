@@ -88,9 +88,9 @@ async function latestUploads(siteId: string, names: readonly string[]) {
   return latest;
 }
 
-/** Jobs of a queue that are waiting or running. */
-async function pendingJobs(name: string): Promise<number> {
-  const res = await db().execute(sql`select count(*)::int as n from pgboss.job where name = ${name} and state in ('created', 'retry', 'active')`);
+/** Jobs of some queues that are waiting or running. */
+async function pendingJobs(...names: string[]): Promise<number> {
+  const res = await db().execute(sql`select count(*)::int as n from pgboss.job where name in (${sql.join(names.map((n) => sql`${n}`), sql`, `)}) and state in ('created', 'retry', 'active')`);
   return (res.rows[0] as { n: number }).n;
 }
 
@@ -216,7 +216,7 @@ export async function loadDemo(opts: LoadOptions = {}): Promise<LoadReport> {
   }
   log(`files: ${Object.entries(report.statuses).map(([s, n]) => `${n} ${s}`).join(', ')}`);
 
-  const engineWait = await waitUntilZero('unit-hour computations', () => pendingJobs(QUEUES.computeUnitHours), {
+  const engineWait = await waitUntilZero('unit-hour computations', () => pendingJobs(QUEUES.computeUnitHours, QUEUES.computeUnitMonth, QUEUES.computeSettle), {
     deadline,
     pollMs,
     stallMs: 3 * 60_000,
