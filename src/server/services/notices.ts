@@ -188,7 +188,8 @@ export async function closeNotice(noticeId: string, userId: string, comment: str
     if (repairedAt) {
       const boss = await queue();
       const hourMs = hourFloor(repairedAt.getTime());
-      await boss.send(
+      await sendJob(
+        boss,
         QUEUES.checkDrift,
         { siteId: n.siteId, fromMs: hourMs, toMs: hourCeil(Date.now()), unitIds: [n.unitId] },
         { db: { executeSql: exec as never } },
