@@ -1,4 +1,5 @@
 import { GetObjectCommand } from '@aws-sdk/client-s3';
+import PQueue from 'p-queue';
 import { createHash } from 'node:crypto';
 import { Readable } from 'node:stream';
 import { pipeline } from 'node:stream/promises';
@@ -329,14 +330,13 @@ async function readIntoTransaction(
   let latestExistingMs: number | null = null;
   const clashes: ClashKey[] = [];
   // Writes run one after another on the transaction's connection while the parser reads on (the
-  // database works on the other core); the parser waits when more than MAX_IN_FLIGHT batches are
-  // queued, so memory stays bounded.
-  let chain: Promise<unknown> = Promise.resolve();
-  const pending: Promise<unknown>[] = [];
+  // database works on the other core); the parser waits while MAX_IN_FLIGHT batches wait behind the
+  // running one (p-queue's back-pressure), so memory stays bounded.
+  const writes = new PQueue({ concurrency: 1 });
   let failure: unknown = null;
   let writeMs = 0;
   const enqueue = (work: () => Promise<unknown>) => {
-    chain = chain.then(async () => {
+    void writes.add(async () => {
       if (failure) return;
       const t0 = performance.now();
       try {
@@ -347,12 +347,9 @@ async function readIntoTransaction(
         writeMs += performance.now() - t0;
       }
     });
-    pending.push(chain);
   };
   /** Lets the parser run ahead of the database by at most MAX_IN_FLIGHT batches. */
-  const throttle = async () => {
-    while (pending.length > MAX_IN_FLIGHT) await pending.shift();
-  };
+  const throttle = () => writes.onSizeLessThan(MAX_IN_FLIGHT);
 
   async function ensureTags(names: string[]) {
     const missing = [...new Set(names)].filter((n) => !tagId.has(n));
@@ -456,7 +453,7 @@ async function readIntoTransaction(
   const { report, encoding } = ingest.end();
   flushHours();
   flushRejects();
-  await chain;
+  await writes.onIdle();
   if (failure) throw failure;
   // Hours another file brought too: recomputed from the samples of both (ingest-merge.ts).
   if (clashes.length > 0) ({ replaced, combined } = await mergeOverlappedHours(client, up.id, clashes, { ...rereadOptions, profile }));

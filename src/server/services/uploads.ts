@@ -3,6 +3,7 @@ import { Transform, type Readable } from 'node:stream';
 import { Upload } from '@aws-sdk/lib-storage';
 import { and, desc, eq, inArray, ne, sql } from 'drizzle-orm';
 import { INGEST_ERROR_CATALOGUE } from '~/lib/ingest/errors';
+import Papa from 'papaparse';
 import type { LayoutProfile } from '~/lib/ingest/profile';
 import { z } from 'zod';
 import { QUEUES, sendJob } from '~/jobs';
@@ -288,10 +289,10 @@ export function csvCell(value: unknown): string {
   return /[",\n\r;]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
 }
 
-/** Every rejected cell of an upload as CSV (line, tag, time, text, reason). */
+/** Every rejected cell of an upload as CSV (line, tag, time, text, reason); formula-like cells are
+ * escaped by papaparse (escapeFormulae), so a spreadsheet never runs them. */
 export async function rejectsCsv(uploadId: string): Promise<string> {
   const rows = await db().select().from(uploadRejects).where(eq(uploadRejects.uploadId, uploadId)).orderBy(uploadRejects.seq);
-  const lines = ['line,tag,time,text,reason'];
-  for (const r of rows) lines.push([r.line, r.tag, r.time, r.raw, r.reason].map(csvCell).join(','));
-  return lines.join('\r\n') + '\r\n';
+  const data = rows.map((r) => [r.line, r.tag, r.time, r.raw, r.reason].map((v) => (v === null || v === undefined ? '' : String(v))));
+  return Papa.unparse({ fields: ['line', 'tag', 'time', 'text', 'reason'], data }, { escapeFormulae: true, newline: '\r\n' }) + '\r\n';
 }
