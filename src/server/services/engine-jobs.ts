@@ -17,7 +17,7 @@ import { sql } from 'drizzle-orm';
 import { ComputeSettlePayload, ComputeUnitHoursPayload, ComputeUnitMonthPayload, QUEUES, sendJob } from '~/jobs';
 import { costKindOf } from '~/lib/engine';
 import { db } from '../db/client';
-import { ensureMonthPartitions } from '../db/partitions';
+import { ensureMonthPartitions, monthStart, nextMonthStart } from '../db/partitions';
 import { queue } from '../queue';
 import { siteContext } from './engine-inputs';
 import { addChunk, computeChunk, monthsOf, planCompute, sendDriftCheck, type ComputeSummary } from './engine';
@@ -49,8 +49,12 @@ export async function fanOutCompute(data: unknown): Promise<FanOut> {
   const boss = await queue();
   const runId = randomUUID();
   const out: FanOut = { runId, queued: 0, alreadyQueued: 0 };
-  // Month by month, boilers first within each (plan.targets is sorted so).
-  for (const [a, b] of monthsOf(plan.lo, plan.hi)) {
+  // Month by month, boilers first within each (plan.targets is sorted so). A job always covers its
+  // whole month: the key is the unit's month, so a job already queued for it (from another file's
+  // request) must cover this request's hours too. Hours whose inputs are unchanged cost only a hash.
+  for (const [lo] of monthsOf(plan.lo, plan.hi)) {
+    const a = monthStart(lo);
+    const b = nextMonthStart(a);
     for (const unit of plan.targets) {
       const payload = ComputeUnitMonthPayload.parse({ runId, siteId: p.siteId, unitId: unit.id, fromMs: a, toMs: b });
       const id = await sendJob(boss, QUEUES.computeUnitMonth, payload, { singletonKey: monthKey(unit.id, a), retryLimit: 2, retryDelay: 5 });
