@@ -6,7 +6,6 @@
  * name.") is a whole sentence and is kept as written.
  */
 import type { z } from 'zod';
-import { jsonPath } from './plant/model';
 
 /** One problem with one field: where (a JSON path such as $.units[2].name, or a parameter's name) and what. */
 export interface Issue {
@@ -116,4 +115,14 @@ export function humanIssues(error: z.ZodError, where: Where): Issue[] {
 export function summary(issues: readonly Issue[]): string {
   const first = issues[0]?.message ?? 'The request is not valid.';
   return issues.length > 1 ? `${first} (and ${issues.length - 1} more, listed in issues)` : first;
+}
+
+/** '$.units[2].name' from ['units', 2, 'name']. */
+export function jsonPath(parts: readonly PropertyKey[]): string {
+  return (
+    '$' +
+    parts
+      .map((p) => (typeof p === 'number' ? `[${p}]` : /^[A-Za-z_$][\w$]*$/.test(String(p)) ? `.${String(p)}` : `[${JSON.stringify(String(p))}]`))
+      .join('')
+  );
 }

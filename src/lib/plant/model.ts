@@ -7,6 +7,7 @@
  * Values are SI with the unit in the key (T0_K, p_atm_Pa, cp_J_per_kgK); a link's own figures (valid
  * range, absolute uncertainty) are in the link's engineering unit, as the historian exports them.
  */
+import { jsonPath } from '~/lib/zod-words';
 import { z } from 'zod';
 import { SPECIES_NAMES } from '../thermo/gas';
 import { canConvert } from '../units/convert';
@@ -178,15 +179,6 @@ export interface ModelIssue {
   readonly message: string;
 }
 
-/** '$.units[2].name' from ['units', 2, 'name']. */
-export function jsonPath(parts: readonly PropertyKey[]): string {
-  return (
-    '$' +
-    parts
-      .map((p) => (typeof p === 'number' ? `[${p}]` : /^[A-Za-z_$][\w$]*$/.test(String(p)) ? `.${String(p)}` : `[${JSON.stringify(String(p))}]`))
-      .join('')
-  );
-}
 
 /** True when the runtime knows the IANA zone. */
 export function isTimeZone(tz: string): boolean {
@@ -427,3 +419,5 @@ export function checkModel(input: unknown): ModelCheck {
   return issues.length ? { ok: false, issues } : { ok: true, model, issues: [] };
 }
 
+
+export { jsonPath };
