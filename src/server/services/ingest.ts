@@ -210,12 +210,15 @@ async function ingestLocked(uploadId: string, client: pg.PoolClient): Promise<In
     }
     if (!layout.saved) {
       // A machine upload of a shape the file itself decides: keep the decision as the site's profile.
+      // jsonb holds no NUL character: the stored copy goes without them (a header cell may carry one).
+      const storable = JSON.parse(storableJson(profile)) as typeof profile;
       const [saved] = await db()
         .insert(layoutProfiles)
-        .values({ siteId: up.siteId, fingerprint: profile.fingerprint, name: `detected from ${up.fileName}`, profile })
+        .values({ siteId: up.siteId, fingerprint: profile.fingerprint, name: `detected from ${up.fileName}`, profile: storable })
         .onConflictDoUpdate({ target: [layoutProfiles.siteId, layoutProfiles.fingerprint], set: { fingerprint: profile.fingerprint } })
         .returning();
-      profile = saved!.profile;
+      // Another file of this shape may have saved its profile first: read with that one; else with this file's own.
+      if (JSON.stringify(saved!.profile) !== JSON.stringify(storable)) profile = saved!.profile;
       profileId = saved!.id;
     }
     const result = await readIntoTransaction(up, profile, timeZone, site?.createdAt ?? new Date(), client);
