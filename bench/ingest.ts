@@ -87,7 +87,7 @@ async function endToEnd(path: string) {
   const sniffed = sniffLayout(head, { complete: false });
   await db()
     .insert(layoutProfiles)
-    .values({ siteId: site!.id, fingerprint: sniffed.fingerprint, name: 'bench layout', profile: { ...sniffed, questions: [] } as unknown as Record<string, unknown> });
+    .values({ siteId: site!.id, fingerprint: sniffed.fingerprint, name: 'bench layout', profile: { ...sniffed, questions: [] } });
   const t0 = performance.now();
   const { uploadId } = await receiveApiUpload(site!.id, 'bench.csv', createReadStream(path, { highWaterMark: 1024 * 1024 }), {});
   const uploadedS = (performance.now() - t0) / 1000;

@@ -319,4 +319,19 @@ describeIntegration('access by site: every site-bound endpoint with every role, 
     const all = ((await (await (GET as unknown as (ctx: { locals: App.Locals }) => Promise<Response>)({ locals: adminView })).json()).sites as { id: string }[]).map((s) => s.id);
     expect(all).toEqual(expect.arrayContaining([ids.A.siteId, ids.B.siteId]));
   });
+
+  it('notice settings named by ?siteId= are closed to a person limited to another site', async () => {
+    const { GET } = await import('~/pages/api/notices/settings');
+    const ask = async (cookie: string, siteId: string) => {
+      const path = `/api/notices/settings?siteId=${siteId}`;
+      const { locals } = await call({ cookie }, 'GET', path);
+      const url = new URL(path, 'http://lossline.test');
+      return (GET as unknown as (ctx: object) => Promise<Response>)({ locals, url, request: new Request(url), params: {} });
+    };
+    const refused = await ask(cookies.planner!, ids.B.siteId);
+    expect(refused.status).toBe(403);
+    expect((await refused.json()).error.code).toBe('FORBIDDEN');
+    expect((await ask(cookies.planner!, ids.A.siteId)).status).toBe(200);
+    expect((await ask(cookies.admin!, ids.B.siteId)).status).toBe(200);
+  });
 });
