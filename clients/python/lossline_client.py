@@ -25,7 +25,7 @@ import urllib.request
 from typing import Any, Dict, List, Optional
 
 # Upload states after which nothing more happens without a person (see docs/api.md).
-FINAL_UPLOAD_STATES = {"done", "failed", "needs-review", "read-with-problems", "read_with_problems"}
+FINAL_UPLOAD_STATES = {"done", "read-with-problems", "failed", "needs-review"}
 
 
 class LosslineError(Exception):
