@@ -1,6 +1,6 @@
 import { expect, test } from '@playwright/test';
 import pg from 'pg';
-import { DEMO, signIn, watchConsole } from './helpers';
+import { DEMO, letDownValveModel, signIn, watchConsole } from './helpers';
 
 const stamp = () => `${Date.now().toString(36)}${Math.floor(Math.random() * 1e4)}`;
 const HOUR = 3_600_000;
@@ -39,28 +39,7 @@ test('an operator opens a unit\'s hourly results and one hour\'s detail', async 
   // An admin sets the unit up from a model file; tag hours arrive; a parameter change queues the engine's job.
   await signIn(page, DEMO.admin);
   const created = await page.request.post('/api/sites/from-model', {
-    data: {
-      format: 'lossline-plant-model',
-      version: 1,
-      site: { name: `E2E engine site ${stamp()}`, timeZone: 'UTC', p_atm_Pa: 101325, deadState: { T0_K: 298.15, p0_Pa: 101325 }, currency: 'EUR', prices: [{ name: 'gas', kind: 'fuel', price_per_MWh: 30, currency: 'EUR' }] },
-      units: [
-        {
-          name: unitName,
-          kind: 'let-down-valve',
-          parameters: { minLoad_kg_per_s: 0.1 },
-          ports: [
-            { name: 'HP side', slot: 'inlet', fluid: { kind: 'water' } },
-            { name: 'LP side', slot: 'outlet', fluid: { kind: 'water' } },
-          ],
-          links: [
-            { port: 'HP side', quantity: 'pressure', tag: 'PRV_IN_P', unit: 'bar' },
-            { port: 'HP side', quantity: 'temperature', tag: 'PRV_IN_T', unit: 'degC' },
-            { port: 'HP side', quantity: 'massFlow', tag: 'PRV_F', unit: 't/h' },
-            { port: 'LP side', quantity: 'pressure', tag: 'PRV_OUT_P', unit: 'barg' },
-          ],
-        },
-      ],
-    },
+    data: letDownValveModel(`E2E engine site ${stamp()}`, unitName, { inP: 'PRV_IN_P', inT: 'PRV_IN_T', flow: 'PRV_F', outP: 'PRV_OUT_P' }),
   });
   expect(created.status()).toBe(201);
   const siteId = (await created.json()).siteId as string;

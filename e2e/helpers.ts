@@ -32,3 +32,32 @@ export function watchConsole(page: Page): string[] {
   page.on('pageerror', (e) => errors.push(e.message));
   return errors;
 }
+
+/**
+ * A plant model file of one site with one invented let-down valve (steam at the inlet's pressure,
+ * temperature and flow, to the outlet's gauge pressure), for journeys that need computed hours.
+ */
+export function letDownValveModel(siteName: string, unitName: string, tags: { inP: string; inT: string; flow: string; outP: string }) {
+  return {
+    format: 'lossline-plant-model',
+    version: 1,
+    site: { name: siteName, timeZone: 'UTC', p_atm_Pa: 101325, deadState: { T0_K: 298.15, p0_Pa: 101325 }, currency: 'EUR', prices: [{ name: 'gas', kind: 'fuel', price_per_MWh: 30, currency: 'EUR' }] },
+    units: [
+      {
+        name: unitName,
+        kind: 'let-down-valve',
+        parameters: { minLoad_kg_per_s: 0.1 },
+        ports: [
+          { name: 'HP side', slot: 'inlet', fluid: { kind: 'water' } },
+          { name: 'LP side', slot: 'outlet', fluid: { kind: 'water' } },
+        ],
+        links: [
+          { port: 'HP side', quantity: 'pressure', tag: tags.inP, unit: 'bar' },
+          { port: 'HP side', quantity: 'temperature', tag: tags.inT, unit: 'degC' },
+          { port: 'HP side', quantity: 'massFlow', tag: tags.flow, unit: 't/h' },
+          { port: 'LP side', quantity: 'pressure', tag: tags.outP, unit: 'barg' },
+        ],
+      },
+    ],
+  };
+}

@@ -4,7 +4,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { promisify } from 'node:util';
 import { expect, test } from '@playwright/test';
-import { DEMO, signIn } from './helpers';
+import { DEMO, letDownValveModel, signIn } from './helpers';
 
 const run = promisify(execFile);
 const CLIENT = 'clients/python/lossline_client.py';
@@ -40,28 +40,7 @@ test('a site script sends an export with the Python client, waits for it and fet
   const unitName = `PRV ${stamp()}`;
   await signIn(page, DEMO.admin);
   const created = await page.request.post('/api/sites/from-model', {
-    data: {
-      format: 'lossline-plant-model',
-      version: 1,
-      site: { name: `Python client site ${stamp()}`, timeZone: 'UTC', p_atm_Pa: 101325, deadState: { T0_K: 298.15, p0_Pa: 101325 }, currency: 'EUR', prices: [{ name: 'gas', kind: 'fuel', price_per_MWh: 30, currency: 'EUR' }] },
-      units: [
-        {
-          name: unitName,
-          kind: 'let-down-valve',
-          parameters: { minLoad_kg_per_s: 0.1 },
-          ports: [
-            { name: 'HP side', slot: 'inlet', fluid: { kind: 'water' } },
-            { name: 'LP side', slot: 'outlet', fluid: { kind: 'water' } },
-          ],
-          links: [
-            { port: 'HP side', quantity: 'pressure', tag: 'PYC_IN_P', unit: 'bar' },
-            { port: 'HP side', quantity: 'temperature', tag: 'PYC_IN_T', unit: 'degC' },
-            { port: 'HP side', quantity: 'massFlow', tag: 'PYC_F', unit: 't/h' },
-            { port: 'LP side', quantity: 'pressure', tag: 'PYC_OUT_P', unit: 'barg' },
-          ],
-        },
-      ],
-    },
+    data: letDownValveModel(`Python client site ${stamp()}`, unitName, { inP: 'PYC_IN_P', inT: 'PYC_IN_T', flow: 'PYC_F', outP: 'PYC_OUT_P' }),
   });
   expect(created.status()).toBe(201);
   const siteId = (await created.json()).siteId as string;

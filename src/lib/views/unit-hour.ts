@@ -3,6 +3,7 @@
  * /hours/:hour, src/server/services/engine-results.ts): one definition for the server and the
  * islands that show them (src/components/units). Types only. Powers in W, efficiency [-].
  */
+import type { UnitHourResult } from '../engine/types';
 import type { HourState } from '../hour-states';
 
 /** The unit whose hours are shown, with its site's clock and currency. */
@@ -15,8 +16,14 @@ export interface UnitInfo {
   currency: string;
 }
 
+/** The figures of a unit hour as the engine computes them (src/lib/engine/types.ts). */
+type EngineFigures = Pick<
+  UnitHourResult,
+  'fuel_W' | 'product_W' | 'loss_W' | 'destruction_W' | 'efficiency' | 'efficiency_U' | 'destruction_U_W' | 'closure_pct' | 'destructionCost_per_h' | 'modelVersion' | 'inputsHash'
+>;
+
 /** One unit hour without its audit trail; instants as ISO strings. */
-export interface UnitHourView {
+export interface UnitHourView extends EngineFigures {
   hourStart: string;
   state: HourState;
   reasons: { code: string; message: string; tag?: string }[];
@@ -24,18 +31,7 @@ export interface UnitHourView {
   loadUnit: string | null;
   T0_K: number | null;
   p0_Pa?: number | null;
-  fuel_W: number | null;
-  product_W: number | null;
-  loss_W: number | null;
-  destruction_W: number | null;
-  efficiency: number | null;
-  efficiency_U: number | null;
-  destruction_U_W: number | null;
-  closure_pct: number | null;
   entropyGeneration_W_per_K?: number | null;
-  destructionCost_per_h: number | null;
-  modelVersion: string;
-  inputsHash: string;
   computedAt: string;
 }
 
