@@ -58,7 +58,7 @@ export interface LoadReport {
 }
 
 /** Upload states that mean the file is in hand (no need to send it again). */
-const IN_HAND = ['queued', 'processing', 'done', 'needs-review'];
+const IN_HAND = ['queued', 'processing', 'done', 'read-with-problems', 'needs-review'];
 /** Terms of the demo baselines: load, ambient and the load-ambient interaction (exergy destruction is about T0 S_gen). */
 export const DEMO_BASELINE_TERMS: BaselineTerm[] = ['load', 'T_amb', 'load^2', 'load*T_amb'];
 /** A unit gets a baseline only if at least this share of the reference period's hours were steady (PRV1 is shut in normal operation). */
