@@ -24,6 +24,15 @@ export interface EndpointSpec {
   query?: z.ZodType;
   /** The JSON body; z.unknown() for any JSON that the service checks itself. */
   body?: z.ZodType;
+  /**
+   * What the endpoint answers when it succeeds, by HTTP status: a zod schema of the JSON, or the media
+   * type of a file it sends (text/csv, application/pdf). Errors need no entry: every route answers them
+   * in the one shape of errors.ts. Routes under /api/v1 must say this; the OpenAPI document of
+   * /api/v1/openapi.json is generated from it, and the contract test checks the answers against it.
+   */
+  answers?: Partial<Record<200 | 201 | 202 | 204, z.ZodType | 'text/csv' | 'application/pdf' | null>>;
+  /** Words for the API reference: a one-line summary, more text if needed, and the group it is listed in. */
+  doc?: { summary: string; description?: string; group?: string };
 }
 
 type Out<T, Fallback> = T extends z.ZodType ? z.output<T> : Fallback;
