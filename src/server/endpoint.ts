@@ -17,6 +17,9 @@ import { UUID_PARAMS, canUseSite, isId } from './access';
 import { AppError, apiError, fromDomainError } from './errors';
 import { humanErrorMap, humanIssues, summary, type Where } from '~/lib/zod-words';
 
+/** One success answer: the zod schema of its JSON, or the media type of a file. */
+export type Answer = z.ZodType | 'text/csv' | 'application/pdf';
+
 export interface EndpointSpec {
   /** Parameters of the path other than row ids, e.g. { hour } or { month }. */
   params?: z.ZodType<Record<string, unknown>>;
@@ -29,10 +32,17 @@ export interface EndpointSpec {
    * type of a file it sends (text/csv, application/pdf). Errors need no entry: every route answers them
    * in the one shape of errors.ts. Routes under /api/v1 must say this; the OpenAPI document of
    * /api/v1/openapi.json is generated from it, and the contract test checks the answers against it.
+   * A list gives the alternatives one status may answer with (JSON or CSV, chosen by the request).
    */
-  answers?: Partial<Record<200 | 201 | 202 | 204, z.ZodType | 'text/csv' | 'application/pdf' | null>>;
+  answers?: Partial<Record<200 | 201 | 202 | 204, Answer | readonly Answer[] | null>>;
   /** Words for the API reference: a one-line summary, more text if needed, and the group it is listed in. */
-  doc?: { summary: string; description?: string; group?: string };
+  doc?: {
+    summary: string;
+    description?: string;
+    group?: string;
+    /** The request body is a file sent as is (not JSON), of these media types, e.g. ['text/csv']. */
+    upload?: readonly string[];
+  };
 }
 
 type Out<T, Fallback> = T extends z.ZodType ? z.output<T> : Fallback;

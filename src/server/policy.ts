@@ -35,6 +35,7 @@ export const API_POLICY: Record<string, RoutePolicy> = {
   '/api/uploads/[uploadId]/rejects.csv': { methods: { GET: ANY_ROLE } },
   '/api/sites/[siteId]/tokens': { methods: { GET: ADMIN, POST: ADMIN } },
   '/api/tokens/[tokenId]': { methods: { DELETE: ADMIN } },
+  '/api/v1/openapi.json': { methods: { GET: 'public' } },
   '/api/v1/sites/[siteId]/files': { methods: { POST: UPLOADERS }, apiToken: true },
   '/api/v1/uploads/[uploadId]': { methods: { GET: ANY_ROLE }, apiToken: true },
   '/api/v1/sites/[siteId]/tag-hours': { methods: { GET: ANY_ROLE }, apiToken: true },

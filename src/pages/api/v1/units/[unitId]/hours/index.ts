@@ -1,4 +1,6 @@
 import { z } from 'zod';
+import { UnitHoursAnswer } from '~/lib/api/hours';
+import { answer } from '~/server/answer';
 import { endpoint, requireSite } from '~/server/endpoint';
 import { unitHeader, unitHoursCsv, unitHoursOf } from '~/server/services/engine-results';
 
@@ -9,7 +11,18 @@ const Query = z.object({
 });
 
 /** A unit's hours over [from, to): JSON, or CSV with ?format=csv or Accept: text/csv (docs/api.md, "Unit hours"). */
-export const GET = endpoint({ query: Query }, async ({ locals, request }, { params, query }) => {
+const spec = {
+  query: Query,
+  answers: { 200: [UnitHoursAnswer, 'text/csv'] },
+  doc: {
+    group: 'Hours',
+    summary: "A unit's hours",
+    description:
+      "The unit's computed hours with hour start in [from, to), oldest first, at most 400 days. JSON by default; CSV (the same fields, units in the column names, plus currency) with ?format=csv or Accept: text/csv.",
+  },
+} as const;
+
+export const GET = endpoint(spec, async ({ locals, request }, { params, query }) => {
   const unit = await unitHeader(params.unitId);
   requireSite(locals, unit.siteId);
   const hours = await unitHoursOf(unit.id, new Date(query.from), new Date(query.to));
@@ -22,7 +35,7 @@ export const GET = endpoint({ query: Query }, async ({ locals, request }, { para
       },
     });
   }
-  return Response.json({
+  return answer(UnitHoursAnswer, {
     unit: { id: unit.id, name: unit.name, kind: unit.kind, siteId: unit.siteId, siteName: unit.siteName, timeZone: unit.timeZone, currency: unit.currency },
     from: new Date(query.from).toISOString(),
     to: new Date(query.to).toISOString(),
