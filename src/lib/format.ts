@@ -90,3 +90,23 @@ export function sizeDecimals(maxAbs: number): number {
   if (maxAbs >= 1) return 2;
   return 3;
 }
+
+const SUPERSCRIPT: Record<string, string> = { '-': '⁻', '0': '⁰', '1': '¹', '2': '²', '3': '³', '4': '⁴', '5': '⁵', '6': '⁶', '7': '⁷', '8': '⁸', '9': '⁹' };
+
+/**
+ * A number to `digits` significant figures: fixed decimals from 0.001 up to a million, beyond that a
+ * power of ten as people write it ("−9.20 × 10⁻⁹"), never the machine's e-notation. For fitted
+ * coefficients and other numbers without an uncertainty to match.
+ */
+export function significant(v: number | null | undefined, digits = 3, style: NumberStyle = {}): string {
+  if (absent(v)) return style.none ?? '—';
+  if (v === 0) return fixed(0, Math.max(0, digits - 1), style);
+  const exp = Math.floor(Math.log10(Math.abs(v)));
+  if (exp >= -3 && exp < 6) return fixed(v, Math.max(0, digits - 1 - exp), style);
+  const mantissa = v / 10 ** exp;
+  const m = fixed(mantissa, Math.max(0, digits - 1), style);
+  // Rounding the mantissa can reach 10 (9.996 -> 10.0): carry into the exponent.
+  if (Math.abs(Number(m.replace(style.decimal ?? '.', '.'))) >= 10) return significant(Math.sign(v) * 10 ** (exp + 1), digits, style);
+  const e = String(exp).split('').map((c) => SUPERSCRIPT[c] ?? c).join('');
+  return `${m.replace(/^-/, '−')} × 10${e}`;
+}

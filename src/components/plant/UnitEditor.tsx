@@ -283,8 +283,7 @@ function AddPort({ data, onDone }: { data: UnitPageData; onDone: (m: Message) =>
           >
             {spec.ports.map((s) => (
               <option key={s.slot} value={s.slot}>
-                {s.label} ({s.role}
-                {s.max === null ? `, ${s.min}..n` : `, ${s.min}..${s.max}`})
+                {s.label} ({s.role === 'in' ? 'into the unit' : 'out of the unit'}, {slotCountWords(s.min, s.max)})
               </option>
             ))}
           </select>
@@ -610,4 +609,12 @@ export default function UnitEditor({ initial, canEdit }: { initial: UnitPageData
       </section>
     </div>
   );
+}
+
+/** How many ports of a slot a unit may have, in words: "exactly one", "one or more", "any number". */
+export function slotCountWords(min: number, max: number | null): string {
+  const n = (k: number) => ['none', 'one', 'two', 'three'][k] ?? String(k);
+  if (max === null) return min === 0 ? 'any number' : `${n(min)} or more`;
+  if (min === max) return `exactly ${n(min)}`;
+  return min === 0 ? `at most ${n(max)}` : `${n(min)} to ${n(max)}`;
 }

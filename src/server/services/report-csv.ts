@@ -7,6 +7,8 @@
 import { csvLine, type CsvCell } from '~/lib/csv-write';
 import type { ReportData } from './report';
 import { fixed, mwhDecimals } from './report-format';
+import { labelOf } from '~/lib/words';
+import { siteStamp } from '~/lib/site-time';
 
 import { HOUR_STATES as STATES } from '~/lib/hour-states';
 
@@ -110,7 +112,7 @@ export function reportCsvLines(r: ReportData): string[] {
   );
   if (!r.notices.length) out.push(line('none'));
   for (const n of r.notices) {
-    const at = (ms: number) => new Intl.DateTimeFormat('sv-SE', { timeZone: r.site.timeZone, dateStyle: 'short', timeStyle: 'short' }).format(ms);
+    const at = (ms: number) => siteStamp(ms, r.site.timeZone);
     out.push(
       line(
         n.unitName,
@@ -134,9 +136,9 @@ export function reportCsvLines(r: ReportData): string[] {
   out.push('');
 
   out.push(line('Data quality: most frequent reasons for hours that are not steady'));
-  out.push(line('reason code', 'example', 'hours [h]'));
+  out.push(line('reason', 'example', 'hours [h]'));
   if (!r.quality.reasons.length) out.push(line('none'));
-  for (const q of r.quality.reasons) out.push(line(q.code, q.example, q.hours));
+  for (const q of r.quality.reasons) out.push(line(labelOf(q.code, 'other reason'), q.example, q.hours));
   out.push('');
 
   out.push(line('Caution'));

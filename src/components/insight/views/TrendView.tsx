@@ -18,7 +18,7 @@ function BaselineName({ b }: { b: TrendAnswer['baseline'] }) {
       {b ? (
         <>
           Expected from <span className="font-semibold text-ink">{b.label}</span>
-          {!b.meetsGuideline14 && <span className="ml-1 text-amber">(fit outside ASHRAE Guideline 14 hourly limits: read the band with care)</span>}
+          {!b.meetsGuideline14 && <span className="ml-1 text-amber-deep">(fit outside ASHRAE Guideline 14 hourly limits: read the band with care)</span>}
         </>
       ) : (
         <>No active baseline for this unit yet: the expected band is not shown.</>
