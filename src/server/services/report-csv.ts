@@ -4,6 +4,8 @@
  * record is written by Papa.unparse (csvLine), so text a spreadsheet would run as a formula (=, +, -,
  * @ ...) is written as text (plain decimal numbers, negative ones included, stay numbers).
  */
+import { NOTICE_STATUS_WORDS } from '~/lib/words';
+import type { NoticeStatus } from '~/lib/notice-view';
 import { csvLine, type CsvCell } from '~/lib/csv-write';
 import type { ReportData } from './report';
 import { fixed, mwhDecimals } from './report-format';
@@ -117,7 +119,7 @@ export function reportCsvLines(r: ReportData): string[] {
       line(
         n.unitName,
         n.direction === 'up' ? 'more destruction than expected' : 'less destruction than expected',
-        n.status,
+        NOTICE_STATUS_WORDS[n.status as NoticeStatus]?.label ?? 'other',
         at(n.onsetMs),
         at(n.signalMs),
         n.hours,

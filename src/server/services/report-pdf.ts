@@ -3,6 +3,8 @@
  * which pdfkit's font reader takes). Warm paper page, ink text, copper for destruction and loss,
  * teal for product; numbers right-aligned with their unit in the column head.
  */
+import { NOTICE_STATUS_WORDS } from '~/lib/words';
+import type { NoticeStatus } from '~/lib/notice-view';
 import { existsSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import { join } from 'node:path';
@@ -304,7 +306,7 @@ export function reportPdf(r: ReportData): PDFKit.PDFDocument {
       r.notices.map((n) => [
         n.unitName,
         n.direction === 'up' ? 'more destruction than expected' : 'less destruction than expected',
-        n.status,
+        NOTICE_STATUS_WORDS[n.status as NoticeStatus]?.label ?? 'other',
         at(n.onsetMs),
         at(n.signalMs),
         fixedU(n.extra_W / 1000, n.shiftU_W === null ? null : n.shiftU_W / 1000, Math.abs(n.extra_W) < 10_000 ? 1 : 0, true) + (n.exceedsUncertainty === false ? ' (within uncertainty)' : ''),
