@@ -1,5 +1,6 @@
 import { useState } from 'react';
 import { call, useApi } from '~/components/api';
+import { siteStamp } from '~/lib/site-time';
 
 interface Token {
   id: string;
@@ -12,7 +13,7 @@ interface Token {
 }
 
 /** Site API tokens for scheduled exports: issued (secret shown once), listed, revoked. */
-export default function TokensAdmin({ sites }: { sites: { id: string; name: string }[] }) {
+export default function TokensAdmin({ sites }: { sites: { id: string; name: string; timeZone?: string }[] }) {
   const [siteId, setSiteId] = useState(sites[0]?.id ?? '');
   const [name, setName] = useState('');
   const [role, setRole] = useState<'operator' | 'admin'>('operator');
@@ -21,6 +22,7 @@ export default function TokensAdmin({ sites }: { sites: { id: string; name: stri
 
   const list = useApi<{ tokens: Token[] }>(siteId ? `/api/sites/${siteId}/tokens` : null);
   const tokens = list.data?.tokens ?? [];
+  const tz = sites.find((s) => s.id === siteId)?.timeZone ?? 'UTC';
   const load = list.reload;
 
   async function issue(e: React.FormEvent) {
@@ -67,15 +69,15 @@ export default function TokensAdmin({ sites }: { sites: { id: string; name: stri
         </div>
       )}
       <table className="grid-table">
-        <thead><tr><th>Name</th><th>Starts with</th><th>May</th><th>Issued</th><th>Last used</th><th></th></tr></thead>
+        <thead><tr><th>Name</th><th>Starts with</th><th>Allowed to send</th><th>Issued ({tz})</th><th>Last used ({tz})</th><th></th></tr></thead>
         <tbody>
           {tokens.map((t) => (
             <tr key={t.id}>
               <td>{t.name}</td>
               <td><code>{t.prefix}…</code></td>
               <td>{t.role === 'admin' ? 'files and model' : 'files'}</td>
-              <td>{new Date(t.createdAt).toLocaleString()}</td>
-              <td>{t.lastUsedAt ? new Date(t.lastUsedAt).toLocaleString() : 'never'}</td>
+              <td className="tabular-nums">{siteStamp(t.createdAt, tz)}</td>
+              <td className="tabular-nums">{t.lastUsedAt ? siteStamp(t.lastUsedAt, tz) : 'never'}</td>
               <td className="text-right">{t.revokedAt ? 'revoked' : <button className="btn" type="button" onClick={() => revoke(t.id)}>Revoke</button>}</td>
             </tr>
           ))}

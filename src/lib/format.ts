@@ -4,7 +4,8 @@
  * - digits grouped by three with a thin space (SI Brochure, 9th ed., 5.4.4), or a given separator;
  * - a value with its expanded uncertainty U: U to two significant digits and the value to the same
  *   decimal place (JCGM 100:2008, 7.2.6), "1 567 ± 70", never "1 567 ± 69.95".
- * Pure; no locale.
+ * A site's locale gives its separators through `localeStyle('de-DE')` (1.234,5); without one the
+ * thin space groups and the point marks decimals. Pure.
  */
 
 /** The grouping separator of displays: a thin space. */
@@ -15,6 +16,20 @@ export interface NumberStyle {
   group?: string;
   /** What an absent or non-finite value shows as. Default '—'. */
   none?: string;
+  /** Decimal marker; default '.'. */
+  decimal?: string;
+}
+
+/** The grouping and decimal separators of a locale ('en-GB': ',' and '.'); thin space and '.' for an unknown one. */
+export function localeStyle(locale: string | null | undefined): { group: string; decimal: string } {
+  try {
+    const parts = new Intl.NumberFormat(locale ?? undefined, { useGrouping: true }).formatToParts(12345.6);
+    const group = parts.find((p) => p.type === 'group')?.value ?? THIN_SPACE;
+    const decimal = parts.find((p) => p.type === 'decimal')?.value ?? '.';
+    return { group: group === '\u00a0' || group === '\u202f' ? THIN_SPACE : group, decimal };
+  } catch {
+    return { group: THIN_SPACE, decimal: '.' };
+  }
 }
 
 const absent = (v: number | null | undefined): v is null | undefined => v === null || v === undefined || !Number.isFinite(v);
@@ -25,11 +40,10 @@ export function fixed(v: number | null | undefined, decimals: number, style: Num
   let s = v.toFixed(Math.max(0, Math.min(20, Math.round(decimals))));
   if (/^-0(\.0*)?$/.test(s)) s = s.slice(1);
   const group = style.group ?? THIN_SPACE;
-  if (!group) return s;
   const [int, frac] = s.split('.') as [string, string | undefined];
   const sign = int.startsWith('-') ? '-' : '';
-  const grouped = (sign ? int.slice(1) : int).replace(/\B(?=(\d{3})+(?!\d))/g, group);
-  return sign + grouped + (frac !== undefined ? `.${frac}` : '');
+  const grouped = group ? (sign ? int.slice(1) : int).replace(/\B(?=(\d{3})+(?!\d))/g, group) : sign ? int.slice(1) : int;
+  return sign + grouped + (frac !== undefined ? `${style.decimal ?? '.'}${frac}` : '');
 }
 
 /**
@@ -75,4 +89,24 @@ export function sizeDecimals(maxAbs: number): number {
   if (maxAbs >= 10) return 1;
   if (maxAbs >= 1) return 2;
   return 3;
+}
+
+const SUPERSCRIPT: Record<string, string> = { '-': '⁻', '0': '⁰', '1': '¹', '2': '²', '3': '³', '4': '⁴', '5': '⁵', '6': '⁶', '7': '⁷', '8': '⁸', '9': '⁹' };
+
+/**
+ * A number to `digits` significant figures: fixed decimals from 0.001 up to a million, beyond that a
+ * power of ten as people write it ("−9.20 × 10⁻⁹"), never the machine's e-notation. For fitted
+ * coefficients and other numbers without an uncertainty to match.
+ */
+export function significant(v: number | null | undefined, digits = 3, style: NumberStyle = {}): string {
+  if (absent(v)) return style.none ?? '—';
+  if (v === 0) return fixed(0, Math.max(0, digits - 1), style);
+  const exp = Math.floor(Math.log10(Math.abs(v)));
+  if (exp >= -3 && exp < 6) return fixed(v, Math.max(0, digits - 1 - exp), style);
+  const mantissa = v / 10 ** exp;
+  const m = fixed(mantissa, Math.max(0, digits - 1), style);
+  // Rounding the mantissa can reach 10 (9.996 -> 10.0): carry into the exponent.
+  if (Math.abs(Number(m.replace(style.decimal ?? '.', '.'))) >= 10) return significant(Math.sign(v) * 10 ** (exp + 1), digits, style);
+  const e = String(exp).split('').map((c) => SUPERSCRIPT[c] ?? c).join('');
+  return `${m.replace(/^-/, '−')} × 10${e}`;
 }

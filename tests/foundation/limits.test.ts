@@ -22,6 +22,7 @@ it('refuses a 2,000,000-character value in every stored text field', () => {
     ['site time zone', SiteInput, { name: 'S', timeZone: 'UTC' }, (v) => ({ ...v, timeZone: HUGE })],
     ['site T0 tag', SiteInput, { name: 'S', timeZone: 'UTC', T0Tag: { tag: 'TT', unit: 'degC' } }, (v) => ({ ...v, T0Tag: { tag: HUGE, unit: 'degC' } })],
     ['site T0 unit', SiteInput, { name: 'S', timeZone: 'UTC', T0Tag: { tag: 'TT', unit: 'degC' } }, (v) => ({ ...v, T0Tag: { tag: 'TT', unit: HUGE } })],
+    ['site display locale', SiteInput, { name: 'S', timeZone: 'UTC', displayUnits: { locale: 'en-GB' } }, (v) => ({ ...v, displayUnits: { locale: HUGE } })],
     ['unit name', UnitCreateInput, { name: 'P', kind: 'pump' }, (v) => ({ ...v, name: HUGE })],
     ['unit description', UnitCreateInput, { name: 'P', kind: 'pump', description: 'd' }, (v) => ({ ...v, description: HUGE })],
     ['unit parameter value', UnitCreateInput, { name: 'P', kind: 'pump', parameters: { note: 'n' } }, (v) => ({ ...v, parameters: { note: HUGE } })],

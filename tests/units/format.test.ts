@@ -4,7 +4,7 @@
  * groups of three separated by a thin space).
  */
 import { describe, expect, it } from 'vitest';
-import { THIN_SPACE as T, decimalsForU, fixed, sizeDecimals, withU } from '~/lib/format';
+import { THIN_SPACE as T, decimalsForU, fixed, localeStyle, significant, sizeDecimals, withU } from '~/lib/format';
 
 describe('numbers as people read them', () => {
   it('GUM 7.2.6: 1567.3 with U = 69.95 reads 1 567 ± 70, not 1 567 ± 69.95', () => {
@@ -38,5 +38,28 @@ describe('numbers as people read them', () => {
 
   it('self-consistency: about three significant figures by size', () => {
     expect([250, 25, 2.5, 0.25].map(sizeDecimals)).toEqual([0, 1, 2, 3]);
+  });
+});
+
+describe("numbers in the site's locale", () => {
+  it('CLDR: en-GB groups with a comma, de-DE with a point and marks decimals with a comma', () => {
+    expect(fixed(1234567.891, 1, localeStyle('en-GB'))).toBe('1,234,567.9');
+    expect(fixed(-1234.5, 1, localeStyle('de-DE'))).toBe('-1.234,5');
+    expect(withU(1567.3, 69.95, { ...localeStyle('en-GB'), unit: 'kW' })).toBe('1,567 kW ± 70 kW');
+  });
+  it('CLDR: a locale that groups with a no-break space (fr-FR) gets the thin space; an unknown tag falls back to it', () => {
+    expect(fixed(96000, 0, localeStyle('fr-FR'))).toBe(`96${T}000`);
+    expect(localeStyle('not a locale')).toEqual({ group: T, decimal: '.' });
+  });
+});
+
+describe('significant figures without e-notation', () => {
+  it('SI Brochure 9th ed. 5.4.4 (powers of ten written with ×): small and large coefficients', () => {
+    expect(significant(-9.19541e-12, 3)).toBe('−9.20 × 10⁻¹²');
+    expect(significant(4.2e7, 2)).toBe('4.2 × 10⁷');
+    expect(significant(0.031234, 3)).toBe('0.0312');
+    expect(significant(123.456, 4)).toBe('123.5');
+    expect(significant(9.9996e-5, 3)).toBe('1.00 × 10⁻⁴');
+    expect(significant(0, 3)).toBe('0.00');
   });
 });

@@ -9,10 +9,13 @@ import { canConvert } from '~/lib/units';
 import { Field, Notice, readSI, showSI } from './common';
 import { call, messageOf, type Message } from '~/components/api';
 import LinkForm, { type TagJson, type UnitJson } from './LinkForm';
+import { DisplayUnitsFields, displayFieldValues, displayUnitsOf } from './DisplayUnitsFields';
+import { DISPLAY_CHOICES, DisplayUnitsSchema, type DisplayUnits } from '~/lib/units/display';
 
 interface Overview {
   site: { id: string; name: string; timeZone: string };
   settings: SiteModel;
+  display: { units: DisplayUnits; chosen: boolean };
   units: UnitJson[];
 }
 
@@ -32,6 +35,11 @@ const Settings = z
     t0Tag: z.string().trim(),
     t0TagUnit: z.string().trim(),
     currency: Currency,
+    duPower: z.enum(DISPLAY_CHOICES.power),
+    duMassFlow: z.enum(DISPLAY_CHOICES.massFlow),
+    duTemperature: z.enum(DISPLAY_CHOICES.temperature),
+    duPressure: z.enum(DISPLAY_CHOICES.pressure),
+    duLocale: DisplayUnitsSchema.shape.locale,
     prices: z.array(
       z.object({
         name: z.string().trim().min(1, 'Name the price.'),
@@ -44,8 +52,9 @@ const Settings = z
   .refine((v) => v.t0Tag === '' || canConvert(v.t0TagUnit, 'temperature'), { path: ['t0TagUnit'], message: 'A temperature unit (degC, K, degF).' });
 type Settings = z.infer<typeof Settings>;
 
-function settingsValues(s: SiteModel): Settings {
+function settingsValues(s: SiteModel, display: Overview['display']): Settings {
   return {
+    ...displayFieldValues(display.units),
     name: s.name,
     timeZone: s.timeZone,
     elevation: s.elevation_m === undefined ? '' : String(s.elevation_m),
@@ -60,7 +69,7 @@ function settingsValues(s: SiteModel): Settings {
 }
 
 function SettingsForm({ overview, canEdit, onSaved }: { overview: Overview; canEdit: boolean; onSaved: (m: Message) => void }) {
-  const form = useForm<Settings>({ resolver: zodResolver(Settings), defaultValues: settingsValues(overview.settings) });
+  const form = useForm<Settings>({ resolver: zodResolver(Settings), defaultValues: settingsValues(overview.settings, overview.display) });
   const prices = useFieldArray({ control: form.control, name: 'prices' });
   const err = form.formState.errors;
   const [elevationOnly, setElevationOnly] = useState(false);
@@ -77,6 +86,7 @@ function SettingsForm({ overview, canEdit, onSaved }: { overview: Overview; canE
         T0Tag: v.t0Tag === '' ? null : { tag: v.t0Tag, unit: v.t0TagUnit },
         currency: v.currency,
         prices: v.prices.map((p): EnergyPrice => ({ name: p.name, kind: p.kind, price_per_MWh: Number(p.price), currency: p.currency })),
+        displayUnits: displayUnitsOf(v),
       });
       onSaved({ ok: true, text: 'Site saved.' });
     } catch (e) {
@@ -119,6 +129,9 @@ function SettingsForm({ overview, canEdit, onSaved }: { overview: Overview; canE
         <Field id="s-cur" label="Currency" error={err.currency?.message}>
           <input id="s-cur" className="field" {...form.register('currency')} />
         </Field>
+      </fieldset>
+      <fieldset disabled={!canEdit}>
+        <DisplayUnitsFields register={form.register} chosen={overview.display.chosen} />
       </fieldset>
       <div>
         <h3 className="mb-1 text-sm font-semibold">Energy prices (fuels per MWh LHV; electricity per MWh)</h3>

@@ -3,6 +3,7 @@ import { useCallback, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
 import { FLUID_LABELS, LINK_QUANTITIES, kindSpec, type FluidKind, type LinkQuantity, type ParamSpec } from '~/lib/plant/kinds';
+import { shownUnit, type DisplayUnits } from '~/lib/units/display';
 import { FUEL_TYPES, type FuelDefinition, type Fluid } from '~/lib/plant/model';
 import { Field, Notice, parseComposition, readSI, showComposition, showInstant, showSI } from './common';
 import { call, messageOf, type Message } from '~/components/api';
@@ -32,19 +33,28 @@ export interface UnitPageData {
   tags: TagJson[];
   boilers: string[];
   prices: string[];
+  /** The site's display units; parameters of power, mass flow and temperature are shown in them. */
+  display?: DisplayUnits;
 }
 
 const holdsNow = (l: LinkRow, now = Date.now()) => Date.parse(l.validFrom) <= now && (l.validTo === null || Date.parse(l.validTo) > now);
 
-function paramText(spec: ParamSpec, value: number | string | undefined): string {
+/** The unit a parameter is typed in: the site's display unit for power, mass flow and temperature, else the catalogue's. */
+function paramUnit(spec: ParamSpec, display?: DisplayUnits): string {
+  if (spec.type !== 'number') return '';
+  if (display && (spec.quantity === 'power' || spec.quantity === 'massFlow' || spec.quantity === 'temperature')) return display[spec.quantity];
+  return spec.displayUnit;
+}
+
+function paramText(spec: ParamSpec, value: number | string | undefined, display?: DisplayUnits): string {
   if (value === undefined) return '';
-  return spec.type === 'number' ? showSI(value as number, spec.displayUnit, spec.quantity) : String(value);
+  return spec.type === 'number' ? showSI(value as number, paramUnit(spec, display), spec.quantity) : String(value);
 }
 
 function ParametersForm({ data, canEdit, onSaved }: { data: UnitPageData; canEdit: boolean; onSaved: (m: Message) => void }) {
   const specs = kindSpec(data.unit.kind).params;
   const form = useForm<Record<string, string>>({
-    defaultValues: Object.fromEntries(specs.map((s) => [s.key, paramText(s, data.unit.parameters[s.key])])),
+    defaultValues: Object.fromEntries(specs.map((s) => [s.key, paramText(s, data.unit.parameters[s.key], data.display)])),
   });
   async function save(v: Record<string, string>) {
     const parameters: Record<string, number | string | null> = {};
@@ -52,7 +62,7 @@ function ParametersForm({ data, canEdit, onSaved }: { data: UnitPageData; canEdi
       const text = (v[s.key] ?? '').trim();
       if (s.type === 'choice') parameters[s.key] = text;
       else {
-        const si = readSI(text, s.displayUnit, s.quantity);
+        const si = readSI(text, paramUnit(s, data.display), s.quantity);
         if (si !== null && Number.isNaN(si)) {
           form.setError(s.key, { message: 'A number.' });
           return;
@@ -74,7 +84,7 @@ function ParametersForm({ data, canEdit, onSaved }: { data: UnitPageData; canEdi
           <Field
             key={s.key}
             id={`param-${s.key}`}
-            label={`${s.label}${s.type === 'number' ? ` [${s.displayUnit}]` : ''}${s.type === 'number' && s.required ? ' *' : ''}`}
+            label={`${s.label}${s.type === 'number' ? ` [${shownUnit(paramUnit(s, data.display))}]` : ''}${s.type === 'number' && s.required ? ' *' : ''}`}
             error={form.formState.errors[s.key]?.message}
           >
             {s.type === 'choice' ? (
@@ -283,8 +293,7 @@ function AddPort({ data, onDone }: { data: UnitPageData; onDone: (m: Message) =>
           >
             {spec.ports.map((s) => (
               <option key={s.slot} value={s.slot}>
-                {s.label} ({s.role}
-                {s.max === null ? `, ${s.min}..n` : `, ${s.min}..${s.max}`})
+                {s.label} ({s.role === 'in' ? 'into the unit' : 'out of the unit'}, {slotCountWords(s.min, s.max)})
               </option>
             ))}
           </select>
@@ -610,4 +619,12 @@ export default function UnitEditor({ initial, canEdit }: { initial: UnitPageData
       </section>
     </div>
   );
+}
+
+/** How many ports of a slot a unit may have, in words: "exactly one", "one or more", "any number". */
+export function slotCountWords(min: number, max: number | null): string {
+  const n = (k: number) => ['none', 'one', 'two', 'three'][k] ?? String(k);
+  if (max === null) return min === 0 ? 'any number' : `${n(min)} or more`;
+  if (min === max) return `exactly ${n(min)}`;
+  return min === 0 ? `at most ${n(max)}` : `${n(min)} to ${n(max)}`;
 }

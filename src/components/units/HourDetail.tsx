@@ -4,15 +4,30 @@ import { HourStateMark } from './HourStateMark';
 import { fmt, fmtU, siteTime } from './format';
 import { call } from '~/components/api';
 import type { HourAudit as Detail, UnitHourDetailView as Hour, UnitInfo } from '~/lib/views/unit-hour';
+import { siteWriter, type SiteWriter } from '~/lib/units/writer';
+import { inputWords, labelOf, wordsFor } from '~/lib/words';
 
-const kW = (w: number | null | undefined) => fmt(w, 1, 1e-3);
 const ROLE_WORD: Record<string, string> = { fuel: 'fuel F', product: 'product P', loss: 'loss L' };
 
-function sourceText(s: Detail['inputs'][number]['source']): string {
-  if (s.kind === 'tag') return `${s.tag} (${fmt(s.reading ?? null, 3)} ${s.engUnit})${s.note ? `; ${s.note}` : ''}`;
-  if (s.kind === 'parameter') return `parameter ${s.key}`;
+function sourceText(s: Detail['inputs'][number]['source'], w: SiteWriter): string {
+  if (s.kind === 'tag') return `${s.tag} (${w.number(s.reading ?? null, 3)} ${s.engUnit})${s.note ? `; ${s.note}` : ''}`;
+  if (s.kind === 'parameter') return `parameter: ${inputWords(s.key ?? '').label}`;
   if (s.kind === 'copy') return `${s.note} (${s.of})`;
   return s.what ?? 'site';
+}
+
+/** A value of the input vector in the site's unit, with its unit. */
+function valueText(v: number | null, q: ReturnType<typeof inputWords>['quantity'], w: SiteWriter): string {
+  if (v === null) return '–';
+  const u = w.unit(q);
+  return `${w.value(v, q, q === 'none' ? 4 : undefined)}${u ? ` ${u}` : ''}`;
+}
+
+/** A standard uncertainty in the site's unit of a difference, with its unit. */
+function deltaText(u_SI: number, q: ReturnType<typeof inputWords>['quantity'], w: SiteWriter): string {
+  if (!u_SI) return '0';
+  const u = w.deltaUnit(q);
+  return `${w.delta(u_SI, q)}${u ? ` ${u}` : ''}`;
 }
 
 /** One hour opened up: every port's state, every term, F P L D, uncertainty, reasons, the tag hours and links used. */
@@ -20,6 +35,9 @@ export function HourDetail({ unit, hourStart, onClose }: { unit: UnitInfo; hourS
   const [hour, setHour] = useState<Hour | null>(null);
   const [error, setError] = useState<string | null>(null);
   const tz = unit.timeZone;
+  const w = siteWriter(unit.display?.units, unit.display?.p_atm_Pa);
+  const kW = (v: number | null | undefined) => w.value(v, 'power');
+  const P = w.unit('power');
 
   useEffect(() => {
     let live = true;
@@ -64,7 +82,7 @@ export function HourDetail({ unit, hourStart, onClose }: { unit: UnitInfo; hourS
           <ul className="list-disc pl-5 text-sm" data-testid="hour-reasons">
             {hour.reasons.map((r, i) => (
               <li key={i}>
-                <span className="font-mono text-xs">{r.code}</span> {r.message}
+                <span className="font-medium">{labelOf(r.code, 'other reason')}:</span> {r.message}
               </li>
             ))}
           </ul>
@@ -78,21 +96,21 @@ export function HourDetail({ unit, hourStart, onClose }: { unit: UnitInfo; hourS
           <table className="grid-table max-w-2xl" data-testid="hour-balance">
             <tbody>
               <tr>
-                <td>Fuel exergy F [kW]</td>
+                <td>Fuel exergy F [{P}]</td>
                 <td className="num">{kW(b.fuel_W)}</td>
               </tr>
               <tr>
-                <td className="text-teal-deep">Product exergy P [kW]</td>
+                <td className="text-teal-deep">Product exergy P [{P}]</td>
                 <td className="num">{b.product_W === null ? 'none (dissipative unit)' : kW(b.product_W)}</td>
               </tr>
               <tr>
-                <td className="text-copper-deep">Exergy loss L [kW]</td>
+                <td className="text-copper-deep">Exergy loss L [{P}]</td>
                 <td className="num">{kW(b.loss_W)}</td>
               </tr>
               <tr>
-                <td className="text-copper-deep">Exergy destruction D [kW] ± U (k = 2)</td>
+                <td className="text-copper-deep">Exergy destruction D [{P}] ± U (k = 2)</td>
                 <td className="num">
-                  {fmtU(b.destruction_W, hour.destruction_U_W, 1, 1e-3)}
+                  {w.withU(b.destruction_W, hour.destruction_U_W, 'power').replaceAll(` ${P}`, '')}
                 </td>
               </tr>
               <tr>
@@ -100,23 +118,23 @@ export function HourDetail({ unit, hourStart, onClose }: { unit: UnitInfo; hourS
                 <td className="num">{b.efficiency === null ? 'none' : fmtU(b.efficiency, hour.efficiency_U, 2, 100)}</td>
               </tr>
               <tr>
-                <td>T0 Sgen from the entropy balance [kW]</td>
+                <td>T0 Sgen from the entropy balance [{P}]</td>
                 <td className="num">{kW(b.T0Sgen_W)}</td>
               </tr>
               <tr>
-                <td>D − T0 Sgen [kW]</td>
+                <td>D − T0 Sgen [{P}]</td>
                 <td className="num">{kW(b.gouyStodolaResidual_W)}</td>
               </tr>
               <tr>
-                <td>First-law residual [kW] (closure [%])</td>
+                <td>First-law residual [{P}] (closure [%])</td>
                 <td className="num">
                   {kW(b.energyResidual_W)} ({fmt(b.energyClosure_pct, 2)})
                 </td>
               </tr>
               <tr>
-                <td>Mass residual [kg/s]{b.massClosureShare !== null ? ' (share of inflow [%])' : ''}</td>
+                <td>Mass residual [{w.unit('massFlow')}]{b.massClosureShare !== null ? ' (share of inflow [%])' : ''}</td>
                 <td className="num">
-                  {fmt(b.massResidual_kg_per_s, 4)}
+                  {w.value(b.massResidual_kg_per_s, 'massFlow', 3)}
                   {b.massClosureShare !== null ? ` (${fmt(b.massClosureShare, 2, 100)})` : ''}
                 </td>
               </tr>
@@ -126,12 +144,20 @@ export function HourDetail({ unit, hourStart, onClose }: { unit: UnitInfo; hourS
               </tr>
               {Object.entries(b.extras)
                 .filter(([, v]) => v !== null)
-                .map(([k, v]) => (
-                  <tr key={k}>
-                    <td className="text-ink-soft">{k}</td>
-                    <td className="num text-ink-soft">{fmt(v, Math.abs(v!) < 10 ? 4 : 1)}</td>
-                  </tr>
-                ))}
+                .map(([k, v]) => {
+                  const e = wordsFor(k);
+                  const q = e?.quantity ?? 'none';
+                  const u = w.unit(q);
+                  return (
+                    <tr key={k}>
+                      <td className="text-ink-soft">
+                        {e?.label ?? 'other figure'}
+                        {u ? ` [${u}]` : ''}
+                      </td>
+                      <td className="num text-ink-soft">{w.value(v, q)}</td>
+                    </tr>
+                  );
+                })}
             </tbody>
           </table>
           {d?.cost && <p className="mt-1 text-xs text-ink-soft">Price of the fuel exergy: {d.cost.basis}.</p>}
@@ -148,14 +174,14 @@ export function HourDetail({ unit, hourStart, onClose }: { unit: UnitInfo; hourS
                 <th>Fluid</th>
                 <th>State from</th>
                 <th>Flow from</th>
-                <th className="num">Flow [kg/s]</th>
-                <th className="num">p [kPa]</th>
-                <th className="num">T [°C]</th>
+                <th className="num">Flow [{w.unit('massFlow')}]</th>
+                <th className="num">p [{w.unit('pressure')}]</th>
+                <th className="num">T [{w.unit('temperature')}]</th>
                 <th className="num">h [kJ/kg]</th>
                 <th className="num">s [kJ/(kg K)]</th>
                 <th className="num">x [-]</th>
                 <th className="num">ψ [kJ/kg]</th>
-                <th className="num">Exergy flow [kW]</th>
+                <th className="num">Exergy flow [{P}]</th>
               </tr>
             </thead>
             <tbody>
@@ -167,9 +193,9 @@ export function HourDetail({ unit, hourStart, onClose }: { unit: UnitInfo; hourS
                   <td>{plan.get(p.name)?.fluid ?? (p.name === 'air' ? 'air (ambient)' : '')}</td>
                   <td className="text-xs">{plan.get(p.name)?.state ?? 'at the dead state'}</td>
                   <td className="text-xs">{plan.get(p.name)?.flow ?? 'from the combustion balance'}</td>
-                  <td className="num">{fmt(p.mDot_kg_per_s, 3)}</td>
-                  <td className="num">{fmt(p.p_Pa, 1, 1e-3)}</td>
-                  <td className="num">{fmt(p.T_K - 273.15, 2)}</td>
+                  <td className="num">{w.value(p.mDot_kg_per_s, 'massFlow', 3)}</td>
+                  <td className="num">{w.value(p.p_Pa, 'pressure', 3)}</td>
+                  <td className="num">{w.value(p.T_K, 'temperature', 2)}</td>
                   <td className="num">{fmt(p.h_J_per_kg, 2, 1e-3)}</td>
                   <td className="num">{fmt(p.s_J_per_kgK, 4, 1e-3)}</td>
                   <td className="num">{p.x === null ? '–' : fmt(p.x, 4)}</td>
@@ -191,7 +217,7 @@ export function HourDetail({ unit, hourStart, onClose }: { unit: UnitInfo; hourS
               <tr>
                 <th>Term</th>
                 <th>Counts as</th>
-                <th className="num">Exergy [kW]</th>
+                <th className="num">Exergy [{P}]</th>
               </tr>
             </thead>
             <tbody>
@@ -216,7 +242,7 @@ export function HourDetail({ unit, hourStart, onClose }: { unit: UnitInfo; hourS
               <tr>
                 <th>Input</th>
                 <th>Tag</th>
-                <th className="num">Standard uncertainty u [SI]</th>
+                <th className="num">Standard uncertainty u</th>
                 <th className="num">Share of the variance of the efficiency [%]</th>
                 <th className="num">Share of the variance of D [%]</th>
               </tr>
@@ -259,7 +285,7 @@ export function HourDetail({ unit, hourStart, onClose }: { unit: UnitInfo; hourS
               {d.tagHours.map((t) => (
                 <tr key={t.tag}>
                   <td className="font-mono text-xs">{t.tag}</td>
-                  <td>{t.quantity ? `${t.quantity}${t.port ? ` at ${t.port}` : ' of the unit'}` : t.role}</td>
+                  <td>{t.quantity ? `${labelOf(t.quantity, 'measurement')}${t.port ? ` at ${t.port}` : ' of the unit'}` : t.role}</td>
                   <td>{t.engUnit ?? ''}</td>
                   <td className="num">{fmt(t.hour?.mean ?? null, 3)}</td>
                   <td className="num">{fmt(t.hour?.min ?? null, 3)}</td>
@@ -288,23 +314,23 @@ export function HourDetail({ unit, hourStart, onClose }: { unit: UnitInfo; hourS
 
       {d && d.inputs.length > 0 && (
         <details>
-          <summary className="cursor-pointer font-medium">Input vector of the balance (SI)</summary>
+          <summary className="cursor-pointer font-medium">Values the balance was given</summary>
           <table className="grid-table mt-2 max-w-4xl" data-testid="hour-inputs">
             <thead>
               <tr>
                 <th>Entry</th>
-                <th className="num">Value [SI]</th>
-                <th className="num">u [SI]</th>
+                <th className="num">Value</th>
+                <th className="num">Standard uncertainty u</th>
                 <th>From</th>
               </tr>
             </thead>
             <tbody>
               {d.inputs.map((i) => (
                 <tr key={i.name}>
-                  <td className="font-mono text-xs">{i.name}</td>
-                  <td className="num">{i.value === null ? '–' : i.value.toPrecision(7)}</td>
-                  <td className="num">{i.u ? i.u.toPrecision(3) : '0'}</td>
-                  <td className="text-xs">{sourceText(i.source)}</td>
+                  <td>{inputWords(i.name).label}</td>
+                  <td className="num">{valueText(i.value, inputWords(i.name).quantity, w)}</td>
+                  <td className="num">{deltaText(i.u, inputWords(i.name).quantity, w)}</td>
+                  <td className="text-xs">{sourceText(i.source, w)}</td>
                 </tr>
               ))}
             </tbody>
@@ -315,8 +341,8 @@ export function HourDetail({ unit, hourStart, onClose }: { unit: UnitInfo; hourS
       <div className="text-xs text-ink-soft">
         {d && (
           <p>
-            Dead state T0 = {fmt(d.deadState.T0_K - 273.15, 2)} °C, p0 = {fmt(d.deadState.p0_Pa, 2, 1e-3)} kPa ({d.deadState.source}).
-            {d.load ? ` Load: ${d.load.label} ${d.load.value === null ? '–' : fmt(d.load.value, 2, d.load.unit === 'W' ? 1e-3 : 3.6)} ${d.load.unit === 'W' ? 'kW' : 't/h'}.` : ''}
+            Dead state T0 = {w.value(d.deadState.T0_K, 'temperature', 2)} {w.unit('temperature')}, p0 = {w.number(d.deadState.p0_Pa / 1e3, 2)} kPa ({d.deadState.source}).
+            {d.load ? ` Load: ${d.load.label} ${w.value(d.load.value, d.load.unit === 'W' ? 'power' : 'massFlow', 2)} ${w.unit(d.load.unit === 'W' ? 'power' : 'massFlow')}.` : ''}
           </p>
         )}
         {d?.notes.length ? (

@@ -6,7 +6,7 @@ import { StateMark, type MarkShape } from '../StateMark';
  */
 export const HOUR_STATE_LOOK: Record<string, { label: string; shape: MarkShape; className: string }> = {
   steady: { label: 'steady', shape: 'circle', className: 'text-teal' },
-  unsettled: { label: 'unsettled', shape: 'triangle', className: 'text-amber' },
+  unsettled: { label: 'unsettled', shape: 'triangle', className: 'text-amber-deep' },
   idle: { label: 'idle', shape: 'bar', className: 'text-slate' },
   suspect: { label: 'suspect', shape: 'diamond', className: 'text-copper' },
 };

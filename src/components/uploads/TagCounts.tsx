@@ -1,5 +1,6 @@
 /** One tag's counts in a file's report (summary.perTag of the uploads API). */
 import type { TagCountRow } from '~/lib/upload-view';
+import { fixed } from '~/lib/format';
 
 export type { TagCountRow };
 
@@ -24,8 +25,8 @@ export function TagCounts({ rows }: { rows: TagCountRow[] }) {
             return (
               <tr key={r.tag} className={lost ? 'text-copper-deep' : undefined}>
                 <td>{r.tag}{lost ? ' (lost more than half)' : ''}</td>
-                <td className="num">{r.values.toLocaleString()}</td>
-                <td className="num">{(r.rejected ?? 0).toLocaleString()}</td>
+                <td className="num">{fixed(r.values, 0)}</td>
+                <td className="num">{fixed(r.rejected ?? 0, 0)}</td>
                 <td className="text-xs">{(r.examples ?? []).map((e) => `${e.text} (${e.count}×)`).join(', ')}</td>
               </tr>
             );

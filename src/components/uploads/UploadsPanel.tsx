@@ -3,6 +3,7 @@ import Uppy from '@uppy/core';
 import Dashboard from '@uppy/react/dashboard';
 import '@uppy/core/css/style.min.css';
 import '@uppy/dashboard/css/style.min.css';
+import { fixed } from '~/lib/format';
 import { Fragment, useEffect, useMemo, useState } from 'react';
 import { StateMark } from '../StateMark';
 import { call, useApi } from '~/components/api';
@@ -139,7 +140,7 @@ export default function UploadsPanel({ sites, initialSiteId }: { sites: Site[]; 
                           <div className="h-full bg-teal transition-all" style={{ width: `${Math.round(r.progress * 100)}%` }} />
                         </div>
                       </td>
-                      <td className="num">{r.rowsRead.toLocaleString()}</td>
+                      <td className="num">{fixed(r.rowsRead, 0)}</td>
                       <td className="text-right">
                         {r.status === 'failed' && (
                           <button className="btn" type="button" onClick={() => retry(r.uploadId)}>Read again</button>
@@ -189,11 +190,11 @@ function UploadReport({ row }: { row: UploadRow }) {
   return (
     <div className="space-y-2 py-2" data-testid="upload-report">
       <dl className="grid grid-cols-2 gap-x-6 gap-y-1 text-sm sm:grid-cols-6">
-        <dt className="text-ink-soft">Rows</dt><dd className="tabular-nums">{s.rows?.toLocaleString()}</dd>
+        <dt className="text-ink-soft">Rows</dt><dd className="tabular-nums">{fixed(s.rows, 0)}</dd>
         <dt className="text-ink-soft">Tags</dt><dd className="tabular-nums">{s.tags} ({s.newTags ?? 0} new)</dd>
-        <dt className="text-ink-soft">Tag hours</dt><dd className="tabular-nums">{s.hours?.toLocaleString()}</dd>
-        <dt className="text-ink-soft">Values</dt><dd className="tabular-nums">{s.values?.toLocaleString()}</dd>
-        <dt className="text-ink-soft">Rejected cells</dt><dd className="tabular-nums">{s.rejected?.toLocaleString()}</dd>
+        <dt className="text-ink-soft">Tag hours</dt><dd className="tabular-nums">{fixed(s.hours, 0)}</dd>
+        <dt className="text-ink-soft">Values</dt><dd className="tabular-nums">{fixed(s.values, 0)}</dd>
+        <dt className="text-ink-soft">Rejected cells</dt><dd className="tabular-nums">{fixed(s.rejected, 0)}</dd>
         <dt className="text-ink-soft">Warnings</dt><dd className="tabular-nums">{s.warnings?.length ?? 0}</dd>
       </dl>
       {!!s.warnings?.length && (

@@ -5,6 +5,7 @@
 import { z } from 'zod';
 import { ELEVATION_MAX_m, ELEVATION_MIN_m } from './atmosphere';
 import { NormallyIdleSchema } from './idle';
+import { DisplayUnitsSchema } from '../units/display';
 import { UNIT_KINDS } from './kinds';
 import { EnergyPriceSchema, FluidSchema, FuelDefinitionSchema, PRESSURE_ATM_MAX_Pa, PRESSURE_ATM_MIN_Pa, T0_MAX_K, T0_MIN_K, isTimeZone } from './model';
 
@@ -24,6 +25,8 @@ export const SiteInput = z.strictObject({
   T0Tag: z.strictObject({ tag: z.string().trim().min(1).max(200), unit: z.string().min(1).max(40) }).nullable().optional(),
   currency: Currency.default('EUR'),
   prices: z.array(EnergyPriceSchema).default([]),
+  /** Units the site's pages show numbers in; null: follow the units of its tags; left out: unchanged. */
+  displayUnits: DisplayUnitsSchema.partial().nullable().optional(),
 });
 export type SiteInput = z.infer<typeof SiteInput>;
 

@@ -5,6 +5,7 @@
  */
 import type { UnitHourResult } from '../engine/types';
 import type { HourState } from '../hour-states';
+import type { DisplayUnits } from '../units/display';
 
 /** The unit whose hours are shown, with its site's clock and currency. */
 export interface UnitInfo {
@@ -14,6 +15,8 @@ export interface UnitInfo {
   siteName: string;
   timeZone: string;
   currency: string;
+  /** The site's display units and atmosphere (src/lib/units/display.ts); SI defaults when absent. */
+  display?: { units: DisplayUnits; p_atm_Pa: number };
 }
 
 /** The figures of a unit hour as the engine computes them (src/lib/engine/types.ts). */

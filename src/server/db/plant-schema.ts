@@ -4,6 +4,7 @@ import type { EnergyPrice, FuelDefinition, Fluid } from '~/lib/plant/model';
 import type { LinkQuantity, ParamValue, PortRole, PortStream, UnitKind } from '~/lib/plant/kinds';
 import type { UncertaintyMode } from '~/lib/plant/uncertainty';
 import type { NormallyIdle } from '~/lib/plant/idle';
+import type { DisplayUnits } from '~/lib/units/display';
 import { user } from './auth-schema';
 import { tags } from './ingest-schema';
 
@@ -27,6 +28,8 @@ export const sites = pgTable('sites', {
   currency: text('currency').notNull().default('EUR'),
   /** Prices of purchased fuels (per MWh LHV) and electricity (per MWh), for the cost of destruction. */
   prices: jsonb('prices').$type<EnergyPrice[]>().notNull().default(sql`'[]'::jsonb`),
+  /** Units the site's screens, mails and reports show numbers in (src/lib/units/display.ts); null: derived from its tags. */
+  displayUnits: jsonb('display_units').$type<Partial<DisplayUnits>>(),
   /** Months of tag hours and unit hours kept (null: all); raw files stay in the store (src/server/db/partitions.ts). */
   retentionMonths: integer('retention_months'),
   updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),

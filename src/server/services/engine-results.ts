@@ -159,6 +159,7 @@ export async function unitsOverview() {
   const res = await db().execute<{
     site_id: string;
     site_name: string;
+    time_zone: string;
     unit_id: string;
     unit_name: string;
     kind: string;
@@ -166,7 +167,7 @@ export async function unitsOverview() {
     last_state: string | null;
     hours: number;
   }>(sql`
-    select s.id as site_id, s.name as site_name, u.id as unit_id, u.name as unit_name, u.kind,
+    select s.id as site_id, s.name as site_name, s.time_zone, u.id as unit_id, u.name as unit_name, u.kind,
            l.hour_start as last_hour, l.state as last_state, coalesce(c.n, 0)::int as hours
     from plant_units u
     join sites s on s.id = u.site_id
@@ -176,6 +177,7 @@ export async function unitsOverview() {
   return res.rows.map((r) => ({
     siteId: r.site_id,
     siteName: r.site_name,
+    timeZone: r.time_zone,
     unitId: r.unit_id,
     unitName: r.unit_name,
     kind: r.kind,

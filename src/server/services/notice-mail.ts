@@ -2,7 +2,8 @@
  * The texts of notice mails (opening, escalation, daily digest) and the lines of figures they share:
  * composition only, no I/O. Queueing them is the work of ./notices.ts.
  */
-import { fixed } from '~/lib/format';
+import { fixed, withU } from '~/lib/format';
+import { PALETTE } from '~/lib/palette';
 import { siteStampWithZone } from '~/lib/site-time';
 import { SAFETY_CAUTION } from '~/lib/caution';
 import type { NoticeView } from '~/lib/notice-view';
@@ -12,7 +13,7 @@ import { ruleFigureLines, ruleNoticeMail } from './unit-rule-words';
 
 /** The link and the caution every notice mail ends with, as text and as HTML. */
 const textTail = (url: string) => ['', `Open the notice: ${url}`, '', SAFETY_CAUTION];
-const htmlCaution = () => `<p style="border:1px solid #c98a12;background:#f7e6bf;padding:8px">${escapeHtml(SAFETY_CAUTION)}</p>`;
+const htmlCaution = () => `<p style="border:1px solid ${PALETTE.amber.DEFAULT};background:${PALETTE.amber.pale};padding:8px">${escapeHtml(SAFETY_CAUTION)}</p>`;
 const htmlBody = (headHtml: string, lines: string[], url: string) =>
   [`<p>${headHtml}</p>`, `<ul>${lines.map((l) => `<li>${escapeHtml(l)}</li>`).join('')}</ul>`, `<p><a href="${escapeHtml(url)}">Open the notice</a></p>`, htmlCaution()].join('\n');
 
@@ -21,6 +22,9 @@ const money = (v: number, currency: string) => `${currency} ${fixed(v, 0, { grou
 const when = siteStampWithZone;
 
 const signed = (W: number) => `${W >= 0 ? '+' : '-'}${kW(Math.abs(W))}`;
+/** A signed power and its U at the decimals U asks for (src/lib/format.ts): "+412 kW ± 18 kW". */
+const signedU = (W: number, U: number | null) =>
+  U === null || !Number.isFinite(U) || U === 0 ? signed(W) : `${W >= 0 ? '+' : '-'}${withU(Math.abs(W) / 1000, U / 1000, { group: ' ', unit: 'kW' })}`;
 
 /** The product's words for how a shift moves (rule in src/lib/analytics/notice-figures.ts). */
 export const TREND_WORDS = { growing: 'growing', steady: 'steady', receding: 'receding' } as const;
@@ -33,15 +37,14 @@ export const TREND_WORDS = { growing: 'growing', steady: 'steady', receding: 're
 export function noticeFigureLines(n: NoticeView): string[] {
   if (n.kind !== 'drift') return ruleFigureLines(n);
   const hoursOfHeadline = n.currentHours ?? n.hours;
-  const pm = (U: number | null) => (U === null || !Number.isFinite(U) ? '' : ` +/- ${kW(U)}`);
   const lines = [
-    `Extra destruction: ${signed(n.headline_W)}${pm(n.headlineU_W)} against the expected ${kW(n.expected_W)} (mean of the last ${hoursOfHeadline} steady hours; k = 2)`,
+    `Extra destruction: ${signedU(n.headline_W, n.headlineU_W)} against the expected ${kW(n.expected_W)} (mean of the last ${hoursOfHeadline} steady hours; k = 2)`,
     n.headlineCost_per_day === null
       ? 'Cost per day: not known (no cost rate for this unit or site)'
-      : `Cost per day: ${money(n.headlineCost_per_day, n.currency)}${n.headlineCostU_per_day !== null ? ` +/- ${money(n.headlineCostU_per_day, n.currency)}` : ''}`,
+      : `Cost per day: ${n.currency} ${withU(n.headlineCost_per_day, n.headlineCostU_per_day, { group: ' ', decimals: 0 })}`,
   ];
   if (n.sinceOnset_W !== null && n.sinceOnsetHours !== null && n.sinceOnsetHours > hoursOfHeadline) {
-    lines.push(`Since onset: ${signed(n.sinceOnset_W)}${pm(n.sinceOnsetU_W)} (mean of ${n.sinceOnsetHours} steady hours); the shift is ${n.trend ? TREND_WORDS[n.trend] : 'steady'}`);
+    lines.push(`Since onset: ${signedU(n.sinceOnset_W, n.sinceOnsetU_W)} (mean of ${n.sinceOnsetHours} steady hours); the shift is ${n.trend ? TREND_WORDS[n.trend] : 'steady'}`);
   }
   lines.push(`At signal: ${signed(n.extra_W)} (mean of ${n.hours} steady hours from onset to signal)`);
   lines.push(`Since: ${when(n.onsetHour, n.timeZone)} (onset estimate; sustained shift confirmed ${when(n.signalHour, n.timeZone)})`);
@@ -50,8 +53,8 @@ export function noticeFigureLines(n: NoticeView): string[] {
     n.headlineExceeds === null || measU === null
       ? 'Against measurement uncertainty: not known (the hours carry no uncertainty)'
       : n.headlineExceeds
-        ? `Against measurement uncertainty: exceeds it (shift ${kW(Math.abs(n.headline_W))} against +/- ${kW(measU)} for the mean of ${hoursOfHeadline} hours${n.hourU_W !== null ? `; one hour +/- ${kW(n.hourU_W)}` : ''})`
-        : `Against measurement uncertainty: within it (shift ${kW(Math.abs(n.headline_W))} against +/- ${kW(measU)} for the mean of ${hoursOfHeadline} hours)`,
+        ? `Against measurement uncertainty: exceeds it (shift ${kW(Math.abs(n.headline_W))} against ± ${kW(measU)} for the mean of ${hoursOfHeadline} hours${n.hourU_W !== null ? `; one hour ± ${kW(n.hourU_W)}` : ''})`
+        : `Against measurement uncertainty: within it (shift ${kW(Math.abs(n.headline_W))} against ± ${kW(measU)} for the mean of ${hoursOfHeadline} hours)`,
   );
   if (n.fadedSince) lines.push(`Faded since ${when(n.fadedSince, n.timeZone)}: the shift has gone; a later shift opens a new notice`);
   return lines;

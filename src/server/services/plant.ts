@@ -29,6 +29,7 @@ import { isId } from '../access';
 import { AppError } from '../errors';
 import { inTransaction, openEndMs, type Tx } from './plant-tx';
 import { queueUnitRuleCheck } from './unit-rules';
+import { siteDisplay } from './display-units';
 import { HOUR_MS } from '~/lib/time';
 
 type Reader = Tx | ReturnType<typeof db>;
@@ -84,6 +85,7 @@ async function siteValues(tx: Tx, siteId: string | null, input: SiteInput) {
     t0TagUnit: input.T0Tag?.unit ?? null,
     currency: input.currency,
     prices: input.prices,
+    ...(input.displayUnits !== undefined ? { displayUnits: input.displayUnits } : {}),
     updatedAt: new Date(),
   };
 }
@@ -492,6 +494,8 @@ export async function siteOverview(siteId: string) {
     site,
     /** The site's settings as the model file writes them (ambient tag by name). */
     settings: model.site,
+    /** The units its pages show numbers in. */
+    display: await siteDisplay(siteId, r),
     units: model.units.map((u) => ({
       id: ids.units.get(u.name)!.id,
       ...u,

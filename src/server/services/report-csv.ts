@@ -4,9 +4,13 @@
  * record is written by Papa.unparse (csvLine), so text a spreadsheet would run as a formula (=, +, -,
  * @ ...) is written as text (plain decimal numbers, negative ones included, stay numbers).
  */
+import { NOTICE_STATUS_WORDS } from '~/lib/words';
+import type { NoticeStatus } from '~/lib/notice-view';
 import { csvLine, type CsvCell } from '~/lib/csv-write';
 import type { ReportData } from './report';
 import { fixed, mwhDecimals } from './report-format';
+import { labelOf } from '~/lib/words';
+import { siteStamp } from '~/lib/site-time';
 
 import { HOUR_STATES as STATES } from '~/lib/hour-states';
 
@@ -110,12 +114,12 @@ export function reportCsvLines(r: ReportData): string[] {
   );
   if (!r.notices.length) out.push(line('none'));
   for (const n of r.notices) {
-    const at = (ms: number) => new Intl.DateTimeFormat('sv-SE', { timeZone: r.site.timeZone, dateStyle: 'short', timeStyle: 'short' }).format(ms);
+    const at = (ms: number) => siteStamp(ms, r.site.timeZone);
     out.push(
       line(
         n.unitName,
         n.direction === 'up' ? 'more destruction than expected' : 'less destruction than expected',
-        n.status,
+        NOTICE_STATUS_WORDS[n.status as NoticeStatus]?.label ?? 'other',
         at(n.onsetMs),
         at(n.signalMs),
         n.hours,
@@ -134,9 +138,9 @@ export function reportCsvLines(r: ReportData): string[] {
   out.push('');
 
   out.push(line('Data quality: most frequent reasons for hours that are not steady'));
-  out.push(line('reason code', 'example', 'hours [h]'));
+  out.push(line('reason', 'example', 'hours [h]'));
   if (!r.quality.reasons.length) out.push(line('none'));
-  for (const q of r.quality.reasons) out.push(line(q.code, q.example, q.hours));
+  for (const q of r.quality.reasons) out.push(line(labelOf(q.code, 'other reason'), q.example, q.hours));
   out.push('');
 
   out.push(line('Caution'));

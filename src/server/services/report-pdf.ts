@@ -3,25 +3,32 @@
  * which pdfkit's font reader takes). Warm paper page, ink text, copper for destruction and loss,
  * teal for product; numbers right-aligned with their unit in the column head.
  */
+import { NOTICE_STATUS_WORDS } from '~/lib/words';
+import type { NoticeStatus } from '~/lib/notice-view';
 import { existsSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import { join } from 'node:path';
 import PDFDocument from 'pdfkit';
 import type { ReportData } from './report';
-import { fixed, kW, mwhDecimals, pct, pm } from './report-format';
+import { PALETTE } from '~/lib/palette';
+import { fixed, fixedU, kW, mwhDecimals, pct } from './report-format';
+import { labelOf } from '~/lib/words';
+import { siteStamp } from '~/lib/site-time';
 
+/** Colours of the report, all from the one palette (src/lib/palette.ts). */
 const C = {
-  paper: '#f7f3ea',
-  paperDeep: '#efe8d9',
-  edge: '#ddd3bf',
-  ink: '#22201c',
-  soft: '#4a463e',
-  faint: '#7a7366',
-  copper: '#b5562a',
-  copperPale: '#f3dccd',
-  teal: '#1f7a72',
-  amber: '#c98a12',
-  amberPale: '#f7e6bf',
+  paper: PALETTE.paper.DEFAULT,
+  paperDeep: PALETTE.paper.deep,
+  edge: PALETTE.paper.edge,
+  ink: PALETTE.ink.DEFAULT,
+  soft: PALETTE.ink.soft,
+  faint: PALETTE.ink.faint,
+  copper: PALETTE.copper.DEFAULT,
+  copperPale: PALETTE.copper.pale,
+  teal: PALETTE.teal.DEFAULT,
+  amber: PALETTE.amber.DEFAULT,
+  amberDeep: PALETTE.amber.deep,
+  amberPale: PALETTE.amber.pale,
 };
 
 const MARGIN = 40;
@@ -82,7 +89,7 @@ class Writer {
     doc.fillColor(C.ink);
   }
 
-  font(weight: 'regular' | 'bold', size: number, color = C.ink) {
+  font(weight: 'regular' | 'bold', size: number, color: string = C.ink) {
     return this.doc.font(weight === 'bold' ? this.bold : this.regular).fontSize(size).fillColor(color);
   }
 
@@ -102,7 +109,7 @@ class Writer {
     this.doc.moveDown(0.4);
   }
 
-  para(text: string, size = 8.5, color = C.soft) {
+  para(text: string, size = 8.5, color: string = C.soft) {
     this.font('regular', size, color).text(text, MARGIN, this.doc.y, { width: this.width });
   }
 
@@ -210,15 +217,15 @@ export function reportPdf(r: ReportData): PDFKit.PDFDocument {
         String(x.rank),
         x.name,
         x.kindLabel,
-        pm(fixed(x.destruction_MWh, dDec), fixed(x.destruction_U_MWh, dDec)),
-        x.cost === null ? 'no price' : pm(fixed(x.cost, 0, true), fixed(x.cost_U, 0, true)),
+        fixedU(x.destruction_MWh, x.destruction_U_MWh, dDec),
+        x.cost === null ? 'no price' : fixedU(x.cost, x.cost_U, 0, true),
         fixed(x.share === null ? null : x.share * 100, 1),
-        x.efficiencyMean === null ? '—' : pm(pct(x.efficiencyMean), pct(x.efficiencyMean_U)),
+        x.efficiencyMean === null ? '—' : fixedU(x.efficiencyMean * 100, x.efficiencyMean_U === null ? null : x.efficiencyMean_U * 100, 1),
         ...STATES.map((s) => String(x.hours[s])),
       ]),
       {
         bar: { col: 5, values: rows.map((x) => x.share) },
-        total: ['', 'Site total', '', pm(fixed(t.destruction_MWh, dDec), fixed(t.destruction_U_MWh, dDec)), t.cost === null ? '' : pm(fixed(t.cost, 0, true), fixed(t.cost_U, 0, true)), '100.0', '', ...STATES.map((s) => String(t.hours[s]))],
+        total: ['', 'Site total', '', fixedU(t.destruction_MWh, t.destruction_U_MWh, dDec), t.cost === null ? '' : fixedU(t.cost, t.cost_U, 0, true), '100.0', '', ...STATES.map((s) => String(t.hours[s]))],
       },
     );
 
@@ -273,10 +280,10 @@ export function reportPdf(r: ReportData): PDFKit.PDFDocument {
       e.name,
       e.baseline ?? 'no active baseline (measured over all steady hours)',
       `${e.hoursCompared} of ${e.steadyHours}`,
-      e.measuredEfficiency === null ? '—' : pm(pct(e.measuredEfficiency), pct(e.measuredEfficiency_U)),
+      e.measuredEfficiency === null ? '—' : fixedU(e.measuredEfficiency * 100, e.measuredEfficiency_U === null || e.measuredEfficiency_U === undefined ? null : e.measuredEfficiency_U * 100, 1),
       e.expectedEfficiency === null ? '—' : pct(e.expectedEfficiency),
       e.measuredEfficiency !== null && e.expectedEfficiency !== null ? fixed((e.measuredEfficiency - e.expectedEfficiency) * 100, 1) : '—',
-      e.measuredDestruction_W === null ? '—' : pm(kW(e.measuredDestruction_W), kW(e.measuredDestruction_U_W)),
+      e.measuredDestruction_W === null ? '—' : fixedU(e.measuredDestruction_W / 1000, e.measuredDestruction_U_W === null || e.measuredDestruction_U_W === undefined ? null : e.measuredDestruction_U_W / 1000, 0, true),
       e.expectedDestruction_W === null ? '—' : kW(e.expectedDestruction_W),
     ]),
   );
@@ -285,7 +292,7 @@ export function reportPdf(r: ReportData): PDFKit.PDFDocument {
   w.heading('Drift notices', 'Opened in the month, or not yet closed. A notice is a sustained shift from the expected value: a prompt to look, not an alarm.');
   if (!r.notices.length) w.para('No drift notices.');
   else {
-    const at = (ms: number) => new Intl.DateTimeFormat('sv-SE', { timeZone: r.site.timeZone, dateStyle: 'short', timeStyle: 'short' }).format(ms);
+    const at = (ms: number) => siteStamp(ms, r.site.timeZone);
     w.table(
       [
         { head: 'Unit', width: 92 },
@@ -299,10 +306,10 @@ export function reportPdf(r: ReportData): PDFKit.PDFDocument {
       r.notices.map((n) => [
         n.unitName,
         n.direction === 'up' ? 'more destruction than expected' : 'less destruction than expected',
-        n.status,
+        NOTICE_STATUS_WORDS[n.status as NoticeStatus]?.label ?? 'other',
         at(n.onsetMs),
         at(n.signalMs),
-        pm(kW(n.extra_W), n.shiftU_W === null ? '' : kW(n.shiftU_W)) + (n.exceedsUncertainty === false ? ' (within uncertainty)' : ''),
+        fixedU(n.extra_W / 1000, n.shiftU_W === null ? null : n.shiftU_W / 1000, Math.abs(n.extra_W) < 10_000 ? 1 : 0, true) + (n.exceedsUncertainty === false ? ' (within uncertainty)' : ''),
         fixed(n.extraCost_per_day, 0, true),
       ]),
     );
@@ -332,7 +339,7 @@ export function reportPdf(r: ReportData): PDFKit.PDFDocument {
         { head: 'Example', width: 345.28 },
         { head: 'Hours [h]', width: 60, align: 'right' },
       ],
-      r.quality.reasons.map((q) => [q.code, q.example, String(q.hours)]),
+      r.quality.reasons.map((q) => [labelOf(q.code, 'other reason'), q.example, String(q.hours)]),
     );
 
   // Footer on every page.

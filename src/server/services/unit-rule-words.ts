@@ -3,6 +3,7 @@
  * opening mail and the digest. Kept apart from notices.ts, which calls into it for these kinds.
  */
 import { fixed } from '~/lib/format';
+import { PALETTE } from '~/lib/palette';
 import { siteStampWithZone } from '~/lib/site-time';
 import type { NoticeKind, NoticeView } from '~/lib/notice-view';
 import { escapeHtml } from '../mail';
@@ -70,7 +71,7 @@ export function ruleNoticeMail(n: NoticeView, to: string, caution: string) {
     `<p>${escapeHtml(intro)}</p>`,
     `<ul>${lines.map((l) => `<li>${escapeHtml(l)}</li>`).join('')}</ul>`,
     `<p><a href="${escapeHtml(n.url)}">Open the notice</a></p>`,
-    `<p style="border:1px solid #c98a12;background:#f7e6bf;padding:8px">${escapeHtml(caution)}</p>`,
+    `<p style="border:1px solid ${PALETTE.amber.DEFAULT};background:${PALETTE.amber.pale};padding:8px">${escapeHtml(caution)}</p>`,
   ].join('\n');
   return { to, subject, text, html };
 }

@@ -23,8 +23,8 @@ interface Span {
 }
 
 const PRESETS: { id: string; label: string; terms: BaselineTerm[] }[] = [
-  { id: 'linear', label: 'Linear: load and T_amb', terms: ['load', 'T_amb'] },
-  { id: 'quadratic', label: 'Quadratic: load, T_amb, their squares and product', terms: ['load', 'T_amb', 'load^2', 'T_amb^2', 'load*T_amb'] },
+  { id: 'linear', label: 'Linear: load and ambient temperature', terms: ['load', 'T_amb'] },
+  { id: 'quadratic', label: 'Quadratic: load, ambient temperature, their squares and product', terms: ['load', 'T_amb', 'load^2', 'T_amb^2', 'load*T_amb'] },
   { id: 'load', label: 'Load only (fixed dead state)', terms: ['load'] },
   { id: 'load2', label: 'Load and load² (fixed dead state)', terms: ['load', 'load^2'] },
 ];
@@ -150,7 +150,7 @@ export default function BaselineBuilder({ units, initialUnitId, initialFrom = nu
             ))}
           </div>
           <p className="mt-1 text-xs text-ink-faint">
-            T_amb is the hour's dead-state temperature T0; where the site keeps T0 fixed, leave the T_amb terms out.
+            The ambient temperature is the hour's dead-state temperature T0; where the site keeps T0 fixed, leave the ambient-temperature terms out.
           </p>
         </fieldset>
         <Notice message={message} />

@@ -1,10 +1,13 @@
 import { useEffect, useState } from 'react';
+import { significant } from '~/lib/format';
+import { PALETTE } from '~/lib/palette';
 import { CartesianGrid, ComposedChart, Legend, Line, ResponsiveContainer, Scatter, Tooltip, XAxis, YAxis } from 'recharts';
 import { StateMark } from '~/components/StateMark';
 import { Notice } from '~/components/plant/common';
 import { call, messageOf, type Message } from '~/components/api';
 import { BASELINE_LOOK, CHECK_LOOK, at, dayOf, kW, pct, sig } from './looks';
 import { TERM_LABELS, type BaselineSummary, type FitView, type ModelSummary } from './types';
+import { BaselineCoefficients, baselineScales, type SiteDisplayProp } from './BaselineCoefficients';
 
 /** The Guideline 14 criteria row of one model. */
 function CheckCell({ ok }: { ok: boolean }) {
@@ -64,69 +67,48 @@ function StatsTable({ b }: { b: BaselineSummary }) {
   );
 }
 
-function Coefficients({ b }: { b: BaselineSummary }) {
-  const terms = ['intercept', ...b.terms] as const;
-  return (
-    <table className="grid-table mt-3 text-xs">
-      <thead>
-        <tr>
-          <th>Term (load in {b.loadUnit ?? 'its unit'}, T_amb = T0 in K)</th>
-          <th className="num">Destruction [W per term unit]</th>
-          <th className="num">Efficiency [- per term unit]</th>
-        </tr>
-      </thead>
-      <tbody>
-        {terms.map((t) => (
-          <tr key={t}>
-            <td>{t === 'intercept' ? 'intercept' : TERM_LABELS[t]}</td>
-            <td className="num">{sig(b.destruction.coefficients[t], 6)}</td>
-            <td className="num">{b.efficiency ? sig(b.efficiency.coefficients[t], 6) : '–'}</td>
-          </tr>
-        ))}
-      </tbody>
-    </table>
-  );
-}
-
 /** Measured hours against load with the fitted curve at the period's mean T0. */
-function FitChart({ b, fit }: { b: BaselineSummary; fit: FitView }) {
+function FitChart({ b, fit, display }: { b: BaselineSummary; fit: FitView; display?: SiteDisplayProp }) {
   const [what, setWhat] = useState<'destruction' | 'efficiency'>('destruction');
   const eff = what === 'efficiency' && b.efficiency !== null;
-  const points = fit.points.map((p) => ({ load: p.load, y: eff ? p.efficiency : p.destruction_W / 1000 })).filter((p) => p.y !== null);
-  const curve = fit.curve.map((c) => ({ load: c.load, y: eff ? c.efficiency : c.destruction_W / 1000 }));
+  const { w, load: L, T, power } = baselineScales(b, display);
+  const y = (e: number | null, d: number) => (eff ? (e === null ? null : e * 100) : d * power.factor);
+  const points = fit.points.map((p) => ({ load: p.load * L.factor, y: y(p.efficiency, p.destruction_W) })).filter((p) => p.y !== null);
+  const curve = fit.curve.map((c) => ({ load: c.load * L.factor, y: y(c.efficiency, c.destruction_W) }));
+  const sig3 = (v: number) => significant(v, 3, w.style);
   return (
     <div>
       <div className="mb-2 flex items-center gap-3 text-sm">
         <label className="flex items-center gap-1">
-          <input type="radio" name="fit-what" checked={!eff} onChange={() => setWhat('destruction')} /> Exergy destruction [kW]
+          <input type="radio" name="fit-what" checked={!eff} onChange={() => setWhat('destruction')} /> Exergy destruction [{power.unit}]
         </label>
         <label className="flex items-center gap-1">
-          <input type="radio" name="fit-what" checked={eff} disabled={!b.efficiency} onChange={() => setWhat('efficiency')} /> Exergy efficiency [-]
+          <input type="radio" name="fit-what" checked={eff} disabled={!b.efficiency} onChange={() => setWhat('efficiency')} /> Exergy efficiency [%]
         </label>
       </div>
       <div className="h-72" data-testid="fit-chart" role="img" aria-label={`${eff ? 'Efficiency' : 'Destruction'} of the reference hours against load, with the fitted curve`}>
         <ResponsiveContainer width="100%" height="100%">
           <ComposedChart margin={{ top: 8, right: 16, bottom: 24, left: 8 }}>
-            <CartesianGrid stroke="#ddd3bf" strokeDasharray="3 3" />
+            <CartesianGrid stroke={PALETTE.paper.edge} strokeDasharray="3 3" />
             <XAxis
               type="number"
               dataKey="load"
               domain={['auto', 'auto']}
-              tickFormatter={(v: number) => sig(v, 3)}
-              label={{ value: `Load [${b.loadUnit ?? '-'}]`, position: 'insideBottom', offset: -12, fill: '#4a463e', fontSize: 12 }}
-              stroke="#4a463e"
+              tickFormatter={sig3}
+              label={{ value: `Load [${L.unit}]`, position: 'insideBottom', offset: -12, fill: PALETTE.ink.soft, fontSize: 12 }}
+              stroke={PALETTE.ink.soft}
               fontSize={12}
             />
-            <YAxis type="number" dataKey="y" domain={['auto', 'auto']} tickFormatter={(v: number) => sig(v, 3)} stroke="#4a463e" fontSize={12} width={64} />
-            <Tooltip formatter={(v) => sig(Number(v), 4)} labelFormatter={(v) => `load ${sig(Number(v), 4)}`} />
+            <YAxis type="number" dataKey="y" domain={['auto', 'auto']} tickFormatter={sig3} stroke={PALETTE.ink.soft} fontSize={12} width={64} />
+            <Tooltip formatter={(v) => significant(Number(v), 4, w.style)} labelFormatter={(v) => `load ${significant(Number(v), 4, w.style)} ${L.unit}`} />
             <Legend verticalAlign="top" height={24} />
-            <Scatter name="Steady reference hours" data={points} fill={eff ? '#1f7a72' : '#b5562a'} shape="circle" isAnimationActive={false} />
+            <Scatter name="Steady reference hours" data={points} fill={eff ? PALETTE.teal.DEFAULT : PALETTE.copper.DEFAULT} shape="circle" isAnimationActive={false} />
             <Line
-              name={`Fitted at mean T0 ${sig(fit.meanT0_K, 4)} K`}
+              name={`Fitted at the mean T0, ${w.value(fit.meanT0_K, 'temperature', 1)} ${T.unit}`}
               data={curve}
               dataKey="y"
               type="monotone"
-              stroke="#22201c"
+              stroke={PALETTE.ink.DEFAULT}
               strokeWidth={2}
               dot={false}
               isAnimationActive={false}
@@ -139,7 +121,7 @@ function FitChart({ b, fit }: { b: BaselineSummary; fit: FitView }) {
 }
 
 /** One baseline version: statistics against Guideline 14, the scatter, and accept or discard for drafts. */
-export default function BaselineDetail({ baselineId, canEdit }: { baselineId: string; canEdit: boolean }) {
+export default function BaselineDetail({ baselineId, canEdit, display }: { baselineId: string; canEdit: boolean; display?: SiteDisplayProp }) {
   const [data, setData] = useState<{ baseline: BaselineSummary; fit: FitView } | null>(null);
   const [message, setMessage] = useState<Message>(null);
   const [busy, setBusy] = useState(false);
@@ -198,8 +180,8 @@ export default function BaselineDetail({ baselineId, canEdit }: { baselineId: st
         ASHRAE Guideline 14-2014 hourly criteria: CV(RMSE) at most 30 % and NMBE within ±10 % (limits from memory, docs/domain.md section 7). NMBE
         is zero by construction on the hours a model was fitted to.
       </p>
-      <FitChart b={b} fit={data.fit} />
-      <Coefficients b={b} />
+      <FitChart b={b} fit={data.fit} display={display} />
+      <BaselineCoefficients b={b} display={display} />
       {b.decidedAt && (
         <p className="text-sm text-ink-soft">
           {b.status === 'discarded' ? 'Discarded' : 'Accepted'} by {b.decidedBy ?? 'someone'} on {at(b.decidedAt, b.timeZone)}

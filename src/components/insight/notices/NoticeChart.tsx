@@ -1,9 +1,10 @@
 import { Bar, CartesianGrid, ComposedChart, Line, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
 import { at, sig } from '../baselines/looks';
 import type { Notice, NoticeChartEvent, NoticeChartPoint } from './looks';
+import { PALETTE } from '~/lib/palette';
 
-const INK = '#22201c';
-const COPPER = '#b5562a';
+const INK = PALETTE.ink.DEFAULT;
+const COPPER = PALETTE.copper.DEFAULT;
 /** Dash patterns and markers tell the series apart, colour only helps. */
 const CUSUM_DASH = '7 3';
 const LIMIT_DASH = '2 3';
@@ -15,7 +16,7 @@ function EventLabel({ viewBox, n, row }: { viewBox?: { x: number; y: number }; n
   const y = viewBox.y + 9 + row * ROW_px;
   return (
     <g>
-      <rect x={viewBox.x - 7} y={y - 7} width={14} height={14} fill="#fbf7ee" stroke={INK} strokeWidth={1} />
+      <rect x={viewBox.x - 7} y={y - 7} width={14} height={14} fill={PALETTE.paper.DEFAULT} stroke={INK} strokeWidth={1} />
       <text x={viewBox.x} y={y + 4} textAnchor="middle" fontSize={10} fill={INK}>
         {n}
       </text>
@@ -77,9 +78,9 @@ export function NoticeChart({ notice, span, points, events }: { notice: Notice; 
       >
         <ResponsiveContainer width="100%" height="100%">
           <ComposedChart data={data} margin={{ top, right: 8, bottom: 8, left: 8 }}>
-            <CartesianGrid stroke="#ddd3bf" strokeDasharray="3 3" />
-            <XAxis dataKey="t" type="number" scale="time" domain={['dataMin', 'dataMax']} tickFormatter={tick} stroke="#4a463e" fontSize={11} minTickGap={40} />
-            <YAxis yAxisId="kW" tickFormatter={(v: number) => sig(v, 3)} stroke="#8e3f1c" fontSize={11} width={56} label={{ value: 'residual [kW]', angle: -90, position: 'insideLeft', fill: '#8e3f1c', fontSize: 11 }} />
+            <CartesianGrid stroke={PALETTE.paper.edge} strokeDasharray="3 3" />
+            <XAxis dataKey="t" type="number" scale="time" domain={['dataMin', 'dataMax']} tickFormatter={tick} stroke={PALETTE.ink.soft} fontSize={11} minTickGap={40} />
+            <YAxis yAxisId="kW" tickFormatter={(v: number) => sig(v, 3)} stroke={PALETTE.copper.deep} fontSize={11} width={56} label={{ value: 'residual [kW]', angle: -90, position: 'insideLeft', fill: PALETTE.copper.deep, fontSize: 11 }} />
             <YAxis
               yAxisId="sigma"
               orientation="right"
@@ -107,7 +108,7 @@ export function NoticeChart({ notice, span, points, events }: { notice: Notice; 
             />
             <ReferenceLine yAxisId="sigma" y={notice.h} stroke={INK} strokeDasharray={LIMIT_DASH} />
             {shown.map((e, i) => (
-              <ReferenceLine key={`${e.label}-${e.t}`} yAxisId="sigma" x={new Date(e.t).getTime()} stroke="#6b6458" label={<EventLabel n={i + 1} row={i} />} />
+              <ReferenceLine key={`${e.label}-${e.t}`} yAxisId="sigma" x={new Date(e.t).getTime()} stroke={PALETTE.ink.faint} label={<EventLabel n={i + 1} row={i} />} />
             ))}
           </ComposedChart>
         </ResponsiveContainer>

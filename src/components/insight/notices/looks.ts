@@ -5,7 +5,7 @@ import type { CloseOutcome, NoticeLife, NoticeTrend, PriorReason } from '~/lib/n
 /** Notice statuses in Lossline's words and shapes; colour is only a third cue. */
 export const NOTICE_LOOK: Record<string, { label: string; shape: MarkShape; className: string }> = {
   open: { label: 'open', shape: 'diamond', className: 'text-copper' },
-  acknowledged: { label: 'seen', shape: 'ring', className: 'text-amber' },
+  acknowledged: { label: 'seen', shape: 'ring', className: 'text-amber-deep' },
   closed: { label: 'closed', shape: 'square', className: 'text-slate' },
 };
 

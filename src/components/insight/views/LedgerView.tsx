@@ -127,7 +127,7 @@ export default function LedgerView({ sites, initialSiteId, initialSearch }: { si
                     </td>
                     <td className="num" title={r.hoursWithoutCost ? `${r.hoursWithoutCost} steady hours have no price for the unit's fuel` : undefined}>
                       {r.cost === null ? (r.hours.steady ? 'no price' : '—') : withU(r.cost, r.cost_U, { decimals: moneyDecimals(r.cost) })}
-                      {r.cost !== null && r.hoursWithoutCost > 0 && <span className="text-amber"> *</span>}
+                      {r.cost !== null && r.hoursWithoutCost > 0 && <span className="text-amber-deep"> *</span>}
                     </td>
                     <td className="num">
                       <ShareBar share={r.share} />

@@ -3,6 +3,8 @@
  * draws efficiency and destruction against the expected band, the scatter against load, and the
  * notices of the period.
  */
+import { NOTICE_STATUS_WORDS } from '~/lib/words';
+import type { NoticeStatus } from '~/lib/notice-view';
 import { useEffect, useMemo, useState } from 'react';
 import { ErrorNote, HourStateMark, Loading, ViewsCaution } from './common';
 import { useApi } from '~/components/api';
@@ -18,7 +20,7 @@ function BaselineName({ b }: { b: TrendAnswer['baseline'] }) {
       {b ? (
         <>
           Expected from <span className="font-semibold text-ink">{b.label}</span>
-          {!b.meetsGuideline14 && <span className="ml-1 text-amber">(fit outside ASHRAE Guideline 14 hourly limits: read the band with care)</span>}
+          {!b.meetsGuideline14 && <span className="ml-1 text-amber-deep">(fit outside ASHRAE Guideline 14 hourly limits: read the band with care)</span>}
         </>
       ) : (
         <>No active baseline for this unit yet: the expected band is not shown.</>
@@ -167,7 +169,7 @@ export default function TrendView({ unitId, initialSearch }: { unitId: string; i
                         <a href={`/notices/${n.id}`}>{siteTime(n.onsetMs, data.site.timeZone)}</a>
                       </td>
                       <td>{n.direction === 'up' ? 'more destruction than expected' : 'less destruction than expected'}</td>
-                      <td>{n.status}</td>
+                      <td>{NOTICE_STATUS_WORDS[n.status as NoticeStatus]?.label ?? 'other'}</td>
                       <td className="num">{power(n.extra_W, n.shiftU_W, { unit: 'kW', factor: 1e3 }).replace(/ kW/g, '')}</td>
                       <td className="num">{n.extraCost_per_day === null ? '—' : n.extraCost_per_day.toFixed(0)}</td>
                     </tr>

@@ -1,27 +1,29 @@
 import { StateMark, type MarkShape } from '~/components/StateMark';
 import type { HourState } from './format';
+import { PALETTE } from '~/lib/palette';
 
 /** Hour states in Lossline's look: a text label, a shape and a colour (never the colour alone). */
 export const STATE_LOOK: Record<HourState, { shape: MarkShape; className: string; fill: string; stroke: string; label: string }> = {
-  steady: { shape: 'circle', className: 'text-teal', fill: '#d3ebe7', stroke: '#1f7a72', label: 'steady' },
-  unsettled: { shape: 'triangle', className: 'text-amber', fill: '#f7e6bf', stroke: '#c98a12', label: 'unsettled' },
-  idle: { shape: 'bar', className: 'text-slate', fill: '#e1e4e8', stroke: '#66707c', label: 'idle' },
-  suspect: { shape: 'diamond', className: 'text-alert', fill: '#f5d6d4', stroke: '#a3262a', label: 'suspect' },
+  steady: { shape: 'circle', className: 'text-teal', fill: PALETTE.teal.pale, stroke: PALETTE.teal.DEFAULT, label: 'steady' },
+  unsettled: { shape: 'triangle', className: 'text-amber-deep', fill: PALETTE.amber.pale, stroke: PALETTE.amber.DEFAULT, label: 'unsettled' },
+  idle: { shape: 'bar', className: 'text-slate', fill: PALETTE.slate.pale, stroke: PALETTE.slate.DEFAULT, label: 'idle' },
+  suspect: { shape: 'diamond', className: 'text-alert', fill: PALETTE.alert.pale, stroke: PALETTE.alert.DEFAULT, label: 'suspect' },
 };
 
+/** Chart colours, all from the one palette (src/lib/palette.ts). */
 export const COLORS = {
-  ink: '#22201c',
-  soft: '#4a463e',
-  faint: '#7a7366',
-  edge: '#ddd3bf',
-  copper: '#b5562a',
-  copperDeep: '#8e3f1c',
-  copperPale: '#f3dccd',
-  teal: '#1f7a72',
-  tealDeep: '#155a54',
-  tealPale: '#d3ebe7',
-  amber: '#c98a12',
-  slate: '#66707c',
+  ink: PALETTE.ink.DEFAULT,
+  soft: PALETTE.ink.soft,
+  faint: PALETTE.ink.faint,
+  edge: PALETTE.paper.edge,
+  copper: PALETTE.copper.DEFAULT,
+  copperDeep: PALETTE.copper.deep,
+  copperPale: PALETTE.copper.pale,
+  teal: PALETTE.teal.DEFAULT,
+  tealDeep: PALETTE.teal.deep,
+  tealPale: PALETTE.teal.pale,
+  amber: PALETTE.amber.DEFAULT,
+  slate: PALETTE.slate.DEFAULT,
 };
 
 export function HourStateMark({ state, count }: { state: HourState; count?: number }) {
