@@ -1,5 +1,6 @@
 import { useState } from 'react';
 import { call, useApi } from '~/components/api';
+import { useConfirm } from '~/components/ConfirmDialog';
 
 interface Token {
   id: string;
@@ -22,6 +23,7 @@ export default function TokensAdmin({ sites }: { sites: { id: string; name: stri
   const list = useApi<{ tokens: Token[] }>(siteId ? `/api/sites/${siteId}/tokens` : null);
   const tokens = list.data?.tokens ?? [];
   const load = list.reload;
+  const { dialog, ask } = useConfirm();
 
   async function issue(e: React.FormEvent) {
     e.preventDefault();
@@ -32,13 +34,16 @@ export default function TokensAdmin({ sites }: { sites: { id: string; name: stri
     setName('');
     void load();
   }
-  async function revoke(id: string) {
+  async function revoke({ id, name }: Token) {
+    const body = 'Whatever sends files with it is refused from now on; a revoked token cannot be brought back.';
+    if (!(await ask({ title: `Revoke the token “${name}”?`, body, confirm: 'Revoke the token', danger: true }))) return;
     await call(`/api/tokens/${id}`, 'DELETE').catch((e: Error) => setError(e.message));
     load();
   }
 
   return (
     <div className="space-y-6">
+      {dialog}
       <div>
         <label className="label" htmlFor="tok-site">Site</label>
         <select id="tok-site" className="field max-w-sm" value={siteId} onChange={(e) => { setSiteId(e.target.value); setSecret(null); }}>
@@ -67,7 +72,7 @@ export default function TokensAdmin({ sites }: { sites: { id: string; name: stri
         </div>
       )}
       <table className="grid-table">
-        <thead><tr><th>Name</th><th>Starts with</th><th>May</th><th>Issued</th><th>Last used</th><th></th></tr></thead>
+        <thead><tr><th>Name</th><th>Starts with</th><th>May</th><th>Issued</th><th>Last used</th><th><span className="sr-only">Actions</span></th></tr></thead>
         <tbody>
           {tokens.map((t) => (
             <tr key={t.id}>
@@ -76,7 +81,7 @@ export default function TokensAdmin({ sites }: { sites: { id: string; name: stri
               <td>{t.role === 'admin' ? 'files and model' : 'files'}</td>
               <td>{new Date(t.createdAt).toLocaleString()}</td>
               <td>{t.lastUsedAt ? new Date(t.lastUsedAt).toLocaleString() : 'never'}</td>
-              <td className="text-right">{t.revokedAt ? 'revoked' : <button className="btn" type="button" onClick={() => revoke(t.id)}>Revoke</button>}</td>
+              <td className="text-right">{t.revokedAt ? 'revoked' : <button className="btn" type="button" aria-label={`Revoke ${t.name}`} onClick={() => revoke(t)}>Revoke</button>}</td>
             </tr>
           ))}
         </tbody>

@@ -6,6 +6,7 @@ import { call } from '~/components/api';
 import { HOUR_STATES } from '~/lib/hour-states';
 import { DAY_MS } from '~/lib/time';
 import type { UnitHourView as HourRow, UnitInfo } from '~/lib/views/unit-hour';
+import { counted } from '~/lib/counts';
 
 
 
@@ -71,7 +72,7 @@ export default function UnitResults({ unit, initialFrom, initialTo, initialHour 
         </a>
         {rows && rows.length > 0 && (
           <p className="text-sm text-ink-soft" data-testid="state-counts">
-            {rows.length} hours:{' '}
+            {counted(rows.length, 'hour', 'hours')}:{' '}
             {HOUR_STATES
               .filter((s) => counts[s])
               .map((s) => `${counts[s]} ${s}`)

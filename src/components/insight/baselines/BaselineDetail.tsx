@@ -1,6 +1,7 @@
 import { useEffect, useState } from 'react';
 import { CartesianGrid, ComposedChart, Legend, Line, ResponsiveContainer, Scatter, Tooltip, XAxis, YAxis } from 'recharts';
 import { StateMark } from '~/components/StateMark';
+import { useConfirm } from '~/components/ConfirmDialog';
 import { Notice } from '~/components/plant/common';
 import { call, messageOf, type Message } from '~/components/api';
 import { BASELINE_LOOK, CHECK_LOOK, at, dayOf, kW, pct, sig } from './looks';
@@ -138,11 +139,19 @@ function FitChart({ b, fit }: { b: BaselineSummary; fit: FitView }) {
   );
 }
 
+const DISCARD = {
+  title: 'Discard this baseline version?',
+  body: 'A discarded version can no longer be accepted; fit a new version to try again.',
+  confirm: 'Discard the version',
+  danger: true,
+};
+
 /** One baseline version: statistics against Guideline 14, the scatter, and accept or discard for drafts. */
 export default function BaselineDetail({ baselineId, canEdit }: { baselineId: string; canEdit: boolean }) {
   const [data, setData] = useState<{ baseline: BaselineSummary; fit: FitView } | null>(null);
   const [message, setMessage] = useState<Message>(null);
   const [busy, setBusy] = useState(false);
+  const { dialog, ask } = useConfirm();
 
   useEffect(() => {
     let live = true;
@@ -156,6 +165,7 @@ export default function BaselineDetail({ baselineId, canEdit }: { baselineId: st
   }, [baselineId]);
 
   async function decide(what: 'accept' | 'discard') {
+    if (what === 'discard' && !(await ask(DISCARD))) return;
     setBusy(true);
     setMessage(null);
     try {
@@ -179,6 +189,7 @@ export default function BaselineDetail({ baselineId, canEdit }: { baselineId: st
   const look = BASELINE_LOOK[b.status]!;
   return (
     <section className="card space-y-4" data-testid="baseline-detail">
+      {dialog}
       <div className="flex flex-wrap items-baseline justify-between gap-2">
         <div>
           <h2>
