@@ -88,6 +88,16 @@ export default function PeopleAdmin({ selfId, sites = [] }: { selfId: string; si
     }
   }
 
+  async function resend(p: Person) {
+    try {
+      const out = await call<{ sentTo: string }>(`/api/admin/users/${p.id}/resend`, 'POST', {});
+      setMessage({ ok: true, text: `Invitation sent again to ${out.sentTo}; the earlier link no longer works.` });
+      await load();
+    } catch (e) {
+      setMessage({ ok: false, text: (e as Error).message });
+    }
+  }
+
   const err = form.formState.errors;
   return (
     <div className="space-y-6">
@@ -127,9 +137,10 @@ export default function PeopleAdmin({ selfId, sites = [] }: { selfId: string; si
         {!people ? (
           <p className="text-sm text-ink-faint">Loading…</p>
         ) : (
+          <div className="overflow-x-auto">
           <table className="grid-table">
             <thead>
-              <tr><th>Name</th><th>E-mail</th><th>Role</th><th>Sites</th><th>Account</th><th></th></tr>
+              <tr><th>Name</th><th>E-mail</th><th>Role</th><th>Sites</th><th>Account</th><th><span className="sr-only">Actions</span></th></tr>
             </thead>
             <tbody>
               {people.map((p) => (
@@ -152,9 +163,19 @@ export default function PeopleAdmin({ selfId, sites = [] }: { selfId: string; si
                     <SitesCell person={p} sites={sites} onChange={(v) => patch(p.id, { sites: v })} />
                   </td>
                   <td>{p.deactivated ? 'deactivated' : p.pending ? 'invited, no password yet' : 'active'}</td>
-                  <td className="text-right">
+                  <td className="whitespace-nowrap text-right">
+                    {p.pending && !p.deactivated && (
+                      <button className="btn mr-2" type="button" aria-label={`Resend the invitation to ${p.name}`} onClick={() => resend(p)}>
+                        Resend invitation
+                      </button>
+                    )}
                     {p.id !== selfId && (
-                      <button className="btn" type="button" onClick={() => patch(p.id, { deactivated: !p.deactivated })}>
+                      <button
+                        className="btn"
+                        type="button"
+                        aria-label={`${p.deactivated ? 'Reactivate' : 'Deactivate'} ${p.name}`}
+                        onClick={() => patch(p.id, { deactivated: !p.deactivated })}
+                      >
                         {p.deactivated ? 'Reactivate' : 'Deactivate'}
                       </button>
                     )}
@@ -163,6 +184,7 @@ export default function PeopleAdmin({ selfId, sites = [] }: { selfId: string; si
               ))}
             </tbody>
           </table>
+          </div>
         )}
       </section>
     </div>
