@@ -2,7 +2,7 @@ import AxeBuilder from '@axe-core/playwright';
 import { expect, test, type Page } from '@playwright/test';
 import { navFor } from '~/lib/navigation';
 import type { Role } from '~/lib/roles';
-import { DEMO, signIn } from './helpers';
+import { DEMO, DEMO_PASSWORD } from './helpers';
 
 /**
  * Every page each role can reach, at 1440 px, in one browser context per role and one page after
@@ -27,10 +27,21 @@ const DETAIL_PAGES = [
   /^\/trends\/[0-9a-f-]{36}(\?.*)?$/,
 ];
 
+/** Pages are given a minute each: on a shared machine the first render of a page can be slow. */
+const SLOW = { timeout: 60_000 };
+
 async function settle(page: Page) {
-  await page.waitForLoadState('networkidle');
-  await expect(page.locator('astro-island[ssr]')).toHaveCount(0);
-  await expect(page.getByTestId('loading')).toHaveCount(0);
+  await page.waitForLoadState('networkidle', SLOW);
+  await expect(page.locator('astro-island[ssr]')).toHaveCount(0, SLOW);
+  await expect(page.getByTestId('loading')).toHaveCount(0, SLOW);
+}
+
+async function signIn(page: Page, email: string) {
+  await page.goto('/sign-in');
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password').fill(DEMO_PASSWORD);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await expect(page.getByTestId('signed-in-user')).toBeVisible(SLOW);
 }
 
 /** What is wrong with the page in view, as sentences naming the page; empty when nothing is. */
@@ -61,7 +72,7 @@ async function walk(page: Page, role: Role): Promise<{ visited: string[]; proble
   const problems: string[] = [];
   while (queue.length) {
     const path = queue.shift()!;
-    const res = await page.goto(path);
+    const res = await page.goto(path, SLOW);
     expect(res?.status(), `${path} answers for ${role}`).toBe(200);
     await settle(page);
     visited.push(path);
@@ -79,7 +90,7 @@ async function walk(page: Page, role: Role): Promise<{ visited: string[]; proble
   return { visited, problems };
 }
 
-test.describe.configure({ timeout: 360_000 });
+test.describe.configure({ timeout: 600_000 });
 
 for (const role of Object.keys(DEMO) as Role[]) {
   test(`every page a ${role} reaches meets WCAG 2.1 AA (axe-core), fits 1440 px and keeps the navigation on one line`, async ({ browser }) => {

@@ -125,7 +125,13 @@ export default function UnitResults({ unit, initialFrom, initialTo, initialHour 
                     <td className="num">{fmt(r.closure_pct, 2)}</td>
                     <td className="num">{fmt(r.destructionCost_per_h, 2)}</td>
                     <td>
-                      <button type="button" className="btn px-2 py-0.5 text-xs" aria-expanded={isOpen} onClick={() => setOpen(isOpen ? null : r.hourStart)}>
+                      <button
+                        type="button"
+                        className="btn px-2 py-0.5 text-xs"
+                        aria-label={`${isOpen ? 'Close' : 'Open hour'} ${siteTime(r.hourStart, tz)}`}
+                        aria-expanded={isOpen}
+                        onClick={() => setOpen(isOpen ? null : r.hourStart)}
+                      >
                         {isOpen ? 'Close' : 'Open hour'}
                       </button>
                     </td>

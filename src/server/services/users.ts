@@ -81,12 +81,13 @@ export async function inviteUser(input: z.infer<typeof InviteInput>, invitedBy: 
  */
 export async function resendInvitation(userId: string) {
   const [row] = await db()
-    .select({ email: user.email, deactivated: user.deactivated, acceptedAt: invitations.acceptedAt })
+    .select({ email: user.email, deactivated: user.deactivated, invitationId: invitations.id, acceptedAt: invitations.acceptedAt })
     .from(user)
     .leftJoin(invitations, eq(invitations.userId, user.id))
     .where(eq(user.id, userId))
     .limit(1);
   if (!row) throw new AppError('NOT_FOUND', 'No such account.');
+  if (!row.invitationId) throw new AppError('CONFLICT', `${row.email} was not invited through Lossline, so there is no invitation to send again.`);
   if (row.deactivated) throw new AppError('CONFLICT', 'This account is deactivated: activate it before inviting the person again.');
   if (row.acceptedAt !== null) throw new AppError('CONFLICT', `${row.email} has already accepted the invitation and set a password; they can ask for a new password on the sign-in page.`);
   await db().transaction(async (tx) => {
