@@ -70,6 +70,7 @@ test('an admin declares a let-down valve normally idle while its turbine runs; t
   await expect(planner.locator('astro-island[ssr]')).toHaveCount(0);
   await planner.getByLabel('Why it can be closed (required)').fill('Valve seat lapped; passing stopped.');
   await planner.getByRole('button', { name: 'Close notice' }).click();
+  await planner.getByRole('dialog').getByRole('button', { name: 'Close the notice' }).click();
   await expect(planner.getByTestId('notice-status')).toContainText('closed');
   await planner.close();
   expect(await mails()).toHaveLength(1);

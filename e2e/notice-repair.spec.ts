@@ -96,6 +96,7 @@ test('a planner opens a notice from its mail, closes it as repaired, and later s
   await page.getByLabel(/Date of the repair work/).fill(REPAIR_DAY);
   await page.getByLabel('Why it can be closed (required)').fill('Tube bundle pulled and cleaned at the weekend stop.');
   await page.getByRole('button', { name: 'Close notice' }).click();
+  await page.getByRole('dialog').getByRole('button', { name: 'Close the notice' }).click();
   await expect(page.getByTestId('notice-status')).toContainText('closed');
   await expect(page.getByTestId('notice-history')).toContainText('repaired, work done 2025-06-04');
   await expect(page.getByTestId('verdict-waiting')).toBeVisible();

@@ -125,7 +125,16 @@ test('a planner opens a drift notice from its e-mail link and marks it as seen; 
   await lead.goto(link);
   await expect(lead.locator('astro-island[ssr]')).toHaveCount(0);
   await lead.getByLabel('Why it can be closed (required)').fill('Seat replaced at the weekend stop; destruction back on the line.');
+  // Closing asks first; Escape answers no and leaves the notice as it was.
   await lead.getByRole('button', { name: 'Close notice' }).click();
+  const ask = lead.getByRole('dialog', { name: /Close the notice of/ });
+  await expect(ask).toBeVisible();
+  await expect(ask.getByRole('button', { name: 'Cancel' })).toBeFocused();
+  await lead.keyboard.press('Escape');
+  await expect(ask).toHaveCount(0);
+  await expect(lead.getByTestId('notice-status')).not.toContainText('closed');
+  await lead.getByRole('button', { name: 'Close notice' }).click();
+  await lead.getByRole('dialog').getByRole('button', { name: 'Close the notice' }).click();
   await expect(lead.getByTestId('notice-status')).toContainText('closed');
   await expect(lead.getByTestId('notice-history')).toContainText('Closed by Lena Lead');
   await lead.close();

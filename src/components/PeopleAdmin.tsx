@@ -51,6 +51,68 @@ function SitesCell({ person, sites, onChange }: { person: Person; sites: SiteRef
   );
 }
 
+interface TableProps {
+  people: Person[];
+  sites: SiteRef[];
+  selfId: string;
+  patch: (id: string, body: { role?: Role; deactivated?: boolean; sites?: 'all' | string[] }) => void;
+  resend: (p: Person) => void;
+}
+
+/** Everyone with an account: role, sites, state, and the buttons of each row, named with the person. */
+function PeopleTable({ people, sites, selfId, patch, resend }: TableProps) {
+  return (
+    <div className="overflow-x-auto">
+    <table className="grid-table">
+      <thead>
+        <tr><th>Name</th><th>E-mail</th><th>Role</th><th>Sites</th><th>Account</th><th><span className="sr-only">Actions</span></th></tr>
+      </thead>
+      <tbody>
+        {people.map((p) => (
+          <tr key={p.id} data-testid={`person-${p.email}`}>
+            <td>{p.name}</td>
+            <td>{p.email}</td>
+            <td>
+              <select
+                aria-label={`Role of ${p.name}`}
+                className="field py-0.5"
+                value={p.role}
+                onChange={(e) => patch(p.id, { role: e.target.value as Role })}
+              >
+                {ROLES.map((r) => (
+                  <option key={r} value={r}>{ROLE_LABELS[r]}</option>
+                ))}
+              </select>
+            </td>
+            <td>
+              <SitesCell person={p} sites={sites} onChange={(v) => patch(p.id, { sites: v })} />
+            </td>
+            <td>{p.deactivated ? 'deactivated' : p.pending ? 'invited, no password yet' : 'active'}</td>
+            <td className="whitespace-nowrap text-right">
+              {p.pending && !p.deactivated && (
+                <button className="btn mr-2" type="button" aria-label={`Resend the invitation to ${p.name}`} onClick={() => resend(p)}>
+                  Resend invitation
+                </button>
+              )}
+              {p.id !== selfId && (
+                <button
+                  className="btn"
+                  type="button"
+                  aria-label={`${p.deactivated ? 'Reactivate' : 'Deactivate'} ${p.name}`}
+                  onClick={() => patch(p.id, { deactivated: !p.deactivated })}
+                >
+                  {p.deactivated ? 'Reactivate' : 'Deactivate'}
+                </button>
+              )}
+            </td>
+          </tr>
+        ))}
+      </tbody>
+    </table>
+    </div>
+  );
+}
+
 /** The server's rules for an invitation (the sites are set apart, after it). */
 const InviteForm = InviteInput.pick({ name: true, email: true, role: true });
 type InviteForm = z.infer<typeof InviteForm>;
@@ -82,6 +144,16 @@ export default function PeopleAdmin({ selfId, sites = [] }: { selfId: string; si
     try {
       await call(`/api/admin/users/${id}`, 'PATCH', body);
       setMessage({ ok: true, text: 'Saved.' });
+      await load();
+    } catch (e) {
+      setMessage({ ok: false, text: (e as Error).message });
+    }
+  }
+
+  async function resend(p: Person) {
+    try {
+      const out = await call<{ sentTo: string }>(`/api/admin/users/${p.id}/resend`, 'POST', {});
+      setMessage({ ok: true, text: `Invitation sent again to ${out.sentTo}; the earlier link no longer works.` });
       await load();
     } catch (e) {
       setMessage({ ok: false, text: (e as Error).message });
@@ -127,42 +199,7 @@ export default function PeopleAdmin({ selfId, sites = [] }: { selfId: string; si
         {!people ? (
           <p className="text-sm text-ink-faint">Loading…</p>
         ) : (
-          <table className="grid-table">
-            <thead>
-              <tr><th>Name</th><th>E-mail</th><th>Role</th><th>Sites</th><th>Account</th><th></th></tr>
-            </thead>
-            <tbody>
-              {people.map((p) => (
-                <tr key={p.id} data-testid={`person-${p.email}`}>
-                  <td>{p.name}</td>
-                  <td>{p.email}</td>
-                  <td>
-                    <select
-                      aria-label={`Role of ${p.name}`}
-                      className="field py-0.5"
-                      value={p.role}
-                      onChange={(e) => patch(p.id, { role: e.target.value as Role })}
-                    >
-                      {ROLES.map((r) => (
-                        <option key={r} value={r}>{ROLE_LABELS[r]}</option>
-                      ))}
-                    </select>
-                  </td>
-                  <td>
-                    <SitesCell person={p} sites={sites} onChange={(v) => patch(p.id, { sites: v })} />
-                  </td>
-                  <td>{p.deactivated ? 'deactivated' : p.pending ? 'invited, no password yet' : 'active'}</td>
-                  <td className="text-right">
-                    {p.id !== selfId && (
-                      <button className="btn" type="button" onClick={() => patch(p.id, { deactivated: !p.deactivated })}>
-                        {p.deactivated ? 'Reactivate' : 'Deactivate'}
-                      </button>
-                    )}
-                  </td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
+          <PeopleTable people={people} sites={sites} selfId={selfId} patch={patch} resend={resend} />
         )}
       </section>
     </div>

@@ -1,6 +1,7 @@
 import { useState } from 'react';
 import { call, useApi } from '~/components/api';
 import { siteStamp } from '~/lib/site-time';
+import { useConfirm } from '~/components/ConfirmDialog';
 
 interface Token {
   id: string;
@@ -24,6 +25,7 @@ export default function TokensAdmin({ sites }: { sites: { id: string; name: stri
   const tokens = list.data?.tokens ?? [];
   const tz = sites.find((s) => s.id === siteId)?.timeZone ?? 'UTC';
   const load = list.reload;
+  const { dialog, ask } = useConfirm();
 
   async function issue(e: React.FormEvent) {
     e.preventDefault();
@@ -34,13 +36,16 @@ export default function TokensAdmin({ sites }: { sites: { id: string; name: stri
     setName('');
     void load();
   }
-  async function revoke(id: string) {
+  async function revoke({ id, name }: Token) {
+    const body = 'Whatever sends files with it is refused from now on; a revoked token cannot be brought back.';
+    if (!(await ask({ title: `Revoke the token “${name}”?`, body, confirm: 'Revoke the token', danger: true }))) return;
     await call(`/api/tokens/${id}`, 'DELETE').catch((e: Error) => setError(e.message));
     load();
   }
 
   return (
     <div className="space-y-6">
+      {dialog}
       <div>
         <label className="label" htmlFor="tok-site">Site</label>
         <select id="tok-site" className="field max-w-sm" value={siteId} onChange={(e) => { setSiteId(e.target.value); setSecret(null); }}>
@@ -69,7 +74,7 @@ export default function TokensAdmin({ sites }: { sites: { id: string; name: stri
         </div>
       )}
       <table className="grid-table">
-        <thead><tr><th>Name</th><th>Starts with</th><th>Allowed to send</th><th>Issued ({tz})</th><th>Last used ({tz})</th><th></th></tr></thead>
+        <thead><tr><th>Name</th><th>Starts with</th><th>Allowed to send</th><th>Issued ({tz})</th><th>Last used ({tz})</th><th><span className="sr-only">Actions</span></th></tr></thead>
         <tbody>
           {tokens.map((t) => (
             <tr key={t.id}>
@@ -78,7 +83,7 @@ export default function TokensAdmin({ sites }: { sites: { id: string; name: stri
               <td>{t.role === 'admin' ? 'files and model' : 'files'}</td>
               <td className="tabular-nums">{siteStamp(t.createdAt, tz)}</td>
               <td className="tabular-nums">{t.lastUsedAt ? siteStamp(t.lastUsedAt, tz) : 'never'}</td>
-              <td className="text-right">{t.revokedAt ? 'revoked' : <button className="btn" type="button" onClick={() => revoke(t.id)}>Revoke</button>}</td>
+              <td className="text-right">{t.revokedAt ? 'revoked' : <button className="btn" type="button" aria-label={`Revoke ${t.name}`} onClick={() => revoke(t)}>Revoke</button>}</td>
             </tr>
           ))}
         </tbody>

@@ -23,6 +23,13 @@ export interface UploadRow {
   duplicateOf: string | null;
   reason: string | null;
   createdAt: string;
+  /** Who sent it in words (a person's name, an API token's name), when known. */
+  uploadedBy?: string | null;
+  /** First and last hour start of the tag hours the file produced (UTC ISO), when it produced any. */
+  hoursFrom?: string | null;
+  hoursTo?: string | null;
+  /** For a repeat: the earlier upload of the same bytes. */
+  duplicateOfFile?: { id: string; fileName: string; createdAt: string } | null;
   summary: null | {
     rows?: number;
     tags?: number;

@@ -11,7 +11,7 @@ import { CLIENT_IP_HEADER } from './client-ip';
 import { db } from './db/client';
 import * as schema from './db/schema';
 import { env, type AppEnv } from './env';
-import { escapeHtml, type OutgoingMail } from './mail';
+import { invitationWords, passwordMail } from './invitation-mail';
 import { queue } from './queue';
 import { sha256Hex } from '~/lib/engine/hash';
 import type { Role } from '~/lib/roles';
@@ -88,21 +88,6 @@ const ADMIN_PLUGIN_PATHS = [
   '/admin/has-permission',
 ];
 
-function resetMail(kind: 'invite' | 'reset', to: string, name: string, url: string): OutgoingMail {
-  const intro =
-    kind === 'invite'
-      ? `You have been invited to Lossline, where your plant's hourly exergy balances are kept. Set your password to sign in:`
-      : `Someone (hopefully you) asked to set a new Lossline password for this address. Choose one here:`;
-  const subject = kind === 'invite' ? 'Your Lossline invitation' : 'Set a new Lossline password';
-  const note = `The link works once and expires in ${RESET_LINK_SECONDS / 3600} hours. If you did not expect this e-mail, ignore it.`;
-  return {
-    to,
-    subject,
-    text: `Hello ${name},\n\n${intro}\n\n${url}\n\n${note}\n`,
-    html: `<p>Hello ${escapeHtml(name)},</p><p>${intro}</p><p><a href="${escapeHtml(url)}">${escapeHtml(url)}</a></p><p>${note}</p>`,
-  };
-}
-
 /** Ends every outstanding reset or invitation link of a person (their value is the user id). */
 async function endLinksOf(userId: string): Promise<void> {
   await db().delete(schema.verification).where(eq(schema.verification.value, userId));
@@ -159,15 +144,10 @@ export function createAuth(e: AppEnv = env()) {
       resetPasswordTokenExpiresIn: RESET_LINK_SECONDS,
       revokeSessionsOnPasswordReset: true,
       sendResetPassword: async ({ user, url }) => {
-        // An account that has never set a password gets the invitation wording.
-        const [invite] = await db()
-          .select()
-          .from(schema.invitations)
-          .where(eq(schema.invitations.userId, user.id))
-          .limit(1);
-        const kind = invite && !invite.acceptedAt ? 'invite' : 'reset';
+        // An account that has never set a password gets the invitation wording: who invited, to which role and sites.
+        const mail = passwordMail(await invitationWords(user.id), user.email, user.name, url, RESET_LINK_SECONDS / 3600);
         // From the queue (the worker sends it): the answer does not wait for the mail server.
-        await sendJob(await queue(), QUEUES.sendMail, resetMail(kind, user.email, user.name, url), { retryLimit: 5, retryDelay: 30 });
+        await sendJob(await queue(), QUEUES.sendMail, mail, { retryLimit: 5, retryDelay: 30 });
       },
       onPasswordReset: async ({ user }) => {
         await db()

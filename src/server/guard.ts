@@ -6,7 +6,7 @@ import { apiError } from './errors';
 import { redact } from './log';
 import { admitFor, apiPolicyFor, decide, pagePolicyFor, pageSiteParam } from './policy';
 import { withSecurityHeaders } from './security-headers';
-import { resolveApiToken } from './tokens';
+import { resolveApiToken, tokenRefusal } from './tokens';
 
 interface GuardContext {
   request: Request;
@@ -126,7 +126,10 @@ async function decideAndRun(ctx: GuardContext, next: GuardNext, isApi: boolean):
       }
     }
     const verdict = decide(admit, role);
-    if (verdict === 401) return apiError('UNAUTHENTICATED', 'Sign in first (or send a site API token where the endpoint takes one).');
+    if (verdict === 401) {
+      const refused = hit.policy.apiToken ? await tokenRefusal(ctx.request.headers.get('authorization')) : null;
+      return apiError('UNAUTHENTICATED', refused ?? 'Sign in first (or send a site API token where the endpoint takes one).');
+    }
     if (verdict === 403) return apiError('FORBIDDEN', `Your role (${role}) may not ${method} ${path}.`);
     if (verdict === 405) return apiError('METHOD_NOT_ALLOWED', `${method} is not offered on ${path}.`);
     // A bearer token is not sent by a browser on its own: no cross-site forgery to guard against.

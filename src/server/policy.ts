@@ -26,6 +26,7 @@ export const API_POLICY: Record<string, RoutePolicy> = {
   '/api/me': { methods: { GET: ANY_ROLE } },
   '/api/admin/users': { methods: { GET: ADMIN, POST: ADMIN } },
   '/api/admin/users/[userId]': { methods: { PATCH: ADMIN } },
+  '/api/admin/users/[userId]/resend': { methods: { POST: ADMIN } },
   // --- ingest (uploads, API tokens, tag hours) ---
   '/api/sites/[siteId]/uploads': { methods: { GET: ANY_ROLE, POST: UPLOADERS } },
   '/api/sites/[siteId]/quality-codes': { methods: { GET: ANY_ROLE, PUT: LEADS } },

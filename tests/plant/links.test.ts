@@ -1,7 +1,10 @@
 import { beforeAll, expect, it } from 'vitest';
 import { createPort, createSite, createUnit, siteStatus, unlinkedTags } from '~/server/services/plant';
 import { endLink, linkHistory, linksForRange, linksValidAt, setLink } from '~/server/services/plant-links';
+import { eq } from 'drizzle-orm';
 import { AppError } from '~/server/errors';
+import { db } from '~/server/db/client';
+import { sites } from '~/server/db/schema';
 import { openEndMs } from '~/server/services/plant-tx';
 import { describeIntegration } from '../support/integration';
 import { addTags, recomputeJobs, uniqueName } from './support';
@@ -115,6 +118,13 @@ describeIntegration('versioned tag links', () => {
     expect(unlinked).toEqual(['AMBIENT', 'PRV_P_IN', 'PRV_P_IN_SPARE']);
     expect((await unlinkedTags(siteId, 'amb')).map((t) => t.name)).toEqual(['AMBIENT']);
     expect((await siteStatus(siteId)).get('Pump 1')!.complete).toBe(false);
+  });
+
+  it("the site's dead-state temperature tag is in use, so it is not listed as unlinked", async () => {
+    expect((await unlinkedTags(siteId)).map((t) => t.name)).toContain('AMBIENT');
+    await db().update(sites).set({ t0TagId: tagIds.get('AMBIENT')!, t0TagUnit: 'degC' }).where(eq(sites.id, siteId));
+    expect((await unlinkedTags(siteId)).map((t) => t.name)).toEqual(['PRV_P_IN', 'PRV_P_IN_SPARE']);
+    expect(await unlinkedTags(siteId, 'amb')).toEqual([]);
   });
 
   it('a temperature tag linked as a pressure shows as a conflict of the unit', async () => {

@@ -11,6 +11,7 @@ import { call, messageOf, type Message } from '~/components/api';
 import LinkForm, { type TagJson, type UnitJson } from './LinkForm';
 import { DisplayUnitsFields, displayFieldValues, displayUnitsOf } from './DisplayUnitsFields';
 import { DISPLAY_CHOICES, DisplayUnitsSchema, type DisplayUnits } from '~/lib/units/display';
+import { counted } from '~/lib/counts';
 
 interface Overview {
   site: { id: string; name: string; timeZone: string };
@@ -180,7 +181,7 @@ function StatusCell({ unit }: { unit: UnitJson }) {
     <span className="text-copper-deep">
       {missing.length > 0 && <span>◇ {missing.length} missing</span>}
       {missing.length > 0 && conflicts.length > 0 && ' · '}
-      {conflicts.length > 0 && <span>▲ {conflicts.length} conflict{conflicts.length === 1 ? '' : 's'}</span>}
+      {conflicts.length > 0 && <span>▲ {counted(conflicts.length, 'conflict', 'conflicts')}</span>}
     </span>
   );
 }
@@ -225,7 +226,7 @@ export default function SitePanel({ initial, canEdit }: { initial: Overview; can
     if (!file) return;
     try {
       const out = await call<{ units: number }>(`/api/v1/sites/${siteId}/model`, 'PUT', await file.text());
-      setMessage({ ok: true, text: `Model replaced from ${file.name}: ${out.units} units.` });
+      setMessage({ ok: true, text: `Model replaced from ${file.name}: ${counted(out.units, 'unit', 'units')}.` });
       await reload();
       await loadTags();
     } catch (e) {

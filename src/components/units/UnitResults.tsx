@@ -6,6 +6,7 @@ import { call } from '~/components/api';
 import { HOUR_STATES } from '~/lib/hour-states';
 import { DAY_MS } from '~/lib/time';
 import type { UnitHourView as HourRow, UnitInfo } from '~/lib/views/unit-hour';
+import { counted } from '~/lib/counts';
 
 
 
@@ -71,7 +72,7 @@ export default function UnitResults({ unit, initialFrom, initialTo, initialHour 
         </a>
         {rows && rows.length > 0 && (
           <p className="text-sm text-ink-soft" data-testid="state-counts">
-            {rows.length} hours:{' '}
+            {counted(rows.length, 'hour', 'hours')}:{' '}
             {HOUR_STATES
               .filter((s) => counts[s])
               .map((s) => `${counts[s]} ${s}`)
@@ -124,7 +125,13 @@ export default function UnitResults({ unit, initialFrom, initialTo, initialHour 
                     <td className="num">{fmt(r.closure_pct, 2)}</td>
                     <td className="num">{fmt(r.destructionCost_per_h, 2)}</td>
                     <td>
-                      <button type="button" className="btn px-2 py-0.5 text-xs" aria-expanded={isOpen} onClick={() => setOpen(isOpen ? null : r.hourStart)}>
+                      <button
+                        type="button"
+                        className="btn px-2 py-0.5 text-xs"
+                        aria-label={`${isOpen ? 'Close' : 'Open hour'} ${siteTime(r.hourStart, tz)}`}
+                        aria-expanded={isOpen}
+                        onClick={() => setOpen(isOpen ? null : r.hourStart)}
+                      >
                         {isOpen ? 'Close' : 'Open hour'}
                       </button>
                     </td>

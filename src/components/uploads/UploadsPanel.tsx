@@ -1,16 +1,15 @@
+import { fixed } from '~/lib/format';
 import AwsS3 from '@uppy/aws-s3';
 import Uppy from '@uppy/core';
 import Dashboard from '@uppy/react/dashboard';
 import '@uppy/core/css/style.min.css';
 import '@uppy/dashboard/css/style.min.css';
-import { fixed } from '~/lib/format';
-import { Fragment, useEffect, useMemo, useState } from 'react';
-import { StateMark } from '../StateMark';
+import { useEffect, useMemo, useState } from 'react';
 import { call, useApi } from '~/components/api';
-import { LayoutReview } from './LayoutReview';
-import { READ_STATES, UPLOAD_STATE_LOOK } from './uploadStates';
-import { TagCounts } from './TagCounts';
+import { counted } from '~/lib/counts';
 import type { UploadRow } from '~/lib/upload-view';
+import { UploadsTable } from './UploadsTable';
+import { uppyThemeCss } from './uppyTheme';
 
 interface Site {
   id: string;
@@ -29,16 +28,56 @@ async function sha256Hex(file: Blob): Promise<string | undefined> {
   return [...new Uint8Array(digest)].map((b) => b.toString(16).padStart(2, '0')).join('');
 }
 
-const fmtBytes = (n: number | null) =>
-  n === null ? '' : n < 1024 ? `${n} B` : n < 1024 ** 2 ? `${(n / 1024).toFixed(1)} KiB` : `${(n / 1024 ** 2).toFixed(1)} MiB`;
+/** One page of the site's files as the API answers it. */
+interface UploadPage {
+  uploads: UploadRow[];
+  next: string | null;
+  total: number;
+}
+const PAGE_SIZE = 25;
+
+/** Pages of the list by cursor: the cursors of the pages seen so far, the newest page first. */
+function usePages(siteId: string) {
+  const [cursors, setCursors] = useState<(string | null)[]>([null]);
+  useEffect(() => setCursors([null]), [siteId]);
+  const before = cursors.at(-1) ?? null;
+  const url = siteId ? `/api/sites/${siteId}/uploads?limit=${PAGE_SIZE}${before ? `&before=${encodeURIComponent(before)}` : ''}` : null;
+  return {
+    url,
+    index: cursors.length - 1,
+    older: (next: string) => setCursors((c) => [...c, next]),
+    newer: () => setCursors((c) => (c.length > 1 ? c.slice(0, -1) : c)),
+  };
+}
+
+/** Newer and older pages of the list, and where this page is in it. */
+function Pager({ page, index, onNewer, onOlder }: { page: UploadPage; index: number; onNewer: () => void; onOlder: () => void }) {
+  const first = index * PAGE_SIZE + 1;
+  if (page.total <= PAGE_SIZE && index === 0) return <p className="mt-2 text-xs text-ink-faint">{counted(page.total, 'file', 'files')} in all.</p>;
+  return (
+    <nav aria-label="Pages of files" className="mt-3 flex flex-wrap items-center gap-3 text-sm">
+      <button type="button" className="btn" disabled={index === 0} onClick={onNewer}>
+        ← Newer files
+      </button>
+      <span className="text-ink-soft">
+        Files {fixed(first, 0)} to {fixed(first + page.uploads.length - 1, 0)} of {fixed(page.total, 0)}, newest first
+      </span>
+      <button type="button" className="btn" disabled={!page.next} onClick={() => page.next && onOlder()}>
+        Older files →
+      </button>
+    </nav>
+  );
+}
 
 export default function UploadsPanel({ sites, initialSiteId }: { sites: Site[]; initialSiteId: string | null }) {
   const [siteId, setSiteId] = useState(initialSiteId ?? sites[0]?.id ?? '');
   const [error, setError] = useState<string | null>(null);
   const [open, setOpen] = useState<string | null>(null);
 
+  const pages = usePages(siteId);
+  const timeZone = sites.find((s) => s.id === siteId)?.timeZone ?? 'UTC';
   // Read again every 4 s, every 0.7 s while a file is on its way.
-  const list = useApi<{ uploads: UploadRow[] }>(siteId ? `/api/sites/${siteId}/uploads` : null, {
+  const list = useApi<UploadPage>(pages.url, {
     refreshMs: (d) => (d?.uploads.some((r) => ['awaiting-file', 'queued', 'processing'].includes(r.status)) ? 700 : 4000),
   });
   const rows = list.data?.uploads ?? null;
@@ -86,7 +125,8 @@ export default function UploadsPanel({ sites, initialSiteId }: { sites: Site[]; 
 
   return (
     <div className="space-y-6">
-      <div className="flex items-end gap-3">
+      <style>{uppyThemeCss()}</style>
+      <div className="flex flex-wrap items-end gap-3">
         <div>
           <label className="label" htmlFor="site">Site</label>
           <select id="site" className="field" value={siteId} onChange={(e) => setSiteId(e.target.value)}>
@@ -108,111 +148,12 @@ export default function UploadsPanel({ sites, initialSiteId }: { sites: Site[]; 
         ) : rows.length === 0 ? (
           <p className="text-sm text-ink-faint">No file uploaded yet. Drop one above.</p>
         ) : (
-          <table className="grid-table" data-testid="uploads-table">
-            <thead>
-              <tr>
-                <th>File</th>
-                <th className="num">Size</th>
-                <th>State</th>
-                <th className="w-48">Progress</th>
-                <th className="num">Rows</th>
-                <th></th>
-              </tr>
-            </thead>
-            <tbody>
-              {rows.map((r) => {
-                const look = UPLOAD_STATE_LOOK[r.status] ?? { label: r.status, shape: 'ring' as const, className: 'text-slate' };
-                return (
-                  <Fragment key={r.uploadId}>
-                    <tr data-testid={`upload-${r.fileName}`}>
-                      <td className="max-w-xs truncate" title={r.fileName}>{r.fileName}</td>
-                      <td className="num">{fmtBytes(r.sizeBytes)}</td>
-                      <td><StateMark {...look} /></td>
-                      <td>
-                        <div
-                          role="progressbar"
-                          aria-label={`Reading ${r.fileName}`}
-                          aria-valuemin={0}
-                          aria-valuemax={100}
-                          aria-valuenow={Math.round(r.progress * 100)}
-                          className="h-2 w-full overflow-hidden rounded bg-paper-edge"
-                        >
-                          <div className="h-full bg-teal transition-all" style={{ width: `${Math.round(r.progress * 100)}%` }} />
-                        </div>
-                      </td>
-                      <td className="num">{fixed(r.rowsRead, 0)}</td>
-                      <td className="text-right">
-                        {r.status === 'failed' && (
-                          <button className="btn" type="button" onClick={() => retry(r.uploadId)}>Read again</button>
-                        )}
-                        {(READ_STATES.includes(r.status) || r.status === 'failed' || r.status === 'needs-review') && (
-                          <button className="btn ml-1" type="button" onClick={() => setOpen(open === r.uploadId ? null : r.uploadId)}>
-                            {r.status === 'needs-review' || r.detection ? 'Review layout' : open === r.uploadId ? 'Hide report' : 'Report'}
-                          </button>
-                        )}
-                      </td>
-                    </tr>
-                    {open === r.uploadId && (
-                      <tr>
-                        <td colSpan={6} className="bg-paper-deep/40">
-                          {(r.status === 'needs-review' || r.status === 'failed') && r.detection ? (
-                            <LayoutReview upload={r} onSaved={() => { setOpen(null); void load(); }} />
-                          ) : (
-                            <UploadReport row={r} />
-                          )}
-                        </td>
-                      </tr>
-                    )}
-                  </Fragment>
-                );
-              })}
-            </tbody>
-          </table>
+          <>
+            <UploadsTable rows={rows} siteId={siteId} timeZone={timeZone} open={open} setOpen={setOpen} onRetry={retry} onSaved={() => { setOpen(null); void load(); }} />
+            <Pager page={list.data!} index={pages.index} onNewer={pages.newer} onOlder={() => pages.older(list.data!.next!)} />
+          </>
         )}
       </section>
-    </div>
-  );
-}
-
-function UploadReport({ row }: { row: UploadRow }) {
-  const s = row.summary ?? {};
-  if (row.status === 'failed') {
-    return (
-      <div className="space-y-2 py-2" data-testid="upload-report">
-        <p className="notice-error">{row.reason}</p>
-        <p className="text-sm text-ink-soft">The raw file is kept in the store; nothing of it entered the tag hours.</p>
-      </div>
-    );
-  }
-  if (row.duplicateOf) {
-    return <p className="py-2 text-sm" data-testid="upload-report">{s.note ?? 'Same bytes as an earlier upload: not read again.'}</p>;
-  }
-  return (
-    <div className="space-y-2 py-2" data-testid="upload-report">
-      <dl className="grid grid-cols-2 gap-x-6 gap-y-1 text-sm sm:grid-cols-6">
-        <dt className="text-ink-soft">Rows</dt><dd className="tabular-nums">{fixed(s.rows, 0)}</dd>
-        <dt className="text-ink-soft">Tags</dt><dd className="tabular-nums">{s.tags} ({s.newTags ?? 0} new)</dd>
-        <dt className="text-ink-soft">Tag hours</dt><dd className="tabular-nums">{fixed(s.hours, 0)}</dd>
-        <dt className="text-ink-soft">Values</dt><dd className="tabular-nums">{fixed(s.values, 0)}</dd>
-        <dt className="text-ink-soft">Rejected cells</dt><dd className="tabular-nums">{fixed(s.rejected, 0)}</dd>
-        <dt className="text-ink-soft">Warnings</dt><dd className="tabular-nums">{s.warnings?.length ?? 0}</dd>
-      </dl>
-      {!!s.warnings?.length && (
-        <ul className="list-disc pl-5 text-sm">
-          {s.warnings.map((w) => (
-            <li key={w.code}>{w.message} ({w.count}×)</li>
-          ))}
-        </ul>
-      )}
-      {!!s.goodQualityCodes?.length && (
-        <p className="text-sm text-ink-soft">Good quality codes of this site: {s.goodQualityCodes.join(', ')}; samples with other codes were rejected with their code.</p>
-      )}
-      {!!s.perTag?.length && <TagCounts rows={s.perTag} />}
-      {!!s.rejected && (
-        <a className="text-sm" href={`/api/uploads/${row.uploadId}/rejects.csv`} download>
-          Download every rejected cell with its reason (CSV)
-        </a>
-      )}
     </div>
   );
 }

@@ -515,7 +515,8 @@ export async function unitDetail(siteId: string, unitId: string) {
 
 /**
  * Tags of a site that have no current link (created by ingest when a file brings a new tag), with
- * an optional search on name and description.
+ * an optional search on name and description. The site's dead-state temperature tag is in use (the
+ * site reads T0 from it), so it is not listed.
  */
 export async function unlinkedTags(siteId: string, search?: string, limit = 200) {
   const now = new Date();
@@ -523,6 +524,10 @@ export async function unlinkedTags(siteId: string, search?: string, limit = 200)
     .select({ one: sql`1` })
     .from(tagLinks)
     .where(and(eq(tagLinks.tagId, tags.id), lte(tagLinks.validFrom, now), or(isNull(tagLinks.validTo), gt(tagLinks.validTo, now))));
+  const deadStateTag = db()
+    .select({ one: sql`1` })
+    .from(sites)
+    .where(and(eq(sites.id, tags.siteId), eq(sites.t0TagId, tags.id)));
   const q = search?.trim();
   return db()
     .select({ id: tags.id, name: tags.name, unitHint: tags.unitHint, description: tags.description, firstSeenAt: tags.firstSeenAt })
@@ -531,6 +536,7 @@ export async function unlinkedTags(siteId: string, search?: string, limit = 200)
       and(
         eq(tags.siteId, siteId),
         notExists(current),
+        notExists(deadStateTag),
         q ? or(ilike(tags.name, `%${q.replace(/[%_\\]/g, '\\$&')}%`), ilike(tags.description, `%${q.replace(/[%_\\]/g, '\\$&')}%`)) : undefined,
       ),
     )

@@ -246,8 +246,9 @@ export function reportPdf(r: ReportData): PDFKit.PDFDocument {
         [x.destruction_MWh / f, C.copper, false],
       ];
       let px = MARGIN + labelW;
+      const end = px + barW; // the band never runs past its row's width (shares may sum above 1 by rounding)
       for (const [share, color, hatch] of parts) {
-        const pw = Math.max(0, Math.min(1, share)) * barW;
+        const pw = Math.min(end - px, Math.max(0, Math.min(1, share)) * barW);
         if (pw <= 0) continue;
         doc.save().rect(px, y + 1, pw, 10).fill(color).restore();
         if (hatch) {

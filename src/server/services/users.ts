@@ -6,7 +6,7 @@ import { ROLES, type Role } from '~/lib/roles';
 import { auth } from '../auth';
 import { db } from '../db/client';
 import { AppError } from '../errors';
-import { invitations, personSites, sites, user } from '../db/schema';
+import { invitations, personSites, sites, user, verification } from '../db/schema';
 
 export { InviteInput, SitesInput };
 export const UpdateUserInput = z
@@ -72,6 +72,31 @@ export async function inviteUser(input: z.infer<typeof InviteInput>, invitedBy: 
   });
   await auth().api.requestPasswordReset({ body: { email: input.email, redirectTo: '/set-password' } });
   return { id };
+}
+
+/**
+ * Sends an invitation again (the first mail lost, or its link expired): the outstanding links end,
+ * the invitation is dated now and a new link goes out. Only for an invitation not yet accepted, of
+ * an account that is not deactivated.
+ */
+export async function resendInvitation(userId: string) {
+  const [row] = await db()
+    .select({ email: user.email, deactivated: user.deactivated, invitationId: invitations.id, acceptedAt: invitations.acceptedAt })
+    .from(user)
+    .leftJoin(invitations, eq(invitations.userId, user.id))
+    .where(eq(user.id, userId))
+    .limit(1);
+  if (!row) throw new AppError('NOT_FOUND', 'No such account.');
+  if (!row.invitationId) throw new AppError('CONFLICT', `${row.email} was not invited through Lossline, so there is no invitation to send again.`);
+  if (row.deactivated) throw new AppError('CONFLICT', 'This account is deactivated: activate it before inviting the person again.');
+  if (row.acceptedAt !== null) throw new AppError('CONFLICT', `${row.email} has already accepted the invitation and set a password; they can ask for a new password on the sign-in page.`);
+  await db().transaction(async (tx) => {
+    // The value of a password link is the account id: the old links stop working.
+    await tx.delete(verification).where(eq(verification.value, userId));
+    await tx.update(invitations).set({ sentAt: new Date() }).where(eq(invitations.userId, userId));
+  });
+  await auth().api.requestPasswordReset({ body: { email: row.email, redirectTo: '/set-password' } });
+  return { sentTo: row.email };
 }
 
 async function adminCount(exceptUserId: string): Promise<number> {

@@ -3,6 +3,7 @@ import { significant } from '~/lib/format';
 import { PALETTE } from '~/lib/palette';
 import { CartesianGrid, ComposedChart, Legend, Line, ResponsiveContainer, Scatter, Tooltip, XAxis, YAxis } from 'recharts';
 import { StateMark } from '~/components/StateMark';
+import { useConfirm } from '~/components/ConfirmDialog';
 import { Notice } from '~/components/plant/common';
 import { call, messageOf, type Message } from '~/components/api';
 import { BASELINE_LOOK, CHECK_LOOK, at, dayOf, kW, pct, sig } from './looks';
@@ -120,11 +121,19 @@ function FitChart({ b, fit, display }: { b: BaselineSummary; fit: FitView; displ
   );
 }
 
+const DISCARD = {
+  title: 'Discard this baseline version?',
+  body: 'A discarded version can no longer be accepted; fit a new version to try again.',
+  confirm: 'Discard the version',
+  danger: true,
+};
+
 /** One baseline version: statistics against Guideline 14, the scatter, and accept or discard for drafts. */
 export default function BaselineDetail({ baselineId, canEdit, display }: { baselineId: string; canEdit: boolean; display?: SiteDisplayProp }) {
   const [data, setData] = useState<{ baseline: BaselineSummary; fit: FitView } | null>(null);
   const [message, setMessage] = useState<Message>(null);
   const [busy, setBusy] = useState(false);
+  const { dialog, ask } = useConfirm();
 
   useEffect(() => {
     let live = true;
@@ -138,6 +147,7 @@ export default function BaselineDetail({ baselineId, canEdit, display }: { basel
   }, [baselineId]);
 
   async function decide(what: 'accept' | 'discard') {
+    if (what === 'discard' && !(await ask(DISCARD))) return;
     setBusy(true);
     setMessage(null);
     try {
@@ -161,6 +171,7 @@ export default function BaselineDetail({ baselineId, canEdit, display }: { basel
   const look = BASELINE_LOOK[b.status]!;
   return (
     <section className="card space-y-4" data-testid="baseline-detail">
+      {dialog}
       <div className="flex flex-wrap items-baseline justify-between gap-2">
         <div>
           <h2>

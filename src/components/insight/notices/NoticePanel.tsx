@@ -1,5 +1,6 @@
 import { useState } from 'react';
 import { StateMark } from '~/components/StateMark';
+import { useConfirm, type ConfirmOptions } from '~/components/ConfirmDialog';
 import { Notice as Message } from '~/components/plant/common';
 import { call, messageOf, type Message as Msg } from '~/components/api';
 import { at, dayOf } from '../baselines/looks';
@@ -167,6 +168,15 @@ function CloseForm({ n, busy, onClose }: { n: Notice; busy: boolean; onClose: (b
   );
 }
 
+/** The question before closing: a closed notice takes no later signal. */
+function closeQuestion(n: Notice): ConfirmOptions {
+  return {
+    title: `Close the notice of ${n.unitName}?`,
+    body: 'A closed notice is not reopened; a later shift of this unit opens a new notice.',
+    confirm: 'Close the notice',
+  };
+}
+
 /** A drift notice: the live headline, chart, history, the caution, and seen / close for those who act on notices. */
 export default function NoticePanel({
   initial,
@@ -183,12 +193,14 @@ export default function NoticePanel({
   const [ackComment, setAckComment] = useState('');
   const [message, setMessage] = useState<Msg>(null);
   const [busy, setBusy] = useState(false);
+  const { dialog, ask } = useConfirm();
   const look = NOTICE_LOOK[n.status]!;
   const life = LIFE_LOOK[n.life];
   const more = n.direction === 'up';
   const hoursNow = n.currentHours ?? n.hours;
 
   async function act(what: 'acknowledge' | 'close', body: Record<string, string>) {
+    if (what === 'close' && !(await ask(closeQuestion(n)))) return;
     setMessage(null);
     setBusy(true);
     try {
@@ -204,6 +216,7 @@ export default function NoticePanel({
 
   return (
     <div className="space-y-6">
+      {dialog}
       {n.kind !== 'drift' ? (
         <RuleNoticeSummary notice={n} />
       ) : (

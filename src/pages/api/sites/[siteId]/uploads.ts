@@ -1,7 +1,9 @@
 import { endpoint } from '~/server/endpoint';
-import { NewUploadInput, createBrowserUpload, listUploads } from '~/server/services/uploads';
+import { NewUploadInput, createBrowserUpload } from '~/server/services/uploads';
+import { UploadListQuery, listUploadPage } from '~/server/services/upload-list';
 
-export const GET = endpoint({}, async (_ctx, { params }) => Response.json({ uploads: await listUploads(params.siteId!) }));
+/** A page of the site's uploads, newest first; `next` is the cursor of the older page (`?before=`). */
+export const GET = endpoint({ query: UploadListQuery }, async (_ctx, { params, query }) => Response.json(await listUploadPage(params.siteId!, query)));
 
 export const POST = endpoint({ body: NewUploadInput }, async ({ locals }, { params, body }) =>
   Response.json(await createBrowserUpload(params.siteId!, body, locals.user!.id), { status: 201 }),
