@@ -3,6 +3,7 @@
  * (src/server/services/baselines.ts) and the islands (src/components/insight/baselines). Types only.
  */
 import type { BaselineModel, BaselineTerm, Guideline14Check } from './analytics/baseline';
+import type { FitTrust } from './analytics/fit-trust';
 
 export type BaselineStatus = 'draft' | 'active' | 'discarded' | 'retired';
 
@@ -33,6 +34,8 @@ export interface BaselineSummary {
   destruction: ModelSummary;
   /** Both models meet the hourly Guideline 14 criteria (efficiency only when the unit has one). */
   meetsGuideline14: boolean;
+  /** Whether the fit saw enough hours and load to be trusted, and to be accepted (src/lib/analytics/fit-trust.ts). */
+  trust: FitTrust;
   createdBy: string | null;
   createdAt: string;
   decidedBy: string | null;

@@ -103,6 +103,9 @@ export const PAGE_POLICY: Record<string, Admit> = {
   '/trends/[unitId]': ANY_ROLE,
   '/ledger': ANY_ROLE,
   '/reports': LEADS,
+  // --- help ---
+  '/help': ANY_ROLE,
+  '/help/[...rest]': ANY_ROLE,
 };
 
 export { ADMIN, LEADS, UPLOADERS };

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { classifyHour, resolvableSpread, STEADY_DEFAULTS, type SteadyLimits, type TagHourStats } from '~/lib/analytics/steady';
+import { aboveLimit, classifyHour, distinctFigures, resolvableSpread, STEADY_DEFAULTS, type SteadyLimits, type TagHourStats } from '~/lib/analytics/steady';
 
 // Invented tag hours of a steam turbine: power (kW), steam flow (kg/s), inlet temperature (K).
 function hour(mean: number, stdDev: number, extra: Partial<TagHourStats> = {}): TagHourStats {
@@ -150,6 +150,30 @@ describe('classifyHour (common practice defaults, docs/domain.md section 6)', ()
       const o2: SteadyLimits = { loadTag: 'flow', minLoad: 0.1, spread: { flow: { maxRelSpread: 1 }, O2: { maxStd: 0.02, instrument: { uAbs: 0.0125 } } } };
       expect(classifyHour({ tags: { flow: hour(2, 0), O2: hour(0.03, 0.025) } }, o2).state).toBe('steady');
       expect(classifyHour({ tags: { flow: hour(2, 0), O2: hour(0.03, 0.0251) } }, o2)).toMatchObject({ state: 'unsettled', reasons: [{ code: 'SPREAD_HIGH', tag: 'O2', limit: 0.025 }] });
+    });
+  });
+
+  describe('a value at its limit is inside; the words of a value above it never read as equal', () => {
+    // self-consistency: the rule of src/lib/analytics/steady.ts aboveLimit, at its boundary
+    const lim: SteadyLimits = { loadTag: 'flow', minLoad: 0.1, spread: { flow: { maxRelSpread: 0.05 } } };
+    it('exactly 5 % of the mean against a 5 % limit is settled, also with floating-point noise', () => {
+      expect(classifyHour({ tags: { flow: hour(100, 5) } }, lim).state).toBe('steady');
+      expect(aboveLimit(0.05 * (1 + 1e-12), 0.05)).toBe(false);
+      expect(aboveLimit(0.05 * (1 + 1e-6), 0.05)).toBe(true);
+    });
+    it('5.004 % against 5 % is unsettled, and the text shows the two apart', () => {
+      const r = classifyHour({ tags: { flow: hour(100, 5.004) } }, lim);
+      expect(r.state).toBe('unsettled');
+      expect(r.reasons[0].message).toMatch(/spread 5\.004 % of the mean, above its limit 5\.000 %/);
+      expect(r.reasons[0].message).not.toMatch(/spread 5\.0 % of the mean, above its limit 5\.0 %/);
+    });
+    it('absolute limits follow the same rule and words', () => {
+      const o2: SteadyLimits = { loadTag: 'flow', minLoad: 0.1, spread: { flow: { maxRelSpread: 1 }, O2: { maxStd: 0.02 } } };
+      expect(classifyHour({ tags: { flow: hour(2, 0), O2: hour(0.03, 0.02) } }, o2).state).toBe('steady');
+      const over = classifyHour({ tags: { flow: hour(2, 0), O2: hour(0.03, 0.020001) } }, o2);
+      expect(over.state).toBe('unsettled');
+      expect(over.reasons[0].message).toMatch(/spread 0\.020001 within the hour, above its limit 0\.02 /);
+      expect(distinctFigures(5.04, 5)).toEqual(['5.04', '5.00']);
     });
   });
 });

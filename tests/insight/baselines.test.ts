@@ -126,14 +126,29 @@ describeIntegration('baselines: fit, versions, expected values', () => {
     await acceptBaseline(v1!.id, leadId);
     expect((await activeBaseline(unitId))!.id).toBe(v1!.id);
 
-    const v2 = await fitDraft(unitId, { ...period, terms: ['load', 'load^2'] }, leadId);
-    expect(v2.version).toBe(2);
+    // Three coefficients on 24 hours: under the 10 hours per coefficient of src/lib/analytics/fit-trust.ts
+    // (common practice), so the draft is kept and says why, but cannot be accepted.
+    const weak = await fitDraft(unitId, { ...period, terms: ['load', 'load^2'] }, leadId);
+    expect(weak.version).toBe(2);
+    expect(weak.trust).toMatchObject({ acceptable: false, trusted: false, minHours: 30 });
+    expect(weak.trust.warnings[0]).toMatch(/Fitted on 24 steady hours for 3 coefficients: at least 30/);
+    const refused = await acceptBaseline(weak.id, leadId).catch((e) => e);
+    expect(refused.code).toBe('UNPROCESSABLE');
+    expect(refused.message).toMatch(/cannot be accepted: Fitted on 24 steady hours/);
+    await discardBaseline(weak.id, leadId);
     expect((await activeBaseline(unitId))!.version).toBe(1);
+
+    const v2 = await fitDraft(unitId, { ...period, terms: ['load'] }, leadId);
+    // Acceptable (24 >= 2 x 10 and >= 24) but under a week: accepted, with the warning on its page.
+    expect(v2.trust.acceptable).toBe(true);
+    expect(v2.trust.trusted).toBe(false);
+    expect(v2.trust.warnings.join(' ')).toMatch(/only 24 steady hours, less than a week/);
     const accepted = await acceptBaseline(v2.id, leadId);
     expect(accepted.status).toBe('active');
     expect(accepted.decidedBy).toBe('Lena Lead');
 
     const v3 = await fitDraft(unitId, { ...period, terms: ['load'] }, leadId);
+    expect(v3.version).toBe(4);
     const discarded = await discardBaseline(v3.id, leadId);
     expect(discarded.status).toBe('discarded');
     const err = await acceptBaseline(v3.id, leadId).catch((e) => e);
@@ -141,8 +156,9 @@ describeIntegration('baselines: fit, versions, expected values', () => {
 
     const all = await unitBaselines(unitId);
     expect(all.map((x) => [x.version, x.status])).toEqual([
-      [3, 'discarded'],
-      [2, 'active'],
+      [4, 'discarded'],
+      [3, 'active'],
+      [2, 'discarded'],
       [1, 'retired'],
     ]);
     expect(all.find((x) => x.version === 1)!.retiredAt).not.toBeNull();
@@ -156,8 +172,8 @@ describeIntegration('baselines: fit, versions, expected values', () => {
       { hourStart: new Date(t0 + 100 * HOUR), load: 20, T0_K: 290 },
       { hourStart: new Date(t0 + 101 * HOUR).toISOString(), load: null, T0_K: 290 },
     ]);
-    expect(out.baseline!.version).toBe(4);
-    expect(out.baseline!.label).toMatch(/^Baseline v4 /);
+    expect(out.baseline!.version).toBe(5);
+    expect(out.baseline!.label).toMatch(/^Baseline v5 /);
     const row = out.rows[0]!;
     expect(row.hourStart).toBe(new Date(t0 + 100 * HOUR).toISOString());
     expectClose(row.destruction_W!.expected, a + b * 20, { rtol: 1e-12 });

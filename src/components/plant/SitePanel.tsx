@@ -361,7 +361,7 @@ export default function SitePanel({ initial, canEdit }: { initial: Overview; can
       <section className="card">
         <h2 className="mb-1">Model file</h2>
         <p className="mb-3 text-sm text-ink-soft">
-          The whole model as one JSON file (format in docs/plant-model.md), to keep under version control or set up a site in one step.
+          The whole model as one JSON file (<a href="/help/model-file">its format</a>), to keep under version control or set up a site in one step.
         </p>
         <div className="flex flex-wrap items-center gap-3">
           <a className="btn no-underline" href={`/api/v1/sites/${siteId}/model`} download>

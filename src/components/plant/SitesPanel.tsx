@@ -108,7 +108,7 @@ export default function SitesPanel({ sites, canEdit }: { sites: SiteSummary[]; c
             </form>
             <div className="mt-4 border-t border-paper-edge pt-3">
               <label className="label" htmlFor="site-from-file">
-                Or create a site from a model file (docs/plant-model.md)
+                Or create a site from a model file (<a href="/help/model-file">its format</a>)
               </label>
               <input id="site-from-file" type="file" accept="application/json,.json" onChange={(e) => fromFile(e.target.files?.[0])} />
             </div>

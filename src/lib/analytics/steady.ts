@@ -282,28 +282,30 @@ export function classifyHour(
     if (maxRel !== undefined && mean !== 0) {
       const rel = st.stdDev / Math.abs(mean);
       const relLimit = Math.max(maxRel, floor / Math.abs(mean));
-      if (rel > relLimit) {
+      if (aboveLimit(rel, relLimit)) {
+        const [shown, shownLimit] = distinctFigures(100 * rel, 100 * relLimit);
         reasons.push({
           code: 'SPREAD_HIGH',
           state: 'unsettled',
           tag,
           value: rel,
           limit: relLimit,
-          message: `${tag}: spread ${(100 * rel).toFixed(1)} % of the mean, above its limit ${(100 * relLimit).toFixed(1)} % (${(100 * maxRel).toFixed(1)} % of the mean${floorNote(floor)}; a spread at the limit counts as settled)`,
+          message: `${tag}: spread ${shown} % of the mean, above its limit ${shownLimit} % (${(100 * maxRel).toFixed(1)} % of the mean${floorNote(floor)}; a spread at the limit counts as settled)`,
         });
         continue;
       }
     }
     if (own?.maxStd !== undefined) {
       const absLimit = Math.max(own.maxStd, floor);
-      if (st.stdDev > absLimit) {
+      if (aboveLimit(st.stdDev, absLimit)) {
+        const [shown, shownLimit] = distinctFigures(st.stdDev, absLimit, 3);
         reasons.push({
           code: 'SPREAD_HIGH',
           state: 'unsettled',
           tag,
           value: st.stdDev,
           limit: absLimit,
-          message: `${tag}: spread ${fmt(st.stdDev)} within the hour, above its limit ${fmt(absLimit)} (set ${fmt(own.maxStd)}${floorNote(floor)}; a spread at the limit counts as settled)`,
+          message: `${tag}: spread ${shown} within the hour, above its limit ${shownLimit} (set ${fmt(own.maxStd)}${floorNote(floor)}; a spread at the limit counts as settled)`,
         });
       }
     }
@@ -315,6 +317,37 @@ export function classifyHour(
 }
 
 const fmt = (v: number) => Number(v.toPrecision(3)).toString();
+
+/**
+ * The rule of every spread limit: a value AT its limit is inside (settled); only a value above it is
+ * outside. "At" allows for the rounding of floating point (a relative 1e-9), so that a spread computed
+ * as 0.05000000000000001 against a limit of 0.05 is at its limit, not above it.
+ */
+export function aboveLimit(value: number, limit: number): boolean {
+  return value > limit + Math.abs(limit) * 1e-9;
+}
+
+/**
+ * A value above its limit and the limit, written with the fewest decimals (at least one) at which the
+ * two differ, or with the fewest significant figures (at least `significant`) when that is given,
+ * so that the words never say "spread 5.0 % (limit 5.0 %)" of an hour that is outside its limit.
+ */
+export function distinctFigures(value: number, limit: number, significant?: number): [string, string] {
+  if (significant !== undefined) {
+    for (let p = significant; p <= 12; p++) {
+      const a = Number(value.toPrecision(p)).toString();
+      const b = Number(limit.toPrecision(p)).toString();
+      if (a !== b) return [a, b];
+    }
+    return [String(value), String(limit)];
+  }
+  for (let d = 1; d <= 10; d++) {
+    const a = value.toFixed(d);
+    const b = limit.toFixed(d);
+    if (a !== b) return [a, b];
+  }
+  return [String(value), String(limit)];
+}
 /** The instrument's floor in a reason's words (formatted only when a reason is written). */
 const floorNote = (floor: number) => (floor > 0 ? `; what the instrument resolves: ${fmt(floor)}` : '');
 

@@ -231,7 +231,7 @@ const GASES: readonly FluidKind[] = ['air', 'flue-gas', 'gas-mixture', 'fuel-gas
 const LIQUIDS: readonly FluidKind[] = ['water', 'liquid'];
 const ANY_STREAM: readonly FluidKind[] = ['water', 'air', 'flue-gas', 'fuel-gas', 'gas-mixture', 'liquid'];
 
-const COMMON_PRACTICE = 'common practice (docs/domain.md section 6)';
+const COMMON_PRACTICE = 'common practice (Help: the method in short, the state of an hour)';
 
 /** Steady-state test parameters every kind has (docs/domain.md section 6, common practice). */
 function steadyParams(massBalance: boolean): ParamSpec[] {

@@ -10,7 +10,8 @@
  */
 import { kindSpec, type UnitKind } from '../plant/kinds';
 import { HOUR_STATES, zeroStateCounts, type StateCounts } from '../hour-states';
-import type { Period } from './period';
+import type { Period, PeriodChoice } from './period';
+import type { Freshness } from './freshness';
 
 /** Watt-hours in one MWh: a sum of hourly W [Wh] divided by this is MWh. */
 export const WH_PER_MWH = 1e6;
@@ -85,6 +86,10 @@ export type LedgerTotals = Pick<LedgerRow, 'hours' | 'destruction_MWh' | 'destru
 export interface LedgerAnswer {
   site: ViewSite;
   period: Period;
+  /** Why the view opened on this period (the asked one, or the latest full one with data). */
+  opened: PeriodChoice;
+  /** How fresh the site's figures are. */
+  freshness: Freshness;
   rows: LedgerRow[];
   shareBasis: 'cost' | 'destruction';
   totals: LedgerTotals;
@@ -178,6 +183,10 @@ export interface FlowUnit {
 export interface FlowAnswer {
   site: ViewSite;
   period: Period;
+  /** Why the view opened on this period (the asked one, or the latest full one with data). */
+  opened: PeriodChoice;
+  /** How fresh the site's figures are. */
+  freshness: Freshness;
   /** Exergy in [MWh] by source, over steady hours. */
   sources: { key: FlowSource; label: string; MWh: number }[];
   units: FlowUnit[];
@@ -240,6 +249,8 @@ export interface OverviewSite extends ViewSite {
   windowTo: string;
   /** Start of the latest unit hour, site clock; null when the site has none. */
   lastHour: string | null;
+  /** How fresh the site's figures are. */
+  freshness: Freshness;
   /** Drift notices not closed (open or acknowledged). */
   openNotices: number;
 }

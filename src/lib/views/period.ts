@@ -152,3 +152,37 @@ export function monthPeriod(month: string, timeZone: string): Period {
   return resolvePeriod({ range: 'month', anchor: `${month}-01` }, timeZone);
 }
 
+
+/** First and last computed hour of a site or unit: their starts [ms since epoch]. */
+export interface DataSpan {
+  firstMs: number;
+  lastMs: number;
+}
+
+/** Why a view opened on the period it shows (for the words beside the period). */
+export type PeriodChoice = 'asked' | 'latest-full' | 'latest-partial' | 'now';
+
+/**
+ * The period a view opens on when the query names none: the latest FULL period of the range that has
+ * data, i.e. the calendar day, week, month or year that ends with the latest computed hour. When the
+ * latest hour does not close its calendar period (files arrive in batches: the demo plant's last week
+ * holds 17 of its 168 hours), the period before it is shown, as long as some data reaches into it;
+ * only when none does is the partial period holding the latest hour shown. Without data: today.
+ *
+ * @param span first and last computed hour, null when there is none
+ * @param nowMs "now" [ms since epoch], used only when there is no data
+ */
+export function defaultPeriod(range: Exclude<Range, 'custom'>, timeZone: string, span: DataSpan | null, nowMs = Date.now()): { period: Period; choice: PeriodChoice } {
+  if (!span) return { period: resolvePeriod({ range }, timeZone, nowMs), choice: 'now' };
+  const holding = resolvePeriod({ range }, timeZone, span.lastMs);
+  if (span.lastMs + HOUR_MS >= holding.toMs) return { period: holding, choice: 'latest-full' };
+  const before = resolvePeriod({ range, anchor: holding.prevAnchor }, timeZone);
+  if (span.firstMs < before.toMs) return { period: before, choice: 'latest-full' };
+  return { period: holding, choice: 'latest-partial' };
+}
+
+/** The period of a view's query: the one asked for, or the default of defaultPeriod. */
+export function periodFor(q: PeriodQuery, timeZone: string, span: DataSpan | null, nowMs = Date.now()): { period: Period; choice: PeriodChoice } {
+  if (q.anchor || q.range === 'custom') return { period: resolvePeriod(q, timeZone, nowMs), choice: 'asked' };
+  return defaultPeriod(q.range, timeZone, span, nowMs);
+}

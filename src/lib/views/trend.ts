@@ -10,7 +10,8 @@
 import { CONTEXT_STATES, zeroStateCounts, type ContextState, type HourState, type StateCounts } from '../hour-states';
 import { HOUR_MS } from '../time';
 import { siteDay } from '../site-time';
-import { resolvePeriod, type Period } from './period';
+import { resolvePeriod, type Period, type PeriodChoice } from './period';
+import type { Freshness } from './freshness';
 
 export type { HourState, StateCounts } from '../hour-states';
 
@@ -123,6 +124,10 @@ export interface TrendAnswer {
   unit: { id: string; name: string; kind: string; kindLabel: string };
   site: { id: string; name: string; timeZone: string; currency: string };
   period: Period;
+  /** Why the view opened on this period (the asked one, or the latest full one with data). */
+  opened: PeriodChoice;
+  /** How fresh the site's figures are. */
+  freshness: Freshness;
   bucket: 'hour' | 'day';
   points: TrendPoint[];
   context: ContextSpan[];

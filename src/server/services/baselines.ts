@@ -7,30 +7,27 @@
  *
  * Stable names other screens call: activeBaseline(unitId) and expectedFor(unitId, rows).
  */
-import { and, asc, desc, eq, gte, isNotNull, lt, sql } from 'drizzle-orm';
-import { alias } from 'drizzle-orm/pg-core';
+import { and, eq, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import {
   BaselineError,
   QUADRATIC_TERMS,
   fitBaseline,
-  meetsGuideline14,
   predict,
   predictionInterval,
   type BaselineModel,
   type BaselineTerm,
-  type Guideline14Check,
 } from '~/lib/analytics/baseline';
 import { QUEUES, sendJob } from '~/jobs';
 import { db } from '../db/client';
-import type { BaselineSummary, FitView, ModelSummary } from '~/lib/baseline-view';
-import { siteDay } from '~/lib/site-time';
+import type { BaselineSummary, FitView } from '~/lib/baseline-view';
 import { hourCeil } from '~/lib/time';
 import { curveLoads } from '~/lib/views/trend';
-import { baselines, plantUnits, sites, unitHours, user, type BaselineStatus } from '../db/schema';
+import { baselines } from '../db/schema';
 import { isId } from '../access';
 import { AppError } from '../errors';
 import { queue } from '../queue';
+import { activeBaseline, getBaseline, steadyHours, unitRow } from './baselines-read';
 
 
 /** Coverage factor of the expected band (docs/domain.md section 7: k = 2). */
@@ -50,108 +47,8 @@ export const FitInput = z.strictObject({
 export type FitInput = z.infer<typeof FitInput>;
 
 export type { BaselineSummary, ModelSummary } from '~/lib/baseline-view';
+export { activeBaseline, baselineLabel, baselineOverview, getBaseline, unitBaselines, unitChoices, unitHourSpan } from './baselines-read';
 
-function summariseModel(m: BaselineModel): ModelSummary {
-  const { n, p, s, r2, ybar, cvRmse, nmbe } = m.stats;
-  return { coefficients: m.coefficients, stats: { n, p, s, r2, ybar, cvRmse, nmbe }, guideline14: meetsGuideline14(m.stats, 'hourly') };
-}
-
-/** The label of a baseline on charts; the period end is shown as its last day (the end is exclusive). */
-export function baselineLabel(version: number, periodFrom: Date, periodTo: Date, timeZone: string): string {
-  return `Baseline v${version} (${siteDay(periodFrom, timeZone)} to ${siteDay(periodTo.getTime() - 1, timeZone)})`;
-}
-
-const creator = alias(user, 'creator');
-const decider = alias(user, 'decider');
-
-function summaryQuery() {
-  return db()
-    .select({
-      b: baselines,
-      unitName: plantUnits.name,
-      unitKind: plantUnits.kind,
-      siteId: sites.id,
-      siteName: sites.name,
-      timeZone: sites.timeZone,
-      createdByName: creator.name,
-      decidedByName: decider.name,
-    })
-    .from(baselines)
-    .innerJoin(plantUnits, eq(plantUnits.id, baselines.unitId))
-    .innerJoin(sites, eq(sites.id, plantUnits.siteId))
-    .leftJoin(creator, eq(creator.id, baselines.createdBy))
-    .leftJoin(decider, eq(decider.id, baselines.decidedBy));
-}
-
-type SummaryRow = Awaited<ReturnType<ReturnType<typeof summaryQuery>['execute']>>[number];
-
-function toSummary(r: SummaryRow): BaselineSummary {
-  const b = r.b;
-  const efficiency = b.efficiencyModel ? summariseModel(b.efficiencyModel) : null;
-  const destruction = summariseModel(b.destructionModel);
-  return {
-    id: b.id,
-    unitId: b.unitId,
-    unitName: r.unitName,
-    unitKind: r.unitKind,
-    siteId: r.siteId,
-    siteName: r.siteName,
-    timeZone: r.timeZone,
-    version: b.version,
-    status: b.status,
-    periodFrom: b.periodFrom.toISOString(),
-    periodTo: b.periodTo.toISOString(),
-    terms: b.terms,
-    hours: b.hours,
-    loadUnit: b.loadUnit,
-    note: b.note,
-    efficiency,
-    destruction,
-    meetsGuideline14: destruction.guideline14.meets && (efficiency ? efficiency.guideline14.meets : true),
-    createdBy: r.createdByName,
-    createdAt: b.createdAt.toISOString(),
-    decidedBy: r.decidedByName,
-    decidedAt: b.decidedAt?.toISOString() ?? null,
-    retiredAt: b.retiredAt?.toISOString() ?? null,
-    label: baselineLabel(b.version, b.periodFrom, b.periodTo, r.timeZone),
-  };
-}
-
-async function unitRow(unitId: string) {
-  if (!isId(unitId)) throw new AppError('NOT_FOUND', 'No such unit.');
-  const [u] = await db()
-    .select({ id: plantUnits.id, name: plantUnits.name, kind: plantUnits.kind, siteId: sites.id, siteName: sites.name, timeZone: sites.timeZone })
-    .from(plantUnits)
-    .innerJoin(sites, eq(sites.id, plantUnits.siteId))
-    .where(eq(plantUnits.id, unitId));
-  if (!u) throw new AppError('NOT_FOUND', 'No such unit.');
-  return u;
-}
-
-/** One version by id. */
-export async function getBaseline(baselineId: string): Promise<BaselineSummary> {
-  if (!isId(baselineId)) throw new AppError('NOT_FOUND', 'No such baseline.');
-  const [r] = await summaryQuery().where(eq(baselines.id, baselineId));
-  if (!r) throw new AppError('NOT_FOUND', 'No such baseline.');
-  return toSummary(r);
-}
-
-/** Every version of a unit, newest first. */
-export async function unitBaselines(unitId: string): Promise<BaselineSummary[]> {
-  await unitRow(unitId);
-  const rows = await summaryQuery().where(eq(baselines.unitId, unitId)).orderBy(desc(baselines.version));
-  return rows.map(toSummary);
-}
-
-/**
- * The unit's active baseline (the one named on every chart), or null when none is accepted yet.
- * @param unitId plant unit id
- */
-export async function activeBaseline(unitId: string): Promise<BaselineSummary | null> {
-  if (!isId(unitId)) return null;
-  const [r] = await summaryQuery().where(and(eq(baselines.unitId, unitId), eq(baselines.status, 'active')));
-  return r ? toSummary(r) : null;
-}
 
 /** Expected value with its band, yhat +- 2 s sqrt(1 + x0' (X'X)^-1 x0) (analytics predictionInterval, k = 2). */
 export interface ExpectedBand {
@@ -211,52 +108,6 @@ export async function expectedFor(
     };
   });
   return { baseline: summary, rows: out };
-}
-
-/** Steady hours of a unit with what a baseline needs, oldest first. */
-async function steadyHours(unitId: string, from: Date, to: Date) {
-  return db()
-    .select({
-      hourStart: unitHours.hourStart,
-      load: unitHours.load,
-      loadUnit: unitHours.loadUnit,
-      T0_K: unitHours.T0_K,
-      efficiency: unitHours.efficiency,
-      destruction_W: unitHours.destruction_W,
-    })
-    .from(unitHours)
-    .where(
-      and(
-        eq(unitHours.unitId, unitId),
-        eq(unitHours.state, 'steady'),
-        gte(unitHours.hourStart, from),
-        lt(unitHours.hourStart, to),
-        isNotNull(unitHours.load),
-        isNotNull(unitHours.T0_K),
-        isNotNull(unitHours.destruction_W),
-      ),
-    )
-    .orderBy(asc(unitHours.hourStart));
-}
-
-/** The span of a unit's hours, for proposing a reference period. */
-export async function unitHourSpan(unitId: string) {
-  await unitRow(unitId);
-  const [r] = await db()
-    .select({
-      first: sql<string | null>`min(${unitHours.hourStart})`,
-      last: sql<string | null>`max(${unitHours.hourStart})`,
-      hours: sql<number>`count(*)::int`,
-      steady: sql<number>`(count(*) filter (where ${unitHours.state} = 'steady'))::int`,
-    })
-    .from(unitHours)
-    .where(eq(unitHours.unitId, unitId));
-  return {
-    first: r?.first ? new Date(r.first).toISOString() : null,
-    last: r?.last ? new Date(r.last).toISOString() : null,
-    hours: r?.hours ?? 0,
-    steady: r?.steady ?? 0,
-  };
 }
 
 /** Fewest steady hours a baseline is fitted on (common practice: at least a full day of steady hours). */
@@ -332,6 +183,9 @@ export async function fitDraft(unitId: string, input: FitInput, userId: string |
  */
 export async function acceptBaseline(baselineId: string, userId: string | null): Promise<BaselineSummary> {
   const b = await getBaseline(baselineId);
+  if (b.status === 'draft' && !b.trust.acceptable) {
+    throw new AppError('UNPROCESSABLE', `Version ${b.version} cannot be accepted: ${b.trust.warnings[0] ?? 'its fit saw too few hours.'}`);
+  }
   await db().transaction(async (tx) => {
     await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${'baselines:' + b.unitId}))`);
     const [now] = await tx.select({ status: baselines.status }).from(baselines).where(eq(baselines.id, baselineId));
@@ -387,32 +241,4 @@ export async function baselineFitView(baselineId: string): Promise<FitView> {
     destruction_W: predict(b.destructionModel, load, meanT0_K),
   }));
   return { points, curve, meanT0_K };
-}
-
-/** Every unit of every site with its active baseline and the count of each status, for /baselines. */
-export async function baselineOverview() {
-  const units = await db()
-    .select({ id: plantUnits.id, name: plantUnits.name, kind: plantUnits.kind, siteId: sites.id, siteName: sites.name, timeZone: sites.timeZone })
-    .from(plantUnits)
-    .innerJoin(sites, eq(sites.id, plantUnits.siteId))
-    .orderBy(asc(sites.name), asc(plantUnits.name));
-  const all = (await summaryQuery().orderBy(desc(baselines.version))).map(toSummary);
-  return units.map((u) => {
-    const versions = all.filter((b) => b.unitId === u.id);
-    return {
-      ...u,
-      active: versions.find((b) => b.status === 'active') ?? null,
-      drafts: versions.filter((b) => b.status === 'draft').map((b) => ({ id: b.id, version: b.version })),
-      versions: versions.length,
-    };
-  });
-}
-
-/** The units for the builder's picker (id, name, site). */
-export async function unitChoices() {
-  return db()
-    .select({ id: plantUnits.id, name: plantUnits.name, kind: plantUnits.kind, siteId: sites.id, siteName: sites.name, timeZone: sites.timeZone })
-    .from(plantUnits)
-    .innerJoin(sites, eq(sites.id, plantUnits.siteId))
-    .orderBy(asc(sites.name), asc(plantUnits.name));
 }

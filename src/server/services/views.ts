@@ -6,7 +6,8 @@
 import { and, asc, eq, gte, lt, sql } from 'drizzle-orm';
 import { HOUR_MS, DAY_MS } from '~/lib/time';
 import { siteStamp } from '~/lib/site-time';
-import { resolvePeriod, type Period, type PeriodQuery } from '~/lib/views/period';
+import { periodFor, type DataSpan, type Period, type PeriodChoice, type PeriodQuery } from '~/lib/views/period';
+import { freshness, type Freshness } from '~/lib/views/freshness';
 import {
   countStates,
   curveLoads,
@@ -50,24 +51,32 @@ async function unitWithSite(unitId: string) {
 }
 
 /**
- * Without an anchor a period shows the latest data, not an empty "now": files arrive in batches and
- * a site's newest unit hour may be weeks old (the demo plant's is). Falls back to now.
+ * First and last computed hour of a unit, or of a site's units (hours after now left out), for the
+ * period a view opens on (src/lib/views/period.ts defaultPeriod).
  */
-async function defaultNowMs(q: PeriodQuery, siteId: string, unitId?: string): Promise<number> {
-  const now = Date.now();
-  if (q.anchor || q.range === 'custom') return now;
-  const rows = await db().execute<{ last: string | null }>(
+export async function dataSpan(siteId: string, unitId?: string, nowMs = Date.now()): Promise<DataSpan | null> {
+  const now = new Date(nowMs).toISOString();
+  const rows = await db().execute<{ first: string | null; last: string | null }>(
     unitId
-      ? sql`select max(hour_start)::text as last from unit_hours where unit_id = ${unitId} and hour_start <= now()`
-      : sql`select max(h.hour_start)::text as last from unit_hours h join plant_units u on u.id = h.unit_id where u.site_id = ${siteId} and h.hour_start <= now()`,
+      ? sql`select min(hour_start)::text as first, max(hour_start)::text as last from unit_hours where unit_id = ${unitId} and hour_start <= ${now}::timestamptz`
+      : sql`select min(h.hour_start)::text as first, max(h.hour_start)::text as last from unit_hours h join plant_units u on u.id = h.unit_id where u.site_id = ${siteId} and h.hour_start <= ${now}::timestamptz`,
   );
-  const last = rows.rows[0]?.last;
-  return last ? Date.parse(last) : now;
+  const r = rows.rows[0];
+  return r?.first && r.last ? { firstMs: Date.parse(r.first), lastMs: Date.parse(r.last) } : null;
 }
 
-function periodOrError(q: PeriodQuery, timeZone: string, nowMs?: number): Period {
+/** How fresh a site's figures are (src/lib/views/freshness.ts), for the note every page of the site shows. */
+export async function siteFreshness(siteId: string, nowMs = Date.now()): Promise<Freshness> {
+  const site = await siteOf(siteId);
+  const span = await dataSpan(site.id, undefined, nowMs);
+  return freshness(span?.lastMs ?? null, site.timeZone, nowMs);
+}
+
+/** The period of a query (the default one when it names none), with why it was chosen. */
+async function periodOrError(q: PeriodQuery, timeZone: string, span: () => Promise<DataSpan | null>, nowMs = Date.now()): Promise<{ period: Period; opened: PeriodChoice }> {
   try {
-    return resolvePeriod(q, timeZone, nowMs);
+    const { period, choice } = periodFor(q, timeZone, q.anchor || q.range === 'custom' ? null : await span(), nowMs);
+    return { period, opened: choice };
   } catch (err) {
     throw new AppError('VALIDATION_FAILED', (err as Error).message);
   }
@@ -76,7 +85,8 @@ function periodOrError(q: PeriodQuery, timeZone: string, nowMs?: number): Period
 /** A unit's hours over a period, with its expected band, context spans and notices. */
 export async function unitTrend(unitId: string, q: PeriodQuery, nowMs?: number): Promise<TrendAnswer> {
   const { unit, site } = await unitWithSite(unitId);
-  const period = periodOrError(q, site.timeZone, nowMs ?? (await defaultNowMs(q, site.id, unit.id)));
+  const now = nowMs ?? Date.now();
+  const { period, opened } = await periodOrError(q, site.timeZone, () => dataSpan(site.id, unit.id, now), now);
   const rows = await db()
     .select({
       hourStart: unitHours.hourStart,
@@ -111,6 +121,8 @@ export async function unitTrend(unitId: string, q: PeriodQuery, nowMs?: number):
     unit: { id: unit.id, name: unit.name, kind: unit.kind, kindLabel: kindLabel(unit.kind) },
     site: viewSite(site),
     period,
+    opened,
+    freshness: await siteFreshness(site.id, now),
     bucket,
     points,
     context,
@@ -175,15 +187,17 @@ export async function unitSums(siteId: string, fromMs: number, toMs: number): Pr
 /** The loss ledger of a site over a period. */
 export async function siteLedger(siteId: string, q: PeriodQuery, nowMs?: number): Promise<LedgerAnswer> {
   const site = await siteOf(siteId);
-  const period = periodOrError(q, site.timeZone, nowMs ?? (await defaultNowMs(q, site.id)));
-  return { site: viewSite(site), period, ...ledgerFrom(await unitSums(site.id, period.fromMs, period.toMs)) };
+  const now = nowMs ?? Date.now();
+  const { period, opened } = await periodOrError(q, site.timeZone, () => dataSpan(site.id, undefined, now), now);
+  return { site: viewSite(site), period, opened, freshness: await siteFreshness(site.id, now), ...ledgerFrom(await unitSums(site.id, period.fromMs, period.toMs)) };
 }
 
 /** The site's exergy flow over a period (src/lib/views/ledger.ts flowFrom). */
 export async function siteFlow(siteId: string, q: PeriodQuery, nowMs?: number): Promise<FlowAnswer> {
   const site = await siteOf(siteId);
-  const period = periodOrError(q, site.timeZone, nowMs ?? (await defaultNowMs(q, site.id)));
-  return { site: viewSite(site), period, ...flowFrom(await unitSums(site.id, period.fromMs, period.toMs)) };
+  const now = nowMs ?? Date.now();
+  const { period, opened } = await periodOrError(q, site.timeZone, () => dataSpan(site.id, undefined, now), now);
+  return { site: viewSite(site), period, opened, freshness: await siteFreshness(site.id, now), ...flowFrom(await unitSums(site.id, period.fromMs, period.toMs)) };
 }
 
 /**
@@ -207,6 +221,7 @@ export async function overview(nowMs = Date.now()): Promise<OverviewSite[]> {
       windowFrom: siteStamp(endMs - DAY_MS, site.timeZone),
       windowTo: siteStamp(endMs, site.timeZone),
       lastHour: lastRaw ? siteStamp(lastRaw, site.timeZone) : null,
+      freshness: freshness(lastRaw ? Date.parse(lastRaw) : null, site.timeZone, nowMs),
       openNotices: await openNoticeCount(site.id),
     });
   }

@@ -129,6 +129,21 @@ const DISCARD = {
 };
 
 /** One baseline version: statistics against Guideline 14, the scatter, and accept or discard for drafts. */
+/** Whether the fit saw enough hours and load to be trusted or accepted (src/lib/analytics/fit-trust.ts). */
+function FitTrustNote({ b }: { b: BaselineSummary }) {
+  if (b.trust.trusted) return null;
+  return (
+    <div className={`rounded border px-3 py-2 text-sm ${b.trust.acceptable ? 'border-amber/60' : 'border-copper-deep/60'}`} data-testid="fit-trust" role="note">
+      <p className="font-medium">{b.trust.acceptable ? 'Read this fit with care' : 'This fit cannot be accepted'}</p>
+      <ul className="list-disc pl-5">
+        {b.trust.warnings.map((w) => (
+          <li key={w}>{w}</li>
+        ))}
+      </ul>
+    </div>
+  );
+}
+
 export default function BaselineDetail({ baselineId, canEdit, display }: { baselineId: string; canEdit: boolean; display?: SiteDisplayProp }) {
   const [data, setData] = useState<{ baseline: BaselineSummary; fit: FitView } | null>(null);
   const [message, setMessage] = useState<Message>(null);
@@ -187,9 +202,10 @@ export default function BaselineDetail({ baselineId, canEdit, display }: { basel
         </span>
       </div>
       <StatsTable b={b} />
+      <FitTrustNote b={b} />
       <p className="text-xs text-ink-faint">
-        ASHRAE Guideline 14-2014 hourly criteria: CV(RMSE) at most 30 % and NMBE within ±10 % (limits from memory, docs/domain.md section 7). NMBE
-        is zero by construction on the hours a model was fitted to.
+        ASHRAE Guideline 14-2014 hourly criteria: CV(RMSE) at most 30 % and NMBE within ±10 % (limits from memory;{' '}
+        <a href="/help/method#baselines">how baselines are fitted and judged</a>). NMBE is zero by construction on the hours a model was fitted to.
       </p>
       <FitChart b={b} fit={data.fit} display={display} />
       <BaselineCoefficients b={b} display={display} />
@@ -202,7 +218,7 @@ export default function BaselineDetail({ baselineId, canEdit, display }: { basel
       <Notice message={message} />
       {canEdit && b.status === 'draft' && (
         <div className="flex flex-wrap items-center gap-2">
-          <button type="button" className="btn btn-primary" disabled={busy} onClick={() => decide('accept')}>
+          <button type="button" className="btn btn-primary" disabled={busy || !b.trust.acceptable} onClick={() => decide('accept')}>
             Accept as active baseline
           </button>
           <button type="button" className="btn" disabled={busy} onClick={() => decide('discard')}>

@@ -55,7 +55,7 @@ export default function DriftSettingsForm({ unitId, canEdit }: { unitId: string;
         Tabular CUSUM (Page, 1954) on each steady hour’s destruction residual, first freed of what the previous hours’ residuals predict (the
         serial correlation fitted on the baseline’s reference period) and divided by the spread σ of what remains. A notice opens when the
         cumulative sum passes the decision limit h and the shift has lasted 3 steady hours; shifts smaller than the allowance k are absorbed.
-        Defaults k = 0.5 σ, h = 8 σ: about one chance notice per unit in 9,500 steady hours (docs/domain.md section 7).
+        Defaults k = 0.5 σ, h = 8 σ: about one chance notice per unit in 9,500 steady hours (<a href="/help/method#drift">the method</a>).
       </p>
       {settings === null && !message ? (
         <p className="text-sm text-ink-faint">Loading…</p>

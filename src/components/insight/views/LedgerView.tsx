@@ -6,6 +6,7 @@ import { useEffect, useState } from 'react';
 import { COLORS, ErrorNote, HourStateMark, Loading } from './common';
 import { useApi } from '~/components/api';
 import { FlowPicture } from './FlowPicture';
+import FreshnessNote from './FreshnessNote';
 import { HOUR_STATES as STATES } from '~/lib/hour-states';
 import type { FlowAnswer, LedgerAnswer } from '~/lib/views/ledger';
 import { money, moneyDecimals, mwh, mwhDecimals, pct } from './format';
@@ -33,7 +34,7 @@ export default function LedgerView({ sites, initialSiteId, initialSearch }: { si
   const flow = useApi<FlowAnswer>(siteId ? `/api/sites/${siteId}/flow?${q}` : null);
   const [info, setInfo] = useState<PeriodInfo | null>(null);
   useEffect(() => {
-    if (ledger.data) setInfo({ ...ledger.data.period, timeZone: ledger.data.site.timeZone });
+    if (ledger.data) setInfo({ ...ledger.data.period, timeZone: ledger.data.site.timeZone, opened: ledger.data.opened });
   }, [ledger.data]);
   const change = (v: PeriodValue) => {
     setValue(v);
@@ -75,6 +76,7 @@ export default function LedgerView({ sites, initialSiteId, initialSearch }: { si
       </div>
       {ledger.error && <ErrorNote text={ledger.error} />}
       {ledger.loading && <Loading what="the ledger" />}
+      {l && !ledger.loading && <FreshnessNote freshness={l.freshness} />}
       {l && !ledger.loading && (
         <section className="card">
           <div className="flex flex-wrap items-baseline justify-between gap-2">
@@ -102,7 +104,9 @@ export default function LedgerView({ sites, initialSiteId, initialSearch }: { si
                   <th>Unit</th>
                   <th>Kind</th>
                   <th className="num">Destruction [MWh]</th>
-                  <th className="num">Cost [{cur}]</th>
+                  <th className="num">
+                    Cost [{cur}]<span className="block text-xs font-normal">sum over steady hours of {l.period.label}</span>
+                  </th>
                   <th className="num">Share of site {l.shareBasis} [%]</th>
                   <th className="num">Mean efficiency [%]</th>
                   {STATES.map((s) => (

@@ -1,6 +1,6 @@
 import { useEffect, useState } from 'react';
 
-import type { Period, Range } from '~/lib/views/period';
+import type { Period, PeriodChoice, Range } from '~/lib/views/period';
 
 export type { Range };
 export interface PeriodValue {
@@ -10,7 +10,18 @@ export interface PeriodValue {
   to?: string;
 }
 /** What the server answered for the period (src/lib/views/period.ts). */
-export type PeriodInfo = Pick<Period, 'range' | 'label' | 'firstDay' | 'lastDay' | 'prevAnchor' | 'nextAnchor' | 'hours' | 'timeZone'>;
+export type PeriodInfo = Pick<Period, 'range' | 'label' | 'firstDay' | 'lastDay' | 'prevAnchor' | 'nextAnchor' | 'hours' | 'timeZone'> & {
+  /** Why the server chose this period (src/lib/views/period.ts periodFor). */
+  opened?: PeriodChoice;
+};
+
+/** Words beside the period for how it was chosen. */
+const OPENED_WORDS: Record<PeriodChoice, string> = {
+  asked: '',
+  'latest-full': 'the latest full period with data',
+  'latest-partial': 'the latest period with data (not yet complete)',
+  now: 'no data yet: the current period',
+};
 
 const RANGES: { key: Range; label: string }[] = [
   { key: 'day', label: 'Day' },
@@ -102,8 +113,14 @@ export function PeriodPicker({ value, info, onChange }: { value: PeriodValue; in
           Later →
         </button>
         {value.range !== 'custom' && (
-          <button type="button" className="btn" onClick={() => onChange({ range: value.range })}>
-            Now
+          <button
+            type="button"
+            className="btn"
+            onClick={() => onChange({ range: value.range })}
+            title={`Go to the latest full ${value.range} that has computed hours (not the calendar ${value.range} holding today)`}
+            data-testid="period-latest"
+          >
+            Latest full {value.range} with data
           </button>
         )}
       </div>
@@ -136,6 +153,7 @@ export function PeriodPicker({ value, info, onChange }: { value: PeriodValue; in
         {info ? (
           <>
             <span className="font-semibold text-ink">{info.label}</span> · {info.hours} h · {info.timeZone}
+            {info.opened && OPENED_WORDS[info.opened] && <span data-testid="period-opened"> · {OPENED_WORDS[info.opened]}</span>}
           </>
         ) : (
           ' '

@@ -45,7 +45,7 @@ export default function TrendView({ unitId, initialSearch }: { unitId: string; i
   const { data, error, loading } = useApi<TrendAnswer>(url);
   const [info, setInfo] = useState<PeriodInfo | null>(null);
   useEffect(() => {
-    if (data) setInfo({ ...data.period, timeZone: data.site.timeZone });
+    if (data) setInfo({ ...data.period, timeZone: data.site.timeZone, opened: data.opened });
   }, [data]);
   const change = (v: PeriodValue) => {
     setValue(v);
