@@ -59,8 +59,8 @@ test('an energy lead builds a baseline from a reference period, reads it against
   await expect(page.getByTestId('hour-span')).toContainText('72 computed hours from 2025-04-01 to 2025-04-03, 68 of them steady');
   await expect(page.getByLabel(/First day/)).toHaveValue('2025-04-01');
   await page.getByLabel('Last day').fill('2025-04-02');
-  await page.getByRole('button', { name: 'Linear: load and T_amb' }).click();
-  await expect(page.getByLabel('T_amb', { exact: true })).toBeChecked();
+  await page.getByRole('button', { name: 'Linear: load and ambient temperature' }).click();
+  await expect(page.getByLabel('ambient temperature', { exact: true })).toBeChecked();
   await expect(page.getByLabel('load²')).not.toBeChecked();
   await page.getByRole('button', { name: 'Fit baseline' }).click();
 

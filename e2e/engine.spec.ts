@@ -87,7 +87,8 @@ test('an operator opens a unit\'s hourly results and one hour\'s detail', async 
   // The unsettled hour says why.
   await detail.getByRole('button', { name: 'Close the hour' }).click();
   await table.locator(`tr[data-hour="${new Date(firstHour + 2 * HOUR).toISOString()}"]`).getByRole('button', { name: 'Open hour' }).click();
-  await expect(page.getByTestId('hour-reasons')).toContainText('SPREAD_HIGH');
+  await expect(page.getByTestId('hour-reasons')).toContainText('spread too wide');
+  await expect(page.getByTestId('hour-reasons')).not.toContainText('SPREAD_HIGH');
   await expect(page.getByTestId('hour-reasons')).toContainText('PRV_F');
 
   expect(errors).toEqual([]);

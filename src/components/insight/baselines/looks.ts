@@ -1,4 +1,4 @@
-import { fixed } from '~/lib/format';
+import { fixed, significant } from '~/lib/format';
 import { siteDay, siteDayStart, siteStamp } from '~/lib/site-time';
 import type { MarkShape } from '~/components/StateMark';
 
@@ -20,8 +20,8 @@ export const CHECK_LOOK = {
 export const pct = (v: number | null | undefined) => fixed(v === null || v === undefined ? v : v * 100, 1, { none: '–' });
 /** A power [W] in kW. */
 export const kW = (W: number | null | undefined, digits = 1) => fixed(W === null || W === undefined ? W : W / 1000, digits, { none: '–' });
-/** A number to `digits` significant figures. */
-export const sig = (v: number | null | undefined, digits = 4) => (v === null || v === undefined || !Number.isFinite(v) ? '–' : Number(v.toPrecision(digits)).toString());
+/** A number to `digits` significant figures, never in e-notation (src/lib/format.ts). */
+export const sig = (v: number | null | undefined, digits = 4) => significant(v, digits, { none: '–' });
 
 /** An instant as 'yyyy-MM-dd HH:mm' in a time zone. */
 export const at = (iso: string | null | undefined, tz: string) => (iso ? siteStamp(iso, tz) : '');

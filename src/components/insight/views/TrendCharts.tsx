@@ -24,6 +24,7 @@ import { COLORS, HourStateMark, STATE_LOOK } from './common';
 import type { ContextSpan, CurvePoint, ExpectedHour, NoticeMark, ScatterPoint, TrendPoint } from '~/lib/views/trend';
 export type { ContextSpan, CurvePoint, ExpectedHour, NoticeMark, ScatterPoint, TrendPoint };
 import { load as showLoad, loadAxis, pct, power, powerUnit, siteTime, type HourState } from './format';
+import { significant } from '~/lib/format';
 
 
 /** Fill patterns of the shaded states: idle lines, unsettled hatching, suspect dots. */
@@ -356,7 +357,7 @@ export function LoadScatter({ kind, scatter, curve, loadUnit, timeZone }: { kind
             domain={xAxis?.domain ?? ['auto', 'auto']}
             ticks={xAxis?.ticks}
             tick={{ fontSize: 11, fill: COLORS.soft }}
-            tickFormatter={(v: number) => String(Number(v.toPrecision(3)))}
+            tickFormatter={(v: number) => significant(v, 3)}
             label={{ value: ax.label, position: 'insideBottom', offset: -10, style: { fontSize: 11, fill: COLORS.soft } }}
             allowDuplicatedCategory={false}
           />
