@@ -120,7 +120,7 @@ function FitChart({ b, fit }: { b: BaselineSummary; fit: FitView }) {
             <YAxis type="number" dataKey="y" domain={['auto', 'auto']} tickFormatter={(v: number) => sig(v, 3)} stroke="#4a463e" fontSize={12} width={64} />
             <Tooltip formatter={(v) => sig(Number(v), 4)} labelFormatter={(v) => `load ${sig(Number(v), 4)}`} />
             <Legend verticalAlign="top" height={24} />
-            <Scatter name="Steady reference hours" data={points} fill={eff ? '#1f7a72' : '#b5562a'} shape="circle" isAnimationActive={false} />
+            <Scatter name={fit.totalPoints && fit.totalPoints > fit.points.length ? `${fit.points.length} of ${fit.totalPoints} steady reference hours, evenly chosen` : 'Steady reference hours'} data={points} fill={eff ? '#1f7a72' : '#b5562a'} shape="circle" isAnimationActive={false} />
             <Line
               name={`Fitted at mean T0 ${sig(fit.meanT0_K, 4)} K`}
               data={curve}
