@@ -49,6 +49,7 @@ function expectFilled(a: PeriodAnswer, computedHours: number, firstMs: number) {
 }
 
 test('trend and ledger open on the latest full period with data, and say that the data is old', async ({ page }) => {
+  test.setTimeout(150_000);
   const name = `E2E periods site ${stamp()}`;
   const { siteId, unitId } = await staleSite(name);
   await signIn(page, DEMO['energy-lead']);
@@ -80,6 +81,7 @@ test('trend and ledger open on the latest full period with data, and say that th
 });
 
 test('every page for a signed-in admin transfers under 300 KB', async ({ page }) => {
+  test.setTimeout(240_000);
   const { siteId, unitId } = await staleSite(`E2E sizes site ${stamp()}`);
   await signIn(page, DEMO.admin);
   const pages = [
