@@ -61,4 +61,6 @@ export interface FitView {
   points: FitPoint[];
   curve: { load: number; efficiency: number | null; destruction_W: number }[];
   meanT0_K: number;
+  /** Steady reference hours of the fit; `points` holds at most a few hundred of them, evenly chosen. */
+  totalPoints?: number;
 }

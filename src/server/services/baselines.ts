@@ -23,6 +23,10 @@ import { db } from '../db/client';
 import type { BaselineSummary, FitView } from '~/lib/baseline-view';
 import { hourCeil } from '~/lib/time';
 import { curveLoads } from '~/lib/views/trend';
+import { thinEvenly } from '~/lib/views/thin';
+
+/** Most reference hours the fit view sends for the scatter (the page loads under 150 KB). */
+export const FIT_VIEW_POINTS = 500;
 import { baselines } from '../db/schema';
 import { isId } from '../access';
 import { AppError } from '../errors';
@@ -225,7 +229,8 @@ export async function baselineFitView(baselineId: string): Promise<FitView> {
   const [b] = await db().select().from(baselines).where(eq(baselines.id, baselineId));
   if (!b) throw new AppError('NOT_FOUND', 'No such baseline.');
   const hours = await steadyHours(b.unitId, b.periodFrom, b.periodTo);
-  const points = hours.map((h) => ({
+  // The scatter draws at most FIT_VIEW_POINTS hours, evenly chosen.
+  const points = thinEvenly(hours, FIT_VIEW_POINTS).map((h) => ({
     hourStart: h.hourStart.toISOString(),
     load: h.load!,
     T0_K: h.T0_K!,
@@ -240,5 +245,5 @@ export async function baselineFitView(baselineId: string): Promise<FitView> {
     efficiency: b.efficiencyModel ? predict(b.efficiencyModel, load, meanT0_K) : null,
     destruction_W: predict(b.destructionModel, load, meanT0_K),
   }));
-  return { points, curve, meanT0_K };
+  return { points, curve, meanT0_K, totalPoints: hours.length };
 }

@@ -103,7 +103,7 @@ function FitChart({ b, fit, display }: { b: BaselineSummary; fit: FitView; displ
             <YAxis type="number" dataKey="y" domain={['auto', 'auto']} tickFormatter={sig3} stroke={PALETTE.ink.soft} fontSize={12} width={64} />
             <Tooltip formatter={(v) => significant(Number(v), 4, w.style)} labelFormatter={(v) => `load ${significant(Number(v), 4, w.style)} ${L.unit}`} />
             <Legend verticalAlign="top" height={24} />
-            <Scatter name="Steady reference hours" data={points} fill={eff ? PALETTE.teal.DEFAULT : PALETTE.copper.DEFAULT} shape="circle" isAnimationActive={false} />
+            <Scatter name={fit.totalPoints && fit.totalPoints > fit.points.length ? `${fit.points.length} of ${fit.totalPoints} steady reference hours, evenly chosen` : 'Steady reference hours'} data={points} fill={eff ? PALETTE.teal.DEFAULT : PALETTE.copper.DEFAULT} shape="circle" isAnimationActive={false} />
             <Line
               name={`Fitted at the mean T0, ${w.value(fit.meanT0_K, 'temperature', 1)} ${T.unit}`}
               data={curve}

@@ -1,0 +1,104 @@
+import { expect, test, type Page } from '@playwright/test';
+import pg from 'pg';
+import { DEMO, signIn } from './helpers';
+
+/**
+ * Periods with data, freshness and page sizes. An invented site shaped like the demo plant: unit
+ * hours from 1 April 2025 to Monday 19 May 2025 16:00 UTC, so the calendar week of the latest hour
+ * holds only 17 of its 168 hours and the month 19 days of 31, while earlier full periods exist.
+ */
+const stamp = () => `${Date.now().toString(36)}${Math.floor(Math.random() * 1e4)}`;
+const FIRST = '2025-04-01T00:00:00Z';
+const HOURS = 24 * 48 + 17; // to 2025-05-19 16:00 UTC, the start of the last hour
+
+async function staleSite(name: string) {
+  const client = new pg.Client({ connectionString: process.env.DATABASE_URL });
+  await client.connect();
+  try {
+    const siteId = (await client.query<{ id: string }>(`insert into sites (name, time_zone, currency) values ($1, 'UTC', 'GBP') returning id`, [name])).rows[0]!.id;
+    const unitId = (await client.query<{ id: string }>(`insert into plant_units (site_id, name, kind) values ($1, 'Periods turbine', 'turbine') returning id`, [siteId])).rows[0]!.id;
+    await client.query(
+      `insert into unit_hours (unit_id, hour_start, state, reasons, load, load_unit, t0_k, fuel_w, product_w, loss_w, destruction_w,
+         efficiency, efficiency_u, destruction_u_w, destruction_cost_per_h, model_version, inputs_hash)
+       select $1, $2::timestamptz + i * interval '1 hour', 'steady', '[]'::jsonb, l, '-', 290, 4e6 * l, 3e6 * l, 0, 1e6 * l,
+         0.75, 0.01, 2e4, 30 * l, 'e2e', md5(i::text)
+       from generate_series(0, $3 - 1) i, lateral (select 0.6 + 0.3 * sin(i / 5.0) as l) a`,
+      [unitId, FIRST, HOURS],
+    );
+    return { siteId, unitId };
+  } finally {
+    await client.end();
+  }
+}
+
+/** The JSON answer of the first response whose URL contains `part`, while `go` runs. */
+async function answerOf<T>(page: Page, part: string, go: () => Promise<unknown>): Promise<T> {
+  const [res] = await Promise.all([page.waitForResponse((r) => r.url().includes(part) && r.status() === 200), go()]);
+  return (await res.json()) as T;
+}
+
+interface PeriodAnswer {
+  period: { fromMs: number; toMs: number; hours: number; label: string };
+  opened: string;
+}
+
+/** Fails when a default period has less than half of its hours computed while an earlier full period has data. */
+function expectFilled(a: PeriodAnswer, computedHours: number, firstMs: number) {
+  const earlierFullExists = firstMs < a.period.fromMs;
+  if (earlierFullExists) expect(computedHours, `${a.period.label}: ${computedHours} of ${a.period.hours} hours computed`).toBeGreaterThanOrEqual(a.period.hours / 2);
+}
+
+test('trend and ledger open on the latest full period with data, and say that the data is old', async ({ page }) => {
+  test.setTimeout(150_000);
+  const name = `E2E periods site ${stamp()}`;
+  const { siteId, unitId } = await staleSite(name);
+  await signIn(page, DEMO['energy-lead']);
+  const firstMs = Date.parse(FIRST);
+
+  const trend = await answerOf<PeriodAnswer & { stateHours: Record<string, number> }>(page, `/api/units/${unitId}/trend`, () => page.goto(`/trends/${unitId}`));
+  expectFilled(trend, Object.values(trend.stateHours).reduce((x, y) => x + y, 0), firstMs);
+  expect(trend.opened).toBe('latest-full');
+  await expect(page.getByTestId('period-label')).toContainText('Week of 12 May 2025 · 168 h');
+  await expect(page.getByTestId('period-opened')).toContainText('latest full period with data');
+  await expect(page.getByTestId('freshness')).toContainText(/Latest data: .* ago \(hour 2025-05-19 16:00–17:00 \(UTC\)\)/);
+  await expect(page.getByTestId('period-latest')).toHaveText('Latest full week with data');
+
+  // The month: April, not the 19 days of May.
+  await answerOf(page, `/api/units/${unitId}/trend?range=month`, () => page.getByRole('group', { name: 'Range' }).getByRole('button', { name: 'Month' }).click());
+  const month = await answerOf<PeriodAnswer & { stateHours: Record<string, number> }>(page, `/api/units/${unitId}/trend?range=month`, () => page.getByTestId('period-latest').click());
+  expect(month.period.label).toBe('April 2025');
+  expectFilled(month, Object.values(month.stateHours).reduce((x, y) => x + y, 0), firstMs);
+
+  const ledger = await answerOf<PeriodAnswer & { totals: { hours: Record<string, number> } }>(page, `/api/sites/${siteId}/ledger`, () => page.goto(`/ledger?site=${siteId}&range=month`));
+  expectFilled(ledger, Object.values(ledger.totals.hours).reduce((x, y) => x + y, 0), firstMs);
+  expect(ledger.period.label).toBe('April 2025');
+  await expect(page.getByTestId('freshness')).toBeVisible();
+  await expect(page.getByTestId('ledger-table')).toContainText('sum over steady hours of April 2025');
+
+  // The unit's results page says it too.
+  await page.goto(`/units/${unitId}`);
+  await expect(page.getByTestId('freshness')).toContainText('Latest data:');
+});
+
+test('every page for a signed-in admin transfers under 300 KB', async ({ page }) => {
+  test.setTimeout(240_000);
+  const { siteId, unitId } = await staleSite(`E2E sizes site ${stamp()}`);
+  await signIn(page, DEMO.admin);
+  const pages = [
+    '/', '/uploads', '/plant', `/plant/${siteId}`, '/units', `/units/${unitId}`, '/baselines', '/baselines/new', '/notices',
+    '/trends', `/trends/${unitId}`, `/ledger?site=${siteId}`, '/reports', '/admin/users', '/admin/tokens', '/help', '/help/method', '/help/model-file',
+  ];
+  for (const path of pages) {
+    const requests: import('@playwright/test').Request[] = [];
+    const listener = (r: import('@playwright/test').Request) => requests.push(r);
+    page.on('requestfinished', listener);
+    await page.goto(path, { waitUntil: 'networkidle' });
+    page.off('requestfinished', listener);
+    let bytes = 0;
+    for (const r of requests) {
+      const s = await r.sizes();
+      bytes += s.responseBodySize + s.responseHeadersSize;
+    }
+    expect(bytes, `${path}: ${bytes} bytes transferred`).toBeLessThan(300 * 1024);
+  }
+});
