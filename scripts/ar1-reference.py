@@ -19,10 +19,9 @@ Reference results:
 
 Run with Debian's python3-numpy:  python3 scripts/ar1-reference.py
 """
-import json
-import os
 
 import numpy as np
+from reference_common import write_fixture
 
 rng = np.random.RandomState(20261202)
 N = 700
@@ -85,8 +84,5 @@ out = {
     "innovations": innov,
     "effectiveSampleSize": neff,
 }
-path = os.path.join(os.path.dirname(__file__), "..", "tests", "fixtures", "ar1-reference.json")
-with open(path, "w") as f:
-    json.dump(out, f)
-    f.write("\n")
+write_fixture("ar1-reference.json", out, indent=None)
 print(f"{len(res)} hours, {m} pairs, phi = {phi_fit:.6f}, sInnovation = {s_e:.6f}")

@@ -14,10 +14,9 @@ s * sqrt(1 + x0^T (X^T X)^-1 x0), with (X^T X)^-1 applied through numpy's QR of 
 
 Run with Debian's python3-numpy:  python3 scripts/baseline-reference.py
 """
-import json
-import os
 
 import numpy as np
+from reference_common import write_fixture
 
 rng = np.random.RandomState(20260101)
 n = 60
@@ -84,8 +83,5 @@ out = {
         "quadratic": fit(["load", "T_amb", "load^2", "T_amb^2", "load*T_amb"]),
     },
 }
-path = os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "tests", "fixtures", "baseline-reference.json")
-with open(path, "w", encoding="utf-8") as f:
-    json.dump(out, f, indent=1)
-    f.write("\n")
+write_fixture("baseline-reference.json", out)
 print(f"wrote baseline reference with numpy {np.__version__}")

@@ -14,11 +14,10 @@ Two-sided ARL: 1/ARL = 1/ARL+(delta) + 1/ARL+(-delta).
 
 Run with Debian's python3-numpy:  python3 scripts/cusum-arl-reference.py
 """
-import json
 import math
-import os
 
 import numpy as np
+from reference_common import write_fixture
 
 def ncdf(z):
     return 0.5 * math.erfc(-z / math.sqrt(2.0))
@@ -57,9 +56,6 @@ out = {
     "source": "scripts/cusum-arl-reference.py (numpy; Brook & Evans 1972 Markov chain, m = 800 and 1600, Richardson)",
     "cases": cases,
 }
-path = os.path.join(os.path.dirname(__file__), "..", "tests", "fixtures", "cusum-arl-reference.json")
-with open(path, "w") as f:
-    json.dump(out, f, indent=1)
-    f.write("\n")
+write_fixture("cusum-arl-reference.json", out)
 for c in cases:
     print(f"k={c['k']} h={c['h']} delta={c['delta']}: one-sided {c['oneSided']:.3f}, two-sided {c['twoSided']:.3f}")

@@ -11,12 +11,11 @@ use, computed with scipy independently of the TypeScript code.
 
 Run with Debian's python3-scipy:  python3 scripts/distributions-reference.py
 """
-import json
-import os
 
 import numpy as np
 import scipy
 from scipy import special, stats
+from reference_common import write_fixture
 
 P = [0.9, 0.95, 0.975, 0.99, 0.995, 0.9995]
 NU = [1, 2, 3, 5, 10, 30, 100, 1000]
@@ -44,8 +43,5 @@ out = {
     "coverageFactors": coverage,
     "normalQuantiles": normal,
 }
-path = os.path.join(os.path.dirname(__file__), "..", "tests", "fixtures", "distributions-reference.json")
-with open(path, "w") as f:
-    json.dump(out, f, indent=1)
-    f.write("\n")
+write_fixture("distributions-reference.json", out)
 print(f"{len(t_quantiles)} t quantiles, {len(t_cdf)} t cdf values, {len(coverage)} coverage factors")

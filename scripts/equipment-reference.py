@@ -24,29 +24,20 @@ Every figure is worked here from first principles, without the TypeScript engine
 The example plant is invented. Each case carries the TypeScript unit model (plain JSON), its inputs by
 vector-entry name in SI, and the expected F, P, L, D, efficiency (and companions).
 """
-import json
 import math
 import os
-import subprocess
 
 import iapws
 from iapws import IAPWS97
+from reference_common import debian_version, fixture_path, write_fixture
 
-OUT = os.path.join(os.path.dirname(os.path.abspath(__file__)), '..', 'tests', 'fixtures', 'equipment-reference.json')
+OUT = fixture_path('equipment-reference.json')
 
 T0 = 298.15
 P0 = 101325.0
 R = 8.31446261815324  # J/(mol K), exact SI value N_A k
 P_REF = 1e5
 G = 9.80665
-
-
-def debian_version():
-    try:
-        return subprocess.run(['dpkg-query', '-W', '-f=${Version}', 'python3-iapws'],
-                              capture_output=True, text=True, check=True).stdout.strip()
-    except Exception:  # noqa: BLE001 - informative only
-        return 'unknown'
 
 
 # ----------------------------------------------------------------------------------- water (IF97)
@@ -585,7 +576,5 @@ doc = {
     'cases': cases,
     'portStates': port_states(),
 }
-with open(OUT, 'w') as fh:
-    json.dump(doc, fh, indent=1)
-    fh.write('\n')
+write_fixture(OUT, doc)
 print(f'wrote {len(cases)} cases to {os.path.relpath(OUT)}')

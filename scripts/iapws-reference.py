@@ -23,27 +23,17 @@ What is computed (all values converted to SI base units: Pa, K, J/kg, J/(kg K), 
   iapws95  iapws.IAPWS95(T=, P=) (the scientific formulation, IAPWS R6-95(2018)) at a few
         single-phase states, for the IF97 / IAPWS-95 consistency check
 """
-import json
-import os
 import random
-import subprocess
 import sys
 
 import iapws
 from iapws import IAPWS95, IAPWS97
 from iapws import iapws97 as m
 from scipy.optimize import newton
+from reference_common import debian_version, fixture_path, write_fixture
 
-OUT = os.path.join(os.path.dirname(os.path.abspath(__file__)), '..', 'tests', 'fixtures', 'iapws-reference.json')
+OUT = fixture_path('iapws-reference.json')
 rng = random.Random(1997)
-
-
-def debian_version():
-    try:
-        return subprocess.run(['dpkg-query', '-W', '-f=${Version}', 'python3-iapws'],
-                              capture_output=True, text=True, check=True).stdout.strip()
-    except Exception:  # noqa: BLE001 - the version is informative only
-        return 'unknown'
 
 
 def si(st, extra=None):
@@ -209,8 +199,6 @@ doc = {
     'notes': 'What is computed' + __doc__.split('What is computed', 1)[1].rstrip(),
     'pt': pt, 'ph': ph, 'ps': ps, 'px': px, 'tx': tx, 'sat': sat, 'iapws95': i95,
 }
-with open(OUT, 'w') as f:
-    json.dump(doc, f, indent=1)
-    f.write('\n')
+write_fixture(OUT, doc)
 print('wrote %d pt, %d ph, %d ps, %d px, %d tx, %d sat, %d iapws95 states'
       % (len(pt), len(ph), len(ps), len(px), len(tx), len(sat), len(i95)))

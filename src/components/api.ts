@@ -17,17 +17,21 @@ export class ApiError extends Error {
     readonly code: string = 'UNKNOWN',
     readonly status = 0,
     readonly issues: Issue[] = [],
+    /** The server's own message, when it sent one. */
+    readonly serverMessage?: string,
   ) {
     super(message);
     this.name = 'ApiError';
   }
 }
 
-/** The ApiError for a response that is not ok. */
+type ErrorBody = { code?: string; message?: string; issues?: Issue[] };
+
+/** The ApiError for a response that is not ok (Lossline's { error } shape, or better-auth's flat { code, message }). */
 async function errorOf(res: Response): Promise<ApiError> {
-  const data = (await res.json().catch(() => null)) as { error?: { code?: string; message?: string; issues?: Issue[] } } | null;
-  const e = data?.error;
-  return new ApiError(e?.message ?? `The server answered ${res.status}.`, e?.code, res.status, Array.isArray(e?.issues) ? e.issues : []);
+  const data = (await res.json().catch(() => null)) as (ErrorBody & { error?: ErrorBody }) | null;
+  const e = data?.error ?? data;
+  return new ApiError(e?.message ?? `The server answered ${res.status}.`, e?.code, res.status, Array.isArray(e?.issues) ? e.issues : [], e?.message);
 }
 
 /** One request: a body is sent as JSON (a string as it is); the answer is read as JSON ({} when empty). */

@@ -1,3 +1,5 @@
+import { ApiError, call } from './api';
+
 /** Plain-language messages for better-auth's error codes, in Lossline's own words. */
 export function authMessage(code: string | undefined, status: number, serverMessage?: string): string {
   switch (code) {
@@ -26,13 +28,12 @@ export function authMessage(code: string | undefined, status: number, serverMess
   return 'Something went wrong on our side. Try again in a moment.';
 }
 
+/** A POST to better-auth through the islands' one data client; a refusal comes back in plain words. */
 export async function postAuth(path: string, body: unknown): Promise<{ ok: true; data: any } | { ok: false; message: string }> {
-  const res = await fetch(`/api/auth${path}`, {
-    method: 'POST',
-    headers: { 'content-type': 'application/json' },
-    body: JSON.stringify(body),
-  });
-  const data = await res.json().catch(() => ({}));
-  if (res.ok) return { ok: true, data };
-  return { ok: false, message: authMessage(data?.code, res.status, data?.message) };
+  try {
+    return { ok: true, data: await call(`/api/auth${path}`, 'POST', body) };
+  } catch (e) {
+    if (!(e instanceof ApiError)) throw e;
+    return { ok: false, message: authMessage(e.code === 'UNKNOWN' ? undefined : e.code, e.status, e.serverMessage) };
+  }
 }

@@ -2,9 +2,9 @@
  * The unit_hours rows the engine writes: a computed hour's row, a fault row (an hour that could not
  * be computed), and the batched insert-or-replace; and the span of hours the engine computes at all.
  */
-import { sql } from 'drizzle-orm';
 import type { UnitHourResult } from '~/lib/engine';
 import { unitHours } from '../db/schema';
+import { replacedByExcluded } from '../db/upsert';
 import type { Reader } from './engine-inputs';
 
 const HOUR_ms = 3_600_000;
@@ -78,27 +78,7 @@ export async function writeUnitHours(tx: Reader, rows: (typeof unitHours.$inferI
       .values(rows.slice(i, i + WRITE_BATCH))
       .onConflictDoUpdate({
         target: [unitHours.unitId, unitHours.hourStart],
-        set: {
-          state: sql`excluded.state`,
-          reasons: sql`excluded.reasons`,
-          load: sql`excluded.load`,
-          loadUnit: sql`excluded.load_unit`,
-          T0_K: sql`excluded.t0_k`,
-          p0_Pa: sql`excluded.p0_pa`,
-          fuel_W: sql`excluded.fuel_w`,
-          product_W: sql`excluded.product_w`,
-          loss_W: sql`excluded.loss_w`,
-          destruction_W: sql`excluded.destruction_w`,
-          efficiency: sql`excluded.efficiency`,
-          efficiency_U: sql`excluded.efficiency_u`,
-          destruction_U_W: sql`excluded.destruction_u_w`,
-          closure_pct: sql`excluded.closure_pct`,
-          entropyGeneration_W_per_K: sql`excluded.entropy_generation_w_per_k`,
-          destructionCost_per_h: sql`excluded.destruction_cost_per_h`,
-          modelVersion: sql`excluded.model_version`,
-          inputsHash: sql`excluded.inputs_hash`,
-          computedAt: sql`excluded.computed_at`,
-        },
+        set: replacedByExcluded(unitHours, ['state', 'reasons', 'load', 'loadUnit', 'T0_K', 'p0_Pa', 'fuel_W', 'product_W', 'loss_W', 'destruction_W', 'efficiency', 'efficiency_U', 'destruction_U_W', 'closure_pct', 'entropyGeneration_W_per_K', 'destructionCost_per_h', 'modelVersion', 'inputsHash', 'computedAt']),
       });
   }
 }

@@ -1,8 +1,10 @@
-import { and, asc, desc, eq, gte, lt, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, gte, lt } from 'drizzle-orm';
 import { db } from '../db/client';
 import { AppError } from '../errors';
 import { TAG_HOUR_FLAGS, tagHourFlagNames, tagHourUploads, tagHours, tags, uploads } from '../db/schema';
+import type { TagHour as EngineTagHour } from '~/lib/engine/types';
 import { ensureMonthPartitions } from '../db/partitions';
+import { replacedByExcluded } from '../db/upsert';
 
 /** Longest range one request may ask for: 400 days of hours. */
 export const MAX_RANGE_MS = 400 * 24 * 3600 * 1000;
@@ -57,22 +59,14 @@ export async function tagHoursOf(siteId: string, tagName: string, from: Date, to
   };
 }
 
-/** A tag hour as the engine reads it (src/lib/engine TagHour), for one tag (tags.seq) and hour. */
-export interface TagHourWrite {
-  tagId: number;
-  hourStart: Date;
-  mean: number | null;
-  min: number | null;
-  max: number | null;
-  std: number | null;
-  samples: number;
-  coveredFraction: number;
-  nonNumeric?: number;
-  outOfRange?: number;
-  flatline?: boolean;
-  first?: number | null;
-  last?: number | null;
-}
+/** A tag hour as the engine reads it (src/lib/engine TagHour; counts and flag optional), for one tag (tags.seq) and hour. */
+export type TagHourWrite = Omit<EngineTagHour, 'nonNumeric' | 'outOfRange' | 'flatline'> &
+  Partial<Pick<EngineTagHour, 'nonNumeric' | 'outOfRange' | 'flatline'>> & {
+    tagId: number;
+    hourStart: Date;
+    first?: number | null;
+    last?: number | null;
+  };
 
 /**
  * Writes tag hours given as the engine reads them (fixtures, tests, tools; files go through the
@@ -103,19 +97,7 @@ export async function writeTagHours(rows: readonly TagHourWrite[]): Promise<void
       .values(values.slice(i, i + 1000))
       .onConflictDoUpdate({
         target: [tagHours.tagId, tagHours.hourStart],
-        set: {
-          mean: sql`excluded.mean`,
-          min: sql`excluded.min`,
-          max: sql`excluded.max`,
-          std: sql`excluded.std`,
-          first: sql`excluded.first`,
-          last: sql`excluded.last`,
-          samples: sql`excluded.samples`,
-          coveredSeconds: sql`excluded.covered_s`,
-          nonNumeric: sql`excluded.non_numeric`,
-          outOfRange: sql`excluded.out_of_range`,
-          flags: sql`excluded.flags`,
-        },
+        set: replacedByExcluded(tagHours, ['mean', 'min', 'max', 'std', 'first', 'last', 'samples', 'coveredSeconds', 'nonNumeric', 'outOfRange', 'flags']),
       });
   }
 }
