@@ -305,22 +305,23 @@ export function compileUnit(kind: UnitKind, model: UnitModel): CompiledUnit {
     }
     switch (kind) {
       case 'heat-exchanger':
-        return heatExchangerBalance({ env, ports: bp, belowDeadState: model.belowDeadState });
+        return heatExchangerBalance({ env, ports: bp, companions, belowDeadState: model.belowDeadState });
       case 'boiler':
-        return boilerBalance({ env, ports: bp });
+        return boilerBalance({ env, ports: bp, companions });
       case 'valve':
-        return valveBalance({ env, ports: bp });
+        return valveBalance({ env, ports: bp, companions });
       case 'mixer':
       case 'deaerator':
       case 'open-feedwater-heater':
-        return mixerBalance({ env, ports: bp, kind });
+        return mixerBalance({ env, ports: bp, companions, kind });
       case 'condenser':
       case 'cooler':
-        return condenserBalance({ env, ports: bp, kind });
+        return condenserBalance({ env, ports: bp, companions, kind });
       default:
         return genericBalance({
           env,
           ports: bp,
+          companions,
           chemical: model.chemical,
           powers: genericPowers(x),
           heats: genericHeats(x),
