@@ -1,12 +1,13 @@
 /**
- * Gouy-Stodola identity, T0 Sgen = D, on randomised energy-closed cases of every unit kind (seeded
- * generator). Sgen comes from the entropy balance, D from the exergy balance, independently
+ * Gouy-Stodola identity, T0 Sgen = D, on randomised energy-closed cases of every unit kind (fast-check
+ * with fixed seeds, tests/support/random.ts). Sgen comes from the entropy balance, D from the exergy balance, independently
  * (controlVolumeBalance); every case closes its energy balance through a flow or state taken from it.
  * All checks are labelled 'self-consistency': they test identities, not published numbers.
  */
 import { describe, expect, it } from 'vitest';
 import { expectClose } from '../support/expect-close';
-import { createRng } from '~/lib/analytics/rng';
+import fc from 'fast-check';
+import { draws, runs } from '../support/random';
 import {
   R_J_per_molK,
   SZARGUT_1988_J_per_mol,
@@ -26,8 +27,11 @@ const N = 20;
 const WATER = { kind: 'water' } as const;
 const AIR = { kind: 'air' } as const;
 
-function uniform(rng: { uniform(): number }, lo: number, hi: number): number {
-  return lo + (hi - lo) * rng.uniform();
+/** Where a case draws its numbers in [0, 1) from. */
+type Source = { next(): number };
+
+function uniform(rng: Source, lo: number, hi: number): number {
+  return lo + (hi - lo) * rng.next();
 }
 
 function check(b: UnitBalance, label: string): void {
@@ -42,15 +46,17 @@ function check(b: UnitBalance, label: string): void {
   expect(b.destruction_W, `${label}: D >= 0`).toBeGreaterThanOrEqual(-1e-6 * scale);
 }
 
-function run(kind: UnitKind, model: UnitModel, make: (r: ReturnType<typeof createRng>) => Record<string, number>, seed: number): UnitBalance[] {
-  const rng = createRng(seed);
+function run(kind: UnitKind, model: UnitModel, make: (r: Source) => Record<string, number>, seed: number): UnitBalance[] {
   const out: UnitBalance[] = [];
-  for (let i = 0; i < N; i++) {
-    const vals = { T0_K: T0, p0_Pa: p0, ...make(rng) };
-    const b = evaluateUnitHour(kind, model, inputVector(kind, model, vals));
-    check(b, `${kind} #${i}`);
-    out.push(b);
-  }
+  fc.assert(
+    fc.property(draws(64), (d) => {
+      const vals = { T0_K: T0, p0_Pa: p0, ...make(d) };
+      const b = evaluateUnitHour(kind, model, inputVector(kind, model, vals));
+      check(b, `${kind} #${out.length} ${d}`);
+      out.push(b);
+    }),
+    runs(seed, N),
+  );
   return out;
 }
 
@@ -255,7 +261,6 @@ describe('self-consistency: Gouy-Stodola residual of a boiler = reference-table 
    * energies of the reaction. The test evaluates that sum independently from the species data.
    */
   it('randomised gas-fired boilers with the steam flow from the energy balance', () => {
-    const rng = createRng(81);
     const fuelX: Composition = { CH4: 0.9, C2H6: 0.05, CO2: 0.02, N2: 0.03 };
     const model: UnitModel = {
       ports: [
@@ -274,7 +279,7 @@ describe('self-consistency: Gouy-Stodola residual of a boiler = reference-table 
       for (const [n, xi] of Object.entries(x) as [SpeciesName, number][]) out[n] = (mDot / M) * xi;
       return out;
     };
-    for (let i = 0; i < N; i++) {
+    fc.assert(fc.property(draws(16), (rng) => {
       const O2 = uniform(rng, 0.01, 0.06);
       const vals = {
         T0_K: T0, p0_Pa: p0, 'fuel.mDot_kg_per_s': uniform(rng, 0.2, 2), 'fuel.p_Pa': 3e5, 'fuel.T_K': uniform(rng, 285, 310),
@@ -292,11 +297,11 @@ describe('self-consistency: Gouy-Stodola residual of a boiler = reference-table 
         const dn = (nIn[0][n] ?? 0) + (nIn[1][n] ?? 0) - (nOut[n] ?? 0);
         predicted += dn * c(n);
       }
-      expectClose(b.gouyStodolaResidual_W, predicted, { atol: 1e-8 * b.fuel_W, label: `boiler #${i}` });
+      expectClose(b.gouyStodolaResidual_W, predicted, { atol: 1e-8 * b.fuel_W, label: `boiler ${rng}` });
       // and the mismatch is small: below 1e-3 of the fuel exergy
       expect(Math.abs(b.gouyStodolaResidual_W)).toBeLessThan(1e-3 * b.fuel_W);
       expectClose(b.fuel_W - b.product_W! - b.loss_W, b.destruction_W, { atol: 1e-9 * b.fuel_W });
-    }
+    }), runs(81, N));
   });
 });
 
@@ -308,11 +313,10 @@ describe('self-consistency: with mass closed, the Gouy-Stodola residual of a one
         { name: 'out', direction: 'out', fluid: WATER, flow: 'mass-balance' },
       ],
     };
-    const rng = createRng(91);
-    for (let i = 0; i < N; i++) {
+    fc.assert(fc.property(draws(8), (rng) => {
       const vals = { T0_K: uniform(rng, 275, 310), p0_Pa: 101325, 'in.mDot_kg_per_s': uniform(rng, 2, 20), 'in.p_Pa': 4e6, 'in.T_K': uniform(rng, 650, 780), 'out.p_Pa': 0.4e6, 'out.T_K': uniform(rng, 430, 520), power_W: uniform(rng, 1e6, 5e6) };
       const b = evaluateUnitHour('turbine', model, inputVector('turbine', model, vals));
       expectClose(b.gouyStodolaResidual_W, b.energyResidual_W, { atol: 1e-9 * Math.abs(b.fuel_W) + 1e-6 });
-    }
+    }), runs(91, N));
   });
 });

@@ -1,6 +1,6 @@
 /**
- * Drift detection on baseline residuals: tabular CUSUM and EWMA, both streaming (state in, state
- * out), so the server can continue hour by hour from a saved state.
+ * Drift detection on baseline residuals: tabular CUSUM, streaming (state in, state out), so the
+ * server can continue hour by hour from a saved state.
  *
  * Inputs are usually normalised residuals r = (y - yhat) / s of steady hours (mu0 = 0, sigma = 1,
  * the defaults); mu0 and sigma may be given to run the charts on raw values.
@@ -11,16 +11,12 @@
  * step at which C was zero, and the shifted mean is estimated as mu0 + K + C+/N+ (up) or
  * mu0 - K - C-/N- (down), N the number of consecutive steps with C > 0.
  *
- * EWMA:  z_i = lambda x_i + (1 - lambda) z_{i-1}, z_0 = mu0, with exact time-varying limits
- * mu0 +- L sigma sqrt(lambda / (2 - lambda) (1 - (1 - lambda)^(2i))). Defaults lambda = 0.2, L = 3.
- *
  * Steps are numbered from 1 (the first observation is step 1). A non-finite x (an hour that was not
  * steady) is counted as a step but leaves the statistics unchanged and is marked `skipped`.
  *
  * @see E. S. Page, "Continuous inspection schemes", Biometrika 41 (1954) 100-115.
- * @see S. W. Roberts, "Control chart tests based on geometric moving averages", Technometrics 1 (1959) 239-250.
  * @see D. C. Montgomery, Introduction to Statistical Quality Control, 6th ed. (Wiley, 2009), 9.1 (tabular
- *      CUSUM, Example 9.1) and 9.2 (EWMA).
+ *      CUSUM, Example 9.1).
  */
 
 /**
@@ -161,86 +157,4 @@ export function cusumRun(
     points.push(r.point);
   }
   return { points, signals: points.flatMap((p) => p.signals), state: s };
-}
-
-export interface EwmaOptions {
-  /** Smoothing weight lambda, 0 < lambda <= 1 [-]; default 0.2. */
-  lambda?: number;
-  /** Width of the limits in sigma of the EWMA statistic [-]; default 3. */
-  L?: number;
-  /** In-control mean [x]; default 0. */
-  mu0?: number;
-  /** Standard deviation of x in control [x]; default 1. */
-  sigma?: number;
-}
-
-/** Saved EWMA state (JSON-friendly). `steps` counts the observations that updated z (for the limits). */
-export interface EwmaState {
-  step: number;
-  /** Updates of z so far (skipped steps excluded); enters the exact limits. */
-  updates: number;
-  z: number;
-}
-
-export interface EwmaPoint {
-  step: number;
-  x: number;
-  z: number;
-  lcl: number;
-  ucl: number;
-  skipped: boolean;
-  /** 'up' above the upper limit, 'down' below the lower one, else null. */
-  signal: 'up' | 'down' | null;
-}
-
-/** A fresh EWMA state: z_0 = mu0. */
-export function ewmaInit(options: EwmaOptions = {}): EwmaState {
-  return { step: 0, updates: 0, z: options.mu0 ?? 0 };
-}
-
-/**
- * One EWMA step with exact time-varying limits.
- * @param state state after the previous step (not modified)
- * @param x new observation [x]
- * @param options lambda, L [-]; mu0, sigma [x]
- */
-export function ewmaStep(state: EwmaState, x: number, options: EwmaOptions = {}): { state: EwmaState; point: EwmaPoint } {
-  const lambda = options.lambda ?? 0.2;
-  const L = options.L ?? 3;
-  const mu0 = options.mu0 ?? 0;
-  const sigma = options.sigma ?? 1;
-  if (!(lambda > 0 && lambda <= 1) || !(L > 0) || !(sigma > 0)) {
-    throw new RangeError(`EWMA needs 0 < lambda <= 1, L > 0, sigma > 0 (got lambda = ${lambda}, L = ${L}, sigma = ${sigma})`);
-  }
-  const step = state.step + 1;
-  const skipped = !Number.isFinite(x);
-  const updates = skipped ? state.updates : state.updates + 1;
-  const z = skipped ? state.z : lambda * x + (1 - lambda) * state.z;
-  const i = Math.max(updates, 1);
-  const w = L * sigma * Math.sqrt((lambda / (2 - lambda)) * (1 - (1 - lambda) ** (2 * i)));
-  const lcl = mu0 - w;
-  const ucl = mu0 + w;
-  const signal = skipped ? null : z > ucl ? 'up' : z < lcl ? 'down' : null;
-  return { state: { step, updates, z }, point: { step, x, z, lcl, ucl, skipped, signal } };
-}
-
-/**
- * Runs EWMA over a sequence, continuing from a saved state.
- * @param xs observations [x]
- * @param options lambda, L [-]; mu0, sigma [x]
- * @param state saved state (default: fresh, z_0 = mu0)
- */
-export function ewmaRun(
-  xs: ArrayLike<number>,
-  options: EwmaOptions = {},
-  state: EwmaState = ewmaInit(options),
-): { points: EwmaPoint[]; state: EwmaState } {
-  const points: EwmaPoint[] = [];
-  let s = state;
-  for (let i = 0; i < xs.length; i++) {
-    const r = ewmaStep(s, xs[i], options);
-    s = r.state;
-    points.push(r.point);
-  }
-  return { points, state: s };
 }

@@ -188,8 +188,8 @@ export function classifyHour(
   input: { tags: Readonly<Record<string, TagHourStats | null | undefined>>; balances?: readonly BalanceClosure[] },
   limits: SteadyLimits,
 ): HourClassification {
-  const lim = { ...STEADY_DEFAULTS, ...dropUndefined(limits) };
-  const keyTags = [...new Set([...(limits.keyTags ?? Object.keys(input.tags)), limits.loadTag])];
+  const lim = limitsOf(limits);
+  const keyTags = keyTagsOf(limits.keyTags ?? Object.keys(input.tags), limits.loadTag);
   const reasons: HourReason[] = [];
   const sound = new Set<string>();
 
@@ -351,6 +351,26 @@ export function distinctFigures(value: number, limit: number, significant?: numb
 /** The instrument's floor in a reason's words (formatted only when a reason is written). */
 const floorNote = (floor: number) => (floor > 0 ? `; what the instrument resolves: ${fmt(floor)}` : '');
 
-function dropUndefined<T extends object>(o: T): Partial<T> {
-  return Object.fromEntries(Object.entries(o).filter(([, v]) => v !== undefined)) as Partial<T>;
+/** The limits with the defaults filled in where a limit is not given (undefined). */
+function limitsOf(l: SteadyLimits) {
+  const d = STEADY_DEFAULTS;
+  return {
+    defaultMaxRelSpread: l.defaultMaxRelSpread ?? d.defaultMaxRelSpread,
+    resolutionFactor: l.resolutionFactor ?? d.resolutionFactor,
+    minCoveredFraction: l.minCoveredFraction ?? d.minCoveredFraction,
+    minSamples: l.minSamples ?? d.minSamples,
+    maxNonNumericFraction: l.maxNonNumericFraction ?? d.maxNonNumericFraction,
+    maxOutOfRangeCount: l.maxOutOfRangeCount ?? d.maxOutOfRangeCount,
+    maxBalanceResidual: l.maxBalanceResidual ?? d.maxBalanceResidual,
+  };
+}
+
+const keyTagLists = new WeakMap<readonly string[], { loadTag: string; tags: string[] }>();
+/** The key tags and the load tag, each once, in order; kept per key-tag array (callers pass the same one hour after hour). */
+function keyTagsOf(keyTags: readonly string[], loadTag: string): readonly string[] {
+  const hit = keyTagLists.get(keyTags);
+  if (hit && hit.loadTag === loadTag) return hit.tags;
+  const tags = [...new Set([...keyTags, loadTag])];
+  keyTagLists.set(keyTags, { loadTag, tags });
+  return tags;
 }

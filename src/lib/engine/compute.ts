@@ -27,12 +27,12 @@
  */
 import type { TagHourStats } from '../analytics';
 import { destructionCost_per_hour } from '../analytics';
-import { LINK_QUANTITIES } from '../plant/kinds';
 import { checkBalance, hourState, loadStats, runBalance, type DeadState } from './checks';
 import { LOAD_KEY, T0_RANGE_K, finiteOrNull } from './constants';
 import { detailOf } from './detail';
 import { linkSetOf, unitHourHashes, type ComputeOptions, type LinkSet } from './linkset';
 import { cachedConverter, mapUnitHour, unitParameters, type MappedUnit } from './map';
+import { linkConverter } from './map-port';
 import type { EngineLink, EngineReason, TagHour, UnitHourInput, UnitHourResult } from './types';
 
 export { ENGINE_VERSION, ENERGY_CLOSURE_TOLERANCE, ENTROPY_CHECK_TOLERANCE, SPREAD_O2_ABS, SPREAD_X_ABS } from './constants';
@@ -64,7 +64,7 @@ function statsSI(link: EngineLink, th: TagHour | undefined, p_atm_Pa: number): T
   let factor = 1;
   let toSI = IDENTITY;
   try {
-    const c = cachedConverter(link.engUnit, LINK_QUANTITIES[link.quantity].quantity, p_atm_Pa);
+    const c = linkConverter(link, p_atm_Pa);
     factor = Math.abs(c.factor);
     toSI = c.toSI;
   } catch {

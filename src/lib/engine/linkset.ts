@@ -32,26 +32,44 @@ export interface LinkSet {
   linkOfTag: Map<string, EngineLink>;
 }
 
-const models = new WeakMap<object, Map<string, UnitModel>>();
+const models = new WeakMap<object, { kind: string; model: UnitModel }[]>();
+
+const o2BasisOf = (f: object) => ('o2Basis' in f ? f.o2Basis : '');
+/** Whether two models agree in everything that can change from one hour to the next for one unit. */
+function sameModel(a: UnitModel, b: UnitModel): boolean {
+  if ((a.powerMeasured ?? '') !== (b.powerMeasured ?? '') || (a.belowDeadState ?? '') !== (b.belowDeadState ?? '')) return false;
+  const pa = a.ports ?? [];
+  const pb = b.ports ?? [];
+  if (pa.length !== pb.length) return false;
+  for (let i = 0; i < pa.length; i++) {
+    const x = pa[i]!;
+    const y = pb[i]!;
+    if (x.name !== y.name || x.direction !== y.direction || x.role !== y.role || x.group !== y.group || x.state !== y.state || x.flow !== y.flow) return false;
+    if (x.fluid.kind !== y.fluid.kind || o2BasisOf(x.fluid) !== o2BasisOf(y.fluid)) return false;
+  }
+  return sameTerms(a.powers, b.powers) && sameTerms(a.heats, b.heats);
+}
+function sameTerms(a: UnitModel['powers'], b: UnitModel['powers']): boolean {
+  const ta = a ?? [];
+  const tb = b ?? [];
+  if (ta.length !== tb.length) return false;
+  for (let i = 0; i < ta.length; i++) if (ta[i]!.name !== tb[i]!.name || ta[i]!.role !== tb[i]!.role || ta[i]!.direction !== tb[i]!.direction) return false;
+  return true;
+}
+
 /**
  * One model object per unit and distinct model, so that the equipment library's compiled form and
- * its memoised port states are reused from hour to hour. The signature holds everything of a model
- * that can change from one hour to the next for the same unit (state and flow modes, O2 basis, powers).
+ * its memoised port states are reused from hour to hour. Two models are the same when they agree in
+ * everything of a model that can change from one hour to the next for the same unit (state and flow
+ * modes, O2 basis, powers): see sameModel.
  */
 export function sharedModel(unit: EngineUnit, kind: string, model: UnitModel): UnitModel {
-  const sig = [
-    kind,
-    model.powerMeasured ?? '',
-    model.belowDeadState ?? '',
-    (model.ports ?? []).map((p) => [p.name, p.direction, p.role, p.group, p.state, p.flow, p.fluid.kind, 'o2Basis' in p.fluid ? p.fluid.o2Basis : ''].join(':')).join('|'),
-    (model.powers ?? []).map((w) => `${w.name}:${w.role}:${w.direction}`).join('|'),
-    (model.heats ?? []).map((q) => `${q.name}:${q.role}:${q.direction}`).join('|'),
-  ].join('#');
   let byUnit = models.get(unit);
-  if (!byUnit) models.set(unit, (byUnit = new Map()));
-  let m = byUnit.get(sig);
-  if (!m) byUnit.set(sig, (m = model));
-  return m;
+  if (!byUnit) models.set(unit, (byUnit = []));
+  for (const m of byUnit) if (m.model === model || (m.kind === kind && sameModel(m.model, model))) return m.model;
+  if (byUnit.length >= 64) byUnit.shift();
+  byUnit.push({ kind, model });
+  return model;
 }
 
 const versions = new WeakMap<object, Map<string, LinkSet>>();

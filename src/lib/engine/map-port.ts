@@ -27,12 +27,28 @@ export interface Ctx {
   plans: PortPlan[];
 }
 
-export function linkAt(ctx: Ctx, port: string | null, ...qs: LinkQuantity[]): EngineLink | undefined {
-  for (const q of qs) {
-    const l = ctx.links.find((k) => k.portName === port && k.quantity === q);
-    if (l) return l;
+type LinkIndex = Map<string | null, Partial<Record<LinkQuantity, EngineLink>>>;
+const linkIndexes = new WeakMap<readonly EngineLink[], LinkIndex>();
+/** The first link of each port and quantity, kept per links array (the same for every hour it holds). */
+function linkIndexOf(links: readonly EngineLink[]): LinkIndex {
+  let ix = linkIndexes.get(links);
+  if (!ix) {
+    ix = new Map();
+    for (const l of links) {
+      let byQ = ix.get(l.portName);
+      if (!byQ) ix.set(l.portName, (byQ = {}));
+      byQ[l.quantity] ??= l;
+    }
+    linkIndexes.set(links, ix);
   }
-  return undefined;
+  return ix;
+}
+
+/** The port's link of the first of the quantities that has one (the links array is not changed while it is in use). */
+export function linkAt(ctx: Ctx, port: string | null, q1: LinkQuantity, q2?: LinkQuantity, q3?: LinkQuantity): EngineLink | undefined {
+  const byQ = linkIndexOf(ctx.links).get(port);
+  if (!byQ) return undefined;
+  return byQ[q1] ?? (q2 && byQ[q2]) ?? (q3 && byQ[q3]) ?? undefined;
 }
 
 const converters = new Map<string, Converter>();
@@ -52,13 +68,29 @@ export function cachedConverter(engUnit: string, quantity: Parameters<typeof con
   return c;
 }
 
+const linkConverters = new WeakMap<EngineLink, { p_atm_Pa: number; engUnit: string; quantity: LinkQuantity; conv: Converter | null; err: Error | null }>();
+/** cachedConverter for a link's unit and quantity, kept on the link object (no key text per call). */
+export function linkConverter(link: EngineLink, p_atm_Pa: number): Converter {
+  let c = linkConverters.get(link);
+  if (!c || c.p_atm_Pa !== p_atm_Pa || c.engUnit !== link.engUnit || c.quantity !== link.quantity) {
+    const { engUnit, quantity } = link;
+    try {
+      c = { p_atm_Pa, engUnit, quantity, conv: cachedConverter(engUnit, LINK_QUANTITIES[quantity].quantity, p_atm_Pa), err: null };
+    } catch (err) {
+      c = { p_atm_Pa, engUnit, quantity, conv: null, err: err as Error };
+    }
+    linkConverters.set(link, c);
+  }
+  if (c.err || !c.conv) throw c.err;
+  return c.conv;
+}
+
 /** A link's hourly mean in SI with its standard uncertainty in SI (NaN when the hour has no value). */
 export function reading(ctx: Ctx, link: EngineLink): { value: number; u: number; reading: number } {
-  const q = LINK_QUANTITIES[link.quantity].quantity;
   const th = ctx.tagHours.get(link.tagName);
   const mean = th?.mean;
   if (mean === null || mean === undefined || !Number.isFinite(mean)) return { value: NaN, u: 0, reading: NaN };
-  const conv = cachedConverter(link.engUnit, q, ctx.p_atm_Pa);
+  const conv = linkConverter(link, ctx.p_atm_Pa);
   const uEng = link.uncertaintyMode === 'relative' ? (Math.abs(mean) * link.uncertainty) / 100 : link.uncertainty;
   return { value: conv.toSI(mean), u: Math.abs(uEng * conv.factor), reading: mean };
 }

@@ -77,8 +77,14 @@ export interface MappedUnit {
 
 /** Merged parameters: the catalogue's defaults under the unit's own values. */
 export function unitParameters(unit: EngineUnit): Record<string, ParamValue> {
-  return { ...defaultParameters(unit.kind), ...unit.parameters };
+  const hit = mergedParams.get(unit);
+  if (hit && hit.kind === unit.kind && hit.own === unit.parameters) return hit.merged;
+  const merged = Object.freeze({ ...defaultParameters(unit.kind), ...unit.parameters });
+  mergedParams.set(unit, { kind: unit.kind, own: unit.parameters, merged });
+  return merged;
 }
+/** Merged parameters kept per unit object (read-only; recomputed when the unit's kind or parameters object changes). */
+const mergedParams = new WeakMap<EngineUnit, { kind: string; own: object; merged: Record<string, ParamValue> }>();
 
 /**
  * Maps a unit and the links holding in an hour, with the hour's tag statistics, to the equipment

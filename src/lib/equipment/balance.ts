@@ -390,6 +390,8 @@ export interface AssembleInput {
   extraThroughput_W?: number;
   extras?: Record<string, number>;
   flags?: string[];
+  /** the uncertainty sweep: F, P, L, D and efficiency only (no port records; flags as given) */
+  lean?: boolean;
 }
 
 /** Exergy per kg carried by a resolved stream in a balance [J/kg]. */
@@ -437,9 +439,11 @@ export function assemble(a: AssembleInput): UnitBalance {
   for (const q of a.heats) if (q.Q_W > 0) throughput += q.Q_W;
   const flags = a.flags ?? [];
   const ports: UnitBalance['ports'] = {};
-  for (const p of a.ports) {
-    ports[p.name] = { direction: p.direction, mDot_kg_per_s: p.mDot, state: p.state };
-    for (const f of p.state.flags) flags.push(`${f}:${p.name}`);
+  if (!a.lean) {
+    for (const p of a.ports) {
+      ports[p.name] = { direction: p.direction, mDot_kg_per_s: p.mDot, state: p.state };
+      for (const f of p.state.flags) flags.push(`${f}:${p.name}`);
+    }
   }
   const D = cv.exergyDestroyed_W;
   if (D < -1e-9 * Math.max(Math.abs(F), 1)) flags.push('negative-destruction');

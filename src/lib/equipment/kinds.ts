@@ -155,6 +155,7 @@ export function turbineBalance(input: TurbineInput): UnitBalance {
   }
   if (Number.isFinite(res.commonExpansionEfficiency)) extras.expansionEfficiency = res.commonExpansionEfficiency;
   return assemble({
+    lean: input.companions === false,
     kind,
     env: input.env,
     ports: res.ports,
@@ -210,7 +211,7 @@ export function compressorBalance(input: CompressorInput): UnitBalance {
     const hs = outP.fluid.hIsentropic(b.p, a.s);
     extras.isentropicEfficiency = b.h !== a.h ? (hs - a.h) / (b.h - a.h) : NaN;
   }
-  return assemble({ kind, env: input.env, ports: res.ports, chemical: false, powers: [{ label: 'shaft power', power_W: -shaft }], heats: [], terms, hasProduct: true, extras });
+  return assemble({ lean: input.companions === false, kind, env: input.env, ports: res.ports, chemical: false, powers: [{ label: 'shaft power', power_W: -shaft }], heats: [], terms, hasProduct: true, extras });
 }
 
 // --------------------------------------------------------------------------------- heat exchanger
@@ -263,6 +264,7 @@ export function heatExchangerBalance(input: HeatExchangerInput): UnitBalance {
     else dutyCold -= sgn * p.mDot * p.state.h;
   }
   return assemble({
+    lean: input.companions === false,
     kind: 'heat-exchanger',
     env: input.env,
     ports: res.ports,
@@ -388,6 +390,7 @@ export function boilerBalance(input: BoilerInput): UnitBalance {
   if (condensed) fuelFlags.push('no-entropy-balance');
   const fuelEnergy = mf * fuelFluid.fuel.LHV_J_per_kg;
   const out = assemble({
+    lean: input.companions === false,
     kind: 'boiler',
     env,
     ports: resolved.ports,
@@ -428,7 +431,7 @@ export function valveBalance(input: PortBalanceInput): UnitBalance {
   requirePorts('valve', input.ports, 1, 1, 1, 1);
   const res = resolvePorts(input.ports, input.env, { work_W: 0 });
   const terms = termsOf(res.ports, 'fuel', false);
-  return assemble({ kind: 'valve', env: input.env, ports: res.ports, chemical: false, powers: [], heats: [], terms, hasProduct: false });
+  return assemble({ lean: input.companions === false, kind: 'valve', env: input.env, ports: res.ports, chemical: false, powers: [], heats: [], terms, hasProduct: false });
 }
 
 // -------------------------------------------------------------------------------- mixer family
@@ -479,7 +482,7 @@ export function mixerBalance(input: MixerInput): UnitBalance {
   terms.push({ label: `${out.name} (hot streams' share)`, role: 'fuel', exergy_W: -(out.mDot - coldMass) * psiOut });
   terms.push({ label: `${out.name} (cold streams' share)`, role: 'product', exergy_W: coldMass * psiOut });
   for (const p of res.ports) if (p.direction === 'out' && p !== out) terms.push({ label: p.name, role: 'loss', exergy_W: p.mDot * p.state.psi });
-  return assemble({ kind, env: input.env, ports: res.ports, chemical: false, powers: [], heats: [], terms, hasProduct: true, flags });
+  return assemble({ lean: input.companions === false, kind, env: input.env, ports: res.ports, chemical: false, powers: [], heats: [], terms, hasProduct: true, flags });
 }
 
 // ------------------------------------------------------------------------------ condenser family
@@ -519,7 +522,7 @@ export function condenserBalance(input: CondenserInput): UnitBalance {
   for (const p of res.ports) terms.push(streamTerm(p, p.role === 'process' ? 'fuel' : 'loss', false));
   let duty = 0;
   for (const p of res.ports) if (p.role === 'process') duty += (p.direction === 'in' ? 1 : -1) * p.mDot * p.state.h;
-  return assemble({ kind, env: input.env, ports: res.ports, chemical: false, powers: [], heats, terms, hasProduct: false, extras: { duty_W: duty }, flags });
+  return assemble({ lean: input.companions === false, kind, env: input.env, ports: res.ports, chemical: false, powers: [], heats, terms, hasProduct: false, extras: { duty_W: duty }, flags });
 }
 
 // ------------------------------------------------------------------------------- motor/generator
@@ -629,5 +632,5 @@ export function genericBalance(input: GenericInput): UnitBalance {
   }
   let hasProduct = false;
   for (const t of terms) if (t.role === 'product') hasProduct = true;
-  return assemble({ kind: 'generic', env: input.env, ports: res.ports, chemical, powers, heats, terms, hasProduct });
+  return assemble({ lean: input.companions === false, kind: 'generic', env: input.env, ports: res.ports, chemical, powers, heats, terms, hasProduct });
 }

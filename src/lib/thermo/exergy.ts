@@ -213,18 +213,15 @@ export function controlVolumeBalance(input: ControlVolumeInput): ControlVolumeRe
   const T0 = input.T0_K;
   requireRange('T0_K', T0, T0_MIN_K, T0_MAX_K, 'K', 'control-volume balance');
   const terms: BalanceTerm[] = [];
-  input.streams.forEach((st, i) => {
+  for (let i = 0; i < input.streams.length; i++) {
+    const st = input.streams[i]!;
     const label = st.label ?? `stream ${i + 1}`;
     requireRange('mDot_kg_per_s', st.mDot_kg_per_s, 0, 1e6, 'kg/s', label);
-    for (const [k, v] of [
-      ['h_J_per_kg', st.h_J_per_kg],
-      ['s_J_per_kgK', st.s_J_per_kgK],
-      ['psi_J_per_kg', st.psi_J_per_kg],
-      ['velocity_m_per_s', st.velocity_m_per_s ?? 0],
-      ['elevation_m', st.elevation_m ?? 0],
-    ] as const) {
-      requireFinite(k, v, label);
-    }
+    requireFinite('h_J_per_kg', st.h_J_per_kg, label);
+    requireFinite('s_J_per_kgK', st.s_J_per_kgK, label);
+    requireFinite('psi_J_per_kg', st.psi_J_per_kg, label);
+    requireFinite('velocity_m_per_s', st.velocity_m_per_s ?? 0, label);
+    requireFinite('elevation_m', st.elevation_m ?? 0, label);
     if (st.direction !== 'in' && st.direction !== 'out') {
       throw new ThermoRangeError('direction', NaN, "'in' | 'out'", label);
     }
@@ -239,7 +236,7 @@ export function controlVolumeBalance(input: ControlVolumeInput): ControlVolumeRe
       entropy_W_per_K: sign * m * st.s_J_per_kgK,
       mass_kg_per_s: sign * m,
     });
-  });
+  }
   (input.heat ?? []).forEach((q, i) => {
     const label = q.label ?? `heat ${i + 1}`;
     requireFinite('Q_W', q.Q_W, label);
