@@ -2,30 +2,31 @@
  * Loads the demo site through the product's normal paths, so a fresh Lossline shows a year of a
  * plant with its drift notices:
  *
- *   1. the model file (./harrowgate.model.json, built by ./site.ts) goes into the demo site with the
- *      same import as PUT /api/v1/sites/{id}/model (src/server/services/plant-model.ts), on first
- *      start only: a model an admin has edited since is left alone;
- *   2. the weekly historian exports (./generate.ts) arrive as machine uploads (receiveApiUpload:
- *      into the object store, then queued for the worker), only the ones the site does not have yet;
- *   3. it waits while the worker reads them and the engine computes the unit hours;
+ *   1. the model file (./harrowgate.model.json, built by ./site.ts) goes into the demo site: a new
+ *      site is created from it, an existing one without units gets it by PUT /api/v1/sites/{id}/model,
+ *      on first start only: a model an admin has edited since is left alone;
+ *   2. the weekly historian exports (./generate.ts) arrive as machine uploads (POST
+ *      /api/v1/sites/{id}/files with a site token), only the ones the site does not have yet;
+ *   3. it waits while the worker reads them (GET /api/v1/uploads/{id}) and the engine computes the
+ *      unit hours;
+ * Its /api/v1 calls use the typed client of ./api-client.ts (openapi-fetch, the document's types).
  *   4. per unit without a baseline, a baseline is fitted on the months before the planted faults and
  *      accepted (src/server/services/baselines.ts), which queues the drift check; it waits for the
  *      check and reports the drift notices (their mails go to the energy leads and planners).
  *
  * Idempotent and quick when everything is there already. Everything is reported through `log`.
  */
-import { Readable } from 'node:stream';
 import { and, count, eq, gte, inArray, lt, sql } from 'drizzle-orm';
 import { db } from '~/server/db/client';
 import { baselines, driftNotices, noticeMails, plantUnits, sites, unitHours, uploads, user } from '~/server/db/schema';
 import { QUEUES } from '~/jobs';
-import { createSiteFromModel, importModel } from '~/server/services/plant-model';
-import { receiveApiUpload } from '~/server/services/uploads';
+import { createSiteFromModel } from '~/server/services/plant-model';
 import { AppError } from '~/server/errors';
 import { acceptBaseline, fitDraft } from '~/server/services/baselines';
 import type { BaselineTerm } from '~/lib/analytics/baseline';
 import { DEMO_DEFAULTS, generateExports, plannedFileNames, resolvePlan, siteTimeText, type GenerateOptions } from './generate';
 import { demoModel, DEMO_SITE_NAME } from './site';
+import { apiFailure, demoApiClient, type V1Client } from './api-client';
 
 export interface LoadOptions extends Pick<GenerateOptions, 'start' | 'days' | 'seed'> {
   /** the site to load into (created from the model when missing); default the demo site's name */
@@ -117,6 +118,38 @@ async function waitUntilZero(what: string, pending: () => Promise<number>, o: { 
 
 /** Loads the demo (see the module comment). */
 export async function loadDemo(opts: LoadOptions = {}): Promise<LoadReport> {
+  const held: { client?: Awaited<ReturnType<typeof demoApiClient>> } = {};
+  try {
+    return await load(opts, async (siteId) => (held.client ??= await demoApiClient(siteId)).api);
+  } finally {
+    await held.client?.close();
+  }
+}
+
+/** Sends one weekly export through the API; answers whether it had the same bytes as an earlier upload. */
+async function sendExport(api: V1Client, siteId: string, name: string, text: string): Promise<boolean> {
+  const { data, error, response } = await api.POST('/api/v1/sites/{siteId}/files', {
+    params: { path: { siteId }, query: { name } },
+    body: text,
+    bodySerializer: (b) => b,
+    headers: { 'content-type': 'text/csv' },
+  });
+  if (!data) throw apiFailure(`uploading ${name}`, error, response.status);
+  return data.duplicateOf !== null;
+}
+
+/** How many of the uploads are still waiting to be read or being read, as the API tells. */
+async function stillReading(api: V1Client, ids: string[]): Promise<number> {
+  let n = 0;
+  for (const uploadId of ids) {
+    const { data, error, response } = await api.GET('/api/v1/uploads/{uploadId}', { params: { path: { uploadId } } });
+    if (!data) throw apiFailure(`asking for upload ${uploadId}`, error, response.status);
+    if (data.status === 'queued' || data.status === 'processing' || data.status === 'awaiting-file') n++;
+  }
+  return n;
+}
+
+async function load(opts: LoadOptions, apiOf: (siteId: string) => Promise<V1Client>): Promise<LoadReport> {
   const log = opts.log ?? ((s: string) => console.log(`[demo] ${s}`));
   const siteName = opts.siteName ?? DEMO_SITE_NAME;
   const gen: GenerateOptions = { start: opts.start ?? DEMO_DEFAULTS.start, days: opts.days ?? DEMO_DEFAULTS.days, seed: opts.seed ?? DEMO_DEFAULTS.seed };
@@ -146,7 +179,8 @@ export async function loadDemo(opts: LoadOptions = {}): Promise<LoadReport> {
     report.siteId = site.id;
     const [{ n }] = (await db().select({ n: count() }).from(plantUnits).where(eq(plantUnits.siteId, site.id))) as [{ n: number }];
     if (n === 0) {
-      await importModel(site.id, model);
+      const { data, error, response } = await (await apiOf(site.id)).PUT('/api/v1/sites/{siteId}/model', { params: { path: { siteId: site.id } }, body: model });
+      if (!data) throw apiFailure('importing the plant model', error, response.status);
       report.importedModel = true;
       log(`plant model imported into '${siteName}': ${model.units.length} units (${model.units.map((u) => u.name).join(', ')})`);
     } else {
@@ -174,15 +208,15 @@ export async function loadDemo(opts: LoadOptions = {}): Promise<LoadReport> {
       `generating ${gen.days} days of one-minute exports from ${gen.start} (seed ${gen.seed}) and uploading ${missing.size} of ${names.length} weekly files` +
         (report.alreadyThere ? ` (${report.alreadyThere} already there)` : ''),
     );
-    const by = { userId: (await adminUserId()) ?? undefined };
+    const api = await apiOf(siteId);
     let i = 0;
     for (const f of generateExports(gen)) {
       if (!missing.has(f.name)) continue;
       const bytes = Buffer.from(f.text, 'utf8');
-      const up = await receiveApiUpload(siteId, f.name, Readable.from([bytes]), by);
+      const repeat = await sendExport(api, siteId, f.name, f.text);
       report.uploaded.push(f.name);
       i++;
-      log(`uploaded ${f.name} (${(bytes.length / 1e6).toFixed(1)} MB, ${f.rows} rows) ${i}/${missing.size}${up.duplicateOf ? ' - same bytes as an earlier upload' : ''}`);
+      log(`uploaded ${f.name} (${(bytes.length / 1e6).toFixed(1)} MB, ${f.rows} rows) ${i}/${missing.size}${repeat ? ' - same bytes as an earlier upload' : ''}`);
     }
   }
 
@@ -204,7 +238,8 @@ export async function loadDemo(opts: LoadOptions = {}): Promise<LoadReport> {
     'files to read',
     async () => {
       const latest = await summarise();
-      return [...latest.values()].filter((u) => u.status === 'queued' || u.status === 'processing').length;
+      const open = [...latest.values()].filter((u) => u.status === 'queued' || u.status === 'processing');
+      return open.length ? stillReading(await apiOf(siteId), open.map((u) => u.id)) : 0;
     },
     { deadline, pollMs, stallMs: 5 * 60_000, log, progress: (n) => `worker reading: ${names.length - n}/${names.length} files read` },
   );
