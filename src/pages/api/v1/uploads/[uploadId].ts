@@ -1,8 +1,17 @@
+import { UploadItem } from '~/lib/api/uploads';
+import { answer } from '~/server/answer';
 import { endpoint, requireSite } from '~/server/endpoint';
-import { getUploadRow, uploadView } from '~/server/services/uploads';
+import { uploadItem } from '~/server/services/site-api';
+import { getUploadRow } from '~/server/services/uploads';
 
-export const GET = endpoint({}, async ({ locals }, { params }) => {
-  const up = await getUploadRow(params.uploadId!);
-  requireSite(locals, up.siteId);
-  return Response.json(uploadView(up));
-});
+export const GET = endpoint(
+  {
+    answers: { 200: UploadItem },
+    doc: { summary: 'One upload with its state and report', group: 'Files' },
+  },
+  async ({ locals }, { params }) => {
+    const up = await getUploadRow(params.uploadId!);
+    requireSite(locals, up.siteId);
+    return answer(UploadItem, uploadItem(up));
+  },
+);

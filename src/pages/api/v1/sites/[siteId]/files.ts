@@ -1,6 +1,8 @@
 import { Readable } from 'node:stream';
 import type { ReadableStream as WebReadableStream } from 'node:stream/web';
 import { z } from 'zod';
+import { FileAccepted } from '~/lib/api/uploads';
+import { answer } from '~/server/answer';
 import { endpoint, requireSite } from '~/server/endpoint';
 import { AppError } from '~/server/errors';
 import { receiveApiUpload } from '~/server/services/uploads';
@@ -12,12 +14,24 @@ const Query = z.object({ name: z.string().max(1000).optional() });
  * A scheduled export posts its file as the request body (Authorization: Bearer <site token>).
  * The name comes from ?name= or the X-File-Name header. Answers 202 { uploadId }.
  */
-export const POST = endpoint({ query: Query }, async ({ request, locals }, { params, query }) => {
-  const siteId = params.siteId!;
-  requireSite(locals, siteId);
-  if (!request.body) throw new AppError('VALIDATION_FAILED', 'Send the file as the request body.');
-  const name = query.name ?? request.headers.get('x-file-name') ?? `export-${new Date().toISOString().slice(0, 19).replace(/:/g, '')}.csv`;
-  const body = Readable.fromWeb(request.body as unknown as WebReadableStream<Uint8Array>);
-  const out = await receiveApiUpload(siteId, name, body, locals.apiToken ? { apiTokenId: locals.apiToken.id } : { userId: locals.user!.id });
-  return Response.json(out, { status: 202 });
-});
+export const POST = endpoint(
+  {
+    query: Query,
+    answers: { 202: FileAccepted },
+    doc: {
+      summary: 'Send a historian file',
+      description:
+        'The request body is the CSV file itself; name it with ?name= or X-File-Name. It is read in the background: follow it at /api/v1/uploads/{uploadId}, and the site’s figures at /api/v1/sites/{siteId}/state.',
+      group: 'Files',
+    },
+  },
+  async ({ request, locals }, { params, query }) => {
+    const siteId = params.siteId!;
+    requireSite(locals, siteId);
+    if (!request.body) throw new AppError('VALIDATION_FAILED', 'Send the file as the request body.');
+    const name = query.name ?? request.headers.get('x-file-name') ?? `export-${new Date().toISOString().slice(0, 19).replace(/:/g, '')}.csv`;
+    const body = Readable.fromWeb(request.body as unknown as WebReadableStream<Uint8Array>);
+    const out = await receiveApiUpload(siteId, name, body, locals.apiToken ? { apiTokenId: locals.apiToken.id } : { userId: locals.user!.id });
+    return answer(FileAccepted, out, { status: 202 });
+  },
+);

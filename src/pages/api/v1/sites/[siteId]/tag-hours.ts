@@ -1,4 +1,6 @@
 import { z } from 'zod';
+import { TagHoursAnswer } from '~/lib/api/hours';
+import { answer } from '~/server/answer';
 import { endpoint, requireSite } from '~/server/endpoint';
 import { tagHoursOf } from '~/server/services/tag-hours';
 
@@ -8,7 +10,14 @@ const Query = z.object({
   to: z.iso.datetime({ offset: true }),
 });
 
-export const GET = endpoint({ query: Query }, async ({ locals }, { params, query }) => {
-  requireSite(locals, params.siteId!);
-  return Response.json(await tagHoursOf(params.siteId!, query.tag, new Date(query.from), new Date(query.to)));
-});
+export const GET = endpoint(
+  {
+    query: Query,
+    answers: { 200: TagHoursAnswer },
+    doc: { summary: 'A tag’s hourly statistics', description: 'Hours starting in [from, to), at most 400 days.', group: 'Hours' },
+  },
+  async ({ locals }, { params, query }) => {
+    requireSite(locals, params.siteId!);
+    return answer(TagHoursAnswer, await tagHoursOf(params.siteId!, query.tag, new Date(query.from), new Date(query.to)));
+  },
+);
