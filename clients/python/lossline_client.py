@@ -101,6 +101,21 @@ class LosslineClient:
                 raise TimeoutError(f"upload {upload_id} still {status.get('status')} after {timeout_s:.0f} s")
             time.sleep(poll_s)
 
+    def site_state(self, site_id: str) -> Dict[str, Any]:
+        """The site's processing state: files waiting or being read, hours to compute, drift checks; settled."""
+        return self._json("GET", f"/api/v1/sites/{urllib.parse.quote(site_id)}/state")
+
+    def wait_until_settled(self, site_id: str, timeout_s: float = 900.0, poll_s: float = 2.0) -> Dict[str, Any]:
+        """Polls until the site's figures are final for everything it was sent (state.settled); answers the state."""
+        deadline = time.monotonic() + timeout_s
+        while True:
+            state = self.site_state(site_id)
+            if state.get("settled"):
+                return state
+            if time.monotonic() > deadline:
+                raise TimeoutError(f"site {site_id} not settled after {timeout_s:.0f} s: {state}")
+            time.sleep(poll_s)
+
     # -- results --------------------------------------------------------------------------------
     def unit_hours_csv(self, unit_id: str, start: str, end: str) -> str:
         """A unit's hours starting in [start, end) as CSV text (ISO 8601 instants)."""
@@ -123,6 +138,7 @@ def _main(argv: List[str]) -> int:
     up.add_argument("file")
     up.add_argument("--name")
     up.add_argument("--wait", action="store_true", help="wait until it is read")
+    up.add_argument("--settle", action="store_true", help="then wait until the site's figures are final")
     hours = sub.add_parser("hours", help="a unit's hours as CSV on standard output")
     hours.add_argument("--unit", required=True)
     hours.add_argument("--from", dest="start", required=True)
@@ -134,10 +150,12 @@ def _main(argv: List[str]) -> int:
     try:
         if args.command == "upload":
             sent = client.upload_file(args.site, args.file, args.name)
-            out = client.wait_for_upload(sent["uploadId"]) if args.wait else sent
+            out = client.wait_for_upload(sent["uploadId"]) if args.wait or args.settle else sent
+            if args.settle and out.get("status") in ("done", "read-with-problems"):
+                client.wait_until_settled(args.site)
             json.dump(out, sys.stdout, indent=2)
             sys.stdout.write("\n")
-            return 0 if not args.wait or out.get("status") == "done" else 3
+            return 0 if not (args.wait or args.settle) or out.get("status") == "done" else 3
         sys.stdout.write(client.unit_hours_csv(args.unit, args.start, args.end))
         return 0
     except LosslineError as e:

@@ -1,11 +1,11 @@
+/**
+ * The success answer of an /api/v1 route, typed by the zod schema the route declares in
+ * `spec.answers` (src/lib/api/): the value must be of the schema's type, so the route and its
+ * documented answer cannot drift apart at compile time; the route tests parse every answer with the
+ * same schema at run time.
+ */
 import type { z } from 'zod';
 
-/**
- * A JSON answer typed by the zod schema that describes it in the OpenAPI document (spec.answers):
- * the value must have the schema's type, so the handler and the document cannot drift apart. The
- * value is not parsed again at run time; the contract test (tests/api/contract.test.ts) checks real
- * answers against the document.
- */
-export function answer<S extends z.ZodType>(_schema: S, value: z.output<S>, init?: ResponseInit): Response {
+export function answer<S extends z.ZodType>(_schema: S, value: z.input<S>, init?: ResponseInit): Response {
   return Response.json(value, init);
 }

@@ -15,6 +15,8 @@ import { invitationWords, passwordMail } from './invitation-mail';
 import { queue } from './queue';
 import { sha256Hex } from '~/lib/engine/hash';
 import type { Role } from '~/lib/roles';
+import { authMessage } from '~/lib/auth-words';
+import type { ErrorCode } from './errors';
 
 /** Minimum password length; better-auth rejects shorter ones with PASSWORD_TOO_SHORT. */
 export const MIN_PASSWORD_LENGTH = 10;
@@ -254,6 +256,26 @@ async function recordFailure(email: string): Promise<void> {
   if (Math.random() < 0.01) await db().delete(schema.signInFailures).where(and(lt(schema.signInFailures.lastFailureAt, forget), ne(schema.signInFailures.email, email)));
 }
 
+/** The API's codes for a sign-in refusal by its status (better-auth's own code stays in `reason`). */
+const SIGN_IN_CODES: Record<number, ErrorCode> = { 400: 'VALIDATION_FAILED', 401: 'UNAUTHENTICATED', 403: 'FORBIDDEN', 422: 'UNPROCESSABLE', 429: 'RATE_LIMITED' };
+
+/**
+ * A refused sign-in in the API's one error shape, { error: { code, message, reason } } (reason:
+ * better-auth's code, e.g. INVALID_EMAIL_OR_PASSWORD), keeping better-auth's top-level code and
+ * message beside it for its own client and the sign-in page.
+ */
+export async function signInErrorShape(res: Response): Promise<Response> {
+  if (res.ok || !(res.headers.get('content-type') ?? '').includes('json')) return res;
+  const body = (await res.clone().json().catch(() => null)) as { code?: unknown; message?: unknown } | null;
+  if (!body || typeof body !== 'object') return res;
+  const reason = typeof body.code === 'string' ? body.code : undefined;
+  const code = SIGN_IN_CODES[res.status] ?? (res.status >= 500 ? 'INTERNAL' : 'VALIDATION_FAILED');
+  const message = authMessage(reason, res.status, typeof body.message === 'string' ? body.message : undefined);
+  const headers = new Headers(res.headers);
+  headers.delete('content-length');
+  return new Response(JSON.stringify({ ...body, error: { code, message, ...(reason ? { reason } : {}) } }), { status: res.status, headers });
+}
+
 /**
  * better-auth's HTTP handler behind Lossline's own rules: the client address set from the
  * connection (never from a header the client sent), the per-account pause on sign-in, and the
@@ -278,12 +300,12 @@ export async function authHandler(request: Request, clientAddress: string): Prom
     }
     if (email) {
       const left = await signInPauseLeft(email);
-      if (left > 0) return pausedAnswer(left);
+      if (left > 0) return signInErrorShape(pausedAnswer(left));
     }
     const res = await forward();
     if (email && res.status === 401) await recordFailure(email);
     else if (email && res.status === 200) await db().delete(schema.signInFailures).where(eq(schema.signInFailures.email, email));
-    return res;
+    return signInErrorShape(res);
   }
   if (method === 'POST' && path.endsWith('/api/auth/request-password-reset')) {
     const res = await forward();

@@ -25,6 +25,8 @@ const Env = z.object({
   MAIL_FROM: z.string().default('Lossline <lossline@localhost>'),
   MAIL_INBOX_URL: z.string().default('http://127.0.0.1:1080'),
   SIGN_IN_LIMIT_PER_MINUTE: z.coerce.number().int().positive().default(5),
+  /** Requests a minute to /api/v1 per API token and per signed-in person (each web process counts its own); 0: no limit. */
+  API_RATE_LIMIT_PER_MINUTE: z.coerce.number().int().min(0).default(6000),
   /** The reverse proxy's address(es): only it may tell us a client's address (X-Forwarded-For). */
   TRUST_PROXY: z
     .string()

@@ -19,6 +19,7 @@ export const ERROR_CODES = [
   'CONFLICT',
   'PAYLOAD_TOO_LARGE',
   'UNPROCESSABLE',
+  'RATE_LIMITED',
   'INTERNAL',
 ] as const;
 
@@ -34,6 +35,7 @@ export const ERROR_STATUS: Record<ErrorCode, number> = {
   CONFLICT: 409,
   PAYLOAD_TOO_LARGE: 413,
   UNPROCESSABLE: 422,
+  RATE_LIMITED: 429,
   INTERNAL: 500,
 };
 

@@ -6,6 +6,7 @@ import { apiError } from './errors';
 import { redact } from './log';
 import { admitFor, apiPolicyFor, decide, pagePolicyFor, pageSiteParam } from './policy';
 import { withSecurityHeaders } from './security-headers';
+import { checkApiRate, rateKey } from './rate-limit';
 import { resolveApiToken, tokenRefusal } from './tokens';
 
 interface GuardContext {
@@ -141,6 +142,11 @@ async function decideAndRun(ctx: GuardContext, next: GuardNext, isApi: boolean):
           return apiError('FORBIDDEN', ctx.locals.apiToken ? 'This API token belongs to another site.' : 'You have no access to this site. Ask an admin to add it to your sites.');
         }
       }
+    }
+    const key = path.startsWith('/api/v1/') ? rateKey(ctx.locals) : null;
+    if (key) {
+      const limited = await checkApiRate(key);
+      if (limited) return limited;
     }
     return next();
   }

@@ -40,6 +40,8 @@ export const API_POLICY: Record<string, RoutePolicy> = {
   '/api/v1/sites/[siteId]/files': { methods: { POST: UPLOADERS }, apiToken: true },
   '/api/v1/uploads/[uploadId]': { methods: { GET: ANY_ROLE }, apiToken: true },
   '/api/v1/sites/[siteId]/tag-hours': { methods: { GET: ANY_ROLE }, apiToken: true },
+  '/api/v1/sites/[siteId]/uploads': { methods: { GET: ANY_ROLE }, apiToken: true },
+  '/api/v1/sites/[siteId]/state': { methods: { GET: ANY_ROLE }, apiToken: true },
   // --- plant model ---
   '/api/sites': { methods: { GET: ANY_ROLE, POST: ADMIN } },
   '/api/sites/from-model': { methods: { POST: ADMIN } },
@@ -52,6 +54,8 @@ export const API_POLICY: Record<string, RoutePolicy> = {
   '/api/sites/[siteId]/links/[linkId]': { methods: { DELETE: ADMIN } },
   '/api/sites/[siteId]/tags': { methods: { GET: ANY_ROLE } },
   '/api/v1/sites/[siteId]/model': { methods: { GET: ANY_ROLE, PUT: ADMIN }, apiToken: true },
+  '/api/v1/sites/[siteId]': { methods: { GET: ANY_ROLE }, apiToken: true },
+  '/api/v1/sites/[siteId]/units': { methods: { GET: ANY_ROLE }, apiToken: true },
   // --- engine ---
   '/api/v1/units/[unitId]/hours': { methods: { GET: ANY_ROLE }, apiToken: true },
   '/api/v1/units/[unitId]/hours/[hour]': { methods: { GET: ANY_ROLE }, apiToken: true },
@@ -63,6 +67,8 @@ export const API_POLICY: Record<string, RoutePolicy> = {
   '/api/units/[unitId]/drift-settings': { methods: { GET: ANY_ROLE, PUT: LEADS } },
   '/api/units/[unitId]/limits': { methods: { GET: ANY_ROLE, PUT: LEADS } },
   '/api/notices': { methods: { GET: ANY_ROLE } },
+  '/api/v1/sites/[siteId]/notices': { methods: { GET: ANY_ROLE }, apiToken: true },
+  '/api/v1/sites/[siteId]/baselines': { methods: { GET: ANY_ROLE }, apiToken: true },
   '/api/notices/settings': { methods: { GET: ANY_ROLE, PUT: ['admin', 'energy-lead'] } },
   '/api/notices/preferences': { methods: { GET: ['admin', 'energy-lead', 'planner'], PUT: ['admin', 'energy-lead', 'planner'] } },
   '/api/notices/[noticeId]': { methods: { GET: ANY_ROLE } },
@@ -71,6 +77,7 @@ export const API_POLICY: Record<string, RoutePolicy> = {
   // --- trends, ledger, reports ---
   '/api/units/[unitId]/trend': { methods: { GET: ANY_ROLE } },
   '/api/sites/[siteId]/ledger': { methods: { GET: ANY_ROLE } },
+  '/api/v1/sites/[siteId]/ledger': { methods: { GET: ANY_ROLE }, apiToken: true },
   '/api/sites/[siteId]/flow': { methods: { GET: ANY_ROLE } },
   '/api/sites/[siteId]/reports': { methods: { GET: LEADS } },
   '/api/sites/[siteId]/reports/[month]/report.pdf': { methods: { GET: LEADS } },

@@ -1,48 +1,41 @@
-/**
- * What the uploads endpoints of /api/v1 answer: one zod schema each, which types the endpoint's answer
- * and describes it in the OpenAPI document (src/server/openapi.ts). Pure shapes: no server imports.
- */
+/** Answers of the files and uploads under /api/v1: POST .../files, GET .../uploads, GET /api/v1/uploads/{uploadId}. */
 import { z } from 'zod';
+import { pageOf } from './paging';
+import { Id, Instant } from './common';
 
-/** Upload states, in Lossline's words (the server's UPLOAD_STATUSES; the endpoint's type check keeps them one list). */
-export const UploadStatus = z
-  .enum(['awaiting-file', 'queued', 'needs-review', 'processing', 'done', 'read-with-problems', 'failed'])
-  .meta({ description: 'done and read-with-problems: read, hours stored; failed: nothing stored (reason says why); needs-review: a person answers a layout question on the uploads page.' });
+/** States of an upload (docs/api.md, "GET /api/v1/uploads/{uploadId}"). */
+export const UPLOAD_STATES = ['awaiting-file', 'queued', 'needs-review', 'processing', 'done', 'read-with-problems', 'failed'] as const;
 
-export const UploadAccepted = z
-  .object({
-    uploadId: z.uuid(),
-    duplicateOf: z.uuid().nullable().meta({ description: 'An earlier upload with the same bytes: this one is not read again.' }),
-  })
-  .meta({ id: 'UploadAccepted' });
-export type UploadAccepted = z.infer<typeof UploadAccepted>;
+export const FileAccepted = z.object({
+  uploadId: Id,
+  duplicateOf: Id.nullable().describe('An earlier upload with the same bytes: this one is not read again.'),
+});
+export type FileAccepted = z.infer<typeof FileAccepted>;
 
-const Instant = z.iso.datetime({ offset: true });
+/** An upload with its state and its report. */
+export const UploadItem = z.object({
+  uploadId: Id,
+  siteId: Id,
+  fileName: z.string(),
+  sizeBytes: z.number().nullable(),
+  sha256: z.string().nullable(),
+  source: z.string().describe('browser or api'),
+  status: z.enum(UPLOAD_STATES),
+  progress: z.number().min(0).max(1).describe('Share of the bytes read [-].'),
+  rowsRead: z.number().nullable(),
+  duplicateOf: Id.nullable(),
+  summary: z
+    .record(z.string(), z.unknown())
+    .nullable()
+    .describe('The report: rows, tags, newTags, hours, values, rejected, warnings, perTag, problemTags ...; when failed, code and details.'),
+  detection: z.unknown().optional().describe('The proposed layout while a person must answer a layout question.'),
+  reason: z.string().nullable().describe('Why it failed, in words; null unless failed.'),
+  createdAt: Instant,
+  finishedAt: Instant.nullable(),
+});
+export type UploadItem = z.infer<typeof UploadItem>;
 
-export const UploadAnswer = z
-  .object({
-    uploadId: z.uuid(),
-    siteId: z.uuid(),
-    fileName: z.string(),
-    sizeBytes: z.number().int().nullable(),
-    sha256: z.string().nullable(),
-    source: z.string().meta({ description: 'api, browser or demo.' }),
-    status: UploadStatus,
-    progress: z.number().min(0).max(1),
-    rowsRead: z.number().int(),
-    duplicateOf: z.uuid().nullable(),
-    summary: z
-      .looseObject({ code: z.string().optional(), note: z.string().optional(), duplicateOf: z.string().optional() })
-      .nullable()
-      .meta({ description: "The reader's counts when the file was read (rows, tags, hours, values, rejected, warnings, perTag ...), or the code and details of why it stopped." }),
-    detection: z
-      .object({ profile: z.unknown(), preview: z.array(z.unknown()).optional(), encoding: z.unknown().optional(), disagreement: z.unknown().optional() })
-      .nullable()
-      .optional()
-      .meta({ description: 'The detected layout and its questions, while a person must answer them.' }),
-    reason: z.string().nullable().meta({ description: 'Why the upload failed, in words; null unless failed.' }),
-    createdAt: Instant,
-    finishedAt: Instant.nullable(),
-  })
-  .meta({ id: 'Upload' });
-export type UploadAnswer = z.infer<typeof UploadAnswer>;
+export const UploadsPage = pageOf(UploadItem);
+export type UploadsPage = z.infer<typeof UploadsPage>;
+
+export const UploadsFilter = z.object({ status: z.enum(UPLOAD_STATES).optional() });

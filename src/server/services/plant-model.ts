@@ -99,9 +99,39 @@ async function recomputeFor(tx: Tx, siteId: string, before: PlantModel | null, a
   return out;
 }
 
-/** Writes a checked model into a site inside the transaction (site row already exists). */
-async function writeModel(tx: Tx, siteId: string, model: PlantModel, recompute: (r: RecomputeRequest) => Promise<void>, before: PlantModel | null) {
-  const s = model.site;
+/** What a model write did, by id: for the answer of the model PUT (ModelPutAnswer, src/lib/api/model.ts). */
+export interface ModelChanges {
+  created: { units: string[]; ports: string[]; links: string[]; tags: string[] };
+  changed: { units: string[]; ports: string[] };
+  removed: { units: string[]; ports: string[]; links: string[] };
+  renamed: { what: 'site'; id: string; from: string; to: string; message: string }[];
+  /** Every unit of the model by name, with its id and its ports' ids by name. */
+  unitIds: Record<string, { id: string; ports: Record<string, string> }>;
+}
+
+const noChanges = (): ModelChanges => ({
+  created: { units: [], ports: [], links: [], tags: [] },
+  changed: { units: [], ports: [] },
+  removed: { units: [], ports: [], links: [] },
+  renamed: [],
+  unitIds: {},
+});
+
+/** The tag of a site by name, created when missing; a tag created here is listed in `changes`. */
+async function tagOf(tx: Tx, siteId: string, name: string, changes: ModelChanges): Promise<string> {
+  const made = await tx.insert(tags).values({ siteId, name }).onConflictDoNothing().returning({ id: tags.id });
+  if (made[0]) {
+    changes.created.tags.push(made[0].id);
+    return made[0].id;
+  }
+  return ensureTag(tx, siteId, name);
+}
+
+async function writeSite(tx: Tx, siteId: string, s: PlantModel['site'], changes: ModelChanges) {
+  const [prior] = await tx.select({ name: sites.name }).from(sites).where(eq(sites.id, siteId)).limit(1);
+  if (prior && prior.name !== s.name) {
+    changes.renamed.push({ what: 'site', id: siteId, from: prior.name, to: s.name, message: `The site '${prior.name}' is now named '${s.name}' (the file's site.name).` });
+  }
   await tx
     .update(sites)
     .set({
@@ -111,104 +141,88 @@ async function writeModel(tx: Tx, siteId: string, model: PlantModel, recompute: 
       p_atm_Pa: resolveAtmosphere(s),
       T0_K: s.deadState.T0_K,
       p0_Pa: s.deadState.p0_Pa,
-      t0TagId: s.deadState.T0Tag ? await ensureTag(tx, siteId, s.deadState.T0Tag.tag) : null,
+      t0TagId: s.deadState.T0Tag ? await tagOf(tx, siteId, s.deadState.T0Tag.tag, changes) : null,
       t0TagUnit: s.deadState.T0Tag?.unit ?? null,
       currency: s.currency,
       prices: s.prices,
       updatedAt: new Date(),
     })
     .where(eq(sites.id, siteId));
+}
 
-  const existing = await tx.select().from(plantUnits).where(eq(plantUnits.siteId, siteId));
-  const keep = new Set(model.units.map((u) => u.name));
-  const gone = existing.filter((u) => !keep.has(u.name) || model.units.find((m) => m.name === u.name)!.kind !== u.kind);
-  if (gone.length) await tx.delete(plantUnits).where(inArray(plantUnits.id, gone.map((u) => u.id)));
+type UnitRow = typeof plantUnits.$inferSelect;
 
-  const tagIds = new Map<string, string>();
-  const tagId = async (name: string) => {
-    if (!tagIds.has(name)) tagIds.set(name, await ensureTag(tx, siteId, name));
-    return tagIds.get(name)!;
-  };
-  const unitIds = new Map<string, string>();
-  for (const unit of model.units) {
-    const prior = existing.find((u) => u.name === unit.name && u.kind === unit.kind);
-    let id: string;
+/** The unit's row: updated when the file's unit of that name and kind exists, else created. */
+async function writeUnit(tx: Tx, siteId: string, unit: UnitModel, prior: UnitRow | undefined, changes: ModelChanges): Promise<string> {
+  const values = { description: unit.description ?? null, parameters: unit.parameters, fuel: unit.fuel ?? null, normallyIdle: unit.normallyIdle ?? null };
+  if (prior) {
+    const was = { description: prior.description, parameters: prior.parameters, fuel: prior.fuel, normallyIdle: prior.normallyIdle };
+    if (canonicalJson(was) !== canonicalJson(values)) {
+      changes.changed.units.push(prior.id);
+      await tx.update(plantUnits).set({ ...values, updatedAt: new Date() }).where(eq(plantUnits.id, prior.id));
+    }
+    return prior.id;
+  }
+  const [row] = await tx.insert(plantUnits).values({ siteId, name: unit.name, kind: unit.kind, ...values }).returning({ id: plantUnits.id });
+  changes.created.units.push(row!.id);
+  return row!.id;
+}
+
+/** Ports: update by name, add new, drop the rest (their links go with them). Answers their ids by name. */
+async function writePorts(tx: Tx, unitId: string, unit: UnitModel, changes: ModelChanges): Promise<Map<string, string>> {
+  const ports = await tx.select().from(plantPorts).where(eq(plantPorts.unitId, unitId));
+  const portIds = new Map<string, string>();
+  const wanted = new Set(unit.ports.map((p) => p.name));
+  const dropPorts = ports.filter((p) => !wanted.has(p.name) || unit.ports.find((q) => q.name === p.name)!.slot !== p.slot);
+  if (dropPorts.length) {
+    await tx.delete(plantPorts).where(inArray(plantPorts.id, dropPorts.map((p) => p.id)));
+    changes.removed.ports.push(...dropPorts.map((p) => p.id));
+  }
+  for (const [position, port] of unit.ports.entries()) {
+    const slot = kindSpec(unit.kind).ports.find((s) => s.slot === port.slot)!;
+    const values = { fluid: port.fluid ?? null, boundaryT_K: port.boundaryT_K ?? null, account: port.account ?? null, position };
+    const prior = ports.find((p) => p.name === port.name && p.slot === port.slot);
     if (prior) {
-      id = prior.id;
-      await tx
-        .update(plantUnits)
-        .set({ description: unit.description ?? null, parameters: unit.parameters, fuel: unit.fuel ?? null, normallyIdle: unit.normallyIdle ?? null, updatedAt: new Date() })
-        .where(eq(plantUnits.id, id));
+      if (canonicalJson({ fluid: prior.fluid, boundaryT_K: prior.boundaryT_K, account: prior.account, position: prior.position }) !== canonicalJson(values)) {
+        await tx.update(plantPorts).set(values).where(eq(plantPorts.id, prior.id));
+        if (!dropPorts.includes(prior)) changes.changed.ports.push(prior.id);
+      }
+      portIds.set(port.name, prior.id);
     } else {
       const [row] = await tx
-        .insert(plantUnits)
-        .values({ siteId, name: unit.name, kind: unit.kind, description: unit.description ?? null, parameters: unit.parameters, fuel: unit.fuel ?? null, normallyIdle: unit.normallyIdle ?? null })
-        .returning({ id: plantUnits.id });
-      id = row!.id;
+        .insert(plantPorts)
+        .values({ unitId, name: port.name, slot: port.slot, role: slot.role, stream: slot.stream, ...values })
+        .returning({ id: plantPorts.id });
+      portIds.set(port.name, row!.id);
+      changes.created.ports.push(row!.id);
     }
-    unitIds.set(unit.name, id);
+  }
+  return portIds;
+}
 
-    // Ports: update by name, add new, drop the rest (their links go with them).
-    const ports = await tx.select().from(plantPorts).where(eq(plantPorts.unitId, id));
-    const portIds = new Map<string, string>();
-    const wanted = new Set(unit.ports.map((p) => p.name));
-    const dropPorts = ports.filter((p) => !wanted.has(p.name) || unit.ports.find((q) => q.name === p.name)!.slot !== p.slot);
-    if (dropPorts.length) await tx.delete(plantPorts).where(inArray(plantPorts.id, dropPorts.map((p) => p.id)));
-    for (const [position, port] of unit.ports.entries()) {
-      const slot = kindSpec(unit.kind).ports.find((s) => s.slot === port.slot)!;
-      const values = {
-        fluid: port.fluid ?? null,
-        boundaryT_K: port.boundaryT_K ?? null,
-        account: port.account ?? null,
-        position,
-      };
-      const prior = ports.find((p) => p.name === port.name && p.slot === port.slot);
-      if (prior) {
-        await tx.update(plantPorts).set(values).where(eq(plantPorts.id, prior.id));
-        portIds.set(port.name, prior.id);
-      } else {
-        const [row] = await tx
-          .insert(plantPorts)
-          .values({ unitId: id, name: port.name, slot: port.slot, role: slot.role, stream: slot.stream, ...values })
-          .returning({ id: plantPorts.id });
-        portIds.set(port.name, row!.id);
-      }
+/** Links: keep rows equal to a version in the file, insert the others, delete what the file does not have. */
+async function writeLinks(tx: Tx, siteId: string, unitId: string, unit: UnitModel, portIds: Map<string, string>, changes: ModelChanges) {
+  const rows = await tx
+    .select({ row: tagLinks, tagName: tags.name, portName: plantPorts.name })
+    .from(tagLinks)
+    .innerJoin(tags, eq(tags.id, tagLinks.tagId))
+    .leftJoin(plantPorts, eq(plantPorts.id, tagLinks.portId))
+    .where(eq(tagLinks.unitId, unitId));
+  const unmatched = new Map(rows.map((r) => [r.row.id, r]));
+  for (const link of unit.links) {
+    const [fromMs, toMs] = linkInterval(link);
+    const hit = [...unmatched.values()].find(({ row, tagName, portName }) => sameLink(row, tagName, portName, link, fromMs, toMs));
+    if (hit) {
+      unmatched.delete(hit.row.id);
+      continue;
     }
-
-    // Links: keep rows equal to a version in the file, insert the others, delete what the file does not have.
-    const rows = await tx
-      .select({ row: tagLinks, tagName: tags.name, portName: plantPorts.name })
-      .from(tagLinks)
-      .innerJoin(tags, eq(tags.id, tagLinks.tagId))
-      .leftJoin(plantPorts, eq(plantPorts.id, tagLinks.portId))
-      .where(eq(tagLinks.unitId, id));
-    const unmatched = new Map(rows.map((r) => [r.row.id, r]));
-    for (const link of unit.links) {
-      const [fromMs, toMs] = linkInterval(link);
-      const portId = link.port !== undefined ? portIds.get(link.port)! : null;
-      const hit = [...unmatched.values()].find(
-        ({ row, tagName, portName }) =>
-          tagName === link.tag &&
-          (portName ?? undefined) === link.port &&
-          row.quantity === link.quantity &&
-          row.engUnit === link.unit &&
-          (row.basis ?? undefined) === link.basis &&
-          row.uncertaintyMode === link.uncertainty!.mode &&
-          row.uncertainty === link.uncertainty!.value &&
-          (row.validMin ?? undefined) === link.validMin &&
-          (row.validMax ?? undefined) === link.validMax &&
-          row.validFrom.getTime() === fromMs &&
-          (row.validTo ? row.validTo.getTime() : Infinity) === toMs,
-      );
-      if (hit) {
-        unmatched.delete(hit.row.id);
-        continue;
-      }
-      await tx.insert(tagLinks).values({
+    const [made] = await tx
+      .insert(tagLinks)
+      .values({
         siteId,
-        unitId: id,
-        portId,
-        tagId: await tagId(link.tag),
+        unitId,
+        portId: link.port !== undefined ? portIds.get(link.port)! : null,
+        tagId: await tagOf(tx, siteId, link.tag, changes),
         quantity: link.quantity,
         engUnit: link.unit,
         basis: link.basis ?? null,
@@ -218,13 +232,55 @@ async function writeModel(tx: Tx, siteId: string, model: PlantModel, recompute: 
         validMax: link.validMax ?? null,
         validFrom: new Date(fromMs),
         validTo: toMs === Infinity ? null : new Date(toMs),
-      });
-    }
-    // Superseded empty versions are history, not in the file: keep them.
-    const stale = [...unmatched.values()].filter(({ row }) => !(row.validTo && row.validTo.getTime() === row.validFrom.getTime())).map(({ row }) => row.id);
-    if (stale.length) await tx.delete(tagLinks).where(inArray(tagLinks.id, stale));
+      })
+      .returning({ id: tagLinks.id });
+    changes.created.links.push(made!.id);
+  }
+  // Superseded empty versions are history, not in the file: keep them.
+  const stale = [...unmatched.values()].filter(({ row }) => !(row.validTo && row.validTo.getTime() === row.validFrom.getTime())).map(({ row }) => row.id);
+  if (stale.length) {
+    await tx.delete(tagLinks).where(inArray(tagLinks.id, stale));
+    changes.removed.links.push(...stale);
+  }
+}
+
+function sameLink(row: typeof tagLinks.$inferSelect, tagName: string, portName: string | null, link: LinkModel, fromMs: number, toMs: number): boolean {
+  return (
+    tagName === link.tag &&
+    (portName ?? undefined) === link.port &&
+    row.quantity === link.quantity &&
+    row.engUnit === link.unit &&
+    (row.basis ?? undefined) === link.basis &&
+    row.uncertaintyMode === link.uncertainty!.mode &&
+    row.uncertainty === link.uncertainty!.value &&
+    (row.validMin ?? undefined) === link.validMin &&
+    (row.validMax ?? undefined) === link.validMax &&
+    row.validFrom.getTime() === fromMs &&
+    (row.validTo ? row.validTo.getTime() : Infinity) === toMs
+  );
+}
+
+/** Writes a checked model into a site inside the transaction (site row already exists); says what it changed. */
+async function writeModel(tx: Tx, siteId: string, model: PlantModel, recompute: (r: RecomputeRequest) => Promise<void>, before: PlantModel | null): Promise<ModelChanges> {
+  const changes = noChanges();
+  await writeSite(tx, siteId, model.site, changes);
+  const existing = await tx.select().from(plantUnits).where(eq(plantUnits.siteId, siteId));
+  const keep = new Set(model.units.map((u) => u.name));
+  const gone = existing.filter((u) => !keep.has(u.name) || model.units.find((m) => m.name === u.name)!.kind !== u.kind);
+  if (gone.length) {
+    await tx.delete(plantUnits).where(inArray(plantUnits.id, gone.map((u) => u.id)));
+    changes.removed.units.push(...gone.map((u) => u.id));
+  }
+  const unitIds = new Map<string, string>();
+  for (const unit of model.units) {
+    const id = await writeUnit(tx, siteId, unit, existing.find((u) => u.name === unit.name && u.kind === unit.kind), changes);
+    unitIds.set(unit.name, id);
+    const portIds = await writePorts(tx, id, unit, changes);
+    await writeLinks(tx, siteId, id, unit, portIds, changes);
+    changes.unitIds[unit.name] = { id, ports: Object.fromEntries(portIds) };
   }
   for (const r of await recomputeFor(tx, siteId, before, model, unitIds)) await recompute(r);
+  return changes;
 }
 
 function parseOrThrow(input: unknown): PlantModel {
@@ -240,7 +296,9 @@ async function siteNameIssue(tx: Tx, name: string, exceptId: string | null): Pro
 
 /**
  * Replaces a site's model with the file's. All or nothing: on any problem, AppError
- * VALIDATION_FAILED with every issue's JSON path, and the database is as before.
+ * VALIDATION_FAILED with every issue's JSON path, and the database is as before. Answers what it
+ * did: the ids of what it created, changed and removed, every unit's id by name, and `renamed` when
+ * the file's site.name renamed the site.
  */
 export async function importModel(siteId: string, input: unknown) {
   const model = parseOrThrow(input);
@@ -250,12 +308,12 @@ export async function importModel(siteId: string, input: unknown) {
     if (nameIssues.length) invalid(nameIssues);
     const before = (await siteModel(tx, siteId, 'all')).model;
     const queued: RecomputeRequest[] = [];
-    await writeModel(tx, siteId, model, async (r) => {
+    const changes = await writeModel(tx, siteId, model, async (r) => {
       queued.push(r);
       await recompute(r);
     }, before);
     const idleChanged = model.units.some((u) => canonicalJson(u.normallyIdle ?? null) !== canonicalJson(before.units.find((b) => b.name === u.name)?.normallyIdle ?? null));
-    return { siteId, units: model.units.length, recompute: queued, idleChanged };
+    return { siteId, units: model.units.length, recompute: queued, ...changes, idleChanged };
   });
   // a changed idle declaration is judged on the hours already computed (unit hours are not recomputed for it)
   const { idleChanged, ...result } = out;
@@ -270,8 +328,8 @@ export async function createSiteFromModel(input: unknown) {
     const nameIssues = await siteNameIssue(tx, model.site.name, null);
     if (nameIssues.length) invalid(nameIssues);
     const [row] = await tx.insert(sites).values({ name: model.site.name, timeZone: model.site.timeZone }).returning({ id: sites.id });
-    await writeModel(tx, row!.id, model, recompute, null);
-    return { siteId: row!.id, units: model.units.length };
+    const changes = await writeModel(tx, row!.id, model, recompute, null);
+    return { siteId: row!.id, units: model.units.length, ...changes };
   });
 }
 

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { ModelFile, ModelReplaced } from '~/lib/api/model';
+import { ModelFileAnswer, ModelPutAnswer } from '~/lib/api/model';
 import { answer } from '~/server/answer';
 import { endpoint, requireSite } from '~/server/endpoint';
 import { exportModel, importModel } from '~/server/services/plant-model';
@@ -7,12 +7,16 @@ import { exportModel, importModel } from '~/server/services/plant-model';
 /** The site's plant model file (docs/plant-model.md). */
 export const GET = endpoint(
   {
-    answers: { 200: ModelFile },
-    doc: { group: 'Plant model', summary: "The site's plant model file", description: 'Units, ports, links to tags and the site settings, as a file that PUT takes back (docs/plant-model.md).' },
+    answers: { 200: ModelFileAnswer },
+    doc: {
+      summary: 'The site’s plant model file',
+      description: 'The model as one JSON document (docs/plant-model.md), ready to edit and PUT back.',
+      group: 'Plant model',
+    },
   },
   async ({ locals }, { params }) => {
     if (locals.apiToken) requireSite(locals, params.siteId!); // people: the guard checked their sites
-    const model: ModelFile = await exportModel(params.siteId!);
+    const model = await exportModel(params.siteId!);
     const file = `${model.site.name.replace(/[^\w.-]+/g, '-').toLowerCase()}.plant-model.json`;
     return new Response(JSON.stringify(model, null, 2) + '\n', {
       headers: { 'content-type': 'application/json; charset=utf-8', 'content-disposition': `inline; filename="${file}"` },
@@ -23,18 +27,17 @@ export const GET = endpoint(
 /** Replaces the site's model with the file's: all or nothing, every problem with its JSON path (checked by the service). */
 export const PUT = endpoint(
   {
-    // Any JSON: the service checks it against the model file's schema and names every problem's JSON path.
-    body: z.unknown().meta({ override: { $ref: '#/components/schemas/PlantModel' } }),
-    answers: { 200: ModelReplaced },
+    body: z.unknown(),
+    answers: { 200: ModelPutAnswer },
     doc: {
-      group: 'Plant model',
-      summary: "Replace the site's plant model",
+      summary: 'Replace the site’s plant model',
       description:
-        'All or nothing: on any problem 400 with every issue and its JSON path, and nothing changes. Hours the change touches are queued for computing again (recompute).',
+        'All or nothing: every problem is answered with its JSON path and nothing changes. Answers the ids of what the file created, changed and removed, every unit’s id by name, and `renamed` when the file renamed the site. Admin tokens only.',
+      group: 'Plant model',
     },
   },
   async ({ locals }, { params, body }) => {
     if (locals.apiToken) requireSite(locals, params.siteId!); // people: the guard checked their sites
-    return answer(ModelReplaced, await importModel(params.siteId!, body));
+    return answer(ModelPutAnswer, await importModel(params.siteId!, body));
   },
 );

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { UnitHourDetailAnswer } from '~/lib/api/hours';
+import { UnitHourAnswer } from '~/lib/api/hours';
 import { answer } from '~/server/answer';
 import { InstantText, endpoint, requireSite } from '~/server/endpoint';
 import { unitHeader, unitHourDetail } from '~/server/services/engine-results';
@@ -12,13 +12,7 @@ const decoded = (v: string) => {
     return v; // a stray % is left for InstantText to refuse
   }
 };
-const Params = z.object({
-  hour: z
-    .string()
-    .transform(decoded)
-    .pipe(InstantText)
-    .meta({ description: 'The hour start: an ISO 8601 instant with Z or an offset (URL-encoded), or epoch milliseconds.', example: '2025-05-12T06:00:00Z' }),
-});
+const Params = z.object({ hour: z.string().transform(decoded).pipe(InstantText) });
 
 /**
  * One unit hour opened up: its stored figures and the audit trail (detail), rebuilt on demand from the
@@ -27,18 +21,17 @@ const Params = z.object({
 export const GET = endpoint(
   {
     params: Params,
-    answers: { 200: UnitHourDetailAnswer },
+    answers: { 200: UnitHourAnswer },
     doc: {
+      summary: 'One unit hour with its audit trail',
+      description: 'The hour: its start as an ISO 8601 instant or in ms. 404 when the unit has no computed hour starting then.',
       group: 'Hours',
-      summary: 'One unit hour opened up',
-      description:
-        'The stored figures of one hour and its audit trail (detail), rebuilt on demand from the stored tag hours; rebuilt.matches says whether the rebuilt hour has the stored inputs hash. 404 when the unit has no computed hour starting then.',
     },
   },
   async ({ locals }, { params }) => {
     const unit = await unitHeader(params.unitId);
     requireSite(locals, unit.siteId);
     const hour = await unitHourDetail(unit.id, params.hour);
-    return answer(UnitHourDetailAnswer, { unit: { id: unit.id, name: unit.name, kind: unit.kind, siteId: unit.siteId, currency: unit.currency }, hour });
+    return answer(UnitHourAnswer, { unit: { id: unit.id, name: unit.name, kind: unit.kind, siteId: unit.siteId, currency: unit.currency }, hour });
   },
 );

@@ -11,34 +11,35 @@ const Query = z.object({
 });
 
 /** A unit's hours over [from, to): JSON, or CSV with ?format=csv or Accept: text/csv (docs/api.md, "Unit hours"). */
-const spec = {
-  query: Query,
-  answers: { 200: [UnitHoursAnswer, 'text/csv'] },
-  doc: {
-    group: 'Hours',
-    summary: "A unit's hours",
-    description:
-      "The unit's computed hours with hour start in [from, to), oldest first, at most 400 days. JSON by default; CSV (the same fields, units in the column names, plus currency) with ?format=csv or Accept: text/csv.",
+export const GET = endpoint(
+  {
+    query: Query,
+    answers: { 200: UnitHoursAnswer },
+    doc: {
+      summary: 'A unit’s hourly balances',
+      description:
+        'Hours starting in [from, to), at most 400 days, oldest first. The same rows as CSV with ?format=csv or Accept: text/csv (media type text/csv).',
+      group: 'Hours',
+    },
   },
-} as const;
-
-export const GET = endpoint(spec, async ({ locals, request }, { params, query }) => {
-  const unit = await unitHeader(params.unitId);
-  requireSite(locals, unit.siteId);
-  const hours = await unitHoursOf(unit.id, new Date(query.from), new Date(query.to));
-  const csv = query.format === 'csv' || (query.format === undefined && /\btext\/csv\b/.test(request.headers.get('accept') ?? ''));
-  if (csv) {
-    return new Response(unitHoursCsv(hours, unit.currency), {
-      headers: {
-        'content-type': 'text/csv; charset=utf-8',
-        'content-disposition': `attachment; filename="unit-hours-${unit.id}.csv"`,
-      },
+  async ({ locals, request }, { params, query }) => {
+    const unit = await unitHeader(params.unitId);
+    requireSite(locals, unit.siteId);
+    const hours = await unitHoursOf(unit.id, new Date(query.from), new Date(query.to));
+    const csv = query.format === 'csv' || (query.format === undefined && /\btext\/csv\b/.test(request.headers.get('accept') ?? ''));
+    if (csv) {
+      return new Response(unitHoursCsv(hours, unit.currency), {
+        headers: {
+          'content-type': 'text/csv; charset=utf-8',
+          'content-disposition': `attachment; filename="unit-hours-${unit.id}.csv"`,
+        },
+      });
+    }
+    return answer(UnitHoursAnswer, {
+      unit: { id: unit.id, name: unit.name, kind: unit.kind, siteId: unit.siteId, siteName: unit.siteName, timeZone: unit.timeZone, currency: unit.currency },
+      from: new Date(query.from).toISOString(),
+      to: new Date(query.to).toISOString(),
+      hours,
     });
-  }
-  return answer(UnitHoursAnswer, {
-    unit: { id: unit.id, name: unit.name, kind: unit.kind, siteId: unit.siteId, siteName: unit.siteName, timeZone: unit.timeZone, currency: unit.currency },
-    from: new Date(query.from).toISOString(),
-    to: new Date(query.to).toISOString(),
-    hours,
-  });
-});
+  },
+);

@@ -1,0 +1,19 @@
+import { SiteAnswer } from '~/lib/api/sites';
+import { answer } from '~/server/answer';
+import { endpoint, requireSite } from '~/server/endpoint';
+import { siteAnswer } from '~/server/services/site-api';
+
+export const GET = endpoint(
+  {
+    answers: { 200: SiteAnswer },
+    doc: {
+      summary: 'The site and its settings',
+      description: 'The settings have the names and shape of the plant model file’s `site` (deadState, p_atm_Pa, prices ...).',
+      group: 'Site',
+    },
+  },
+  async ({ locals }, { params }) => {
+    requireSite(locals, params.siteId!);
+    return answer(SiteAnswer, await siteAnswer(params.siteId!));
+  },
+);

@@ -1,0 +1,181 @@
+/**
+ * The site as a plant model (the same shape as the model file, src/lib/plant/model.ts) with the ids
+ * behind its names, each unit's completeness and conflicts, and the overview the screens and the
+ * units API draw from it. Sites, units and ports are edited in ./plant.ts; import and export of the
+ * file in ./plant-model.ts.
+ */
+import { and, asc, eq, gt, inArray, isNull, lte, or } from 'drizzle-orm';
+import { BEGINNING_MS, type LinkModel, type PlantModel, type PortModel, type SiteModel, type UnitModel } from '~/lib/plant/model';
+import type { UnitKind } from '~/lib/plant/kinds';
+import { unitStatus, type UnitStatus } from '~/lib/plant/status';
+import { tidyNormallyIdle } from '~/lib/plant/idle';
+import { db } from '../db/client';
+import { plantPorts, plantUnits, tagLinks, tags } from '../db/schema';
+import { AppError } from '../errors';
+import type { Tx } from './plant-tx';
+import { getSite } from './plant';
+import { siteDisplay } from './display-units';
+
+type Reader = Tx | ReturnType<typeof db>;
+
+/** Ids behind the names of a model built from the database. */
+export interface ModelIds {
+  /** By unit name: the unit's id, its ports' ids by name, and its link versions' ids in the order of `links`. */
+  units: Map<string, { id: string; ports: Map<string, string>; links: string[] }>;
+}
+
+/** A link version as the model file writes it. */
+function linkModelOf(l: {
+  portName: string | null;
+  quantity: LinkModel['quantity'];
+  tagName: string;
+  engUnit: string;
+  basis: 'dry' | 'wet' | null;
+  uncertaintyMode: 'absolute' | 'relative';
+  uncertainty: number;
+  validMin: number | null;
+  validMax: number | null;
+  validFrom: Date;
+  validTo: Date | null;
+}): LinkModel {
+  return {
+    ...(l.portName !== null ? { port: l.portName } : {}),
+    quantity: l.quantity,
+    tag: l.tagName,
+    unit: l.engUnit,
+    ...(l.basis ? { basis: l.basis } : {}),
+    uncertainty: { mode: l.uncertaintyMode, value: l.uncertainty },
+    ...(l.validMin !== null ? { validMin: l.validMin } : {}),
+    ...(l.validMax !== null ? { validMax: l.validMax } : {}),
+    ...(l.validFrom.getTime() !== BEGINNING_MS ? { validFrom: l.validFrom.toISOString() } : {}),
+    ...(l.validTo ? { validTo: l.validTo.toISOString() } : {}),
+  };
+}
+
+function sortedObject<T>(o: Record<string, T>): Record<string, T> {
+  return Object.fromEntries(Object.entries(o).sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0)));
+}
+
+/**
+ * The site as a plant model file. links 'all': every version (superseded empty ones left out);
+ * 'current': only those holding at `at` (default now), for the completeness check.
+ */
+export async function siteModel(r: Reader, siteId: string, links: 'all' | 'current' = 'all', at = new Date()): Promise<{ model: PlantModel; ids: ModelIds }> {
+  const site = await getSite(siteId, r);
+  let T0Tag: SiteModel['deadState']['T0Tag'];
+  if (site.t0TagId) {
+    const [t] = await r.select({ name: tags.name }).from(tags).where(eq(tags.id, site.t0TagId)).limit(1);
+    if (t) T0Tag = { tag: t.name, unit: site.t0TagUnit ?? 'degC' };
+  }
+  const siteOut: SiteModel = {
+    name: site.name,
+    timeZone: site.timeZone,
+    ...(site.elevation_m !== null ? { elevation_m: site.elevation_m } : {}),
+    p_atm_Pa: site.p_atm_Pa,
+    deadState: { T0_K: site.T0_K, p0_Pa: site.p0_Pa, ...(T0Tag ? { T0Tag } : {}) },
+    currency: site.currency,
+    prices: site.prices.map((p) => ({ name: p.name, kind: p.kind, price_per_MWh: p.price_per_MWh, currency: p.currency })),
+  };
+  const unitRows = await r.select().from(plantUnits).where(eq(plantUnits.siteId, siteId)).orderBy(asc(plantUnits.name));
+  const unitIds = unitRows.map((u) => u.id);
+  const portRows = unitIds.length
+    ? await r.select().from(plantPorts).where(inArray(plantPorts.unitId, unitIds)).orderBy(asc(plantPorts.position), asc(plantPorts.name))
+    : [];
+  const linkWhere =
+    links === 'current'
+      ? and(eq(tagLinks.siteId, siteId), lte(tagLinks.validFrom, at), or(isNull(tagLinks.validTo), gt(tagLinks.validTo, at)))
+      : and(eq(tagLinks.siteId, siteId), or(isNull(tagLinks.validTo), gt(tagLinks.validTo, tagLinks.validFrom)));
+  const linkRows = await r
+    .select({
+      id: tagLinks.id,
+      unitId: tagLinks.unitId,
+      portId: tagLinks.portId,
+      portName: plantPorts.name,
+      quantity: tagLinks.quantity,
+      tagName: tags.name,
+      engUnit: tagLinks.engUnit,
+      basis: tagLinks.basis,
+      uncertaintyMode: tagLinks.uncertaintyMode,
+      uncertainty: tagLinks.uncertainty,
+      validMin: tagLinks.validMin,
+      validMax: tagLinks.validMax,
+      validFrom: tagLinks.validFrom,
+      validTo: tagLinks.validTo,
+      portPosition: plantPorts.position,
+    })
+    .from(tagLinks)
+    .innerJoin(tags, eq(tags.id, tagLinks.tagId))
+    .leftJoin(plantPorts, eq(plantPorts.id, tagLinks.portId))
+    .where(linkWhere);
+  linkRows.sort(
+    (a, b) =>
+      (a.portPosition ?? -1) - (b.portPosition ?? -1) ||
+      (a.portName ?? '').localeCompare(b.portName ?? '') ||
+      a.quantity.localeCompare(b.quantity) ||
+      a.validFrom.getTime() - b.validFrom.getTime(),
+  );
+  const ids: ModelIds = { units: new Map() };
+  const units: UnitModel[] = unitRows.map((u) => {
+    const ports = portRows.filter((p) => p.unitId === u.id);
+    const links = linkRows.filter((l) => l.unitId === u.id);
+    ids.units.set(u.name, { id: u.id, ports: new Map(ports.map((p) => [p.name, p.id])), links: links.map((l) => l.id) });
+    return {
+      name: u.name,
+      kind: u.kind as UnitKind,
+      ...(u.description ? { description: u.description } : {}),
+      parameters: sortedObject(u.parameters),
+      ...(u.fuel ? { fuel: u.fuel } : {}),
+      ...(u.normallyIdle ? { normallyIdle: tidyNormallyIdle(u.normallyIdle) } : {}),
+      ports: ports.map((p) => ({
+        name: p.name,
+        slot: p.slot,
+        ...(p.fluid ? { fluid: p.fluid } : {}),
+        ...(p.boundaryT_K !== null ? { boundaryT_K: p.boundaryT_K } : {}),
+        ...(p.account ? { account: p.account as PortModel['account'] } : {}),
+      })),
+      links: links.map(linkModelOf),
+    };
+  });
+  return { model: { format: 'lossline-plant-model', version: 1, site: siteOut, units }, ids };
+}
+
+/** Each unit of a site with its completeness and conflicts now. */
+export async function siteStatus(siteId: string, r: Reader = db()): Promise<Map<string, UnitStatus>> {
+  const { model } = await siteModel(r, siteId, 'current');
+  const tagRows = await r.select({ name: tags.name, unitHint: tags.unitHint }).from(tags).where(eq(tags.siteId, siteId));
+  const tagHints = new Map(tagRows.map((t) => [t.name, t.unitHint]));
+  const siteLinks = model.units.flatMap((u) => u.links.map((l) => ({ unit: u.name, port: l.port, quantity: l.quantity, tag: l.tag })));
+  const boilers = new Set(model.units.filter((u) => u.kind === 'boiler').map((u) => u.name));
+  return new Map(model.units.map((u) => [u.name, unitStatus(u, { tagHints, siteLinks, boilers })]));
+}
+
+/** The site's units with ports, current links and status, for the screens. */
+export async function siteOverview(siteId: string) {
+  const r = db();
+  const site = await getSite(siteId, r);
+  const { model, ids } = await siteModel(r, siteId, 'current');
+  const status = await siteStatus(siteId, r);
+  return {
+    site,
+    /** The site's settings as the model file writes them (ambient tag by name). */
+    settings: model.site,
+    /** The units its pages show numbers in. */
+    display: await siteDisplay(siteId, r),
+    units: model.units.map((u) => ({
+      id: ids.units.get(u.name)!.id,
+      ...u,
+      ports: u.ports.map((p) => ({ id: ids.units.get(u.name)!.ports.get(p.name)!, ...p })),
+      links: u.links.map((l, i) => ({ id: ids.units.get(u.name)!.links[i]!, ...l })),
+      status: status.get(u.name)!,
+    })),
+  };
+}
+
+/** One unit with its ports, current links (with ids) and status. */
+export async function unitDetail(siteId: string, unitId: string) {
+  const overview = await siteOverview(siteId);
+  const unit = overview.units.find((u) => u.id === unitId);
+  if (!unit) throw new AppError('NOT_FOUND', 'No such unit at this site.');
+  return { site: overview.site, unit, unitNames: overview.units.map((u) => ({ id: u.id, name: u.name, kind: u.kind })) };
+}
+
