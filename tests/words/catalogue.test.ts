@@ -31,7 +31,7 @@ const sourceLists: [string, string[]][] = [
   ['missing items (plant/status.ts)', unionOf('lib/plant/status.ts', 'MissingCode')],
   ['conflicts (plant/status.ts)', unionOf('lib/plant/status.ts', 'ConflictCode')],
   ['unit errors (units/errors.ts)', unionOf('lib/units/errors.ts', 'UnitErrorCode')],
-  ['ingest warnings (ingest/reader.ts)', unionOf('lib/ingest/reader.ts', 'IngestWarningCode')],
+  ['ingest warnings (ingest/reader-types.ts)', unionOf('lib/ingest/reader-types.ts', 'IngestWarningCode')],
   ['balance refusals (equipment/errors.ts)', [...src('lib/equipment/errors.ts').matchAll(/\| '([A-Z_]+)'/g)].map((m) => m[1]!)],
   ['notice statuses (notice-view.ts)', unionOf('lib/notice-view.ts', 'NoticeStatus')],
   ['notice kinds (notice-view.ts)', unionOf('lib/notice-view.ts', 'NoticeKind')],

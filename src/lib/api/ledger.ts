@@ -47,6 +47,18 @@ export const PeriodSchema = z.object({
 export const LedgerAnswerSchema = z.object({
   site: z.object({ id: Id, name: z.string(), timeZone: z.string(), currency: Currency }),
   period: PeriodSchema,
+  opened: z
+    .enum(['asked', 'latest-full', 'latest-partial', 'now'])
+    .describe('Why this period: the one asked for, the latest full period with data (the default), the partial one holding the latest hour when no full one has data, or the present one when the site has none.'),
+  freshness: z
+    .object({
+      lastHourStart: Instant.nullable().describe('Start of the latest computed hour; null when the site has none.'),
+      lastHourText: z.string().nullable().describe("That hour in the site's clock with its zone."),
+      ago: z.string().nullable().describe('How long ago that hour ended, in words.'),
+      stale: z.boolean().describe('True when that hour ended more than a day ago.'),
+      text: z.string().describe('The sentence the pages show.'),
+    })
+    .describe("How fresh the site's figures are."),
   rows: z.array(LedgerRowSchema).describe('The units ranked by the cost of their destruction (or by destruction when the site has no costs).'),
   shareBasis: z.enum(['cost', 'destruction']),
   totals: z.object(Sums),

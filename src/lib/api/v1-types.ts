@@ -26,6 +26,50 @@ export interface paths {
         patch?: never;
         trace?: never;
     };
+    "/api/v1/sites/{siteId}": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * The site and its settings
+         * @description The settings have the names and shape of the plant model file’s `site` (deadState, p_atm_Pa, prices ...).
+         *
+         *     Who: Site token; signed-in roles: admin, energy-lead, operator, planner.
+         */
+        get: operations["getSitesSiteId"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/v1/sites/{siteId}/baselines": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * The active baseline of each unit
+         * @description Each unit by name with its active baseline (null while none is accepted): the fits of efficiency and destruction with their statistics and the ASHRAE Guideline 14 check. Paged by cursor.
+         *
+         *     Who: Site token; signed-in roles: admin, energy-lead, operator, planner.
+         */
+        get: operations["getSitesSiteIdBaselines"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
     "/api/v1/sites/{siteId}/files": {
         parameters: {
             query?: never;
@@ -37,11 +81,33 @@ export interface paths {
         put?: never;
         /**
          * Send a historian file
-         * @description The raw bytes of one historian export (CSV, any size up to the upload limit) as the request body. The file is kept as sent and read in the background: poll GET /api/v1/uploads/{uploadId}. The same bytes sent again answer duplicateOf and are not read again.
+         * @description The request body is the CSV file itself; name it with ?name= or X-File-Name. It is read in the background: follow it at /api/v1/uploads/{uploadId}, and the site’s figures at /api/v1/sites/{siteId}/state.
          *
          *     Who: Site token; signed-in roles: admin, energy-lead, operator.
          */
         post: operations["postSitesSiteIdFiles"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/v1/sites/{siteId}/ledger": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * The loss ledger of a period
+         * @description The units ranked by the cost of their destruction over a period of the site’s clock: `range` day, week (default), month or year around `anchor` (a local date, default today on site), or `range=custom&from=yyyy-MM-dd&to=yyyy-MM-dd` (local days, both included).
+         *
+         *     Who: Site token; signed-in roles: admin, energy-lead, operator, planner.
+         */
+        get: operations["getSitesSiteIdLedger"];
+        put?: never;
+        post?: never;
         delete?: never;
         options?: never;
         head?: never;
@@ -56,19 +122,63 @@ export interface paths {
             cookie?: never;
         };
         /**
-         * The site's plant model file
-         * @description Units, ports, links to tags and the site settings, as a file that PUT takes back (docs/plant-model.md).
+         * The site’s plant model file
+         * @description The model as one JSON document (docs/plant-model.md), ready to edit and PUT back.
          *
          *     Who: Site token; signed-in roles: admin, energy-lead, operator, planner.
          */
         get: operations["getSitesSiteIdModel"];
         /**
-         * Replace the site's plant model
-         * @description All or nothing: on any problem 400 with every issue and its JSON path, and nothing changes. Hours the change touches are queued for computing again (recompute).
+         * Replace the site’s plant model
+         * @description All or nothing: every problem is answered with its JSON path and nothing changes. Answers the ids of what the file created, changed and removed, every unit’s id by name, and `renamed` when the file renamed the site. Admin tokens only.
          *
          *     Who: Site token; signed-in roles: admin.
          */
         put: operations["putSitesSiteIdModel"];
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/v1/sites/{siteId}/notices": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * The site’s notices with their current figures
+         * @description Drift, running-while-idle and limit notices, newest first; `status` (open, acknowledged, closed, not-closed, all) and `unitId` filter. Paged by cursor.
+         *
+         *     Who: Site token; signed-in roles: admin, energy-lead, operator, planner.
+         */
+        get: operations["getSitesSiteIdNotices"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/v1/sites/{siteId}/state": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * Whether the site’s figures are final
+         * @description What is still on its way from the files the site was sent to its figures: files waiting or being read, unit hours waiting to be computed, drift checks pending, and the latest computed hour. `settled: true` means the figures of everything sent so far are final.
+         *
+         *     Who: Site token; signed-in roles: admin, energy-lead, operator, planner.
+         */
+        get: operations["getSitesSiteIdState"];
+        put?: never;
         post?: never;
         delete?: never;
         options?: never;
@@ -84,12 +194,56 @@ export interface paths {
             cookie?: never;
         };
         /**
-         * A tag's hours
-         * @description The hourly statistics of one tag with hour start in [from, to), oldest first, and the uploads each hour came from. 404 when the site has no tag of that name.
+         * A tag’s hourly statistics
+         * @description Hours starting in [from, to), at most 400 days.
          *
          *     Who: Site token; signed-in roles: admin, energy-lead, operator, planner.
          */
         get: operations["getSitesSiteIdTagHours"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/v1/sites/{siteId}/units": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * The site’s units
+         * @description By name, each as the plant model file writes it plus the ids of the unit, its ports and its current link versions, and what it lacks (status). Paged by cursor.
+         *
+         *     Who: Site token; signed-in roles: admin, energy-lead, operator, planner.
+         */
+        get: operations["getSitesSiteIdUnits"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/v1/sites/{siteId}/uploads": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * The site’s uploads with their reports
+         * @description Newest first, each with its state, progress and report (`summary`); `status` filters. Paged by cursor.
+         *
+         *     Who: Site token; signed-in roles: admin, energy-lead, operator, planner.
+         */
+        get: operations["getSitesSiteIdUploads"];
         put?: never;
         post?: never;
         delete?: never;
@@ -106,8 +260,8 @@ export interface paths {
             cookie?: never;
         };
         /**
-         * A unit's hours
-         * @description The unit's computed hours with hour start in [from, to), oldest first, at most 400 days. JSON by default; CSV (the same fields, units in the column names, plus currency) with ?format=csv or Accept: text/csv.
+         * A unit’s hourly balances
+         * @description Hours starting in [from, to), at most 400 days, oldest first. The same rows as CSV with ?format=csv or Accept: text/csv (media type text/csv).
          *
          *     Who: Site token; signed-in roles: admin, energy-lead, operator, planner.
          */
@@ -128,8 +282,8 @@ export interface paths {
             cookie?: never;
         };
         /**
-         * One unit hour opened up
-         * @description The stored figures of one hour and its audit trail (detail), rebuilt on demand from the stored tag hours; rebuilt.matches says whether the rebuilt hour has the stored inputs hash. 404 when the unit has no computed hour starting then.
+         * One unit hour with its audit trail
+         * @description The hour: its start as an ISO 8601 instant or in ms. 404 when the unit has no computed hour starting then.
          *
          *     Who: Site token; signed-in roles: admin, energy-lead, operator, planner.
          */
@@ -150,10 +304,8 @@ export interface paths {
             cookie?: never;
         };
         /**
-         * An upload and its report
-         * @description Where a file is: queued, processing, then done or read-with-problems (hours stored) or failed (nothing stored; reason says why). Poll until it is in one of these last states; summary holds the reader's counts.
-         *
-         *     Who: Site token; signed-in roles: admin, energy-lead, operator, planner.
+         * One upload with its state and report
+         * @description Who: Site token; signed-in roles: admin, energy-lead, operator, planner.
          */
         get: operations["getUploadsUploadId"];
         put?: never;
@@ -175,7 +327,7 @@ export interface components {
                  * @description A stable code; it never changes once published.
                  * @enum {string}
                  */
-                code: "VALIDATION_FAILED" | "UNAUTHENTICATED" | "FORBIDDEN" | "NOT_FOUND" | "METHOD_NOT_ALLOWED" | "CONFLICT" | "PAYLOAD_TOO_LARGE" | "UNPROCESSABLE" | "INTERNAL";
+                code: "VALIDATION_FAILED" | "UNAUTHENTICATED" | "FORBIDDEN" | "NOT_FOUND" | "METHOD_NOT_ALLOWED" | "CONFLICT" | "PAYLOAD_TOO_LARGE" | "UNPROCESSABLE" | "RATE_LIMITED" | "INTERNAL";
                 /** @description Each problem of the input, naming its field. */
                 issues?: {
                     message: string;
@@ -185,22 +337,6 @@ export interface components {
                 /** @description What happened, why, and what to do, in words. */
                 message: string;
             };
-        };
-        ModelReplaced: {
-            /** @description The spans of hours queued for computing again. */
-            recompute: {
-                /** @description Start, epoch milliseconds. */
-                fromMs: number;
-                /** Format: uuid */
-                siteId: string;
-                /** @description End (exclusive), epoch milliseconds. */
-                toMs: number;
-                unitIds?: string[];
-            }[];
-            /** Format: uuid */
-            siteId: string;
-            /** @description How many units the model now has. */
-            units: number;
         };
         /** @description An OpenAPI 3.1 document. */
         OpenApiDocument: {
@@ -216,352 +352,6 @@ export interface components {
             };
         } & {
             [key: string]: unknown;
-        };
-        /** @description A plant model file (docs/plant-model.md). */
-        PlantModel: {
-            /** @constant */
-            format: "lossline-plant-model";
-            site: {
-                currency: string;
-                deadState: {
-                    p0_Pa: number;
-                    T0_K: number;
-                    T0Tag?: {
-                        tag: string;
-                        unit: string;
-                    };
-                };
-                elevation_m?: number;
-                name: string;
-                p_atm_Pa?: number;
-                /** @default [] */
-                prices: {
-                    currency: string;
-                    /** @enum {string} */
-                    kind: "fuel" | "electricity";
-                    name: string;
-                    price_per_MWh: number;
-                }[];
-                timeZone: string;
-            };
-            /** @default [] */
-            units: {
-                description?: string;
-                fuel?: {
-                    /** @constant */
-                    by: "composition";
-                    moleFractions: {
-                        [key: string]: number;
-                    };
-                    price?: string;
-                } | {
-                    /** @constant */
-                    by: "heating-value";
-                    /** @enum {string} */
-                    fuelType: "natural-gas" | "light-fuel-oil" | "heavy-fuel-oil" | "bituminous-coal";
-                    LHV_J_per_kg: number;
-                    price?: string;
-                } | {
-                    /** @constant */
-                    by: "ultimate";
-                    LHV_J_per_kg: number;
-                    price?: string;
-                    ultimate: {
-                        ash?: number;
-                        C: number;
-                        H: number;
-                        moisture?: number;
-                        N?: number;
-                        O?: number;
-                        S?: number;
-                    };
-                };
-                /** @enum {string} */
-                kind: "turbine" | "compressor" | "pump" | "fan" | "heat-exchanger" | "boiler" | "let-down-valve" | "mixer" | "condenser" | "motor-generator" | "control-volume";
-                /** @default [] */
-                links: {
-                    /** @enum {string} */
-                    basis?: "dry" | "wet";
-                    port?: string;
-                    /** @enum {string} */
-                    quantity: "pressure" | "temperature" | "massFlow" | "volumeFlow" | "standardVolumeFlow" | "o2Fraction" | "vapourFraction" | "heatFlow" | "power" | "powerIn" | "powerOut";
-                    tag: string;
-                    uncertainty?: {
-                        /** @enum {string} */
-                        mode: "absolute" | "relative";
-                        value: number;
-                    };
-                    unit: string;
-                    /** Format: date-time */
-                    validFrom?: string;
-                    validMax?: number;
-                    validMin?: number;
-                    /** Format: date-time */
-                    validTo?: string;
-                }[];
-                name: string;
-                normallyIdle?: {
-                    hours?: number;
-                    when: "always" | {
-                        days?: ("mon" | "tue" | "wed" | "thu" | "fri" | "sat" | "sun")[];
-                        /** @default 00:00 */
-                        from: string;
-                        /** @default 24:00 */
-                        to: string;
-                    }[];
-                    whileRunning?: string[];
-                };
-                /** @default {} */
-                parameters: {
-                    [key: string]: number | string;
-                };
-                /** @default [] */
-                ports: {
-                    /** @enum {string} */
-                    account?: "fuel" | "product" | "loss";
-                    boundaryT_K?: number;
-                    fluid?: {
-                        /** @constant */
-                        kind: "water";
-                    } | {
-                        /** @constant */
-                        kind: "air";
-                    } | {
-                        fuelFrom?: string;
-                        /** @constant */
-                        kind: "flue-gas";
-                    } | {
-                        /** @constant */
-                        kind: "fuel";
-                    } | {
-                        /** @constant */
-                        kind: "fuel-gas";
-                        label?: string;
-                        moleFractions: {
-                            [key: string]: number;
-                        };
-                    } | {
-                        /** @constant */
-                        kind: "gas-mixture";
-                        label?: string;
-                        moleFractions: {
-                            [key: string]: number;
-                        };
-                    } | {
-                        cp_J_per_kgK: number;
-                        /** @constant */
-                        kind: "liquid";
-                        label?: string;
-                        rho_kg_per_m3: number;
-                    };
-                    name: string;
-                    slot: string;
-                }[];
-            }[];
-            /** @constant */
-            version: 1;
-        };
-        TagHours: {
-            hours: {
-                /** @description Share of the hour the samples cover, 0..1. */
-                coveredFraction: number;
-                first: number | null;
-                /** @description What the reader noticed (duplicate-times, bad-quality, combined-files ...). */
-                flags: string[];
-                /** @description The value stayed frozen longer than the frozen-value limit. */
-                flatline: boolean;
-                /**
-                 * Format: date-time
-                 * @description An instant, ISO 8601 in UTC (Z).
-                 */
-                hourStart: string;
-                last: number | null;
-                max: number | null;
-                mean: number | null;
-                min: number | null;
-                nonNumeric: number;
-                outOfRange: number;
-                samples: number;
-                std: number | null;
-                /** @description Uploads whose samples fall in the hour, newest first. */
-                uploadIds: string[];
-            }[];
-            tag: {
-                /** Format: uuid */
-                id: string;
-                kind: string;
-                name: string;
-                unitHint: string | null;
-            };
-        };
-        UnitHour: {
-            /** @description First-law closure residual, % of energy throughput. */
-            closure_pct: number | null;
-            /**
-             * Format: date-time
-             * @description An instant, ISO 8601 in UTC (Z).
-             */
-            computedAt: string;
-            /** @description Expanded (k = 2) uncertainty of the destruction. */
-            destruction_U_W: number | null;
-            destruction_W: number | null;
-            /** @description Cost of the hour's destruction, in the site's currency per hour. */
-            destructionCost_per_h: number | null;
-            efficiency: number | null;
-            /** @description Expanded (k = 2) uncertainty of the efficiency. */
-            efficiency_U: number | null;
-            entropyGeneration_W_per_K: number | null;
-            fuel_W: number | null;
-            /**
-             * Format: date-time
-             * @description An instant, ISO 8601 in UTC (Z).
-             */
-            hourStart: string;
-            inputsHash: string;
-            load: number | null;
-            loadUnit: string | null;
-            loss_W: number | null;
-            modelVersion: string;
-            p0_Pa: number | null;
-            product_W: number | null;
-            reasons: {
-                code: string;
-                message: string;
-                tag?: string;
-            }[];
-            /** @enum {string} */
-            state: "steady" | "unsettled" | "idle" | "suspect";
-            T0_K: number | null;
-        };
-        UnitHourDetail: {
-            hour: {
-                /** @description First-law closure residual, % of energy throughput. */
-                closure_pct: number | null;
-                /**
-                 * Format: date-time
-                 * @description An instant, ISO 8601 in UTC (Z).
-                 */
-                computedAt: string;
-                /** @description Expanded (k = 2) uncertainty of the destruction. */
-                destruction_U_W: number | null;
-                destruction_W: number | null;
-                /** @description Cost of the hour's destruction, in the site's currency per hour. */
-                destructionCost_per_h: number | null;
-                /** @description The audit trail: port states, terms and checks, rebuilt from the stored tag hours. */
-                detail: {
-                    [key: string]: unknown;
-                } | null;
-                efficiency: number | null;
-                /** @description Expanded (k = 2) uncertainty of the efficiency. */
-                efficiency_U: number | null;
-                entropyGeneration_W_per_K: number | null;
-                fuel_W: number | null;
-                /**
-                 * Format: date-time
-                 * @description An instant, ISO 8601 in UTC (Z).
-                 */
-                hourStart: string;
-                inputsHash: string;
-                load: number | null;
-                loadUnit: string | null;
-                loss_W: number | null;
-                modelVersion: string;
-                p0_Pa: number | null;
-                product_W: number | null;
-                reasons: {
-                    code: string;
-                    message: string;
-                    tag?: string;
-                }[];
-                rebuilt: {
-                    inputsHash: string | null;
-                    /** @description The rebuilt hour has the stored model version and inputs hash. */
-                    matches: boolean;
-                    modelVersion: string | null;
-                    ms: number;
-                };
-                /** @enum {string} */
-                state: "steady" | "unsettled" | "idle" | "suspect";
-                T0_K: number | null;
-            };
-            unit: {
-                currency: string;
-                /** Format: uuid */
-                id: string;
-                kind: string;
-                name: string;
-                /** Format: uuid */
-                siteId: string;
-            };
-        };
-        UnitHours: {
-            /**
-             * Format: date-time
-             * @description An instant, ISO 8601 in UTC (Z).
-             */
-            from: string;
-            hours: components["schemas"]["UnitHour"][];
-            /**
-             * Format: date-time
-             * @description An instant, ISO 8601 in UTC (Z).
-             */
-            to: string;
-            unit: {
-                currency: string;
-                /** Format: uuid */
-                id: string;
-                kind: string;
-                name: string;
-                /** Format: uuid */
-                siteId: string;
-                siteName: string;
-                timeZone: string;
-            };
-        };
-        Upload: {
-            /** Format: date-time */
-            createdAt: string;
-            /** @description The detected layout and its questions, while a person must answer them. */
-            detection?: {
-                disagreement?: unknown;
-                encoding?: unknown;
-                preview?: unknown[];
-                profile: unknown;
-            } | null;
-            duplicateOf: string | null;
-            fileName: string;
-            finishedAt: string | null;
-            progress: number;
-            /** @description Why the upload failed, in words; null unless failed. */
-            reason: string | null;
-            rowsRead: number;
-            sha256: string | null;
-            /** Format: uuid */
-            siteId: string;
-            sizeBytes: number | null;
-            /** @description api, browser or demo. */
-            source: string;
-            /**
-             * @description done and read-with-problems: read, hours stored; failed: nothing stored (reason says why); needs-review: a person answers a layout question on the uploads page.
-             * @enum {string}
-             */
-            status: "awaiting-file" | "queued" | "needs-review" | "processing" | "done" | "read-with-problems" | "failed";
-            /** @description The reader's counts when the file was read (rows, tags, hours, values, rejected, warnings, perTag ...), or the code and details of why it stopped. */
-            summary: ({
-                code?: string;
-                duplicateOf?: string;
-                note?: string;
-            } & {
-                [key: string]: unknown;
-            }) | null;
-            /** Format: uuid */
-            uploadId: string;
-        };
-        UploadAccepted: {
-            /** @description An earlier upload with the same bytes: this one is not read again. */
-            duplicateOf: string | null;
-            /** Format: uuid */
-            uploadId: string;
         };
     };
     responses: never;
@@ -610,10 +400,325 @@ export interface operations {
             };
         };
     };
+    getSitesSiteId: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                /** @description The site's id. */
+                siteId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description OK */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        /**
+                         * Format: date-time
+                         * @description An ISO 8601 instant (UTC, with Z).
+                         */
+                        createdAt: string;
+                        /** Format: uuid */
+                        id: string;
+                        /** @description The site settings exactly as the plant model file writes them (docs/plant-model.md, "site"). */
+                        settings: {
+                            currency: string;
+                            deadState: {
+                                p0_Pa: number;
+                                T0_K: number;
+                                T0Tag?: {
+                                    tag: string;
+                                    unit: string;
+                                };
+                            };
+                            elevation_m?: number;
+                            name: string;
+                            p_atm_Pa?: number;
+                            /** @default [] */
+                            prices: {
+                                currency: string;
+                                /** @enum {string} */
+                                kind: "fuel" | "electricity";
+                                name: string;
+                                price_per_MWh: number;
+                            }[];
+                            timeZone: string;
+                        };
+                        /**
+                         * Format: date-time
+                         * @description An ISO 8601 instant (UTC, with Z).
+                         */
+                        updatedAt: string;
+                    };
+                };
+            };
+            /** @description UNAUTHENTICATED: No valid site token or session. */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description FORBIDDEN: The token or person may not do this, or it is another site's. */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description NOT_FOUND: Nothing has the id given (or it is not a UUID). */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description UNPROCESSABLE: The input is well-formed but cannot be worked with. */
+            422: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description RATE_LIMITED: see docs/api.md. */
+            429: {
+                headers: {
+                    /** @description Seconds to wait before trying again. */
+                    "Retry-After"?: number;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description INTERNAL: A fault on the server; it is logged. */
+            500: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+        };
+    };
+    getSitesSiteIdBaselines: {
+        parameters: {
+            query?: {
+                cursor?: string;
+                limit?: number;
+            };
+            header?: never;
+            path: {
+                /** @description The site's id. */
+                siteId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description OK */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        items: {
+                            active: {
+                                /**
+                                 * Format: date-time
+                                 * @description An ISO 8601 instant (UTC, with Z).
+                                 */
+                                createdAt: string;
+                                createdBy: string | null;
+                                decidedAt: string | null;
+                                decidedBy: string | null;
+                                /** @description The fit of exergy destruction [W]. */
+                                destruction: {
+                                    /** @description In the raw variables: load in the unit of loadUnit, T_amb in K. */
+                                    coefficients: {
+                                        intercept: number;
+                                    } & {
+                                        [key: string]: number;
+                                    };
+                                    guideline14: {
+                                        cvRmseMax: number;
+                                        cvRmseOk: boolean;
+                                        meets: boolean;
+                                        nmbeMax: number;
+                                        nmbeOk: boolean;
+                                    };
+                                    stats: {
+                                        /** @description CV(RMSE) [-] */
+                                        cvRmse: number;
+                                        /** @description hours fitted */
+                                        n: number;
+                                        /** @description NMBE [-] */
+                                        nmbe: number;
+                                        /** @description parameters */
+                                        p: number;
+                                        r2: number;
+                                        /** @description residual standard deviation */
+                                        s: number;
+                                        ybar: number;
+                                    };
+                                };
+                                /** @description The fit of exergy efficiency [-]; null for units without one. */
+                                efficiency: {
+                                    /** @description In the raw variables: load in the unit of loadUnit, T_amb in K. */
+                                    coefficients: {
+                                        intercept: number;
+                                    } & {
+                                        [key: string]: number;
+                                    };
+                                    guideline14: {
+                                        cvRmseMax: number;
+                                        cvRmseOk: boolean;
+                                        meets: boolean;
+                                        nmbeMax: number;
+                                        nmbeOk: boolean;
+                                    };
+                                    stats: {
+                                        /** @description CV(RMSE) [-] */
+                                        cvRmse: number;
+                                        /** @description hours fitted */
+                                        n: number;
+                                        /** @description NMBE [-] */
+                                        nmbe: number;
+                                        /** @description parameters */
+                                        p: number;
+                                        r2: number;
+                                        /** @description residual standard deviation */
+                                        s: number;
+                                        ybar: number;
+                                    };
+                                } | null;
+                                hours: number;
+                                /** Format: uuid */
+                                id: string;
+                                label: string;
+                                loadUnit: string | null;
+                                meetsGuideline14: boolean;
+                                note: string | null;
+                                /**
+                                 * Format: date-time
+                                 * @description An ISO 8601 instant (UTC, with Z).
+                                 */
+                                periodFrom: string;
+                                /**
+                                 * Format: date-time
+                                 * @description An ISO 8601 instant (UTC, with Z).
+                                 */
+                                periodTo: string;
+                                retiredAt: string | null;
+                                /** Format: uuid */
+                                siteId: string;
+                                siteName: string;
+                                /** @enum {string} */
+                                status: "draft" | "active" | "discarded" | "retired";
+                                terms: ("load" | "T_amb" | "load^2" | "T_amb^2" | "load*T_amb")[];
+                                timeZone: string;
+                                /** Format: uuid */
+                                unitId: string;
+                                unitKind: string;
+                                unitName: string;
+                                version: number;
+                            } | null;
+                            /** Format: uuid */
+                            unitId: string;
+                            unitKind: string;
+                            unitName: string;
+                        }[];
+                        /** @description Send as ?cursor= (with the same limit) for the next page; null on the last page. */
+                        nextCursor: string | null;
+                    };
+                };
+            };
+            /** @description VALIDATION_FAILED: The request is not valid: issues name each field. */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description UNAUTHENTICATED: No valid site token or session. */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description FORBIDDEN: The token or person may not do this, or it is another site's. */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description NOT_FOUND: Nothing has the id given (or it is not a UUID). */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description UNPROCESSABLE: The input is well-formed but cannot be worked with. */
+            422: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description RATE_LIMITED: see docs/api.md. */
+            429: {
+                headers: {
+                    /** @description Seconds to wait before trying again. */
+                    "Retry-After"?: number;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description INTERNAL: A fault on the server; it is logged. */
+            500: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+        };
+    };
     postSitesSiteIdFiles: {
         parameters: {
             query?: {
-                /** @description The file's name (or send it as X-File-Name); left out: export-<time>.csv. */
                 name?: string;
             };
             header?: never;
@@ -636,7 +741,12 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["UploadAccepted"];
+                    "application/json": {
+                        /** @description An earlier upload with the same bytes: this one is not read again. */
+                        duplicateOf: string | null;
+                        /** Format: uuid */
+                        uploadId: string;
+                    };
                 };
             };
             /** @description VALIDATION_FAILED: The request is not valid: issues name each field. */
@@ -696,6 +806,210 @@ export interface operations {
             /** @description UNPROCESSABLE: The input is well-formed but cannot be worked with. */
             422: {
                 headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description RATE_LIMITED: see docs/api.md. */
+            429: {
+                headers: {
+                    /** @description Seconds to wait before trying again. */
+                    "Retry-After"?: number;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description INTERNAL: A fault on the server; it is logged. */
+            500: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+        };
+    };
+    getSitesSiteIdLedger: {
+        parameters: {
+            query?: {
+                anchor?: string;
+                from?: string;
+                range?: "day" | "week" | "month" | "year" | "custom";
+                to?: string;
+            };
+            header?: never;
+            path: {
+                /** @description The site's id. */
+                siteId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description OK */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        /** @description How fresh the site's figures are. */
+                        freshness: {
+                            /** @description How long ago that hour ended, in words. */
+                            ago: string | null;
+                            /** @description Start of the latest computed hour; null when the site has none. */
+                            lastHourStart: string | null;
+                            /** @description That hour in the site's clock with its zone. */
+                            lastHourText: string | null;
+                            /** @description True when that hour ended more than a day ago. */
+                            stale: boolean;
+                            /** @description The sentence the pages show. */
+                            text: string;
+                        };
+                        /**
+                         * @description Why this period: the one asked for, the latest full period with data (the default), the partial one holding the latest hour when no full one has data, or the present one when the site has none.
+                         * @enum {string}
+                         */
+                        opened: "asked" | "latest-full" | "latest-partial" | "now";
+                        period: {
+                            firstDay: string;
+                            /**
+                             * Format: date-time
+                             * @description An ISO 8601 instant (UTC, with Z).
+                             */
+                            from: string;
+                            fromMs: number;
+                            hours: number;
+                            label: string;
+                            lastDay: string;
+                            nextAnchor: string;
+                            prevAnchor: string;
+                            /** @enum {string} */
+                            range: "day" | "week" | "month" | "year" | "custom";
+                            timeZone: string;
+                            /**
+                             * Format: date-time
+                             * @description An ISO 8601 instant (UTC, with Z).
+                             */
+                            to: string;
+                            toMs: number;
+                        };
+                        /** @description The units ranked by the cost of their destruction (or by destruction when the site has no costs). */
+                        rows: {
+                            /** @description Cost of the destruction over steady hours [site currency]; null when no steady hour has a cost. */
+                            cost: number | null;
+                            cost_U: number | null;
+                            destruction_MWh: number;
+                            /** @description Expanded (k = 2) uncertainty, hours taken as fully correlated. */
+                            destruction_U_MWh: number;
+                            efficiencyMean: number | null;
+                            efficiencyMean_U: number | null;
+                            fuel_MWh: number;
+                            /** @description Hours of each state in the period. */
+                            hours: {
+                                idle: number;
+                                steady: number;
+                                suspect: number;
+                                unsettled: number;
+                            };
+                            hoursWithoutCost: number;
+                            kind: string;
+                            kindLabel: string;
+                            loss_MWh: number;
+                            name: string;
+                            product_MWh: number;
+                            rank: number;
+                            /** @description Share of the site total [-]: of cost when the site has costs, else of destruction. */
+                            share: number | null;
+                            /** Format: uuid */
+                            unitId: string;
+                        }[];
+                        /** @enum {string} */
+                        shareBasis: "cost" | "destruction";
+                        site: {
+                            /** @description ISO 4217 code, e.g. EUR */
+                            currency: string;
+                            /** Format: uuid */
+                            id: string;
+                            name: string;
+                            timeZone: string;
+                        };
+                        totals: {
+                            /** @description Cost of the destruction over steady hours [site currency]; null when no steady hour has a cost. */
+                            cost: number | null;
+                            cost_U: number | null;
+                            destruction_MWh: number;
+                            /** @description Expanded (k = 2) uncertainty, hours taken as fully correlated. */
+                            destruction_U_MWh: number;
+                            fuel_MWh: number;
+                            /** @description Hours of each state in the period. */
+                            hours: {
+                                idle: number;
+                                steady: number;
+                                suspect: number;
+                                unsettled: number;
+                            };
+                            loss_MWh: number;
+                            product_MWh: number;
+                        };
+                    };
+                };
+            };
+            /** @description VALIDATION_FAILED: The request is not valid: issues name each field. */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description UNAUTHENTICATED: No valid site token or session. */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description FORBIDDEN: The token or person may not do this, or it is another site's. */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description NOT_FOUND: Nothing has the id given (or it is not a UUID). */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description UNPROCESSABLE: The input is well-formed but cannot be worked with. */
+            422: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description RATE_LIMITED: see docs/api.md. */
+            429: {
+                headers: {
+                    /** @description Seconds to wait before trying again. */
+                    "Retry-After"?: number;
                     [name: string]: unknown;
                 };
                 content: {
@@ -731,7 +1045,149 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["PlantModel"];
+                    "application/json": {
+                        /** @constant */
+                        format: "lossline-plant-model";
+                        site: {
+                            currency: string;
+                            deadState: {
+                                p0_Pa: number;
+                                T0_K: number;
+                                T0Tag?: {
+                                    tag: string;
+                                    unit: string;
+                                };
+                            };
+                            elevation_m?: number;
+                            name: string;
+                            p_atm_Pa?: number;
+                            /** @default [] */
+                            prices: {
+                                currency: string;
+                                /** @enum {string} */
+                                kind: "fuel" | "electricity";
+                                name: string;
+                                price_per_MWh: number;
+                            }[];
+                            timeZone: string;
+                        };
+                        /** @default [] */
+                        units: {
+                            description?: string;
+                            fuel?: {
+                                /** @constant */
+                                by: "composition";
+                                moleFractions: {
+                                    [key: string]: number;
+                                };
+                                price?: string;
+                            } | {
+                                /** @constant */
+                                by: "heating-value";
+                                /** @enum {string} */
+                                fuelType: "natural-gas" | "light-fuel-oil" | "heavy-fuel-oil" | "bituminous-coal";
+                                LHV_J_per_kg: number;
+                                price?: string;
+                            } | {
+                                /** @constant */
+                                by: "ultimate";
+                                LHV_J_per_kg: number;
+                                price?: string;
+                                ultimate: {
+                                    ash?: number;
+                                    C: number;
+                                    H: number;
+                                    moisture?: number;
+                                    N?: number;
+                                    O?: number;
+                                    S?: number;
+                                };
+                            };
+                            /** @enum {string} */
+                            kind: "turbine" | "compressor" | "pump" | "fan" | "heat-exchanger" | "boiler" | "let-down-valve" | "mixer" | "condenser" | "motor-generator" | "control-volume";
+                            /** @default [] */
+                            links: {
+                                /** @enum {string} */
+                                basis?: "dry" | "wet";
+                                port?: string;
+                                /** @enum {string} */
+                                quantity: "pressure" | "temperature" | "massFlow" | "volumeFlow" | "standardVolumeFlow" | "o2Fraction" | "vapourFraction" | "heatFlow" | "power" | "powerIn" | "powerOut";
+                                tag: string;
+                                uncertainty?: {
+                                    /** @enum {string} */
+                                    mode: "absolute" | "relative";
+                                    value: number;
+                                };
+                                unit: string;
+                                /** Format: date-time */
+                                validFrom?: string;
+                                validMax?: number;
+                                validMin?: number;
+                                /** Format: date-time */
+                                validTo?: string;
+                            }[];
+                            name: string;
+                            normallyIdle?: {
+                                hours?: number;
+                                when: "always" | {
+                                    days?: ("mon" | "tue" | "wed" | "thu" | "fri" | "sat" | "sun")[];
+                                    /** @default 00:00 */
+                                    from: string;
+                                    /** @default 24:00 */
+                                    to: string;
+                                }[];
+                                whileRunning?: string[];
+                            };
+                            /** @default {} */
+                            parameters: {
+                                [key: string]: number | string;
+                            };
+                            /** @default [] */
+                            ports: {
+                                /** @enum {string} */
+                                account?: "fuel" | "product" | "loss";
+                                boundaryT_K?: number;
+                                fluid?: {
+                                    /** @constant */
+                                    kind: "water";
+                                } | {
+                                    /** @constant */
+                                    kind: "air";
+                                } | {
+                                    fuelFrom?: string;
+                                    /** @constant */
+                                    kind: "flue-gas";
+                                } | {
+                                    /** @constant */
+                                    kind: "fuel";
+                                } | {
+                                    /** @constant */
+                                    kind: "fuel-gas";
+                                    label?: string;
+                                    moleFractions: {
+                                        [key: string]: number;
+                                    };
+                                } | {
+                                    /** @constant */
+                                    kind: "gas-mixture";
+                                    label?: string;
+                                    moleFractions: {
+                                        [key: string]: number;
+                                    };
+                                } | {
+                                    cp_J_per_kgK: number;
+                                    /** @constant */
+                                    kind: "liquid";
+                                    label?: string;
+                                    rho_kg_per_m3: number;
+                                };
+                                name: string;
+                                slot: string;
+                            }[];
+                        }[];
+                        /** @constant */
+                        version: 1;
+                    };
                 };
             };
             /** @description UNAUTHENTICATED: No valid site token or session. */
@@ -770,6 +1226,17 @@ export interface operations {
                     "application/json": components["schemas"]["Error"];
                 };
             };
+            /** @description RATE_LIMITED: see docs/api.md. */
+            429: {
+                headers: {
+                    /** @description Seconds to wait before trying again. */
+                    "Retry-After"?: number;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
             /** @description INTERNAL: A fault on the server; it is logged. */
             500: {
                 headers: {
@@ -793,7 +1260,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": components["schemas"]["PlantModel"];
+                "application/json": unknown;
             };
         };
         responses: {
@@ -803,7 +1270,58 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["ModelReplaced"];
+                    "application/json": {
+                        /** @description Units whose description, parameters, fuel or idle declaration changed; ports whose fluid, boundary, account or order changed. */
+                        changed: {
+                            ports: string[];
+                            units: string[];
+                        };
+                        /** @description Rows the file added (a link version is never edited: a changed link is a new version). */
+                        created: {
+                            links: string[];
+                            ports: string[];
+                            tags: string[];
+                            units: string[];
+                        };
+                        /** @description The hour spans queued for computing again because of the change. */
+                        recompute: {
+                            fromMs: number;
+                            /** Format: uuid */
+                            siteId: string;
+                            toMs: number;
+                            unitIds?: string[];
+                        }[];
+                        /** @description Rows the file no longer has (a unit is keyed by name and kind: a renamed unit is removed and created). */
+                        removed: {
+                            links: string[];
+                            ports: string[];
+                            units: string[];
+                        };
+                        /** @description Renames the file made: the site is renamed when the file names it otherwise. */
+                        renamed: {
+                            from: string;
+                            /** Format: uuid */
+                            id: string;
+                            message: string;
+                            to: string;
+                            /** @constant */
+                            what: "site";
+                        }[];
+                        /** Format: uuid */
+                        siteId: string;
+                        /** @description Every unit of the model by name: its id (for the hours endpoints) and its ports’ ids by name. */
+                        unitIds: {
+                            [key: string]: {
+                                /** Format: uuid */
+                                id: string;
+                                ports: {
+                                    [key: string]: string;
+                                };
+                            };
+                        };
+                        /** @description Units in the model. */
+                        units: number;
+                    };
                 };
             };
             /** @description VALIDATION_FAILED: The request is not valid: issues name each field. */
@@ -869,6 +1387,17 @@ export interface operations {
                     "application/json": components["schemas"]["Error"];
                 };
             };
+            /** @description RATE_LIMITED: see docs/api.md. */
+            429: {
+                headers: {
+                    /** @description Seconds to wait before trying again. */
+                    "Retry-After"?: number;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
             /** @description INTERNAL: A fault on the server; it is logged. */
             500: {
                 headers: {
@@ -880,15 +1409,13 @@ export interface operations {
             };
         };
     };
-    getSitesSiteIdTagHours: {
+    getSitesSiteIdNotices: {
         parameters: {
-            query: {
-                /** @description First hour start (ISO 8601 with Z or an offset). */
-                from: string;
-                /** @description The tag name as in the files. */
-                tag: string;
-                /** @description End, exclusive (ISO 8601 with Z or an offset); at most 400 days after from. */
-                to: string;
+            query?: {
+                cursor?: string;
+                limit?: number;
+                status?: "open" | "acknowledged" | "closed" | "not-closed" | "all";
+                unitId?: string;
             };
             header?: never;
             path: {
@@ -905,7 +1432,119 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["TagHours"];
+                    "application/json": {
+                        items: {
+                            acknowledgeComment: string | null;
+                            acknowledgedAt: string | null;
+                            acknowledgedBy: string | null;
+                            baselineId: string | null;
+                            baselineLabel: string | null;
+                            closeComment: string | null;
+                            closedAt: string | null;
+                            closedBy: string | null;
+                            closeOutcome: ("repaired" | "instrument-fault" | "new-normal" | "no-action") | null;
+                            costBasis: string | null;
+                            currency: string;
+                            current_W: number | null;
+                            currentHours: number | null;
+                            currentMeasU_W: number | null;
+                            currentU_W: number | null;
+                            /** @enum {string} */
+                            direction: "up" | "down";
+                            escalationStep: number;
+                            exceedsUncertainty: boolean | null;
+                            expected_W: number;
+                            extra_W: number;
+                            extraCost_per_day: number | null;
+                            fadedSince: string | null;
+                            figuresHour: string | null;
+                            followUpNoticeId: string | null;
+                            h: number;
+                            /** @description The current size (last 24 steady hours) when known, else the first figure [W]. */
+                            headline_W: number;
+                            headlineCost_per_day: number | null;
+                            headlineCostU_per_day: number | null;
+                            headlineExceeds: boolean | null;
+                            headlineU_W: number | null;
+                            hours: number;
+                            hourU_W: number | null;
+                            /** Format: uuid */
+                            id: string;
+                            k: number;
+                            /** @enum {string} */
+                            kind: "drift" | "idle" | "limit";
+                            kindWord: string;
+                            /**
+                             * Format: date-time
+                             * @description An ISO 8601 instant (UTC, with Z).
+                             */
+                            lastSignalHour: string;
+                            /** @enum {string} */
+                            life: "live" | "faded" | "superseded" | "closed";
+                            meanEfficiency: number | null;
+                            newNormalFrom: string | null;
+                            /**
+                             * Format: date-time
+                             * @description An ISO 8601 instant (UTC, with Z).
+                             */
+                            onsetHour: string;
+                            /**
+                             * Format: date-time
+                             * @description An ISO 8601 instant (UTC, with Z).
+                             */
+                            openedAt: string;
+                            priorNoticeId: string | null;
+                            priorReason: ("larger" | "after-fade" | "after-close" | "after-repair") | null;
+                            repairedAt: string | null;
+                            ruleCrossed: string[] | null;
+                            ruleHours: number | null;
+                            ruleText: string | null;
+                            shift_sigma: number;
+                            shiftU_W: number | null;
+                            /**
+                             * Format: date-time
+                             * @description An ISO 8601 instant (UTC, with Z).
+                             */
+                            signalHour: string;
+                            sinceOnset_W: number | null;
+                            sinceOnsetHours: number | null;
+                            sinceOnsetU_W: number | null;
+                            /** Format: uuid */
+                            siteId: string;
+                            siteName: string;
+                            /** @enum {string} */
+                            status: "open" | "acknowledged" | "closed";
+                            statusWord: string;
+                            supersededBy: string | null;
+                            timeZone: string;
+                            trend: ("growing" | "steady" | "receding") | null;
+                            /** Format: uuid */
+                            unitId: string;
+                            unitKind: string;
+                            unitName: string;
+                            url: string;
+                            verdict: {
+                                after_W: number;
+                                afterHours: number;
+                                afterU_W: number;
+                                avoided_W: number;
+                                avoidedCost_per_month: number | null;
+                                avoidedCostU_per_month: number | null;
+                                avoidedU_W: number;
+                                back: boolean;
+                                before_W: number;
+                                beforeHours: number;
+                                beforeU_W: number;
+                                /**
+                                 * Format: date-time
+                                 * @description An ISO 8601 instant (UTC, with Z).
+                                 */
+                                hour: string;
+                            } | null;
+                        }[];
+                        /** @description Send as ?cursor= (with the same limit) for the next page; null on the last page. */
+                        nextCursor: string | null;
+                    };
                 };
             };
             /** @description VALIDATION_FAILED: The request is not valid: issues name each field. */
@@ -947,6 +1586,607 @@ export interface operations {
             /** @description UNPROCESSABLE: The input is well-formed but cannot be worked with. */
             422: {
                 headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description RATE_LIMITED: see docs/api.md. */
+            429: {
+                headers: {
+                    /** @description Seconds to wait before trying again. */
+                    "Retry-After"?: number;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description INTERNAL: A fault on the server; it is logged. */
+            500: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+        };
+    };
+    getSitesSiteIdState: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                /** @description The site's id. */
+                siteId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description OK */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        /**
+                         * Format: date-time
+                         * @description An ISO 8601 instant (UTC, with Z).
+                         */
+                        asOf: string;
+                        /** @description Unit hours waiting to be computed or being computed. */
+                        compute: {
+                            /** @description Jobs a worker holds now. */
+                            active: number;
+                            /** @description Jobs not yet started (created, or waiting to retry). */
+                            waiting: number;
+                        };
+                        /** @description Drift checks and the idle and limit rules of units. */
+                        driftCheck: {
+                            /** @description Jobs a worker holds now. */
+                            active: number;
+                            /** @description Jobs not yet started (created, or waiting to retry). */
+                            waiting: number;
+                        };
+                        files: {
+                            /** @description Files stopped for a person’s answer (a layout question); not counted against settled. */
+                            needsReview: number;
+                            /** @description Files a worker is reading now. */
+                            reading: number;
+                            /** @description Browser uploads whose bytes have not arrived, and files queued for reading. */
+                            waiting: number;
+                        };
+                        /** @description The newest hour any unit of the site has a computed balance for. */
+                        latestComputedHour: string | null;
+                        /** @description The newest hour any tag of the site has statistics for. */
+                        latestTagHour: string | null;
+                        /** @description True when no file is waiting or being read and no computing or drift check is waiting or running: the figures are final for what the site was sent. */
+                        settled: boolean;
+                        /** Format: uuid */
+                        siteId: string;
+                    };
+                };
+            };
+            /** @description UNAUTHENTICATED: No valid site token or session. */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description FORBIDDEN: The token or person may not do this, or it is another site's. */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description NOT_FOUND: Nothing has the id given (or it is not a UUID). */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description UNPROCESSABLE: The input is well-formed but cannot be worked with. */
+            422: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description RATE_LIMITED: see docs/api.md. */
+            429: {
+                headers: {
+                    /** @description Seconds to wait before trying again. */
+                    "Retry-After"?: number;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description INTERNAL: A fault on the server; it is logged. */
+            500: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+        };
+    };
+    getSitesSiteIdTagHours: {
+        parameters: {
+            query: {
+                from: string;
+                tag: string;
+                to: string;
+            };
+            header?: never;
+            path: {
+                /** @description The site's id. */
+                siteId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description OK */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        hours: {
+                            coveredFraction: number;
+                            first: number | null;
+                            flags: string[];
+                            flatline: boolean;
+                            /**
+                             * Format: date-time
+                             * @description An ISO 8601 instant (UTC, with Z).
+                             */
+                            hourStart: string;
+                            last: number | null;
+                            max: number | null;
+                            mean: number | null;
+                            min: number | null;
+                            nonNumeric: number;
+                            outOfRange: number;
+                            samples: number;
+                            std: number | null;
+                            uploadIds: string[];
+                        }[];
+                        tag: {
+                            /** Format: uuid */
+                            id: string;
+                            kind: string;
+                            name: string;
+                            unitHint: string | null;
+                        };
+                    };
+                };
+            };
+            /** @description VALIDATION_FAILED: The request is not valid: issues name each field. */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description UNAUTHENTICATED: No valid site token or session. */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description FORBIDDEN: The token or person may not do this, or it is another site's. */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description NOT_FOUND: Nothing has the id given (or it is not a UUID). */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description UNPROCESSABLE: The input is well-formed but cannot be worked with. */
+            422: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description RATE_LIMITED: see docs/api.md. */
+            429: {
+                headers: {
+                    /** @description Seconds to wait before trying again. */
+                    "Retry-After"?: number;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description INTERNAL: A fault on the server; it is logged. */
+            500: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+        };
+    };
+    getSitesSiteIdUnits: {
+        parameters: {
+            query?: {
+                cursor?: string;
+                limit?: number;
+            };
+            header?: never;
+            path: {
+                /** @description The site's id. */
+                siteId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description OK */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        items: {
+                            description?: string;
+                            fuel?: {
+                                /** @constant */
+                                by: "composition";
+                                moleFractions: {
+                                    [key: string]: number;
+                                };
+                                price?: string;
+                            } | {
+                                /** @constant */
+                                by: "heating-value";
+                                /** @enum {string} */
+                                fuelType: "natural-gas" | "light-fuel-oil" | "heavy-fuel-oil" | "bituminous-coal";
+                                LHV_J_per_kg: number;
+                                price?: string;
+                            } | {
+                                /** @constant */
+                                by: "ultimate";
+                                LHV_J_per_kg: number;
+                                price?: string;
+                                ultimate: {
+                                    ash?: number;
+                                    C: number;
+                                    H: number;
+                                    moisture?: number;
+                                    N?: number;
+                                    O?: number;
+                                    S?: number;
+                                };
+                            };
+                            /** Format: uuid */
+                            id: string;
+                            /** @enum {string} */
+                            kind: "turbine" | "compressor" | "pump" | "fan" | "heat-exchanger" | "boiler" | "let-down-valve" | "mixer" | "condenser" | "motor-generator" | "control-volume";
+                            /** @description The link versions holding now. */
+                            links: {
+                                /** @enum {string} */
+                                basis?: "dry" | "wet";
+                                /** Format: uuid */
+                                id: string;
+                                port?: string;
+                                /** @enum {string} */
+                                quantity: "pressure" | "temperature" | "massFlow" | "volumeFlow" | "standardVolumeFlow" | "o2Fraction" | "vapourFraction" | "heatFlow" | "power" | "powerIn" | "powerOut";
+                                tag: string;
+                                uncertainty?: {
+                                    /** @enum {string} */
+                                    mode: "absolute" | "relative";
+                                    value: number;
+                                };
+                                unit: string;
+                                /** Format: date-time */
+                                validFrom?: string;
+                                validMax?: number;
+                                validMin?: number;
+                                /** Format: date-time */
+                                validTo?: string;
+                            }[];
+                            name: string;
+                            normallyIdle?: {
+                                hours?: number;
+                                when: "always" | {
+                                    days?: ("mon" | "tue" | "wed" | "thu" | "fri" | "sat" | "sun")[];
+                                    /** @default 00:00 */
+                                    from: string;
+                                    /** @default 24:00 */
+                                    to: string;
+                                }[];
+                                whileRunning?: string[];
+                            };
+                            /** @default {} */
+                            parameters: {
+                                [key: string]: number | string;
+                            };
+                            ports: {
+                                /** @enum {string} */
+                                account?: "fuel" | "product" | "loss";
+                                boundaryT_K?: number;
+                                fluid?: {
+                                    /** @constant */
+                                    kind: "water";
+                                } | {
+                                    /** @constant */
+                                    kind: "air";
+                                } | {
+                                    fuelFrom?: string;
+                                    /** @constant */
+                                    kind: "flue-gas";
+                                } | {
+                                    /** @constant */
+                                    kind: "fuel";
+                                } | {
+                                    /** @constant */
+                                    kind: "fuel-gas";
+                                    label?: string;
+                                    moleFractions: {
+                                        [key: string]: number;
+                                    };
+                                } | {
+                                    /** @constant */
+                                    kind: "gas-mixture";
+                                    label?: string;
+                                    moleFractions: {
+                                        [key: string]: number;
+                                    };
+                                } | {
+                                    cp_J_per_kgK: number;
+                                    /** @constant */
+                                    kind: "liquid";
+                                    label?: string;
+                                    rho_kg_per_m3: number;
+                                };
+                                /** Format: uuid */
+                                id: string;
+                                name: string;
+                                slot: string;
+                            }[];
+                            status: {
+                                complete: boolean;
+                                conflicts: ({
+                                    code: string;
+                                    message: string;
+                                    port?: string;
+                                } & {
+                                    [key: string]: unknown;
+                                })[];
+                                missing: ({
+                                    code: string;
+                                    message: string;
+                                    port?: string;
+                                } & {
+                                    [key: string]: unknown;
+                                })[];
+                            };
+                        }[];
+                        /** @description Send as ?cursor= (with the same limit) for the next page; null on the last page. */
+                        nextCursor: string | null;
+                    };
+                };
+            };
+            /** @description VALIDATION_FAILED: The request is not valid: issues name each field. */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description UNAUTHENTICATED: No valid site token or session. */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description FORBIDDEN: The token or person may not do this, or it is another site's. */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description NOT_FOUND: Nothing has the id given (or it is not a UUID). */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description UNPROCESSABLE: The input is well-formed but cannot be worked with. */
+            422: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description RATE_LIMITED: see docs/api.md. */
+            429: {
+                headers: {
+                    /** @description Seconds to wait before trying again. */
+                    "Retry-After"?: number;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description INTERNAL: A fault on the server; it is logged. */
+            500: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+        };
+    };
+    getSitesSiteIdUploads: {
+        parameters: {
+            query?: {
+                cursor?: string;
+                limit?: number;
+                status?: "awaiting-file" | "queued" | "needs-review" | "processing" | "done" | "read-with-problems" | "failed";
+            };
+            header?: never;
+            path: {
+                /** @description The site's id. */
+                siteId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description OK */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        items: {
+                            /**
+                             * Format: date-time
+                             * @description An ISO 8601 instant (UTC, with Z).
+                             */
+                            createdAt: string;
+                            /** @description The proposed layout while a person must answer a layout question. */
+                            detection?: unknown;
+                            duplicateOf: string | null;
+                            fileName: string;
+                            finishedAt: string | null;
+                            /** @description Share of the bytes read [-]. */
+                            progress: number;
+                            /** @description Why it failed, in words; null unless failed. */
+                            reason: string | null;
+                            rowsRead: number | null;
+                            sha256: string | null;
+                            /** Format: uuid */
+                            siteId: string;
+                            sizeBytes: number | null;
+                            /** @description browser or api */
+                            source: string;
+                            /** @enum {string} */
+                            status: "awaiting-file" | "queued" | "needs-review" | "processing" | "done" | "read-with-problems" | "failed";
+                            /** @description The report: rows, tags, newTags, hours, values, rejected, warnings, perTag, problemTags ...; when failed, code and details. */
+                            summary: {
+                                [key: string]: unknown;
+                            } | null;
+                            /** Format: uuid */
+                            uploadId: string;
+                        }[];
+                        /** @description Send as ?cursor= (with the same limit) for the next page; null on the last page. */
+                        nextCursor: string | null;
+                    };
+                };
+            };
+            /** @description VALIDATION_FAILED: The request is not valid: issues name each field. */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description UNAUTHENTICATED: No valid site token or session. */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description FORBIDDEN: The token or person may not do this, or it is another site's. */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description NOT_FOUND: Nothing has the id given (or it is not a UUID). */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description UNPROCESSABLE: The input is well-formed but cannot be worked with. */
+            422: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description RATE_LIMITED: see docs/api.md. */
+            429: {
+                headers: {
+                    /** @description Seconds to wait before trying again. */
+                    "Retry-After"?: number;
                     [name: string]: unknown;
                 };
                 content: {
@@ -986,7 +2226,66 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["UnitHours"];
+                    "application/json": {
+                        /**
+                         * Format: date-time
+                         * @description An ISO 8601 instant (UTC, with Z).
+                         */
+                        from: string;
+                        hours: {
+                            closure_pct: number | null;
+                            /**
+                             * Format: date-time
+                             * @description An ISO 8601 instant (UTC, with Z).
+                             */
+                            computedAt: string;
+                            destruction_U_W: number | null;
+                            destruction_W: number | null;
+                            destructionCost_per_h: number | null;
+                            efficiency: number | null;
+                            efficiency_U: number | null;
+                            entropyGeneration_W_per_K: number | null;
+                            fuel_W: number | null;
+                            /**
+                             * Format: date-time
+                             * @description An ISO 8601 instant (UTC, with Z).
+                             */
+                            hourStart: string;
+                            inputsHash: string;
+                            load: number | null;
+                            loadUnit: string | null;
+                            loss_W: number | null;
+                            modelVersion: string;
+                            p0_Pa: number | null;
+                            product_W: number | null;
+                            /** @description Most severe first. */
+                            reasons: {
+                                code: string;
+                                message: string;
+                                tag?: string;
+                            }[];
+                            /** @enum {string} */
+                            state: "steady" | "unsettled" | "idle" | "suspect";
+                            T0_K: number | null;
+                        }[];
+                        /**
+                         * Format: date-time
+                         * @description An ISO 8601 instant (UTC, with Z).
+                         */
+                        to: string;
+                        unit: {
+                            /** @description ISO 4217 code, e.g. EUR */
+                            currency: string;
+                            /** Format: uuid */
+                            id: string;
+                            kind: string;
+                            name: string;
+                            /** Format: uuid */
+                            siteId: string;
+                            siteName: string;
+                            timeZone: string;
+                        };
+                    };
                     "text/csv": string;
                 };
             };
@@ -1035,6 +2334,17 @@ export interface operations {
                     "application/json": components["schemas"]["Error"];
                 };
             };
+            /** @description RATE_LIMITED: see docs/api.md. */
+            429: {
+                headers: {
+                    /** @description Seconds to wait before trying again. */
+                    "Retry-After"?: number;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
             /** @description INTERNAL: A fault on the server; it is logged. */
             500: {
                 headers: {
@@ -1051,7 +2361,6 @@ export interface operations {
             query?: never;
             header?: never;
             path: {
-                /** @description The hour start: an ISO 8601 instant with Z or an offset (URL-encoded), or epoch milliseconds. */
                 hour: string;
                 /** @description The unit's id. */
                 unitId: string;
@@ -1066,7 +2375,64 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["UnitHourDetail"];
+                    "application/json": {
+                        hour: {
+                            closure_pct: number | null;
+                            /**
+                             * Format: date-time
+                             * @description An ISO 8601 instant (UTC, with Z).
+                             */
+                            computedAt: string;
+                            destruction_U_W: number | null;
+                            destruction_W: number | null;
+                            destructionCost_per_h: number | null;
+                            /** @description The audit trail, rebuilt from the stored tag hours (docs/api.md, "Unit hours"). */
+                            detail: {
+                                [key: string]: unknown;
+                            } | null;
+                            efficiency: number | null;
+                            efficiency_U: number | null;
+                            entropyGeneration_W_per_K: number | null;
+                            fuel_W: number | null;
+                            /**
+                             * Format: date-time
+                             * @description An ISO 8601 instant (UTC, with Z).
+                             */
+                            hourStart: string;
+                            inputsHash: string;
+                            load: number | null;
+                            loadUnit: string | null;
+                            loss_W: number | null;
+                            modelVersion: string;
+                            p0_Pa: number | null;
+                            product_W: number | null;
+                            /** @description Most severe first. */
+                            reasons: {
+                                code: string;
+                                message: string;
+                                tag?: string;
+                            }[];
+                            rebuilt: {
+                                inputsHash: string | null;
+                                matches: boolean;
+                                modelVersion: string | null;
+                                ms: number;
+                            };
+                            /** @enum {string} */
+                            state: "steady" | "unsettled" | "idle" | "suspect";
+                            T0_K: number | null;
+                        };
+                        unit: {
+                            /** @description ISO 4217 code, e.g. EUR */
+                            currency: string;
+                            /** Format: uuid */
+                            id: string;
+                            kind: string;
+                            name: string;
+                            /** Format: uuid */
+                            siteId: string;
+                        };
+                    };
                 };
             };
             /** @description VALIDATION_FAILED: The request is not valid: issues name each field. */
@@ -1114,6 +2480,17 @@ export interface operations {
                     "application/json": components["schemas"]["Error"];
                 };
             };
+            /** @description RATE_LIMITED: see docs/api.md. */
+            429: {
+                headers: {
+                    /** @description Seconds to wait before trying again. */
+                    "Retry-After"?: number;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
             /** @description INTERNAL: A fault on the server; it is logged. */
             500: {
                 headers: {
@@ -1143,7 +2520,37 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Upload"];
+                    "application/json": {
+                        /**
+                         * Format: date-time
+                         * @description An ISO 8601 instant (UTC, with Z).
+                         */
+                        createdAt: string;
+                        /** @description The proposed layout while a person must answer a layout question. */
+                        detection?: unknown;
+                        duplicateOf: string | null;
+                        fileName: string;
+                        finishedAt: string | null;
+                        /** @description Share of the bytes read [-]. */
+                        progress: number;
+                        /** @description Why it failed, in words; null unless failed. */
+                        reason: string | null;
+                        rowsRead: number | null;
+                        sha256: string | null;
+                        /** Format: uuid */
+                        siteId: string;
+                        sizeBytes: number | null;
+                        /** @description browser or api */
+                        source: string;
+                        /** @enum {string} */
+                        status: "awaiting-file" | "queued" | "needs-review" | "processing" | "done" | "read-with-problems" | "failed";
+                        /** @description The report: rows, tags, newTags, hours, values, rejected, warnings, perTag, problemTags ...; when failed, code and details. */
+                        summary: {
+                            [key: string]: unknown;
+                        } | null;
+                        /** Format: uuid */
+                        uploadId: string;
+                    };
                 };
             };
             /** @description UNAUTHENTICATED: No valid site token or session. */
@@ -1176,6 +2583,17 @@ export interface operations {
             /** @description UNPROCESSABLE: The input is well-formed but cannot be worked with. */
             422: {
                 headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description RATE_LIMITED: see docs/api.md. */
+            429: {
+                headers: {
+                    /** @description Seconds to wait before trying again. */
+                    "Retry-After"?: number;
                     [name: string]: unknown;
                 };
                 content: {

@@ -91,6 +91,7 @@ export const APP_ERROR_WORDS = {
   METHOD_NOT_ALLOWED: code('not possible here', 'This address does not take this kind of request.'),
   CONFLICT: code('changed meanwhile', 'Someone changed it in the meantime, or it clashes with what is there; reload and try again.'),
   PAYLOAD_TOO_LARGE: code('too large', 'What was sent is larger than Lossline accepts.'),
+  RATE_LIMITED: code('too many requests', 'This token or person sent more requests in a minute than allowed; wait the seconds the answer names, then go on.'),
   UNPROCESSABLE: code('cannot be worked with', 'The input is valid but cannot be worked with; the message says why.'),
   INTERNAL: code('fault on the server', 'Something went wrong on the server; nothing was half written. Try again or tell an admin.'),
 } as const satisfies Record<string, WordEntry>;

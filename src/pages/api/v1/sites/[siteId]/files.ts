@@ -23,6 +23,7 @@ export const POST = endpoint(
       description:
         'The request body is the CSV file itself; name it with ?name= or X-File-Name. It is read in the background: follow it at /api/v1/uploads/{uploadId}, and the site’s figures at /api/v1/sites/{siteId}/state.',
       group: 'Files',
+      upload: ['text/csv', 'application/octet-stream'],
     },
   },
   async ({ request, locals }, { params, query }) => {

@@ -14,7 +14,7 @@ const Query = z.object({
 export const GET = endpoint(
   {
     query: Query,
-    answers: { 200: UnitHoursAnswer },
+    answers: { 200: [UnitHoursAnswer, 'text/csv'] },
     doc: {
       summary: 'A unit’s hourly balances',
       description:
