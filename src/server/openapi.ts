@@ -98,7 +98,7 @@ function errorResponses(statuses: number[]) {
   const out: Record<string, unknown> = {};
   for (const status of statuses) {
     const codes = ERROR_CODES.filter((c) => ERROR_STATUS[c] === status);
-    const words = codes.map((c) => `${c}: ${ERROR_WORDS[c] ?? 'see docs/api.md.'}`).join(' ');
+    const words = codes.map((c) => `${c}: ${ERROR_WORDS[c] ?? 'see the message.'}`).join(' ');
     out[String(status)] = {
       description: words,
       ...(status === 429 ? { headers: { 'Retry-After': { description: 'Seconds to wait before trying again.', schema: { type: 'integer' } } } } : {}),
@@ -156,7 +156,7 @@ export function buildDocument(modules: Record<string, RouteModule>, version = '1
         title: 'Lossline API',
         version,
         description:
-          "The machine API of a site: send historian files, replace the plant model, read tag hours and unit hours. Call it with a site API token (Authorization: Bearer llt_..., made by an admin on the API tokens page) or a signed-in session. Every error answers { error: { code, message, issues? } }. See docs/api.md.",
+          "The machine API of a site: send historian files, replace the plant model, read tag hours and unit hours. Call it with a site API token (Authorization: Bearer llt_..., made by an admin on the API tokens page) or a signed-in session. Every error answers { error: { code, message, issues? } }.",
       },
       servers: [{ url: '/' }],
       paths,

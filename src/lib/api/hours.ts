@@ -39,7 +39,7 @@ export type UnitHoursAnswer = z.infer<typeof UnitHoursAnswer>;
 export const UnitHourAnswer = z.object({
   unit: UnitRef,
   hour: UnitHourRowSchema.extend({
-    detail: z.record(z.string(), z.unknown()).nullable().describe('The audit trail, rebuilt from the stored tag hours (docs/api.md, "Unit hours").'),
+    detail: z.record(z.string(), z.unknown()).nullable().describe('The audit trail, rebuilt from the stored tag hours (the same figures the hour\u2019s page shows).'),
     rebuilt: z.object({ modelVersion: z.string().nullable(), inputsHash: z.string().nullable(), matches: z.boolean(), ms: z.number() }),
   }),
 });

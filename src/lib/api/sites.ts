@@ -7,7 +7,7 @@ import { Id, Instant } from './common';
 /** The site: its id and its settings in the names and shape of the plant model file's `site`. */
 export const SiteAnswer = z.object({
   id: Id,
-  settings: SiteModelSchema.describe('The site settings exactly as the plant model file writes them (docs/plant-model.md, "site").'),
+  settings: SiteModelSchema.describe('The site settings exactly as the plant model file writes them (its site part; the format is described at /help/model-file).'),
   createdAt: Instant,
   updatedAt: Instant,
 });

@@ -123,7 +123,7 @@ export interface paths {
         };
         /**
          * The site’s plant model file
-         * @description The model as one JSON document (docs/plant-model.md), ready to edit and PUT back.
+         * @description The model as one JSON document (format at /help/model-file), ready to edit and PUT back.
          *
          *     Who: Site token; signed-in roles: admin, energy-lead, operator, planner.
          */
@@ -426,7 +426,7 @@ export interface operations {
                         createdAt: string;
                         /** Format: uuid */
                         id: string;
-                        /** @description The site settings exactly as the plant model file writes them (docs/plant-model.md, "site"). */
+                        /** @description The site settings exactly as the plant model file writes them (its site part; the format is described at /help/model-file). */
                         settings: {
                             currency: string;
                             deadState: {
@@ -494,7 +494,7 @@ export interface operations {
                     "application/json": components["schemas"]["Error"];
                 };
             };
-            /** @description RATE_LIMITED: see docs/api.md. */
+            /** @description RATE_LIMITED: see the message. */
             429: {
                 headers: {
                     /** @description Seconds to wait before trying again. */
@@ -694,7 +694,7 @@ export interface operations {
                     "application/json": components["schemas"]["Error"];
                 };
             };
-            /** @description RATE_LIMITED: see docs/api.md. */
+            /** @description RATE_LIMITED: see the message. */
             429: {
                 headers: {
                     /** @description Seconds to wait before trying again. */
@@ -812,7 +812,7 @@ export interface operations {
                     "application/json": components["schemas"]["Error"];
                 };
             };
-            /** @description RATE_LIMITED: see docs/api.md. */
+            /** @description RATE_LIMITED: see the message. */
             429: {
                 headers: {
                     /** @description Seconds to wait before trying again. */
@@ -1005,7 +1005,7 @@ export interface operations {
                     "application/json": components["schemas"]["Error"];
                 };
             };
-            /** @description RATE_LIMITED: see docs/api.md. */
+            /** @description RATE_LIMITED: see the message. */
             429: {
                 headers: {
                     /** @description Seconds to wait before trying again. */
@@ -1226,7 +1226,7 @@ export interface operations {
                     "application/json": components["schemas"]["Error"];
                 };
             };
-            /** @description RATE_LIMITED: see docs/api.md. */
+            /** @description RATE_LIMITED: see the message. */
             429: {
                 headers: {
                     /** @description Seconds to wait before trying again. */
@@ -1387,7 +1387,7 @@ export interface operations {
                     "application/json": components["schemas"]["Error"];
                 };
             };
-            /** @description RATE_LIMITED: see docs/api.md. */
+            /** @description RATE_LIMITED: see the message. */
             429: {
                 headers: {
                     /** @description Seconds to wait before trying again. */
@@ -1592,7 +1592,7 @@ export interface operations {
                     "application/json": components["schemas"]["Error"];
                 };
             };
-            /** @description RATE_LIMITED: see docs/api.md. */
+            /** @description RATE_LIMITED: see the message. */
             429: {
                 headers: {
                     /** @description Seconds to wait before trying again. */
@@ -1707,7 +1707,7 @@ export interface operations {
                     "application/json": components["schemas"]["Error"];
                 };
             };
-            /** @description RATE_LIMITED: see docs/api.md. */
+            /** @description RATE_LIMITED: see the message. */
             429: {
                 headers: {
                     /** @description Seconds to wait before trying again. */
@@ -1827,7 +1827,7 @@ export interface operations {
                     "application/json": components["schemas"]["Error"];
                 };
             };
-            /** @description RATE_LIMITED: see docs/api.md. */
+            /** @description RATE_LIMITED: see the message. */
             429: {
                 headers: {
                     /** @description Seconds to wait before trying again. */
@@ -2056,7 +2056,7 @@ export interface operations {
                     "application/json": components["schemas"]["Error"];
                 };
             };
-            /** @description RATE_LIMITED: see docs/api.md. */
+            /** @description RATE_LIMITED: see the message. */
             429: {
                 headers: {
                     /** @description Seconds to wait before trying again. */
@@ -2182,7 +2182,7 @@ export interface operations {
                     "application/json": components["schemas"]["Error"];
                 };
             };
-            /** @description RATE_LIMITED: see docs/api.md. */
+            /** @description RATE_LIMITED: see the message. */
             429: {
                 headers: {
                     /** @description Seconds to wait before trying again. */
@@ -2334,7 +2334,7 @@ export interface operations {
                     "application/json": components["schemas"]["Error"];
                 };
             };
-            /** @description RATE_LIMITED: see docs/api.md. */
+            /** @description RATE_LIMITED: see the message. */
             429: {
                 headers: {
                     /** @description Seconds to wait before trying again. */
@@ -2386,7 +2386,7 @@ export interface operations {
                             destruction_U_W: number | null;
                             destruction_W: number | null;
                             destructionCost_per_h: number | null;
-                            /** @description The audit trail, rebuilt from the stored tag hours (docs/api.md, "Unit hours"). */
+                            /** @description The audit trail, rebuilt from the stored tag hours (the same figures the hour’s page shows). */
                             detail: {
                                 [key: string]: unknown;
                             } | null;
@@ -2480,7 +2480,7 @@ export interface operations {
                     "application/json": components["schemas"]["Error"];
                 };
             };
-            /** @description RATE_LIMITED: see docs/api.md. */
+            /** @description RATE_LIMITED: see the message. */
             429: {
                 headers: {
                     /** @description Seconds to wait before trying again. */
@@ -2589,7 +2589,7 @@ export interface operations {
                     "application/json": components["schemas"]["Error"];
                 };
             };
-            /** @description RATE_LIMITED: see docs/api.md. */
+            /** @description RATE_LIMITED: see the message. */
             429: {
                 headers: {
                     /** @description Seconds to wait before trying again. */

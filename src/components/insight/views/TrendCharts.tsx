@@ -283,14 +283,14 @@ export function TrendLegend({ kind, shown }: { kind: Kind; shown: Set<string> })
       <li className="inline-flex items-center gap-1.5">{sw(<path d="M1 6 H25" stroke={COLORS.ink} strokeWidth="1.2" strokeDasharray="5 4" />)}expected</li>
       <li className="inline-flex items-center gap-1.5">{sw(<rect x="1" y="1" width="24" height="10" fill={band} />)}expected band (k = 2)</li>
       {(['idle', 'unsettled', 'suspect'] as const).map((s) => (
-        <li key={s} className={`inline-flex items-center gap-1.5 ${shown.has(s) ? '' : 'opacity-60'}`} data-legend={s}>
+        <li key={s} className="inline-flex items-center gap-1.5" data-legend={s}>
           {sw(
             <>
               <StatePatterns prefix={`${prefix}-${s}`} />
               <rect x="1" y="1" width="24" height="10" fill={`url(#${prefix}-${s}-${s})`} stroke={STATE_LOOK[s].stroke} strokeWidth="0.6" />
             </>,
           )}
-          <HourStateMark state={s} /> hours (shaded)
+          <HourStateMark state={s} /> hours (shaded){shown.has(s) ? '' : ', none in this period'}
         </li>
       ))}
       <li className="inline-flex items-center gap-1.5">

@@ -4,13 +4,13 @@ import { answer } from '~/server/answer';
 import { endpoint, requireSite } from '~/server/endpoint';
 import { exportModel, importModel } from '~/server/services/plant-model';
 
-/** The site's plant model file (docs/plant-model.md). */
+/** The site's plant model file (format at /help/model-file). */
 export const GET = endpoint(
   {
     answers: { 200: ModelFileAnswer },
     doc: {
       summary: 'The site’s plant model file',
-      description: 'The model as one JSON document (docs/plant-model.md), ready to edit and PUT back.',
+      description: 'The model as one JSON document (format at /help/model-file), ready to edit and PUT back.',
       group: 'Plant model',
     },
   },
