@@ -25,13 +25,14 @@ export class ApiError extends Error {
   }
 }
 
-type ErrorBody = { code?: string; message?: string; issues?: Issue[] };
+type ErrorBody = { code?: string; message?: string; issues?: Issue[]; reason?: string };
 
 /** The ApiError for a response that is not ok (Lossline's { error } shape, or better-auth's flat { code, message }). */
 async function errorOf(res: Response): Promise<ApiError> {
   const data = (await res.json().catch(() => null)) as (ErrorBody & { error?: ErrorBody }) | null;
   const e = data?.error ?? data;
-  return new ApiError(e?.message ?? `The server answered ${res.status}.`, e?.code, res.status, Array.isArray(e?.issues) ? e.issues : [], e?.message);
+  // A refused sign-in names better-auth's own code as `reason` (src/server/auth.ts); the sign-in words go by it.
+  return new ApiError(e?.message ?? `The server answered ${res.status}.`, e?.reason ?? e?.code, res.status, Array.isArray(e?.issues) ? e.issues : [], e?.message);
 }
 
 /** One request: a body is sent as JSON (a string as it is); the answer is read as JSON ({} when empty). */
