@@ -160,7 +160,7 @@ test_mode() {
   if [ -f dist/server/entry.mjs ]; then
     node --import tsx scripts/seed.ts
     spawn worker "$dir/worker.log" node --import tsx src/worker/main.ts
-    SIGN_IN_LIMIT_PER_MINUTE=60 spawn web "$dir/web.log" node --import tsx scripts/serve.ts
+    SIGN_IN_LIMIT_PER_MINUTE=600 spawn web "$dir/web.log" node --import tsx scripts/serve.ts
     wait_port "$PORT" "The web server" "$dir/web.log"
     log "Playwright in Chromium"
     PLAYWRIGHT_JSON_OUTPUT_NAME="$dir/playwright.json" npx playwright test --reporter=list,json || failed=1
