@@ -16,7 +16,7 @@ import { expectClose } from '../support/expect-close';
 import { describeIntegration } from '../support/integration';
 import { recomputeJobs, uniqueName } from '../plant/support';
 import { ALL_CASES, steadyHour } from './cases';
-import { GAS_PRICE, POWER_PRICE, modelOf } from './model-file';
+import { GAS_PRICE, POWER_PRICE, modelOf, unitNameOf } from './model-file';
 
 const H = 3_600_000;
 const H0 = Date.UTC(2024, 1, 12, 8);
@@ -55,7 +55,7 @@ describeIntegration('compute-unit-hours on a real database', () => {
 
   describe.each(cases)('$kind', (c) => {
     it(`stores each hour with destruction and efficiency within 0.1 % of ${c.source}`, async () => {
-      const rows = await rowsOf(unitId.get(c.id)!);
+      const rows = await rowsOf(unitId.get(unitNameOf(c))!);
       expect(rows.map((r) => r.hourStart.getTime())).toEqual([H0, H0 + H, H0 + 2 * H]);
       for (const r of rows) {
         expect(r.state).toBe('steady');
@@ -136,7 +136,7 @@ describeIntegration('compute-unit-hours on a real database', () => {
   });
 
   it('a link change recomputes exactly the hours it touches, for its unit', async () => {
-    const valve = unitId.get('let-down-valve')!;
+    const valve = unitId.get('let down valve')!;
     const before = new Map((await db().select().from(unitHours)).filter((r) => [...unitId.values()].includes(r.unitId)).map((r) => [`${r.unitId}|${r.hourStart.getTime()}`, r]));
     // The valve's outlet pressure transmitter is replaced from the second hour on; the new one reads 4 barg (invented).
     for (let h = 1; h < HOURS; h++) await writeHour(siteId, 'PRV_OUT_P_NEW', H0 + h * H, steadyHour(4));

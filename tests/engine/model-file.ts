@@ -4,6 +4,9 @@ import { P_ATM_Pa, type EngineCase } from './cases';
 export const GAS_PRICE = 30; // EUR/MWh (LHV), invented
 export const POWER_PRICE = 90; // EUR/MWh, invented
 
+/** A case's unit name in words ("heat exchanger"), so the pages never show a kind code as a name. */
+export const unitNameOf = (c: { id: string }) => c.id.replace(/-/g, ' ');
+
 export function modelOf(name: string, cases: EngineCase[]) {
   return {
     format: 'lossline-plant-model',
@@ -20,7 +23,7 @@ export function modelOf(name: string, cases: EngineCase[]) {
       ],
     },
     units: cases.map((c) => ({
-      name: c.id,
+      name: unitNameOf(c),
       kind: c.kind,
       parameters: c.parameters,
       ...(c.fuel ? { fuel: c.fuel } : {}),
