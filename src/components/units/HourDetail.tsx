@@ -250,9 +250,9 @@ export function HourDetail({ unit, hourStart, onClose }: { unit: UnitInfo; hourS
             <tbody>
               {d.uncertainty.contributors.map((c) => (
                 <tr key={c.input}>
-                  <td className="font-mono text-xs">{c.input}</td>
+                  <td>{inputWords(c.input).label}</td>
                   <td>{c.tag ?? ''}</td>
-                  <td className="num">{c.u_SI.toPrecision(3)}</td>
+                  <td className="num">{deltaText(c.u_SI, inputWords(c.input).quantity, w)}</td>
                   <td className="num">{fmt(c.share_efficiency, 1, 100)}</td>
                   <td className="num">{fmt(c.share_destruction, 1, 100)}</td>
                 </tr>
