@@ -161,7 +161,7 @@ describeIntegration('the reads of /api/v1 with a site token', () => {
     expect(out.units).toBe(1);
     const again = await parsed(ModelPutAnswer, await put(file));
     expect(again.renamed).toEqual([]);
-    expect(again.changed).toEqual({ units: [], ports: [] });
+    expect(again.changed).toEqual({ units: [], ports: [], tags: [] });
     const [{ name }] = (await db().execute<{ name: string }>(sql`select name from sites where id = ${siteId}`)).rows as [{ name: string }];
     expect(name).toBe(newName);
   });

@@ -64,7 +64,7 @@ export interface InstrumentResolution {
   span?: number | null;
 }
 
-/** Per-tag spread limit. */
+/** Per-tag spread limit (and the tag's own coverage rule). */
 export interface SpreadLimit {
   /** Largest stdDev / |mean| [-]. */
   maxRelSpread?: number;
@@ -72,6 +72,8 @@ export interface SpreadLimit {
   maxStd?: number;
   /** The tag's instrument: the limit is never below what it can resolve (resolvableSpread). */
   instrument?: InstrumentResolution;
+  /** The tag's own least covered fraction of the hour [-]; absent: SteadyLimits.minCoveredFraction. */
+  minCoveredFraction?: number;
 }
 
 /**
@@ -115,7 +117,7 @@ export interface SteadyLimits {
   minLoad: number;
   /** Tags that must be sound for the hour to count; default: every tag given, plus the load tag. */
   keyTags?: readonly string[];
-  /** Per-tag spread limits; tags without one use defaultMaxRelSpread. */
+  /** Per-tag spread limits (and coverage rules); tags without one use defaultMaxRelSpread (and minCoveredFraction). */
   spread?: Readonly<Record<string, SpreadLimit>>;
   /** Default relative spread limit [-]; 0.05. */
   defaultMaxRelSpread?: number;
@@ -215,15 +217,16 @@ export function classifyHour(
         message: `${tag}: ${st.outOfRangeCount} sample(s) outside the valid range`,
       });
     }
-    if (st.coveredFraction < lim.minCoveredFraction || st.sampleCount < lim.minSamples) {
+    const minCovered = limits.spread?.[tag]?.minCoveredFraction ?? lim.minCoveredFraction;
+    if (st.coveredFraction < minCovered || st.sampleCount < lim.minSamples) {
       ok = false;
       reasons.push({
         code: 'TAG_POOR_COVERAGE',
         state: 'suspect',
         tag,
         value: st.coveredFraction,
-        limit: lim.minCoveredFraction,
-        message: `${tag}: data cover ${(100 * st.coveredFraction).toFixed(0)} % of the hour with ${st.sampleCount} sample(s) (need ${(100 * lim.minCoveredFraction).toFixed(0)} % and ${lim.minSamples})`,
+        limit: minCovered,
+        message: `${tag}: data cover ${(100 * st.coveredFraction).toFixed(0)} % of the hour with ${st.sampleCount} sample(s) (need ${(100 * minCovered).toFixed(0)} % and ${lim.minSamples})`,
       });
     }
     const cells = st.sampleCount + st.nonNumericCount + (st.badQualityCount ?? 0);

@@ -14,8 +14,8 @@ export const ModelChangesSchema = z.object({
     .object({ units: Ids, ports: Ids, links: Ids, tags: Ids })
     .describe('Rows the file added (a link version is never edited: a changed link is a new version).'),
   changed: z
-    .object({ units: Ids, ports: Ids })
-    .describe('Units whose description, parameters, fuel or idle declaration changed; ports whose fluid, boundary, account or order changed.'),
+    .object({ units: Ids, ports: Ids, tags: Ids })
+    .describe('Units whose description, parameters, fuel or idle declaration changed; ports whose fluid, boundary, account or order changed; tags whose limits (the file’s tags[]) changed.'),
   removed: z
     .object({ units: Ids, ports: Ids, links: Ids })
     .describe('Rows the file no longer has (a unit is keyed by name and kind: a renamed unit is removed and created).'),

@@ -75,7 +75,12 @@ export function sharedModel(unit: EngineUnit, kind: string, model: UnitModel): U
 const versions = new WeakMap<object, Map<string, LinkSet>>();
 const siteKeys = new WeakMap<object, number>();
 let siteSeq = 0;
-const linkKey = (l: EngineLink) => [l.id, l.portName, l.quantity, l.tagName, l.engUnit, l.basis, l.uncertaintyMode, l.uncertainty, l.validMin, l.validMax, l.validFromMs, l.validToMs];
+/** A link in the model version; a tag's own limits only when set, so hours of links without them keep their hashes. */
+const linkKey = (l: EngineLink) => {
+  const key: unknown[] = [l.id, l.portName, l.quantity, l.tagName, l.engUnit, l.basis, l.uncertaintyMode, l.uncertainty, l.validMin, l.validMax, l.validFromMs, l.validToMs];
+  if (l.spreadLimit !== undefined || l.minCoverage !== undefined) key.push({ spreadLimit: l.spreadLimit ?? null, minCoverage: l.minCoverage ?? null });
+  return key;
+};
 
 const byLinksArray = new WeakMap<object, { unit: object; site: object; sources: unknown; set: LinkSet }>();
 /**
@@ -130,11 +135,20 @@ function newLinkSet(input: UnitHourInput): LinkSet {
   for (const l of input.links) {
     if (linkOfTag.has(l.tagName)) continue;
     linkOfTag.set(l.tagName, l);
-    const own: SpreadLimit = l.quantity === 'o2Fraction' ? { maxStd: SPREAD_O2_ABS } : l.quantity === 'vapourFraction' ? { maxStd: SPREAD_X_ABS } : { maxRelSpread: relLimit };
-    spread[l.tagName] = { ...own, instrument: instrumentOf(l, site.p_atm_Pa) };
+    spread[l.tagName] = { ...spreadOf(l, relLimit), instrument: instrumentOf(l, site.p_atm_Pa), ...(l.minCoverage !== undefined ? { minCoveredFraction: l.minCoverage } : {}) };
   }
   const linksUsed = [...linkOfTag.values()];
   return { modelVersion: modelVersionOf(input), usedTags: [...used].sort(), linksUsed, keyTags: [...linksUsed.map((l) => l.tagName), LOAD_KEY], spread, relLimit, linkOfTag };
+}
+
+/**
+ * A tag's spread limit: its own (the model file's tags[].spreadLimit) or the default of its quantity:
+ * O2 and vapour fraction absolute in fraction [-], every other quantity the unit's share of the mean.
+ */
+function spreadOf(l: EngineLink, relLimit: number): SpreadLimit {
+  if (l.quantity === 'o2Fraction') return { maxStd: l.spreadLimit ?? SPREAD_O2_ABS };
+  if (l.quantity === 'vapourFraction') return { maxStd: l.spreadLimit ?? SPREAD_X_ABS };
+  return { maxRelSpread: l.spreadLimit ?? relLimit };
 }
 
 /** A link's instrument in SI for the spread rule: its standard uncertainty and its span (validMax - validMin). */

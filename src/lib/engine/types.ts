@@ -47,6 +47,9 @@ export interface EngineLink {
   validFromMs: number;
   /** null while current */
   validToMs: number | null;
+  /** The tag's own limits in the steady-state test (the model file's tags[]); left out: the unit's parameters. */
+  spreadLimit?: number;
+  minCoverage?: number;
 }
 
 /** A tag's statistics for one hour, in the tag's engineering unit (src/server/db/ingest-schema.ts). */

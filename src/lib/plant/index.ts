@@ -7,3 +7,4 @@ export * from './model';
 export * from './status';
 export * from './atmosphere';
 export * from './uncertainty';
+export * from './tag-limits';

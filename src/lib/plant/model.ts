@@ -12,6 +12,7 @@ import { z } from 'zod';
 import { canConvert } from '../units/convert';
 import { ELEVATION_MAX_m, ELEVATION_MIN_m } from './atmosphere';
 import { NormallyIdleSchema } from './idle';
+import { TagLimitsSchema, checkTagLimits } from './tag-limits';
 import { humanErrorMap, humanIssues } from '../zod-words';
 import { LINK_QUANTITY_NAMES, UNIT_KINDS, kindSpec, type LinkQuantity } from './kinds';
 
@@ -159,6 +160,8 @@ export const PlantModelSchema = z.strictObject({
   version: z.literal(MODEL_VERSION, { error: `This file's version is not one Lossline reads; version ${MODEL_VERSION} is.` }),
   site: SiteModelSchema,
   units: z.array(UnitModelSchema).default([]),
+  /** Tags' own limits (src/lib/plant/tag-limits.ts); left out: every tag has the defaults (files before this field). */
+  tags: z.array(TagLimitsSchema).optional(),
 });
 export type PlantModel = z.infer<typeof PlantModelSchema>;
 
@@ -277,6 +280,7 @@ export function checkModel(input: unknown): ModelCheck {
   });
   const allNames = new Set(model.units.map((u) => u.name));
   model.units.forEach((unit, i) => issues.push(...checkNormallyIdle(unit, allNames, ['units', i, 'normallyIdle'])));
+  issues.push(...checkTagLimits(model));
   return issues.length ? { ok: false, issues } : { ok: true, model, issues: [] };
 }
 

@@ -109,7 +109,12 @@ export const tags = pgTable(
     description: text('description'),
     /** 'analog' (mean by linear interpolation) or 'status' (mean by step hold). */
     kind: text('kind').notNull().default('analog'),
+    /** Frozen-value limit [s] (the model file's tags[].frozenLimit_s). */
     flatlineLimitSeconds: integer('flatline_limit_seconds').notNull().default(4 * 3600),
+    /** The tag's own spread limit in the steady-state test (tags[].spreadLimit); null: its unit's. */
+    spreadLimit: doublePrecision('spread_limit'),
+    /** The tag's own least coverage of the hour [-] (tags[].minCoverage); null: its unit's. */
+    minCoverage: doublePrecision('min_coverage'),
     validMin: doublePrecision('valid_min'),
     validMax: doublePrecision('valid_max'),
     firstSeenAt: timestamp('first_seen_at', { withTimezone: true }).notNull().defaultNow(),

@@ -48,6 +48,8 @@ function toEngineLink(l: ResolvedLink): EngineLink {
     validMax: l.validMax,
     validFromMs: l.validFrom.getTime(),
     validToMs: l.validTo ? l.validTo.getTime() : null,
+    ...(l.tagSpreadLimit !== null ? { spreadLimit: l.tagSpreadLimit } : {}),
+    ...(l.tagMinCoverage !== null ? { minCoverage: l.tagMinCoverage } : {}),
   };
 }
 

@@ -64,6 +64,9 @@ export interface ResolvedLink {
   validMax: number | null;
   validFrom: Date;
   validTo: Date | null;
+  /** The tag's own spread limit and least coverage (the model file's tags[]); null: the unit's. */
+  tagSpreadLimit: number | null;
+  tagMinCoverage: number | null;
 }
 
 function resolvedSelect(r: Reader) {
@@ -87,6 +90,8 @@ function resolvedSelect(r: Reader) {
       validMax: tagLinks.validMax,
       validFrom: tagLinks.validFrom,
       validTo: tagLinks.validTo,
+      tagSpreadLimit: tags.spreadLimit,
+      tagMinCoverage: tags.minCoverage,
     })
     .from(tagLinks)
     .innerJoin(plantUnits, eq(plantUnits.id, tagLinks.unitId))

@@ -22,6 +22,7 @@ import { dataSpan, ensureTag, getSite, resolveAtmosphere, siteModel } from './pl
 import { AppError } from '../errors';
 import { inTransaction, openEndMs, type RecomputeRequest, type Tx } from './plant-tx';
 import { queueUnitRuleCheck } from './unit-rules';
+import { writeTagLimits } from './plant-tag-limits';
 import { HOUR_MS } from '~/lib/time';
 
 /** The site's model file. */
@@ -77,8 +78,11 @@ export function firstLinkDifferenceMs(before: readonly LinkModel[], after: reado
   return first === Infinity ? null : first;
 }
 
-/** What to recompute after the model of a site changed from `before` to `after`. */
-async function recomputeFor(tx: Tx, siteId: string, before: PlantModel | null, after: PlantModel, ids: Map<string, string>): Promise<RecomputeRequest[]> {
+/**
+ * What to recompute after the model of a site changed from `before` to `after`; `limitTags` names the
+ * tags whose own spread limit or coverage changed (every hour of a unit that links one is judged again).
+ */
+async function recomputeFor(tx: Tx, siteId: string, before: PlantModel | null, after: PlantModel, ids: Map<string, string>, limitTags: ReadonlySet<string>): Promise<RecomputeRequest[]> {
   const span = await dataSpan(tx, siteId);
   if (!span) return []; // no tag hours yet: nothing to recompute
   const end = Math.max(openEndMs(), span.toMs);
@@ -89,7 +93,7 @@ async function recomputeFor(tx: Tx, siteId: string, before: PlantModel | null, a
     const id = ids.get(unit.name)!;
     const old = before?.units.find((u) => u.name === unit.name);
     const shape = (u: UnitModel) => canonicalJson([u.kind, u.parameters, u.fuel ?? null, u.ports]);
-    if (old && shape(old) !== shape(unit)) {
+    if ((old && shape(old) !== shape(unit)) || unit.links.some((l) => limitTags.has(l.tag))) {
       out.push({ siteId, fromMs: span.fromMs, toMs: span.toMs, unitIds: [id] });
       continue;
     }
@@ -102,7 +106,7 @@ async function recomputeFor(tx: Tx, siteId: string, before: PlantModel | null, a
 /** What a model write did, by id: for the answer of the model PUT (ModelPutAnswer, src/lib/api/model.ts). */
 export interface ModelChanges {
   created: { units: string[]; ports: string[]; links: string[]; tags: string[] };
-  changed: { units: string[]; ports: string[] };
+  changed: { units: string[]; ports: string[]; tags: string[] };
   removed: { units: string[]; ports: string[]; links: string[] };
   renamed: { what: 'site'; id: string; from: string; to: string; message: string }[];
   /** Every unit of the model by name, with its id and its ports' ids by name. */
@@ -111,7 +115,7 @@ export interface ModelChanges {
 
 const noChanges = (): ModelChanges => ({
   created: { units: [], ports: [], links: [], tags: [] },
-  changed: { units: [], ports: [] },
+  changed: { units: [], ports: [], tags: [] },
   removed: { units: [], ports: [], links: [] },
   renamed: [],
   unitIds: {},
@@ -279,7 +283,9 @@ async function writeModel(tx: Tx, siteId: string, model: PlantModel, recompute: 
     await writeLinks(tx, siteId, id, unit, portIds, changes);
     changes.unitIds[unit.name] = { id, ports: Object.fromEntries(portIds) };
   }
-  for (const r of await recomputeFor(tx, siteId, before, model, unitIds)) await recompute(r);
+  const limits = await writeTagLimits(tx, siteId, model, new Set(changes.created.tags));
+  changes.changed.tags.push(...limits.changed);
+  for (const r of await recomputeFor(tx, siteId, before, model, unitIds, limits.steadyTestTags)) await recompute(r);
   return changes;
 }
 

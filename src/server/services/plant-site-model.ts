@@ -15,6 +15,7 @@ import { AppError } from '../errors';
 import type { Tx } from './plant-tx';
 import { getSite } from './plant';
 import { siteDisplay } from './display-units';
+import { readTagLimits } from './plant-tag-limits';
 
 type Reader = Tx | ReturnType<typeof db>;
 
@@ -136,7 +137,10 @@ export async function siteModel(r: Reader, siteId: string, links: 'all' | 'curre
       links: links.map(linkModelOf),
     };
   });
-  return { model: { format: 'lossline-plant-model', version: 1, site: siteOut, units }, ids };
+  const named = new Set([...(T0Tag ? [T0Tag.tag] : []), ...units.flatMap((u) => u.links.map((l) => l.tag))]);
+  const tagLimits = await readTagLimits(r, siteId, named);
+  const model: PlantModel = { format: 'lossline-plant-model', version: 1, site: siteOut, units, ...(tagLimits.length ? { tags: tagLimits } : {}) };
+  return { model, ids };
 }
 
 /** Each unit of a site with its completeness and conflicts now. */
