@@ -1071,6 +1071,12 @@ export interface operations {
                             }[];
                             timeZone: string;
                         };
+                        tags?: {
+                            frozenLimit_s?: number;
+                            minCoverage?: number;
+                            name: string;
+                            spreadLimit?: number;
+                        }[];
                         /** @default [] */
                         units: {
                             description?: string;
@@ -1271,9 +1277,10 @@ export interface operations {
                 };
                 content: {
                     "application/json": {
-                        /** @description Units whose description, parameters, fuel or idle declaration changed; ports whose fluid, boundary, account or order changed. */
+                        /** @description Units whose description, parameters, fuel or idle declaration changed; ports whose fluid, boundary, account or order changed; tags whose limits (the file’s tags[]) changed. */
                         changed: {
                             ports: string[];
+                            tags: string[];
                             units: string[];
                         };
                         /** @description Rows the file added (a link version is never edited: a changed link is a new version). */
