@@ -1,5 +1,6 @@
 import { expect, it } from 'vitest';
 import { PortModelSchema, UnitModelSchema } from '~/lib/plant/model';
+import { TagLimitsSchema } from '~/lib/plant/tag-limits';
 import { LinkInput } from '~/server/services/plant-links';
 import { PortInput, SiteInput, UnitCreateInput, UnitUpdateInput } from '~/server/services/plant';
 import { InviteInput } from '~/server/services/users';
@@ -35,6 +36,7 @@ it('refuses a 2,000,000-character value in every stored text field', () => {
     ['link unit', LinkInput, { unitId: U, quantity: 'power', tag: 'JT-1', unit: 'kW' }, (v) => ({ ...v, unit: HUGE })],
     ['model unit parameter', UnitModelSchema, { name: 'P', kind: 'pump', parameters: { note: 'n' } }, (v) => ({ ...v, parameters: { note: HUGE } })],
     ['model port slot', PortModelSchema, { name: 'in', slot: 'inlet' }, (v) => ({ ...v, slot: HUGE })],
+    ['model tag limits name', TagLimitsSchema, { name: 'TG1_MW', frozenLimit_s: 7200 }, (v) => ({ ...v, name: HUGE })],
     ['token name', NewTokenInput, { name: 'nightly', role: 'operator' }, (v) => ({ ...v, name: HUGE })],
     ['notice acknowledgement', AcknowledgeInput, { comment: 'seen' }, () => ({ comment: HUGE })],
     ['notice closing comment', CloseInput, { comment: 'fixed' }, () => ({ comment: HUGE })],
