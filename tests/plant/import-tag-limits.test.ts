@@ -11,6 +11,7 @@ import { tags } from '~/server/db/schema';
 import type { PlantModel } from '~/lib/plant';
 import { ModelPutAnswer } from '~/lib/api/model';
 import { writeTagHours } from '~/server/services/tag-hours';
+import { linksForRange } from '~/server/services/plant-links';
 import { createSiteFromModel, exportModel } from '~/server/services/plant-model';
 import { GET as getModel, PUT as putModel } from '~/pages/api/v1/sites/[siteId]/model';
 import { describeIntegration } from '../support/integration';
@@ -98,6 +99,9 @@ describeIntegration('tags[] of the model file in the database', () => {
     expect(jobs.every((j) => j.unitIds!.length === 1 && j.fromMs === Date.parse('2024-02-01T00:00:00Z'))).toBe(true);
     expect(out.recompute.map((j) => j.unitIds![0]).sort()).toEqual(ids.sort());
     expect((await limitsOf(siteId, ['B2_MS_P'])).B2_MS_P!.spread).toBe(0.02);
+    // the engine reads the tag's limit with the links it computes by
+    const links = (await linksForRange(siteId, new Date('2024-02-01T00:00:00Z'), new Date('2024-02-01T01:00:00Z'))).filter((l) => l.tagName === 'B2_MS_P');
+    expect(links.map((l) => [l.unitName, l.tagSpreadLimit, l.tagMinCoverage]).sort()).toEqual([['Boiler 2', 0.02, null], ['PRV 42/9', 0.02, null]]);
   });
 
   it('a file without tags[] (written before the section) puts every tag back to its defaults and exports without the key', async () => {
