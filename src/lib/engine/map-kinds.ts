@@ -4,8 +4,9 @@
  * the hour can check. A new unit kind adds its mapper to KIND_MAPPERS (and its catalogue entry to
  * src/lib/plant/kinds.ts).
  */
-import type { PortSpec, UnitKind as BalanceKind, UnitModel } from '../equipment';
-import type { LinkQuantity, ParamValue, UnitKind } from '../plant/kinds';
+import type { PortSpec, UnitModel } from '../equipment';
+import type { BalanceKind, UnitKind } from '../kinds';
+import type { LinkQuantity, ParamValue } from '../plant/kinds';
 import type { MappedUnit } from './map';
 import { fromLink, linkAt, put, type Ctx } from './map-port';
 import { planPort } from './map-plan';
