@@ -45,6 +45,11 @@ export const UNIT_KIND_LABELS: Readonly<Record<UnitKind, string>> = {
   'control-volume': 'Generic control volume',
 };
 
+/** A stored unit kind's label; the stored text itself when it is no kind of the list (an old or foreign name). */
+export function unitKindLabel(kind: string): string {
+  return isUnitKind(kind) ? UNIT_KIND_LABELS[kind] : kind;
+}
+
 /** Kinds of exergy balance of the equipment library (src/lib/equipment): one balance function per family. */
 export const BALANCE_KINDS = [
   'turbine',

@@ -1,7 +1,8 @@
 import { sql } from 'drizzle-orm';
 import { doublePrecision, index, integer, jsonb, pgTable, text, timestamp, uniqueIndex, uuid, type AnyPgColumn } from 'drizzle-orm/pg-core';
 import type { EnergyPrice, FuelDefinition, Fluid } from '~/lib/plant/model';
-import type { LinkQuantity, ParamValue, PortRole, PortStream, UnitKind } from '~/lib/plant/kinds';
+import type { UnitKind } from '~/lib/kinds';
+import type { LinkQuantity, ParamValue, PortRole, PortStream } from '~/lib/plant/kinds';
 import type { UncertaintyMode } from '~/lib/plant/uncertainty';
 import type { NormallyIdle } from '~/lib/plant/idle';
 import type { DisplayUnits } from '~/lib/units/display';
