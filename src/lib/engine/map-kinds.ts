@@ -1,8 +1,8 @@
 /**
  * One mapper per unit kind of the plant model: which equipment balance it is, how each slot's ports
  * are planned, the unit's power and efficiencies, its load and minimum load, and which mass balance
- * the hour can check. A new unit kind adds its mapper to KIND_MAPPERS (and its catalogue entry to
- * src/lib/plant/kinds.ts).
+ * the hour can check. A new unit kind adds its mapper to KIND_MAPPERS (its name and the balance it
+ * runs to src/lib/kinds.ts, its catalogue entry to src/lib/plant/kind-catalogue.ts).
  */
 import type { PortSpec, UnitModel } from '../equipment';
 import type { BalanceKind, UnitKind } from '../kinds';

@@ -36,7 +36,7 @@ export const sites = pgTable('sites', {
   updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
 });
 
-/** One piece of equipment of a kind of src/lib/plant/kinds.ts; parameters in SI, keyed as there. */
+/** One piece of equipment of a kind of src/lib/kinds.ts (catalogue: src/lib/plant/kinds.ts); parameters in SI, keyed as there. */
 export const plantUnits = pgTable(
   'plant_units',
   {
