@@ -11,10 +11,10 @@
  * states cannot carry over from one hour to the next. The product target: a 50-unit site for a year
  * (438,000 unit hours) with uncertainty in under a minute on 2 cores, i.e. >= 3,650 unit hours/s per core.
  */
-import { evaluateUnitHour, inputNames, unitHourWithUncertainty, type UnitKind, type UnitModel } from '~/lib/equipment';
+import { evaluateUnitHour, inputNames, unitHourWithUncertainty, type BalanceKind, type UnitModel } from '~/lib/equipment';
 
 interface Case {
-  kind: UnitKind;
+  kind: BalanceKind;
   model: UnitModel;
   values: Record<string, number>;
   /** relative standard uncertainty per input name pattern (suffix) */
@@ -156,7 +156,7 @@ function mulberry32(seed: number): () => number {
 }
 
 interface Prepared {
-  kind: UnitKind;
+  kind: BalanceKind;
   model: UnitModel;
   x0: Float64Array;
   u: Float64Array;

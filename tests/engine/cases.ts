@@ -11,7 +11,8 @@
  */
 import { readFileSync } from 'node:fs';
 import type { Fluid, FuelDefinition } from '~/lib/plant/model';
-import type { LinkQuantity, UnitKind } from '~/lib/plant/kinds';
+import type { UnitKind } from '~/lib/kinds';
+import type { LinkQuantity } from '~/lib/plant/kinds';
 
 export const P_ATM_Pa = 101325;
 

@@ -14,7 +14,7 @@ import {
   turbineBalance,
   unitHourWithUncertainty,
   type BalanceErrorCode,
-  type UnitKind,
+  type BalanceKind,
   type UnitModel,
 } from '~/lib/equipment';
 
@@ -101,7 +101,7 @@ describe('bad inputs give typed errors naming the input', () => {
   });
 
   it('an unknown unit kind', () => {
-    expectBalanceError(() => inputNames('reactor' as UnitKind, {}), 'INVALID_MODEL', 'kind', /unknown unit kind 'reactor'/);
+    expectBalanceError(() => inputNames('reactor' as BalanceKind, {}), 'INVALID_MODEL', 'kind', /unknown unit kind 'reactor'/);
   });
 
   it('a vapour fraction on a gas port', () => {

@@ -19,7 +19,7 @@ import {
   type Composition,
   type SpeciesName,
 } from '~/lib/thermo';
-import { evaluateUnitHour, inputVector, type UnitBalance, type UnitKind, type UnitModel } from '~/lib/equipment';
+import { evaluateUnitHour, inputVector, type UnitBalance, type BalanceKind, type UnitModel } from '~/lib/equipment';
 
 const T0 = 298.15;
 const p0 = 101325;
@@ -46,7 +46,7 @@ function check(b: UnitBalance, label: string): void {
   expect(b.destruction_W, `${label}: D >= 0`).toBeGreaterThanOrEqual(-1e-6 * scale);
 }
 
-function run(kind: UnitKind, model: UnitModel, make: (r: Source) => Record<string, number>, seed: number): UnitBalance[] {
+function run(kind: BalanceKind, model: UnitModel, make: (r: Source) => Record<string, number>, seed: number): UnitBalance[] {
   const out: UnitBalance[] = [];
   fc.assert(
     fc.property(draws(64), (d) => {

@@ -7,19 +7,19 @@ import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { expectClose } from '../support/expect-close';
 import {
-  UNIT_KINDS,
+  BALANCE_KINDS,
   evaluateUnitHour,
   inputVector,
   portState,
   type FluidSpec,
   type PortMeasurement,
-  type UnitKind,
+  type BalanceKind,
   type UnitModel,
 } from '~/lib/equipment';
 
 interface RefCase {
   id: string;
-  kind: UnitKind;
+  kind: BalanceKind;
   note: string;
   model: UnitModel;
   inputs: Record<string, number>;
@@ -42,7 +42,7 @@ describe('reference fixture', () => {
     expect(FIX.library).toMatch(/iapws/);
     expect(FIX.library_version).toMatch(/^\d+\.\d+/);
     const kinds = new Set(FIX.cases.map((c) => c.kind));
-    for (const k of UNIT_KINDS) expect(kinds.has(k), `no reference case for ${k}`).toBe(true);
+    for (const k of BALANCE_KINDS) expect(kinds.has(k), `no reference case for ${k}`).toBe(true);
   });
 });
 

@@ -7,11 +7,11 @@ import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { expectClose } from '../support/expect-close';
 import { monteCarlo, propagate } from '~/lib/analytics/uncertainty';
-import { evaluateUnitHour, inputNames, inputVector, unitHourWithUncertainty, type UnitKind, type UnitModel } from '~/lib/equipment';
+import { evaluateUnitHour, inputNames, inputVector, unitHourWithUncertainty, type BalanceKind, type UnitModel } from '~/lib/equipment';
 
 interface RefCase {
   id: string;
-  kind: UnitKind;
+  kind: BalanceKind;
   model: UnitModel;
   inputs: Record<string, number>;
 }

@@ -2,7 +2,7 @@ import { randomUUID } from 'node:crypto';
 import { db } from '~/server/db/client';
 import { unitHours } from '~/server/db/schema';
 import { createSite, createUnit } from '~/server/services/plant';
-import type { UnitKind } from '~/lib/plant/kinds';
+import type { UnitKind } from '~/lib/kinds';
 
 /** A name no other test run uses. */
 export const uniqueName = (what: string) => `${what} ${randomUUID().slice(0, 8)}`;

@@ -9,7 +9,8 @@ import { describe, expect, it } from 'vitest';
 import { ERROR_CODES } from '~/server/errors';
 import { UPLOAD_STATUSES } from '~/server/db/ingest-schema';
 import { INGEST_ERROR_CODES } from '~/lib/ingest/errors';
-import { FLUID_KINDS, LINK_QUANTITY_NAMES, UNIT_KINDS, kindSpec } from '~/lib/plant/kinds';
+import { UNIT_KINDS } from '~/lib/kinds';
+import { FLUID_KINDS, LINK_QUANTITY_NAMES, kindSpec } from '~/lib/plant/kinds';
 import { HOUR_STATES } from '~/lib/hour-states';
 import { quantities } from '~/lib/units/quantities';
 import { ALL_TERMS } from '~/components/insight/baselines/types';
@@ -39,7 +40,7 @@ const sourceLists: [string, string[]][] = [
   ['notice trends (notice-view.ts)', unionOf('lib/notice-view.ts', 'NoticeTrend')],
   ['close outcomes (notice-view.ts)', unionOf('lib/notice-view.ts', 'CloseOutcome')],
   ['prior reasons (notice-view.ts)', unionOf('lib/notice-view.ts', 'PriorReason')],
-  ['port directions (plant/kinds.ts)', unionOf('lib/plant/kinds.ts', 'PortRole')],
+  ['port directions (plant/kind-spec.ts)', unionOf('lib/plant/kind-spec.ts', 'PortRole')],
   ['baseline terms', [...ALL_TERMS, 'intercept']],
   ['API error codes (server/errors.ts)', [...ERROR_CODES]],
   ['ingest errors (ingest/errors.ts)', [...INGEST_ERROR_CODES]],

@@ -1,11 +1,12 @@
 /**
  * One mapper per unit kind of the plant model: which equipment balance it is, how each slot's ports
  * are planned, the unit's power and efficiencies, its load and minimum load, and which mass balance
- * the hour can check. A new unit kind adds its mapper to KIND_MAPPERS (and its catalogue entry to
- * src/lib/plant/kinds.ts).
+ * the hour can check. A new unit kind adds its mapper to KIND_MAPPERS (its name and the balance it
+ * runs to src/lib/kinds.ts, its catalogue entry to src/lib/plant/kind-catalogue.ts).
  */
-import type { PortSpec, UnitKind as BalanceKind, UnitModel } from '../equipment';
-import type { LinkQuantity, ParamValue, UnitKind } from '../plant/kinds';
+import type { PortSpec, UnitModel } from '../equipment';
+import type { BalanceKind, UnitKind } from '../kinds';
+import type { LinkQuantity, ParamValue } from '../plant/kinds';
 import type { MappedUnit } from './map';
 import { fromLink, linkAt, put, type Ctx } from './map-port';
 import { planPort } from './map-plan';

@@ -19,7 +19,8 @@
  * unit, absolute ones are in the link's unit (src/lib/units uncertaintyToSI). A flow converted from a
  * volume keeps the volume reading's relative uncertainty (the density is taken as exact).
  */
-import type { PortSpec, UnitKind as BalanceKind, UnitModel } from '../equipment';
+import type { PortSpec, UnitModel } from '../equipment';
+import type { BalanceKind } from '../kinds';
 import { defaultParameters, type LinkQuantity, type ParamValue } from '../plant/kinds';
 import { KIND_MAPPERS } from './map-kinds';
 import { missingRequiredCached } from './map-plan';

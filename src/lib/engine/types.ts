@@ -4,7 +4,8 @@
  */
 import type { HourState } from '../hour-states';
 import type { EnergyPrice, Fluid as PlantFluid, FuelDefinition } from '../plant/model';
-import type { LinkQuantity, ParamValue, UnitKind as PlantKind } from '../plant/kinds';
+import type { UnitKind as PlantKind } from '../kinds';
+import type { LinkQuantity, ParamValue } from '../plant/kinds';
 
 /** A unit of the plant model (src/lib/plant), parameters in SI keyed as in the catalogue. */
 export interface EngineUnit {

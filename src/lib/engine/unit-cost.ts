@@ -11,7 +11,7 @@
  *
  * @see Lazzaretto & Tsatsaronis, Energy 31 (2006) 1257-1289; docs/domain.md s.3 and s.7
  */
-import type { UnitKind } from '../plant/kinds';
+import type { UnitKind } from '../kinds';
 import type { EnergyPrice, Fluid, FuelDefinition } from '../plant/model';
 import { costKindOf, electricityCost, fuelExergyCost, steamCost, type BoilerHour } from './cost';
 import type { CostBasis, EngineUnit } from './types';

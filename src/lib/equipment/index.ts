@@ -14,7 +14,8 @@ export {
   prepareFluid,
 } from './fluids';
 export type { Environment, Fluid, FluidSpec, FuelSpec, PortFlag, PortMeasurement, PortPhase, PortState } from './fluids';
-export { UNIT_KINDS, assemble, resolvePorts } from './balance';
+export { BALANCE_KINDS, type BalanceKind } from '../kinds';
+export { assemble, resolvePorts } from './balance';
 export type {
   BalancePort,
   HeatFlow,
@@ -24,7 +25,6 @@ export type {
   ResolvedPort,
   TermRole,
   UnitBalance,
-  UnitKind,
   UnitTerm,
 } from './balance';
 export {

@@ -23,8 +23,8 @@
  * Efficiencies are vector entries (not constants) so their uncertainty propagates too.
  * @see JCGM 100:2008 (GUM) 5.1.2, 5.1.3, 6.2-6.3; docs/domain.md s.7
  */
-import type { BalancePort, TermRole, UnitBalance, UnitKind } from './balance';
-import { UNIT_KINDS } from './balance';
+import { BALANCE_KINDS as UNIT_KINDS, type BalanceKind as UnitKind } from '../kinds';
+import type { BalancePort, TermRole, UnitBalance } from './balance';
 import { BalanceInputError } from './errors';
 import { fuelSpecOf, prepareFluid, type Environment, type Fluid, type FluidSpec, type PortMeasurement, type PortState } from './fluids';
 import {

@@ -3,7 +3,8 @@
  * balance (./model.ts), the perturbed balances lean (F, P, L, D and efficiency only).
  * @see JCGM 100:2008 (GUM) 5.1.2 eq. 10, 5.1.3, 6.2-6.3
  */
-import type { UnitBalance, UnitKind } from './balance';
+import type { BalanceKind as UnitKind } from '../kinds';
+import type { UnitBalance } from './balance';
 import { BalanceInputError } from './errors';
 import { compiledUnit, type UnitModel } from './model';
 

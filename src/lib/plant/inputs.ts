@@ -6,7 +6,7 @@ import { z } from 'zod';
 import { ELEVATION_MAX_m, ELEVATION_MIN_m } from './atmosphere';
 import { NormallyIdleSchema } from './idle';
 import { DisplayUnitsSchema } from '../units/display';
-import { UNIT_KINDS } from './kinds';
+import { UNIT_KINDS } from '../kinds';
 import { EnergyPriceSchema, FluidSchema, FuelDefinitionSchema, PRESSURE_ATM_MAX_Pa, PRESSURE_ATM_MIN_Pa, T0_MAX_K, T0_MIN_K, isTimeZone } from './model';
 
 export const Currency = z.string().regex(/^[A-Z]{3}$/, 'A currency is a three-letter ISO 4217 code in capitals (EUR, USD, GBP).');

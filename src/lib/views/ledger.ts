@@ -8,7 +8,7 @@
  * as fully correlated (instrument bias dominates an hour's uncertainty, and a bias does not average
  * out); that is the cautious choice and is said beside every figure.
  */
-import { kindSpec, type UnitKind } from '../plant/kinds';
+import { unitKindLabel } from '../kinds';
 import { HOUR_STATES, zeroStateCounts, type StateCounts } from '../hour-states';
 import type { Period, PeriodChoice } from './period';
 import type { Freshness } from './freshness';
@@ -17,13 +17,7 @@ import type { Freshness } from './freshness';
 export const WH_PER_MWH = 1e6;
 
 /** A unit kind's label ('Steam turbine'); the kind itself when the catalogue does not know it. */
-export const kindLabel = (kind: string): string => {
-  try {
-    return kindSpec(kind as UnitKind).label;
-  } catch {
-    return kind;
-  }
-};
+export const kindLabel = (kind: string): string => unitKindLabel(kind);
 
 /** The site as every view answer names it. */
 export interface ViewSite {

@@ -7,7 +7,7 @@
  */
 import { figure, type WordEntry } from './types';
 
-/** Figures of a balance and its companions (src/lib/equipment/balance.ts, kinds.ts `extras`). */
+/** Figures of a balance and its companions (src/lib/equipment/balance.ts, balances/*.ts `extras`). */
 export const FIGURE_WORDS = {
   fuel_W: figure('fuel exergy F', 'power', 'Exergy the unit uses up: what it is given to make its product.'),
   product_W: figure('product exergy P', 'power', 'Exergy the unit is there to deliver.'),

@@ -6,7 +6,8 @@
  */
 import type { HourState } from '../hour-states';
 import type { CloseOutcome, NoticeKind, NoticeLife, NoticeStatus, NoticeTrend, PriorReason } from '../notice-view';
-import { FLUID_KINDS, FLUID_LABELS, LINK_QUANTITIES, LINK_QUANTITY_NAMES, UNIT_KINDS, kindSpec, type FluidKind, type LinkQuantity, type UnitKind } from '../plant/kinds';
+import { UNIT_KINDS, UNIT_KIND_LABELS, type UnitKind } from '../kinds';
+import { FLUID_KINDS, FLUID_LABELS, LINK_QUANTITIES, LINK_QUANTITY_NAMES, kindSpec, type FluidKind, type LinkQuantity } from '../plant/kinds';
 import { quantityList, type Quantity } from '../units/quantities';
 import { code, type WordEntry } from './types';
 
@@ -69,7 +70,7 @@ export const BALANCE_ROLE_WORDS = {
   loss: code('loss L', 'Exergy leaving unused.'),
 } as const satisfies Record<string, WordEntry>;
 
-/** Directions of ports (src/lib/plant/kinds.ts, PortRole). */
+/** Directions of ports (src/lib/plant/kind-spec.ts, PortRole). */
 export const PORT_DIRECTION_WORDS = {
   in: code('in', 'Stream or heat into the unit.'),
   out: code('out', 'Stream or heat out of the unit.'),
@@ -77,8 +78,9 @@ export const PORT_DIRECTION_WORDS = {
 
 const lower = (s: string) => s.charAt(0).toLowerCase() + s.slice(1);
 
+/** Unit kinds of the plant model, keyed by the one list of src/lib/kinds.ts. */
 export const UNIT_KIND_WORDS = Object.fromEntries(
-  UNIT_KINDS.map((k) => [k, code(lower(kindSpec(k).label), `A unit of the kind “${lower(kindSpec(k).label)}”.`)]),
+  UNIT_KINDS.map((k) => [k, code(lower(UNIT_KIND_LABELS[k]), `A unit of the kind “${lower(UNIT_KIND_LABELS[k])}”.`)]),
 ) as Record<UnitKind, WordEntry>;
 
 /** Port slots of every kind (their ids are camelCase: 'hotIn', 'flueGas'), from the kind catalogue. */

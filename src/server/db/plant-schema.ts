@@ -1,7 +1,8 @@
 import { sql } from 'drizzle-orm';
 import { doublePrecision, index, integer, jsonb, pgTable, text, timestamp, uniqueIndex, uuid, type AnyPgColumn } from 'drizzle-orm/pg-core';
 import type { EnergyPrice, FuelDefinition, Fluid } from '~/lib/plant/model';
-import type { LinkQuantity, ParamValue, PortRole, PortStream, UnitKind } from '~/lib/plant/kinds';
+import type { UnitKind } from '~/lib/kinds';
+import type { LinkQuantity, ParamValue, PortRole, PortStream } from '~/lib/plant/kinds';
 import type { UncertaintyMode } from '~/lib/plant/uncertainty';
 import type { NormallyIdle } from '~/lib/plant/idle';
 import type { DisplayUnits } from '~/lib/units/display';
@@ -35,7 +36,7 @@ export const sites = pgTable('sites', {
   updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
 });
 
-/** One piece of equipment of a kind of src/lib/plant/kinds.ts; parameters in SI, keyed as there. */
+/** One piece of equipment of a kind of src/lib/kinds.ts (catalogue: src/lib/plant/kinds.ts); parameters in SI, keyed as there. */
 export const plantUnits = pgTable(
   'plant_units',
   {

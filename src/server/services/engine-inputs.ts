@@ -19,7 +19,7 @@ import {
   type TagHour,
   type UnitHourInput,
 } from '~/lib/engine';
-import type { UnitKind } from '~/lib/plant/kinds';
+import type { UnitKind } from '~/lib/kinds';
 import type { Fluid } from '~/lib/plant/model';
 import { db } from '../db/client';
 import { coveredFractionSql, flatlineSql, plantPorts, plantUnits, sites, tagHours, tags, unitHours } from '../db/schema';

@@ -14,7 +14,7 @@ type MailJob = z.infer<typeof SendMailPayload>;
 import { unitFuelCost } from '~/lib/engine/unit-cost';
 import { siteDayStart } from '~/lib/site-time';
 import { DAY_MS, hourCeil, hourFloor } from '~/lib/time';
-import type { UnitKind } from '~/lib/plant/kinds';
+import type { UnitKind } from '~/lib/kinds';
 import type { Role } from '~/lib/roles';
 import { db } from '../db/client';
 import type { NoticeView } from '~/lib/notice-view';

@@ -6,7 +6,7 @@
  */
 import { and, asc, eq, gt, inArray, isNull, lte, or } from 'drizzle-orm';
 import { BEGINNING_MS, type LinkModel, type PlantModel, type PortModel, type SiteModel, type UnitModel } from '~/lib/plant/model';
-import type { UnitKind } from '~/lib/plant/kinds';
+import type { UnitKind } from '~/lib/kinds';
 import { unitStatus, type UnitStatus } from '~/lib/plant/status';
 import { tidyNormallyIdle } from '~/lib/plant/idle';
 import { db } from '../db/client';

@@ -1,0 +1,127 @@
+/**
+ * The one list of kind names: the unit kinds of the plant model (what a model file and the database
+ * store for a unit) and the balance kinds of the equipment library (which exergy balance runs), with
+ * the one table that relates them. Every other module takes the names from here.
+ *
+ * The two lists differ by design, not by accident: a balance is a computation that several kinds of
+ * equipment share, and the equipment library keeps a few names of its own (an expander is a turbine,
+ * a deaerator a mixer ...). The names themselves are stored (model files, the database, the reference
+ * fixture of the balances and the hour's audit trail the API answers with), so they stay as they are;
+ * where a unit kind runs a balance of another name, BALANCE_KINDS_OF_UNIT_KIND says so.
+ */
+
+/** Kinds of unit of the plant model, in the order of docs/domain.md section 3 (stored names). */
+export const UNIT_KINDS = [
+  'turbine',
+  'compressor',
+  'pump',
+  'fan',
+  'heat-exchanger',
+  'boiler',
+  'let-down-valve',
+  'mixer',
+  'condenser',
+  'motor-generator',
+  'control-volume',
+] as const;
+export type UnitKind = (typeof UNIT_KINDS)[number];
+
+export function isUnitKind(k: unknown): k is UnitKind {
+  return typeof k === 'string' && (UNIT_KINDS as readonly string[]).includes(k);
+}
+
+/** What a unit kind is called on the screens (the catalogue's label, the words catalogue's word). */
+export const UNIT_KIND_LABELS: Readonly<Record<UnitKind, string>> = {
+  turbine: 'Turbine / expander',
+  compressor: 'Compressor',
+  pump: 'Pump',
+  fan: 'Fan',
+  'heat-exchanger': 'Heat exchanger',
+  boiler: 'Boiler / steam generator',
+  'let-down-valve': 'Let-down valve',
+  mixer: 'Mixer / deaerator',
+  condenser: 'Condenser / cooler',
+  'motor-generator': 'Motor / generator',
+  'control-volume': 'Generic control volume',
+};
+
+/** A stored unit kind's label; the stored text itself when it is no kind of the list (an old or foreign name). */
+export function unitKindLabel(kind: string): string {
+  return isUnitKind(kind) ? UNIT_KIND_LABELS[kind] : kind;
+}
+
+/** Kinds of exergy balance of the equipment library (src/lib/equipment): one balance function per family. */
+export const BALANCE_KINDS = [
+  'turbine',
+  'expander',
+  'compressor',
+  'pump',
+  'fan',
+  'heat-exchanger',
+  'boiler',
+  'valve',
+  'mixer',
+  'deaerator',
+  'open-feedwater-heater',
+  'condenser',
+  'cooler',
+  'motor',
+  'generator',
+  'generic',
+] as const;
+export type BalanceKind = (typeof BALANCE_KINDS)[number];
+
+export function isBalanceKind(k: unknown): k is BalanceKind {
+  return typeof k === 'string' && (BALANCE_KINDS as readonly string[]).includes(k);
+}
+
+/**
+ * The families of balance kinds: the kinds of one family run the same balance function and differ
+ * only in their labels and defaults (an expander is balanced as a turbine, a pump as a compressor).
+ */
+export const BALANCE_FAMILIES = {
+  turbine: ['turbine', 'expander'],
+  compressor: ['compressor', 'pump', 'fan'],
+  'heat-exchanger': ['heat-exchanger'],
+  boiler: ['boiler'],
+  valve: ['valve'],
+  mixer: ['mixer', 'deaerator', 'open-feedwater-heater'],
+  condenser: ['condenser', 'cooler'],
+  machine: ['motor', 'generator'],
+  generic: ['generic'],
+} as const satisfies Record<string, readonly BalanceKind[]>;
+export type BalanceFamily = keyof typeof BALANCE_FAMILIES;
+/** The balance kinds of one family ('turbine' | 'expander' for the turbine family). */
+export type BalanceFamilyKind<F extends BalanceFamily> = (typeof BALANCE_FAMILIES)[F][number];
+
+/** The family of a balance kind. */
+export function balanceFamilyOf(kind: BalanceKind): BalanceFamily {
+  for (const f of Object.keys(BALANCE_FAMILIES) as BalanceFamily[]) {
+    if ((BALANCE_FAMILIES[f] as readonly BalanceKind[]).includes(kind)) return f;
+  }
+  throw new Error(`Balance kind '${String(kind)}' has no family. Kinds: ${BALANCE_KINDS.join(', ')}.`);
+}
+
+/**
+ * The balance kinds a plant unit kind runs (src/lib/engine/map-kinds.ts picks one per unit). Where
+ * the names differ it is by design: a let-down valve runs the valve balance, a control volume the
+ * generic one, and a motor-generator the motor or the generator balance by its parameter `mode`.
+ */
+export const BALANCE_KINDS_OF_UNIT_KIND = {
+  turbine: ['turbine'],
+  compressor: ['compressor'],
+  pump: ['pump'],
+  fan: ['fan'],
+  'heat-exchanger': ['heat-exchanger'],
+  boiler: ['boiler'],
+  'let-down-valve': ['valve'],
+  mixer: ['mixer'],
+  condenser: ['condenser'],
+  'motor-generator': ['motor', 'generator'],
+  'control-volume': ['generic'],
+} as const satisfies Record<UnitKind, readonly BalanceKind[]>;
+
+/** The balance kinds a unit of this kind may run, by the table above. */
+export function balanceKindsOf<K extends UnitKind>(kind: K): (typeof BALANCE_KINDS_OF_UNIT_KIND)[K] {
+  return BALANCE_KINDS_OF_UNIT_KIND[kind];
+}
