@@ -1,9 +1,16 @@
 /**
  * A baseline version as the API answers it: one definition for the server
- * (src/server/services/baselines.ts) and the islands (src/components/insight/baselines). Types only.
+ * (src/server/services/baselines.ts) and the islands (src/components/insight/baselines), and the
+ * label that names a version wherever it is shown (its page, a notice, a mail).
  */
 import type { BaselineModel, BaselineTerm, Guideline14Check } from './analytics/baseline';
 import type { FitTrust } from './analytics/fit-trust';
+import { siteDay } from './site-time';
+
+/** The label of a baseline version; the period end is shown as its last day (the end is exclusive). */
+export function baselineLabel(version: number, periodFrom: Date, periodTo: Date, timeZone: string): string {
+  return `Baseline v${version} (${siteDay(periodFrom, timeZone)} to ${siteDay(periodTo.getTime() - 1, timeZone)})`;
+}
 
 export type BaselineStatus = 'draft' | 'active' | 'discarded' | 'retired';
 

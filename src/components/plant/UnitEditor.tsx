@@ -10,9 +10,10 @@ import LinksSection from './unit/LinksSection';
 import ParametersForm from './unit/ParametersForm';
 import PortsTable from './unit/PortsTable';
 import UnitStatusCard from './unit/UnitStatusCard';
-import type { LinkFormState, LinkRow, UnitPageData } from './unit/types';
+import type { LinkVersionAnswer } from '~/lib/plant/link-version';
+import type { LinkFormState, UnitPageData } from './unit/types';
 
-export type { LinkRow, UnitPageData } from './unit/types';
+export type { UnitPageData } from './unit/types';
 export { slotCountWords } from './unit/slot-words';
 
 /** The unit's data, reloaded after each change, and the changes that need no form. */
@@ -21,7 +22,7 @@ function useUnit(initial: UnitPageData) {
   const { site, unit } = data;
   const reload = useCallback(async () => {
     const [u, t] = await Promise.all([
-      call<{ unit: UnitJson; history: LinkRow[] }>(`/api/sites/${site.id}/units/${unit.id}`),
+      call<{ unit: UnitJson; history: LinkVersionAnswer[] }>(`/api/sites/${site.id}/units/${unit.id}`),
       call<{ tags: TagJson[] }>(`/api/sites/${site.id}/tags`),
     ]);
     setData((d) => ({ ...d, unit: u.unit, history: u.history, tags: t.tags }));
@@ -55,7 +56,7 @@ export default function UnitEditor({ initial, canEdit }: { initial: UnitPageData
     if (!(await ask({ title: `Remove port ${p.name}?`, body: 'Its tag links go with it.', confirm: 'Remove the port', danger: true }))) return;
     await attempt(() => u.removePort(p.id), () => done({ ok: true, text: `Port ${p.name} removed.` }));
   }
-  const endLink = (l: LinkRow) => attempt(() => u.endLink(l.id), () => done({ ok: true, text: `${l.tagName} no longer linked from now on; older hours keep it.` }));
+  const endLink = (l: LinkVersionAnswer) => attempt(() => u.endLink(l.id), () => done({ ok: true, text: `${l.tagName} no longer linked from now on; older hours keep it.` }));
   async function removeUnit() {
     if (!(await ask({ title: `Delete unit ${unit.name}?`, body: 'Its ports and tag links are deleted with it.', confirm: 'Delete the unit', danger: true }))) return;
     await attempt(u.removeUnit, () => void (window.location.href = `/plant/${site.id}`));

@@ -4,8 +4,8 @@
  */
 import type { HourState } from '../hour-states';
 import type { EnergyPrice, Fluid as PlantFluid, FuelDefinition } from '../plant/model';
-import type { UnitKind as PlantKind } from '../kinds';
-import type { LinkQuantity, ParamValue } from '../plant/kinds';
+import type { LinkQuantity, ParamValue, UnitKind as PlantKind } from '../plant/kinds';
+import type { LinkVersionFigures } from '../plant/link-version';
 
 /** A unit of the plant model (src/lib/plant), parameters in SI keyed as in the catalogue. */
 export interface EngineUnit {
@@ -29,22 +29,9 @@ export interface EnginePort {
   account: string | null;
 }
 
-/** A tag link version (src/server/services/plant-links.ts ResolvedLink, times in ms). */
-export interface EngineLink {
+/** A tag link version (src/lib/plant/link-version.ts, instants in ms). */
+export interface EngineLink extends LinkVersionFigures {
   id: string;
-  /** null: a measurement of the unit itself (power) */
-  portName: string | null;
-  quantity: LinkQuantity;
-  tagName: string;
-  /** engineering unit of the tag ('barg', 'degC', 't/h' ...) */
-  engUnit: string;
-  basis: 'dry' | 'wet' | null;
-  /** 'absolute': in engUnit; 'relative': percent of reading */
-  uncertaintyMode: 'absolute' | 'relative';
-  uncertainty: number;
-  /** valid range in engUnit */
-  validMin: number | null;
-  validMax: number | null;
   validFromMs: number;
   /** null while current */
   validToMs: number | null;

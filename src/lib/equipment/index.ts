@@ -51,15 +51,14 @@ export type {
   PortBalanceInput,
   TurbineInput,
 } from './kinds';
-export { compileUnit, compiledUnit, evaluateUnitHour, inputNames, inputVector, unitHourWithUncertainty } from './model';
+export { compileUnit, compiledUnit, evaluateUnitHour, inputNames, inputVector } from './model';
+export { unitHourWithUncertainty } from './uncertainty';
+export type { Uncertain, UncertaintyOptions, UnitHourUncertainty } from './uncertainty';
 export type {
   CompiledUnit,
   GenericTermSpec,
   PortFlowMode,
   PortSpec,
   PortStateMode,
-  Uncertain,
-  UncertaintyOptions,
-  UnitHourUncertainty,
   UnitModel,
 } from './model';

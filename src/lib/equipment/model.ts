@@ -387,5 +387,3 @@ export function inputVector(kind: UnitKind, model: UnitModel, values: Readonly<R
 export function evaluateUnitHour(kind: UnitKind, model: UnitModel, measurements: ArrayLike<number>): UnitBalance {
   return compiledUnit(kind, model).evaluate(measurements);
 }
-
-export { unitHourWithUncertainty, type Uncertain, type UncertaintyOptions, type UnitHourUncertainty } from './uncertainty';

@@ -1,12 +1,13 @@
 /**
  * The checks of a plant model file that a schema cannot express, per part (composition, parameter,
- * port, link): every problem with its JSON path. The whole file's check is checkModel (./model.ts).
+ * port, link): every problem with its JSON path. The whole file's check is checkModel (./model.ts);
+ * the shapes checked are in ./model-schema.ts.
  */
 import { jsonPath } from '~/lib/zod-words';
 import { SPECIES_NAMES } from '../thermo/gas';
 import { canConvert } from '../units/convert';
 import { LINK_QUANTITIES, allowedQuantities, kindSpec, type FluidKind, type UnitKind } from './kinds';
-import { BEGINNING_MS, COMPOSITION_SUM_TOLERANCE, type Composition, type LinkModel, type ModelIssue, type PortModel } from './model';
+import { BEGINNING_MS, COMPOSITION_SUM_TOLERANCE, type Composition, type LinkModel, type ModelIssue, type PortModel } from './model-schema';
 
 /** True when the runtime knows the IANA zone. */
 export function isTimeZone(tz: string): boolean {

@@ -75,6 +75,41 @@ function atLocalDay(date: string, timeZone: string): TZDate {
 
 const day = (t: Date) => format(t, 'yyyy-MM-dd');
 
+type CalendarRange = Exclude<Range, 'custom'>;
+
+/** Each calendar range: where it starts around an anchor, one step of it, and how people name it. */
+const CALENDAR: Record<CalendarRange, { startOf: (d: TZDate) => TZDate; add: (d: TZDate, n: number) => TZDate; label: (start: TZDate) => string }> = {
+  day: { startOf: (d) => startOfDay(d), add: (d, n) => addDays(d, n), label: (s) => format(s, 'EEE d MMM yyyy') },
+  week: { startOf: (d) => startOfWeek(d, { weekStartsOn: 1 }), add: (d, n) => addWeeks(d, n), label: (s) => `Week of ${format(s, 'd MMM yyyy')}` },
+  month: { startOf: (d) => startOfMonth(d), add: (d, n) => addMonths(d, n), label: (s) => format(s, 'MMMM yyyy') },
+  year: { startOf: (d) => startOfYear(d), add: (d, n) => addYears(d, n), label: (s) => format(s, 'yyyy') },
+};
+
+interface Bounds {
+  start: TZDate;
+  end: TZDate;
+  label: string;
+  prev: Date;
+  next: Date;
+}
+
+function calendarBounds(range: CalendarRange, anchor: TZDate): Bounds {
+  const c = CALENDAR[range];
+  const start = c.startOf(anchor);
+  const end = c.add(start, 1);
+  return { start, end, label: c.label(start), prev: c.add(start, -1), next: end };
+}
+
+function customBounds(q: PeriodQuery, timeZone: string): Bounds {
+  const start = atLocalDay(q.from!, timeZone);
+  const last = atLocalDay(q.to!, timeZone);
+  if (last.getTime() < start.getTime()) throw new RangeError('The custom period ends before it starts.');
+  const end = addDays(last, 1);
+  const days = Math.round((end.getTime() - start.getTime()) / DAY_MS);
+  if (days > CUSTOM_MAX_DAYS) throw new RangeError(`A custom period may span at most ${CUSTOM_MAX_DAYS} days; this one spans ${days}.`);
+  return { start, end, label: `${format(start, 'd MMM yyyy')} – ${format(last, 'd MMM yyyy')}`, prev: addDays(start, -days), next: end };
+}
+
 /**
  * The period a query asks for, in the site's time zone.
  * @param nowMs "now" [ms since epoch], for the default anchor (today on site)
@@ -83,53 +118,7 @@ const day = (t: Date) => format(t, 'yyyy-MM-dd');
  */
 export function resolvePeriod(q: PeriodQuery, timeZone: string, nowMs = Date.now()): Period {
   const anchor = q.anchor ? atLocalDay(q.anchor, timeZone) : startOfDay(new TZDate(nowMs, timeZone));
-  let start: TZDate;
-  let end: TZDate;
-  let label: string;
-  let prev: Date;
-  let next: Date;
-  switch (q.range) {
-    case 'day':
-      start = startOfDay(anchor);
-      end = addDays(start, 1);
-      label = format(start, 'EEE d MMM yyyy');
-      prev = addDays(start, -1);
-      next = end;
-      break;
-    case 'week':
-      start = startOfWeek(anchor, { weekStartsOn: 1 });
-      end = addWeeks(start, 1);
-      label = `Week of ${format(start, 'd MMM yyyy')}`;
-      prev = addWeeks(start, -1);
-      next = end;
-      break;
-    case 'month':
-      start = startOfMonth(anchor);
-      end = addMonths(start, 1);
-      label = format(start, 'MMMM yyyy');
-      prev = addMonths(start, -1);
-      next = end;
-      break;
-    case 'year':
-      start = startOfYear(anchor);
-      end = addYears(start, 1);
-      label = format(start, 'yyyy');
-      prev = addYears(start, -1);
-      next = end;
-      break;
-    case 'custom': {
-      start = atLocalDay(q.from!, timeZone);
-      const last = atLocalDay(q.to!, timeZone);
-      if (last.getTime() < start.getTime()) throw new RangeError('The custom period ends before it starts.');
-      end = addDays(last, 1);
-      const days = Math.round((end.getTime() - start.getTime()) / DAY_MS);
-      if (days > CUSTOM_MAX_DAYS) throw new RangeError(`A custom period may span at most ${CUSTOM_MAX_DAYS} days; this one spans ${days}.`);
-      label = `${format(start, 'd MMM yyyy')} – ${format(last, 'd MMM yyyy')}`;
-      prev = addDays(start, -days);
-      next = end;
-      break;
-    }
-  }
+  const { start, end, label, prev, next } = q.range === 'custom' ? customBounds(q, timeZone) : calendarBounds(q.range, anchor);
   return {
     range: q.range,
     timeZone,

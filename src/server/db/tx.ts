@@ -1,8 +1,10 @@
 import { drizzle, type NodePgDatabase } from 'drizzle-orm/node-postgres';
-import { pgPool } from './client';
+import { pgPool, type db } from './client';
 import * as schema from './schema';
 
 export type Tx = NodePgDatabase<typeof schema>;
+/** What a read runs on: a transaction, or the pool's client. */
+export type Reader = Tx | ReturnType<typeof db>;
 /** Runs SQL on the transaction's connection (a pg-boss send that must commit with the rows). */
 export type Exec = (text: string, values: unknown[]) => Promise<{ rows: unknown[] }>;
 

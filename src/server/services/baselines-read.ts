@@ -7,8 +7,7 @@ import { and, asc, desc, eq, gte, isNotNull, lt, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import { meetsGuideline14, type BaselineModel } from '~/lib/analytics/baseline';
 import { baselineTrust } from '~/lib/analytics/fit-trust';
-import type { BaselineSummary, ModelSummary } from '~/lib/baseline-view';
-import { siteDay } from '~/lib/site-time';
+import { baselineLabel, type BaselineSummary, type ModelSummary } from '~/lib/baseline-view';
 import { db } from '../db/client';
 import { baselines, plantUnits, sites, unitHours, user } from '../db/schema';
 import { isId } from '../access';
@@ -19,10 +18,7 @@ export function summariseModel(m: BaselineModel): ModelSummary {
   return { coefficients: m.coefficients, stats: { n, p, s, r2, ybar, cvRmse, nmbe }, guideline14: meetsGuideline14(m.stats, 'hourly') };
 }
 
-/** The label of a baseline on charts; the period end is shown as its last day (the end is exclusive). */
-export function baselineLabel(version: number, periodFrom: Date, periodTo: Date, timeZone: string): string {
-  return `Baseline v${version} (${siteDay(periodFrom, timeZone)} to ${siteDay(periodTo.getTime() - 1, timeZone)})`;
-}
+export { baselineLabel };
 
 const creator = alias(user, 'creator');
 const decider = alias(user, 'decider');

@@ -3,37 +3,30 @@
  * one hour opened up (the stored audit trail), and the units of every site with their latest hour.
  */
 import { and, asc, desc, eq, gte, lt, sql } from 'drizzle-orm';
-import { isId } from '../access';
 import { db } from '../db/client';
 import { AppError } from '../errors';
-import { plantUnits, sites, unitHours } from '../db/schema';
+import { unitHours } from '../db/schema';
 import { toCsv, type CsvCell } from '~/lib/csv-write';
 import { rebuildUnitHour } from './engine';
+import { unitWithSite } from './plant-site-model';
 
 /** Longest range one request may ask for: 400 days of hours. */
 export const MAX_RANGE_MS = 400 * 24 * 3_600_000;
 
 /** A unit with its site, for the results API and page. */
 export async function unitHeader(unitId: string | undefined) {
-  if (!isId(unitId)) throw new AppError('NOT_FOUND', 'No such unit.');
-  const [row] = await db()
-    .select({
-      id: plantUnits.id,
-      name: plantUnits.name,
-      kind: plantUnits.kind,
-      description: plantUnits.description,
-      parameters: plantUnits.parameters,
-      siteId: sites.id,
-      siteName: sites.name,
-      timeZone: sites.timeZone,
-      currency: sites.currency,
-    })
-    .from(plantUnits)
-    .innerJoin(sites, eq(sites.id, plantUnits.siteId))
-    .where(eq(plantUnits.id, unitId))
-    .limit(1);
-  if (!row) throw new AppError('NOT_FOUND', 'No such unit.');
-  return row;
+  const { unit, site } = await unitWithSite(unitId);
+  return {
+    id: unit.id,
+    name: unit.name,
+    kind: unit.kind,
+    description: unit.description,
+    parameters: unit.parameters,
+    siteId: site.id,
+    siteName: site.name,
+    timeZone: site.timeZone,
+    currency: site.currency,
+  };
 }
 export type UnitHeader = Awaited<ReturnType<typeof unitHeader>>;
 

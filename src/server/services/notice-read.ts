@@ -4,11 +4,12 @@
  */
 import { and, asc, desc, eq, gte, lt, ne, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
-import { siteDay, siteMidnight } from '~/lib/site-time';
+import { siteMidnight } from '~/lib/site-time';
 import { HOUR_MS } from '~/lib/time';
 import { chartSeries, type ResidualHour } from '~/lib/analytics/notice-figures';
 import { db } from '../db/client';
 import type { NoticeChartEvent, NoticeLife, NoticeView } from '~/lib/notice-view';
+import { baselineLabel } from '~/lib/baseline-view';
 import { baselines, driftNotices, driftPoints, plantUnits, sites, user, type NoticeStatus } from '../db/schema';
 import { env } from '../env';
 import { isId } from '../access';
@@ -32,8 +33,6 @@ type NoticeRow = Awaited<ReturnType<ReturnType<typeof noticeQuery>['execute']>>[
 
 export type { NoticeView } from '~/lib/notice-view';
 
-const localDay = siteDay;
-
 export function toView(r: NoticeRow): NoticeView {
   const n = r.n;
   return {
@@ -47,7 +46,7 @@ export function toView(r: NoticeRow): NoticeView {
     baselineId: n.baselineId,
     baselineLabel:
       r.baselineVersion !== null && r.baselinePeriodFrom && r.baselinePeriodTo
-        ? `Baseline v${r.baselineVersion} (${localDay(r.baselinePeriodFrom, r.timeZone)} to ${localDay(new Date(r.baselinePeriodTo.getTime() - 1), r.timeZone)})`
+        ? baselineLabel(r.baselineVersion, r.baselinePeriodFrom, r.baselinePeriodTo, r.timeZone)
         : null,
     direction: n.direction,
     ...ruleViewFields(n),

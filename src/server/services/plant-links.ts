@@ -8,16 +8,15 @@
 import { and, asc, eq, gt, isNull, lt, lte, or, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import { BEGINNING_MS, checkLink, type LinkModel, type LinkTarget } from '~/lib/plant/model';
-import type { UnitKind } from '~/lib/kinds';
-import { LINK_QUANTITY_NAMES, type FluidKind, type LinkQuantity } from '~/lib/plant/kinds';
+import { LINK_QUANTITY_NAMES, type FluidKind, type LinkQuantity, type UnitKind } from '~/lib/plant/kinds';
+import type { LinkVersion } from '~/lib/plant/link-version';
 import { defaultUncertainty } from '~/lib/plant/uncertainty';
 import { db } from '../db/client';
 import { plantPorts, plantUnits, tagLinks, tags } from '../db/schema';
 import { AppError } from '../errors';
 import { inTransaction, openEndMs, type Tx } from './plant-tx';
+import type { Reader } from '../db/tx';
 import { HOUR_MS } from '~/lib/time';
-
-type Reader = Tx | ReturnType<typeof db>;
 
 const instant = z.union([z.iso.datetime({ offset: true }), z.number().int()]).transform((v) => new Date(v));
 
@@ -42,35 +41,15 @@ export const LinkInput = z.strictObject({
 });
 export type LinkInput = z.infer<typeof LinkInput>;
 
-/** A link version with the names around it, as the engine reads it. */
-export interface ResolvedLink {
-  id: string;
-  unitId: string;
-  unitName: string;
-  unitKind: UnitKind;
-  portId: string | null;
-  portName: string | null;
-  portSlot: string | null;
-  quantity: LinkQuantity;
-  tagId: string;
-  tagName: string;
-  /** Engineering unit; convert with src/lib/units (toSI, uncertaintyToSI). */
-  engUnit: string;
-  basis: 'dry' | 'wet' | null;
-  /** 'absolute': in engUnit; 'relative': percent of reading. */
-  uncertaintyMode: 'absolute' | 'relative';
-  uncertainty: number;
-  /** Valid range in engUnit. */
-  validMin: number | null;
-  validMax: number | null;
-  validFrom: Date;
-  validTo: Date | null;
+/** A link version with the names around it, as the engine reads it (instants as Date). */
+export type ResolvedLink = LinkVersion & {
   /** The tag's own spread limit and least coverage (the model file's tags[]); null: the unit's. */
   tagSpreadLimit: number | null;
   tagMinCoverage: number | null;
-}
+};
 
-function resolvedSelect(r: Reader) {
+/** Tag link versions as ResolvedLink rows (joined with their unit, tag and port); add the where. */
+export function resolvedSelect(r: Reader) {
   return r
     .select({
       id: tagLinks.id,

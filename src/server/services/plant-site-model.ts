@@ -1,23 +1,39 @@
 /**
  * The site as a plant model (the same shape as the model file, src/lib/plant/model.ts) with the ids
  * behind its names, each unit's completeness and conflicts, and the overview the screens and the
- * units API draw from it. Sites, units and ports are edited in ./plant.ts; import and export of the
- * file in ./plant-model.ts.
+ * units API draw from it; and a site, or a unit with its site, by id. Sites, units and ports are edited in ./plant.ts
+ * (which re-exports these); import and export of the file in ./plant-model.ts.
  */
 import { and, asc, eq, gt, inArray, isNull, lte, or } from 'drizzle-orm';
 import { BEGINNING_MS, type LinkModel, type PlantModel, type PortModel, type SiteModel, type UnitModel } from '~/lib/plant/model';
 import type { UnitKind } from '~/lib/kinds';
 import { unitStatus, type UnitStatus } from '~/lib/plant/status';
 import { tidyNormallyIdle } from '~/lib/plant/idle';
+import type { LinkVersion } from '~/lib/plant/link-version';
 import { db } from '../db/client';
-import { plantPorts, plantUnits, tagLinks, tags } from '../db/schema';
+import { plantPorts, plantUnits, sites, tagLinks, tags } from '../db/schema';
 import { AppError } from '../errors';
-import type { Tx } from './plant-tx';
-import { getSite } from './plant';
+import type { Reader } from '../db/tx';
+import { isId } from '../access';
 import { siteDisplay } from './display-units';
 import { readTagLimits } from './plant-tag-limits';
+import { resolvedSelect } from './plant-links';
 
-type Reader = Tx | ReturnType<typeof db>;
+/** A site by id (NOT_FOUND for an unknown or malformed id). */
+export async function getSite(siteId: string, r: Reader = db()) {
+  if (!isId(siteId)) throw new AppError('NOT_FOUND', 'No such site.');
+  const [site] = await r.select().from(sites).where(eq(sites.id, siteId)).limit(1);
+  if (!site) throw new AppError('NOT_FOUND', 'No such site.');
+  return site;
+}
+
+/** A unit with its site, by the unit's id (NOT_FOUND for an unknown or malformed id). */
+export async function unitWithSite(unitId: string | undefined, r: Reader = db()) {
+  if (!isId(unitId)) throw new AppError('NOT_FOUND', 'No such unit.');
+  const [row] = await r.select({ unit: plantUnits, site: sites }).from(plantUnits).innerJoin(sites, eq(sites.id, plantUnits.siteId)).where(eq(plantUnits.id, unitId)).limit(1);
+  if (!row) throw new AppError('NOT_FOUND', 'No such unit.');
+  return row;
+}
 
 /** Ids behind the names of a model built from the database. */
 export interface ModelIds {
@@ -26,19 +42,7 @@ export interface ModelIds {
 }
 
 /** A link version as the model file writes it. */
-function linkModelOf(l: {
-  portName: string | null;
-  quantity: LinkModel['quantity'];
-  tagName: string;
-  engUnit: string;
-  basis: 'dry' | 'wet' | null;
-  uncertaintyMode: 'absolute' | 'relative';
-  uncertainty: number;
-  validMin: number | null;
-  validMax: number | null;
-  validFrom: Date;
-  validTo: Date | null;
-}): LinkModel {
+function linkModelOf(l: LinkVersion): LinkModel {
   return {
     ...(l.portName !== null ? { port: l.portName } : {}),
     quantity: l.quantity,
@@ -86,31 +90,12 @@ export async function siteModel(r: Reader, siteId: string, links: 'all' | 'curre
     links === 'current'
       ? and(eq(tagLinks.siteId, siteId), lte(tagLinks.validFrom, at), or(isNull(tagLinks.validTo), gt(tagLinks.validTo, at)))
       : and(eq(tagLinks.siteId, siteId), or(isNull(tagLinks.validTo), gt(tagLinks.validTo, tagLinks.validFrom)));
-  const linkRows = await r
-    .select({
-      id: tagLinks.id,
-      unitId: tagLinks.unitId,
-      portId: tagLinks.portId,
-      portName: plantPorts.name,
-      quantity: tagLinks.quantity,
-      tagName: tags.name,
-      engUnit: tagLinks.engUnit,
-      basis: tagLinks.basis,
-      uncertaintyMode: tagLinks.uncertaintyMode,
-      uncertainty: tagLinks.uncertainty,
-      validMin: tagLinks.validMin,
-      validMax: tagLinks.validMax,
-      validFrom: tagLinks.validFrom,
-      validTo: tagLinks.validTo,
-      portPosition: plantPorts.position,
-    })
-    .from(tagLinks)
-    .innerJoin(tags, eq(tags.id, tagLinks.tagId))
-    .leftJoin(plantPorts, eq(plantPorts.id, tagLinks.portId))
-    .where(linkWhere);
+  const linkRows = await resolvedSelect(r).where(linkWhere);
+  const portPosition = new Map(portRows.map((p) => [p.id, p.position]));
+  const positionOf = (l: LinkVersion) => (l.portId === null ? -1 : (portPosition.get(l.portId) ?? -1));
   linkRows.sort(
     (a, b) =>
-      (a.portPosition ?? -1) - (b.portPosition ?? -1) ||
+      positionOf(a) - positionOf(b) ||
       (a.portName ?? '').localeCompare(b.portName ?? '') ||
       a.quantity.localeCompare(b.quantity) ||
       a.validFrom.getTime() - b.validFrom.getTime(),

@@ -16,10 +16,11 @@ import { plantPorts, plantUnits, sites, tagLinks, tags } from '../db/schema';
 import { isId } from '../access';
 import { AppError } from '../errors';
 import { inTransaction, openEndMs, type Tx } from './plant-tx';
+import type { Reader } from '../db/tx';
+import { getSite } from './plant-site-model';
 import { queueUnitRuleCheck } from './unit-rules';
 import { HOUR_MS } from '~/lib/time';
 
-type Reader = Tx | ReturnType<typeof db>;
 
 // ---- sites -------------------------------------------------------------------------------------
 
@@ -36,12 +37,7 @@ export async function listSites() {
   return db().select().from(sites).orderBy(asc(sites.name));
 }
 
-export async function getSite(siteId: string, r: Reader = db()) {
-  if (!isId(siteId)) throw new AppError('NOT_FOUND', 'No such site.');
-  const [site] = await r.select().from(sites).where(eq(sites.id, siteId)).limit(1);
-  if (!site) throw new AppError('NOT_FOUND', 'No such site.');
-  return site;
-}
+export { getSite };
 
 /** The tag of a site by name, created (unlinked) when the site has none of that name yet. */
 export async function ensureTag(tx: Tx, siteId: string, name: string): Promise<string> {

@@ -23,32 +23,13 @@ import { flowFrom, kindLabel, ledgerFrom, overviewUnit, type FlowAnswer, type Le
 import { db } from '../db/client';
 import { plantUnits, sites, unitHours } from '../db/schema';
 import { AppError } from '../errors';
-import { isId } from '../access';
 import { expectedBand, openNoticeCount, siteNotices } from './views-insight';
+import { getSite, unitWithSite } from './plant-site-model';
 
 export type { TrendAnswer } from '~/lib/views/trend';
 export type { FlowAnswer, LedgerAnswer, LedgerRow, OverviewSite } from '~/lib/views/ledger';
 
 const viewSite = (s: typeof sites.$inferSelect) => ({ id: s.id, name: s.name, timeZone: s.timeZone, currency: s.currency });
-
-async function siteOf(siteId: string) {
-  if (!isId(siteId)) throw new AppError('NOT_FOUND', 'No such site.');
-  const [site] = await db().select().from(sites).where(eq(sites.id, siteId)).limit(1);
-  if (!site) throw new AppError('NOT_FOUND', 'No such site.');
-  return site;
-}
-
-async function unitWithSite(unitId: string) {
-  if (!isId(unitId)) throw new AppError('NOT_FOUND', 'No such unit.');
-  const [row] = await db()
-    .select({ unit: plantUnits, site: sites })
-    .from(plantUnits)
-    .innerJoin(sites, eq(sites.id, plantUnits.siteId))
-    .where(eq(plantUnits.id, unitId))
-    .limit(1);
-  if (!row) throw new AppError('NOT_FOUND', 'No such unit.');
-  return row;
-}
 
 /**
  * First and last computed hour of a unit, or of a site's units (hours after now left out), for the
@@ -67,7 +48,7 @@ export async function dataSpan(siteId: string, unitId?: string, nowMs = Date.now
 
 /** How fresh a site's figures are (src/lib/views/freshness.ts), for the note every page of the site shows. */
 export async function siteFreshness(siteId: string, nowMs = Date.now()): Promise<Freshness> {
-  const site = await siteOf(siteId);
+  const site = await getSite(siteId);
   const span = await dataSpan(site.id, undefined, nowMs);
   return freshness(span?.lastMs ?? null, site.timeZone, nowMs);
 }
@@ -186,7 +167,7 @@ export async function unitSums(siteId: string, fromMs: number, toMs: number): Pr
 
 /** The loss ledger of a site over a period. */
 export async function siteLedger(siteId: string, q: PeriodQuery, nowMs?: number): Promise<LedgerAnswer> {
-  const site = await siteOf(siteId);
+  const site = await getSite(siteId);
   const now = nowMs ?? Date.now();
   const { period, opened } = await periodOrError(q, site.timeZone, () => dataSpan(site.id, undefined, now), now);
   return { site: viewSite(site), period, opened, freshness: await siteFreshness(site.id, now), ...ledgerFrom(await unitSums(site.id, period.fromMs, period.toMs)) };
@@ -194,7 +175,7 @@ export async function siteLedger(siteId: string, q: PeriodQuery, nowMs?: number)
 
 /** The site's exergy flow over a period (src/lib/views/ledger.ts flowFrom). */
 export async function siteFlow(siteId: string, q: PeriodQuery, nowMs?: number): Promise<FlowAnswer> {
-  const site = await siteOf(siteId);
+  const site = await getSite(siteId);
   const now = nowMs ?? Date.now();
   const { period, opened } = await periodOrError(q, site.timeZone, () => dataSpan(site.id, undefined, now), now);
   return { site: viewSite(site), period, opened, freshness: await siteFreshness(site.id, now), ...flowFrom(await unitSums(site.id, period.fromMs, period.toMs)) };

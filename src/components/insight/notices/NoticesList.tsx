@@ -15,6 +15,27 @@ export interface ListFilter {
 }
 
 const STATUS_WORDS: Record<StatusFilter, string> = { 'not-closed': 'open and seen', open: 'open', acknowledged: 'seen', closed: 'closed', all: 'all, closed included' };
+const STATUS_CHOICES = Object.entries(STATUS_WORDS) as [StatusFilter, string][];
+const SORT_CHOICES: [Sort, string][] = [
+  ['cost', 'largest cost per day now first'],
+  ['newest', 'newest first'],
+];
+
+/** One filter of the list: a labelled choice of [value, words]. */
+function FilterSelect(p: { label: string; testId: string; value: string; choices: readonly (readonly [string, string])[]; onChange: (v: string) => void }) {
+  return (
+    <label className="flex flex-col gap-1">
+      <span className="label">{p.label}</span>
+      <select className="field" value={p.value} onChange={(e) => p.onChange(e.target.value)} data-testid={p.testId}>
+        {p.choices.map(([v, words]) => (
+          <option key={v} value={v}>
+            {words}
+          </option>
+        ))}
+      </select>
+    </label>
+  );
+}
 
 function query(f: ListFilter): string {
   const q = new URLSearchParams();
@@ -63,45 +84,10 @@ export default function NoticesList({ initial }: { initial?: Partial<ListFilter>
   return (
     <section className="card">
       <div className="mb-3 flex flex-wrap items-end gap-4 text-sm">
-        <label className="flex flex-col gap-1">
-          <span className="label">Status</span>
-          <select className="field" value={f.status} onChange={(e) => setF({ ...f, status: e.target.value as StatusFilter })} data-testid="filter-status">
-            {(Object.keys(STATUS_WORDS) as StatusFilter[]).map((s) => (
-              <option key={s} value={s}>
-                {STATUS_WORDS[s]}
-              </option>
-            ))}
-          </select>
-        </label>
-        <label className="flex flex-col gap-1">
-          <span className="label">Site</span>
-          <select className="field" value={f.siteId} onChange={(e) => setF({ ...f, siteId: e.target.value, unitId: '' })} data-testid="filter-site">
-            <option value="">every site</option>
-            {sites.map(([id, name]) => (
-              <option key={id} value={id}>
-                {name}
-              </option>
-            ))}
-          </select>
-        </label>
-        <label className="flex flex-col gap-1">
-          <span className="label">Unit</span>
-          <select className="field" value={f.unitId} onChange={(e) => setF({ ...f, unitId: e.target.value })} data-testid="filter-unit">
-            <option value="">every unit</option>
-            {units.map(([id, name]) => (
-              <option key={id} value={id}>
-                {name}
-              </option>
-            ))}
-          </select>
-        </label>
-        <label className="flex flex-col gap-1">
-          <span className="label">Order</span>
-          <select className="field" value={f.sort} onChange={(e) => setF({ ...f, sort: e.target.value as Sort })} data-testid="filter-sort">
-            <option value="cost">largest cost per day now first</option>
-            <option value="newest">newest first</option>
-          </select>
-        </label>
+        <FilterSelect label="Status" testId="filter-status" value={f.status} choices={STATUS_CHOICES} onChange={(v) => setF({ ...f, status: v as StatusFilter })} />
+        <FilterSelect label="Site" testId="filter-site" value={f.siteId} choices={[['', 'every site'], ...sites]} onChange={(v) => setF({ ...f, siteId: v, unitId: '' })} />
+        <FilterSelect label="Unit" testId="filter-unit" value={f.unitId} choices={[['', 'every unit'], ...units]} onChange={(v) => setF({ ...f, unitId: v })} />
+        <FilterSelect label="Order" testId="filter-sort" value={f.sort} choices={SORT_CHOICES} onChange={(v) => setF({ ...f, sort: v as Sort })} />
       </div>
       <Message message={message} />
       {notices === null ? (

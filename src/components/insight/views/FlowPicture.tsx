@@ -28,6 +28,18 @@ interface Node {
   h: number;
 }
 
+/** A legend entry: the fill of a band and its words. */
+function Swatch({ fill, stroke, words }: { fill: string; stroke?: string; words: string }) {
+  return (
+    <span className="inline-flex items-center gap-1.5">
+      <svg width="22" height="10" aria-hidden="true">
+        <rect width="22" height="10" fill={fill} {...(stroke ? { stroke, strokeWidth: '0.6' } : {})} />
+      </svg>
+      {words}
+    </span>
+  );
+}
+
 function band(x0: number, y0: number, x1: number, y1: number, h0: number, h1: number): string {
   const mx = (x0 + x1) / 2;
   return `M${x0} ${y0} C${mx} ${y0} ${mx} ${y1} ${x1} ${y1} L${x1} ${y1 + h1} C${mx} ${y1 + h1} ${mx} ${y0 + h0} ${x0} ${y0 + h0} Z`;
@@ -186,24 +198,9 @@ export function FlowPicture({ flow }: { flow: FlowAnswer }) {
           })}
       </svg>
       <figcaption className="mt-2 flex flex-wrap gap-x-4 gap-y-1 text-xs text-ink-soft">
-        <span className="inline-flex items-center gap-1.5">
-          <svg width="22" height="10" aria-hidden="true">
-            <rect width="22" height="10" fill={COLORS.teal} />
-          </svg>
-          product
-        </span>
-        <span className="inline-flex items-center gap-1.5">
-          <svg width="22" height="10" aria-hidden="true">
-            <rect width="22" height="10" fill="url(#flow-loss)" stroke={COLORS.copper} strokeWidth="0.6" />
-          </svg>
-          loss (hatched)
-        </span>
-        <span className="inline-flex items-center gap-1.5">
-          <svg width="22" height="10" aria-hidden="true">
-            <rect width="22" height="10" fill={COLORS.copper} />
-          </svg>
-          destruction
-        </span>
+        <Swatch fill={COLORS.teal} words="product" />
+        <Swatch fill="url(#flow-loss)" stroke={COLORS.copper} words="loss (hatched)" />
+        <Swatch fill={COLORS.copper} words="destruction" />
         <span>
           Steady hours only ({flow.steadyHours} unit hours), MWh over the period. A unit's product may be the next unit's fuel (a boiler's steam
           drives a turbine), so each unit shows its own balance and the IN column is not a site boundary.

@@ -62,6 +62,18 @@ export function syncSearch(extra: Record<string, string | undefined>, v: PeriodV
 }
 
 /** Day, week, month, year or custom, in the site's clock, with earlier and later steps. */
+/** A local date of the custom period. */
+function DayField({ id, label, value, onChange }: { id: string; label: string; value: string; onChange: (v: string) => void }) {
+  return (
+    <div>
+      <label className="label" htmlFor={id}>
+        {label}
+      </label>
+      <input id={id} type="date" className="field" value={value} onChange={(e) => onChange(e.target.value)} required />
+    </div>
+  );
+}
+
 export function PeriodPicker({ value, info, onChange }: { value: PeriodValue; info: PeriodInfo | null; onChange: (v: PeriodValue) => void }) {
   const [from, setFrom] = useState(value.from ?? info?.firstDay ?? '');
   const [to, setTo] = useState(value.to ?? info?.lastDay ?? '');
@@ -132,18 +144,8 @@ export function PeriodPicker({ value, info, onChange }: { value: PeriodValue; in
             onChange({ range: 'custom', from, to });
           }}
         >
-          <div>
-            <label className="label" htmlFor="period-from">
-              From (first day)
-            </label>
-            <input id="period-from" type="date" className="field" value={from} onChange={(e) => setFrom(e.target.value)} required />
-          </div>
-          <div>
-            <label className="label" htmlFor="period-to">
-              To (last day)
-            </label>
-            <input id="period-to" type="date" className="field" value={to} onChange={(e) => setTo(e.target.value)} required />
-          </div>
+          <DayField id="period-from" label="From (first day)" value={from} onChange={setFrom} />
+          <DayField id="period-to" label="To (last day)" value={to} onChange={setTo} />
           <button type="submit" className="btn btn-primary">
             Show
           </button>

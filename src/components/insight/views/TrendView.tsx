@@ -5,14 +5,13 @@
  */
 import { NOTICE_STATUS_WORDS } from '~/lib/words';
 import type { NoticeStatus } from '~/lib/notice-view';
-import { useEffect, useMemo, useState } from 'react';
+import { useEffect, useMemo, useState, type ReactNode } from 'react';
 import { ErrorNote, HourStateMark, Loading, ViewsCaution } from './common';
 import { useApi } from '~/components/api';
 import { pct, power, siteTime, type HourState } from './format';
 import { PeriodPicker, periodFromSearch, periodQuery, syncSearch, type PeriodInfo, type PeriodValue } from './PeriodPicker';
 import { LoadScatter, TimeChart, TrendLegend } from './TrendCharts';
 import type { TrendAnswer } from '~/lib/views/trend';
-
 
 function BaselineName({ b }: { b: TrendAnswer['baseline'] }) {
   return (
@@ -36,6 +35,29 @@ function Stat({ label, value, sub, testId }: { label: string; value: string; sub
       <p className="mt-1 text-lg font-semibold tabular-nums">{value}</p>
       {sub && <p className="text-xs text-ink-soft">{sub}</p>}
     </div>
+  );
+}
+
+/** One quantity over the period: measured line, expected band, notices, and its legend. */
+function TimeCard({ kind, title, data, shown, children }: { kind: 'efficiency' | 'destruction'; title: string; data: TrendAnswer; shown: Set<string>; children?: ReactNode }) {
+  return (
+    <section className="card">
+      <h2>{title}</h2>
+      <BaselineName b={data.baseline} />
+      <TimeChart
+        kind={kind}
+        points={data.points}
+        context={data.context}
+        notices={data.notices}
+        fromMs={data.period.fromMs}
+        toMs={data.period.toMs}
+        timeZone={data.site.timeZone}
+        bucket={data.bucket}
+        loadUnit={data.loadUnit}
+      />
+      <TrendLegend kind={kind} shown={shown} />
+      {children}
+    </section>
   );
 }
 
@@ -97,42 +119,11 @@ export default function TrendView({ unitId, initialSearch }: { unitId: string; i
             </div>
           </div>
 
-          {hasEfficiency && (
-            <section className="card">
-              <h2>Exergy efficiency</h2>
-              <BaselineName b={data.baseline} />
-              <TimeChart
-                kind="efficiency"
-                points={data.points}
-                context={data.context}
-                notices={data.notices}
-                fromMs={data.period.fromMs}
-                toMs={data.period.toMs}
-                timeZone={data.site.timeZone}
-                bucket={data.bucket}
-                loadUnit={data.loadUnit}
-              />
-              <TrendLegend kind="efficiency" shown={shown} />
-            </section>
-          )}
+          {hasEfficiency && <TimeCard kind="efficiency" title="Exergy efficiency" data={data} shown={shown} />}
 
-          <section className="card">
-            <h2>Exergy destruction</h2>
-            <BaselineName b={data.baseline} />
-            <TimeChart
-              kind="destruction"
-              points={data.points}
-              context={data.context}
-              notices={data.notices}
-              fromMs={data.period.fromMs}
-              toMs={data.period.toMs}
-              timeZone={data.site.timeZone}
-              bucket={data.bucket}
-              loadUnit={data.loadUnit}
-            />
-            <TrendLegend kind="destruction" shown={shown} />
+          <TimeCard kind="destruction" title="Exergy destruction" data={data} shown={shown}>
             {data.bucket === 'day' && <p className="mt-1 text-xs text-ink-faint">Long periods are drawn per local day: each point is the mean of that day's steady hours.</p>}
-          </section>
+          </TimeCard>
 
           <section className="card">
             <h2>{hasEfficiency ? 'Efficiency' : 'Destruction'} against load</h2>

@@ -1,20 +1,20 @@
 import { useState } from 'react';
 import LinkForm, { type TagJson, type UnitJson } from '../LinkForm';
-import LinkHistoryTable from './LinkHistoryTable';
-import LinksTable from './LinksTable';
-import { holdsNow, type LinkFormState, type LinkRow } from './types';
+import { holdsNow, type LinkVersionAnswer } from '~/lib/plant/link-version';
+import LinkVersionsTable from './LinkVersionsTable';
+import type { LinkFormState } from './types';
 
 interface Props {
   siteId: string;
   timeZone: string;
   unit: UnitJson;
   tags: TagJson[];
-  history: LinkRow[];
+  history: LinkVersionAnswer[];
   canEdit: boolean;
   linkForm: LinkFormState | null;
   setLinkForm: (f: LinkFormState | null) => void;
   onDone: (text: string) => void;
-  onEnd: (l: LinkRow) => void;
+  onEnd: (l: LinkVersionAnswer) => void;
 }
 
 /** The links that hold now, the form to add or change one, and every version on demand. */
@@ -24,7 +24,7 @@ export default function LinksSection(p: Props) {
   const current = p.history
     .filter((l) => holdsNow(l))
     .sort((a, b) => (portOrder.get(a.portId ?? '') ?? 99) - (portOrder.get(b.portId ?? '') ?? 99) || a.quantity.localeCompare(b.quantity));
-  const change = (l: LinkRow) => p.setLinkForm({ target: `${l.portId ?? ''}|${l.quantity}`, tag: undefined, unit: l.engUnit, changing: true, key: Date.now() });
+  const change = (l: LinkVersionAnswer) => p.setLinkForm({ target: `${l.portId ?? ''}|${l.quantity}`, tag: undefined, unit: l.engUnit, changing: true, key: Date.now() });
   return (
     <section className="card">
       <div className="mb-3 flex items-baseline justify-between">
@@ -50,11 +50,11 @@ export default function LinksSection(p: Props) {
           />
         </div>
       )}
-      <LinksTable links={current} timeZone={p.timeZone} canEdit={p.canEdit} onChange={change} onEnd={p.onEnd} />
+      <LinkVersionsTable links={current} timeZone={p.timeZone} actions={{ canEdit: p.canEdit, onChange: change, onEnd: p.onEnd }} />
       <button type="button" className="btn mt-3 text-xs" aria-expanded={showHistory} onClick={() => setShowHistory(!showHistory)}>
         {showHistory ? 'Hide' : 'Show'} every version ({p.history.length})
       </button>
-      {showHistory && <LinkHistoryTable history={p.history} timeZone={p.timeZone} />}
+      {showHistory && <LinkVersionsTable links={p.history} timeZone={p.timeZone} />}
       <p className="mt-2 text-xs text-ink-faint">
         Times in {p.timeZone}. Changing a link starts a new version; hours before it keep the old one, and only the hours it touches are recomputed.
       </p>
