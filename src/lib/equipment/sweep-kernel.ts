@@ -12,11 +12,13 @@
  * null from compileKernel and the sweep uses the full balance.
  * @see ./balance.ts resolvePorts and assemble, ./kinds.ts (the SPECO split per kind) for the definitions
  */
-import { G_m_per_s2 } from '../thermo';
+import { G_m_per_s2, flowExergy, water } from '../thermo';
 import type { UnitBalance, UnitKind } from './balance';
 import { BalanceInputError } from './errors';
 import { fuelSpecOf, prepareFluid, type Environment, type Fluid, type FluidSpec, type PortMeasurement, type PortState } from './fluids';
 import type { PortSpec, UnitModel } from './model';
+
+const NO_FLAGS: readonly [] = Object.freeze([]) as readonly [];
 
 /** Role of a port's exergy in the split: 0 fuel (exergy into the volume), 1 product, 2 loss (out of it). */
 type Role = 0 | 1 | 2;
@@ -188,6 +190,7 @@ class Kernel implements SweepKernel {
     const v = p.iV >= 0 ? x[p.iV]! : p.mode === 'sat' ? p.fixedX : 0;
     const o = p.iO2 >= 0 ? x[p.iO2]! : 0;
     if (pp === p.p0 && v === p.v0 && o === p.o0) return p.st0;
+    if (p.mode === 'pT' && p.fluid.family === 'water') return this.waterPT(p, pp, v);
     const m = p.m;
     m.p_Pa = pp;
     if (p.mode === 'pT') m.T_K = v;
@@ -195,6 +198,18 @@ class Kernel implements SweepKernel {
     else m.x = v;
     if (p.iO2 >= 0) m.O2_fraction = o;
     return p.fluid.state(m, this.env);
+  }
+
+  /**
+   * A moved water (p, T) state: what the fluid's state gives (fluids.ts WaterFluid.state and finishState),
+   * without its near-saturation flag (the flag is the point's; the sweep reads no flags): one water.pt call.
+   */
+  private waterPT(p: KPort, pp: number, T: number): PortState {
+    const st = water.pt(pp, T);
+    const dv = p.fluid.deadValues(this.env);
+    const ePh = flowExergy({ h: st.h, s: st.s }, dv.dead);
+    const psi = ePh + 0.5 * p.V * p.V + G_m_per_s2 * p.z;
+    return { p: pp, T, h: st.h, s: st.s, x: null, phase: st.phase, psi, ePh, eCh: dv.eCh, h0: dv.dead.h0, velocity_m_per_s: p.V, elevation_m: p.z, flags: NO_FLAGS };
   }
 
   evaluate(x: ArrayLike<number>, out: Float64Array, o: number): void {
