@@ -54,14 +54,15 @@ interface PlanFamily {
   plans: Map<number, HourPlan | null>;
 }
 
-const families = new WeakMap<object, { unit: object; site: object; sources: unknown; fam: PlanFamily }>();
+const families = new WeakMap<object, { unit: object; params: object; ports: object; site: object; sources: unknown; fam: PlanFamily }>();
 
 function familyOf(input: UnitHourInput, create: boolean): PlanFamily | null {
   const hit = families.get(input.links);
-  if (hit && hit.unit === input.unit && hit.site === input.site && hit.sources === input.flueGasSources) return hit.fam;
+  const u = input.unit;
+  if (hit && hit.unit === u && hit.params === u.parameters && hit.ports === u.ports && hit.site === input.site && hit.sources === input.flueGasSources) return hit.fam;
   if (!create) return null;
   const fam: PlanFamily = { decisions: null, plans: new Map() };
-  families.set(input.links, { unit: input.unit, site: input.site, sources: input.flueGasSources, fam });
+  families.set(input.links, { unit: u, params: u.parameters, ports: u.ports, site: input.site, sources: input.flueGasSources, fam });
   return fam;
 }
 
