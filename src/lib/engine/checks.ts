@@ -63,14 +63,31 @@ export function runBalance(unit: EngineUnit, mapped: MappedUnit | null, problems
       x[i] = entries[i]!.value;
       u[i] = entries[i]!.u;
     }
-    if (withU) {
-      run.unc = unitHourWithUncertainty(mapped.balanceKind, model, x, u);
-      run.balance = run.unc.balance;
-    } else run.balance = evaluateUnitHour(mapped.balanceKind, model, x);
+    balanceAt(run, mapped.balanceKind, model, x, u, withU);
   } catch (err) {
-    const e = err as Error & { code?: string; input?: string };
-    run.balanceError = { code: err instanceof BalanceInputError ? e.code! : e.name, input: e.input ?? '', message: e.message };
-    run.computed.push({ code: 'BALANCE_FAILED', message: `the balance cannot be formed: ${e.message}` });
+    failed(run, err);
+  }
+  return run;
+}
+
+function failed(run: BalanceRun, err: unknown): void {
+  const e = err as Error & { code?: string; input?: string };
+  run.balanceError = { code: err instanceof BalanceInputError ? e.code! : e.name, input: e.input ?? '', message: e.message };
+  run.computed.push({ code: 'BALANCE_FAILED', message: `the balance cannot be formed: ${e.message}` });
+}
+
+/**
+ * The balance at the input vector x (finite, in the model's order) with its uncertainty when asked,
+ * into run; a balance that cannot be formed is recorded as run.balanceError and a BALANCE_FAILED reason.
+ */
+export function balanceAt(run: BalanceRun, kind: MappedUnit['balanceKind'], model: MappedUnit['model'], x: Float64Array, u: Float64Array, withU: boolean): BalanceRun {
+  try {
+    if (withU) {
+      run.unc = unitHourWithUncertainty(kind, model, x, u);
+      run.balance = run.unc.balance;
+    } else run.balance = evaluateUnitHour(kind, model, x);
+  } catch (err) {
+    failed(run, err);
   }
   return run;
 }

@@ -27,9 +27,10 @@
  */
 import type { TagHourStats } from '../analytics';
 import { destructionCost_per_hour } from '../analytics';
-import { checkBalance, hourState, loadStats, runBalance, type DeadState } from './checks';
+import { balanceAt, checkBalance, hourState, loadStats, runBalance, type BalanceRun, type DeadState } from './checks';
 import { LOAD_KEY, T0_RANGE_K, finiteOrNull } from './constants';
 import { detailOf } from './detail';
+import { keepPlan, planHour, type HourPlan } from './hour-plan';
 import { linkSetOf, unitHourHashes, type ComputeOptions, type LinkSet } from './linkset';
 import { cachedConverter, mapUnitHour, unitParameters, type MappedUnit } from './map';
 import { linkConverter } from './map-port';
@@ -107,14 +108,38 @@ function mapHour(input: UnitHourInput, notes: string[]): { mapped: MappedUnit | 
 
 /**
  * Computes one unit hour. The audit trail (`detail`) is built when first read: the job stores the
- * lean row and never reads it.
+ * lean row and never reads it. An hour of a link set whose mapping is planned (./hour-plan.ts) only
+ * fills the balance's input vector from its tag hours; the full mapping runs for the first hour of a
+ * link set, for an hour the plan cannot take (a missing reading, a balance that fails) and for the
+ * audit trail, and gives the same figures.
  * @param input the unit, its links holding in the hour, the hour's tag statistics, site, cost basis
  * @returns the row to store, with state, reasons, figures, uncertainty, cost, detail and hashes
  */
 export function computeUnitHour(input: UnitHourInput, options: ComputeOptions = {}): UnitHourResult {
   const withU = options.uncertainty ?? true;
-  const params = unitParameters(input.unit);
   const dead = deadStateOf(input);
+  const planned = planHour(input, dead.T0_K, dead.p0_Pa);
+  return (planned && plannedHour(input, options, withU, dead, planned.plan, planned.load)) || fullHour(input, options, withU, dead);
+}
+
+/** An hour through its plan; null when the balance fails (the full mapping words why). */
+function plannedHour(input: UnitHourInput, options: ComputeOptions, withU: boolean, dead: DeadState, plan: HourPlan, load: number): UnitHourResult | null {
+  const run: BalanceRun = { balance: null, unc: null, entries: [], balanceError: null, computed: [] };
+  balanceAt(run, plan.kind, plan.model, plan.x, plan.u, withU);
+  if (!run.balance) return null;
+  const params = unitParameters(input.unit);
+  const notes: string[] = [];
+  const set = linkSetOf(input);
+  const mapped = plan.mapped;
+  const tags = keyTagStats(input, set, load);
+  const checks = checkBalance(run, mapped, params, notes);
+  const { state, reasons } = hourState({ set, tags, closures: checks.closures, mapped, load, minLoad: mapped.minLoad, problems: [], computed: run.computed, params, notes });
+  return resultOf(input, options, dead, load, mapped.load.unit, run, state, reasons, () => fullHour(input, options, withU, dead).detail);
+}
+
+/** An hour through the full mapping, which also keeps the plan of its link set and choices. */
+function fullHour(input: UnitHourInput, options: ComputeOptions, withU: boolean, dead: DeadState): UnitHourResult {
+  const params = unitParameters(input.unit);
   const notes: string[] = [];
   if (dead.source.startsWith('fallback')) notes.push(`dead state: ${dead.source}; T0 = ${dead.T0_K} K (the site's setting)`);
   const { mapped, problems } = mapHour(input, notes);
@@ -123,8 +148,24 @@ export function computeUnitHour(input: UnitHourInput, options: ComputeOptions = 
   const minLoad = mapped?.minLoad ?? 0;
   const tags = keyTagStats(input, set, load);
   const run = runBalance(input.unit, mapped, problems, dead, withU);
+  keepPlan(input, mapped, run.entries.length ? run.entries.map((e) => e.name) : null);
   const checks = checkBalance(run, mapped, params, notes);
   const { state, reasons } = hourState({ set, tags, closures: checks.closures, mapped, load, minLoad, problems, computed: run.computed, params, notes });
+  return resultOf(input, options, dead, load, mapped?.load.unit ?? null, run, state, reasons, () => detailOf({ input, set, dead, mapped, minLoad, run, checks, notes }));
+}
+
+/** The row of an hour, its detail built when first read. */
+function resultOf(
+  input: UnitHourInput,
+  options: ComputeOptions,
+  dead: DeadState,
+  load: number,
+  loadUnit: 'W' | 'kg/s' | null,
+  run: BalanceRun,
+  state: UnitHourResult['state'],
+  reasons: EngineReason[],
+  detailFn: () => Record<string, unknown>,
+): UnitHourResult {
   const { balance, unc } = run;
   const D = balance ? balance.destruction_W : NaN;
   const cost = input.cost && Number.isFinite(D) ? destructionCost_per_hour(input.cost.cF_per_J, D) : null;
@@ -134,7 +175,7 @@ export function computeUnitHour(input: UnitHourInput, options: ComputeOptions = 
     state,
     reasons,
     load: finiteOrNull(load),
-    loadUnit: mapped?.load.unit ?? null,
+    loadUnit,
     T0_K: dead.T0_K,
     p0_Pa: dead.p0_Pa,
     fuel_W: balance ? finiteOrNull(balance.fuel_W) : null,
@@ -148,7 +189,7 @@ export function computeUnitHour(input: UnitHourInput, options: ComputeOptions = 
     entropyGeneration_W_per_K: balance ? finiteOrNull(balance.entropyGeneration_W_per_K) : null,
     destructionCost_per_h: finiteOrNull(cost),
     get detail() {
-      return (detail ??= detailOf({ input, set, dead, mapped, minLoad, run, checks, notes }));
+      return (detail ??= detailFn());
     },
     modelVersion,
     inputsHash,

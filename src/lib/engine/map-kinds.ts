@@ -27,6 +27,8 @@ export interface KindResult {
   load: MappedUnit['load'];
   minLoad: number;
   massCheck: MappedUnit['massCheck'];
+  /** the entries whose sum is the load (none: no load this hour) */
+  loadNames: string[];
 }
 
 export type KindMapper = (m: KindMapping) => KindResult;
@@ -79,7 +81,7 @@ function turbineMapper(m: KindMapping): KindResult {
   const load: MappedUnit['load'] = { value: ctx.entries.get('power_W')?.value ?? NaN, unit: 'W', label: 'power', tags: tagsOf(ctx, ['power_W']) };
   const minLoad = num(params, 'minLoad_W', 0);
   const massCheck: MappedUnit['massCheck'] = specs.some((s) => s.flow === 'mass-balance') ? null : { groups: ['main'] };
-  return { balanceKind, load, minLoad, massCheck };
+  return { balanceKind, load, minLoad, massCheck, loadNames: ['power_W'] };
 }
 
 function rotatingMachineMapper(m: KindMapping): KindResult {
@@ -96,7 +98,7 @@ function rotatingMachineMapper(m: KindMapping): KindResult {
   const load: MappedUnit['load'] = { value: ctx.entries.get('power_W')?.value ?? NaN, unit: 'W', label: 'power', tags: tagsOf(ctx, ['power_W']) };
   const minLoad = num(params, 'minLoad_W', 0);
   const massCheck: MappedUnit['massCheck'] = specs.some((s) => s.flow === 'mass-balance') ? null : { groups: ['main'] };
-  return { balanceKind, load, minLoad, massCheck };
+  return { balanceKind, load, minLoad, massCheck, loadNames: ['power_W'] };
 }
 
 function heatExchangerMapper(m: KindMapping): KindResult {
@@ -113,7 +115,7 @@ function heatExchangerMapper(m: KindMapping): KindResult {
   const minLoad = num(params, 'minLoad_kg_per_s', 0);
   const groups = (['hot', 'cold'] as const).filter((r) => !specs.some((s) => s.role === r && s.flow !== undefined && s.flow !== 'measured'));
   const massCheck: MappedUnit['massCheck'] = groups.length ? { groups: [...groups] } : null;
-  return { balanceKind, load, minLoad, massCheck };
+  return { balanceKind, load, minLoad, massCheck, loadNames: [hot] };
 }
 
 function boilerMapper(m: KindMapping): KindResult {
@@ -137,7 +139,7 @@ function boilerMapper(m: KindMapping): KindResult {
   if (!specs.some((s) => (s.role === 'water' || s.role === 'blowdown') && !s.group && s.flow === 'mass-balance')) groups.push('water');
   if (bySlot('reheatIn').length && !specs.some((s) => s.group === 'reheat' && s.flow === 'mass-balance')) groups.push('reheat');
   const massCheck: MappedUnit['massCheck'] = groups.length ? { groups } : null;
-  return { balanceKind, load, minLoad, massCheck };
+  return { balanceKind, load, minLoad, massCheck, loadNames: steamFlows };
 }
 
 function letDownValveMapper(m: KindMapping): KindResult {
@@ -150,7 +152,7 @@ function letDownValveMapper(m: KindMapping): KindResult {
   const load: MappedUnit['load'] = { value: ctx.entries.get(f)?.value ?? NaN, unit: 'kg/s', label: 'flow', tags: tagsOf(ctx, [f]) };
   const minLoad = num(params, 'minLoad_kg_per_s', 0);
   const massCheck: MappedUnit['massCheck'] = specs.some((s) => s.flow === 'mass-balance') ? null : { groups: ['main'] };
-  return { balanceKind, load, minLoad, massCheck };
+  return { balanceKind, load, minLoad, massCheck, loadNames: [f] };
 }
 
 function mixerMapper(m: KindMapping): KindResult {
@@ -174,7 +176,7 @@ function mixerMapper(m: KindMapping): KindResult {
   const load: MappedUnit['load'] = { value: names.length ? sumOf(ctx, names) : NaN, unit: 'kg/s', label: useOut ? 'outlet flow' : 'inlet flows', tags: tagsOf(ctx, names) };
   const minLoad = num(params, 'minLoad_kg_per_s', 0);
   const massCheck: MappedUnit['massCheck'] = specs.some((s) => s.flow === 'mass-balance') ? null : { groups: ['main'] };
-  return { balanceKind, load, minLoad, massCheck };
+  return { balanceKind, load, minLoad, massCheck, loadNames: names };
 }
 
 function condenserMapper(m: KindMapping): KindResult {
@@ -198,7 +200,7 @@ function condenserMapper(m: KindMapping): KindResult {
   const load: MappedUnit['load'] = { value: ctx.entries.get(f)?.value ?? NaN, unit: 'kg/s', label: 'process flow', tags: tagsOf(ctx, [f]) };
   const minLoad = num(params, 'minLoad_kg_per_s', 0);
   const massCheck: MappedUnit['massCheck'] = specs.some((s) => s.role === 'process' && s.flow === 'mass-balance') ? null : { groups: ['process'] };
-  return { balanceKind, load, minLoad, massCheck };
+  return { balanceKind, load, minLoad, massCheck, loadNames: [f] };
 }
 
 function motorGeneratorMapper(m: KindMapping): KindResult {
@@ -209,7 +211,7 @@ function motorGeneratorMapper(m: KindMapping): KindResult {
   powerEntry('powerOut_W', 'powerOut');
   const load: MappedUnit['load'] = { value: ctx.entries.get('powerOut_W')?.value ?? NaN, unit: 'W', label: 'power out', tags: tagsOf(ctx, ['powerOut_W']) };
   const minLoad = num(params, 'minLoad_W', 0);
-  return { balanceKind, load, minLoad, massCheck: null };
+  return { balanceKind, load, minLoad, massCheck: null, loadNames: ['powerOut_W'] };
 }
 
 function controlVolumeMapper(m: KindMapping): KindResult {
@@ -256,7 +258,7 @@ function controlVolumeMapper(m: KindMapping): KindResult {
   const load: MappedUnit['load'] = { value: names.length ? sumOf(ctx, names) : NaN, unit: 'kg/s', label: 'inlet flows', tags: tagsOf(ctx, names) };
   const minLoad = num(params, 'minLoad_kg_per_s', 0);
   const massCheck: MappedUnit['massCheck'] = mb || specs.length === 0 ? null : { groups: ['main'] };
-  return { balanceKind, load, minLoad, massCheck };
+  return { balanceKind, load, minLoad, massCheck, loadNames: names };
 }
 
 /** The mapper of each unit kind of the plant model. */

@@ -90,6 +90,7 @@ export function planPort(ctx: Ctx, port: EnginePort, o: PortOptions): PortSpec |
       const Tmean = reading(ctx, TL).value;
       const Ts = isWater ? tsat(p) : NaN;
       const wet = isWater && Number.isFinite(Ts) && Number.isFinite(Tmean) && Tmean - Ts <= SATURATION_TOLERANCE_K;
+      if (o.wetFromEnergy) ctx.decisions.push({ pName, TL, water: isWater, fromEnergy: wet || !Number.isFinite(Tmean) });
       if (o.wetFromEnergy && (wet || !Number.isFinite(Tmean))) {
         spec.state = 'energy-balance';
         stateWords = Number.isFinite(Tmean)

@@ -25,6 +25,22 @@ export interface Ctx {
   problems: EngineReason[];
   notes: string[];
   plans: PortPlan[];
+  decisions: WetDecision[];
+}
+
+/**
+ * A choice of the port planner that this hour's readings make: a port that may take its state from the
+ * energy balance does so when its temperature is missing or within the saturation tolerance of Tsat(p).
+ */
+export interface WetDecision {
+  /** the entry of the port's pressure */
+  pName: string;
+  /** the temperature link */
+  TL: EngineLink;
+  /** the port carries water (Tsat(p) is looked at) */
+  water: boolean;
+  /** whether the state came from the energy balance */
+  fromEnergy: boolean;
 }
 
 type LinkIndex = Map<string | null, Partial<Record<LinkQuantity, EngineLink>>>;

@@ -24,7 +24,7 @@ import type { BalanceKind } from '../kinds';
 import { defaultParameters, type LinkQuantity, type ParamValue } from '../plant/kinds';
 import { KIND_MAPPERS } from './map-kinds';
 import { missingRequiredCached } from './map-plan';
-import type { Ctx } from './map-port';
+import type { Ctx, WetDecision } from './map-port';
 import type { EngineLink, EngineReason, EngineUnit, FlueGasSource, TagHour } from './types';
 
 export { cachedConverter } from './map-port';
@@ -73,6 +73,10 @@ export interface MappedUnit {
   notes: string[];
   /** the kind balances mass, and no flow of the group closes it by construction */
   massCheck: { groups: string[] } | null;
+  /** the entries whose sum is the load (./hour-plan.ts) */
+  loadNames: string[];
+  /** the choices this hour's readings made (./hour-plan.ts): a port's state from the energy balance or from p and T */
+  decisions: WetDecision[];
 }
 
 
@@ -105,16 +109,16 @@ export function mapUnitHour(
   flueGasSources: Readonly<Record<string, FlueGasSource>> = {},
 ): MappedUnit {
   const params = unitParameters(unit);
-  const ctx: Ctx = { unit, params, links, tagHours, p_atm_Pa, flueGasSources, entries: new Map(), problems: [], notes: [], plans: [] };
+  const ctx: Ctx = { unit, params, links, tagHours, p_atm_Pa, flueGasSources, entries: new Map(), problems: [], notes: [], plans: [], decisions: [] };
   ctx.problems.push(...missingRequiredCached(unit, links));
   const keyLinks = [...links];
   const model: UnitModel = {};
   const specs: PortSpec[] = [];
   const mapper = KIND_MAPPERS[unit.kind];
   if (!mapper) throw new Error(`unknown unit kind '${String(unit.kind)}'`);
-  const { balanceKind, load, minLoad, massCheck } = mapper({ ctx, unit, params, model, specs });
+  const { balanceKind, load, minLoad, massCheck, loadNames } = mapper({ ctx, unit, params, model, specs });
   if (balanceKind !== 'motor' && balanceKind !== 'generator') model.ports = specs;
-  return { balanceKind, model, entries: ctx.entries, ports: ctx.plans, load, minLoad, keyLinks, problems: dedupe(ctx.problems), notes: ctx.notes, massCheck };
+  return { balanceKind, model, entries: ctx.entries, ports: ctx.plans, load, minLoad, keyLinks, problems: dedupe(ctx.problems), notes: ctx.notes, massCheck, loadNames, decisions: ctx.decisions };
 }
 
 function dedupe(rs: EngineReason[]): EngineReason[] {

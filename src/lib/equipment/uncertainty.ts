@@ -6,7 +6,8 @@
 import type { BalanceKind as UnitKind } from '../kinds';
 import type { UnitBalance } from './balance';
 import { BalanceInputError } from './errors';
-import { compiledUnit, type UnitModel } from './model';
+import { compiledUnit, type CompiledUnit, type UnitModel } from './model';
+import { compileKernel, type SweepKernel } from './sweep-kernel';
 
 /** Value with its standard (u) and expanded (U = k u) uncertainty, SI. */
 export interface Uncertain {
@@ -37,6 +38,8 @@ export interface UncertaintyOptions {
   k?: number;
   /** central-difference step relative to max(|x_i|, u_i), default 1e-6 (as analytics' propagate) */
   relStep?: number;
+  /** move the full (lean) balance for every input instead of the sweep kernel (the check of the kernel) */
+  fullSweep?: boolean;
 }
 
 const N_OUT = 5; // fuel, product, loss, destruction, efficiency
@@ -47,6 +50,26 @@ function headline(b: UnitBalance, out: Float64Array, o: number): void {
   out[o + 2] = b.loss_W;
   out[o + 3] = b.destruction_W;
   out[o + 4] = b.efficiency ?? NaN;
+}
+
+const kernels = new WeakMap<CompiledUnit, SweepKernel | null>();
+/** The sweep kernel of a compiled unit (./sweep-kernel.ts), kept with it; null when not covered. */
+function kernelOf(c: CompiledUnit): SweepKernel | null {
+  let k = kernels.get(c);
+  if (k === undefined) kernels.set(c, (k = compileKernel(c.kind, c.model, c.names)));
+  return k;
+}
+
+/** The moved balance's headline figures into ys at o: the kernel's, or the lean full balance's. */
+function moved(c: CompiledUnit, kernel: SweepKernel | null, i: number, xs: Float64Array, ys: Float64Array, o: number): boolean {
+  try {
+    if (kernel && i >= 2) {
+      kernel.evaluate(xs, ys, o);
+    } else headline(c.evaluate(xs, true), ys, o);
+    return true;
+  } catch {
+    return false;
+  }
 }
 
 /**
@@ -79,6 +102,8 @@ export function unitHourWithUncertainty(
   const k = options.k ?? 2;
   const relStep = options.relStep ?? 1e-6;
   const balance = c.evaluate(x);
+  let kernel = options.fullSweep ? null : kernelOf(c);
+  if (kernel && !kernel.setPoint(x, balance)) kernel = null;
   const y0 = new Float64Array(N_OUT);
   headline(balance, y0, 0);
   const xs = Float64Array.from(x as ArrayLike<number>);
@@ -92,20 +117,10 @@ export function unitHourWithUncertainty(
     if (ui === 0) continue;
     const xi = xs[i];
     const h = relStep * Math.max(Math.abs(xi), ui);
-    let okP = true;
-    let okM = true;
     xs[i] = xi + h;
-    try {
-      headline(c.evaluate(xs, true), ys, 0);
-    } catch {
-      okP = false;
-    }
+    const okP = moved(c, kernel, i, xs, ys, 0);
     xs[i] = xi - h;
-    try {
-      headline(c.evaluate(xs, true), ys, N_OUT);
-    } catch {
-      okM = false;
-    }
+    const okM = moved(c, kernel, i, xs, ys, N_OUT);
     xs[i] = xi;
     if (!okP && !okM) {
       unavailable.push(c.names[i]);
