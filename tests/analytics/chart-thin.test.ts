@@ -1,6 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { CHART_MAX_POINTS, chartColumns, drawnPoints, thinChart } from '~/lib/analytics/chart-thin';
+import { CHART_MAX_POINTS, chartColumns, dayByDay, drawnPoints, thinChart } from '~/lib/analytics/chart-thin';
+import { siteMidnight } from '~/lib/site-time';
 import type { ChartPoint } from '~/lib/analytics/notice-figures';
 import { expectClose } from '../support/expect-close';
 
@@ -92,6 +93,19 @@ describe('thinning a notice chart to what it draws', () => {
     const cols = chartColumns('hour', []);
     expect(cols.t0).toBe('');
     expect(drawnPoints(cols)).toEqual([]);
+  });
+});
+
+describe('finding local days hour by hour', () => {
+  it('gives every hour of a year with two clock changes the same day as asking each hour (self-consistency)', () => {
+    for (const tz of ['Europe/London', 'Asia/Kolkata', 'Australia/Lord_Howe', 'UTC']) {
+      let asked = 0;
+      const plain = (ms: number) => siteMidnight(ms, tz);
+      const cached = dayByDay((ms) => (asked++, plain(ms)));
+      const start = Date.parse('2025-01-01T00:00:00Z');
+      for (let h = 0; h < 24 * 366; h++) expect(cached(start + h * HOUR)).toBe(plain(start + h * HOUR));
+      expect(asked, tz).toBeLessThanOrEqual(2 * 367);
+    }
   });
 });
 

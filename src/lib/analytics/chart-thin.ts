@@ -87,3 +87,18 @@ export function drawnPoints(c: ChartColumns): DrawnPoint[] {
   const t0 = c.t0 ? Date.parse(c.t0) : 0;
   return c.at_min.map((m, i) => ({ t_ms: t0 + m * MINUTE_MS, residual_kW: c.residual_kW[i]!, cusum: c.cusum[i]! }));
 }
+
+/**
+ * `dayOf` (an instant [ms] to the start of its local day [ms]) asked once per day instead of once per
+ * hour, for instants in rising order (a day is 23 to 25 hours long, so start + 30 h lies in the next).
+ */
+export function dayByDay(dayOf: (ms: number) => number): (ms: number) => number {
+  let lo = Number.POSITIVE_INFINITY;
+  let hi = Number.NEGATIVE_INFINITY;
+  return (ms) => {
+    if (ms >= lo && ms < hi) return lo;
+    lo = dayOf(ms);
+    hi = dayOf(lo + 30 * 60 * MINUTE_MS);
+    return lo;
+  };
+}
