@@ -35,12 +35,13 @@ export function HourPanel({ unit, hourStart, link, onClose }: { unit: UnitInfo; 
     }
   };
 
+  // !m-0: the page's spaced column (space-y-*) would push the sheet 24 px down from the window's top.
   return (
     <dialog
       ref={ref}
       aria-modal="true"
       aria-labelledby={`${id}-title`}
-      className="fixed inset-y-0 left-auto right-0 m-0 h-full max-h-full w-full max-w-6xl overflow-y-auto border-0 border-l border-paper-edge bg-paper p-0 text-ink shadow-xl backdrop:bg-ink/40"
+      className="fixed inset-y-0 left-auto right-0 !m-0 h-full max-h-full w-full max-w-6xl overflow-y-auto border-0 border-l border-paper-edge bg-paper p-0 text-ink shadow-xl backdrop:bg-ink/40"
       data-testid="hour-detail"
       onCancel={(e) => {
         // Escape: closed by the page, so the opener gets its focus back and the address loses the hour.
