@@ -71,10 +71,11 @@ test('an operator opens a unit\'s hourly results and one hour\'s detail', async 
   // The state is told by a word and a shape, not colour alone.
   await expect(table.locator('[data-state="steady"] svg').first()).toBeVisible();
 
-  // One hour opened up.
+  // One hour opened up, in place: a dialog over the table.
   await table.locator(`tr[data-hour="${from}"]`).getByRole('button', { name: 'Open hour' }).click();
-  const detail = page.getByTestId('hour-detail');
+  const detail = page.getByRole('dialog', { name: `${unitName}, hour from` });
   await expect(detail).toBeVisible();
+  await expect(detail).toHaveAttribute('data-testid', 'hour-detail');
   await expect(detail.getByText('monitoring aid')).toBeVisible();
   await expect(detail.getByTestId('hour-ports')).toContainText('HP side');
   await expect(detail.getByTestId('hour-ports')).toContainText('from the energy balance');
@@ -86,6 +87,7 @@ test('an operator opens a unit\'s hourly results and one hour\'s detail', async 
 
   // The unsettled hour says why.
   await detail.getByRole('button', { name: 'Close the hour' }).click();
+  await expect(detail).toHaveCount(0);
   await table.locator(`tr[data-hour="${new Date(firstHour + 2 * HOUR).toISOString()}"]`).getByRole('button', { name: 'Open hour' }).click();
   await expect(page.getByTestId('hour-reasons')).toContainText('spread too wide');
   await expect(page.getByTestId('hour-reasons')).not.toContainText('SPREAD_HIGH');

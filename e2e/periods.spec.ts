@@ -1,6 +1,7 @@
 import { expect, test, type Page } from '@playwright/test';
 import pg from 'pg';
 import { DEMO, signIn } from './helpers';
+import { noticeWithChart } from './notice-fixture';
 
 /**
  * Periods with data, freshness and page sizes. An invented site shaped like the demo plant: unit
@@ -101,4 +102,39 @@ test('every page for a signed-in admin transfers under 300 KB', async ({ page })
     }
     expect(bytes, `${path}: ${bytes} bytes transferred`).toBeLessThan(300 * 1024);
   }
+});
+
+test('a drift notice page carries what its chart draws: under 150 KB of HTML, also over two years', async ({ page }) => {
+  test.setTimeout(120_000);
+  // 330 hourly points: the longest chart drawn per hour (onset - 72 h to the latest figures + 72 h).
+  const { noticeId } = await noticeWithChart(`E2E notice size site ${stamp()}`, { chartHours: 330 });
+  await signIn(page, DEMO.admin);
+  const requests: import('@playwright/test').Request[] = [];
+  const listener = (r: import('@playwright/test').Request) => requests.push(r);
+  page.on('requestfinished', listener);
+  const res = await page.goto(`/notices/${noticeId}`, { waitUntil: 'networkidle' });
+  page.off('requestfinished', listener);
+  const html = (await res!.body()).length;
+  expect(html, `/notices/${noticeId}: ${html} bytes of HTML`).toBeLessThan(150 * 1024);
+  let bytes = 0;
+  for (const r of requests) {
+    const s = await r.sizes();
+    bytes += s.responseBodySize + s.responseHeadersSize;
+  }
+  expect(bytes, `/notices/${noticeId}: ${bytes} bytes transferred`).toBeLessThan(300 * 1024);
+  // Every hour of the chart is still drawn.
+  await expect(page.getByTestId('drift-chart')).toHaveAttribute('data-span', 'hour');
+  await expect(page.getByTestId('drift-chart')).toHaveAttribute('data-points', '330');
+  await expect(page.getByTestId('chart-marks')).toContainText('onset');
+
+  // A notice of nearly two years: 700 days merge two by two, and the page stays small.
+  const long = await noticeWithChart(`E2E long notice site ${stamp()}`, { first: '2023-06-05T00:00:00Z', hours: 24 * 730, chartHours: 24 * 700 });
+  const longRes = await page.goto(`/notices/${long.noticeId}`, { waitUntil: 'networkidle' });
+  const longHtml = (await longRes!.body()).length;
+  expect(longHtml, `/notices/${long.noticeId}: ${longHtml} bytes of HTML`).toBeLessThan(150 * 1024);
+  await expect(page.getByTestId('drift-chart')).toHaveAttribute('data-span', 'day');
+  const drawn = Number(await page.getByTestId('drift-chart').getAttribute('data-points'));
+  expect(drawn).toBeGreaterThan(300);
+  expect(drawn).toBeLessThanOrEqual(500);
+  await expect(page.getByTestId('drift-chart').locator('xpath=..')).toContainText('one point per 2 days');
 });

@@ -74,6 +74,7 @@ test('an opened hour shows words, not codes', async ({ page }) => {
   if ((await open.count()) === 0) return;
   await open.click();
   await expect(page.getByTestId('hour-detail')).toBeVisible();
+  await expect(page.getByTestId('hour-detail').getByTestId('hour-figures')).toBeVisible();
   await page.locator('details').evaluateAll((ds) => ds.forEach((d) => d.setAttribute('open', '')));
   expect(await codesOnPage(page)).toEqual([]);
 });

@@ -30,8 +30,11 @@ function deltaText(u_SI: number, q: ReturnType<typeof inputWords>['quantity'], w
   return `${w.delta(u_SI, q)}${u ? ` ${u}` : ''}`;
 }
 
-/** One hour opened up: every port's state, every term, F P L D, uncertainty, reasons, the tag hours and links used. */
-export function HourDetail({ unit, hourStart, onClose }: { unit: UnitInfo; hourStart: string; onClose: () => void }) {
+/**
+ * One hour opened up: every port's state, every term, F P L D, uncertainty, reasons, the tag hours and
+ * links used. Shown inside ./HourPanel.tsx, which carries the title, the link and the close button.
+ */
+export function HourDetail({ unit, hourStart }: { unit: UnitInfo; hourStart: string }) {
   const [hour, setHour] = useState<Hour | null>(null);
   const [error, setError] = useState<string | null>(null);
   const tz = unit.timeZone;
@@ -61,21 +64,14 @@ export function HourDetail({ unit, hourStart, onClose }: { unit: UnitInfo; hourS
   const plan = new Map((d?.plan ?? []).map((p) => [p.name, p]));
 
   return (
-    <section className="card space-y-5" aria-label="The hour opened up" data-testid="hour-detail">
-      <div className="flex flex-wrap items-center gap-3">
-        <h2>
-          {unit.name}, hour from {siteTime(hour.hourStart, tz)} ({tz})
-        </h2>
-        <HourStateMark state={hour.state} />
-        <button type="button" className="btn ml-auto" onClick={onClose}>
-          Close the hour
-        </button>
-      </div>
-
+    <div className="space-y-5" data-testid="hour-figures">
       <Caution className="caution" />
 
       <div>
-        <h3 className="mb-1 font-medium">Why this hour is {hour.state}</h3>
+        <div className="mb-1 flex items-center gap-3">
+          <h3 className="font-medium">Why this hour is {hour.state}</h3>
+          <HourStateMark state={hour.state} />
+        </div>
         {hour.reasons.length === 0 ? (
           <p className="text-sm text-ink-soft">Every key tag is sound and steady, the load is above the minimum, and the balances close within their tolerances.</p>
         ) : (
@@ -363,6 +359,6 @@ export function HourDetail({ unit, hourStart, onClose }: { unit: UnitInfo; hourS
           </p>
         )}
       </div>
-    </section>
+    </div>
   );
 }

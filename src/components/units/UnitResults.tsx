@@ -1,18 +1,28 @@
-import { useCallback, useEffect, useState } from 'react';
-import { HourDetail } from './HourDetail';
+import { useCallback, useEffect, useRef, useState } from 'react';
+import { HourPanel } from './HourPanel';
 import { HourStateMark } from './HourStateMark';
-import { fmt, fmtU, siteDay, siteDayStart, siteTime } from './format';
+import { fmt, fmtU, hourFromAddress, hourInAddress, siteDay, siteDayStart, siteTime } from './format';
 import { call } from '~/components/api';
 import { HOUR_STATES } from '~/lib/hour-states';
 import { DAY_MS } from '~/lib/time';
 import type { UnitHourView as HourRow, UnitInfo } from '~/lib/views/unit-hour';
 import { counted } from '~/lib/counts';
 
+/** The page's address with the opened hour (?hour=...), or without it; replaced, so Back leaves the page. */
+function addressWith(iso: string | null): URL {
+  const url = new URL(window.location.href);
+  if (iso) url.searchParams.set('hour', hourInAddress(iso));
+  else url.searchParams.delete('hour');
+  return url;
+}
 
+/** The address that opens one hour of this unit directly (the page picks a range that holds it). */
+const hourLink = (iso: string) => `${window.location.origin}${window.location.pathname}?hour=${hourInAddress(iso)}`;
 
 /**
- * A unit's hours in a table over a date range (site-local days), one hour opened up below it.
- * Reads GET /api/v1/units/{unitId}/hours and /hours/{hour}.
+ * A unit's hours in a table over a date range (site-local days); one hour opens in place in a side
+ * sheet over the table (./HourPanel.tsx), and the address names it. Reads GET
+ * /api/v1/units/{unitId}/hours and /hours/{hour}.
  */
 export default function UnitResults({ unit, initialFrom, initialTo, initialHour }: { unit: UnitInfo; initialFrom: string; initialTo: string; initialHour: string | null }) {
   const tz = unit.timeZone;
@@ -20,7 +30,28 @@ export default function UnitResults({ unit, initialFrom, initialTo, initialHour 
   const [toDay, setToDay] = useState(siteDay(new Date(new Date(initialTo).getTime() - 1).toISOString(), tz));
   const [rows, setRows] = useState<HourRow[] | null>(null);
   const [error, setError] = useState<string | null>(null);
-  const [open, setOpen] = useState<string | null>(initialHour);
+  const [open, setOpen] = useState<string | null>(() => hourFromAddress(initialHour));
+  const openRef = useRef(open);
+  const opener = useRef<HTMLElement | null>(null);
+
+  const openHour = useCallback((iso: string, button: HTMLElement) => {
+    opener.current = button;
+    openRef.current = iso;
+    setOpen(iso);
+    window.history.replaceState(window.history.state, '', addressWith(iso));
+  }, []);
+
+  /** Closes the opened hour (once, however asked) and gives the focus back to what opened it. */
+  const closeHour = useCallback(() => {
+    const was = openRef.current;
+    if (!was) return;
+    openRef.current = null;
+    setOpen(null);
+    window.history.replaceState(window.history.state, '', addressWith(null));
+    const back = opener.current?.isConnected ? opener.current : document.querySelector<HTMLElement>(`tr[data-hour-ms="${Date.parse(was)}"] button[data-open-hour]`);
+    opener.current = null;
+    requestAnimationFrame(() => back?.focus());
+  }, []);
 
   const range = useCallback(() => {
     const from = siteDayStart(fromDay, tz);
@@ -108,9 +139,10 @@ export default function UnitResults({ unit, initialFrom, initialTo, initialHour 
             </thead>
             <tbody>
               {rows.map((r) => {
-                const isOpen = open === r.hourStart;
+                const ms = Date.parse(r.hourStart);
+                const isOpen = open !== null && Date.parse(open) === ms;
                 return (
-                  <tr key={r.hourStart} className={isOpen ? 'bg-paper-deep' : undefined} data-hour={r.hourStart}>
+                  <tr key={r.hourStart} className={isOpen ? 'bg-paper-deep' : undefined} data-hour={r.hourStart} data-hour-ms={ms}>
                     <td className="whitespace-nowrap tabular-nums">{siteTime(r.hourStart, tz)}</td>
                     <td title={r.reasons.map((x) => x.message).join('\n')}>
                       <HourStateMark state={r.state} />
@@ -128,11 +160,12 @@ export default function UnitResults({ unit, initialFrom, initialTo, initialHour 
                       <button
                         type="button"
                         className="btn px-2 py-0.5 text-xs"
-                        aria-label={`${isOpen ? 'Close' : 'Open hour'} ${siteTime(r.hourStart, tz)}`}
-                        aria-expanded={isOpen}
-                        onClick={() => setOpen(isOpen ? null : r.hourStart)}
+                        aria-label={`Open hour ${siteTime(r.hourStart, tz)}`}
+                        aria-haspopup="dialog"
+                        data-open-hour
+                        onClick={(e) => openHour(r.hourStart, e.currentTarget)}
                       >
-                        {isOpen ? 'Close' : 'Open hour'}
+                        Open hour
                       </button>
                     </td>
                   </tr>
@@ -143,7 +176,7 @@ export default function UnitResults({ unit, initialFrom, initialTo, initialHour 
         </div>
       )}
 
-      {open && <HourDetail unit={unit} hourStart={open} onClose={() => setOpen(null)} />}
+      {open && <HourPanel key={open} unit={unit} hourStart={open} link={hourLink(open)} onClose={closeHour} />}
     </div>
   );
 }

@@ -21,3 +21,14 @@ export function siteDayStart(day: string, timeZone: string): string {
 
 /** The site-local calendar day (yyyy-MM-dd) of an instant. */
 export const siteDay = (iso: string, timeZone: string): string => dayOf(iso, timeZone);
+
+/** An hour's start as the address writes it (?hour=2026-05-12T10:00Z): short, readable, exact to the minute. */
+export const hourInAddress = (iso: string): string => `${new Date(iso).toISOString().slice(0, 16)}Z`;
+
+/** The hour named by the address as a full ISO instant, or null when the text is no instant. */
+export function hourFromAddress(text: string | null | undefined): string | null {
+  // A zone is required (Z or an offset): a bare wall time would be read in the reader's own zone.
+  if (!text || text.length > 40 || !/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}.*(Z|[+-]\d{2}:?\d{2})$/.test(text)) return null;
+  const ms = Date.parse(text);
+  return Number.isFinite(ms) ? new Date(ms).toISOString() : null;
+}

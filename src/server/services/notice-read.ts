@@ -7,6 +7,7 @@ import { alias } from 'drizzle-orm/pg-core';
 import { siteMidnight } from '~/lib/site-time';
 import { HOUR_MS } from '~/lib/time';
 import { chartSeries, type ResidualHour } from '~/lib/analytics/notice-figures';
+import { dayByDay } from '~/lib/analytics/chart-thin';
 import { db } from '../db/client';
 import type { NoticeChartEvent, NoticeLife, NoticeView } from '~/lib/notice-view';
 import { baselineLabel } from '~/lib/baseline-view';
@@ -173,7 +174,7 @@ export async function noticeDetail(noticeId: string) {
     .orderBy(asc(driftPoints.hourStart))
     .limit(24 * 800);
   const hours: ResidualHour[] = rows.map((r) => ({ hourStart_ms: r.hourStart.getTime(), residual_W: r.residual_W, hourU_W: null, cPlus: r.cPlus, cMinus: r.cMinus, signal: r.signal }));
-  const chart = chartSeries(hours, notice.direction, (ms) => siteMidnight(ms, notice.timeZone));
+  const chart = chartSeries(hours, notice.direction, dayByDay((ms) => siteMidnight(ms, notice.timeZone)));
   const events: NoticeChartEvent[] = [
     { t: notice.onsetHour, label: 'onset' },
     { t: notice.signalHour, label: 'signal' },

@@ -1,6 +1,7 @@
 import { Bar, CartesianGrid, ComposedChart, Line, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
 import { at, sig } from '../baselines/looks';
-import type { Notice, NoticeChartEvent, NoticeChartPoint } from './looks';
+import type { Notice, NoticeChartEvent } from './looks';
+import { drawnPoints, type ChartColumns } from '~/lib/analytics/chart-thin';
 import { PALETTE } from '~/lib/palette';
 
 const INK = PALETTE.ink.DEFAULT;
@@ -25,7 +26,7 @@ function EventLabel({ viewBox, n, row }: { viewBox?: { x: number; y: number }; n
 }
 
 /** The key under the chart: a sample of each series' pattern beside its words. */
-function Key({ notice, span }: { notice: Notice; span: 'hour' | 'day' }) {
+function Key({ notice, span, per }: { notice: Notice; span: 'hour' | 'day'; per: string }) {
   const dir = notice.direction === 'up' ? 'more' : 'less';
   return (
     <ul className="mt-2 flex flex-wrap gap-x-6 gap-y-1 text-xs text-ink-soft" data-testid="chart-key">
@@ -33,14 +34,14 @@ function Key({ notice, span }: { notice: Notice; span: 'hour' | 'day' }) {
         <svg width="22" height="12" aria-hidden="true">
           <rect x="6" y="1" width="10" height="10" fill={COPPER} />
         </svg>
-        bars: measured − expected destruction [kW]{span === 'day' ? ', mean of the day’s steady hours' : ', per steady hour'}
+        bars: measured − expected destruction [kW]{span === 'day' ? `, mean of the ${per}’s steady hours` : ', per steady hour'}
       </li>
       <li className="flex items-center gap-2">
         <svg width="30" height="12" aria-hidden="true">
           <line x1="0" y1="6" x2="30" y2="6" stroke={INK} strokeWidth="2" strokeDasharray={CUSUM_DASH} />
           <rect x="12" y="3" width="6" height="6" fill={INK} />
         </svg>
-        dashed line with squares: cumulative sum ({dir} destruction) [σ]{span === 'day' ? ', largest of the day' : ''}
+        dashed line with squares: cumulative sum ({dir} destruction) [σ]{span === 'day' ? `, largest of the ${per}` : ''}
       </li>
       <li className="flex items-center gap-2">
         <svg width="30" height="12" aria-hidden="true">
@@ -54,11 +55,15 @@ function Key({ notice, span }: { notice: Notice; span: 'hour' | 'day' }) {
 
 /**
  * The residual and the cumulative sum against its decision limit. The server sends hours, or days
- * over long spans; σ is the spread of the residuals of the baseline's fit.
+ * (runs of days above 500 points) over long spans, as the columns the chart draws
+ * (src/lib/analytics/chart-thin.ts); σ is the spread of the residuals of the baseline's fit.
  */
-export function NoticeChart({ notice, span, points, events }: { notice: Notice; span: 'hour' | 'day'; points: NoticeChartPoint[]; events: NoticeChartEvent[] }) {
-  if (!points.length) return <p className="text-sm text-ink-faint">The hours behind this notice are no longer in the drift check (the baseline or settings changed).</p>;
-  const data = points.map((p) => ({ t: new Date(p.t).getTime(), residual: p.residual_W / 1000, cusum: p.cusum, hours: p.hours }));
+export function NoticeChart({ notice, chart, events }: { notice: Notice; chart: ChartColumns; events: NoticeChartEvent[] }) {
+  const span = chart.span;
+  const days = Math.round(chart.perHours / 24);
+  const per = days > 1 ? `${days} days` : 'day';
+  if (!chart.at_min.length) return <p className="text-sm text-ink-faint">The hours behind this notice are no longer in the drift check (the baseline or settings changed).</p>;
+  const data = drawnPoints(chart).map((p) => ({ t: p.t_ms, residual: p.residual_kW, cusum: p.cusum }));
   const tick = (t: number) => (span === 'day' ? at(new Date(t).toISOString(), notice.timeZone).slice(0, 10) : at(new Date(t).toISOString(), notice.timeZone).slice(5));
   const t0 = data[0]!.t;
   const t1 = data[data.length - 1]!.t;
@@ -73,6 +78,7 @@ export function NoticeChart({ notice, span, points, events }: { notice: Notice; 
         className="h-80"
         data-testid="drift-chart"
         data-span={span}
+        data-points={data.length}
         role="img"
         aria-label={`Residual of destruction ${span === 'day' ? 'per day' : 'per steady hour'} and the cumulative sum against the decision limit h = ${notice.h} σ`}
       >
@@ -92,7 +98,7 @@ export function NoticeChart({ notice, span, points, events }: { notice: Notice; 
               label={{ value: 'cumulative sum [σ]', angle: 90, position: 'insideRight', fill: INK, fontSize: 11 }}
             />
             <Tooltip
-              labelFormatter={(t) => `${span === 'day' ? 'day from ' : ''}${at(new Date(Number(t)).toISOString(), notice.timeZone)} (${notice.timeZone})`}
+              labelFormatter={(t) => `${span === 'day' ? `${per} from ` : ''}${at(new Date(Number(t)).toISOString(), notice.timeZone)} (${notice.timeZone})`}
               formatter={(v, name) => [Number(v).toFixed(2), name === 'residual' ? 'residual [kW]' : 'cumulative sum [σ]']}
             />
             <Bar yAxisId="kW" dataKey="residual" name="residual" fill={COPPER} isAnimationActive={false} />
@@ -113,7 +119,7 @@ export function NoticeChart({ notice, span, points, events }: { notice: Notice; 
           </ComposedChart>
         </ResponsiveContainer>
       </div>
-      <Key notice={notice} span={span} />
+      <Key notice={notice} span={span} per={per} />
       {shown.length > 0 && (
         <ol className="mt-1 flex flex-wrap gap-x-5 text-xs text-ink-soft" data-testid="chart-marks">
           {shown.map((e, i) => (
@@ -125,7 +131,9 @@ export function NoticeChart({ notice, span, points, events }: { notice: Notice; 
         </ol>
       )}
       <figcaption className="mt-1 text-xs text-ink-faint">
-        {span === 'day' ? 'Over this span the chart shows one point per day (site time): the mean residual and the largest cumulative sum of its steady hours. ' : ''}
+        {span === 'day'
+          ? `Over this span the chart shows one point per ${per} (site time): the mean residual and the largest cumulative sum of its steady hours. `
+          : ''}
         The cumulative sum adds each hour’s residual in units of σ, the spread of the residuals of the baseline’s fit, less the allowance k = {notice.k} σ; the
         notice opens when it passes the decision limit h = {notice.h} σ.
       </figcaption>

@@ -5,6 +5,7 @@ import { Notice as Message } from '~/components/plant/common';
 import { call, messageOf, type Message as Msg } from '~/components/api';
 import { at, dayOf } from '../baselines/looks';
 import { NoticeChart } from './NoticeChart';
+import type { ChartColumns } from '~/lib/analytics/chart-thin';
 import {
   LIFE_LOOK,
   NOTICE_LOOK,
@@ -16,7 +17,6 @@ import {
   signedKW,
   type Notice,
   type NoticeChartEvent,
-  type NoticeChartPoint,
 } from './looks';
 import type { CloseOutcome } from '~/lib/notice-view';
 import RuleNoticeSummary from './RuleNoticeSummary';
@@ -185,7 +185,8 @@ export default function NoticePanel({
   canAct,
 }: {
   initial: Notice;
-  chart: { span: 'hour' | 'day'; points: NoticeChartPoint[]; events: NoticeChartEvent[] };
+  /** What the chart draws (src/lib/analytics/chart-thin.ts), thinned and rounded on the server. */
+  chart: ChartColumns & { events: NoticeChartEvent[] };
   caution: string;
   canAct: boolean;
 }) {
@@ -338,7 +339,7 @@ export default function NoticePanel({
           smaller than one hour’s uncertainty, check the instruments first. The shift is growing (or receding) when the current figure is above (or
           below) the mean since onset by more than their combined uncertainty.
         </p>
-        <NoticeChart notice={n} span={chart.span} points={chart.points} events={chart.events} />
+        <NoticeChart notice={n} chart={chart} events={chart.events} />
       </section>
       )}
 
