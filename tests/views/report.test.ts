@@ -171,6 +171,9 @@ describeIntegration('monthly report', () => {
     expect(body.months.map((m: { month: string }) => m.month)).toEqual(['2024-03', '2024-01']);
     expect(body.months[0].pdf).toBe(`/api/sites/${siteId}/reports/2024-03/report.pdf`);
     expect(body.months[0].hours).toEqual({ steady: 11, unsettled: 0, idle: 1, suspect: 1 });
+    // The latest hour (12 March 2024) does not close March, and February has no hours: the reports open on
+    // January, the latest full month with data (src/lib/views/period.ts defaultPeriod; issue 13).
+    expect(body.latest).toEqual({ month: '2024-01', label: 'January 2024', choice: 'latest-full' });
     const bad = await getCsv(ctx(`/api/sites/${siteId}/reports/2024-13/report.csv`, { siteId, month: '2024-13' }));
     expect(bad.status).toBe(400);
   });

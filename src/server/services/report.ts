@@ -10,7 +10,7 @@ import { SAFETY_CAUTION } from '~/lib/caution';
 import type { HourState, StateCounts } from '~/lib/hour-states';
 import { siteStamp } from '~/lib/site-time';
 import { kindLabel, ledgerFrom, type LedgerAnswer } from '~/lib/views/ledger';
-import { defaultPeriod, monthPeriod, type Period, type PeriodChoice } from '~/lib/views/period';
+import { defaultPeriod, monthPeriod, resolvePeriod, type Period, type PeriodChoice } from '~/lib/views/period';
 import type { SiteDisplayUnits } from '~/lib/units/writer';
 import { meanOf } from '~/lib/views/trend';
 import { plantUnits, sites, unitHours } from '../db/schema';
@@ -155,14 +155,20 @@ export async function reportData(siteId: string, month: string, nowMs = Date.now
 }
 
 /**
- * The month a site's reports open on: the latest full month with data (src/lib/views/period.ts
- * defaultPeriod), as 'yyyy-MM', and why; null when the site has no computed hour.
+ * The month a site's reports open on: the latest FULL month with data (the rule of
+ * src/lib/views/period.ts defaultPeriod: the month holding the latest computed hour when that hour
+ * closes it), else the newest earlier month that has unit hours, else the partial month; null
+ * without data. @param monthsWithData 'yyyy-MM' months that have unit hours, newest first
  */
-export async function reportDefaultMonth(siteId: string, timeZone: string, nowMs = Date.now()): Promise<{ month: string; label: string; choice: PeriodChoice } | null> {
+export async function reportDefaultMonth(siteId: string, timeZone: string, monthsWithData: string[], nowMs = Date.now()): Promise<{ month: string; label: string; choice: PeriodChoice } | null> {
   const span = await dataSpan(siteId, undefined, nowMs);
-  if (!span) return null;
+  if (!span || !monthsWithData.length) return null;
   const { period, choice } = defaultPeriod('month', timeZone, span, nowMs);
-  return { month: period.firstDay.slice(0, 7), label: period.label, choice };
+  const holding = resolvePeriod({ range: 'month' }, timeZone, span.lastMs);
+  const pick = (month: string, c: PeriodChoice) => ({ month, label: monthPeriod(month, timeZone).label, choice: c });
+  if (period.fromMs === holding.fromMs) return pick(period.firstDay.slice(0, 7), choice);
+  const earlier = monthsWithData.find((m) => m < holding.firstDay.slice(0, 7));
+  return earlier ? pick(earlier, 'latest-full') : pick(holding.firstDay.slice(0, 7), 'latest-partial');
 }
 
 /** Months (yyyy-MM, the site's calendar) with unit hours at a site, newest first, with hours by state and the month reports open on. */
@@ -186,7 +192,7 @@ export async function reportMonths(siteId: string): Promise<{
   const months = [...byMonth.entries()]
     .sort((a, b) => b[0].localeCompare(a[0]))
     .map(([month, hours]) => ({ month, label: monthPeriod(month, site.timeZone).label, hours }));
-  return { site: { id: site.id, name: site.name, timeZone: site.timeZone }, months, latest: await reportDefaultMonth(site.id, site.timeZone) };
+  return { site: { id: site.id, name: site.name, timeZone: site.timeZone }, months, latest: await reportDefaultMonth(site.id, site.timeZone, months.map((m) => m.month)) };
 }
 
 /** A file name for the report: letters, digits and dashes only. */
