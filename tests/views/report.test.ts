@@ -7,6 +7,7 @@ import { driftNotices } from '~/server/db/schema';
 import { acceptBaseline, fitDraft } from '~/server/services/baselines';
 import { SAFETY_CAUTION } from '~/lib/caution';
 import { reportData } from '~/server/services/report';
+import { expectedBand } from '~/server/services/views-insight';
 import { describeIntegration } from '../support/integration';
 import { expectClose } from '../support/expect-close';
 import { HOUR, addHours, ctx, inventedSite, type HourRow } from './support';
@@ -163,6 +164,11 @@ describeIntegration('monthly report', () => {
     expect(text).toContain('Loss ledger');
     expect(text).toContain('more destruction than expected');
     expect(text).toContain('monitoring aid');
+  });
+
+  it('the trend says beside the baseline line that a fit on 48 steady hours (less than a week) is to be read with care', async () => {
+    const { baseline } = await expectedBand(units.get('Steam turbine ST1')!, []);
+    expect(baseline!.trustWarnings!.join(' ')).toContain('Fitted on only 48 steady hours');
   });
 
   it('lists the months with unit hours, newest first, and refuses a month that is not one', async () => {
