@@ -2,6 +2,7 @@
  * A drift notice as the API answers it: one definition for the server (src/server/services/notices.ts)
  * and the islands that draw it (src/components/insight/notices). Types only.
  */
+import type { SiteDisplayUnits } from './units/writer';
 export type NoticeStatus = 'open' | 'acknowledged' | 'closed';
 /** 'drift': a CUSUM signal; 'idle': a unit declared normally idle ran; 'limit': a unit crossed a limit set for it. */
 export type NoticeKind = 'drift' | 'idle' | 'limit';
@@ -121,4 +122,10 @@ export interface NoticeView {
   verdict: VerdictView | null;
   followUpNoticeId: string | null;
   escalationStep: number;
+  /**
+   * The site's display units and atmosphere, for pages and mails that write the figures for people
+   * (src/lib/units/writer.ts). Present on the answers of the product's own routes and in mails; the
+   * API under /api/v1 keeps SI and leaves it out.
+   */
+  display?: SiteDisplayUnits;
 }

@@ -7,6 +7,7 @@ import { driftNotices } from '~/server/db/schema';
 import { acceptBaseline, fitDraft } from '~/server/services/baselines';
 import { SAFETY_CAUTION } from '~/lib/caution';
 import { reportData } from '~/server/services/report';
+import { expectedBand } from '~/server/services/views-insight';
 import { describeIntegration } from '../support/integration';
 import { expectClose } from '../support/expect-close';
 import { HOUR, addHours, ctx, inventedSite, type HourRow } from './support';
@@ -165,12 +166,20 @@ describeIntegration('monthly report', () => {
     expect(text).toContain('monitoring aid');
   });
 
+  it('the trend says beside the baseline line that a fit on 48 steady hours (less than a week) is to be read with care', async () => {
+    const { baseline } = await expectedBand(units.get('Steam turbine ST1')!, []);
+    expect(baseline!.trustWarnings!.join(' ')).toContain('Fitted on only 48 steady hours');
+  });
+
   it('lists the months with unit hours, newest first, and refuses a month that is not one', async () => {
     const res = await getMonths(ctx(`/api/sites/${siteId}/reports`, { siteId }));
     const body = await res.json();
     expect(body.months.map((m: { month: string }) => m.month)).toEqual(['2024-03', '2024-01']);
     expect(body.months[0].pdf).toBe(`/api/sites/${siteId}/reports/2024-03/report.pdf`);
     expect(body.months[0].hours).toEqual({ steady: 11, unsettled: 0, idle: 1, suspect: 1 });
+    // The latest hour (12 March 2024) does not close March, and February has no hours: the reports open on
+    // January, the latest full month with data (src/lib/views/period.ts defaultPeriod; issue 13).
+    expect(body.latest).toEqual({ month: '2024-01', label: 'January 2024', choice: 'latest-full' });
     const bad = await getCsv(ctx(`/api/sites/${siteId}/reports/2024-13/report.csv`, { siteId, month: '2024-13' }));
     expect(bad.status).toBe(400);
   });

@@ -27,6 +27,22 @@ export interface SiteWriter {
 
 const NONE = '–';
 
+/** What a writer needs of a site: its display units and its atmosphere for gauge pressures [Pa]. */
+export interface SiteDisplayUnits {
+  units: DisplayUnits;
+  p_atm_Pa: number;
+}
+
+/** The writer of a site's display (the defaults when none is given). */
+export const writerOf = (d: SiteDisplayUnits | null | undefined): SiteWriter => siteWriter(d?.units, d?.p_atm_Pa);
+
+/** A signed value [SI] with its U: "+412 kW ± 18 kW", "−3.2 MW"; the sign is written before the figure. */
+export function signedWithU(w: SiteWriter, v_SI: number | null | undefined, U_SI: number | null | undefined, q: ShownQuantity, minus = '−'): string {
+  if (v_SI === null || v_SI === undefined || !Number.isFinite(v_SI)) return NONE;
+  const body = w.withU(Math.abs(v_SI), U_SI, q);
+  return /^0([.,]0*)?( |$)/.test(body) ? body : `${v_SI >= 0 ? '+' : minus}${body}`;
+}
+
 /** A writer for a site's display units; `p_atm_Pa` shifts gauge pressures. */
 export function siteWriter(units: DisplayUnits = DEFAULT_DISPLAY_UNITS, p_atm_Pa = 101325): SiteWriter {
   const style: NumberStyle = { ...localeStyle(units.locale), none: NONE };

@@ -87,6 +87,8 @@ export interface BaselineInfo {
   /** CV(RMSE) of the fits [-]. */
   efficiencyCvRmse: number | null;
   destructionCvRmse: number;
+  /** Why the fit is not to be trusted (too few hours, too little spread of load; src/lib/analytics/fit-trust.ts); empty when trusted. */
+  trustWarnings?: string[];
 }
 
 /** A steady hour against load, for the scatter (efficiency null for dissipative units). */

@@ -2,7 +2,7 @@
  * The texts of notice mails (opening, escalation, daily digest) and the lines of figures they share:
  * composition only, no I/O. Queueing them is the work of ./notices.ts.
  */
-import { fixed, withU } from '~/lib/format';
+import { signedWithU, writerOf, type SiteWriter } from '~/lib/units/writer';
 import { PALETTE } from '~/lib/palette';
 import { siteStampWithZone } from '~/lib/site-time';
 import { SAFETY_CAUTION } from '~/lib/caution';
@@ -17,14 +17,24 @@ const htmlCaution = () => `<p style="border:1px solid ${PALETTE.amber.DEFAULT};b
 const htmlBody = (headHtml: string, lines: string[], url: string) =>
   [`<p>${headHtml}</p>`, `<ul>${lines.map((l) => `<li>${escapeHtml(l)}</li>`).join('')}</ul>`, `<p><a href="${escapeHtml(url)}">Open the notice</a></p>`, htmlCaution()].join('\n');
 
-const kW = (W: number) => `${fixed(W / 1000, 1, { group: ' ' })} kW`;
-const money = (v: number, currency: string) => `${currency} ${fixed(v, 0, { group: ' ' })}`;
+/** Figures of a notice in its site's display units and number style (src/lib/units/writer.ts). */
+export function noticeWords(n: Pick<NoticeView, 'display' | 'currency'>) {
+  const w: SiteWriter = writerOf(n.display);
+  return {
+    w,
+    /** A power [W] with the site's unit: "412 kW", "1.23 MW". */
+    power: (W: number) => `${w.value(W, 'power')} ${w.unit('power')}`,
+    /** A difference or an uncertainty of power [W] (no offset). */
+    powerDelta: (W: number) => `${w.delta(W, 'power')} ${w.unit('power')}`,
+    /** A signed power and its U at the decimals U asks for: "+412 kW ± 18 kW". */
+    signedU: (W: number, U: number | null) => signedWithU(w, W, U, 'power', '-'),
+    /** Money in the currency, whole units grouped in the site's locale. */
+    money: (v: number, currency = n.currency) => `${currency} ${w.number(v, 0)}`,
+    /** Money and its U at the decimals U asks for. */
+    moneyU: (v: number, U: number | null, currency = n.currency) => `${currency} ${w.withU(v, U, 'none', 0)}`,
+  };
+}
 const when = siteStampWithZone;
-
-const signed = (W: number) => `${W >= 0 ? '+' : '-'}${kW(Math.abs(W))}`;
-/** A signed power and its U at the decimals U asks for (src/lib/format.ts): "+412 kW ± 18 kW". */
-const signedU = (W: number, U: number | null) =>
-  U === null || !Number.isFinite(U) || U === 0 ? signed(W) : `${W >= 0 ? '+' : '-'}${withU(Math.abs(W) / 1000, U / 1000, { group: ' ', unit: 'kW' })}`;
 
 /** The product's words for how a shift moves (rule in src/lib/analytics/notice-figures.ts). */
 export const TREND_WORDS = { growing: 'growing', steady: 'steady', receding: 'receding' } as const;
@@ -36,12 +46,14 @@ export const TREND_WORDS = { growing: 'growing', steady: 'steady', receding: 're
  */
 export function noticeFigureLines(n: NoticeView): string[] {
   if (n.kind !== 'drift') return ruleFigureLines(n);
+  const { signedU, power: kW, powerDelta, moneyU } = noticeWords(n);
+  const signed = (W: number) => signedU(W, null);
   const hoursOfHeadline = n.currentHours ?? n.hours;
   const lines = [
     `Extra destruction: ${signedU(n.headline_W, n.headlineU_W)} against the expected ${kW(n.expected_W)} (mean of the last ${hoursOfHeadline} steady hours; k = 2)`,
     n.headlineCost_per_day === null
       ? 'Cost per day: not known (no cost rate for this unit or site)'
-      : `Cost per day: ${n.currency} ${withU(n.headlineCost_per_day, n.headlineCostU_per_day, { group: ' ', decimals: 0 })}`,
+      : `Cost per day: ${moneyU(n.headlineCost_per_day, n.headlineCostU_per_day)}`,
   ];
   if (n.sinceOnset_W !== null && n.sinceOnsetHours !== null && n.sinceOnsetHours > hoursOfHeadline) {
     lines.push(`Since onset: ${signedU(n.sinceOnset_W, n.sinceOnsetU_W)} (mean of ${n.sinceOnsetHours} steady hours); the shift is ${n.trend ? TREND_WORDS[n.trend] : 'steady'}`);
@@ -53,8 +65,8 @@ export function noticeFigureLines(n: NoticeView): string[] {
     n.headlineExceeds === null || measU === null
       ? 'Against measurement uncertainty: not known (the hours carry no uncertainty)'
       : n.headlineExceeds
-        ? `Against measurement uncertainty: exceeds it (shift ${kW(Math.abs(n.headline_W))} against ± ${kW(measU)} for the mean of ${hoursOfHeadline} hours${n.hourU_W !== null ? `; one hour ± ${kW(n.hourU_W)}` : ''})`
-        : `Against measurement uncertainty: within it (shift ${kW(Math.abs(n.headline_W))} against ± ${kW(measU)} for the mean of ${hoursOfHeadline} hours)`,
+        ? `Against measurement uncertainty: exceeds it (shift ${powerDelta(Math.abs(n.headline_W))} against ± ${powerDelta(measU)} for the mean of ${hoursOfHeadline} hours${n.hourU_W !== null ? `; one hour ± ${powerDelta(n.hourU_W)}` : ''})`
+        : `Against measurement uncertainty: within it (shift ${powerDelta(Math.abs(n.headline_W))} against ± ${powerDelta(measU)} for the mean of ${hoursOfHeadline} hours)`,
   );
   if (n.fadedSince) lines.push(`Faded since ${when(n.fadedSince, n.timeZone)}: the shift has gone; a later shift opens a new notice`);
   return lines;
@@ -63,7 +75,7 @@ export function noticeFigureLines(n: NoticeView): string[] {
 export function noticeMail(n: NoticeView, to: string) {
   if (n.kind !== 'drift') return ruleNoticeMail(n, to, SAFETY_CAUTION);
   const more = n.direction === 'up' ? 'more' : 'less';
-  const subject = `Drift notice: ${n.unitName} at ${n.siteName} destroys ${kW(Math.abs(n.headline_W))} ${more} exergy than expected`;
+  const subject = `Drift notice: ${n.unitName} at ${n.siteName} destroys ${noticeWords(n).powerDelta(Math.abs(n.headline_W))} ${more} exergy than expected`;
   const lines = noticeFigureLines(n);
   const text = [`${n.unitName} (${n.siteName}) has shifted from its expected exergy destruction${n.baselineLabel ? ` (${n.baselineLabel})` : ''}.`, '', ...lines, ...textTail(n.url)].join('\n');
   const html = htmlBody(
@@ -76,9 +88,10 @@ export function noticeMail(n: NoticeView, to: string) {
 
 /** The escalation mail: an open notice whose cost per day has grown past the site's multiple since the last mail. */
 export function escalationMail(n: NoticeView, to: string, step: number, fromCost_per_day: number, toCost_per_day: number) {
-  const subject = `Drift notice grown: ${n.unitName} at ${n.siteName} now costs ${money(toCost_per_day, n.currency)} per day (was ${money(fromCost_per_day, n.currency)})`;
+  const { money } = noticeWords(n);
+  const subject = `Drift notice grown: ${n.unitName} at ${n.siteName} now costs ${money(toCost_per_day)} per day (was ${money(fromCost_per_day)})`;
   const lines = noticeFigureLines(n);
-  const head = `The shift of ${n.unitName} (${n.siteName}) has grown since the last mail about it: its cost per day went from ${money(fromCost_per_day, n.currency)} to ${money(toCost_per_day, n.currency)} (escalation ${step}).`;
+  const head = `The shift of ${n.unitName} (${n.siteName}) has grown since the last mail about it: its cost per day went from ${money(fromCost_per_day)} to ${money(toCost_per_day)} (escalation ${step}).`;
   const text = [head, '', ...lines, ...textTail(n.url)].join('\n');
   const html = htmlBody(escapeHtml(head), lines, n.url);
   return { to, subject, text, html };

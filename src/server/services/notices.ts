@@ -42,6 +42,7 @@ import { digestMail, escalationMail, noticeMail } from './notice-mail';
 export { TREND_WORDS, digestMail, escalationMail, noticeFigureLines, noticeMail } from './notice-mail';
 export { NOTICE_SORTS, NOTICE_STATUS_WORDS, getNotice, listNotices, noticeDetail, noticeUrl, type NoticeSort, type NoticeView } from './notice-read';
 import { getNotice, listNotices, noticeQueryOn, toView } from './notice-read';
+import { oneWithDisplay, withDisplay } from './notice-display';
 
 
 /** Who receives a notice's opening mail. */
@@ -265,7 +266,7 @@ async function queueMarkedMails(
   const marked = await mark(people);
   if (!marked.length) return [];
   const [r] = await noticeQueryOn(tx).where(eq(driftNotices.id, noticeId));
-  const view = toView(r!);
+  const view = await oneWithDisplay(toView(r!), tx);
   const boss = await queue();
   const byId = new Map(people.map((p) => [p.id, p.email]));
   const sent: string[] = [];
@@ -307,7 +308,7 @@ export async function setNoticePreferences(userId: string, input: z.infer<typeof
  * @returns the addresses queued
  */
 export async function sendNoticeDigests(now = new Date()): Promise<string[]> {
-  const open = await listNotices({ status: 'not-closed' });
+  const open = await withDisplay(await listNotices({ status: 'not-closed' }));
   if (!open.length) return [];
   const day = now.toISOString().slice(0, 10);
   const people = await db()

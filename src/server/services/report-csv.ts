@@ -1,6 +1,8 @@
 /**
  * The monthly report as CSV: one file, sections one after the other, each with its own head row and
- * a blank line between them; units in the heads, numbers with a decimal point and no grouping. Every
+ * a blank line between them; the site's display units in the heads ("measured destruction [MW]"),
+ * numbers with a decimal point and no grouping (so spreadsheets read them as numbers), times in the
+ * site's clock with its zone named. Every
  * record is written by Papa.unparse (csvLine), so text a spreadsheet would run as a formula (=, +, -,
  * @ ...) is written as text (plain decimal numbers, negative ones included, stay numbers).
  */
@@ -8,7 +10,8 @@ import { NOTICE_STATUS_WORDS } from '~/lib/words';
 import type { NoticeStatus } from '~/lib/notice-view';
 import { csvLine, type CsvCell } from '~/lib/csv-write';
 import type { ReportData } from './report';
-import { fixed, mwhDecimals } from './report-format';
+import { fixed, mwhDecimals, reportNumbers } from './report-format';
+import { writerOf } from '~/lib/units/writer';
 import { labelOf } from '~/lib/words';
 import { siteStamp } from '~/lib/site-time';
 
@@ -17,6 +20,9 @@ import { HOUR_STATES as STATES } from '~/lib/hour-states';
 /** The lines of the CSV, each already joined (CRLF is added by the writer). */
 export function reportCsvLines(r: ReportData): string[] {
   const cur = r.site.currency;
+  const tz = r.site.timeZone;
+  const p = reportNumbers(writerOf(r.display), true);
+  const P = p.powerUnit;
   const line = (...cells: CsvCell[]) => csvLine(cells);
   const out: string[] = [];
   const dMWh = mwhDecimals(Math.max(0, ...r.ledger.rows.map((x) => x.destruction_MWh), r.ledger.totals.destruction_MWh));
@@ -25,9 +31,9 @@ export function reportCsvLines(r: ReportData): string[] {
   out.push(line('site', r.site.name));
   out.push(line('month', r.month, r.period.label));
   out.push(line('time zone', r.site.timeZone));
-  out.push(line('period start (UTC)', r.period.from));
-  out.push(line('period end (UTC; exclusive)', r.period.to));
-  out.push(line('generated (site time)', r.generated));
+  out.push(line(`period start (${tz})`, siteStamp(r.period.fromMs, tz)));
+  out.push(line(`period end (${tz}; exclusive)`, siteStamp(r.period.toMs, tz)));
+  out.push(line(`generated (${tz})`, r.generated));
   out.push(line('note', r.uncertaintyNote));
   out.push('');
 
@@ -82,9 +88,9 @@ export function reportCsvLines(r: ReportData): string[] {
       'measured efficiency U (k=2) [%]',
       'expected efficiency [%]',
       'measured minus expected [percentage points]',
-      'measured destruction [kW]',
-      'measured destruction U (k=2) [kW]',
-      'expected destruction [kW]',
+      `measured destruction [${P}]`,
+      `measured destruction U (k=2) [${P}]`,
+      `expected destruction [${P}]`,
     ),
   );
   for (const e of r.efficiency) {
@@ -100,9 +106,9 @@ export function reportCsvLines(r: ReportData): string[] {
         fixed(e.measuredEfficiency_U === null ? null : e.measuredEfficiency_U * 100, 2),
         fixed(e.expectedEfficiency === null ? null : e.expectedEfficiency * 100, 2),
         fixed(diff, 2),
-        fixed(e.measuredDestruction_W === null ? null : e.measuredDestruction_W / 1000, 1),
-        fixed(e.measuredDestruction_U_W === null ? null : e.measuredDestruction_U_W / 1000, 1),
-        fixed(e.expectedDestruction_W === null ? null : e.expectedDestruction_W / 1000, 1),
+        p.powerAtU(e.measuredDestruction_W, e.measuredDestruction_U_W),
+        p.powerOnlyU(e.measuredDestruction_U_W),
+        p.power(e.expectedDestruction_W),
       ),
     );
   }
@@ -110,7 +116,7 @@ export function reportCsvLines(r: ReportData): string[] {
 
   out.push(line('Drift notices (opened in the month, or not closed)'));
   out.push(
-    line('unit', 'direction', 'status', 'onset (site time)', 'signal (site time)', 'steady hours onset to signal [h]', 'extra destruction [kW]', 'shift U (k=2) [kW]', 'exceeds measurement uncertainty', `extra cost per day [${cur}]`),
+    line('unit', 'direction', 'status', `onset (${tz})`, `signal (${tz})`, 'steady hours onset to signal [h]', `extra destruction [${P}]`, `shift U (k=2) [${P}]`, 'exceeds measurement uncertainty', `extra cost per day [${cur}]`),
   );
   if (!r.notices.length) out.push(line('none'));
   for (const n of r.notices) {
@@ -123,8 +129,8 @@ export function reportCsvLines(r: ReportData): string[] {
         at(n.onsetMs),
         at(n.signalMs),
         n.hours,
-        fixed(n.extra_W / 1000, 1),
-        fixed(n.shiftU_W === null ? null : n.shiftU_W / 1000, 1),
+        p.powerAtU(n.extra_W, n.shiftU_W),
+        p.powerOnlyU(n.shiftU_W),
         n.exceedsUncertainty === null ? 'unknown' : n.exceedsUncertainty ? 'yes' : 'no',
         fixed(n.extraCost_per_day, 2),
       ),

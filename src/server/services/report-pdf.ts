@@ -11,7 +11,9 @@ import { join } from 'node:path';
 import PDFDocument from 'pdfkit';
 import type { ReportData } from './report';
 import { PALETTE } from '~/lib/palette';
-import { fixed, fixedU, kW, mwhDecimals, pct } from './report-format';
+import { mwhDecimals, reportNumbers } from './report-format';
+import { writerOf } from '~/lib/units/writer';
+import { siteStampWithZone } from '~/lib/site-time';
 import { labelOf } from '~/lib/words';
 import { siteStamp } from '~/lib/site-time';
 
@@ -169,12 +171,15 @@ export function reportPdf(r: ReportData): PDFKit.PDFDocument {
   const w = new Writer(r);
   const { doc } = w;
   const cur = r.site.currency;
+  const tz = r.site.timeZone;
+  // Numbers in the site's display units, grouped and with the decimal marker of its locale.
+  const { fixed, fixedU, pct, power, powerU, powerUnit: P } = reportNumbers(writerOf(r.display));
 
   // Title block.
   w.font('regular', 8, C.faint).text('LOSSLINE · MONTHLY SITE REPORT', MARGIN, MARGIN + 4, { characterSpacing: 0.6 });
   w.font('bold', 20).text(r.site.name, MARGIN, doc.y + 2, { width: w.width });
   w.font('regular', 12, C.soft).text(`${r.period.label}  ·  ${r.period.hours} hours  ·  time zone ${r.site.timeZone}`, { width: w.width });
-  w.font('regular', 8, C.faint).text(`Generated ${r.generated} (site time). Period ${r.period.from} to ${r.period.to} (UTC, end exclusive).`, { width: w.width });
+  w.font('regular', 8, C.faint).text(`Generated ${r.generated} (${tz}). Period ${siteStampWithZone(r.period.fromMs, tz)} to ${siteStampWithZone(r.period.toMs, tz)} (end exclusive).`, { width: w.width });
   doc.moveDown(0.5);
   w.para(r.uncertaintyNote, 7.8, C.faint);
 
@@ -195,7 +200,7 @@ export function reportPdf(r: ReportData): PDFKit.PDFDocument {
   const dDec = mwhDecimals(Math.max(0, ...rows.map((x) => x.destruction_MWh), t.destruction_MWh));
   w.heading(
     'Loss ledger',
-    `Units ranked by the cost of their exergy destruction over steady hours. Share of the site's ${r.ledger.shareBasis}. Site total ${fixed(t.destruction_MWh, dDec)} MWh ± ${fixed(t.destruction_U_MWh, dDec)} MWh destroyed${t.cost !== null ? `, costing ${cur} ${fixed(t.cost, 0, true)} ± ${fixed(t.cost_U, 0, true)}` : ''}.`,
+    `Units ranked by the cost of their exergy destruction over steady hours. Share of the site's ${r.ledger.shareBasis}. Site total ${fixedU(t.destruction_MWh, t.destruction_U_MWh, dDec).replace(' ± ', ' MWh ± ')} MWh destroyed${t.cost !== null ? `, costing ${cur} ${fixedU(t.cost, t.cost_U, 0)}` : ''}.`,
   );
   if (!rows.length) w.para('The site has no units.');
   else
@@ -218,14 +223,14 @@ export function reportPdf(r: ReportData): PDFKit.PDFDocument {
         x.name,
         x.kindLabel,
         fixedU(x.destruction_MWh, x.destruction_U_MWh, dDec),
-        x.cost === null ? 'no price' : fixedU(x.cost, x.cost_U, 0, true),
+        x.cost === null ? 'no price' : fixedU(x.cost, x.cost_U, 0),
         fixed(x.share === null ? null : x.share * 100, 1),
         x.efficiencyMean === null ? '—' : fixedU(x.efficiencyMean * 100, x.efficiencyMean_U === null ? null : x.efficiencyMean_U * 100, 1),
         ...STATES.map((s) => String(x.hours[s])),
       ]),
       {
         bar: { col: 5, values: rows.map((x) => x.share) },
-        total: ['', 'Site total', '', fixedU(t.destruction_MWh, t.destruction_U_MWh, dDec), t.cost === null ? '' : fixedU(t.cost, t.cost_U, 0, true), '100.0', '', ...STATES.map((s) => String(t.hours[s]))],
+        total: ['', 'Site total', '', fixedU(t.destruction_MWh, t.destruction_U_MWh, dDec), t.cost === null ? '' : fixedU(t.cost, t.cost_U, 0), fixed(100, 1), '', ...STATES.map((s) => String(t.hours[s]))],
       },
     );
 
@@ -274,8 +279,8 @@ export function reportPdf(r: ReportData): PDFKit.PDFDocument {
       { head: 'Measured efficiency [%]', width: 66, align: 'right' },
       { head: 'Expected efficiency [%]', width: 52, align: 'right' },
       { head: 'Difference [pp]', width: 44, align: 'right' },
-      { head: 'Measured destruction [kW]', width: 52.28, align: 'right' },
-      { head: 'Expected destruction [kW]', width: 45, align: 'right' },
+      { head: `Measured destruction [${P}]`, width: 52.28, align: 'right' },
+      { head: `Expected destruction [${P}]`, width: 45, align: 'right' },
     ],
     r.efficiency.map((e) => [
       e.name,
@@ -284,8 +289,8 @@ export function reportPdf(r: ReportData): PDFKit.PDFDocument {
       e.measuredEfficiency === null ? '—' : fixedU(e.measuredEfficiency * 100, e.measuredEfficiency_U === null || e.measuredEfficiency_U === undefined ? null : e.measuredEfficiency_U * 100, 1),
       e.expectedEfficiency === null ? '—' : pct(e.expectedEfficiency),
       e.measuredEfficiency !== null && e.expectedEfficiency !== null ? fixed((e.measuredEfficiency - e.expectedEfficiency) * 100, 1) : '—',
-      e.measuredDestruction_W === null ? '—' : fixedU(e.measuredDestruction_W / 1000, e.measuredDestruction_U_W === null || e.measuredDestruction_U_W === undefined ? null : e.measuredDestruction_U_W / 1000, 0, true),
-      e.expectedDestruction_W === null ? '—' : kW(e.expectedDestruction_W),
+      e.measuredDestruction_W === null ? '—' : powerU(e.measuredDestruction_W, e.measuredDestruction_U_W),
+      e.expectedDestruction_W === null ? '—' : power(e.expectedDestruction_W),
     ]),
   );
 
@@ -299,9 +304,9 @@ export function reportPdf(r: ReportData): PDFKit.PDFDocument {
         { head: 'Unit', width: 92 },
         { head: 'Shift', width: 82 },
         { head: 'Status', width: 58 },
-        { head: 'Onset (site time)', width: 68 },
-        { head: 'Signal (site time)', width: 68 },
-        { head: 'Extra destruction [kW]', width: 72.28, align: 'right' },
+        { head: `Onset (${tz})`, width: 68 },
+        { head: `Signal (${tz})`, width: 68 },
+        { head: `Extra destruction [${P}]`, width: 72.28, align: 'right' },
         { head: `Extra cost [${cur}/day]`, width: 75, align: 'right' },
       ],
       r.notices.map((n) => [
@@ -310,8 +315,8 @@ export function reportPdf(r: ReportData): PDFKit.PDFDocument {
         NOTICE_STATUS_WORDS[n.status as NoticeStatus]?.label ?? 'other',
         at(n.onsetMs),
         at(n.signalMs),
-        fixedU(n.extra_W / 1000, n.shiftU_W === null ? null : n.shiftU_W / 1000, Math.abs(n.extra_W) < 10_000 ? 1 : 0, true) + (n.exceedsUncertainty === false ? ' (within uncertainty)' : ''),
-        fixed(n.extraCost_per_day, 0, true),
+        powerU(n.extra_W, n.shiftU_W) + (n.exceedsUncertainty === false ? ' (within uncertainty)' : ''),
+        fixed(n.extraCost_per_day, 0),
       ]),
     );
   }

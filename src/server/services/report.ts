@@ -10,13 +10,15 @@ import { SAFETY_CAUTION } from '~/lib/caution';
 import type { HourState, StateCounts } from '~/lib/hour-states';
 import { siteStamp } from '~/lib/site-time';
 import { kindLabel, ledgerFrom, type LedgerAnswer } from '~/lib/views/ledger';
-import { monthPeriod, type Period } from '~/lib/views/period';
+import { defaultPeriod, monthPeriod, resolvePeriod, type Period, type PeriodChoice } from '~/lib/views/period';
+import type { SiteDisplayUnits } from '~/lib/units/writer';
 import { meanOf } from '~/lib/views/trend';
 import { plantUnits, sites, unitHours } from '../db/schema';
 import { AppError } from '../errors';
 import { isId } from '../access';
 import { expectedBand, siteNotices, type NoticeMark } from './views-insight';
-import { unitSums } from './views';
+import { dataSpan, unitSums } from './views';
+import { displaysOf } from './notice-display';
 
 /** How the report's uncertainties are to be read. */
 export const REPORT_UNCERTAINTY_NOTE =
@@ -45,6 +47,8 @@ export interface EfficiencyVsBaseline {
 
 export interface ReportData {
   site: { id: string; name: string; timeZone: string; currency: string };
+  /** The site's display units: the report writes power in them (the API keeps SI). */
+  display: SiteDisplayUnits;
   month: string;
   period: Period;
   generated: string;
@@ -131,6 +135,7 @@ export async function reportData(siteId: string, month: string, nowMs = Date.now
 
   return {
     site: { id: site.id, name: site.name, timeZone: site.timeZone, currency: site.currency },
+    display: (await displaysOf([site.id])).get(site.id)!,
     month,
     period,
     generated: siteStamp(nowMs, site.timeZone),
@@ -149,8 +154,29 @@ export async function reportData(siteId: string, month: string, nowMs = Date.now
   };
 }
 
-/** Months (yyyy-MM, the site's calendar) with unit hours at a site, newest first, with hours by state. */
-export async function reportMonths(siteId: string): Promise<{ site: { id: string; name: string; timeZone: string }; months: { month: string; label: string; hours: Record<HourState, number> }[] }> {
+/**
+ * The month a site's reports open on: the latest FULL month with data (the rule of
+ * src/lib/views/period.ts defaultPeriod: the month holding the latest computed hour when that hour
+ * closes it), else the newest earlier month that has unit hours, else the partial month; null
+ * without data. @param monthsWithData 'yyyy-MM' months that have unit hours, newest first
+ */
+export async function reportDefaultMonth(siteId: string, timeZone: string, monthsWithData: string[], nowMs = Date.now()): Promise<{ month: string; label: string; choice: PeriodChoice } | null> {
+  const span = await dataSpan(siteId, undefined, nowMs);
+  if (!span || !monthsWithData.length) return null;
+  const { period, choice } = defaultPeriod('month', timeZone, span, nowMs);
+  const holding = resolvePeriod({ range: 'month' }, timeZone, span.lastMs);
+  const pick = (month: string, c: PeriodChoice) => ({ month, label: monthPeriod(month, timeZone).label, choice: c });
+  if (period.fromMs === holding.fromMs) return pick(period.firstDay.slice(0, 7), choice);
+  const earlier = monthsWithData.find((m) => m < holding.firstDay.slice(0, 7));
+  return earlier ? pick(earlier, 'latest-full') : pick(holding.firstDay.slice(0, 7), 'latest-partial');
+}
+
+/** Months (yyyy-MM, the site's calendar) with unit hours at a site, newest first, with hours by state and the month reports open on. */
+export async function reportMonths(siteId: string): Promise<{
+  site: { id: string; name: string; timeZone: string };
+  months: { month: string; label: string; hours: Record<HourState, number> }[];
+  latest: { month: string; label: string; choice: PeriodChoice } | null;
+}> {
   const site = await siteRow(siteId);
   const res = await db().execute<{ month: string; state: HourState; n: number }>(sql`
     select to_char(h.hour_start at time zone ${site.timeZone}, 'YYYY-MM') as month, h.state, count(*)::int as n
@@ -166,7 +192,7 @@ export async function reportMonths(siteId: string): Promise<{ site: { id: string
   const months = [...byMonth.entries()]
     .sort((a, b) => b[0].localeCompare(a[0]))
     .map(([month, hours]) => ({ month, label: monthPeriod(month, site.timeZone).label, hours }));
-  return { site: { id: site.id, name: site.name, timeZone: site.timeZone }, months };
+  return { site: { id: site.id, name: site.name, timeZone: site.timeZone }, months, latest: await reportDefaultMonth(site.id, site.timeZone, months.map((m) => m.month)) };
 }
 
 /** A file name for the report: letters, digits and dashes only. */

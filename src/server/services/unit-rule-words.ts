@@ -2,7 +2,7 @@
  * The words of idle and limit notices (src/server/services/unit-rules.ts) in the notice view, the
  * opening mail and the digest. Kept apart from notices.ts, which calls into it for these kinds.
  */
-import { fixed } from '~/lib/format';
+import { writerOf } from '~/lib/units/writer';
 import { PALETTE } from '~/lib/palette';
 import { siteStampWithZone } from '~/lib/site-time';
 import type { NoticeKind, NoticeView } from '~/lib/notice-view';
@@ -29,8 +29,11 @@ export function ruleViewFields(n: {
   };
 }
 
-const kW = (W: number) => `${fixed(W / 1000, 1, { group: ' ' })} kW`;
-const money = (v: number, currency: string) => `${currency} ${fixed(v, 0, { group: ' ' })}`;
+/** Power [W] and money in the site's display units and number style (src/lib/units/writer.ts). */
+function writers(n: NoticeView) {
+  const w = writerOf(n.display);
+  return { kW: (W: number) => `${w.value(W, 'power')} ${w.unit('power')}`, money: (v: number, currency: string) => `${currency} ${w.number(v, 0)}`, w };
+}
 const when = siteStampWithZone;
 
 /** One line saying why the notice opened. */
@@ -43,12 +46,13 @@ export function ruleReason(n: NoticeView): string {
 
 /** The lines of figures an idle or limit notice states, in its mail, digest entry and page. */
 export function ruleFigureLines(n: NoticeView): string[] {
+  const { kW, money, w } = writers(n);
   const lines = [
     ruleReason(n),
     `Exergy destruction: ${kW(n.extra_W)} (mean of the latest ${n.hours} hours of the rule broken)`,
     n.extraCost_per_day === null ? 'Cost of destruction per day: not known (the hours carry no cost)' : `Cost of destruction per day: ${money(n.extraCost_per_day, n.currency)}`,
   ];
-  if (n.kind === 'limit' && n.meanEfficiency !== null) lines.push(`Exergy efficiency: ${(n.meanEfficiency * 100).toFixed(1)} % (mean of the same hours)`);
+  if (n.kind === 'limit' && n.meanEfficiency !== null) lines.push(`Exergy efficiency: ${w.value(n.meanEfficiency, 'ratio', 1)} % (mean of the same hours)`);
   lines.push(`Since: ${when(n.onsetHour, n.timeZone)}; more than ${n.ruleHours ?? 3} hours by ${when(n.signalHour, n.timeZone)}; latest hour ${when(n.lastSignalHour, n.timeZone)}`);
   lines.push('This notice stays open until a person closes it.');
   return lines;
@@ -56,6 +60,7 @@ export function ruleFigureLines(n: NoticeView): string[] {
 
 /** The opening mail of an idle or limit notice; `caution` is the product's caution (docs/domain.md section 8). */
 export function ruleNoticeMail(n: NoticeView, to: string, caution: string) {
+  const { kW, money } = writers(n);
   const cost = n.extraCost_per_day === null ? '' : `, ${money(n.extraCost_per_day, n.currency)} a day`;
   const subject =
     n.kind === 'idle'

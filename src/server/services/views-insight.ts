@@ -20,6 +20,7 @@ export function baselineInfo(b: BaselineSummary): BaselineInfo {
     meetsGuideline14: b.meetsGuideline14,
     efficiencyCvRmse: b.efficiency?.stats.cvRmse ?? null,
     destructionCvRmse: b.destruction.stats.cvRmse,
+    trustWarnings: b.trust.trusted ? [] : b.trust.warnings,
   };
 }
 

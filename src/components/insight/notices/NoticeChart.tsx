@@ -1,8 +1,10 @@
 import { Bar, CartesianGrid, ComposedChart, Line, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
-import { at, sig } from '../baselines/looks';
+import { at } from '../baselines/looks';
+import { significant } from '~/lib/format';
 import type { Notice, NoticeChartEvent } from './looks';
 import { drawnPoints, type ChartColumns } from '~/lib/analytics/chart-thin';
 import { PALETTE } from '~/lib/palette';
+import { writerOf } from '~/lib/units/writer';
 
 const INK = PALETTE.ink.DEFAULT;
 const COPPER = PALETTE.copper.DEFAULT;
@@ -27,6 +29,7 @@ function EventLabel({ viewBox, n, row }: { viewBox?: { x: number; y: number }; n
 
 /** The key under the chart: a sample of each series' pattern beside its words. */
 function Key({ notice, span, per }: { notice: Notice; span: 'hour' | 'day'; per: string }) {
+  const unit = writerOf(notice.display).unit('power');
   const dir = notice.direction === 'up' ? 'more' : 'less';
   return (
     <ul className="mt-2 flex flex-wrap gap-x-6 gap-y-1 text-xs text-ink-soft" data-testid="chart-key">
@@ -34,7 +37,7 @@ function Key({ notice, span, per }: { notice: Notice; span: 'hour' | 'day'; per:
         <svg width="22" height="12" aria-hidden="true">
           <rect x="6" y="1" width="10" height="10" fill={COPPER} />
         </svg>
-        bars: measured − expected destruction [kW]{span === 'day' ? `, mean of the ${per}’s steady hours` : ', per steady hour'}
+        bars: measured − expected destruction [{unit}]{span === 'day' ? `, mean of the ${per}’s steady hours` : ', per steady hour'}
       </li>
       <li className="flex items-center gap-2">
         <svg width="30" height="12" aria-hidden="true">
@@ -63,7 +66,9 @@ export function NoticeChart({ notice, chart, events }: { notice: Notice; chart: 
   const days = Math.round(chart.perHours / 24);
   const per = days > 1 ? `${days} days` : 'day';
   if (!chart.at_min.length) return <p className="text-sm text-ink-faint">The hours behind this notice are no longer in the drift check (the baseline or settings changed).</p>;
-  const data = drawnPoints(chart).map((p) => ({ t: p.t_ms, residual: p.residual_kW, cusum: p.cusum }));
+  const w = writerOf(notice.display);
+  const unit = w.unit('power');
+  const data = drawnPoints(chart).map((p) => ({ t: p.t_ms, residual: w.shown(p.residual_kW * 1000, 'power') ?? 0, cusum: p.cusum }));
   const tick = (t: number) => (span === 'day' ? at(new Date(t).toISOString(), notice.timeZone).slice(0, 10) : at(new Date(t).toISOString(), notice.timeZone).slice(5));
   const t0 = data[0]!.t;
   const t1 = data[data.length - 1]!.t;
@@ -86,12 +91,12 @@ export function NoticeChart({ notice, chart, events }: { notice: Notice; chart: 
           <ComposedChart data={data} margin={{ top, right: 8, bottom: 8, left: 8 }}>
             <CartesianGrid stroke={PALETTE.paper.edge} strokeDasharray="3 3" />
             <XAxis dataKey="t" type="number" scale="time" domain={['dataMin', 'dataMax']} tickFormatter={tick} stroke={PALETTE.ink.soft} fontSize={11} minTickGap={40} />
-            <YAxis yAxisId="kW" tickFormatter={(v: number) => sig(v, 3)} stroke={PALETTE.copper.deep} fontSize={11} width={56} label={{ value: 'residual [kW]', angle: -90, position: 'insideLeft', fill: PALETTE.copper.deep, fontSize: 11 }} />
+            <YAxis yAxisId="kW" tickFormatter={(v: number) => significant(v, 3, w.style)} stroke={PALETTE.copper.deep} fontSize={11} width={56} label={{ value: `residual [${unit}]`, angle: -90, position: 'insideLeft', fill: PALETTE.copper.deep, fontSize: 11 }} />
             <YAxis
               yAxisId="sigma"
               orientation="right"
               domain={[0, (max: number) => Math.max(max, notice.h * 1.25)]}
-              tickFormatter={(v: number) => sig(v, 3)}
+              tickFormatter={(v: number) => significant(v, 3, w.style)}
               stroke={INK}
               fontSize={11}
               width={48}
@@ -99,7 +104,7 @@ export function NoticeChart({ notice, chart, events }: { notice: Notice; chart: 
             />
             <Tooltip
               labelFormatter={(t) => `${span === 'day' ? `${per} from ` : ''}${at(new Date(Number(t)).toISOString(), notice.timeZone)} (${notice.timeZone})`}
-              formatter={(v, name) => [Number(v).toFixed(2), name === 'residual' ? 'residual [kW]' : 'cumulative sum [σ]']}
+              formatter={(v, name) => [w.number(Number(v), 2), name === 'residual' ? `residual [${unit}]` : 'cumulative sum [σ]']}
             />
             <Bar yAxisId="kW" dataKey="residual" name="residual" fill={COPPER} isAnimationActive={false} />
             <Line

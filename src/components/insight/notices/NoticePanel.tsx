@@ -12,9 +12,7 @@ import {
   OUTCOME_WORDS,
   PRIOR_WORDS,
   TREND_LOOK,
-  money,
-  plusMinusKW,
-  signedKW,
+  noticeFigures,
   type Notice,
   type NoticeChartEvent,
 } from './looks';
@@ -45,6 +43,7 @@ const yesNo = (v: boolean | null) => (v === null ? 'not known' : v ? 'yes' : 'no
 function Verdict({ n }: { n: Notice }) {
   if (n.closeOutcome !== 'repaired' || !n.repairedAt) return null;
   const v = n.verdict;
+  const f = noticeFigures(n);
   return (
     <section className="card space-y-2" aria-label="Repair verdict" data-testid="notice-verdict">
       <h2>After the repair</h2>
@@ -65,28 +64,24 @@ function Verdict({ n }: { n: Notice }) {
             <tbody>
               <tr>
                 <td>Shift before the repair (last {v.beforeHours} steady hours)</td>
-                <td className="num">
-                  {signedKW(v.before_W)} {plusMinusKW(v.beforeU_W)} kW
-                </td>
+                <td className="num">{f.signed(v.before_W, v.beforeU_W)}</td>
               </tr>
               <tr>
                 <td>Residual after the repair (first {v.afterHours} steady hours, to {at(v.hour, n.timeZone)})</td>
                 <td className="num" data-testid="verdict-after">
-                  {signedKW(v.after_W)} {plusMinusKW(v.afterU_W)} kW
+                  {f.signed(v.after_W, v.afterU_W)}
                 </td>
               </tr>
               <tr>
                 <td>Avoided extra destruction</td>
-                <td className="num">
-                  {signedKW(v.avoided_W)} {plusMinusKW(v.avoidedU_W)} kW
-                </td>
+                <td className="num">{f.signed(v.avoided_W, v.avoidedU_W)}</td>
               </tr>
               <tr>
                 <td>Avoided cost per month (30.44 days)</td>
                 <td className="num" data-testid="verdict-avoided">
                   {v.avoidedCost_per_month === null
                     ? 'not known (no cost rate)'
-                    : `${n.currency} ${money(v.avoidedCost_per_month)} ± ${money(v.avoidedCostU_per_month)}`}
+                    : f.moneyU(v.avoidedCost_per_month, v.avoidedCostU_per_month)}
                 </td>
               </tr>
             </tbody>
@@ -199,6 +194,9 @@ export default function NoticePanel({
   const life = LIFE_LOOK[n.life];
   const more = n.direction === 'up';
   const hoursNow = n.currentHours ?? n.hours;
+  const f = noticeFigures(n);
+  const [headV, headU] = f.parts(n.headline_W, n.headlineU_W);
+  const [costV, costU] = f.moneyParts(n.headlineCost_per_day, n.headlineCostU_per_day);
 
   async function act(what: 'acknowledge' | 'close', body: Record<string, string>) {
     if (what === 'close' && !(await ask(closeQuestion(n)))) return;
@@ -206,7 +204,7 @@ export default function NoticePanel({
     setBusy(true);
     try {
       const out = await call<{ notice: Notice }>(`/api/notices/${n.id}/${what}`, 'POST', body);
-      setN(out.notice);
+      setN({ ...out.notice, display: out.notice.display ?? n.display });
       setMessage({ ok: true, text: what === 'close' ? 'The notice is closed.' : 'Marked as seen.' });
     } catch (e) {
       setMessage(messageOf(e));
@@ -259,12 +257,12 @@ export default function NoticePanel({
           </p>
         )}
         <dl className="grid gap-3 sm:grid-cols-2 lg:grid-cols-5">
-          <Figure label={`Extra destruction now (last ${hoursNow} steady hours)`} value={signedKW(n.headline_W)} unit="kW" sub={plusMinusKW(n.headlineU_W)} testId="fig-extra" />
+          <Figure label={`Extra destruction now (last ${hoursNow} steady hours)`} value={headV} unit={f.unit} sub={headU} testId="fig-extra" />
           <Figure
             label="Cost per day now"
-            value={n.headlineCost_per_day === null ? 'not known' : money(n.headlineCost_per_day)}
+            value={n.headlineCost_per_day === null ? 'not known' : costV}
             unit={n.headlineCost_per_day === null ? undefined : `${n.currency}/day`}
-            sub={n.headlineCostU_per_day === null ? undefined : `± ${money(n.headlineCostU_per_day)}`}
+            sub={costU || undefined}
             testId="fig-cost"
           />
           <div className="rounded border border-paper-edge bg-white/70 px-3 py-2">
@@ -280,31 +278,30 @@ export default function NoticePanel({
           <tbody>
             <tr>
               <td>Now: mean of the last {hoursNow} steady hours{n.figuresHour ? ` (to ${at(n.figuresHour, n.timeZone)})` : ''}</td>
-              <td className="num">
-                {signedKW(n.headline_W)} {plusMinusKW(n.headlineU_W)} kW
-              </td>
+              <td className="num">{f.signed(n.headline_W, n.headlineU_W)}</td>
             </tr>
             {n.sinceOnset_W !== null && (
               <tr>
                 <td>Since onset: mean of {n.sinceOnsetHours} steady hours</td>
                 <td className="num" data-testid="fig-since-onset">
-                  {signedKW(n.sinceOnset_W)} {plusMinusKW(n.sinceOnsetU_W)} kW
+                  {f.signed(n.sinceOnset_W, n.sinceOnsetU_W)}
                 </td>
               </tr>
             )}
             <tr>
               <td>At signal: mean of the {n.hours} steady hours from onset to signal (the first figure)</td>
               <td className="num" data-testid="fig-first">
-                {signedKW(n.extra_W)} kW{n.extraCost_per_day !== null ? `, ${n.currency} ${money(n.extraCost_per_day)}/day` : ''}
+                {f.signed(n.extra_W)}
+                {n.extraCost_per_day !== null ? `, ${n.currency} ${f.money(n.extraCost_per_day)}/day` : ''}
               </td>
             </tr>
             <tr>
               <td>Expected destruction over the first hours</td>
-              <td className="num">{(n.expected_W / 1000).toFixed(1)} kW</td>
+              <td className="num">{f.power(n.expected_W)}</td>
             </tr>
             <tr>
               <td>Shift at signal in units of σ, the spread of the residuals of the baseline’s fit</td>
-              <td className="num">{n.shift_sigma.toFixed(2)} σ</td>
+              <td className="num">{f.w.number(n.shift_sigma, 2)} σ</td>
             </tr>
             <tr>
               <td>Sustained shift confirmed</td>
@@ -316,8 +313,8 @@ export default function NoticePanel({
             <tr>
               <td>Measurement uncertainty of the current figure, U(one hour)/√n (k = 2)</td>
               <td className="num">
-                {n.currentMeasU_W !== null ? `± ${(n.currentMeasU_W / 1000).toFixed(1)} kW` : n.shiftU_W !== null && n.current_W === null ? `± ${(n.shiftU_W / 1000).toFixed(1)} kW` : 'not known'}
-                {n.hourU_W !== null && <span className="text-ink-faint"> (one hour ± {(n.hourU_W / 1000).toFixed(1)} kW)</span>}
+                {n.currentMeasU_W !== null ? f.plusMinus(n.currentMeasU_W) : n.shiftU_W !== null && n.current_W === null ? f.plusMinus(n.shiftU_W) : 'not known'}
+                {n.hourU_W !== null && <span className="text-ink-faint"> (one hour {f.plusMinus(n.hourU_W)})</span>}
               </td>
             </tr>
             <tr>

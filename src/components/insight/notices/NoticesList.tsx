@@ -3,7 +3,7 @@ import { StateMark } from '~/components/StateMark';
 import { Notice as Message } from '~/components/plant/common';
 import { call, messageOf, type Message as Msg } from '~/components/api';
 import { at } from '../baselines/looks';
-import { LIFE_LOOK, NOTICE_LOOK, TREND_LOOK, money, plusMinusKW, signedKW, type Notice } from './looks';
+import { LIFE_LOOK, NOTICE_LOOK, TREND_LOOK, noticeFigures, type Notice } from './looks';
 
 type StatusFilter = 'not-closed' | 'open' | 'acknowledged' | 'closed' | 'all';
 type Sort = 'cost' | 'newest';
@@ -112,7 +112,7 @@ export default function NoticesList({ initial }: { initial?: Partial<ListFilter>
                 <th>Unit</th>
                 <th>Site</th>
                 <th>Since</th>
-                <th className="num">Extra destruction now (drift) or destruction [kW]</th>
+                <th className="num">Extra destruction now (drift) or destruction</th>
                 <th className="num">Cost per day now</th>
                 <th>Shift</th>
                 <th>Beyond uncertainty</th>
@@ -121,6 +121,7 @@ export default function NoticesList({ initial }: { initial?: Partial<ListFilter>
             <tbody>
               {notices.map((n) => {
                 const look = NOTICE_LOOK[n.status]!;
+                const fig = noticeFigures(n);
                 const life = n.life === 'live' && n.trend ? TREND_LOOK[n.trend] : LIFE_LOOK[n.life];
                 return (
                   <tr key={n.id} data-testid={`notice-${n.unitName}`}>
@@ -136,9 +137,10 @@ export default function NoticesList({ initial }: { initial?: Partial<ListFilter>
                       {at(n.onsetHour, n.timeZone)} <span className="text-xs text-ink-faint">{n.timeZone}</span>
                     </td>
                     <td className="num text-copper-deep">
-                      {n.kind === 'drift' ? signedKW(n.headline_W) : (n.headline_W / 1000).toFixed(1)} <span className="text-xs text-ink-faint">{plusMinusKW(n.headlineU_W)}</span>
+                      {n.kind === 'drift' ? `${fig.parts(n.headline_W, n.headlineU_W)[0]} ${fig.unit}` : fig.power(n.headline_W)}{' '}
+                      <span className="text-xs text-ink-faint">{n.kind === 'drift' && n.headlineU_W !== null ? `${fig.parts(n.headline_W, n.headlineU_W)[1]} ${fig.unit}` : ''}</span>
                     </td>
-                    <td className="num">{n.headlineCost_per_day === null ? '–' : `${n.currency} ${money(n.headlineCost_per_day)}`}</td>
+                    <td className="num">{n.headlineCost_per_day === null ? '–' : `${n.currency} ${fig.money(n.headlineCost_per_day)}`}</td>
                     <td>
                       <StateMark shape={life.shape} className={life.className} label={n.life === 'faded' && n.fadedSince ? `faded since ${at(n.fadedSince, n.timeZone)}` : life.label} />
                     </td>

@@ -1,12 +1,13 @@
 import { StateMark } from '~/components/StateMark';
 import { at } from '../baselines/looks';
-import { NOTICE_LOOK, money, type Notice } from './looks';
+import { NOTICE_LOOK, noticeFigures, type Notice } from './looks';
 
 /**
  * The figures of an idle or limit notice (a unit declared normally idle ran; a unit crossed a limit
  * set for it): what rule, the destruction and its cost per day over the latest run, and when.
  */
 export default function RuleNoticeSummary({ notice: n }: { notice: Notice }) {
+  const f = noticeFigures(n);
   const rows: [string, string][] = [
     ['Rule', n.kind === 'idle' ? (n.ruleText ?? 'normally idle') : (n.ruleText ?? 'a limit set for the unit')],
     ['Hours in a row before a notice', `more than ${n.ruleHours ?? 3}`],
@@ -16,7 +17,7 @@ export default function RuleNoticeSummary({ notice: n }: { notice: Notice }) {
     ['Hours of the latest run', String(n.hours)],
     ['Cost basis', n.costBasis ?? 'none: the hours carry no cost'],
   ];
-  if (n.meanEfficiency !== null && n.kind === 'limit') rows.splice(6, 0, ['Exergy efficiency (mean of the latest run)', `${(n.meanEfficiency * 100).toFixed(1)} %`]);
+  if (n.meanEfficiency !== null && n.kind === 'limit') rows.splice(6, 0, ['Exergy efficiency (mean of the latest run)', `${f.w.value(n.meanEfficiency, 'ratio', 1)} %`]);
   const look = NOTICE_LOOK[n.status]!;
   return (
     <section className="card space-y-4" data-testid="rule-notice">
@@ -35,13 +36,13 @@ export default function RuleNoticeSummary({ notice: n }: { notice: Notice }) {
         <div className="rounded border border-paper-edge bg-white/70 px-3 py-2">
           <dt className="text-xs text-ink-soft">Exergy destruction (mean of the latest run)</dt>
           <dd className="text-lg font-semibold tabular-nums" data-testid="fig-destruction">
-            {(n.extra_W / 1000).toFixed(1)} <span className="text-sm font-normal text-ink-soft">kW</span>
+            {f.w.value(n.extra_W, 'power')} <span className="text-sm font-normal text-ink-soft">{f.unit}</span>
           </dd>
         </div>
         <div className="rounded border border-paper-edge bg-white/70 px-3 py-2">
           <dt className="text-xs text-ink-soft">Cost of destruction per day</dt>
           <dd className="text-lg font-semibold tabular-nums" data-testid="fig-cost">
-            {n.extraCost_per_day === null ? 'not known' : money(n.extraCost_per_day)}{' '}
+            {n.extraCost_per_day === null ? 'not known' : f.money(n.extraCost_per_day)}{' '}
             {n.extraCost_per_day !== null && <span className="text-sm font-normal text-ink-soft">{n.currency}/day</span>}
           </dd>
         </div>

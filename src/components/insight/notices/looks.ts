@@ -1,6 +1,7 @@
-import { fixed } from '~/lib/format';
+import { pairU, sizeDecimals } from '~/lib/format';
+import { signedWithU, writerOf } from '~/lib/units/writer';
 import type { MarkShape } from '~/components/StateMark';
-import type { CloseOutcome, NoticeLife, NoticeTrend, PriorReason } from '~/lib/notice-view';
+import type { CloseOutcome, NoticeLife, NoticeTrend, NoticeView, PriorReason } from '~/lib/notice-view';
 
 /** Notice statuses in Lossline's words and shapes; colour is only a third cue. */
 export const NOTICE_LOOK: Record<string, { label: string; shape: MarkShape; className: string }> = {
@@ -49,6 +50,39 @@ export interface SeriesPoint {
   cMinus: number;
 }
 
-export const signedKW = (W: number) => `${W >= 0 ? '+' : '−'}${fixed(Math.abs(W) / 1000, 1)}`;
-export const plusMinusKW = (U: number | null) => (U === null || !Number.isFinite(U) ? '' : `± ${fixed(U / 1000, 1)}`);
-export const money = (v: number | null) => fixed(v, 0, { none: '–' });
+/**
+ * The figures of a notice in its site's display units and number style (src/lib/units/writer.ts):
+ * power with its unit, a value and its ± at the same decimals, money grouped in the site's locale.
+ */
+export function noticeFigures(n: Pick<NoticeView, 'display' | 'currency'>) {
+  const w = writerOf(n.display);
+  const unit = w.unit('power');
+  return {
+    w,
+    /** The unit power is shown in ('kW', 'MW'). */
+    unit,
+    /** A signed power with its U and unit: "+412 kW ± 18 kW". */
+    signed: (W: number, U: number | null = null) => signedWithU(w, W, U, 'power'),
+    /** A signed power and its "± U" apart, at the decimals U asks for, without the unit. */
+    parts: (W: number, U: number | null): [string, string] => {
+      const v = w.shown(Math.abs(W), 'power') ?? 0;
+      const u = U === null || !Number.isFinite(U) ? null : Math.abs(w.shown(U, 'power') ?? 0);
+      const [a, b] = pairU(v, u, { ...w.style, decimals: sizeDecimals(v) });
+      return [`${/^0([.,]0*)?$/.test(a) ? '' : W >= 0 ? '+' : '−'}${a}`, b ? `± ${b}` : ''];
+    },
+    /** A power without its sign's plus: "412 kW". */
+    power: (W: number) => `${w.value(W, 'power')} ${unit}`,
+    /** An uncertainty of power: "± 18 kW". */
+    plusMinus: (U: number | null) => (U === null || !Number.isFinite(U) ? '' : `± ${w.delta(U, 'power')} ${unit}`),
+    /** Money, whole units grouped in the site's locale ('–' for none). */
+    money: (v: number | null) => (v === null ? '–' : w.number(v, 0)),
+    /** Money and its "± U" apart, at the decimals U asks for (whole units without U), without the currency. */
+    moneyParts: (v: number | null, U: number | null): [string, string] => {
+      if (v === null) return ['', ''];
+      const [a, b] = pairU(v, U, { ...w.style, decimals: 0 });
+      return [a, b ? `± ${b}` : ''];
+    },
+    /** Money and its U at the decimals U asks for, with the currency. */
+    moneyU: (v: number, U: number | null) => `${n.currency} ${w.withU(v, U, 'none', 0)}`,
+  };
+}

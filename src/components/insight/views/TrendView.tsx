@@ -20,6 +20,11 @@ function BaselineName({ b }: { b: TrendAnswer['baseline'] }) {
         <>
           Expected from <span className="font-semibold text-ink">{b.label}</span>
           {!b.meetsGuideline14 && <span className="ml-1 text-amber-deep">(fit outside ASHRAE Guideline 14 hourly limits: read the band with care)</span>}
+          {b.trustWarnings && b.trustWarnings.length > 0 && (
+            <span className="ml-1 text-amber-deep" data-testid="baseline-trust">
+              (a fit to read with care: {b.trustWarnings.join(' ')})
+            </span>
+          )}
         </>
       ) : (
         <>No active baseline for this unit yet: the expected band is not shown.</>

@@ -1,4 +1,5 @@
 import { endpoint } from '~/server/endpoint';
+import { oneWithDisplay } from '~/server/services/notice-display';
 import { CloseInput, closeNotice } from '~/server/services/notices';
 
 /**
@@ -7,5 +8,5 @@ import { CloseInput, closeNotice } from '~/server/services/notices';
  * (with new-normal), as YYYY-MM-DD in the site's time zone or an ISO date and time.
  */
 export const POST = endpoint({ body: CloseInput }, async ({ locals }, { params, body }) =>
-  Response.json({ notice: await closeNotice(params.noticeId!, locals.user!.id, body.comment, { outcome: body.outcome, repairedAt: body.repairedAt, newNormalFrom: body.newNormalFrom }) }),
+  Response.json({ notice: await oneWithDisplay(await closeNotice(params.noticeId!, locals.user!.id, body.comment, { outcome: body.outcome, repairedAt: body.repairedAt, newNormalFrom: body.newNormalFrom })) }),
 );
