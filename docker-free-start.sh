@@ -197,7 +197,7 @@ bench_ingest_mode() {
   trap cleanup EXIT
   local o="${LOSSLINE_PORT_OFFSET:-0}"
   PG_FSYNC=on services "$dir" $((54359 + o)) $((4599 + o)) $((1055 + o)) $((1110 + o))
-  node --import tsx bench/ingest.ts
+  node --import tsx bench/ingest.ts "$@"
 }
 
 # npm run bench:web: the production server on the demo year, loaded by 50 users at once (bench/web.ts).
@@ -229,7 +229,7 @@ case "$MODE" in
   run|"") run_mode ;;
   test) test_mode ;;
   test-services) test_services_mode ;;
-  bench-ingest) bench_ingest_mode ;;
+  bench-ingest) bench_ingest_mode "${@:2}" ;;
   bench-web) bench_web_mode ;;
   *) die "unknown mode '$MODE': use no argument to run Lossline, or 'test' to run every test" ;;
 esac

@@ -7,9 +7,10 @@
  *   4. uploads it through the API path into the object store and times upload -> committed tag hours
  *      with a real worker process, whose peak resident memory is read from /proc.
  * Prints: ingest_values_per_s, vs_pandas (pandas time / ours), end_to_end_s, worker_peak_rss_mb.
+ * `npm run bench:ingest -- --mb 500` runs it on a 500 MB export instead of 70 MB.
  */
 import { spawn, spawnSync } from 'node:child_process';
-import { createReadStream, mkdtempSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { closeSync, createReadStream, mkdtempSync, openSync, readFileSync, readSync, rmSync, statSync, writeSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { eq } from 'drizzle-orm';
@@ -22,23 +23,41 @@ import { bytesPerRow } from './storage';
 import { cpuGroups, cpuSince, cpuSnapshot } from './cpu';
 
 const TAGS = 200;
-/** 30 days: a 70 MB export; BENCH_INGEST_DAYS=215 makes about 500 MB (the worker's memory check). */
-const DAYS = Number(process.env.BENCH_INGEST_DAYS ?? 30);
+/** Bytes of one generated day (1440 rows of 200 values) [MB]. */
+const MB_PER_DAY = 69.8 / 30;
+/**
+ * 30 days: a 70 MB export. `npm run bench:ingest -- --mb 500` (or BENCH_INGEST_MB=500) makes about
+ * 500 MB (215 days, the worker's memory check); BENCH_INGEST_DAYS sets the days directly.
+ */
+function days(): number {
+  const i = process.argv.indexOf('--mb');
+  const mb = Number(i > 0 ? process.argv[i + 1] : (process.env.BENCH_INGEST_MB ?? NaN));
+  if (Number.isFinite(mb) && mb > 0) return Math.max(1, Math.round(mb / MB_PER_DAY));
+  return Number(process.env.BENCH_INGEST_DAYS ?? 30);
+}
+const DAYS = days();
 const ROWS = DAYS * 24 * 60;
 const PYTHON = process.env.LOSSLINE_PYTHON ?? '/usr/bin/python3';
 
+/** Writes the export a day at a time (a 500 MB file is never one string). */
 function generate(path: string) {
   const pad = (n: number) => String(n).padStart(2, '0');
-  const parts: string[] = [];
-  parts.push(['Timestamp', ...Array.from({ length: TAGS }, (_, j) => `NB.AI-${1000 + j}`)].join(',') + '\n');
+  const fd = openSync(path, 'w');
+  writeSync(fd, ['Timestamp', ...Array.from({ length: TAGS }, (_, j) => `NB.AI-${1000 + j}`)].join(',') + '\n');
   const start = Date.UTC(2025, 5, 1);
+  let parts: string[] = [];
   for (let i = 0; i < ROWS; i++) {
     const d = new Date(start + i * 60_000);
     let line = `${d.getUTCFullYear()}-${pad(d.getUTCMonth() + 1)}-${pad(d.getUTCDate())} ${pad(d.getUTCHours())}:${pad(d.getUTCMinutes())}:00`;
     for (let j = 0; j < TAGS; j++) line += ',' + (100 + j + 10 * Math.sin(i / 50 + j)).toFixed(3);
     parts.push(line + '\n');
+    if (parts.length === 1440) {
+      writeSync(fd, parts.join(''));
+      parts = [];
+    }
   }
-  writeFileSync(path, parts.join(''));
+  writeSync(fd, parts.join(''));
+  closeSync(fd);
 }
 
 async function inProcess(path: string) {
@@ -84,7 +103,11 @@ async function endToEnd(path: string) {
   const [site] = await db().insert(sites).values({ name: `Bench site ${Date.now()}`, timeZone: 'UTC' }).returning();
   // The layout a person confirmed for this shape (its numbers all have three decimals, which a
   // machine upload never guesses): saved for the site like the uploads page does.
-  const head = readFileSync(path).subarray(0, 96 * 1024).toString('utf8');
+  const headBytes = Buffer.alloc(96 * 1024);
+  const fd = openSync(path, 'r');
+  const got = readSync(fd, headBytes, 0, headBytes.length, 0);
+  closeSync(fd);
+  const head = headBytes.subarray(0, got).toString('utf8');
   const sniffed = sniffLayout(head, { complete: false });
   await db()
     .insert(layoutProfiles)

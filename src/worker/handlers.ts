@@ -7,14 +7,16 @@ import { partitionUpkeep } from '../server/db/partitions';
 import { sendNoticeDigests } from '../server/services/notices';
 import { ingestUpload } from '../server/services/ingest';
 
+
 /** E-mail addresses in a log line (a file's text quoted in a reason may hold some) become [e-mail]. */
 export function redactForLog(text: string): string {
   return text.replace(/[^\s@<>()[\]"',;:]+@[^\s@<>()[\]"',;:]+\.[^\s@<>()[\]"',;:]+/g, '[e-mail]');
 }
 
 /** Job handlers beyond mail; each capability registers its queue here. */
-export async function registerHandlers(boss: PgBoss): Promise<void> {
-  await boss.work(QUEUES.ingestFile, { pollingIntervalSeconds: 0.5, batchSize: 1 }, async ([job]) => {
+/** Returns the id of the ingest worker (src/worker/ingest-wake.ts wakes it). */
+export async function registerHandlers(boss: PgBoss): Promise<{ ingestWorker: string }> {
+  const ingestWorker = await boss.work(QUEUES.ingestFile, { pollingIntervalSeconds: 0.5, batchSize: 1 }, async ([job]) => {
     const { uploadId } = IngestFilePayload.parse(job!.data);
     console.log(`[worker ${process.pid}] ingest ${uploadId}: picked up`);
     const out = await ingestUpload(uploadId);
@@ -42,6 +44,7 @@ export async function registerHandlers(boss: PgBoss): Promise<void> {
     console.log(`[worker] partition-upkeep: ${out.made} partition(s) made, ${out.deletedTagHours} tag hours and ${out.deletedUnitHours} unit hours past retention removed${out.dropped.length ? `, dropped ${out.dropped.join(', ')}` : ''}`);
   });
   await boss.schedule(QUEUES.partitionUpkeep, '15 1 * * *', {}, { tz: 'UTC' });
+  return { ingestWorker };
 }
 
 async function runUnitRules(data: unknown): Promise<void> {

@@ -9,13 +9,15 @@ import { sendMail } from '../server/mail';
 import { queue, stopQueue } from '../server/queue';
 import { resumeInterruptedUploads, sweepSeconds } from '../server/services/ingest';
 import { registerHandlers } from './handlers';
+import { wakeOnIngestNotify } from './ingest-wake';
 
 const boss = await queue();
 
 await boss.work(QUEUES.sendMail, { pollingIntervalSeconds: 1 }, async ([job]) => {
   await sendMail(SendMailPayload.parse(job!.data));
 });
-await registerHandlers(boss);
+const { ingestWorker } = await registerHandlers(boss);
+const stopWakeUps = wakeOnIngestNotify(boss, ingestWorker);
 const resumed = await resumeInterruptedUploads();
 if (resumed) console.log(`[worker] queued ${resumed} upload(s) again that a stopped worker left half-read`);
 console.log('[worker] ready');
@@ -35,6 +37,7 @@ async function shutdown(signal: string) {
   stopping = true;
   clearInterval(sweep);
   console.log(`[worker] ${signal}: stopping`);
+  await stopWakeUps();
   await stopQueue();
   await closeDb();
   process.exit(0);

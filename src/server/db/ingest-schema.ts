@@ -143,11 +143,14 @@ export function tagHourFlagNames(bits: number): TagHourFlag[] {
 /**
  * The statistics of one tag in one local clock hour (hourStart is the UTC instant it starts).
  *
- * Lean on purpose (docs/scale.md): 56 bytes of data per row, columns ordered so that nothing is
- * padded. Values are float4 (7 significant digits, finer than any plant instrument); the tag by its
- * 4-byte `tags.seq`; covered time in whole seconds; the first and last usable sample as ms after
- * the hour's start; the reader's remarks as bits (TAG_HOUR_FLAGS). Which uploads brought an hour is
- * in tag_hour_uploads (one row per upload and tag). Partitioned by month (migration scale-partitions).
+ * Lean on purpose (docs/scale.md): 48 bytes of data per row, columns ordered so that nothing is
+ * padded (with the 24-byte tuple header a row is 72 bytes, a multiple of the 8-byte alignment).
+ * Values are float4 (7 significant digits, finer than any plant instrument); the tag by its 4-byte
+ * `tags.seq`; covered time in whole seconds; the reader's remarks as bits (TAG_HOUR_FLAGS). The
+ * first and last sample's times are not stored: nothing read them (overlapping files are merged from
+ * the raw files' samples), and the 8 bytes took every row from 80 to 88 bytes on disk (migration
+ * tag-hours-48-bytes). Which uploads brought an hour is in tag_hour_uploads (one row per upload and
+ * tag). Partitioned by month (migration scale-partitions).
  */
 export const tagHours = pgTable(
   'tag_hours',
@@ -165,9 +168,6 @@ export const tagHours = pgTable(
     std: real('std'),
     first: real('first'),
     last: real('last'),
-    /** First and last usable sample of the hour [ms after hourStart] (for combining two files' parts). */
-    spanStartMs: integer('span_start_ms'),
-    spanEndMs: integer('span_end_ms'),
     /** Seconds of the hour on which the signal is defined (covered fraction x 3600), whole seconds. */
     coveredSeconds: smallint('covered_s').notNull().default(0),
     /** Counts, capped at 32767. */

@@ -16,10 +16,10 @@ import { readerFlags } from './ingest-merge';
 
 /** The columns, in the order written. */
 export const TAG_HOUR_COPY_COLUMNS =
-  'hour_start, tag_id, samples, mean, min, max, std, first, last, span_start_ms, span_end_ms, covered_s, non_numeric, out_of_range, flags';
-const FIELDS = 15;
-/** Bytes of one row at most: field count, 15 lengths, 8 + 2 x 4 + 6 x 4 + 2 x 4 + 4 x 2 bytes of data. */
-const ROW_BYTES = 2 + FIELDS * 4 + 8 + 8 + 24 + 8 + 8;
+  'hour_start, tag_id, samples, mean, min, max, std, first, last, covered_s, non_numeric, out_of_range, flags';
+const FIELDS = 13;
+/** Bytes of one row at most: field count, 13 lengths, 8 + 2 x 4 + 6 x 4 + 4 x 2 bytes of data. */
+const ROW_BYTES = 2 + FIELDS * 4 + 8 + 8 + 24 + 8;
 const SIGNATURE = Buffer.from('PGCOPY\n\xff\r\n\0', 'latin1');
 /** PostgreSQL's epoch, 2000-01-01 UTC [ms]. */
 const PG_EPOCH_MS = Date.UTC(2000, 0, 1);
@@ -83,8 +83,6 @@ export function encodeTagHours(rows: TagHour[], tagSeq: (h: TagHour) => number):
     real(h.stdDev);
     real(h.first);
     real(h.last);
-    int4(h.firstMs === null ? null : h.firstMs - h.hourStartMs);
-    int4(h.lastMs === null ? null : h.lastMs - h.hourStartMs);
     int2(Math.round(h.coveredSeconds));
     int2(count16(h.nonNumericCount + h.badQualityCount));
     int2(count16(h.outOfRangeCount));

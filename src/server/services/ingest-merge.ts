@@ -169,11 +169,11 @@ async function writeMerged(client: pg.PoolClient, uploadId: string, hours: TagHo
     [uploadId, ids, starts],
   );
   await client.query(
-    `insert into tag_hours as o (tag_id, hour_start, samples, mean, min, max, std, first, last, span_start_ms, span_end_ms, covered_s, non_numeric, out_of_range, flags)
+    `insert into tag_hours as o (tag_id, hour_start, samples, mean, min, max, std, first, last, covered_s, non_numeric, out_of_range, flags)
      select * from unnest($1::int[], $2::timestamptz[], $3::int[], $4::float4[], $5::float4[], $6::float4[], $7::float4[], $8::float4[], $9::float4[],
-       $10::int[], $11::int[], $12::smallint[], $13::smallint[], $14::smallint[], $15::smallint[])
+       $10::smallint[], $11::smallint[], $12::smallint[], $13::smallint[])
      on conflict (tag_id, hour_start) do update set samples = excluded.samples, mean = excluded.mean, min = excluded.min, max = excluded.max,
-       std = excluded.std, first = excluded.first, last = excluded.last, span_start_ms = excluded.span_start_ms, span_end_ms = excluded.span_end_ms,
+       std = excluded.std, first = excluded.first, last = excluded.last,
        covered_s = excluded.covered_s, non_numeric = excluded.non_numeric, out_of_range = excluded.out_of_range, flags = excluded.flags`,
     [
       ids,
@@ -185,8 +185,6 @@ async function writeMerged(client: pg.PoolClient, uploadId: string, hours: TagHo
       hours.map((h) => finiteOrNull(h.stdDev)),
       hours.map((h) => finiteOrNull(h.first)),
       hours.map((h) => finiteOrNull(h.last)),
-      hours.map((h) => (h.firstMs === null ? null : h.firstMs - h.hourStartMs)),
-      hours.map((h) => (h.lastMs === null ? null : h.lastMs - h.hourStartMs)),
       hours.map((h) => Math.round(h.coveredSeconds)),
       hours.map((h) => Math.min(32767, h.nonNumericCount + h.badQualityCount)),
       hours.map((h) => Math.min(32767, h.outOfRangeCount)),

@@ -86,9 +86,16 @@ export async function findDuplicate(siteId: string, sha256: string, exceptId?: s
   return rows[0] ?? null;
 }
 
+/** NOTIFY channel that wakes the workers' ingest at once (src/worker/ingest-wake.ts). */
+export const INGEST_WAKE_CHANNEL = 'lossline_ingest_queued';
+
 export async function queueIngest(uploadId: string): Promise<void> {
   const boss = await queue();
   await sendJob(boss, QUEUES.ingestFile, { uploadId }, { singletonKey: uploadId, retryLimit: 2, retryDelay: 5, expireInSeconds: 60 * 60 * 2 });
+  // Wakes a listening worker now instead of at its next poll (up to 0.5 s later); polling stays.
+  await db()
+    .execute(sql`select pg_notify(${INGEST_WAKE_CHANNEL}, '')`)
+    .catch(() => undefined);
 }
 
 /** Marks an upload failed for a reason in the file (its code from the catalogue); the raw file stays. */
