@@ -25,30 +25,41 @@ import { plantUnits, sites, unitHours } from '../db/schema';
 import { AppError } from '../errors';
 import { expectedBand, openNoticeCount, siteNotices } from './views-insight';
 import { getSite, unitWithSite } from './plant-site-model';
+import { cachedHours } from '../hours-cache';
 
 export type { TrendAnswer } from '~/lib/views/trend';
 export type { FlowAnswer, LedgerAnswer, LedgerRow, OverviewSite } from '~/lib/views/ledger';
 
 const viewSite = (s: typeof sites.$inferSelect) => ({ id: s.id, name: s.name, timeZone: s.timeZone, currency: s.currency });
 
+/** The minute `nowMs` falls in: unit hours start on whole minutes, so "up to now" reads the same. */
+const minuteOf = (nowMs: number) => Math.floor(nowMs / 60_000) * 60_000;
+
 /**
  * First and last computed hour of a unit, or of a site's units (hours after now left out), for the
- * period a view opens on (src/lib/views/period.ts defaultPeriod).
+ * period a view opens on (src/lib/views/period.ts defaultPeriod). Each unit's first and last hour is
+ * found through its key (unit, hour) in the month partitions at either end: a few index probes per
+ * unit instead of reading every hour of the site. Kept in the read cache (src/server/hours-cache.ts)
+ * until unit hours change.
  */
 export async function dataSpan(siteId: string, unitId?: string, nowMs = Date.now()): Promise<DataSpan | null> {
-  const now = new Date(nowMs).toISOString();
-  const rows = await db().execute<{ first: string | null; last: string | null }>(
-    unitId
-      ? sql`select min(hour_start)::text as first, max(hour_start)::text as last from unit_hours where unit_id = ${unitId} and hour_start <= ${now}::timestamptz`
-      : sql`select min(h.hour_start)::text as first, max(h.hour_start)::text as last from unit_hours h join plant_units u on u.id = h.unit_id where u.site_id = ${siteId} and h.hour_start <= ${now}::timestamptz`,
-  );
-  const r = rows.rows[0];
-  return r?.first && r.last ? { firstMs: Date.parse(r.first), lastMs: Date.parse(r.last) } : null;
+  const upTo = minuteOf(nowMs);
+  return cachedHours(`span:${unitId ?? siteId}:${upTo}`, async () => {
+    const now = new Date(upTo).toISOString();
+    const units = unitId ? sql`select ${unitId}::uuid as id` : sql`select id from plant_units where site_id = ${siteId}`;
+    const rows = await db().execute<{ first: string | null; last: string | null }>(sql`
+      select min(f.h)::text as first, max(l.h)::text as last
+      from (${units}) u
+      cross join lateral (select hour_start as h from unit_hours where unit_id = u.id and hour_start <= ${now}::timestamptz order by hour_start asc limit 1) f
+      cross join lateral (select hour_start as h from unit_hours where unit_id = u.id and hour_start <= ${now}::timestamptz order by hour_start desc limit 1) l`);
+    const r = rows.rows[0];
+    return r?.first && r.last ? { firstMs: Date.parse(r.first), lastMs: Date.parse(r.last) } : null;
+  });
 }
 
 /** How fresh a site's figures are (src/lib/views/freshness.ts), for the note every page of the site shows. */
-export async function siteFreshness(siteId: string, nowMs = Date.now()): Promise<Freshness> {
-  const site = await getSite(siteId);
+export async function siteFreshness(siteId: string | typeof sites.$inferSelect, nowMs = Date.now()): Promise<Freshness> {
+  const site = typeof siteId === 'string' ? await getSite(siteId) : siteId;
   const span = await dataSpan(site.id, undefined, nowMs);
   return freshness(span?.lastMs ?? null, site.timeZone, nowMs);
 }
@@ -103,7 +114,7 @@ export async function unitTrend(unitId: string, q: PeriodQuery, nowMs?: number):
     site: viewSite(site),
     period,
     opened,
-    freshness: await siteFreshness(site.id, now),
+    freshness: await siteFreshness(site, now),
     bucket,
     points,
     context,
@@ -170,7 +181,7 @@ export async function siteLedger(siteId: string, q: PeriodQuery, nowMs?: number)
   const site = await getSite(siteId);
   const now = nowMs ?? Date.now();
   const { period, opened } = await periodOrError(q, site.timeZone, () => dataSpan(site.id, undefined, now), now);
-  return { site: viewSite(site), period, opened, freshness: await siteFreshness(site.id, now), ...ledgerFrom(await unitSums(site.id, period.fromMs, period.toMs)) };
+  return { site: viewSite(site), period, opened, freshness: await siteFreshness(site, now), ...ledgerFrom(await unitSums(site.id, period.fromMs, period.toMs)) };
 }
 
 /** The site's exergy flow over a period (src/lib/views/ledger.ts flowFrom). */
@@ -178,7 +189,7 @@ export async function siteFlow(siteId: string, q: PeriodQuery, nowMs?: number): 
   const site = await getSite(siteId);
   const now = nowMs ?? Date.now();
   const { period, opened } = await periodOrError(q, site.timeZone, () => dataSpan(site.id, undefined, now), now);
-  return { site: viewSite(site), period, opened, freshness: await siteFreshness(site.id, now), ...flowFrom(await unitSums(site.id, period.fromMs, period.toMs)) };
+  return { site: viewSite(site), period, opened, freshness: await siteFreshness(site, now), ...flowFrom(await unitSums(site.id, period.fromMs, period.toMs)) };
 }
 
 /**
@@ -188,25 +199,24 @@ export async function siteFlow(siteId: string, q: PeriodQuery, nowMs?: number): 
  */
 export async function overview(nowMs = Date.now()): Promise<OverviewSite[]> {
   const all = await db().select().from(sites).orderBy(asc(sites.name));
-  const out: OverviewSite[] = [];
-  for (const site of all) {
-    const last = await db().execute<{ last: string | null }>(
-      sql`select max(h.hour_start)::text as last from unit_hours h join plant_units u on u.id = h.unit_id where u.site_id = ${site.id} and h.hour_start <= ${new Date(nowMs).toISOString()}::timestamptz`,
-    );
-    const lastRaw = last.rows[0]?.last;
-    const endMs = lastRaw ? Date.parse(lastRaw) + HOUR_MS : nowMs;
-    const sums = await unitSums(site.id, endMs - DAY_MS, endMs);
-    out.push({
-      ...viewSite(site),
-      units: sums.map(overviewUnit),
-      windowFrom: siteStamp(endMs - DAY_MS, site.timeZone),
-      windowTo: siteStamp(endMs, site.timeZone),
-      lastHour: lastRaw ? siteStamp(lastRaw, site.timeZone) : null,
-      freshness: freshness(lastRaw ? Date.parse(lastRaw) : null, site.timeZone, nowMs),
-      openNotices: await openNoticeCount(site.id),
-    });
-  }
-  return out;
+  return Promise.all(all.map((site) => overviewSite(site, nowMs)));
+}
+
+async function overviewSite(site: typeof sites.$inferSelect, nowMs: number): Promise<OverviewSite> {
+  const [span, openNotices] = await Promise.all([dataSpan(site.id, undefined, nowMs), openNoticeCount(site.id)]);
+  const lastMs = span?.lastMs ?? null;
+  const endMs = lastMs !== null ? lastMs + HOUR_MS : nowMs;
+  // The sums of a site's last day change only with its unit hours (or units): kept in the read cache.
+  const sums = lastMs !== null ? await cachedHours(`overview:${site.id}:${endMs}`, () => unitSums(site.id, endMs - DAY_MS, endMs)) : await unitSums(site.id, endMs - DAY_MS, endMs);
+  return {
+    ...viewSite(site),
+    units: sums.map(overviewUnit),
+    windowFrom: siteStamp(endMs - DAY_MS, site.timeZone),
+    windowTo: siteStamp(endMs, site.timeZone),
+    lastHour: lastMs !== null ? siteStamp(lastMs, site.timeZone) : null,
+    freshness: freshness(lastMs, site.timeZone, nowMs),
+    openNotices,
+  };
 }
 
 // ---- page headers ------------------------------------------------------------------------------
