@@ -9,7 +9,7 @@
  * when its temperature is within the saturation tolerance of Tsat(p) (or missing), is evaluated per hour
  * (one Tsat call per such port); each combination of these choices has its own plan.
  */
-import { SATURATION_TOLERANCE_K, type UnitKind as BalanceKind, type UnitModel } from '../equipment';
+import { SATURATION_TOLERANCE_K, type BalanceKind, type UnitModel } from '../equipment';
 import type { Converter } from '../units/convert';
 import { sharedModel } from './linkset';
 import type { MappedUnit } from './map';

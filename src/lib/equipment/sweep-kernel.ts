@@ -13,7 +13,8 @@
  * @see ./balance.ts resolvePorts and assemble, ./kinds.ts (the SPECO split per kind) for the definitions
  */
 import { G_m_per_s2, flowExergy, water } from '../thermo';
-import type { UnitBalance, UnitKind } from './balance';
+import type { UnitBalance } from './balance';
+import type { BalanceKind as UnitKind } from '../kinds';
 import { BalanceInputError } from './errors';
 import { fuelSpecOf, prepareFluid, type Environment, type Fluid, type FluidSpec, type PortMeasurement, type PortState } from './fluids';
 import type { PortSpec, UnitModel } from './model';
