@@ -7,7 +7,7 @@
 import type { PortSpec, UnitModel } from '../equipment';
 import type { BalanceKind, UnitKind } from '../kinds';
 import type { LinkQuantity, ParamValue } from '../plant/kinds';
-import type { MappedUnit } from './map';
+import type { MappedUnit } from './map-types';
 import { fromLink, linkAt, put, type Ctx } from './map-port';
 import { planPort } from './map-plan';
 import type { EnginePort, EngineUnit } from './types';

@@ -10,7 +10,8 @@ import { converterFor, type Converter } from '../units/convert';
 import { MOLAR_GAS_CONSTANT_J_per_molK } from '../units/constants';
 import { LINK_QUANTITIES, type LinkQuantity, type ParamValue } from '../plant/kinds';
 import type { Fluid as PlantFluid, FuelDefinition } from '../plant/model';
-import type { InputEntry, InputSource, PortPlan } from './map';
+import type { InputEntry, InputSource, PortPlan, WetDecision } from './map-types';
+export type { WetDecision } from './map-types';
 import { fuelFluidOf, fuelSpecOfDefinition, normalised } from './map-fuel';
 import type { EngineLink, EnginePort, EngineReason, EngineUnit, FlueGasSource, TagHour } from './types';
 
@@ -28,20 +29,6 @@ export interface Ctx {
   decisions: WetDecision[];
 }
 
-/**
- * A choice of the port planner that this hour's readings make: a port that may take its state from the
- * energy balance does so when its temperature is missing or within the saturation tolerance of Tsat(p).
- */
-export interface WetDecision {
-  /** the entry of the port's pressure */
-  pName: string;
-  /** the temperature link */
-  TL: EngineLink;
-  /** the port carries water (Tsat(p) is looked at) */
-  water: boolean;
-  /** whether the state came from the energy balance */
-  fromEnergy: boolean;
-}
 
 type LinkIndex = Map<string | null, Partial<Record<LinkQuantity, EngineLink>>>;
 const linkIndexes = new WeakMap<readonly EngineLink[], LinkIndex>();

@@ -5,7 +5,7 @@
  * Sign conventions as in docs/domain.md s.2: heat into the volume and work out of it positive.
  */
 import { G_m_per_s2 } from '../thermo';
-import type { BalancePort, PortStateInput, ResolvedPort } from './balance';
+import type { BalancePort, PortStateInput, ResolvedPort } from './ports';
 import { BalanceInputError, requireInput } from './errors';
 import { fluidOf, type Environment, type Fluid, type PortState } from './fluids';
 

@@ -162,9 +162,4 @@ export const PlantModelSchema = z.strictObject({
 });
 export type PlantModel = z.infer<typeof PlantModelSchema>;
 
-/** One problem in a model file (or a single edit), with where it is. */
-export interface ModelIssue {
-  /** JSON path: '$', '$.site.timeZone', '$.units[2].links[0].unit'. */
-  readonly path: string;
-  readonly message: string;
-}
+export type { ModelIssue } from './model-issue';

@@ -7,7 +7,7 @@
  */
 import { z } from 'zod';
 import { jsonPath } from '~/lib/zod-words';
-import type { ModelIssue } from './model-schema';
+import type { ModelIssue } from './model-issue';
 
 /** The frozen-value limit of a tag not listed [s]: 4 h. Common practice (docs/domain.md section 6). */
 export const DEFAULT_FROZEN_LIMIT_s = 4 * 3600;
