@@ -9,7 +9,7 @@ import { FlowPicture } from './FlowPicture';
 import FreshnessNote from './FreshnessNote';
 import { HOUR_STATES as STATES } from '~/lib/hour-states';
 import type { FlowAnswer, LedgerAnswer } from '~/lib/views/ledger';
-import { money, moneyDecimals, mwh, mwhDecimals, pct } from './format';
+import { money, moneyDecimals, mwh, mwhDecimals, num, pct } from './format';
 import { withU } from '~/lib/format';
 import { PeriodPicker, periodFromSearch, periodQuery, syncSearch, type PeriodInfo, type PeriodValue } from './PeriodPicker';
 
@@ -21,7 +21,7 @@ function ShareBar({ share }: { share: number | null }) {
       <span className="inline-block h-2 w-16 rounded-sm bg-paper-deep" aria-hidden="true">
         <span className="block h-2 rounded-sm" style={{ width: `${Math.min(100, share * 100)}%`, background: COLORS.copper }} />
       </span>
-      {(share * 100).toFixed(1)}
+      {num(share * 100, 1)}
     </span>
   );
 }

@@ -23,7 +23,7 @@ import {
 import { COLORS, HourStateMark, STATE_LOOK } from './common';
 import type { ContextSpan, CurvePoint, ExpectedHour, NoticeMark, ScatterPoint, TrendPoint } from '~/lib/views/trend';
 export type { ContextSpan, CurvePoint, ExpectedHour, NoticeMark, ScatterPoint, TrendPoint };
-import { load as showLoad, loadAxis, pct, power, powerUnit, siteTime, type HourState } from './format';
+import { load as showLoad, loadAxis, num, pct, power, powerUnit, siteTime, type HourState } from './format';
 import { significant } from '~/lib/format';
 
 
@@ -164,7 +164,7 @@ function TrendTooltip({ active, payload, kind, timeZone, bucket, loadUnit }: { a
         </>
       )}
       {p.load !== null && <p>Load: {showLoad(p.load, loadUnit)}</p>}
-      {p.T0_K !== null && <p>T0: {(p.T0_K - 273.15).toFixed(1)} °C</p>}
+      {p.T0_K !== null && <p>T0: {num(p.T0_K - 273.15, 1)} °C</p>}
       {p.reasons && p.reasons.length > 0 && <p className="mt-1 max-w-xs text-ink-soft">{p.reasons.join('; ')}</p>}
     </div>
   );

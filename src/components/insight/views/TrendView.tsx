@@ -8,7 +8,7 @@ import type { NoticeStatus } from '~/lib/notice-view';
 import { useEffect, useMemo, useState, type ReactNode } from 'react';
 import { ErrorNote, HourStateMark, Loading, ViewsCaution } from './common';
 import { useApi } from '~/components/api';
-import { pct, power, siteTime, type HourState } from './format';
+import { num, pct, power, siteTime, type HourState } from './format';
 import { PeriodPicker, periodFromSearch, periodQuery, syncSearch, type PeriodInfo, type PeriodValue } from './PeriodPicker';
 import { LoadScatter, TimeChart, TrendLegend } from './TrendCharts';
 import type { TrendAnswer } from '~/lib/views/trend';
@@ -167,7 +167,7 @@ export default function TrendView({ unitId, initialSearch }: { unitId: string; i
                       <td>{n.direction === 'up' ? 'more destruction than expected' : 'less destruction than expected'}</td>
                       <td>{NOTICE_STATUS_WORDS[n.status as NoticeStatus]?.label ?? 'other'}</td>
                       <td className="num">{power(n.extra_W, n.shiftU_W, { unit: 'kW', factor: 1e3 }).replace(/ kW/g, '')}</td>
-                      <td className="num">{n.extraCost_per_day === null ? '—' : n.extraCost_per_day.toFixed(0)}</td>
+                      <td className="num">{num(n.extraCost_per_day)}</td>
                     </tr>
                   ))}
                 </tbody>
