@@ -64,7 +64,7 @@ test('an admin declares a let-down valve normally idle while its turbine runs; t
   await planner.goto(link);
   await expect(planner.getByRole('heading', { level: 1 })).toContainText('Notice (running while idle): PRV');
   await expect(planner.getByTestId('rule-notice')).toContainText('normally idle always, while TG runs');
-  await expect(planner.getByTestId('fig-destruction')).toHaveText('150.0 kW');
+  await expect(planner.getByTestId('fig-destruction')).toHaveText('150 kW');
   await expect(planner.getByTestId('fig-cost')).toContainText('120');
   await expect(planner.getByTestId('notice-caution')).toContainText('not an alarm');
   await expect(planner.locator('astro-island[ssr]')).toHaveCount(0);
