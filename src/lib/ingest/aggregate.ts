@@ -44,6 +44,9 @@ const S_UNCERTAIN = CellStatus.Uncertain;
 const S_BLANK = CellStatus.Blank;
 
 // Per-tag state lives in one Float64Array, W slots per tag (one buffer keeps the hot loop fast).
+// Tag k owns S[k * W, k * W + W), and S always holds at least n * W values (addTag grows it), so a
+// read S[b + SLOT] with b = k * W of a known tag and SLOT < W is inside the buffer: those reads carry
+// a non-null assertion (no check at run time on the hot path).
 const IS_STATUS = 0;
 const FLAT_MS = 1;
 const V_MIN = 2;
@@ -115,26 +118,26 @@ function resetHour(S: Float64Array, b: number): void {
 function piece(S: Float64Array, b: number, ta: number, tb: number, va: number, vb: number): void {
   const d = tb - ta;
   if (d <= 0) return;
-  let r = S[b + REF];
+  let r = S[b + REF]!;
   if (r !== r) {
     r = va;
     S[b + REF] = r;
   }
-  S[b + COV] += d;
+  S[b + COV]! += d;
   const ya = va - r;
   if (S[b + IS_STATUS] === 1) {
-    S[b + SX] += d * ya;
-    S[b + SXX] += d * ya * ya;
+    S[b + SX]! += d * ya;
+    S[b + SXX]! += d * ya * ya;
     vb = va;
   } else {
     const yb = vb - r;
-    S[b + SX] += d * (ya + yb) * 0.5;
-    S[b + SXX] += (d * (ya * ya + ya * yb + yb * yb)) / 3;
+    S[b + SX]! += d * (ya + yb) * 0.5;
+    S[b + SXX]! += (d * (ya * ya + ya * yb + yb * yb)) / 3;
   }
-  if (va < S[b + PMN]) S[b + PMN] = va;
-  if (va > S[b + PMX]) S[b + PMX] = va;
-  if (vb < S[b + PMN]) S[b + PMN] = vb;
-  if (vb > S[b + PMX]) S[b + PMX] = vb;
+  if (va < S[b + PMN]!) S[b + PMN] = va;
+  if (va > S[b + PMX]!) S[b + PMX] = va;
+  if (vb < S[b + PMN]!) S[b + PMN] = vb;
+  if (vb > S[b + PMX]!) S[b + PMX] = vb;
 }
 
 /**
@@ -189,11 +192,12 @@ class Aggregator implements HourAggregator {
 
   addRow(timeMs: number, values: Float64Array, status: Uint8Array): void {
     const m = Math.min(this.n, values.length);
+    if (status.length < m) throw new IngestError('INVALID_OPTIONS', `A row has ${values.length} values but ${status.length} statuses: each value needs its status.`);
     const S = this.S;
     for (let k = 0; k < m; k++) {
-      const s = status[k];
+      const s = status[k]!;
       if (s === S_BLANK) continue;
-      this.push(S, k * W, timeMs, values[k], s);
+      this.push(S, k * W, timeMs, values[k]!, s);
     }
   }
 
@@ -220,16 +224,16 @@ class Aggregator implements HourAggregator {
   }
 
   private push(S: Float64Array, b: number, t: number, v: number, s: number): void {
-    const pt = S[b + P_T];
+    const pt = S[b + P_T]!;
     if (t > pt) {
       this.commit(S, b);
     } else if (t === pt) {
       S[b + P_V] = v; // the later sample wins
       S[b + P_S] = s;
-      S[b + P_DUP]++;
+      S[b + P_DUP]!++;
       return;
     } else if (t < pt) {
-      S[b + P_OOO]++;
+      S[b + P_OOO]!++;
       return;
     }
     // first sample (pt NaN) or after a commit
@@ -250,21 +254,21 @@ class Aggregator implements HourAggregator {
 
   /** Processes the pending sample of the tag at b: draw the signal up to it, account it. */
   private commit(S: Float64Array, b: number): void {
-    const t = S[b + P_T];
-    const v = S[b + P_V];
-    let s = S[b + P_S];
-    if ((s === S_OK || s === S_UNCERTAIN) && (v < S[b + V_MIN] || v > S[b + V_MAX])) s = OUT_OF_RANGE;
+    const t = S[b + P_T]!;
+    const v = S[b + P_V]!;
+    let s = S[b + P_S]!;
+    if ((s === S_OK || s === S_UNCERTAIN) && (v < S[b + V_MIN]! || v > S[b + V_MAX]!)) s = OUT_OF_RANGE;
     const usable = s === S_OK || s === S_UNCERTAIN;
-    const t0 = S[b + L_T];
-    const bridged = usable && t0 === t0 && t - t0 <= S[b + GAP_MS];
+    const t0 = S[b + L_T]!;
+    const bridged = usable && t0 === t0 && t - t0 <= S[b + GAP_MS]!;
     if (bridged) {
       // draw the segment from the last usable sample, splitting it at hour ends
-      const v0 = S[b + L_V];
+      const v0 = S[b + L_V]!;
       const status = S[b + IS_STATUS] === 1;
       let a = t0;
       let va = v0;
-      while (t >= S[b + H_E]) {
-        const end = S[b + H_E];
+      while (t >= S[b + H_E]!) {
+        const end = S[b + H_E]!;
         const vb = status ? v0 : v0 + ((v - v0) * (end - t0)) / (t - t0);
         piece(S, b, a, end, va, vb);
         this.closeHour(S, b);
@@ -273,16 +277,16 @@ class Aggregator implements HourAggregator {
         va = vb;
       }
       piece(S, b, a, t, va, status ? v0 : v);
-    } else if (!(t < S[b + H_E])) {
+    } else if (!(t < S[b + H_E]!)) {
       // no open hour (NaN) or the sample lies past it
       this.closeHour(S, b);
       this.openHourAt(S, b, t);
     }
     // account the sample in its hour
-    S[b + C_DUP] += S[b + P_DUP];
-    S[b + C_OOO] += S[b + P_OOO];
+    S[b + C_DUP]! += S[b + P_DUP]!;
+    S[b + C_OOO]! += S[b + P_OOO]!;
     if (usable) {
-      const c = S[b + CNT];
+      const c = S[b + CNT]!;
       if (c === 0) {
         S[b + F_V] = v;
         S[b + F_T] = t;
@@ -290,85 +294,87 @@ class Aggregator implements HourAggregator {
       S[b + CNT] = c + 1;
       S[b + LA_V] = v;
       S[b + LA_T] = t;
-      if (v < S[b + MN]) S[b + MN] = v;
-      if (v > S[b + MX]) S[b + MX] = v;
-      let r = S[b + REF];
+      if (v < S[b + MN]!) S[b + MN] = v;
+      if (v > S[b + MX]!) S[b + MX] = v;
+      let r = S[b + REF]!;
       if (r !== r) {
         r = v;
         S[b + REF] = r;
       }
       const y = v - r;
-      S[b + SSUM] += y;
-      S[b + SSUM2] += y * y;
-      if (s === S_UNCERTAIN) S[b + C_UNC]++;
+      S[b + SSUM]! += y;
+      S[b + SSUM2]! += y * y;
+      if (s === S_UNCERTAIN) S[b + C_UNC]!++;
       // flatline run: only along drawn segments (a gap or a rejected sample starts a new run)
       if (!bridged || v !== S[b + RUN_V]) {
         S[b + RUN_V] = v;
         S[b + RUN_T] = t;
       } else {
-        const run = t - S[b + RUN_T];
-        if (run > S[b + MAX_RUN]) S[b + MAX_RUN] = run;
+        const run = t - S[b + RUN_T]!;
+        if (run > S[b + MAX_RUN]!) S[b + MAX_RUN] = run;
       }
       S[b + L_T] = t;
       S[b + L_V] = v;
     } else {
-      if (s === S_TEXT) S[b + C_TEXT]++;
-      else if (s === S_BAD) S[b + C_BAD]++;
-      else if (s === OUT_OF_RANGE) S[b + C_RANGE]++;
+      if (s === S_TEXT) S[b + C_TEXT]!++;
+      else if (s === S_BAD) S[b + C_BAD]!++;
+      else if (s === OUT_OF_RANGE) S[b + C_RANGE]!++;
       S[b + L_T] = NaN; // rejected samples break the signal
     }
   }
 
   private closeHour(S: Float64Array, b: number): void {
-    const start = S[b + H_S];
+    const start = S[b + H_S]!;
     if (start !== start) return;
-    const c = S[b + CNT];
-    const covered = S[b + COV];
-    const counters = S[b + C_TEXT] + S[b + C_BAD] + S[b + C_RANGE] + S[b + C_DUP] + S[b + C_OOO];
+    const c = S[b + CNT]!;
+    const covered = S[b + COV]!;
+    const counters = S[b + C_TEXT]! + S[b + C_BAD]! + S[b + C_RANGE]! + S[b + C_DUP]! + S[b + C_OOO]!;
     if (c > 0 || covered > 0 || counters > 0) {
-      const end = S[b + H_E];
+      const end = S[b + H_E]!;
       let mean: number | null = null;
       let std: number | null = null;
       let method: TagHour['meanMethod'] = 'none';
-      const r = S[b + REF];
+      const r = S[b + REF]!;
       if (covered > 0) {
-        const m1 = S[b + SX] / covered;
-        const m2 = S[b + SXX] / covered;
+        const m1 = S[b + SX]! / covered;
+        const m2 = S[b + SXX]! / covered;
         mean = r + m1;
         std = Math.sqrt(Math.max(0, m2 - m1 * m1));
         method = 'time-weighted';
       } else if (c > 0) {
-        const m1 = S[b + SSUM] / c;
+        const m1 = S[b + SSUM]! / c;
         mean = r + m1;
-        std = Math.sqrt(Math.max(0, S[b + SSUM2] / c - m1 * m1));
+        std = Math.sqrt(Math.max(0, S[b + SSUM2]! / c - m1 * m1));
         method = 'samples';
       }
       const haveSamples = c > 0;
+      const tag = this.names[b / W];
+      if (tag === undefined) throw new IngestError('READER_FAULT', `The hour aggregator closed an hour of tag ${b / W}, which was never announced.`);
       this.options.onHour({
-        tag: this.names[b / W],
+        tag,
         hourStartMs: start,
         hourEndMs: end,
-        utcOffsetMinutes: S[b + H_O],
+        utcOffsetMinutes: S[b + H_O]!,
         mean,
         meanMethod: method,
         stdDev: std,
-        min: haveSamples ? S[b + MN] : covered > 0 ? S[b + PMN] : null,
-        max: haveSamples ? S[b + MX] : covered > 0 ? S[b + PMX] : null,
-        first: haveSamples ? S[b + F_V] : null,
-        firstMs: haveSamples ? S[b + F_T] : null,
-        last: haveSamples ? S[b + LA_V] : null,
-        lastMs: haveSamples ? S[b + LA_T] : null,
+        min: haveSamples ? S[b + MN]! : covered > 0 ? S[b + PMN]! : null,
+        max: haveSamples ? S[b + MX]! : covered > 0 ? S[b + PMX]! : null,
+        first: haveSamples ? S[b + F_V]! : null,
+        firstMs: haveSamples ? S[b + F_T]! : null,
+        last: haveSamples ? S[b + LA_V]! : null,
+        lastMs: haveSamples ? S[b + LA_T]! : null,
         sampleCount: c,
         coveredSeconds: covered / 1000,
         coveredFraction: covered / (end - start),
-        nonNumericCount: S[b + C_TEXT],
-        badQualityCount: S[b + C_BAD],
-        outOfRangeCount: S[b + C_RANGE],
-        uncertainCount: S[b + C_UNC],
-        duplicateCount: S[b + C_DUP],
-        outOfOrderCount: S[b + C_OOO],
-        maxUnchangedSeconds: S[b + MAX_RUN] / 1000,
-        flatline: S[b + MAX_RUN] > S[b + FLAT_MS],
+        nonNumericCount: S[b + C_TEXT]!,
+        badQualityCount: S[b + C_BAD]!,
+        outOfRangeCount: S[b + C_RANGE]!,
+        uncertainCount: S[b + C_UNC]!,
+        duplicateCount: S[b + C_DUP]!,
+        outOfOrderCount: S[b + C_OOO]!,
+        maxUnchangedSeconds: S[b + MAX_RUN]! / 1000,
+        flatline: S[b + MAX_RUN]! > S[b + FLAT_MS]!,
       });
     }
     S[b + H_S] = NaN;
