@@ -55,7 +55,7 @@ export interface CsvTokenizerOptions {
 
 /** The text of field `i` ('' past the end of the record). */
 export function fieldText(rec: CsvRecord, i: number): string {
-  return i < rec.count ? rec.fields[i] : '';
+  return i < rec.count ? (rec.fields[i] ?? '') : '';
 }
 
 interface PapaError {
@@ -227,8 +227,8 @@ export class CsvTokenizer {
     const rows = res.data.length;
     const errors = res.errors;
     const checkLength = input.length + this.partialChars > this.maxRecordChars;
-    if (errors.length > 0) {
-      const first = errors[0];
+    const first = errors[0];
+    if (first !== undefined) {
       if (first.code === 'InvalidQuotes') {
         const used = this.requote(input, first.index - 1, carryLength, final);
         if (used >= 0) return used;
@@ -328,25 +328,26 @@ export class CsvTokenizer {
   private deliver(data: string[][], count: number, oneLineEach: boolean, checkLength: boolean): void {
     const nl = this.newline;
     const stripCR = nl === '\n';
-    for (let r = 0; r < count; r++) {
-      let row = data[r];
+    const end = Math.min(count, data.length);
+    for (let r = 0; r < end; r++) {
+      let row = data[r]!;
       const n = row.length;
       let line = this.line;
       this.line++;
-      if (!oneLineEach) for (let i = 0; i < n; i++) if (row[i].length > 0) this.line += countChar(row[i], nl, 0, row[i].length);
+      if (!oneLineEach) for (const f of row) if (f.length > 0) this.line += countChar(f, nl, 0, f.length);
       if (stripCR) {
         const f = row[n - 1];
-        if (f.length > 0 && f.charCodeAt(f.length - 1) === CR) row[n - 1] = f.slice(0, -1);
+        if (f !== undefined && f.length > 0 && f.charCodeAt(f.length - 1) === CR) row[n - 1] = f.slice(0, -1);
       }
       if (this.partial) {
         row = this.partial.concat(row);
         line = this.partialLine;
         this.partial = null;
         this.partialChars = 0;
-      } else if (n === 1 && row[0].length === 0) continue;
+      } else if (n === 1 && row[0] === '') continue;
       if (checkLength) {
         let length = row.length - 1;
-        for (let i = 0; i < row.length; i++) length += row[i].length;
+        for (const f of row) length += f.length;
         if (length > this.maxRecordChars) this.tooLong(length, line);
       }
       this.emit(row, line);
