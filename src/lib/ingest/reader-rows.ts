@@ -8,6 +8,7 @@ import { isBlankAt, parseNumberAt } from './numbers';
 import type { LayoutProfile } from './profile';
 import { classifyQuality, QualityClass } from './quality';
 import type { QualityJudge } from './quality-codes';
+import { IngestError } from './errors';
 import { CellStatus } from './reader-types';
 import type { SampleSink } from './reader-types';
 import { badTagName } from './reader-tally';
@@ -66,6 +67,7 @@ export function createWideRowStep(c: RowStepContext, valueCols: Int32Array, judg
   const limMin = tags.limMin;
   const limMax = tags.limMax;
   const tagStates = tags.states;
+  if (tagStates.length < nWide) throw new IngestError('READER_FAULT', `The wide row step has ${nWide} value columns but only ${tagStates.length} tags are in the table.`);
   let prevRowTimeMs = NaN;
 
   return function readWideRow(rec: CsvRecord, t: number): void {
@@ -74,18 +76,20 @@ export function createWideRowStep(c: RowStepContext, valueCols: Int32Array, judg
     prevRowTimeMs = t;
     const fields = rec.fields;
     const count = rec.count;
+    // hot loop: every per-column array has nWide entries (the tag table at least as many, checked
+    // above) and a field index below count (= fields.length) is inside the record
     for (let k = 0; k < nWide; k++) {
-      const col = valueCols[k];
+      const col = valueCols[k]!;
       if (col >= count) {
         values[k] = NaN;
         status[k] = CellStatus.Blank;
-        tagStates[k].blankCount++;
+        tagStates[k]!.blankCount++;
         continue;
       }
-      const f = fields[col];
-      const v = parseNumberAt(f, 0, f.length, decK[k], thouK[k]);
+      const f = fields[col]!;
+      const v = parseNumberAt(f, 0, f.length, decK[k]!, thouK[k]!);
       if (v === v) {
-        if (v < limMin[k] || v > limMax[k]) {
+        if (v < limMin[k]! || v > limMax[k]!) {
           values[k] = NaN;
           status[k] = CellStatus.Text;
           reject(k, rec, col, t, 'impossible');
@@ -93,22 +97,23 @@ export function createWideRowStep(c: RowStepContext, valueCols: Int32Array, judg
         }
         values[k] = v;
         status[k] = CellStatus.Ok;
-        const qc = qualityCols[k];
+        const qc = qualityCols[k]!;
         if (qc >= 0 && qc < count) {
-          const q = judge(fields[qc]);
+          const qt = fields[qc]!;
+          const q = judge(qt);
           if (q === QualityClass.Bad) {
             values[k] = NaN;
             status[k] = CellStatus.BadQuality;
-            reject(k, rec, col, t, 'bad-quality', fields[qc].trim());
+            reject(k, rec, col, t, 'bad-quality', qt.trim());
           } else if (q === QualityClass.Uncertain) {
             status[k] = CellStatus.Uncertain;
-            tagStates[k].uncertainCount++;
+            tagStates[k]!.uncertainCount++;
           }
         }
       } else if (isBlankAt(f, 0, f.length)) {
         values[k] = NaN;
         status[k] = CellStatus.Blank;
-        tagStates[k].blankCount++;
+        tagStates[k]!.blankCount++;
       } else {
         values[k] = NaN;
         status[k] = CellStatus.Text;
@@ -133,7 +138,7 @@ export function createLongRowStep(c: RowStepContext): (rec: CsvRecord, t: number
 
   function tagOf(rec: CsvRecord): number {
     const tc = L.tagColumn;
-    const raw = tc < rec.count ? rec.fields[tc] : '';
+    const raw = tc < rec.count ? (rec.fields[tc] ?? '') : '';
     if (lastTagIndex >= 0 && raw === lastTagRaw) return lastTagIndex;
     const name = raw.trim();
     if (name.length === 0) {
@@ -153,19 +158,19 @@ export function createLongRowStep(c: RowStepContext): (rec: CsvRecord, t: number
   return function readLongRow(rec: CsvRecord, t: number): void {
     const k = tagOf(rec);
     if (k < 0) return;
-    const prev = tags.lastTime[k];
+    const prev = tags.lastTime[k] ?? NaN; // NaN: no row of the tag yet
     if (t === prev) tally.duplicates.add(rec.line);
     else if (t < prev) tally.backwards.add(rec.line);
     tags.lastTime[k] = t;
-    const st = tags.states[k];
+    const st = tags.stateOf(k);
     const qClass = qualityOf(rec);
     const vc = L.valueColumn;
     let value = NaN;
     let cell: number = CellStatus.Blank;
-    if (vc < rec.count) {
-      const tx = rec.fields[vc];
+    const tx = vc < rec.count ? rec.fields[vc] : undefined;
+    if (tx !== undefined) {
       value = parseNumberAt(tx, 0, tx.length, longDec, longThou);
-      if (value === value && (value < tags.limMin[k] || value > tags.limMax[k])) {
+      if (value === value && (value < (tags.limMin[k] ?? -Infinity) || value > (tags.limMax[k] ?? Infinity))) {
         reject(k, rec, vc, t, 'impossible');
         sink.addSample(k, t, NaN, CellStatus.Text);
         return;
@@ -191,8 +196,8 @@ function createLongQualityStep(qualityColumn: number | null, tally: ReadTally): 
   let lastQualityRaw = '\u0000';
   let lastQualityClass = 0;
   return (rec) => {
-    if (qualityColumn === null || qualityColumn >= rec.count) return QualityClass.Good;
-    const qt = rec.fields[qualityColumn];
+    const qt = qualityColumn !== null && qualityColumn < rec.count ? rec.fields[qualityColumn] : undefined;
+    if (qt === undefined) return QualityClass.Good;
     let c: number | undefined;
     if (qt === lastQualityRaw) {
       c = lastQualityClass;

@@ -59,6 +59,13 @@ export class TagTable {
     return k;
   }
 
+  /** The counts of tag k (an index given by add or indexOf). */
+  stateOf(k: number): TagState {
+    const st = this.states[k];
+    if (st === undefined) throw new IngestError('READER_FAULT', `The reader asked for tag ${k} of ${this.states.length} it has met.`);
+    return st;
+  }
+
   /** Index of a tag by name, adding it when new. */
   indexOf(name: string): number {
     return this.index.get(name) ?? this.add(name);
@@ -113,7 +120,7 @@ export type Rejecter = (k: number, rec: CsvRecord, col: number, timeMs: number, 
 export function createRejecter(tags: TagTable, tally: ReadTally, maxExamples: number, onRejectedCell?: (cell: RejectedCell) => void): Rejecter {
   const cap = tally.cap;
   return function reject(k, rec, col, timeMs, reason, code) {
-    const st = tags.states[k];
+    const st = tags.stateOf(k);
     const text = fieldText(rec, col).trim();
     if (reason === 'text') st.textCount++;
     else if (reason === 'bad-quality') st.badQualityCount++;
