@@ -34,9 +34,14 @@ export interface TimeColumnFinding extends SniffNotes {
 function numericTimeKind(cells: string[], decimalMark: '.' | ','): NumericTimeKind | null {
   const values = cells.map((c) => parseNumber(c, decimalMark, ''));
   if (values.length === 0 || values.some((v) => !Number.isFinite(v))) return null;
-  for (let i = 1; i < values.length; i++) if (values[i] < values[i - 1]) return null;
+  let previous = -Infinity;
+  for (const v of values) {
+    if (v < previous) return null;
+    previous = v;
+  }
   const sorted = [...values].sort((a, b) => a - b);
   const median = sorted[Math.floor(sorted.length / 2)];
+  if (median === undefined) return null;
   if (median >= 3e8 && median <= 4.2e9) return 'unix-s';
   if (median >= 3e11 && median <= 4.2e12) return 'unix-ms';
   if (median >= 20000 && median <= 80000) return 'serial';
@@ -51,17 +56,18 @@ export function findTimeColumns(header: Rec[], data: Rec[], stats: ColumnStats[]
   const found = noNotes();
   const candidates = header.filter((r) => Math.abs(r.fields.length - m) <= 1);
   const keywordRow = candidates.findIndex((r) => r.fields.some((f) => TIME_NAMES.test(f.trim())));
-  const keywordCol = keywordRow >= 0 ? candidates[keywordRow].fields.findIndex((f) => TIME_NAMES.test(f.trim())) : -1;
+  const keywordCol = candidates[keywordRow]?.fields.findIndex((f) => TIME_NAMES.test(f.trim())) ?? -1;
   const textTimeCols: number[] = [];
-  for (let j = 0; j < m; j++) {
-    const s = stats[j];
+  stats.slice(0, m).forEach((s, j) => {
     if (s.nonBlank > 0 && s.dateTime >= 0.9 * s.nonBlank) textTimeCols.push(j);
-  }
+  });
   const base = { candidates, keywordRow, numericKind: null };
-  if (textTimeCols.length > 0) {
-    const j = textTimeCols.includes(keywordCol) ? keywordCol : textTimeCols[0];
+  const firstTextCol = textTimeCols[0];
+  if (firstTextCol !== undefined) {
+    const j = textTimeCols.includes(keywordCol) ? keywordCol : firstTextCol;
     const s = stats[j];
-    if (s.dateOnly >= 0.9 * s.nonBlank && j + 1 < m && stats[j + 1].nonBlank > 0 && stats[j + 1].timeOnly >= 0.9 * stats[j + 1].nonBlank) {
+    const next = j + 1 < m ? stats[j + 1] : undefined;
+    if (s !== undefined && s.dateOnly >= 0.9 * s.nonBlank && next !== undefined && next.nonBlank > 0 && next.timeOnly >= 0.9 * next.nonBlank) {
       found.notes.push(`Date in column ${j + 1} and time of day in column ${j + 2}.`);
       return { ...found, ...base, timeCols: [j, j + 1] };
     }
@@ -95,7 +101,8 @@ export function findTimeColumns(header: Rec[], data: Rec[], stats: ColumnStats[]
 /** How the time is written: numeric kinds as found, calendar text decided from the data. */
 export function decideTimeFormat(timeCols: number[], numericKind: NumericTimeKind | null, data: Rec[]): SniffNotes & { time: TimeColumns } {
   if (numericKind) {
-    const cell = (data[0].fields[timeCols[0]] ?? '').trim();
+    const col = timeCols[0];
+    const cell = (col === undefined ? '' : (data[0]?.fields[col] ?? '')).trim();
     const zone = numericKind === 'serial' ? 'local' : 'explicit';
     return { ...noNotes(), time: { columns: timeCols, kind: numericKind, dateOrder: 'ymd', clock: '24h', zone, example: cell } };
   }
@@ -106,12 +113,14 @@ export function decideTimeFormat(timeCols: number[], numericKind: NumericTimeKin
 function scanTimes(columns: number[], data: Rec[]): { scans: DateTimeScan[]; example: string } {
   const scans: DateTimeScan[] = [];
   let example = '';
+  const [dateCol, timeCol] = columns;
+  if (dateCol === undefined) return { scans, example };
   for (const r of data) {
-    const cell = (r.fields[columns[0]] ?? '').trim();
+    const cell = (r.fields[dateCol] ?? '').trim();
     const s = newScan();
     if (!scanDateTime(cell, 0, cell.length, s)) continue;
-    if (columns.length === 2) {
-      const tcell = (r.fields[columns[1]] ?? '').trim();
+    if (timeCol !== undefined) {
+      const tcell = (r.fields[timeCol] ?? '').trim();
       const t = newScan();
       if (!scanTimeOnly(tcell, 0, tcell.length, t)) continue;
       s.hasTime = true;

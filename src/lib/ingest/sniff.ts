@@ -150,14 +150,12 @@ function completeLines(sampleText: string, completeOption: boolean | undefined):
  * in the same column (or, for numeric times, data-like too); -1 when none.
  */
 function findDataStart(records: Rec[], m: number): number {
-  for (let i = 0; i < records.length; i++) {
-    if (records[i].fields.length !== m || !isDataLike(records[i])) continue;
-    const dateCol = records[i].fields.findIndex((f) => isDateTimeText(f.trim()));
-    let ok = true;
-    for (let k = i + 1; k < Math.min(records.length, i + 3); k++) {
-      const next = records[k];
-      if (dateCol >= 0 ? !isDateTimeText((next.fields[dateCol] ?? '').trim()) : !isDataLike(next)) ok = false;
-    }
+  for (const [i, rec] of records.entries()) {
+    if (rec.fields.length !== m || !isDataLike(rec)) continue;
+    const dateCol = rec.fields.findIndex((f) => isDateTimeText(f.trim()));
+    const ok = records
+      .slice(i + 1, i + 3)
+      .every((next) => (dateCol >= 0 ? isDateTimeText((next.fields[dateCol] ?? '').trim()) : isDataLike(next)));
     if (ok) return i;
   }
   return -1;
