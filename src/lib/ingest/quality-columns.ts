@@ -29,8 +29,8 @@ export interface QualityColumnDecision {
 
 /** The tag a suffixed quality name refers to ('B1.FT-101 Quality' -> 'B1.FT-101'), or null. */
 export function qualityNameTarget(name: string): string | null {
-  const m = SUFFIX.exec(name.trim());
-  return m ? m[1].trim() : null;
+  const target = SUFFIX.exec(name.trim())?.[1];
+  return target !== undefined ? target.trim() : null;
 }
 
 /** A suffixed name counts only when the tag it names is a column too ('P-101.Status' alone is a tag). */
@@ -55,11 +55,12 @@ export function detectQualityColumns(names: string[], valueIdx: number[], stats:
   const isQ = new Set(qCols);
   const valueCols = valueIdx.filter((j) => !isQ.has(j));
   const label = (j: number) => `${j + 1} ('${names[j] || `column ${j + 1}`}')`;
-  if (qCols.length === 1 && BARE.test((names[qCols[0]] ?? '').trim()) && valueCols.length > 1) {
+  const onlyQ = qCols.length === 1 ? qCols[0] : undefined;
+  if (onlyQ !== undefined && BARE.test((names[onlyQ] ?? '').trim()) && valueCols.length > 1) {
     return {
-      quality: { kind: 'row', pairs: [], rowColumn: qCols[0] },
+      quality: { kind: 'row', pairs: [], rowColumn: onlyQ },
       columns: qCols,
-      notes: [`Column ${label(qCols[0])} holds one quality code for the whole row.`],
+      notes: [`Column ${label(onlyQ)} holds one quality code for the whole row.`],
     };
   }
   const pairs: { value: number; quality: number }[] = [];

@@ -29,8 +29,8 @@ export function isUnitLike(cell: string): boolean {
 
 /** Splits 'B1.TT-102 [degC]' into name and unit when the bracketed part is a unit. */
 export function splitNameUnit(name: string): { tag: string; unit: string | null } {
-  const m = /^(.*\S)\s*[[(]([^[\]()]{1,16})[\])]\s*$/.exec(name);
-  if (m && isUnitLike(m[2]) && (m[2].length > 1 || /[^A-Za-z]/.test(m[2]))) return { tag: m[1].trim(), unit: m[2].trim() };
+  const [, tag, unit] = /^(.*\S)\s*[[(]([^[\]()]{1,16})[\])]\s*$/.exec(name) ?? [];
+  if (tag !== undefined && unit !== undefined && isUnitLike(unit) && (unit.length > 1 || /[^A-Za-z]/.test(unit))) return { tag: tag.trim(), unit: unit.trim() };
   return { tag: name.trim(), unit: null };
 }
 
@@ -129,16 +129,22 @@ export interface ColumnStats {
   distinct: Set<string>;
 }
 
+function noCellStats(): ColumnStats {
+  return { nonBlank: 0, numeric: 0, dateTime: 0, dateOnly: 0, timeOnly: 0, identifier: 0, quality: 0, distinct: new Set() };
+}
+
+/** The counts of column j; a column past the sample's width counts as all blank. */
+export function statsAt(stats: ColumnStats[], j: number): ColumnStats {
+  return stats[j] ?? noCellStats();
+}
+
 export function columnStats(data: Rec[], m: number): ColumnStats[] {
   const stats: ColumnStats[] = [];
-  for (let j = 0; j < m; j++) {
-    stats.push({ nonBlank: 0, numeric: 0, dateTime: 0, dateOnly: 0, timeOnly: 0, identifier: 0, quality: 0, distinct: new Set() });
-  }
+  for (let j = 0; j < m; j++) stats.push(noCellStats());
   for (const r of data) {
-    for (let j = 0; j < m; j++) {
+    for (const [j, s] of stats.entries()) {
       const f = (r.fields[j] ?? '').trim();
       if (f.length === 0) continue;
-      const s = stats[j];
       s.nonBlank++;
       if (isNumericLike(f)) s.numeric++;
       if (scanDateTime(f, 0, f.length, scanA)) {

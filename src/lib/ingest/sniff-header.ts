@@ -6,7 +6,7 @@
 import { IngestError } from './errors';
 import type { LayoutProfile, QualityPairs, WideColumn } from './profile';
 import { detectQualityColumns } from './quality-columns';
-import { isBlank, isUnitLike, QUALITY_NAMES, splitNameUnit, TAG_NAMES, UNIT_NAMES, VALUE_NAMES } from './sniff-cells';
+import { isBlank, isUnitLike, QUALITY_NAMES, splitNameUnit, statsAt, TAG_NAMES, UNIT_NAMES, VALUE_NAMES } from './sniff-cells';
 import type { ColumnStats, Rec } from './sniff-cells';
 import { noNotes } from './sniff-time';
 import type { SniffNotes } from './sniff-time';
@@ -29,7 +29,7 @@ export function findHeaderRows(candidates: Rec[], keywordRow: number, valueIdx: 
     const cells = valueIdx.map((j) => r.fields[j] ?? '').filter((f) => !isBlank(f));
     return cells.length === 0 ? 0 : cells.filter(isUnitLike).length / cells.length;
   };
-  let tagRec: Rec | null = keywordRow >= 0 ? candidates[keywordRow] : null;
+  let tagRec: Rec | null = candidates[keywordRow] ?? null;
   if (!tagRec) {
     for (const r of candidates) {
       if (unitScore(r) >= 0.6) continue;
@@ -133,7 +133,10 @@ export function decideLayout(names: string[], c: ColumnEvidence): LayoutFinding 
   if (f.layout === 'long') {
     if (f.qualityColumn < 0 || f.qualityColumn === f.valueColumn || f.qualityColumn === f.tagColumn || isTimeCol(f.qualityColumn)) {
       f.qualityColumn =
-        valueIdx.find((k) => k !== f.tagColumn && k !== f.valueColumn && k !== f.unitColumn && stats[k].nonBlank > 0 && stats[k].quality === stats[k].nonBlank) ?? -1;
+        valueIdx.find((k) => {
+          const s = statsAt(stats, k);
+          return k !== f.tagColumn && k !== f.valueColumn && k !== f.unitColumn && s.nonBlank > 0 && s.quality === s.nonBlank;
+        }) ?? -1;
     }
     if (f.qualityColumn >= 0) f.notes.push(`Quality in column ${f.qualityColumn + 1}.`);
   }
@@ -143,14 +146,23 @@ export function decideLayout(names: string[], c: ColumnEvidence): LayoutFinding 
 /** Long by evidence: one identifier-like text column whose names repeat or vary, and the time repeats. */
 function longByEvidence(f: LayoutFinding, c: ColumnEvidence): void {
   const { stats, valueIdx, data, timeCols } = c;
-  const idCols = valueIdx.filter((j) => stats[j].nonBlank > 0 && stats[j].identifier >= 0.9 * stats[j].nonBlank && stats[j].numeric === 0);
-  if (idCols.length !== 1) return;
-  const j = idCols[0];
+  const idCols = valueIdx.filter((j) => {
+    const s = statsAt(stats, j);
+    return s.nonBlank > 0 && s.identifier >= 0.9 * s.nonBlank && s.numeric === 0;
+  });
+  const j = idCols.length === 1 ? idCols[0] : undefined;
+  if (j === undefined) return;
   const timeCells = data.map((r) => timeCols.map((t) => r.fields[t] ?? '').join(' '));
   const timeRepeats = new Set(timeCells).size < timeCells.length;
-  if (!timeRepeats && stats[j].distinct.size < 2) return;
-  const numCols = valueIdx.filter((k) => k !== j && stats[k].nonBlank > 0 && stats[k].numeric >= 0.5 * stats[k].nonBlank);
-  const valueCandidate = numCols.find((k) => !(stats[k].quality === stats[k].nonBlank && f.qualityColumn === k));
+  if (!timeRepeats && statsAt(stats, j).distinct.size < 2) return;
+  const numCols = valueIdx.filter((k) => {
+    const s = statsAt(stats, k);
+    return k !== j && s.nonBlank > 0 && s.numeric >= 0.5 * s.nonBlank;
+  });
+  const valueCandidate = numCols.find((k) => {
+    const s = statsAt(stats, k);
+    return !(s.quality === s.nonBlank && f.qualityColumn === k);
+  });
   if (valueCandidate === undefined) return;
   f.layout = 'long';
   f.tagColumn = j;
@@ -177,7 +189,7 @@ export function wideColumns(h: HeaderFinding, c: ColumnEvidence): SniffNotes & {
   for (const j of c.valueIdx) {
     if (qd.columns.includes(j)) continue;
     const rawName = tagRec ? (tagRec.fields[j] ?? '').trim() : '';
-    if (rawName.length === 0 && c.stats[j].nonBlank === 0) continue; // trailing separator column
+    if (rawName.length === 0 && statsAt(c.stats, j).nonBlank === 0) continue; // trailing separator column
     const split = splitNameUnit(rawName);
     const unitCell = unitRec ? (unitRec.fields[j] ?? '').trim() : '';
     const descCell = descRec ? (descRec.fields[j] ?? '').trim() : '';

@@ -78,14 +78,14 @@ function countMarks(cells: string[]): MarkCounts {
       continue;
     }
     if (hasC) {
-      const parts = t.split(',');
-      if (parts.length > 2) n.thComma++;
-      else if (parts[1].length === 3 && parts[0].length >= 1 && parts[0] !== '0') n.comma3++;
+      const [whole = '', fraction = '', ...more] = t.split(',');
+      if (more.length > 0) n.thComma++;
+      else if (fraction.length === 3 && whole.length >= 1 && whole !== '0') n.comma3++;
       else n.comma++;
     } else if (hasP) {
-      const parts = t.split('.');
-      if (parts.length > 2) n.thPoint++;
-      else if (parts[1].length === 3 && parts[0].length >= 1 && parts[0] !== '0') n.point3++;
+      const [whole = '', fraction = '', ...more] = t.split('.');
+      if (more.length > 0) n.thPoint++;
+      else if (fraction.length === 3 && whole.length >= 1 && whole !== '0') n.point3++;
       else n.point++;
     }
   }
