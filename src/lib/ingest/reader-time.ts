@@ -4,6 +4,7 @@
  * counts the daylight-saving decisions for the read report.
  */
 import type { CsvRecord } from './csv';
+import { IngestError } from './errors';
 import { parseNumberAt } from './numbers';
 import type { LayoutProfile } from './profile';
 import { dayFromScan, daysFromCivil, daysInMonth, LocalClock, newScan, scanDateTime, scanTimeOnly, timeOfDayMs, wallMsFromScan, wallMsFromSerial } from './time';
@@ -69,7 +70,9 @@ export function createTimeStep(p: LayoutProfile, clock: LocalClock): (rec: CsvRe
   const scan = newScan();
   const scan2 = newScan();
   const order: DateOrder = p.time.dateOrder === 'ambiguous' ? 'dmy' : p.time.dateOrder;
-  const timeCols = p.time.columns;
+  // one time column, or a date column and a time-of-day column (c1)
+  const [c0, c1] = p.time.columns;
+  if (c0 === undefined) throw new IngestError('INVALID_PROFILE', 'The layout names no time column.');
   const kind = p.time.kind;
   const decCode = p.decimalMark.charCodeAt(0);
 
@@ -78,10 +81,9 @@ export function createTimeStep(p: LayoutProfile, clock: LocalClock): (rec: CsvRe
     if (!scanDateTime(text, 0, e, scan)) return NaN;
     let wall: number;
     let offset = scan.offsetMinutes;
-    if (timeCols.length === 2) {
-      const c1 = timeCols[1];
-      if (c1 >= rec.count) return NaN;
-      const t1 = rec.fields[c1];
+    if (c1 !== undefined) {
+      const t1 = c1 < rec.count ? rec.fields[c1] : undefined;
+      if (t1 === undefined) return NaN;
       if (scan.hasTime || !scanTimeOnly(t1, 0, t1.length, scan2)) return NaN;
       const day = dayFromScan(scan, order);
       const tod = timeOfDayMs(scan2);
@@ -100,12 +102,11 @@ export function createTimeStep(p: LayoutProfile, clock: LocalClock): (rec: CsvRe
   }
 
   return function timeOf(rec: CsvRecord): number {
-    const c0 = timeCols[0];
-    if (c0 >= rec.count) return NaN;
-    const text = rec.fields[c0];
+    const text = c0 < rec.count ? rec.fields[c0] : undefined;
+    if (text === undefined) return NaN;
     const e = text.length;
     if (kind === 'text') {
-      if (timeCols.length === 1) {
+      if (c1 === undefined) {
         const wall = fastIsoWallMs(text, 0, e);
         if (wall === wall) {
           const offset = fastIsoOffset;

@@ -134,7 +134,7 @@ export function createRowReader(profile: LayoutProfile, options: RowReaderOption
       const rec = current;
       if (!rec) return '';
       const col = p.wide ? valueCols[k] : p.long!.valueColumn;
-      return col < rec.count ? fieldText(rec, col) : '';
+      return col === undefined ? '' : fieldText(rec, col);
     },
     timeText(): string {
       const rec = current;
@@ -149,7 +149,10 @@ export function createRowReader(profile: LayoutProfile, options: RowReaderOption
 
 function isBlankRecord(rec: CsvRecord): boolean {
   const fields = rec.fields;
-  for (let i = 0; i < rec.count; i++) if (!isBlankAt(fields[i], 0, fields[i].length)) return false;
+  for (let i = 0; i < rec.count; i++) {
+    const f = fields[i];
+    if (f !== undefined && !isBlankAt(f, 0, f.length)) return false;
+  }
   return true;
 }
 
@@ -157,18 +160,19 @@ function isBlankRecord(rec: CsvRecord): boolean {
 function outsideWindowStep(p: LayoutProfile, valueCols: Int32Array, tags: TagTable, reject: Rejecter): (rec: CsvRecord, t: number) => void {
   return (rec, t) => {
     if (p.wide) {
-      for (let k = 0; k < valueCols.length; k++) {
-        const col = valueCols[k];
-        if (col < rec.count && !isBlankAt(rec.fields[col], 0, rec.fields[col].length)) reject(k, rec, col, t, 'outside-window');
-      }
+      valueCols.forEach((col, k) => {
+        const f = col < rec.count ? rec.fields[col] : undefined;
+        if (f !== undefined && !isBlankAt(f, 0, f.length)) reject(k, rec, col, t, 'outside-window');
+      });
       return;
     }
     const L = p.long!;
-    const name = L.tagColumn < rec.count ? rec.fields[L.tagColumn].trim() : '';
+    const name = fieldText(rec, L.tagColumn).trim();
     if (!name || badTagName(name)) return;
     const k = tags.indexOf(name);
     const vc = L.valueColumn;
-    if (vc < rec.count && !isBlankAt(rec.fields[vc], 0, rec.fields[vc].length)) reject(k, rec, vc, t, 'outside-window');
+    const v = vc < rec.count ? rec.fields[vc] : undefined;
+    if (v !== undefined && !isBlankAt(v, 0, v.length)) reject(k, rec, vc, t, 'outside-window');
   };
 }
 
@@ -220,6 +224,11 @@ export function previewRows(
   const rows: PreviewRow[] = [];
   const stop = {};
   const tags: string[] = [];
+  const tagName = (k: number): string => {
+    const tag = tags[k];
+    if (tag === undefined) throw new IngestError('READER_FAULT', `The preview got a value of tag ${k} before the tag itself.`);
+    return tag;
+  };
   const pushRow = (row: PreviewRow) => {
     rows.push(row);
     if (rows.length >= n) throw stop;
@@ -237,12 +246,11 @@ export function previewRows(
         tags[k] = tag;
       },
       addRow(timeMs, values, status) {
-        const cells: PreviewCell[] = [];
-        for (let k = 0; k < values.length; k++) cells.push(cell(k, tags[k], values[k], status[k]));
+        const cells = Array.from(values, (v, k) => cell(k, tagName(k), v, status[k] ?? CellStatus.Blank));
         pushRow({ line: reader.line, timeIso: isoUtc(timeMs), timeText: reader.timeText(), timeChoices: null, cells });
       },
       addSample(k, timeMs, value, st) {
-        pushRow({ line: reader.line, timeIso: isoUtc(timeMs), timeText: reader.timeText(), timeChoices: null, cells: [cell(k, tags[k], value, st)] });
+        pushRow({ line: reader.line, timeIso: isoUtc(timeMs), timeText: reader.timeText(), timeChoices: null, cells: [cell(k, tagName(k), value, st)] });
       },
     },
     onTimeError: (line, text) => pushRow({ line, timeIso: null, timeText: text, timeChoices: null, cells: [] }),
