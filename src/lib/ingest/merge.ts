@@ -10,6 +10,7 @@
  * recompute plus the neighbouring samples just outside them (so segments across the hour boundaries
  * are drawn), and keep only the hours asked for.
  */
+import { IngestError } from './errors';
 import { createHourAggregator } from './aggregate';
 import type { TagHour, TagOptions } from './aggregate';
 import { CellStatus } from './reader';
@@ -82,14 +83,20 @@ export function aggregateSamples(input: readonly Sample[] | readonly SampleSourc
     const k = agg.tagIndex(tag);
     // merge the sources by time, keeping each source's own order: a sample stored earlier than the
     // one before it stays out of order and is dropped and counted, as in the streaming pass
-    const heads = lists.map(() => 0);
+    const cursors = lists.map((list) => ({ list, next: 0 }));
     for (;;) {
-      let best = -1;
-      for (let i = 0; i < lists.length; i++) {
-        if (heads[i] < lists[i].length && (best < 0 || lists[i][heads[i]].timeMs < lists[best][heads[best]].timeMs)) best = i;
+      // the earliest next sample; on a tie the source met first (highest priority)
+      let best: { list: Sample[]; next: number } | undefined;
+      let s: Sample | undefined;
+      for (const c of cursors) {
+        const head = c.list[c.next];
+        if (head !== undefined && (s === undefined || head.timeMs < s.timeMs)) {
+          best = c;
+          s = head;
+        }
       }
-      if (best < 0) break;
-      const s = lists[best][heads[best]++];
+      if (best === undefined || s === undefined) break;
+      best.next++;
       const st = statusOf(s);
       agg.addSample(k, s.timeMs, st === CellStatus.Ok || st === CellStatus.Uncertain ? (s.value as number) : NaN, st);
     }
@@ -168,6 +175,7 @@ export function createSampleEmitter(onSample: (sample: Sample) => void, options:
   const emit = (k: number, timeMs: number, value: number, status: number) => {
     if (status === CellStatus.Blank) return;
     const tag = tags[k];
+    if (tag === undefined) throw new IngestError('READER_FAULT', `A sample of tag ${k} came before the tag was announced.`);
     if (status === CellStatus.Text || status === CellStatus.BadQuality) {
       const raw = options.cellText ? options.cellText(k).trim() : '?';
       if (status === CellStatus.Text) onSample({ tag, timeMs, value: null, raw });
@@ -181,7 +189,8 @@ export function createSampleEmitter(onSample: (sample: Sample) => void, options:
       tags[k] = tag;
     },
     addRow(timeMs, values, status) {
-      for (let k = 0; k < values.length; k++) emit(k, timeMs, values[k], status[k]);
+      // a value without a status gives no sample, as a blank cell
+      values.forEach((v, k) => emit(k, timeMs, v, status[k] ?? CellStatus.Blank));
     },
     addSample: emit,
   };
