@@ -10,8 +10,8 @@ const MASK = 0xffffffffffffffffn;
 export function fnv1a64Hex(text: string): string {
   const bytes = new TextEncoder().encode(text);
   let h = OFFSET_BASIS;
-  for (let i = 0; i < bytes.length; i++) {
-    h ^= BigInt(bytes[i]);
+  for (const byte of bytes) {
+    h ^= BigInt(byte);
     h = (h * PRIME) & MASK;
   }
   return h.toString(16).padStart(16, '0');

@@ -69,13 +69,15 @@ function figures(text: string, profile: LayoutProfile, timeZone: string): Sample
   }
   const steps: number[] = [];
   let backwards = 0;
-  for (let i = 1; i < times.length; i++) {
-    const d = times[i] - times[i - 1];
+  let previous = NaN;
+  for (const t of times) {
+    const d = t - previous; // NaN for the first time: neither backwards nor a step
     if (d < 0) backwards++;
     else if (d > 0) steps.push(d);
+    previous = t;
   }
   const sorted = [...steps].sort((a, b) => a - b);
-  const median = sorted.length ? sorted[Math.floor(sorted.length / 2)] : 0;
+  const median = sorted[Math.floor(sorted.length / 2)] ?? 0;
   const jumps = median > 0 ? steps.filter((d) => d > 20 * median).length : 0;
   return { numbers, texts, unreadableTimes, backwards, jumps, rows: times.length + unreadableTimes };
 }

@@ -107,11 +107,12 @@ export function valueLimitsFor(unitText: string | null | undefined, quantity?: Q
       const tempScale = registry.temperature.find((e) => e.unit === unit && e.offset !== 0);
       if (tempScale) candidates = ['temperature'];
       const ranges = candidates.map((q) => rangeIn(q, unit)).filter((r): r is ValueLimits => r !== null);
-      if (ranges.length === 1) out = ranges[0];
-      else if (ranges.length > 1) {
+      const [first] = ranges;
+      if (ranges.length === 1 && first) out = first;
+      else if (ranges.length > 1 && first) {
         const min = Math.min(...ranges.map((r) => r.min));
         const max = Math.max(...ranges.map((r) => r.max));
-        out = { min, max, why: ranges.find((r) => r.min === min)?.why ?? ranges[0].why };
+        out = { min, max, why: ranges.find((r) => r.min === min)?.why ?? first.why };
       }
     }
   }

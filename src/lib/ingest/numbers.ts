@@ -55,7 +55,7 @@ export function parseNumberAt(text: string, start: number, end: number, decimalC
         }
         scale = i - fracStart;
         if (i === end && scale > 0) {
-          const v = m / POW10[scale];
+          const v = m / POW10[scale]!; // scale < 15: the cell is at most 15 characters
           return neg ? -v : v;
         }
       }
@@ -133,7 +133,7 @@ function parseGeneral(text: string, start: number, end: number, decimalCode: num
   }
   let value: number;
   if (exact && scale >= -22 && scale <= 22) {
-    value = scale < 0 ? mantissa / POW10[-scale] : mantissa * POW10[scale];
+    value = scale < 0 ? mantissa / POW10[-scale]! : mantissa * POW10[scale]!; // |scale| <= 22 checked above
   } else {
     value = slowParse(text, start, end, decimalCode, thousandsCode);
     return Number.isFinite(value) ? value : NaN; // sign handled inside
