@@ -107,14 +107,15 @@ export function describeUnit(text: string): UnitDescription {
   if (hit) return hit;
   let t = text.normalize('NFKC').trim();
   // Strip one pair of brackets around the whole text: "[bar]", "(kg/h)".
-  const wrapped = /^[[(](.*)[\])]$/.exec(t);
-  if (wrapped && !/[()[\]]/.test(wrapped[1])) t = wrapped[1].trim();
+  const inner = /^[[(](.*)[\])]$/.exec(t)?.[1];
+  if (inner !== undefined && !/[()[\]]/.test(inner)) t = inner.trim();
   let basis: GasBasis | undefined;
   const b = BASIS_RE.exec(t);
-  if (b) {
-    const word = b[2].toLowerCase();
-    basis = word === 'dry' || word === 'db' ? 'dry' : 'wet';
-    t = (t.slice(0, b.index) + b[1] + t.slice(b.index + b[0].length)).replace(/[\s,;(]+$/, '').replace(/\(\s*\)/, '').trim();
+  const [match, lead, word] = b ?? [];
+  if (b && match !== undefined && lead !== undefined && word !== undefined) {
+    const w = word.toLowerCase();
+    basis = w === 'dry' || w === 'db' ? 'dry' : 'wet';
+    t = (t.slice(0, b.index) + lead + t.slice(b.index + match.length)).replace(/[\s,;(]+$/, '').replace(/\(\s*\)/, '').trim();
   } else if (/^pp[mb]vd$/i.test(t)) {
     basis = 'dry';
   }
@@ -148,18 +149,22 @@ export function parseUnit(text: string): string | null {
 }
 
 function editDistance(a: string, b: string): number {
-  const prev = new Array<number>(b.length + 1);
-  for (let j = 0; j <= b.length; j++) prev[j] = j;
+  // one row of the table: prev[j] is the distance of a[0, i) to b[0, j)
+  const prev = Array.from({ length: b.length + 1 }, (_, j) => j);
+  let last = b.length; // distance of a[0, i) to all of b
   for (let i = 1; i <= a.length; i++) {
-    let diag = prev[0];
+    let diag = i - 1; // prev[0] of the row before
+    let left = i; // prev[j - 1] of this row
     prev[0] = i;
     for (let j = 1; j <= b.length; j++) {
-      const up = prev[j];
-      prev[j] = Math.min(prev[j] + 1, prev[j - 1] + 1, diag + (a[i - 1] === b[j - 1] ? 0 : 1));
+      const up = prev[j]!; // j <= b.length: inside the row
+      left = Math.min(up + 1, left + 1, diag + (a[i - 1] === b[j - 1] ? 0 : 1));
+      prev[j] = left;
       diag = up;
     }
+    last = left;
   }
-  return prev[b.length];
+  return last;
 }
 
 /**
