@@ -33,13 +33,22 @@ export function canonicalJson(value: unknown): string {
   throw new TypeError(`canonicalJson: cannot encode a ${typeof value}`);
 }
 
-/** Node's createHash when the runtime is Node (process.getBuiltinModule, synchronous), else null. */
-type NodeCrypto = { createHash(alg: 'sha256'): { update(b: Uint8Array): { digest(enc: 'hex'): string } } };
-const nodeCrypto: NodeCrypto | null = (() => {
+/**
+ * Node's SHA-256 of bytes as hex when the runtime is Node (process.getBuiltinModule, synchronous): the
+ * one-shot crypto.hash where there is one (no Hash object per message), else createHash; else null.
+ */
+type NodeCrypto = {
+  hash?: (alg: 'sha256', data: Uint8Array, enc: 'hex') => string;
+  createHash(alg: 'sha256'): { update(b: Uint8Array): { digest(enc: 'hex'): string } };
+};
+const nodeSha256: ((b: Uint8Array) => string) | null = (() => {
   try {
     const p = (globalThis as { process?: { getBuiltinModule?: (id: string) => unknown } }).process;
     const c = p?.getBuiltinModule?.('node:crypto') as NodeCrypto | undefined;
-    return c && typeof c.createHash === 'function' ? c : null;
+    if (!c || typeof c.createHash !== 'function') return null;
+    const oneShot = c.hash;
+    if (typeof oneShot === 'function') return (b) => oneShot('sha256', b, 'hex');
+    return (b) => c.createHash('sha256').update(b).digest('hex');
   } catch {
     return null;
   }
@@ -78,9 +87,14 @@ export function sha256Hex(text: string): string {
 
 /** SHA-256 (Node's crypto, else @noble/hashes) of the first len bytes of the shared buffer, as hex. */
 function digestBuffer(len: number): string {
-  if (nodeCrypto) return nodeCrypto.createHash('sha256').update(buf.subarray(0, len)).digest('hex');
+  if (nodeSha256) return nodeSha256(buf.subarray(0, len));
   return bytesToHex(sha256(buf.subarray(0, len)));
 }
+
+/** A number's binary64 bytes through a typed-array view where the platform is little-endian (as the message wants). */
+const F64 = new Float64Array(1);
+const F64_BYTES = new Uint8Array(F64.buffer);
+const LITTLE_ENDIAN = ((F64[0] = 1), F64_BYTES[7] === 0x3f);
 
 /**
  * Builds a byte message for SHA-256 from texts and numbers without turning numbers into text: a number
@@ -129,8 +143,13 @@ export class ByteHasher {
       return this;
     }
     buf[this.len++] = 1;
-    this.view.setFloat64(0, v === 0 ? 0 : v, true);
-    for (let i = 0; i < 8; i++) buf[this.len++] = this.view.getUint8(i);
+    if (LITTLE_ENDIAN) {
+      F64[0] = v === 0 ? 0 : v;
+      for (let i = 0; i < 8; i++) buf[this.len++] = F64_BYTES[i]!;
+    } else {
+      this.view.setFloat64(0, v === 0 ? 0 : v, true);
+      for (let i = 0; i < 8; i++) buf[this.len++] = this.view.getUint8(i);
+    }
     return this;
   }
   /** A small whole number (0 .. 2^32 - 1) as 4 bytes; anything else as num(). */
