@@ -34,6 +34,7 @@ import { keepPlan, planHour, type HourPlan } from './hour-plan';
 import { linkSetOf, unitHourHashes, type ComputeOptions, type LinkSet } from './linkset';
 import { cachedConverter, mapUnitHour, unitParameters, type MappedUnit } from './map';
 import { linkConverter } from './map-port';
+import { clearlySteady } from './steady-fast';
 import type { EngineLink, EngineReason, TagHour, UnitHourInput, UnitHourResult } from './types';
 
 export { ENGINE_VERSION, ENERGY_CLOSURE_TOLERANCE, ENTROPY_CHECK_TOLERANCE, SPREAD_O2_ABS, SPREAD_X_ABS } from './constants';
@@ -131,8 +132,12 @@ function plannedHour(input: UnitHourInput, options: ComputeOptions, withU: boole
   const notes: string[] = [];
   const set = linkSetOf(input);
   const mapped = plan.mapped;
-  const tags = keyTagStats(input, set, load);
   const checks = checkBalance(run, mapped, params, notes);
+  // Most hours are steady: the quick test says so without the statistics objects and words of the full one.
+  if (run.computed.length === 0 && clearlySteady(set, input.tagHours, input.site.p_atm_Pa, checks.closures, load, mapped.minLoad, params)) {
+    return resultOf(input, options, dead, load, mapped.load.unit, run, 'steady', [], () => fullHour(input, options, withU, dead).detail);
+  }
+  const tags = keyTagStats(input, set, load);
   const { state, reasons } = hourState({ set, tags, closures: checks.closures, mapped, load, minLoad: mapped.minLoad, problems: [], computed: run.computed, params, notes });
   return resultOf(input, options, dead, load, mapped.load.unit, run, state, reasons, () => fullHour(input, options, withU, dead).detail);
 }

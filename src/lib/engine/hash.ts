@@ -1,6 +1,8 @@
 /**
- * Hashing of the engine's inputs, pure (no Node, no Web Crypto): canonical JSON of plain data, and
- * SHA-256 of its UTF-8 bytes by @noble/hashes (audited, no dependencies, runs in Node and browsers).
+ * Hashing of the engine's inputs: canonical JSON of plain data, and SHA-256 of its UTF-8 bytes, by
+ * Node's own crypto (OpenSSL) where the module runs under Node, else by @noble/hashes (audited, no
+ * dependencies, runs in browsers). Both are the same SHA-256 (FIPS 180-4): the digests are identical;
+ * Node's is 4-7 times faster on the engine's messages of a few hundred bytes.
  * The same inputs always give the same text and so the same hash; the engine stores it with each unit
  * hour and rewrites a row only when it changes.
  *
@@ -30,6 +32,27 @@ export function canonicalJson(value: unknown): string {
   }
   throw new TypeError(`canonicalJson: cannot encode a ${typeof value}`);
 }
+
+/**
+ * Node's SHA-256 of bytes as hex when the runtime is Node (process.getBuiltinModule, synchronous): the
+ * one-shot crypto.hash where there is one (no Hash object per message), else createHash; else null.
+ */
+type NodeCrypto = {
+  hash?: (alg: 'sha256', data: Uint8Array, enc: 'hex') => string;
+  createHash(alg: 'sha256'): { update(b: Uint8Array): { digest(enc: 'hex'): string } };
+};
+const nodeSha256: ((b: Uint8Array) => string) | null = (() => {
+  try {
+    const p = (globalThis as { process?: { getBuiltinModule?: (id: string) => unknown } }).process;
+    const c = p?.getBuiltinModule?.('node:crypto') as NodeCrypto | undefined;
+    if (!c || typeof c.createHash !== 'function') return null;
+    const oneShot = c.hash;
+    if (typeof oneShot === 'function') return (b) => oneShot('sha256', b, 'hex');
+    return (b) => c.createHash('sha256').update(b).digest('hex');
+  } catch {
+    return null;
+  }
+})();
 
 const ENCODER = new TextEncoder();
 let buf = new Uint8Array(4096);
@@ -62,10 +85,16 @@ export function sha256Hex(text: string): string {
   return digestBuffer(utf8Into(text));
 }
 
-/** SHA-256 (@noble/hashes) of the first len bytes of the shared buffer, as hex. */
+/** SHA-256 (Node's crypto, else @noble/hashes) of the first len bytes of the shared buffer, as hex. */
 function digestBuffer(len: number): string {
+  if (nodeSha256) return nodeSha256(buf.subarray(0, len));
   return bytesToHex(sha256(buf.subarray(0, len)));
 }
+
+/** A number's binary64 bytes through a typed-array view where the platform is little-endian (as the message wants). */
+const F64 = new Float64Array(1);
+const F64_BYTES = new Uint8Array(F64.buffer);
+const LITTLE_ENDIAN = ((F64[0] = 1), F64_BYTES[7] === 0x3f);
 
 /**
  * Builds a byte message for SHA-256 from texts and numbers without turning numbers into text: a number
@@ -114,8 +143,13 @@ export class ByteHasher {
       return this;
     }
     buf[this.len++] = 1;
-    this.view.setFloat64(0, v === 0 ? 0 : v, true);
-    for (let i = 0; i < 8; i++) buf[this.len++] = this.view.getUint8(i);
+    if (LITTLE_ENDIAN) {
+      F64[0] = v === 0 ? 0 : v;
+      for (let i = 0; i < 8; i++) buf[this.len++] = F64_BYTES[i]!;
+    } else {
+      this.view.setFloat64(0, v === 0 ? 0 : v, true);
+      for (let i = 0; i < 8; i++) buf[this.len++] = this.view.getUint8(i);
+    }
     return this;
   }
   /** A small whole number (0 .. 2^32 - 1) as 4 bytes; anything else as num(). */

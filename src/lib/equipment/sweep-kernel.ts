@@ -50,7 +50,11 @@ interface KPort {
   v0: number;
   o0: number;
   st0: PortState | null;
+  /** a moved water (p, T) state, overwritten by the next move */
+  scratch?: Mutable<PortState>;
 }
+
+type Mutable<T> = { -readonly [K in keyof T]: T[K] };
 
 /** A compiled kernel: set the hour's point, then evaluate moved vectors. */
 export interface SweepKernel {
@@ -206,11 +210,18 @@ class Kernel implements SweepKernel {
    * without its near-saturation flag (the flag is the point's; the sweep reads no flags): one water.pt call.
    */
   private waterPT(p: KPort, pp: number, T: number): PortState {
-    const st = water.pt(pp, T);
+    // The port's scratch state: a moved state lives for one evaluate (states[] is refilled each time).
+    const st = (p.scratch ??= { p: NaN, T: NaN, h: NaN, s: NaN, x: null, phase: 'liquid', psi: NaN, ePh: NaN, eCh: null, h0: NaN, velocity_m_per_s: p.V, elevation_m: p.z, flags: NO_FLAGS });
+    st.phase = water.hs_pt(pp, T, st);
     const dv = p.fluid.deadValues(this.env);
-    const ePh = flowExergy({ h: st.h, s: st.s }, dv.dead);
-    const psi = ePh + 0.5 * p.V * p.V + G_m_per_s2 * p.z;
-    return { p: pp, T, h: st.h, s: st.s, x: null, phase: st.phase, psi, ePh, eCh: dv.eCh, h0: dv.dead.h0, velocity_m_per_s: p.V, elevation_m: p.z, flags: NO_FLAGS };
+    const ePh = flowExergy(st, dv.dead);
+    st.p = pp;
+    st.T = T;
+    st.ePh = ePh;
+    st.psi = ePh + 0.5 * p.V * p.V + G_m_per_s2 * p.z;
+    st.eCh = dv.eCh;
+    st.h0 = dv.dead.h0;
+    return st;
   }
 
   evaluate(x: ArrayLike<number>, out: Float64Array, o: number): void {

@@ -52,6 +52,12 @@ function headline(b: UnitBalance, out: Float64Array, o: number): void {
   out[o + 4] = b.efficiency ?? NaN;
 }
 
+const Y0 = new Float64Array(N_OUT);
+const YS = new Float64Array(2 * N_OUT);
+const VAR = new Float64Array(N_OUT);
+/** the moved vector by its length (the full balance checks the length) */
+const XS: Float64Array[] = [];
+
 const kernels = new WeakMap<CompiledUnit, SweepKernel | null>();
 /** The sweep kernel of a compiled unit (./sweep-kernel.ts), kept with it; null when not covered. */
 function kernelOf(c: CompiledUnit): SweepKernel | null {
@@ -104,11 +110,13 @@ export function unitHourWithUncertainty(
   const balance = c.evaluate(x);
   let kernel = options.fullSweep ? null : kernelOf(c);
   if (kernel && !kernel.setPoint(x, balance)) kernel = null;
-  const y0 = new Float64Array(N_OUT);
+  // Scratch kept between calls (nothing here calls back into this function): the moved vector and outputs.
+  const y0 = Y0;
   headline(balance, y0, 0);
-  const xs = Float64Array.from(x as ArrayLike<number>);
-  const ys = new Float64Array(2 * N_OUT);
-  const variance = new Float64Array(N_OUT);
+  const xs = (XS[n] ??= new Float64Array(n));
+  for (let i = 0; i < n; i++) xs[i] = x[i]!;
+  const ys = YS;
+  const variance = VAR.fill(0);
   const sEff = new Float64Array(n);
   const sD = new Float64Array(n);
   const unavailable: string[] = [];

@@ -546,6 +546,17 @@ function s_pt(p_Pa: number, T_K: number): number {
   propsPT(p_Pa, T_K);
   return OUT[1];
 }
+/**
+ * Specific enthalpy [J/kg] and entropy [J/(kg K)] at p [Pa], T [K] into `out`, without allocating: the
+ * same numbers as `pt` (one evaluation, ranges and errors as `pt`); returns the phase as `pt` gives it.
+ */
+function hs_pt(p_Pa: number, T_K: number, out: { h: number; s: number }): WaterPhase {
+  checkPT(p_Pa, T_K, 'water.pt');
+  const r = propsPT(p_Pa, T_K);
+  out.h = OUT[0];
+  out.s = OUT[1];
+  return phaseOf(r, p_Pa, T_K, OUT[2]);
+}
 /** Specific volume [m3/kg] at p [Pa], T [K] without allocating (as `pt`). */
 function v_pt(p_Pa: number, T_K: number): number {
   checkPT(p_Pa, T_K, 'water.v_pt');
@@ -585,5 +596,5 @@ function h_ps(p_Pa: number, s_J_per_kgK: number): number {
  */
 export const water = {
   pt, ph, ps, px, tx, psat, tsat, region3,
-  h_pt, s_pt, v_pt, cp_pt, T_ph, s_ph, T_ps, h_ps,
+  h_pt, s_pt, hs_pt, v_pt, cp_pt, T_ph, s_ph, T_ps, h_ps,
 } as const;
