@@ -11,7 +11,7 @@
  */
 import { spawn, spawnSync } from 'node:child_process';
 import { closeSync, createReadStream, mkdtempSync, openSync, readFileSync, readSync, rmSync, statSync, writeSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { eq } from 'drizzle-orm';
 import { createFileIngest, sniffLayout } from '~/lib/ingest';
@@ -114,7 +114,10 @@ async function endToEnd(path: string) {
     .values({ siteId: site!.id, fingerprint: sniffed.fingerprint, name: 'bench layout', profile: { ...sniffed, questions: [] } });
   const cpu0 = cpuSnapshot(await cpuGroups(worker.pid!));
   const t0 = performance.now();
-  const { uploadId } = await receiveApiUpload(site!.id, 'bench.csv', createReadStream(path, { highWaterMark: 1024 * 1024 }), {});
+  // The size is passed as the files endpoint passes a request's Content-Length (one streamed PUT);
+  // BENCH_INGEST_MULTIPART=1 leaves it out, as for a chunked request (multipart upload).
+  const size = process.env.BENCH_INGEST_MULTIPART === '1' ? undefined : statSync(path).size;
+  const { uploadId } = await receiveApiUpload(site!.id, 'bench.csv', createReadStream(path, { highWaterMark: 1024 * 1024 }), {}, size);
   const uploadedS = (performance.now() - t0) / 1000;
   let status = '';
   let peak = 0;
@@ -143,6 +146,7 @@ const file = join(dir, 'export.csv');
 try {
   generate(file);
   const mb = statSync(file).size / 1e6;
+  console.log(`load_average_before ${loadavg().map((x) => x.toFixed(2)).join(' ')}`);
   await inProcess(file); // warm-up
   const ours = await inProcess(file);
   // BENCH_INGEST_PANDAS=0 leaves the pandas comparison out (when only the end-to-end part is of interest).
@@ -160,6 +164,7 @@ try {
     console.log(`end_to_end_vs_in_process ${(e2e.seconds / ours.seconds).toFixed(2)}`);
     console.log(`worker_peak_rss_mb ${e2e.peakMb.toFixed(0)}`);
     const st = await bytesPerRow('tag_hours');
+    console.log(`load_average_after ${loadavg().map((x) => x.toFixed(2)).join(' ')}`);
     console.log(`tag_hour_bytes ${st.perRow.toFixed(1)}  (${st.rows} rows, ${(st.bytes / 1e6).toFixed(1)} MB with indexes; target <= 120)`);
   } else {
     console.log('end_to_end_s skipped: no DATABASE_URL (run npm run bench:ingest, which starts the services)');

@@ -1,6 +1,5 @@
 import { createHash, randomUUID } from 'node:crypto';
 import { Transform, type Readable } from 'node:stream';
-import { Upload } from '@aws-sdk/lib-storage';
 import { and, desc, eq, inArray, ne, sql } from 'drizzle-orm';
 import { INGEST_ERROR_CATALOGUE } from '~/lib/ingest/errors';
 import Papa from 'papaparse';
@@ -11,7 +10,7 @@ import { db } from '../db/client';
 import { AppError } from '../errors';
 import { READ_STATUSES, layoutProfiles, sites, uploadRejects, uploads, type UploadStatus } from '../db/schema';
 import { queue } from '../queue';
-import { bucket, objectHead, objectSize, presignPut, s3 } from '../storage';
+import { objectHead, objectSize, presignPut, putRawStream } from '../storage';
 
 /** Largest file accepted [bytes]: 4 GiB (a year of one-minute data for a few hundred tags fits easily). */
 export const MAX_UPLOAD_BYTES = 4 * 1024 ** 3;
@@ -176,23 +175,39 @@ export async function completeBrowserUpload(uploadId: string) {
 class HashCounter extends Transform {
   readonly hash = createHash('sha256');
   bytes = 0;
-  constructor(private readonly limit: number) {
+  constructor(
+    private readonly limit: number,
+    private readonly declared?: number,
+  ) {
     super();
   }
   override _transform(chunk: Buffer, _enc: BufferEncoding, cb: (err?: Error | null, data?: Buffer) => void) {
     this.bytes += chunk.length;
     if (this.bytes > this.limit) return cb(new AppError('PAYLOAD_TOO_LARGE', 'Files above 4 GiB are not accepted: split the export.'));
+    if (this.declared !== undefined && this.bytes > this.declared) {
+      return cb(new AppError('VALIDATION_FAILED', `The file holds more than the ${this.declared} bytes its Content-Length declared, so it was not kept. Send it again.`));
+    }
     this.hash.update(chunk);
     cb(null, chunk);
+  }
+  override _flush(cb: (err?: Error | null) => void) {
+    if (this.declared !== undefined && this.bytes !== this.declared) {
+      return cb(new AppError('VALIDATION_FAILED', `The file ended after ${this.bytes} of the ${this.declared} bytes its Content-Length declared, so it was not kept. Send it again.`));
+    }
+    cb();
   }
 }
 
 /**
- * A machine upload (scheduled export with a site API token): the body streams into the store as a
- * multipart upload while it is hashed; nothing is held in memory. Answers with the upload id.
+ * A machine upload (scheduled export with a site API token): the body streams into the store while
+ * it is hashed; nothing is held in memory beyond a few parts. With `sizeBytes` (the request's
+ * Content-Length) it goes in as one streamed PUT, otherwise as a multipart upload (storage.ts).
+ * Answers with the upload id.
  */
-export async function receiveApiUpload(siteId: string, fileName: string, body: Readable, by: { apiTokenId?: string; userId?: string }) {
+export async function receiveApiUpload(siteId: string, fileName: string, body: Readable, by: { apiTokenId?: string; userId?: string }, sizeBytes?: number) {
   fileName = checkFileName(fileName);
+  if (sizeBytes !== undefined && !(Number.isSafeInteger(sizeBytes) && sizeBytes >= 0)) sizeBytes = undefined;
+  if (sizeBytes !== undefined && sizeBytes > MAX_UPLOAD_BYTES) throw new AppError('PAYLOAD_TOO_LARGE', 'Files above 4 GiB are not accepted: split the export.');
   await requireSite(siteId);
   const id = randomUUID();
   const objectKey = objectKeyFor(siteId, id, fileName);
@@ -200,15 +215,11 @@ export async function receiveApiUpload(siteId: string, fileName: string, body: R
     .insert(uploads)
     .values({ id, siteId, fileName, objectKey, source: 'api', apiTokenId: by.apiTokenId ?? null, uploadedBy: by.userId ?? null, status: 'awaiting-file' })
     .returning({ createdAt: uploads.createdAt });
-  const counter = new HashCounter(MAX_UPLOAD_BYTES);
+  const counter = new HashCounter(MAX_UPLOAD_BYTES, sizeBytes);
   try {
-    const upload = new Upload({
-      client: s3(),
-      params: { Bucket: bucket(), Key: objectKey, Body: body.pipe(counter), ContentType: RAW_CONTENT_TYPE },
-      queueSize: 4,
-      partSize: 8 * 1024 * 1024,
-    });
-    await upload.done();
+    // An error of the body (a broken connection) stops the counter, and so the store's request.
+    body.on('error', (err) => counter.destroy(err));
+    await putRawStream(objectKey, body.pipe(counter), RAW_CONTENT_TYPE, sizeBytes);
   } catch (err) {
     const reason = err instanceof AppError ? err.message : `The file did not arrive whole: ${(err as Error).message}`;
     await db().update(uploads).set({ status: 'failed', failureReason: reason, finishedAt: sql`clock_timestamp()` }).where(eq(uploads.id, id));

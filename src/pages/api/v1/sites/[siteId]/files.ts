@@ -32,7 +32,10 @@ export const POST = endpoint(
     if (!request.body) throw new AppError('VALIDATION_FAILED', 'Send the file as the request body.');
     const name = query.name ?? request.headers.get('x-file-name') ?? `export-${new Date().toISOString().slice(0, 19).replace(/:/g, '')}.csv`;
     const body = Readable.fromWeb(request.body as unknown as WebReadableStream<Uint8Array>);
-    const out = await receiveApiUpload(siteId, name, body, locals.apiToken ? { apiTokenId: locals.apiToken.id } : { userId: locals.user!.id });
+    // A declared length lets the body stream into the store as one PUT (services/uploads.ts).
+    const length = request.headers.get('content-length');
+    const sizeBytes = length !== null && /^\d{1,12}$/.test(length) ? Number(length) : undefined;
+    const out = await receiveApiUpload(siteId, name, body, locals.apiToken ? { apiTokenId: locals.apiToken.id } : { userId: locals.user!.id }, sizeBytes);
     return answer(FileAccepted, out, { status: 202 });
   },
 );
