@@ -84,13 +84,30 @@ export function cachedUnitWithSite(unitId: string) {
 
 /** A unit's hours over a period, with its expected band, context spans and notices. */
 export async function unitTrend(unitId: string, q: PeriodQuery, nowMs?: number): Promise<TrendAnswer> {
+  const { site, period, opened, now, body } = await trendParts(unitId, q, nowMs);
+  return { ...(await body()), opened, freshness: await siteFreshness(site, now) };
+}
+
+/**
+ * unitTrend's answer as JSON text (the trend endpoint sends it): the text of everything but the
+ * freshness note and the period's choice is kept in the read cache too, so a request writes only
+ * those two (JSON.stringify of a week's answer was a good part of a request's CPU).
+ */
+export async function unitTrendJson(unitId: string, q: PeriodQuery, nowMs?: number): Promise<string> {
+  const { unit, site, period, opened, now, body } = await trendParts(unitId, q, nowMs);
+  const text = await cachedHours(`trend-json:${unit.id}:${JSON.stringify(period)}`, async () => JSON.stringify(await body()), { large: true });
+  const head = JSON.stringify({ opened, freshness: await siteFreshness(site, now) });
+  return `${head.slice(0, -1)},${text.slice(1)}`;
+}
+
+async function trendParts(unitId: string, q: PeriodQuery, nowMs?: number) {
   const { unit, site } = await cachedUnitWithSite(unitId);
   const now = nowMs ?? Date.now();
   const { period, opened } = await periodOrError(q, site.timeZone, () => dataSpan(site.id, unit.id, now), now);
   // Everything but the freshness note (which moves with the clock) depends only on stored rows that
   // notify the read cache at every change: one computation per unit and period while nothing changes.
-  const body = await cachedHours(`trend:${unit.id}:${JSON.stringify(period)}`, () => trendBody(unit, site, period), { large: true });
-  return { ...body, opened, freshness: await siteFreshness(site, now) };
+  const body = () => cachedHours(`trend:${unit.id}:${JSON.stringify(period)}`, () => trendBody(unit, site, period), { large: true });
+  return { unit, site, period, opened, now, body };
 }
 
 async function trendBody(
