@@ -116,7 +116,7 @@ run_mode() {
   log "building the web app"
   npx astro build >"$ROOT/.data/build.log" 2>&1 || { tail -30 "$ROOT/.data/build.log"; die "astro build failed (log above)."; }
   spawn worker "$ROOT/.data/worker.log" node --import tsx src/worker/main.ts
-  spawn web "$ROOT/.data/web.log" node --import tsx scripts/serve.ts
+  spawn web "$ROOT/.data/web.log" node scripts/serve.mjs
   wait_port 4321 "The web server" "$ROOT/.data/web.log"
   cat <<EOF
 
@@ -160,7 +160,7 @@ test_mode() {
   if [ -f dist/server/entry.mjs ]; then
     node --import tsx scripts/seed.ts
     spawn worker "$dir/worker.log" node --import tsx src/worker/main.ts
-    SIGN_IN_LIMIT_PER_MINUTE=600 spawn web "$dir/web.log" node --import tsx scripts/serve.ts
+    SIGN_IN_LIMIT_PER_MINUTE=600 spawn web "$dir/web.log" node scripts/serve.mjs
     wait_port "$PORT" "The web server" "$dir/web.log"
     log "Playwright in Chromium"
     PLAYWRIGHT_JSON_OUTPUT_NAME="$dir/playwright.json" npx playwright test --reporter=list,json || failed=1
@@ -220,7 +220,7 @@ bench_web_mode() {
   fi
   # The worker's jobs after loading (drift checks, engine settles) are done; it stays up as in production.
   # 50 people sign in within seconds from one address: the per-address sign-in limit is raised for the bench.
-  SIGN_IN_LIMIT_PER_MINUTE=120 spawn web "$dir/web.log" node --import tsx scripts/serve.ts
+  SIGN_IN_LIMIT_PER_MINUTE=120 spawn web "$dir/web.log" node scripts/serve.mjs
   wait_port "$PORT" "The web server" "$dir/web.log"
   node --import tsx bench/web.ts
 }

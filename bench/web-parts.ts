@@ -7,8 +7,12 @@
  *   node --import tsx bench/web-parts.ts   (DATABASE_URL, BETTER_AUTH_SECRET, PUBLIC_BASE_URL of a
  *   bench:web run; the server must be up and the bench's people made, i.e. after one bench:web run)
  *
- * Prints the median and p90 of BENCH_PARTS_ROUNDS (default 30) rounds per part, in ms.
+ * Prints the median and p90 of BENCH_PARTS_ROUNDS (default 30) rounds per part, in ms. With
+ * BENCH_WEB_PID (the server's process id) it also prints the server's CPU time per request of each
+ * route over HTTP (user + system, from /proc/PID/stat): unlike wall time, it stays the same under
+ * load, and 50 connections on 2 cores with p95 < 300 ms need it to be a few ms.
  */
+import { readFileSync } from 'node:fs';
 import { asc, eq } from 'drizzle-orm';
 import type pg from 'pg';
 import { closeDb, db, pgPool } from '~/server/db/client';
@@ -74,16 +78,32 @@ async function cookieOf(email: string): Promise<string> {
     .join('; ');
 }
 
-async function http(name: string, path: string, cookie: string) {
+const SERVER_PID = process.env.BENCH_WEB_PID;
+
+/** CPU time of the server so far, ms (utime + stime of /proc/PID/stat, in clock ticks of 10 ms). */
+function serverCpuMs(): number | null {
+  if (!SERVER_PID) return null;
+  const fields = readFileSync(`/proc/${SERVER_PID}/stat`, 'utf8').split(') ')[1]!.split(' ');
+  return (Number(fields[11]) + Number(fields[12])) * 10;
+}
+
+async function http(name: string, path: string, cookie: string, encoding = 'gzip') {
   const ms: number[] = [];
+  const headers = { cookie, 'accept-encoding': encoding };
+  let bytes = 0;
+  // Warm-up (caches filled, code compiled), then the rounds timed.
+  for (let i = 0; i < 3; i++) await (await fetch(BASE + path, { headers })).arrayBuffer();
+  const cpu0 = serverCpuMs();
   for (let i = 0; i < ROUNDS; i++) {
     const t = performance.now();
-    const res = await fetch(BASE + path, { headers: { cookie } });
-    await res.arrayBuffer();
+    const res = await fetch(BASE + path, { headers });
+    bytes = (await res.arrayBuffer()).byteLength;
     if (!res.ok) throw new Error(`${path} answered ${res.status}`);
     ms.push(performance.now() - t);
   }
-  console.log(`${name.padEnd(22)} total ${stats(ms)}`);
+  const cpu1 = serverCpuMs();
+  const cpu = cpu0 !== null && cpu1 !== null ? ` | server CPU ${((cpu1 - cpu0) / ROUNDS).toFixed(2)} ms per request` : '';
+  console.log(`${`${name} (${encoding})`.padEnd(32)} total ${stats(ms)}${cpu} | ${bytes} bytes`);
 }
 
 async function main() {
@@ -107,9 +127,12 @@ async function main() {
     return (await answer(UnitHoursAnswer, { unit: u, from: WEEK.from, to: WEEK.to, hours }).text()).length;
   });
   if (!cookie) return;
-  await http('overview over HTTP', '/', cookie);
-  await http('trend week over HTTP', trendPath, cookie);
-  await http('unit hours over HTTP', hoursPath, cookie);
+  // autocannon (bench:web) asks without Accept-Encoding; browsers ask for gzip.
+  for (const encoding of ['identity', 'gzip']) {
+    await http('overview over HTTP', '/', cookie, encoding);
+    await http('trend week over HTTP', trendPath, cookie, encoding);
+    await http('unit hours over HTTP', hoursPath, cookie, encoding);
+  }
 }
 
 try {

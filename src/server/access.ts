@@ -2,6 +2,7 @@ import { eq, sql, type SQL } from 'drizzle-orm';
 import type { Role } from '../lib/roles';
 import { db } from './db/client';
 import { personSites, user } from './db/schema';
+import { cachedHours } from './hours-cache';
 
 /**
  * Access by site. Admins have every site. Everyone else has either every site (user.all_sites, the
@@ -70,11 +71,18 @@ const SITE_OF: Record<string, (id: string) => ReturnType<typeof sql>> = {
 /** Parameters that name a row by UUID (a malformed one is answered 404 before any query). */
 export const UUID_PARAMS = new Set(Object.keys(SITE_OF));
 
+/**
+ * Parameters whose site is kept in the read cache (src/server/hours-cache.ts): their rows and the rows
+ * their lookup joins notify it at every change (plant units, sites, baselines), so the guard's
+ * unit-to-site query runs once per unit, not once per request.
+ */
+const CACHED_SITE_OF = new Set(['siteId', 'unitId', 'baselineId']);
+
 /** The site a parameter's thing belongs to; null when no such thing; undefined when not site-bound. */
 export async function siteOfParam(name: string, value: string): Promise<string | null | undefined> {
   const q = SITE_OF[name];
   if (!q) return undefined;
   if (!UUID_RE.test(value)) return null;
-  const res = await db().execute<{ site_id: string }>(q(value));
-  return res.rows[0]?.site_id ?? null;
+  const find = async () => (await db().execute<{ site_id: string }>(q(value))).rows[0]?.site_id ?? null;
+  return CACHED_SITE_OF.has(name) ? cachedHours(`site-of:${name}:${value.toLowerCase()}`, find) : find();
 }

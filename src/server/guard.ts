@@ -1,6 +1,5 @@
-import { isRole } from '../lib/roles';
-import { UUID_PARAMS, UUID_RE, canUseSite, siteOfParam, siteScopeFor } from './access';
-import { auth } from './auth';
+import { UUID_PARAMS, UUID_RE, canUseSite, siteOfParam } from './access';
+import { signedIn } from './session-lookup';
 import { env } from './env';
 import { apiError } from './errors';
 import { redact } from './log';
@@ -98,17 +97,11 @@ async function decideAndRun(ctx: GuardContext, next: GuardNext, isApi: boolean):
   const method = ctx.request.method.toUpperCase();
   if (isApi && path.startsWith('/api/auth/')) return next(); // better-auth checks origins itself
 
-  const found = await auth().api.getSession({ headers: ctx.request.headers }).catch(() => null);
-  if (found?.user && !found.user.banned) {
-    const role = found.user.role;
-    ctx.locals.user = {
-      id: found.user.id,
-      name: found.user.name,
-      email: found.user.email,
-      role: isRole(role) ? role : 'operator',
-    };
-    ctx.locals.session = { id: found.session.id, expiresAt: found.session.expiresAt };
-    ctx.locals.sites = await siteScopeFor({ ...ctx.locals.user, allSites: (found.user as { allSites?: boolean }).allSites });
+  const found = await signedIn(ctx.request.headers);
+  if (found) {
+    ctx.locals.user = found.user;
+    ctx.locals.session = found.session;
+    ctx.locals.sites = found.sites;
   }
 
   if (isApi) {

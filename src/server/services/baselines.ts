@@ -87,8 +87,16 @@ export async function expectedFor(
   rows: readonly { hourStart: Date | string; load: number | null; T0_K: number | null }[],
   options: { baselineId?: string } = {},
 ): Promise<{ baseline: BaselineSummary | null; rows: ExpectedRow[] }> {
+  const { summary, models } = await baselineModelsOf(unitId, options);
+  return { baseline: summary, rows: expectedRows(models, rows) };
+}
+
+export type BaselineModels = { efficiency: BaselineModel | null; destruction: BaselineModel };
+
+/** A unit's active baseline (or the version named) with its two fitted models; nulls when it has none. */
+export async function baselineModelsOf(unitId: string, options: { baselineId?: string } = {}): Promise<{ summary: BaselineSummary | null; models: BaselineModels | null }> {
   let summary: BaselineSummary | null;
-  let models: { efficiency: BaselineModel | null; destruction: BaselineModel } | null = null;
+  let models: BaselineModels | null = null;
   if (options.baselineId) {
     summary = await getBaseline(options.baselineId);
     if (summary.unitId !== unitId) throw new AppError('NOT_FOUND', 'That baseline belongs to another unit.');
@@ -102,7 +110,12 @@ export async function expectedFor(
       .where(eq(baselines.id, summary.id));
     models = m ?? null;
   }
-  const out = rows.map((r) => {
+  return { summary, models };
+}
+
+/** What fitted models expect for given hours (every row null without models). */
+export function expectedRows(models: BaselineModels | null, rows: readonly { hourStart: Date | string; load: number | null; T0_K: number | null }[]): ExpectedRow[] {
+  return rows.map((r) => {
     const hourStart = new Date(r.hourStart).toISOString();
     const ok = models && r.load !== null && r.T0_K !== null && Number.isFinite(r.load) && Number.isFinite(r.T0_K);
     return {
@@ -111,7 +124,6 @@ export async function expectedFor(
       destruction_W: ok ? band(models!.destruction, r.load!, r.T0_K!) : null,
     };
   });
-  return { baseline: summary, rows: out };
 }
 
 /** Fewest steady hours a baseline is fitted on (common practice: at least a full day of steady hours). */

@@ -9,13 +9,16 @@ import { unitHours } from '../db/schema';
 import { toCsv, type CsvCell } from '~/lib/csv-write';
 import { rebuildUnitHour } from './engine';
 import { unitWithSite } from './plant-site-model';
+import { cachedHours } from '../hours-cache';
+import { isId } from '../access';
 
 /** Longest range one request may ask for: 400 days of hours. */
 export const MAX_RANGE_MS = 400 * 24 * 3_600_000;
 
 /** A unit with its site, for the results API and page. */
 export async function unitHeader(unitId: string | undefined) {
-  const { unit, site } = await unitWithSite(unitId);
+  // Kept in the read cache (src/server/hours-cache.ts) until units or sites change.
+  const { unit, site } = isId(unitId) ? await cachedHours(`unit:${unitId}`, () => unitWithSite(unitId)) : await unitWithSite(unitId);
   return {
     id: unit.id,
     name: unit.name,
@@ -59,9 +62,17 @@ function range(from: Date, to: Date) {
   if (to.getTime() - from.getTime() > MAX_RANGE_MS) throw new AppError('VALIDATION_FAILED', 'Ask for at most 400 days at a time.');
 }
 
-/** A unit's hours with hour start in [from, to), oldest first, without the detail. */
+/**
+ * A unit's hours with hour start in [from, to), oldest first, without the detail. Kept in the read
+ * cache (src/server/hours-cache.ts) until unit hours change: the rows are shared, callers must not
+ * change them.
+ */
 export async function unitHoursOf(unitId: string, from: Date, to: Date) {
   range(from, to);
+  return cachedHours(`unit-hours:${unitId}:${from.getTime()}:${to.getTime()}`, () => readUnitHours(unitId, from, to), { large: true });
+}
+
+async function readUnitHours(unitId: string, from: Date, to: Date) {
   const rows = await db()
     .select(LIST_COLUMNS)
     .from(unitHours)

@@ -1,12 +1,13 @@
 /**
  * What the views take from the insight work: the active baseline's expected band (./baselines.ts,
- * expectedFor with k = 2) and drift notices (drift_notices), shaped for charts and reports.
+ * expectedRows with k = 2) and drift notices (drift_notices), shaped for charts and reports.
  */
 import { and, asc, eq, gte, inArray, lt, ne, or, isNull, sql } from 'drizzle-orm';
 import type { BaselineInfo, ExpectedHour, NoticeMark } from '~/lib/views/trend';
 import { db } from '../db/client';
 import { driftNotices, plantUnits } from '../db/schema';
-import { expectedFor, type BaselineSummary } from './baselines';
+import { baselineModelsOf, expectedRows, type BaselineModels, type BaselineSummary } from './baselines';
+import { cachedHours } from '../hours-cache';
 
 export type { BaselineInfo, ExpectedHour, NoticeMark } from '~/lib/views/trend';
 
@@ -24,15 +25,28 @@ export function baselineInfo(b: BaselineSummary): BaselineInfo {
   };
 }
 
+/**
+ * A unit's active baseline as the views show it, with its fitted models: kept in the read cache
+ * (src/server/hours-cache.ts) until baselines, units or sites change (migration web-access-cache
+ * notifies on baselines and sites), so a trend's two band look-ups cost no query.
+ */
+export function activeBaselineOf(unitId: string): Promise<{ info: BaselineInfo; models: BaselineModels | null } | null> {
+  return cachedHours(`baseline:${unitId}`, async () => {
+    const { summary, models } = await baselineModelsOf(unitId);
+    return summary ? { info: baselineInfo(summary), models } : null;
+  });
+}
+
 /** Expected band for the given hours from the unit's active baseline; nulls when it has none. */
 export async function expectedBand(
   unitId: string,
   rows: { hourStart: Date; load: number | null; T0_K: number | null }[],
 ): Promise<{ baseline: BaselineInfo | null; expected: (ExpectedHour | null)[] }> {
-  const { baseline, rows: out } = await expectedFor(unitId, rows);
-  if (!baseline) return { baseline: null, expected: rows.map(() => null) };
+  const active = await activeBaselineOf(unitId);
+  if (!active) return { baseline: null, expected: rows.map(() => null) };
+  const out = expectedRows(active.models, rows);
   return {
-    baseline: baselineInfo(baseline),
+    baseline: active.info,
     expected: out.map((r) =>
       r.efficiency || r.destruction_W
         ? {

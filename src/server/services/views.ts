@@ -74,11 +74,48 @@ async function periodOrError(q: PeriodQuery, timeZone: string, span: () => Promi
   }
 }
 
+/**
+ * A unit with its site, kept in the read cache (plant units and sites notify it at every change). The
+ * answer is shared: callers must not change it.
+ */
+export function cachedUnitWithSite(unitId: string) {
+  return cachedHours(`unit:${unitId}`, () => unitWithSite(unitId));
+}
+
 /** A unit's hours over a period, with its expected band, context spans and notices. */
 export async function unitTrend(unitId: string, q: PeriodQuery, nowMs?: number): Promise<TrendAnswer> {
-  const { unit, site } = await unitWithSite(unitId);
+  const { site, period, opened, now, body } = await trendParts(unitId, q, nowMs);
+  return { ...(await body()), opened, freshness: await siteFreshness(site, now) };
+}
+
+/**
+ * unitTrend's answer as JSON text (the trend endpoint sends it): the text of everything but the
+ * freshness note and the period's choice is kept in the read cache too, so a request writes only
+ * those two (JSON.stringify of a week's answer was a good part of a request's CPU).
+ */
+export async function unitTrendJson(unitId: string, q: PeriodQuery, nowMs?: number): Promise<string> {
+  const { unit, site, period, opened, now, body } = await trendParts(unitId, q, nowMs);
+  const text = await cachedHours(`trend-json:${unit.id}:${JSON.stringify(period)}`, async () => JSON.stringify(await body()), { large: true });
+  const head = JSON.stringify({ opened, freshness: await siteFreshness(site, now) });
+  return `${head.slice(0, -1)},${text.slice(1)}`;
+}
+
+async function trendParts(unitId: string, q: PeriodQuery, nowMs?: number) {
+  const { unit, site } = await cachedUnitWithSite(unitId);
   const now = nowMs ?? Date.now();
   const { period, opened } = await periodOrError(q, site.timeZone, () => dataSpan(site.id, unit.id, now), now);
+  // Everything but the freshness note (which moves with the clock) depends only on stored rows that
+  // notify the read cache at every change: one computation per unit and period while nothing changes.
+  const body = () => cachedHours(`trend:${unit.id}:${JSON.stringify(period)}`, () => trendBody(unit, site, period), { large: true });
+  return { unit, site, period, opened, now, body };
+}
+
+async function trendBody(
+  unit: typeof plantUnits.$inferSelect,
+  site: typeof sites.$inferSelect,
+  period: Period,
+): Promise<Omit<TrendAnswer, 'opened' | 'freshness'>> {
+  const unitId = unit.id;
   const rows = await db()
     .select({
       hourStart: unitHours.hourStart,
@@ -113,8 +150,6 @@ export async function unitTrend(unitId: string, q: PeriodQuery, nowMs?: number):
     unit: { id: unit.id, name: unit.name, kind: unit.kind, kindLabel: kindLabel(unit.kind) },
     site: viewSite(site),
     period,
-    opened,
-    freshness: await siteFreshness(site, now),
     bucket,
     points,
     context,
@@ -198,12 +233,12 @@ export async function siteFlow(siteId: string, q: PeriodQuery, nowMs?: number): 
  * with data, and the page says which.
  */
 export async function overview(nowMs = Date.now()): Promise<OverviewSite[]> {
-  const all = await db().select().from(sites).orderBy(asc(sites.name));
+  const all = await cachedHours('sites', () => db().select().from(sites).orderBy(asc(sites.name)));
   return Promise.all(all.map((site) => overviewSite(site, nowMs)));
 }
 
 async function overviewSite(site: typeof sites.$inferSelect, nowMs: number): Promise<OverviewSite> {
-  const [span, openNotices] = await Promise.all([dataSpan(site.id, undefined, nowMs), openNoticeCount(site.id)]);
+  const [span, openNotices] = await Promise.all([dataSpan(site.id, undefined, nowMs), cachedHours(`open-notices:${site.id}`, () => openNoticeCount(site.id))]);
   const lastMs = span?.lastMs ?? null;
   const endMs = lastMs !== null ? lastMs + HOUR_MS : nowMs;
   // The sums of a site's last day change only with its unit hours (or units): kept in the read cache.

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { UnitHoursAnswer } from '~/lib/api/hours';
-import { answer } from '~/server/answer';
+import { cachedHours } from '~/server/hours-cache';
 import { endpoint, requireSite } from '~/server/endpoint';
 import { unitHeader, unitHoursCsv, unitHoursOf } from '~/server/services/engine-results';
 
@@ -25,21 +25,31 @@ export const GET = endpoint(
   async ({ locals, request }, { params, query }) => {
     const unit = await unitHeader(params.unitId);
     requireSite(locals, unit.siteId);
-    const hours = await unitHoursOf(unit.id, new Date(query.from), new Date(query.to));
     const csv = query.format === 'csv' || (query.format === undefined && /\btext\/csv\b/.test(request.headers.get('accept') ?? ''));
-    if (csv) {
-      return new Response(unitHoursCsv(hours, unit.currency), {
-        headers: {
-          'content-type': 'text/csv; charset=utf-8',
-          'content-disposition': `attachment; filename="unit-hours-${unit.id}.csv"`,
-        },
-      });
+    if (!csv) {
+      // The JSON text is kept in the read cache until unit hours, units or sites change: a request
+      // then writes nothing (JSON.stringify of a week's hours was a good part of its CPU).
+      const from = new Date(query.from);
+      const to = new Date(query.to);
+      const text = await cachedHours(
+        `unit-hours-json:${unit.id}:${from.getTime()}:${to.getTime()}`,
+        async () =>
+          JSON.stringify({
+            unit: { id: unit.id, name: unit.name, kind: unit.kind, siteId: unit.siteId, siteName: unit.siteName, timeZone: unit.timeZone, currency: unit.currency },
+            from: from.toISOString(),
+            to: to.toISOString(),
+            hours: await unitHoursOf(unit.id, from, to),
+          } satisfies z.input<typeof UnitHoursAnswer>),
+        { large: true },
+      );
+      return new Response(text, { headers: { 'content-type': 'application/json' } });
     }
-    return answer(UnitHoursAnswer, {
-      unit: { id: unit.id, name: unit.name, kind: unit.kind, siteId: unit.siteId, siteName: unit.siteName, timeZone: unit.timeZone, currency: unit.currency },
-      from: new Date(query.from).toISOString(),
-      to: new Date(query.to).toISOString(),
-      hours,
+    const hours = await unitHoursOf(unit.id, new Date(query.from), new Date(query.to));
+    return new Response(unitHoursCsv(hours, unit.currency), {
+      headers: {
+        'content-type': 'text/csv; charset=utf-8',
+        'content-disposition': `attachment; filename="unit-hours-${unit.id}.csv"`,
+      },
     });
   },
 );
