@@ -2,9 +2,10 @@ import { describe, expect, it } from 'vitest';
 import { at, cell, defined, entry } from './present';
 
 describe('presence helpers of the tests', () => {
-  it('at returns the item, counts negative indices from the end and refuses a missing one', () => {
+  it('at returns the item and refuses a missing one, a negative index (an indexOf that found nothing) included', () => {
     expect(at([10, 20, 30], 0)).toBe(10);
-    expect(at(Float64Array.of(1.5, 2.5), -1)).toBe(2.5);
+    expect(at(Float64Array.of(1.5, 2.5), 1)).toBe(2.5);
+    expect(() => at([10, 20], [10, 20].indexOf(30), 'rows')).toThrow('rows: no item at index -1 (it has 2)');
     expect(at([0], 0)).toBe(0); // a falsy item is still present
     expect(() => at([10, 20], 2, 'rows')).toThrow('rows: no item at index 2 (it has 2)');
     expect(() => at([], -1)).toThrow('list: no item at index -1 (it has 0)');

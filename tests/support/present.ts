@@ -4,13 +4,15 @@
  * looked for instead of letting `undefined` run on into a confusing error (or a silent pass).
  */
 
-/** Item `index` of an array or typed array (a negative index counts from the end, as `Array.prototype.at`). */
+/**
+ * Item `index` of an array or typed array. A negative index is refused rather than counted from the
+ * end, so that an `indexOf` that found nothing (-1) fails here instead of reading the last item.
+ */
 export function at<T>(items: ArrayLike<T>, index: number, what = 'list'): T {
-  const i = index < 0 ? items.length + index : index;
-  if (!Number.isInteger(i) || i < 0 || i >= items.length) {
+  if (!Number.isInteger(index) || index < 0 || index >= items.length) {
     throw new Error(`${what}: no item at index ${index} (it has ${items.length})`);
   }
-  return items[i] as T;
+  return items[index] as T;
 }
 
 /** Cell [row][col] of a list of rows (a matrix). */
