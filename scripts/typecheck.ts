@@ -8,7 +8,7 @@
  * names them; their errors are printed as a figure). Prints the failing errors and a summary, writes
  * the verdict to FILE when asked (the test run's summary counts it), exits 1 on failure.
  */
-import { spawn } from 'node:child_process';
+import { spawn, type ChildProcess } from 'node:child_process';
 import { writeFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import { dirname, resolve } from 'node:path';
@@ -18,10 +18,21 @@ import { judge, report, type TscRun } from './typecheck-rules';
 const root = resolve(dirname(fileURLToPath(import.meta.url)), '..');
 const tsc = createRequire(import.meta.url).resolve('typescript/bin/tsc', { paths: [root] });
 
+const children = new Set<ChildProcess>();
+// stopped (the test run ending early), stop both tsc runs too
+for (const signal of ['SIGTERM', 'SIGINT'] as const) {
+  process.on(signal, () => {
+    for (const c of children) c.kill('SIGTERM');
+    process.exit(1);
+  });
+}
+
 function runTsc(project: string): Promise<TscRun> {
   const t0 = performance.now();
   return new Promise((done) => {
     const child = spawn(process.execPath, [tsc, '--noEmit', '--pretty', 'false', '-p', project], { cwd: root, stdio: ['ignore', 'pipe', 'pipe'] });
+    children.add(child);
+    child.on('exit', () => children.delete(child));
     let output = '';
     child.stdout.on('data', (d: Buffer) => (output += d.toString()));
     child.stderr.on('data', (d: Buffer) => (output += d.toString()));
