@@ -5,8 +5,9 @@
 #                                  .data/), the S3 fake, the mail catcher, the worker and the web
 #                                  server on loopback, load the demo; Ctrl-C stops all (data kept).
 #   ./docker-free-start.sh test    the same installs, a throwaway cluster and fakes on other ports,
-#                                  vitest (unit + integration on a real database), a production
-#                                  build, Playwright in Debian's Chromium; prints "N passed, N failed".
+#                                  the type check (scripts/typecheck.ts), vitest (unit + integration
+#                                  on a real database), a production build, Playwright in Debian's
+#                                  Chromium; prints "N passed, N failed".
 set -euo pipefail
 cd "$(dirname "$0")"
 ROOT="$PWD"
@@ -145,11 +146,20 @@ test_mode() {
   if [ -d "$dir/pg" ]; then as_pg "$(ls -d /usr/lib/postgresql/*/bin | sort -V | tail -n 1)/pg_ctl" -D "$dir/pg" -m fast stop >/dev/null 2>&1 || true; fi
   rm -rf "$dir"; mkdir -p "$dir"
   trap cleanup EXIT
+  local failed=0
+  # The type check (two tsc runs side by side, about 35 s at low load) starts first and runs while the
+  # services start; it is waited for before vitest and counts as one test in the closing line.
+  log "type check: tsc on tsconfig.json and tsconfig.index-strict.json (in the background while the services start)"
+  spawn typecheck "$dir/typecheck.log" node --import tsx scripts/typecheck.ts --json "$dir/typecheck.json"
+  local typecheck_pid=$!
   local o="${LOSSLINE_PORT_OFFSET:-0}" # several checkouts can test side by side with different offsets
   PG_FSYNC=off services "$dir" $((54339 + o)) $((4579 + o)) $((1035 + o)) $((1090 + o))
   export PUBLIC_BASE_URL="http://127.0.0.1:$((4331 + o))" HOST=127.0.0.1 PORT=$((4331 + o)) SIGN_IN_LIMIT_PER_MINUTE=5
   export LOSSLINE_TEST_DIR="$dir"
-  local failed=0
+
+  log "type check"
+  wait "$typecheck_pid" || failed=1
+  cat "$dir/typecheck.log"
 
   log "vitest: unit and integration tests"
   npx vitest run --reporter=default --reporter=json --outputFile.json="$dir/vitest.json" || failed=1

@@ -166,27 +166,27 @@ interface Prepared {
 function prepare(c: Case): Prepared {
   const names = inputNames(c.kind, c.model);
   const vals: Record<string, number> = { T0_K: 298.15, p0_Pa: 101325, ...c.values };
-  const x0 = Float64Array.from(names.map((n) => {
+  const inputs = names.map((n) => {
     const v = vals[n];
     if (v === undefined) throw new Error(`bench case ${c.kind}: no value for ${n}`);
-    return v;
-  }));
-  const u = Float64Array.from(names.map((n, i) => defaultU(n, x0[i])));
+    return { n, v };
+  });
+  const x0 = Float64Array.from(inputs, ({ v }) => v);
+  const u = Float64Array.from(inputs, ({ n, v }) => defaultU(n, v));
   // Hour-to-hour variation: temperatures +-0.3 K, others +-0.2 %, fixed fractions untouched.
-  const jitter = Float64Array.from(names.map((n, i) => (n.endsWith('_K') ? 0.3 : n.endsWith('.x') || n.endsWith('Efficiency') || n.endsWith('O2_fraction') ? 0 : 0.002 * Math.abs(x0[i]))));
+  const jitter = Float64Array.from(inputs, ({ n, v }) => (n.endsWith('_K') ? 0.3 : n.endsWith('.x') || n.endsWith('Efficiency') || n.endsWith('O2_fraction') ? 0 : 0.002 * Math.abs(v)));
   return { kind: c.kind, model: c.model, x0, u, jitter };
 }
 
 function run(units: Prepared[], hours: number, withU: boolean): { rate: number; failed: number } {
   const rnd = mulberry32(7);
-  const x = units.map((p) => new Float64Array(p.x0.length));
+  // each unit with its own input buffer; x0, jitter and the buffer have one length (prepare)
+  const work = units.map((p) => ({ p, xk: new Float64Array(p.x0.length) }));
   let failed = 0;
   const t0 = performance.now();
   for (let h = 0; h < hours; h++) {
-    for (let k = 0; k < units.length; k++) {
-      const p = units[k];
-      const xk = x[k];
-      for (let i = 0; i < xk.length; i++) xk[i] = p.x0[i] + (2 * rnd() - 1) * p.jitter[i];
+    for (const { p, xk } of work) {
+      for (let i = 0; i < xk.length; i++) xk[i] = p.x0[i]! + (2 * rnd() - 1) * p.jitter[i]!;
       try {
         if (withU) unitHourWithUncertainty(p.kind, p.model, xk, p.u);
         else evaluateUnitHour(p.kind, p.model, xk);

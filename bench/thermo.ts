@@ -32,26 +32,42 @@ function states(n: number, region: 1 | 2, seed: number): { p: Float64Array; T: F
   const p = new Float64Array(n);
   const T = new Float64Array(n);
   for (let i = 0; i < n; i++) {
+    let Ti: number;
+    let pi: number;
     if (region === 1) {
-      T[i] = 280 + 320 * r();
-      p[i] = Math.max(water.psat(T[i]) * 1.01, 1e5) + r() * 20e6; // compressed liquid
+      Ti = 280 + 320 * r();
+      pi = Math.max(water.psat(Ti) * 1.01, 1e5) + r() * 20e6; // compressed liquid
     } else {
-      T[i] = 550 + 450 * r();
-      p[i] = 1e4 + r() * 3e6; // superheated steam below 3 MPa
+      Ti = 550 + 450 * r();
+      pi = 1e4 + r() * 3e6; // superheated steam below 3 MPa
     }
-    if (water.pt(p[i], T[i]).region !== region) throw new Error(`bench input ${i} is not in region ${region}`);
+    if (water.pt(pi, Ti).region !== region) throw new Error(`bench input ${i} is not in region ${region}`);
+    T[i] = Ti;
+    p[i] = pi;
   }
   return { p, T };
 }
 
-/** Runs fn over all inputs `rounds` times after a warm-up; returns evaluations per second. */
-function time(n: number, fn: (i: number) => number, rounds = 5): number {
+/** Item i of a bench input, outside the timed loops (an index out of range fails loudly). */
+function item(a: Float64Array, i: number): number {
+  const v = a[i];
+  if (v === undefined) throw new Error(`bench input ${i} is out of range (${a.length} inputs)`);
+  return v;
+}
+
+/**
+ * Runs fn over the input pairs (a[i], b[i]) `rounds` times after a warm-up; returns evaluations per
+ * second. The lengths are checked once here, so the timed loops read without a check per item.
+ */
+function time(fn: (a: number, b: number) => number, a: Float64Array, b: Float64Array = a, rounds = 5): number {
+  if (a.length !== b.length) throw new Error(`bench inputs of different lengths (${a.length} and ${b.length})`);
+  const n = a.length;
   let sink = 0;
-  for (let i = 0; i < n; i++) sink += fn(i); // warm-up (JIT)
+  for (let i = 0; i < n; i++) sink += fn(a[i]!, b[i]!); // warm-up (JIT); i < n, the length of both
   let best = 0;
   for (let k = 0; k < rounds; k++) {
     const t0 = process.hrtime.bigint();
-    for (let i = 0; i < n; i++) sink += fn(i);
+    for (let i = 0; i < n; i++) sink += fn(a[i]!, b[i]!);
     const dt = Number(process.hrtime.bigint() - t0) / 1e9;
     best = Math.max(best, n / dt);
   }
@@ -63,17 +79,17 @@ const fmt = (x: number): string => Math.round(x).toString();
 
 const s1 = states(N, 1, 1);
 const s2 = states(N, 2, 2);
-const r1 = time(N, (i) => water.pt(s1.p[i], s1.T[i]).h);
-const r2 = time(N, (i) => water.pt(s2.p[i], s2.T[i]).h);
-const rh = time(N, (i) => water.h_pt(s1.p[i], s1.T[i]));
+const r1 = time((p, T) => water.pt(p, T).h, s1.p, s1.T);
+const r2 = time((p, T) => water.pt(p, T).h, s2.p, s2.T);
+const rh = time((p, T) => water.h_pt(p, T), s1.p, s1.T);
 const hMix = new Float64Array(N);
 const pMix = new Float64Array(N);
 for (let i = 0; i < N; i++) {
   const a = i & 1 ? s1 : s2;
-  pMix[i] = a.p[i];
-  hMix[i] = water.pt(a.p[i], a.T[i]).h;
+  pMix[i] = item(a.p, i);
+  hMix[i] = water.pt(item(a.p, i), item(a.T, i)).h;
 }
-const rph = time(N, (i) => water.ph(pMix[i], hMix[i]).T);
+const rph = time((p, h) => water.ph(p, h).T, pMix, hMix);
 
 console.log(`water_pt_region1_per_s: ${fmt(r1)}`);
 console.log(`water_pt_region2_per_s: ${fmt(r2)}`);
@@ -90,7 +106,7 @@ try {
     const Tg = new Float64Array(N);
     const r = rng(3);
     for (let i = 0; i < N; i++) Tg[i] = 300 + 1200 * r();
-    console.log(`gas_mixture_h_per_s: ${fmt(time(N, (i) => flue.h(Tg[i])))}`);
+    console.log(`gas_mixture_h_per_s: ${fmt(time((T) => flue.h(T), Tg))}`);
   } else {
     console.log('gas_mixture_h_per_s: n/a (src/lib/thermo/gas.ts has no mixture export)');
   }
@@ -101,7 +117,7 @@ try {
 // The same (p, T) work in python3-iapws, in a child process.
 const M = 2000;
 const pyStates = (s: { p: Float64Array; T: Float64Array }) =>
-  Array.from({ length: M }, (_, i) => [s.p[i] / 1e6, s.T[i]]);
+  Array.from({ length: M }, (_, i) => [item(s.p, i) / 1e6, item(s.T, i)]);
 const script = `
 import json, sys, time
 from iapws import IAPWS97

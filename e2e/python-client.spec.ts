@@ -71,6 +71,7 @@ test('a site script sends an export with the Python client, waits for it and fet
       const got = await client(env, ['hours', '--unit', unitId, '--from', from, '--to', to]);
       if (got.code !== 0) return `exit ${got.code}: ${got.stderr}`;
       const [header, ...lines] = got.stdout.trim().split(/\r?\n/);
+      if (header === undefined) return 'no header line';
       const cols = header.split(',');
       rows = lines.filter(Boolean).map((l) => Object.fromEntries(l.split(',').map((v, i) => [cols[i], v])));
       return rows.length;

@@ -27,7 +27,7 @@ for (const delta of [0.75, 1, 2, 3]) {
   console.log(`persistent shift ${delta} sigma: ${sigs} re-signals in 200000 h, ${larger} judged clearly larger (${(100 * larger / Math.max(sigs, 1)).toFixed(2)} %)`);
 }
 seed = 987;
-for (const [d1, d2] of [[1, 2], [1, 3], [2, 4], [1.5, 8]]) {
+for (const [d1, d2] of [[1, 2], [1, 3], [2, 4], [1.5, 8]] as const) {
   const delays: number[] = []; let missed = 0; let early = 0;
   for (let t = 0; t < 300; t++) {
     let st = cusumInit(); const pts: (ResidualHour & { step: number })[] = []; let openOnset = -1; let found = -1;

@@ -1,4 +1,4 @@
-/** Reads the vitest and Playwright JSON reports of a test run and prints the closing line. */
+/** Reads the type check's verdict and the vitest and Playwright JSON reports of a test run and prints the closing line. */
 import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 
@@ -6,6 +6,20 @@ const dir = process.argv[2] ?? '.test-data';
 let passed = 0;
 let failed = 0;
 const notes: string[] = [];
+
+// The type check (scripts/typecheck.ts) counts as one test.
+const typecheckFile = join(dir, 'typecheck.json');
+if (existsSync(typecheckFile)) {
+  const t = JSON.parse(readFileSync(typecheckFile, 'utf8'));
+  if (t.passed === true) passed += 1;
+  else {
+    failed += 1;
+    notes.push(`type check failed: ${t.plainErrors ?? '?'} error(s) of tsconfig.json, ${t.strictErrorsOutsideKernels ?? '?'} under noUncheckedIndexedAccess outside the numerical kernels (${join(dir, 'typecheck.log')})`);
+  }
+} else {
+  failed += 1;
+  notes.push('no type check report');
+}
 
 const vitestFile = join(dir, 'vitest.json');
 if (existsSync(vitestFile)) {

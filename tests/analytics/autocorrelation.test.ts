@@ -6,6 +6,7 @@
 import { describe, expect, it } from 'vitest';
 import reference from '../fixtures/ar1-reference.json';
 import { expectClose } from '../support/expect-close';
+import { at } from '../support/present';
 import { MIN_AR1_PAIRS, ar1EffectiveSampleSize, ar1Innovation, ar1MeanUncertainty, fitAr1, prewhiten } from '~/lib/analytics/autocorrelation';
 import { fitBaseline } from '~/lib/analytics/baseline';
 
@@ -26,9 +27,9 @@ describe('AR(1) of hourly residuals', () => {
     expect(x).toHaveLength(reference.innovations.length);
     // the reference solves a 60 x 60 system per hour; the two agree to about 1e-15 here, and 1e-9
     // leaves room for that solve's conditioning on other data
-    x.forEach((v, i) => expectClose(v, reference.innovations[i], { atol: 1e-9, label: `hour ${i}` }));
+    x.forEach((v, i) => expectClose(v, at(reference.innovations, i), { atol: 1e-9, label: `hour ${i}` }));
     // some of those hours follow a gap (of up to 31 hours): the fixture covers the g-step rule
-    const gaps = reference.hourStartMs.slice(1).map((t, i) => (t - reference.hourStartMs[i]) / 3_600_000);
+    const gaps = reference.hourStartMs.slice(1).map((t, i) => (t - at(reference.hourStartMs, i)) / 3_600_000);
     expect(Math.max(...gaps)).toBeGreaterThan(20);
     expect(gaps.filter((g) => g > 1).length).toBeGreaterThan(40);
   });
@@ -67,9 +68,9 @@ describe('AR(1) of hourly residuals', () => {
     const n = reference.residuals.length;
     const load = reference.residuals.map((_, i) => 0.5 + 0.4 * Math.sin(i / 7));
     const T = reference.residuals.map((_, i) => 280 + 10 * Math.cos(i / 50));
-    const y = reference.residuals.map((r, i) => 1000 + 300 * load[i] - 2 * (T[i] - 280) + r);
+    const y = reference.residuals.map((r, i) => 1000 + 300 * at(load, i) - 2 * (at(T, i) - 280) + r);
     const m = fitBaseline({ load, T_amb_K: T, y, hourStartMs: reference.hourStartMs }, { terms: 'linear' });
-    const res = y.map((v, i) => v - (m.coefficients.intercept + m.coefficients.load! * load[i] + m.coefficients.T_amb! * T[i]));
+    const res = y.map((v, i) => v - (m.coefficients.intercept + m.coefficients.load! * at(load, i) + m.coefficients.T_amb! * at(T, i)));
     const fit = fitAr1(res, reference.hourStartMs);
     expectClose(m.stats.phi!, fit.phi, { rtol: 1e-9 });
     expectClose(m.stats.sInnovation!, fit.sInnovation, { rtol: 1e-9 });

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { expectClose } from '../support/expect-close';
+import { at } from '../support/present';
 import {
   BaselineError,
   fitBaseline,
@@ -26,13 +27,13 @@ describe('fitBaseline: one regressor against closed-form simple linear regressio
     let sxy = 0;
     let sxx = 0;
     for (let i = 0; i < n; i++) {
-      sxy += (load[i] - xbar) * (y[i] - ybar);
-      sxx += (load[i] - xbar) ** 2;
+      sxy += (at(load, i) - xbar) * (at(y, i) - ybar);
+      sxx += (at(load, i) - xbar) ** 2;
     }
     const slope = sxy / sxx;
     const intercept = ybar - slope * xbar;
     let sse = 0;
-    for (let i = 0; i < n; i++) sse += (y[i] - intercept - slope * load[i]) ** 2;
+    for (let i = 0; i < n; i++) sse += (at(y, i) - intercept - slope * at(load, i)) ** 2;
     const s = Math.sqrt(sse / (n - 2));
 
     const m = fitBaseline({ load, T_amb_K, y }, { terms: ['load'] });
@@ -65,7 +66,7 @@ describe(`fitBaseline against ${reference.library} ${reference.library_version} 
         const got = term === 'intercept' ? m.coefficients.intercept : m.coefficients[term as BaselineTerm]!;
         expectClose(got, c, { rtol: 1e-9, label: term });
       }
-      ref.yhat.forEach((v, i) => expectClose(predict(m, data.load[i], data.T_amb_K[i]), v, { rtol: 1e-9 }));
+      ref.yhat.forEach((v, i) => expectClose(predict(m, at(data.load, i), at(data.T_amb_K, i)), v, { rtol: 1e-9 }));
       expectClose(m.stats.sse, ref.sse, { rtol: 1e-8 });
       expectClose(m.stats.s, ref.s, { rtol: 1e-9 });
       expectClose(m.stats.r2, ref.r2, { rtol: 1e-9 });

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { expectClose } from '../support/expect-close';
+import { at } from '../support/present';
 import { cusumInit, cusumRun, cusumStep } from '~/lib/analytics/drift';
 
 // From memory: Montgomery ISQC 6th ed. Example 9.1 (and Table 9.1): 30 observations, the first 20
@@ -14,12 +15,12 @@ describe('tabular CUSUM', () => {
   it(`${SRC_9_1}: first signal at observation 29, C+ = 5.28, N+ = 7, shift after 22, mean 11.25`, () => {
     const run = cusumRun(MONTGOMERY_9_1, { mu0: 10, sigma: 1, k: 0.5, h: 5 });
     expect(run.signals).toHaveLength(1);
-    const s = run.signals[0];
+    const s = at(run.signals, 0, 'signals');
     expect(s.direction).toBe('up');
     expect(s.step).toBe(29);
     expect(s.onsetStep).toBe(23); // the process shifted after period 22
-    expectClose(run.points[28].cPlus, 5.28, { atol: 0.005 }); // printed to 2 decimals
-    expect(run.points[28].nPlus).toBe(7);
+    expectClose(at(run.points, 28, 'points').cPlus, 5.28, { atol: 0.005 }); // printed to 2 decimals
+    expect(at(run.points, 28, 'points').nPlus).toBe(7);
     expectClose(s.shiftedMean, 11.25, { atol: 0.005 }); // 10 + 0.5 + 5.28/7
     expectClose(s.shift_sigma, 1.25, { atol: 0.005 });
     // the lower side never comes near H
@@ -32,7 +33,7 @@ describe('tabular CUSUM', () => {
       { mu0: 10, sigma: 1 },
     );
     expect(run.signals.map((s) => [s.direction, s.step, s.onsetStep])).toEqual([['down', 29, 23]]);
-    expectClose(run.signals[0].shiftedMean, 8.75, { atol: 0.005 });
+    expectClose(at(run.signals, 0, 'signals').shiftedMean, 8.75, { atol: 0.005 });
   });
 
   it('hand-worked normalised residuals, k = 0.5, h = 4: every C+ value', () => {

@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { at } from '../support/present';
 import { aboveLimit, classifyHour, distinctFigures, resolvableSpread, STEADY_DEFAULTS, type SteadyLimits, type TagHourStats } from '~/lib/analytics/steady';
 
 // Invented tag hours of a steam turbine: power (kW), steam flow (kg/s), inlet temperature (K).
@@ -130,8 +131,8 @@ describe('classifyHour (common practice defaults, docs/domain.md section 6)', ()
       // 0.2 t/h is more than the meter's 0.124: unsettled, and the reason names both parts of the limit
       const swinging = classifyHour({ tags: { flow: hour(1, 0.2) } }, valve);
       expect(swinging).toMatchObject({ state: 'unsettled', reasons: [{ code: 'SPREAD_HIGH', tag: 'flow' }] });
-      expect(swinging.reasons[0].limit).toBeCloseTo(0.124, 12);
-      expect(swinging.reasons[0].message).toMatch(/5\.0 % of the mean; what the instrument resolves: 0\.124/);
+      expect(at(swinging.reasons, 0, 'reasons').limit).toBeCloseTo(0.124, 12);
+      expect(at(swinging.reasons, 0, 'reasons').message).toMatch(/5\.0 % of the mean; what the instrument resolves: 0\.124/);
     });
 
     it('mid-range the percentage rules: 6 % of 20 t/h is unsettled (the meter resolves 4 %)', () => {
@@ -145,7 +146,7 @@ describe('classifyHour (common practice defaults, docs/domain.md section 6)', ()
       expect(classifyHour({ tags: { flow: hour(2, 0.25) } }, lim).state).toBe('steady');
       const over = classifyHour({ tags: { flow: hour(2, 0.25 + 1e-9) } }, lim);
       expect(over.state).toBe('unsettled');
-      expect(over.reasons[0].message).toMatch(/a spread at the limit counts as settled/);
+      expect(at(over.reasons, 0, 'reasons').message).toMatch(/a spread at the limit counts as settled/);
       // the same for an absolute limit (O2 style): 0.02 set, instrument 2 x 0.0125 = 0.025
       const o2: SteadyLimits = { loadTag: 'flow', minLoad: 0.1, spread: { flow: { maxRelSpread: 1 }, O2: { maxStd: 0.02, instrument: { uAbs: 0.0125 } } } };
       expect(classifyHour({ tags: { flow: hour(2, 0), O2: hour(0.03, 0.025) } }, o2).state).toBe('steady');
@@ -164,15 +165,15 @@ describe('classifyHour (common practice defaults, docs/domain.md section 6)', ()
     it('5.004 % against 5 % is unsettled, and the text shows the two apart', () => {
       const r = classifyHour({ tags: { flow: hour(100, 5.004) } }, lim);
       expect(r.state).toBe('unsettled');
-      expect(r.reasons[0].message).toMatch(/spread 5\.004 % of the mean, above its limit 5\.000 %/);
-      expect(r.reasons[0].message).not.toMatch(/spread 5\.0 % of the mean, above its limit 5\.0 %/);
+      expect(at(r.reasons, 0, 'reasons').message).toMatch(/spread 5\.004 % of the mean, above its limit 5\.000 %/);
+      expect(at(r.reasons, 0, 'reasons').message).not.toMatch(/spread 5\.0 % of the mean, above its limit 5\.0 %/);
     });
     it('absolute limits follow the same rule and words', () => {
       const o2: SteadyLimits = { loadTag: 'flow', minLoad: 0.1, spread: { flow: { maxRelSpread: 1 }, O2: { maxStd: 0.02 } } };
       expect(classifyHour({ tags: { flow: hour(2, 0), O2: hour(0.03, 0.02) } }, o2).state).toBe('steady');
       const over = classifyHour({ tags: { flow: hour(2, 0), O2: hour(0.03, 0.020001) } }, o2);
       expect(over.state).toBe('unsettled');
-      expect(over.reasons[0].message).toMatch(/spread 0\.020001 within the hour, above its limit 0\.02 /);
+      expect(at(over.reasons, 0, 'reasons').message).toMatch(/spread 0\.020001 within the hour, above its limit 0\.02 /);
       expect(distinctFigures(5.04, 5)).toEqual(['5.04', '5.00']);
     });
   });

@@ -6,6 +6,7 @@
  * perturbed input, to 1e-9 relative.
  */
 import { describe, expect, it } from 'vitest';
+import { at } from '../support/present';
 import { evaluateUnitHour, unitHourWithUncertainty, type UnitBalance } from '~/lib/equipment';
 import { deadStateOf } from '~/lib/engine/compute';
 import { runBalance } from '~/lib/engine/checks';
@@ -40,7 +41,7 @@ describe('the lean uncertainty sweep against the full recomputation', () => {
         xm[i] = x[i]! - h;
         const yp = full(xp);
         const ym = full(xm);
-        for (let j = 0; j < 5; j++) variance[j] += (((yp[j]! - ym[j]!) / (2 * h)) * u[i]!) ** 2;
+        for (let j = 0; j < 5; j++) variance[j] = at(variance, j) + (((yp[j]! - ym[j]!) / (2 * h)) * u[i]!) ** 2;
         close(fast.sensitivity.destruction_W[i]!, (yp[3]! - ym[3]!) / (2 * h));
         if (fast.efficiency) close(fast.sensitivity.efficiency[i]!, (yp[4]! - ym[4]!) / (2 * h));
       }

@@ -6,6 +6,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { expectClose } from '../support/expect-close';
+import { entry } from '../support/present';
 import fc from 'fast-check';
 import { draws, runs } from '../support/random';
 import {
@@ -111,10 +112,10 @@ describe('self-consistency: Gouy-Stodola on randomised energy-closed cases', () 
     }, 12);
     // both outlets lie on one line h_j = h_in - eta (h_in - h_s,j) with the reported eta
     for (const b of rs) {
-      const eta = b.extras.expansionEfficiency;
-      const inn = b.ports.in.state;
+      const eta = entry(b.extras, 'expansionEfficiency', 'extras');
+      const inn = entry(b.ports, 'in', 'ports').state;
       for (const name of ['wet-ext', 'exh']) {
-        const st = b.ports[name].state;
+        const st = entry(b.ports, name, 'ports').state;
         expectClose(st.h, inn.h - eta * (inn.h - water.h_ps(st.p, inn.s)), { rtol: 1e-10, label: name });
       }
     }
@@ -289,8 +290,8 @@ describe('self-consistency: Gouy-Stodola residual of a boiler = reference-table 
       const b = evaluateUnitHour('boiler', model, inputVector('boiler', model, vals));
       expectClose(b.energyResidual_W, 0, { atol: 1e-9 * b.fuel_W, label: 'energy closes' });
       const comb = combustionFromO2(fuel, { O2_fraction: O2, basis: 'wet' });
-      const nIn = [moles(fuel.moleFractions!, b.ports.fuel.mDot_kg_per_s, fuel.M_kg_per_mol!), moles(dryAir.moleFractions, b.ports.air.mDot_kg_per_s, dryAir.M_kg_per_mol)];
-      const nOut = moles(comb.flueGas.moleFractions, b.ports.stack.mDot_kg_per_s, comb.flueGas.M_kg_per_mol);
+      const nIn = [moles(fuel.moleFractions!, entry(b.ports, 'fuel', 'ports').mDot_kg_per_s, fuel.M_kg_per_mol!), moles(dryAir.moleFractions, entry(b.ports, 'air', 'ports').mDot_kg_per_s, dryAir.M_kg_per_mol)] as const;
+      const nOut = moles(comb.flueGas.moleFractions, entry(b.ports, 'stack', 'ports').mDot_kg_per_s, comb.flueGas.M_kg_per_mol);
       let predicted = b.energyResidual_W;
       for (const n of Object.keys(SZARGUT_1988_J_per_mol) as SpeciesName[]) {
         if (!(n in species)) continue;

@@ -6,6 +6,7 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { expectClose } from '../support/expect-close';
+import { entry } from '../support/present';
 import {
   BALANCE_KINDS,
   evaluateUnitHour,
@@ -66,11 +67,11 @@ describe.each(FIX.cases)(`${SRC}: $kind ($id)`, (c) => {
   it('companions within 0.1 %', () => {
     for (const key of ['isentropicEfficiency', 'energyEfficiency', 'lambda', 'airFlow_kg_per_s', 'flueGasFlow_kg_per_s', 'stackLossPhysical_W', 'stackLossChemical_W', 'hotDuty_W', 'coldDuty_W']) {
       const want = c.expected[key];
-      if (typeof want === 'number') expectClose(b.extras[key], want, { rtol: RTOL, label: key });
+      if (typeof want === 'number') expectClose(entry(b.extras, key, 'extras'), want, { rtol: RTOL, label: key });
     }
-    if (typeof c.expected.exhaust_x === 'number') expectClose(b.ports.exhaust.state.x!, c.expected.exhaust_x, { rtol: RTOL, label: 'exhaust x' });
-    if (typeof c.expected.steamFlow_kg_per_s === 'number') expectClose(b.ports['heating-steam'].mDot_kg_per_s, c.expected.steamFlow_kg_per_s, { rtol: RTOL });
-    if (typeof c.expected.coolingFlow_kg_per_s === 'number') expectClose(b.ports['cw-in'].mDot_kg_per_s, c.expected.coolingFlow_kg_per_s, { rtol: RTOL });
+    if (typeof c.expected.exhaust_x === 'number') expectClose(entry(b.ports, 'exhaust', 'ports').state.x!, c.expected.exhaust_x, { rtol: RTOL, label: 'exhaust x' });
+    if (typeof c.expected.steamFlow_kg_per_s === 'number') expectClose(entry(b.ports, 'heating-steam', 'ports').mDot_kg_per_s, c.expected.steamFlow_kg_per_s, { rtol: RTOL });
+    if (typeof c.expected.coolingFlow_kg_per_s === 'number') expectClose(entry(b.ports, 'cw-in', 'ports').mDot_kg_per_s, c.expected.coolingFlow_kg_per_s, { rtol: RTOL });
   });
 
   it('self-consistency: F = P + L + D', () => {

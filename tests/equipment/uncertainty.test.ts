@@ -6,6 +6,7 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { expectClose } from '../support/expect-close';
+import { at } from '../support/present';
 import { monteCarlo, propagate } from '~/lib/analytics/uncertainty';
 import { evaluateUnitHour, inputNames, inputVector, unitHourWithUncertainty, type BalanceKind, type UnitModel } from '~/lib/equipment';
 
@@ -23,11 +24,11 @@ function typicalU(names: readonly string[], x: Float64Array): Float64Array {
   return Float64Array.from(names.map((n, i) => {
     if (n === 'T0_K' || n === 'p0_Pa') return 0;
     if (n.endsWith('.T_K')) return 0.5;
-    if (n.endsWith('.p_Pa')) return 0.0025 * x[i];
-    if (n.endsWith('.mDot_kg_per_s')) return 0.01 * x[i];
+    if (n.endsWith('.p_Pa')) return 0.0025 * at(x, i);
+    if (n.endsWith('.mDot_kg_per_s')) return 0.01 * at(x, i);
     if (n.endsWith('.O2_fraction')) return 0.002;
     if (n.endsWith('Efficiency')) return 0.003;
-    if (n.endsWith('_W')) return 0.005 * x[i];
+    if (n.endsWith('_W')) return 0.005 * at(x, i);
     return 0;
   }));
 }
@@ -50,8 +51,8 @@ describe.each(CASES)('JCGM 101:2008 Monte Carlo vs first-order propagation: $id'
       return [b.efficiency!, b.destruction_W];
     }, x, u, { trials, seed: 2024 });
     expect(r.k).toBe(2);
-    expectClose(r.efficiency!.U, 2 * mc.u[0], { rtol: 0.1, label: 'U(efficiency)' });
-    expectClose(r.destruction_W.U, 2 * mc.u[1], { rtol: 0.1, label: 'U(destruction)' });
+    expectClose(r.efficiency!.U, 2 * at(mc.u, 0), { rtol: 0.1, label: 'U(efficiency)' });
+    expectClose(r.destruction_W.U, 2 * at(mc.u, 1), { rtol: 0.1, label: 'U(destruction)' });
     // and the uncertainty is not trivially small: it is at least 0.1 % of the value
     expect(r.efficiency!.U).toBeGreaterThan(1e-3 * r.efficiency!.value);
   });
@@ -61,9 +62,9 @@ describe.each(CASES)('JCGM 101:2008 Monte Carlo vs first-order propagation: $id'
       const b = evaluateUnitHour(c.kind, c.model, xx);
       return [b.efficiency!, b.destruction_W];
     }, x, u);
-    expectClose(r.efficiency!.u, p.u[0], { rtol: 1e-4, label: 'u(efficiency)' });
-    expectClose(r.destruction_W.u, p.u[1], { rtol: 1e-4, label: 'u(destruction)' });
-    expectClose(r.efficiency!.value, p.y[0], { rtol: 1e-12 });
+    expectClose(r.efficiency!.u, at(p.u, 0), { rtol: 1e-4, label: 'u(efficiency)' });
+    expectClose(r.destruction_W.u, at(p.u, 1), { rtol: 1e-4, label: 'u(destruction)' });
+    expectClose(r.efficiency!.value, at(p.y, 0), { rtol: 1e-12 });
   });
 });
 
@@ -74,14 +75,15 @@ describe('uncertainty details', () => {
     const x = inputVector(c.kind, c.model, c.inputs);
     const u = new Float64Array(names.length);
     const iT = names.indexOf('water-out.T_K');
+    expect(iT, 'the input water-out.T_K').toBeGreaterThanOrEqual(0);
     u[iT] = 0.5;
     const r = unitHourWithUncertainty(c.kind, c.model, x, u);
     // only one input: u(eff) = |d eff / dT| * 0.5, and the sensitivity is that of a one-sided finite difference
     const h = 1e-3;
     const xp = Float64Array.from(x);
-    xp[iT] += h;
+    xp[iT] = at(xp, iT) + h;
     const xm = Float64Array.from(x);
-    xm[iT] -= h;
+    xm[iT] = at(xm, iT) - h;
     const d = (evaluateUnitHour(c.kind, c.model, xp).efficiency! - evaluateUnitHour(c.kind, c.model, xm).efficiency!) / (2 * h);
     expectClose(r.efficiency!.u, Math.abs(d) * 0.5, { rtol: 1e-4 });
     for (let i = 0; i < names.length; i++) if (i !== iT) expect(r.sensitivity.efficiency[i]).toBe(0);
@@ -98,7 +100,7 @@ describe('uncertainty details', () => {
     expect(r.destruction_W.U).toBeGreaterThan(0);
     // 1 % flow uncertainty alone gives 1 % of D (D is proportional to the flow)
     const only = new Float64Array(names.length);
-    only[names.indexOf('inlet.mDot_kg_per_s')] = 0.01 * x[names.indexOf('inlet.mDot_kg_per_s')];
+    only[names.indexOf('inlet.mDot_kg_per_s')] = 0.01 * at(x, names.indexOf('inlet.mDot_kg_per_s'), 'inputs');
     expectClose(unitHourWithUncertainty(c.kind, c.model, x, only).destruction_W.u, 0.01 * r.balance.destruction_W, { rtol: 1e-6 });
   });
 });

@@ -6,6 +6,7 @@ import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '~/server/demo-accounts';
 import { guard } from '~/server/guard';
 import { API_POLICY, admitFor, apiPolicyFor, decide, pagePolicyFor } from '~/server/policy';
 import { describeIntegration } from '../support/integration';
+import { entry } from '../support/present';
 import { endpoints, samplePath } from '../support/routes';
 
 /**
@@ -328,10 +329,10 @@ describeIntegration('access by site: every site-bound endpoint with every role, 
       const url = new URL(path, 'http://lossline.test');
       return (GET as unknown as (ctx: object) => Promise<Response>)({ locals, url, request: new Request(url), params: {} });
     };
-    const refused = await ask(cookies.planner!, ids.B.siteId);
+    const refused = await ask(cookies.planner!, entry(ids.B, 'siteId', 'site B'));
     expect(refused.status).toBe(403);
     expect((await refused.json()).error.code).toBe('FORBIDDEN');
-    expect((await ask(cookies.planner!, ids.A.siteId)).status).toBe(200);
-    expect((await ask(cookies.admin!, ids.B.siteId)).status).toBe(200);
+    expect((await ask(cookies.planner!, entry(ids.A, 'siteId', 'site A'))).status).toBe(200);
+    expect((await ask(cookies.admin!, entry(ids.B, 'siteId', 'site B'))).status).toBe(200);
   });
 });

@@ -11,6 +11,7 @@ import { db } from '~/server/db/client';
 import { sites, uploads } from '~/server/db/schema';
 import { receiveApiUpload } from '~/server/services/uploads';
 import { describeIntegration } from '../support/integration';
+import { at } from '../support/present';
 
 interface Worker {
   child: ChildProcess;
@@ -109,7 +110,7 @@ describeIntegration('a reading worker killed while another lives', () => {
     expect(res.rows[0]!.n).toBe(tagCount * 14 * 24);
     expect(res.rows[0]!.single).toBe(tagCount);
     expect(res.rows[0]!.others).toBe(0);
-    const [{ attempts }] = await db().select({ attempts: uploads.attempts }).from(uploads).where(and(eq(uploads.id, uploadId)));
+    const { attempts } = at(await db().select({ attempts: uploads.attempts }).from(uploads).where(and(eq(uploads.id, uploadId))), 0, 'the upload row');
     expect(attempts).toBe(2);
   }, 240_000);
 });

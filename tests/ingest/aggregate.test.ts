@@ -3,6 +3,7 @@ import { CellStatus, createHourAggregator } from '~/lib/ingest/index';
 import type { TagHour, TagOptions } from '~/lib/ingest/index';
 import { expectClose } from '../support/expect-close';
 import { hourOf, ingestFixture, referenceStats, utc } from './helpers';
+import { at } from '../support/present';
 
 /** Feeds [ISO time, value] samples of one tag and returns its hours. */
 function aggregate(samples: [string, number | string][], options: { timeZone?: string; tag?: Partial<TagOptions>; maxGapSeconds?: number } = {}): TagHour[] {
@@ -66,11 +67,11 @@ describe('createHourAggregator: statistics against hand-worked values', () => {
 
   it('status tags hold the previous value (step), analog tags interpolate', () => {
     const samples: [string, number][] = [[t('10:00'), 0], [t('10:15'), 1], [t('10:45'), 0], [t('11:00'), 0]];
-    const step = aggregate(samples, { tag: { kind: 'status', maxGapSeconds: 1800 } })[0];
+    const step = at(aggregate(samples, { tag: { kind: 'status', maxGapSeconds: 1800 } }), 0, 'hours');
     // held: 0 for 15 min, 1 for 30 min, 0 for 15 min -> mean 0.5, spread 0.5
     expect(step.mean).toBe(0.5);
     expect(step.stdDev).toBe(0.5);
-    const linear = aggregate(samples, { maxGapSeconds: 1800 })[0];
+    const linear = at(aggregate(samples, { maxGapSeconds: 1800 }), 0, 'hours');
     // linear: 0->1 over 15 min (0.5), 1->0 over 30 min (0.5), 0->0 over 15 min (0) -> (7.5 + 15 + 0) / 60 = 0.375
     expect(linear.mean).toBe(0.375);
     const ref = referenceStats(samples.map(([iso, v]) => [utc(iso), v]), utc(t('10:00')), utc(t('11:00')), 'step', 1_800_000);

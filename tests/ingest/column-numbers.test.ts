@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { answerColumnNumbers, createFileIngest, sniffLayout } from '~/lib/ingest/index';
 import type { TagHour } from '~/lib/ingest/index';
+import { at } from '../support/present';
 
 function read(text: string) {
   const hours: TagHour[] = [];
@@ -56,13 +57,13 @@ describe('quoted numbers of a comma-separated file keep their own format', () =>
     const ingest = createFileIngest({ timeZone: 'UTC', profile: answered, onHour: (h) => hours.push(h) });
     ingest.push(new TextEncoder().encode(t));
     ingest.end();
-    expect([hours[0].first, hours[0].max]).toEqual([1.234, 3.125]);
+    expect([at(hours, 0, 'hours').first, at(hours, 0, 'hours').max]).toEqual([1.234, 3.125]);
     const asThousands = { ...profile, columnNumbers: answerColumnNumbers(profile.columnNumbers, 1, 'thousands'), questions: [] };
     const h2: TagHour[] = [];
     const i2 = createFileIngest({ timeZone: 'UTC', profile: asThousands, onHour: (h) => h2.push(h) });
     i2.push(new TextEncoder().encode(t));
     i2.end();
-    expect([h2[0].first, h2[0].max]).toEqual([1234, 3125]);
+    expect([at(h2, 0, 'hours').first, at(h2, 0, 'hours').max]).toEqual([1234, 3125]);
   });
 
   it('unquoted cells keep the file rules: a semicolon file is not affected', () => {

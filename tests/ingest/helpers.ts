@@ -1,6 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { createFileIngest, decodeAll, sniffLayout } from '~/lib/ingest/index';
 import type { FileIngestOptions, FileIngestResult, LayoutProfile, TagHour } from '~/lib/ingest/index';
+import { at } from '../support/present';
 
 export function fixtureBytes(name: string): Uint8Array {
   return new Uint8Array(readFileSync(new URL(`../fixtures/ingest/${name}`, import.meta.url)));
@@ -55,8 +56,8 @@ export function referenceStats(
   for (let t = fromMs + 500; t < toMs; t += 1000) {
     let value: number | null = null;
     for (let i = 0; i + 1 < points.length; i++) {
-      const [t0, v0] = points[i];
-      const [t1, v1] = points[i + 1];
+      const [t0, v0] = at(points, i, 'points');
+      const [t1, v1] = at(points, i + 1, 'points');
       if (t >= t0 && t < t1 && t1 - t0 <= maxGapMs) {
         value = mode === 'step' ? v0 : v0 + ((v1 - v0) * (t - t0)) / (t1 - t0);
         break;

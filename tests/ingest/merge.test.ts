@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { aggregateSamples, createHourAggregator, mergeHours, tagHourKey, createRowReader, createSampleEmitter, teeSinks } from '~/lib/ingest/index';
 import type { RowReader, Sample, TagHour } from '~/lib/ingest/index';
 import { fixtureProfile, fixtureText, utc } from './helpers';
+import { at as item } from '../support/present';
 
 const at = (hm: string) => utc(`2024-03-05T${hm}:00Z`);
 const series = (tag: string, from: string, to: string, stepMin: number, value: number): Sample[] => {
@@ -45,7 +46,7 @@ describe('aggregateSamples', () => {
     const older = { priority: 1, samples: series('B1.FT-101', '10:00', '10:50', 10, 10) };
     const newer = { priority: 2, samples: series('B1.FT-101', '10:00', '10:50', 10, 11) };
     const { hours, contributors } = mergeHours([older, newer], { timeZone: 'UTC' });
-    expect(hours[0].mean).toBe(11);
+    expect(item(hours, 0, 'hours').mean).toBe(11);
     expect(contributors.get(tagHourKey('B1.FT-101', at('10:00')))).toEqual([2]);
   });
 
@@ -64,7 +65,7 @@ describe('aggregateSamples', () => {
     // kept: 30 at 10:00..10:30 (newer), 10 at 10:40, 10:50 (older; 10:40 is outside the span)
     // pieces: 30,30,30 (30 min) then 10:30->10:40 30->10 (20), 10:40->10:50 (10), 10:50->11:00 (10)
     // mean = (30*30 + 20*10 + 10*10 + 10*10) / 60 = 1300 / 60
-    expect(hours[0].mean).toBeCloseTo(1300 / 60, 12);
+    expect(item(hours, 0, 'hours').mean).toBeCloseTo(1300 / 60, 12);
   });
 
   it('keeps tags apart, sorts hours by tag, and reads null values and quality', () => {

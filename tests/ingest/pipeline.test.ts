@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { createFileIngest, IngestError } from '~/lib/ingest/index';
 import type { FileIngestOptions, TagHour } from '~/lib/ingest/index';
 import { fixtureBytes, fixtureProfile } from './helpers';
+import { at } from '../support/present';
 
 function run(bytes: Uint8Array, options: Omit<FileIngestOptions, 'onHour'>, chunk = 65536) {
   const hours: TagHour[] = [];
@@ -27,7 +28,7 @@ describe('createFileIngest', () => {
       ['binary.bin', 'BINARY_FILE'],
       ['header-only.csv', 'HEADER_ONLY'],
       ['duplicate-headers.csv', 'DUPLICATE_HEADERS'],
-    ]) {
+    ] as const) {
       expect(codeOf(() => run(fixtureBytes(name), { timeZone: 'UTC' })), name).toBe(code);
     }
   });
@@ -62,7 +63,7 @@ describe('createFileIngest', () => {
     });
     expect(result.report.dataRowCount).toBe(4320);
     expect(hours).toHaveLength(360); // 15 days of hours from 1 March 00:00
-    expect(hours[359].hourStartMs).toBe(Date.UTC(2024, 2, 15, 23));
+    expect(at(hours, 359, 'hours').hourStartMs).toBe(Date.UTC(2024, 2, 15, 23));
   });
 
   it('reuses a stored profile instead of sniffing', () => {

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { createFileIngest, createQualityJudge, DEFAULT_GOOD_QUALITY_CODES, fileVerdict, QualityClass, sniffLayout } from '~/lib/ingest/index';
 import type { RejectedCell, TagHour } from '~/lib/ingest/index';
+import { at } from '../support/present';
 
 function read(text: string, goodQualityCodes?: string[]) {
   const hours: TagHour[] = [];
@@ -32,7 +33,7 @@ describe('wide files with a quality column per tag', () => {
     ]);
     const ft = report.tags.find((t) => t.tag === 'B1.FT-101')!;
     expect([ft.valueCount, ft.badQualityCount, ft.uncertainCount]).toEqual([3, 1, 1]);
-    expect(ft.rejectedTexts[0].text).toBe('[bad quality Comm Fail] 20');
+    expect(at(ft.rejectedTexts, 0, 'rejected texts').text).toBe('[bad quality Comm Fail] 20');
     const h = hours.find((x) => x.tag === 'B1.FT-101')!;
     expect([h.sampleCount, h.min, h.max, h.badQualityCount, h.uncertainCount]).toEqual([3, 10, 40, 1, 1]);
   });

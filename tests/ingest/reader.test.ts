@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { CellStatus, createRowReader, IngestError, sniffLayout } from '~/lib/ingest/index';
 import type { LayoutProfile, ReadReport, RejectedCell, SampleSink } from '~/lib/ingest/index';
 import { fixtureProfile, fixtureText } from './helpers';
+import { at } from '../support/present';
 
 interface Got {
   tags: string[];
@@ -21,10 +22,10 @@ function read(name: string, timeZone: string, chunk = Infinity, profile: LayoutP
     addRow: (t, values, status) => {
       for (let k = 0; k < values.length; k++) {
         if (status[k] === CellStatus.Blank) continue;
-        samples.push([tags[k], new Date(t).toISOString(), Number.isNaN(values[k]) ? null : values[k], status[k]]);
+        samples.push([at(tags, k, 'tags'), new Date(t).toISOString(), Number.isNaN(at(values, k)) ? null : at(values, k), at(status, k)]);
       }
     },
-    addSample: (k, t, v, s) => samples.push([tags[k], new Date(t).toISOString(), Number.isNaN(v) ? null : v, s]),
+    addSample: (k, t, v, s) => samples.push([at(tags, k, 'tags'), new Date(t).toISOString(), Number.isNaN(v) ? null : v, s]),
   };
   const rejected: RejectedCell[] = [];
   const reader = createRowReader(profile, { timeZone, sink, onRejectedCell: (c) => rejected.push(c) });
@@ -74,7 +75,7 @@ describe('createRowReader', () => {
     const g = read('ragged.csv', 'UTC');
     expect(warning(g, 'RAGGED_ROWS')).toMatchObject({ count: 2, lines: [3, 4] });
     expect(g.samples.filter((s) => s[1] === '2024-03-05T10:02:00.000Z').map((s) => s[2])).toEqual([52, 482]);
-    expect(g.report.tags[1].blankCount).toBe(1);
+    expect(at(g.report.tags, 1, 'tags').blankCount).toBe(1);
   });
 
   it('duplicate and backwards times are kept and reported with their lines', () => {
@@ -138,7 +139,7 @@ describe('createRowReader', () => {
       ['B1.TT-102', '2024-03-05T10:20:00.000Z', 482, CellStatus.Uncertain], // 'sort of'
     ]);
     expect(warning(g, 'UNKNOWN_QUALITY')).toMatchObject({ count: 1, lines: [9] });
-    const ft = g.report.tags[0];
+    const ft = at(g.report.tags, 0, 'tags');
     expect(ft).toMatchObject({ valueCount: 3, textCount: 1, badQualityCount: 1, uncertainCount: 1 });
     expect(ft.rejectedTexts).toEqual([
       { text: '[bad quality] 9999', count: 1 },
@@ -176,7 +177,7 @@ describe('createRowReader', () => {
       const ms = Date.UTC(1999, 0, 1) + Math.floor(rand() * 40 * 365) * 86_400_000 + Math.floor(rand() * 86_400) * 1000 + (i % 2 ? Math.floor(rand() * 1000) : 0);
       const iso = new Date(ms).toISOString(); // YYYY-MM-DDThh:mm:ss.fffZ
       const forms = [iso, iso.slice(0, 19) + 'Z', iso.slice(0, 19), iso.slice(0, 23), iso.slice(0, 16), iso.slice(0, 16) + 'Z', iso.slice(0, 19).replace('T', ' ')];
-      const form = forms[i % forms.length];
+      const form = at(forms, i % forms.length);
       text += `B1.FT-101,${form},${i}\n`;
       expected.push(Date.parse(/Z$/.test(form) ? form : form.replace(' ', 'T') + 'Z'));
     }
@@ -205,7 +206,7 @@ describe('createRowReader', () => {
       const rejected: RejectedCell[] = [];
       const r = createRowReader(p, {
         timeZone: 'UTC',
-        sink: { addTag() {}, addRow: (_t, values, status) => got.push([values[0], status[0]]), addSample() {} },
+        sink: { addTag() {}, addRow: (_t, values, status) => got.push([at(values, 0), at(status, 0)]), addSample() {} },
         onRejectedCell: (c) => rejected.push(c),
       });
       for (let o = 0; o < text.length; o += chunk) r.push(text.slice(o, o + chunk));

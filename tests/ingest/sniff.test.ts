@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { fnv1a64Hex, IngestError, LayoutProfileSchema, previewRows, sniffLayout, createRowReader } from '~/lib/ingest/index';
 import type { LayoutProfile } from '~/lib/ingest/index';
 import { fixtureProfile, fixtureText } from './helpers';
+import { at } from '../support/present';
 
 function errorOf(f: () => unknown): IngestError {
   try {
@@ -70,7 +71,7 @@ describe('sniffLayout', () => {
     const p = fixtureProfile('ambiguous.csv');
     expect(p.time.dateOrder).toBe('ambiguous');
     expect(p.questions).toEqual([expect.objectContaining({ field: 'time.dateOrder', blocking: true, choices: ['dmy', 'mdy'] })]);
-    expect(p.questions[0].message).toContain('dots are usually day-first');
+    expect(at(p.questions, 0, 'questions').message).toContain('dots are usually day-first');
     expect(p.confidence).toBeLessThanOrEqual(0.5);
     // the reader refuses until it is answered; answered, it reads
     const sink = { addTag() {}, addRow() {}, addSample() {} };
@@ -172,12 +173,12 @@ describe('previewRows', () => {
     const text = fixtureText('status-words.csv');
     const rows = previewRows(text, sniffLayout(text), 3, { timeZone: 'Europe/Berlin' });
     expect(rows.map((r) => r.timeIso)).toEqual(['2024-03-05T09:00:00.000Z', '2024-03-05T09:05:00.000Z', '2024-03-05T09:10:00.000Z']);
-    expect(rows[1].cells.map((c) => [c.tag, c.value, c.rejected])).toEqual([
+    expect(at(rows, 1, 'rows').cells.map((c) => [c.tag, c.value, c.rejected])).toEqual([
       ['B1.FT-101', null, 'Shutdown'],
       ['B1.TT-102', 481, null],
     ]);
-    expect(rows[2].cells.map((c) => c.rejected)).toEqual(['I/O Timeout', 'Bad']);
-    expect(rows[0].timeText).toBe('2024-03-05 10:00:00');
+    expect(at(rows, 2, 'rows').cells.map((c) => c.rejected)).toEqual(['I/O Timeout', 'Bad']);
+    expect(at(rows, 0, 'rows').timeText).toBe('2024-03-05 10:00:00');
   });
 
   it('leaves out the last line of a sample that may have been cut', () => {
@@ -191,7 +192,7 @@ describe('previewRows', () => {
   it('with an undecided date order shows both readings', () => {
     const text = fixtureText('ambiguous.csv');
     const rows = previewRows(text, sniffLayout(text), 1, { timeZone: 'UTC' });
-    expect(rows[0].timeIso).toBeNull();
-    expect(rows[0].timeChoices).toEqual({ dmy: '2024-03-05T10:00:00.000Z', mdy: '2024-05-03T10:00:00.000Z' });
+    expect(at(rows, 0, 'rows').timeIso).toBeNull();
+    expect(at(rows, 0, 'rows').timeChoices).toEqual({ dmy: '2024-03-05T10:00:00.000Z', mdy: '2024-05-03T10:00:00.000Z' });
   });
 });

@@ -13,7 +13,7 @@ import {
   type SpeciesName,
 } from '~/lib/thermo/gas';
 import { ThermoRangeError } from '~/lib/thermo/errors';
-import { NASA_AIR_BLOCK } from '~/lib/thermo/species-data';
+import { NASA_AIR_BLOCK, type NasaRange } from '~/lib/thermo/species-data';
 
 /**
  * The NASA rows were computed by the source with R = 8.314472 J/(mol K); the core uses the CODATA 2018
@@ -205,7 +205,7 @@ describe('mixtures', () => {
     for (const [T1, T2] of [
       [300, 900],
       [1000, 2500],
-    ]) {
+    ] as const) {
       const n = 400;
       const hstep = (T2 - T1) / n;
       let sum = flue.cp(T1) / T1 + flue.cp(T2) / T2;
@@ -275,7 +275,7 @@ describe('mixtures', () => {
 describe('coefficient blocks', () => {
   it('self-consistency: both NASA ranges meet at 1000 K in cp, h and s (catches a mis-copied coefficient)', async () => {
     const { NASA_SPECIES } = await import('~/lib/thermo/species-data');
-    const evalRange = (a: readonly number[], b: readonly number[], T: number) => ({
+    const evalRange = (a: NasaRange['a'], b: NasaRange['b'], T: number) => ({
       cp: a[0] / T ** 2 + a[1] / T + a[2] + a[3] * T + a[4] * T ** 2 + a[5] * T ** 3 + a[6] * T ** 4,
       h: -a[0] / T + a[1] * Math.log(T) + a[2] * T + (a[3] * T ** 2) / 2 + (a[4] * T ** 3) / 3 + (a[5] * T ** 4) / 4 + (a[6] * T ** 5) / 5 + b[0],
       s: -a[0] / (2 * T ** 2) - a[1] / T + a[2] * Math.log(T) + a[3] * T + (a[4] * T ** 2) / 2 + (a[5] * T ** 3) / 3 + (a[6] * T ** 4) / 4 + b[1],

@@ -23,14 +23,14 @@ describe('incompressible liquid', () => {
       [298.15, 101325],
       [278.15, 98000],
       [313.15, 103000],
-    ]) {
+    ] as const) {
       const dead = deadState.liquid(oil, T0, p0);
       for (const [T, p] of [
         [523.15, 8e5],
         [350, 2e5],
         [260, 5e4],
         [T0, p0],
-      ]) {
+      ] as const) {
         const general = flowExergy({ h: oil.h(T, p), s: oil.s(T) }, dead);
         const closed = 2300 * (T - T0 - T0 * Math.log(T / T0)) + ((p - p0) * 1) / 850;
         expectClose(general, closed, { rtol: 1e-10, atol: 1e-9, label: `T=${T} p=${p} T0=${T0}` });

@@ -5,6 +5,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { expectClose } from '../support/expect-close';
+import { at } from '../support/present';
 import { runs, unit } from '../support/random';
 import { water } from '~/lib/thermo/water';
 import { ThermoRangeError } from '~/lib/thermo/errors';
@@ -41,8 +42,8 @@ describe('thermodynamic identities', () => {
     else if (region === 2) props2(p, T, out);
     else if (region === 5) props5(p, T, out);
     else props3(1 / water.pt(p, T).v, T, out);
-    const pp = region === 3 ? out[6] : p;
-    expectClose(out[0], out[5] + pp * out[2], { rtol: 1e-13 });
+    const pp = region === 3 ? at(out, 6) : p;
+    expectClose(at(out, 0), at(out, 5) + pp * at(out, 2), { rtol: 1e-13 });
   });
 
   it.each(statesByRegion)(`${SC}: cp equals the central difference of h at constant p (region $region, p = $p Pa, T = $T K)`, ({ region, p, T }) => {

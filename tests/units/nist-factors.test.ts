@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { expectClose } from '../support/expect-close';
+import { defined } from '../support/present';
 import { toSI, uncertaintyToSI } from '~/lib/units';
 import type { Quantity } from '~/lib/units';
 
@@ -54,7 +55,7 @@ const rows: Row[] = [
 /** Half a unit in the last printed digit of a factor like '6.894757E+03', relative to the factor. */
 function printedRtol(printed: string): number {
   const [mantissa, exp] = printed.split('E');
-  const decimals = (mantissa.split('.')[1] ?? '').length;
+  const decimals = (defined(mantissa, `the mantissa of ${printed}`).split('.')[1] ?? '').length;
   return (0.5 * 10 ** (-decimals + Number(exp))) / Number(printed);
 }
 
