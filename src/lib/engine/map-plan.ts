@@ -3,20 +3,10 @@
  * its vector entries (see map.ts for what is decided); and the catalogue's required links missing.
  */
 import { SATURATION_TOLERANCE_K, type PortSpec } from '../equipment';
-import { kindSpec, measurementsFor, type FluidKind } from '../plant/kinds';
+import { FLUID_SHORT_LABELS, type FluidKind } from '../kinds';
+import { kindSpec, measurementsFor } from '../plant/kinds';
 import { flowEntry, fluidSpecOf, fromLink, isCondensed, linkAt, put, reading, tsat, type Ctx } from './map-port';
 import type { EngineLink, EnginePort, EngineReason, EngineUnit } from './types';
-
-const FLUID_WORDS: Record<FluidKind, string> = {
-  water: 'water / steam',
-  air: 'air',
-  'flue-gas': 'flue gas',
-  fuel: 'fuel',
-  'fuel-gas': 'fuel gas',
-  'gas-mixture': 'gas mixture',
-  liquid: 'liquid',
-};
-
 
 export interface PortOptions {
   direction: 'in' | 'out';
@@ -137,7 +127,7 @@ export function planPort(ctx: Ctx, port: EnginePort, o: PortOptions): PortSpec |
     ctx.problems.push({ code: 'LINK_MISSING', message: `${port.name}: no flow linked` });
     return null;
   }
-  ctx.plans.push({ name: port.name, slot: port.slot, direction: o.direction, fluid: FLUID_WORDS[port.fluid!.kind], state: stateWords, flow: flowWords });
+  ctx.plans.push({ name: port.name, slot: port.slot, direction: o.direction, fluid: FLUID_SHORT_LABELS[port.fluid!.kind], state: stateWords, flow: flowWords });
   return spec;
 }
 
