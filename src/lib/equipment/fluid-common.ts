@@ -1,6 +1,7 @@
 /**
  * What the prepared fluids of every family share: fuels from their plain data, humid combustion
- * air, a small memo of dead states, and the last step of every port state (flow exergy and flags).
+ * air, small memos of dead states and of port states (./model.ts), and the last step of every port
+ * state (flow exergy and flags).
  */
 import {
   DRY_AIR_MOLE_FRACTIONS,
@@ -115,4 +116,37 @@ export function finishState(
   const psi = ePh + 0.5 * V * V + G_m_per_s2 * z;
   if (T < env.T0_K && phase !== 'condensed-fuel') flags.push('below-dead-state');
   return { p, T, h, s, x, phase, psi, ePh, eCh: dv.eCh, h0: dv.dead.h0, velocity_m_per_s: V, elevation_m: z, flags };
+}
+
+/** Memo of the three most recently used port states, keyed by five numbers. */
+export class StateMemo {
+  private keys = new Float64Array(15).fill(NaN);
+  private vals: (PortState | undefined)[] = [undefined, undefined, undefined];
+  private age = [0, 0, 0];
+  private clock = 0;
+  find(a: number, b: number, c: number, d: number, e: number): PortState | undefined {
+    const k = this.keys;
+    for (let i = 0, o = 0; i < 3; i++, o += 5) {
+      if (k[o] === a && k[o + 1] === b && k[o + 2] === c && k[o + 3] === d && k[o + 4] === e) {
+        this.age[i] = ++this.clock;
+        return this.vals[i]!;
+      }
+    }
+    return undefined;
+  }
+  put(a: number, b: number, c: number, d: number, e: number, v: PortState): PortState {
+    const k = this.keys;
+    let j = 0;
+    if (this.age[1] < this.age[j]) j = 1;
+    if (this.age[2] < this.age[j]) j = 2;
+    const o = 5 * j;
+    k[o] = a;
+    k[o + 1] = b;
+    k[o + 2] = c;
+    k[o + 3] = d;
+    k[o + 4] = e;
+    this.vals[j] = v;
+    this.age[j] = ++this.clock;
+    return v;
+  }
 }

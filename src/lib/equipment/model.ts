@@ -26,6 +26,7 @@
 import { BALANCE_KINDS as UNIT_KINDS, type BalanceKind as UnitKind } from '../kinds';
 import type { BalancePort, TermRole, UnitBalance } from './balance';
 import { BalanceInputError } from './errors';
+import { StateMemo } from './fluid-common';
 import { fuelSpecOf, prepareFluid, type Environment, type Fluid, type FluidSpec, type PortMeasurement, type PortState } from './fluids';
 import {
   boilerBalance,
@@ -100,39 +101,6 @@ interface CompiledPort {
   iO2: number;
   fixedX: number;
   memo: StateMemo;
-}
-
-/** Memo of the three most recently used port states, keyed by five numbers. */
-class StateMemo {
-  private keys = new Float64Array(15).fill(NaN);
-  private vals: (PortState | undefined)[] = [undefined, undefined, undefined];
-  private age = [0, 0, 0];
-  private clock = 0;
-  find(a: number, b: number, c: number, d: number, e: number): PortState | undefined {
-    const k = this.keys;
-    for (let i = 0, o = 0; i < 3; i++, o += 5) {
-      if (k[o] === a && k[o + 1] === b && k[o + 2] === c && k[o + 3] === d && k[o + 4] === e) {
-        this.age[i] = ++this.clock;
-        return this.vals[i]!;
-      }
-    }
-    return undefined;
-  }
-  put(a: number, b: number, c: number, d: number, e: number, v: PortState): PortState {
-    const k = this.keys;
-    let j = 0;
-    if (this.age[1] < this.age[j]) j = 1;
-    if (this.age[2] < this.age[j]) j = 2;
-    const o = 5 * j;
-    k[o] = a;
-    k[o + 1] = b;
-    k[o + 2] = c;
-    k[o + 3] = d;
-    k[o + 4] = e;
-    this.vals[j] = v;
-    this.age[j] = ++this.clock;
-    return v;
-  }
 }
 
 /** A unit model compiled for fast repeated evaluation. */
