@@ -1,7 +1,7 @@
 import AxeBuilder from '@axe-core/playwright';
 import { expect, test } from '@playwright/test';
-import pg from 'pg';
 import { DEMO, signIn } from './helpers';
+import { stamp, turbineWithHours } from './unit-hours-fixture';
 
 /**
  * One hour opens in place: a side sheet over the hour table, in view without scrolling, with the
@@ -9,29 +9,10 @@ import { DEMO, signIn } from './helpers';
  * address names the hour, and that address opens the hour directly, also one outside the week the
  * page opens on. An invented site with a turbine and 10 days of unit hours written as the engine would.
  */
-const stamp = () => `${Date.now().toString(36)}${Math.floor(Math.random() * 1e4)}`;
 const FIRST = '2025-03-03T00:00:00Z';
 const HOURS = 24 * 10;
 
-async function unitWithHours(name: string): Promise<string> {
-  const client = new pg.Client({ connectionString: process.env.DATABASE_URL });
-  await client.connect();
-  try {
-    const siteId = (await client.query<{ id: string }>(`insert into sites (name, time_zone, currency) values ($1, 'UTC', 'GBP') returning id`, [name])).rows[0]!.id;
-    const unitId = (await client.query<{ id: string }>(`insert into plant_units (site_id, name, kind) values ($1, 'Panel turbine', 'turbine') returning id`, [siteId])).rows[0]!.id;
-    await client.query(
-      `insert into unit_hours (unit_id, hour_start, state, reasons, load, load_unit, t0_k, fuel_w, product_w, loss_w, destruction_w,
-         efficiency, efficiency_u, destruction_u_w, destruction_cost_per_h, model_version, inputs_hash)
-       select $1, $2::timestamptz + i * interval '1 hour', 'steady', '[]'::jsonb, l, '-', 290, 4e6 * l, 3e6 * l, 0, 1e6 * l,
-         0.75, 0.01, 2e4, 30 * l, 'e2e', md5(i::text)
-       from generate_series(0, $3 - 1) i, lateral (select 0.6 + 0.3 * sin(i / 5.0) as l) a`,
-      [unitId, FIRST, HOURS],
-    );
-    return unitId;
-  } finally {
-    await client.end();
-  }
-}
+const unitWithHours = async (name: string): Promise<string> => (await turbineWithHours(name, 'Panel turbine', FIRST, HOURS)).unitId;
 
 const inAddress = (iso: string) => `${new Date(iso).toISOString().slice(0, 16)}Z`;
 

@@ -1,36 +1,17 @@
 import { expect, test, type Page } from '@playwright/test';
-import pg from 'pg';
 import { DEMO, signIn } from './helpers';
 import { noticeWithChart } from './notice-fixture';
+import { stamp, turbineWithHours } from './unit-hours-fixture';
 
 /**
  * Periods with data, freshness and page sizes. An invented site shaped like the demo plant: unit
  * hours from 1 April 2025 to Monday 19 May 2025 16:00 UTC, so the calendar week of the latest hour
  * holds only 17 of its 168 hours and the month 19 days of 31, while earlier full periods exist.
  */
-const stamp = () => `${Date.now().toString(36)}${Math.floor(Math.random() * 1e4)}`;
 const FIRST = '2025-04-01T00:00:00Z';
 const HOURS = 24 * 48 + 17; // to 2025-05-19 16:00 UTC, the start of the last hour
 
-async function staleSite(name: string) {
-  const client = new pg.Client({ connectionString: process.env.DATABASE_URL });
-  await client.connect();
-  try {
-    const siteId = (await client.query<{ id: string }>(`insert into sites (name, time_zone, currency) values ($1, 'UTC', 'GBP') returning id`, [name])).rows[0]!.id;
-    const unitId = (await client.query<{ id: string }>(`insert into plant_units (site_id, name, kind) values ($1, 'Periods turbine', 'turbine') returning id`, [siteId])).rows[0]!.id;
-    await client.query(
-      `insert into unit_hours (unit_id, hour_start, state, reasons, load, load_unit, t0_k, fuel_w, product_w, loss_w, destruction_w,
-         efficiency, efficiency_u, destruction_u_w, destruction_cost_per_h, model_version, inputs_hash)
-       select $1, $2::timestamptz + i * interval '1 hour', 'steady', '[]'::jsonb, l, '-', 290, 4e6 * l, 3e6 * l, 0, 1e6 * l,
-         0.75, 0.01, 2e4, 30 * l, 'e2e', md5(i::text)
-       from generate_series(0, $3 - 1) i, lateral (select 0.6 + 0.3 * sin(i / 5.0) as l) a`,
-      [unitId, FIRST, HOURS],
-    );
-    return { siteId, unitId };
-  } finally {
-    await client.end();
-  }
-}
+const staleSite = (name: string) => turbineWithHours(name, 'Periods turbine', FIRST, HOURS);
 
 /** The JSON answer of the first response whose URL contains `part`, while `go` runs. */
 async function answerOf<T>(page: Page, part: string, go: () => Promise<unknown>): Promise<T> {

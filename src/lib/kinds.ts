@@ -1,7 +1,9 @@
 /**
  * The one list of kind names: the unit kinds of the plant model (what a model file and the database
  * store for a unit) and the balance kinds of the equipment library (which exergy balance runs), with
- * the one table that relates them. Every other module takes the names from here.
+ * the one table that relates them; and the same pair for fluids: the fluid kinds a port of the plant
+ * model carries and the fluid kinds the equipment library prepares. Every other module takes the
+ * names from here.
  *
  * The two lists differ by design, not by accident: a balance is a computation that several kinds of
  * equipment share, and the equipment library keeps a few names of its own (an expander is a turbine,
@@ -125,3 +127,66 @@ export const BALANCE_KINDS_OF_UNIT_KIND = {
 export function balanceKindsOf<K extends UnitKind>(kind: K): (typeof BALANCE_KINDS_OF_UNIT_KIND)[K] {
   return BALANCE_KINDS_OF_UNIT_KIND[kind];
 }
+
+/**
+ * What a port of the plant model carries (stored names: the model file's `fluid.kind` and the
+ * database keep them; src/lib/plant/model-schema.ts accepts exactly these):
+ * water (water and steam, IAPWS-IF97), air (dry air), flue-gas (composition from a boiler's fuel and
+ * the measured O2), fuel (the unit's own fuel definition), fuel-gas (a combustible gas by mole
+ * fractions), gas-mixture (any ideal-gas mixture by mole fractions), liquid (incompressible, cp and density).
+ */
+export const FLUID_KINDS = ['water', 'air', 'flue-gas', 'fuel', 'fuel-gas', 'gas-mixture', 'liquid'] as const;
+export type FluidKind = (typeof FLUID_KINDS)[number];
+
+export function isFluidKind(k: unknown): k is FluidKind {
+  return typeof k === 'string' && (FLUID_KINDS as readonly string[]).includes(k);
+}
+
+/** What a fluid kind is called on the screens, in the help and in the words catalogue. */
+export const FLUID_LABELS: Readonly<Record<FluidKind, string>> = {
+  water: 'water / steam',
+  air: 'air',
+  'flue-gas': 'flue gas',
+  fuel: "the unit's fuel",
+  'fuel-gas': 'fuel gas (composition)',
+  'gas-mixture': 'gas mixture (composition)',
+  liquid: 'incompressible liquid',
+};
+
+/** The short word of a fluid kind in the engine's port plans of an hour ("how each port was known"). */
+export const FLUID_SHORT_LABELS: Readonly<Record<FluidKind, string>> = {
+  water: 'water / steam',
+  air: 'air',
+  'flue-gas': 'flue gas',
+  fuel: 'fuel',
+  'fuel-gas': 'fuel gas',
+  'gas-mixture': 'gas mixture',
+  liquid: 'liquid',
+};
+
+/**
+ * Kinds of fluid the equipment library prepares (`FluidSpec.kind` of src/lib/equipment/fluids):
+ * plain data for the property core. They differ from the plant's by design: 'gas' is any ideal-gas
+ * mixture by mole or mass fractions (the plant's gas-mixture), and 'fuel' carries the fuel itself
+ * (the plant's fuel names the unit's fuel definition). FLUID_SPEC_KINDS_OF_FLUID_KIND relates them.
+ */
+export const FLUID_SPEC_KINDS = ['water', 'gas', 'air', 'fuel-gas', 'fuel', 'flue-gas', 'liquid'] as const;
+export type FluidSpecKind = (typeof FLUID_SPEC_KINDS)[number];
+
+/**
+ * The equipment fluid kinds a plant fluid kind is prepared as (src/lib/engine/map-port.ts): a unit's
+ * fuel defined by composition is a fuel gas, by heating value or ultimate analysis a fuel.
+ */
+export const FLUID_SPEC_KINDS_OF_FLUID_KIND = {
+  water: ['water'],
+  air: ['air'],
+  'flue-gas': ['flue-gas'],
+  fuel: ['fuel-gas', 'fuel'],
+  'fuel-gas': ['fuel-gas'],
+  'gas-mixture': ['gas'],
+  liquid: ['liquid'],
+} as const satisfies Record<FluidKind, readonly FluidSpecKind[]>;
+
+/** The families a prepared equipment fluid belongs to (`Fluid.family`): how its state is computed. */
+export const FLUID_FAMILIES = ['water', 'gas', 'liquid', 'condensed-fuel', 'flue-gas'] as const;
+export type FluidFamily = (typeof FLUID_FAMILIES)[number];

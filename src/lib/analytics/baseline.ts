@@ -3,7 +3,7 @@
  * ambient temperature over a reference period, with fit quality per ASHRAE Guideline 14-2014 and a
  * prediction interval ("expected band") for a new hour.
  *
- * Solved by Householder QR on a centred and scaled design (each regressor is replaced by
+ * Solved by Householder QR (./least-squares.ts) on a centred and scaled design (each regressor is replaced by
  * z = (x - mean) / sd before the polynomial terms are formed), which keeps the problem well
  * conditioned even for T_amb^2 in kelvin; coefficients are reported back in the raw variables.
  *
@@ -17,6 +17,7 @@
  */
 import { fitAr1 } from './autocorrelation';
 import { coverageFactor } from './distributions';
+import { householderLeastSquares, inverseGram, meanSd } from './least-squares';
 
 /** Regression terms besides the intercept. */
 export type BaselineTerm = 'load' | 'T_amb' | 'load^2' | 'T_amb^2' | 'load*T_amb';
@@ -130,88 +131,6 @@ function designRow(model: Pick<BaselineModel, 'terms' | 'centre' | 'scale'>, loa
   return [1, ...model.terms.map((t) => termValue(t, zL, zT))];
 }
 
-function meanSd(x: ArrayLike<number>): { mean: number; sd: number } {
-  let s = 0;
-  for (let i = 0; i < x.length; i++) s += x[i];
-  const mean = s / x.length;
-  let ss = 0;
-  for (let i = 0; i < x.length; i++) ss += (x[i] - mean) ** 2;
-  return { mean, sd: Math.sqrt(ss / x.length) };
-}
-
-/**
- * Least squares by Householder QR: minimises ||A b - y||. A is n x p, row-major in rows.
- * Returns b and R (upper triangular p x p).
- */
-function householderLeastSquares(rows: number[][], y: ArrayLike<number>, names: string[]): { b: number[]; R: number[][] } {
-  const n = rows.length;
-  const p = rows[0].length;
-  const A = rows.map((r) => r.slice());
-  const q = Array.from(y);
-  const colNorms = names.map((_, j) => Math.sqrt(A.reduce((acc, r) => acc + r[j] * r[j], 0)));
-  for (let j = 0; j < p; j++) {
-    let norm = 0;
-    for (let i = j; i < n; i++) norm += A[i][j] * A[i][j];
-    norm = Math.sqrt(norm);
-    if (norm <= 1e-12 * (colNorms[j] || 1)) {
-      throw new BaselineError(
-        `the term '${names[j]}' is (nearly) a combination of the other terms over this reference period; ` +
-          `choose fewer terms or a period with more varied load and ambient temperature`,
-      );
-    }
-    const alpha = A[j][j] > 0 ? -norm : norm;
-    // v = a_j - alpha e_j (stored in column j below and on the diagonal)
-    const v = new Float64Array(n - j);
-    for (let i = j; i < n; i++) v[i - j] = A[i][j];
-    v[0] -= alpha;
-    let vv = 0;
-    for (let i = 0; i < v.length; i++) vv += v[i] * v[i];
-    if (vv > 0) {
-      for (let c = j; c < p; c++) {
-        let dot = 0;
-        for (let i = j; i < n; i++) dot += v[i - j] * A[i][c];
-        const f = (2 * dot) / vv;
-        for (let i = j; i < n; i++) A[i][c] -= f * v[i - j];
-      }
-      let dot = 0;
-      for (let i = j; i < n; i++) dot += v[i - j] * q[i];
-      const f = (2 * dot) / vv;
-      for (let i = j; i < n; i++) q[i] -= f * v[i - j];
-    }
-  }
-  const R = Array.from({ length: p }, (_, i) => Array.from({ length: p }, (_, c) => (c >= i ? A[i][c] : 0)));
-  const b = new Array<number>(p).fill(0);
-  for (let i = p - 1; i >= 0; i--) {
-    let s = q[i];
-    for (let c = i + 1; c < p; c++) s -= R[i][c] * b[c];
-    b[i] = s / R[i][i];
-  }
-  return { b, R };
-}
-
-/** (R^T R)^-1 = R^-1 R^-T for upper-triangular R. */
-function inverseGram(R: number[][]): number[][] {
-  const p = R.length;
-  const Rinv = Array.from({ length: p }, () => new Array<number>(p).fill(0));
-  for (let c = 0; c < p; c++) {
-    Rinv[c][c] = 1 / R[c][c];
-    for (let i = c - 1; i >= 0; i--) {
-      let s = 0;
-      for (let k = i + 1; k <= c; k++) s += R[i][k] * Rinv[k][c];
-      Rinv[i][c] = -s / R[i][i];
-    }
-  }
-  const G = Array.from({ length: p }, () => new Array<number>(p).fill(0));
-  for (let i = 0; i < p; i++) {
-    for (let j = 0; j < p; j++) {
-      let s = 0;
-      for (let k = Math.max(i, j); k < p; k++) s += Rinv[i][k] * Rinv[j][k];
-      G[i][j] = s;
-    }
-  }
-  return G;
-}
-
 /**
  * Fit statistics of predictions against observations, per ASHRAE Guideline 14-2014:
  * CV(RMSE) = sqrt(sum (y - yhat)^2 / (n - p)) / ybar and NMBE = sum (y - yhat) / ((n - p) ybar),
@@ -289,7 +208,16 @@ export function fitBaseline(data: BaselineData, options: FitOptions = {}): Basel
   };
   const rows: number[][] = [];
   for (let i = 0; i < n; i++) rows.push(designRow(frame, data.load[i], data.T_amb_K[i]));
-  const { b: beta, R } = householderLeastSquares(rows, data.y, ['intercept', ...terms]);
+  const names = ['intercept', ...terms];
+  const { b: beta, R } = householderLeastSquares(
+    rows,
+    data.y,
+    (j) =>
+      new BaselineError(
+        `the term '${names[j]}' is (nearly) a combination of the other terms over this reference period; ` +
+          `choose fewer terms or a period with more varied load and ambient temperature`,
+      ),
+  );
   const yhat = rows.map((r) => r.reduce((acc, v, j) => acc + v * beta[j], 0));
   const stats: FitStats = goodnessOfFit(data.y, yhat, p);
   if (data.hourStartMs) {

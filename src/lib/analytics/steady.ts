@@ -193,59 +193,73 @@ export function classifyHour(
   const lim = limitsOf(limits);
   const keyTags = keyTagsOf(limits.keyTags ?? Object.keys(input.tags), limits.loadTag);
   const reasons: HourReason[] = [];
+  /** Key tags with a sound value this hour: only these are judged for load and spread. */
   const sound = new Set<string>();
-
   for (const tag of keyTags) {
-    const st = input.tags[tag];
-    if (!st || st.mean === null || !Number.isFinite(st.mean) || st.sampleCount <= 0) {
-      reasons.push({ code: 'TAG_MISSING', state: 'suspect', tag, message: `${tag}: no usable value in this hour` });
-      continue;
-    }
-    let ok = true;
-    if (st.flatline) {
-      ok = false;
-      reasons.push({ code: 'TAG_FROZEN', state: 'suspect', tag, message: `${tag}: value unchanged for longer than its flatline limit (frozen transmitter?)` });
-    }
-    if (st.outOfRangeCount > lim.maxOutOfRangeCount) {
-      ok = false;
-      reasons.push({
-        code: 'TAG_OUT_OF_RANGE',
-        state: 'suspect',
-        tag,
-        value: st.outOfRangeCount,
-        limit: lim.maxOutOfRangeCount,
-        message: `${tag}: ${st.outOfRangeCount} sample(s) outside the valid range`,
-      });
-    }
-    const minCovered = limits.spread?.[tag]?.minCoveredFraction ?? lim.minCoveredFraction;
-    if (st.coveredFraction < minCovered || st.sampleCount < lim.minSamples) {
-      ok = false;
-      reasons.push({
-        code: 'TAG_POOR_COVERAGE',
-        state: 'suspect',
-        tag,
-        value: st.coveredFraction,
-        limit: minCovered,
-        message: `${tag}: data cover ${(100 * st.coveredFraction).toFixed(0)} % of the hour with ${st.sampleCount} sample(s) (need ${(100 * minCovered).toFixed(0)} % and ${lim.minSamples})`,
-      });
-    }
-    const cells = st.sampleCount + st.nonNumericCount + (st.badQualityCount ?? 0);
-    const statusShare = cells > 0 ? (st.nonNumericCount + (st.badQualityCount ?? 0)) / cells : 0;
-    if (statusShare > lim.maxNonNumericFraction) {
-      ok = false;
-      reasons.push({
-        code: 'TAG_STATUS_WORDS',
-        state: 'suspect',
-        tag,
-        value: statusShare,
-        limit: lim.maxNonNumericFraction,
-        message: `${tag}: ${(100 * statusShare).toFixed(0)} % of the hour's cells are status words or bad quality`,
-      });
-    }
-    if (ok) sound.add(tag);
+    const found = tagHealthReasons(tag, input.tags[tag], limits, lim);
+    reasons.push(...found);
+    if (found.length === 0) sound.add(tag);
   }
+  reasons.push(...balanceReasons(input.balances ?? [], lim));
+  reasons.push(...loadReasons(input.tags[limits.loadTag], sound, limits));
+  for (const tag of keyTags) if (sound.has(tag)) reasons.push(...spreadReasons(tag, input.tags[tag]!, limits, lim));
 
-  for (const b of input.balances ?? []) {
+  reasons.sort((a, b) => RANK[b.state] - RANK[a.state]);
+  const state: HourState = reasons.length > 0 ? reasons[0].state : 'steady';
+  return { state, reasons };
+}
+
+type Limits = ReturnType<typeof limitsOf>;
+
+/** One key tag's value this hour: present, not frozen, in range, covering the hour, not mostly status words (none found: sound). */
+function tagHealthReasons(tag: string, st: TagHourStats | null | undefined, limits: SteadyLimits, lim: Limits): HourReason[] {
+  if (!st || st.mean === null || !Number.isFinite(st.mean) || st.sampleCount <= 0) {
+    return [{ code: 'TAG_MISSING', state: 'suspect', tag, message: `${tag}: no usable value in this hour` }];
+  }
+  const reasons: HourReason[] = [];
+  if (st.flatline) {
+    reasons.push({ code: 'TAG_FROZEN', state: 'suspect', tag, message: `${tag}: value unchanged for longer than its flatline limit (frozen transmitter?)` });
+  }
+  if (st.outOfRangeCount > lim.maxOutOfRangeCount) {
+    reasons.push({
+      code: 'TAG_OUT_OF_RANGE',
+      state: 'suspect',
+      tag,
+      value: st.outOfRangeCount,
+      limit: lim.maxOutOfRangeCount,
+      message: `${tag}: ${st.outOfRangeCount} sample(s) outside the valid range`,
+    });
+  }
+  const minCovered = limits.spread?.[tag]?.minCoveredFraction ?? lim.minCoveredFraction;
+  if (st.coveredFraction < minCovered || st.sampleCount < lim.minSamples) {
+    reasons.push({
+      code: 'TAG_POOR_COVERAGE',
+      state: 'suspect',
+      tag,
+      value: st.coveredFraction,
+      limit: minCovered,
+      message: `${tag}: data cover ${(100 * st.coveredFraction).toFixed(0)} % of the hour with ${st.sampleCount} sample(s) (need ${(100 * minCovered).toFixed(0)} % and ${lim.minSamples})`,
+    });
+  }
+  const cells = st.sampleCount + st.nonNumericCount + (st.badQualityCount ?? 0);
+  const statusShare = cells > 0 ? (st.nonNumericCount + (st.badQualityCount ?? 0)) / cells : 0;
+  if (statusShare > lim.maxNonNumericFraction) {
+    reasons.push({
+      code: 'TAG_STATUS_WORDS',
+      state: 'suspect',
+      tag,
+      value: statusShare,
+      limit: lim.maxNonNumericFraction,
+      message: `${tag}: ${(100 * statusShare).toFixed(0)} % of the hour's cells are status words or bad quality`,
+    });
+  }
+  return reasons;
+}
+
+/** Balances of the hour that do not close within their tolerance. */
+function balanceReasons(balances: readonly BalanceClosure[], lim: Limits): HourReason[] {
+  const reasons: HourReason[] = [];
+  for (const b of balances) {
     const tol = b.tolerance ?? lim.maxBalanceResidual;
     if (!Number.isFinite(b.residual) || Math.abs(b.residual) > tol) {
       reasons.push({
@@ -260,63 +274,66 @@ export function classifyHour(
       });
     }
   }
+  return reasons;
+}
 
-  const load = input.tags[limits.loadTag];
-  if (sound.has(limits.loadTag) && load && load.mean !== null && load.mean < limits.minLoad) {
-    reasons.push({
+/** A sound load below the unit's minimum load: the hour is idle. */
+function loadReasons(load: TagHourStats | null | undefined, sound: ReadonlySet<string>, limits: SteadyLimits): HourReason[] {
+  if (!sound.has(limits.loadTag) || !load || load.mean === null || load.mean >= limits.minLoad) return [];
+  return [
+    {
       code: 'BELOW_MIN_LOAD',
       state: 'idle',
       tag: limits.loadTag,
       value: load.mean,
       limit: limits.minLoad,
       message: `load ${load.mean} is below the minimum load ${limits.minLoad}`,
-    });
-  }
+    },
+  ];
+}
 
-  for (const tag of keyTags) {
-    if (!sound.has(tag)) continue;
-    const st = input.tags[tag]!;
-    if (st.stdDev === null || !Number.isFinite(st.stdDev)) continue;
-    const own = limits.spread?.[tag];
-    const maxRel = own?.maxRelSpread ?? (own?.maxStd === undefined ? lim.defaultMaxRelSpread : undefined);
-    const mean = st.mean!;
-    const floor = resolvableSpread(mean, own?.instrument, lim.resolutionFactor);
-    // At the limit counts as settled: only a spread above it makes the hour unsettled.
-    if (maxRel !== undefined && mean !== 0) {
-      const rel = st.stdDev / Math.abs(mean);
-      const relLimit = Math.max(maxRel, floor / Math.abs(mean));
-      if (aboveLimit(rel, relLimit)) {
-        const [shown, shownLimit] = distinctFigures(100 * rel, 100 * relLimit);
-        reasons.push({
+/** A sound key tag's spread within the hour against its relative or absolute limit (never below what the instrument resolves). */
+function spreadReasons(tag: string, st: TagHourStats, limits: SteadyLimits, lim: Limits): HourReason[] {
+  if (st.stdDev === null || !Number.isFinite(st.stdDev)) return [];
+  const own = limits.spread?.[tag];
+  const maxRel = own?.maxRelSpread ?? (own?.maxStd === undefined ? lim.defaultMaxRelSpread : undefined);
+  const mean = st.mean!;
+  const floor = resolvableSpread(mean, own?.instrument, lim.resolutionFactor);
+  // At the limit counts as settled: only a spread above it makes the hour unsettled.
+  if (maxRel !== undefined && mean !== 0) {
+    const rel = st.stdDev / Math.abs(mean);
+    const relLimit = Math.max(maxRel, floor / Math.abs(mean));
+    if (aboveLimit(rel, relLimit)) {
+      const [shown, shownLimit] = distinctFigures(100 * rel, 100 * relLimit);
+      return [
+        {
           code: 'SPREAD_HIGH',
           state: 'unsettled',
           tag,
           value: rel,
           limit: relLimit,
           message: `${tag}: spread ${shown} % of the mean, above its limit ${shownLimit} % (${(100 * maxRel).toFixed(1)} % of the mean${floorNote(floor)}; a spread at the limit counts as settled)`,
-        });
-        continue;
-      }
+        },
+      ];
     }
-    if (own?.maxStd !== undefined) {
-      const absLimit = Math.max(own.maxStd, floor);
-      if (aboveLimit(st.stdDev, absLimit)) {
-        const [shown, shownLimit] = distinctFigures(st.stdDev, absLimit, 3);
-        reasons.push({
+  }
+  if (own?.maxStd !== undefined) {
+    const absLimit = Math.max(own.maxStd, floor);
+    if (aboveLimit(st.stdDev, absLimit)) {
+      const [shown, shownLimit] = distinctFigures(st.stdDev, absLimit, 3);
+      return [
+        {
           code: 'SPREAD_HIGH',
           state: 'unsettled',
           tag,
           value: st.stdDev,
           limit: absLimit,
           message: `${tag}: spread ${shown} within the hour, above its limit ${shownLimit} (set ${fmt(own.maxStd)}${floorNote(floor)}; a spread at the limit counts as settled)`,
-        });
-      }
+        },
+      ];
     }
   }
-
-  reasons.sort((a, b) => RANK[b.state] - RANK[a.state]);
-  const state: HourState = reasons.length > 0 ? reasons[0].state : 'steady';
-  return { state, reasons };
+  return [];
 }
 
 const fmt = (v: number) => Number(v.toPrecision(3)).toString();

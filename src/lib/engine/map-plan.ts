@@ -3,20 +3,10 @@
  * its vector entries (see map.ts for what is decided); and the catalogue's required links missing.
  */
 import { SATURATION_TOLERANCE_K, type PortSpec } from '../equipment';
-import { kindSpec, measurementsFor, type FluidKind } from '../plant/kinds';
+import { FLUID_SHORT_LABELS, type FluidKind } from '../kinds';
+import { kindSpec, measurementsFor } from '../plant/kinds';
 import { flowEntry, fluidSpecOf, fromLink, isCondensed, linkAt, put, reading, tsat, type Ctx } from './map-port';
 import type { EngineLink, EnginePort, EngineReason, EngineUnit } from './types';
-
-const FLUID_WORDS: Record<FluidKind, string> = {
-  water: 'water / steam',
-  air: 'air',
-  'flue-gas': 'flue gas',
-  fuel: 'fuel',
-  'fuel-gas': 'fuel gas',
-  'gas-mixture': 'gas mixture',
-  liquid: 'liquid',
-};
-
 
 export interface PortOptions {
   direction: 'in' | 'out';
@@ -49,72 +39,12 @@ export function planPort(ctx: Ctx, port: EnginePort, o: PortOptions): PortSpec |
   const o2 = o.o2Link ?? linkAt(ctx, port.name, 'o2Fraction');
   const fluid = fluidSpecOf(ctx, port, o.o2Basis ?? o2?.basis ?? 'dry');
   if (!fluid) return null;
-  const isWater = fluid.kind === 'water';
-  const pL = linkAt(ctx, port.name, 'pressure');
-  const TL = linkAt(ctx, port.name, 'temperature');
-  const xL = isWater ? linkAt(ctx, port.name, 'vapourFraction') : undefined;
-  const fL = linkAt(ctx, port.name, 'massFlow', 'volumeFlow', 'standardVolumeFlow');
   const spec: PortSpec = { name: port.name, direction: o.direction, fluid };
   if (o.role) spec.role = o.role;
   if (o.group) spec.group = o.group;
-  let stateWords = '';
-  let p = NaN;
-  let T = NaN;
-  const condensed = fluid.kind === 'fuel' && isCondensed(ctx.unit.fuel, fluid);
-  if (condensed) {
-    spec.state = 'ambient';
-    stateWords = 'at the dead state (a condensed fuel)';
-  } else if (o.ambientDefault && !(pL && TL)) {
-    spec.state = 'ambient';
-    stateWords = pL || TL ? 'at the dead state (p and T are both needed to use them)' : 'at the dead state (no p and T linked)';
-  } else {
-    const pName = `${port.name}.p_Pa`;
-    if (pL) p = fromLink(ctx, pName, pL);
-    else if (o.pFromAtmosphere) {
-      p = ctx.p_atm_Pa;
-      put(ctx, pName, p, 0, { kind: 'site', what: "atmospheric pressure (no pressure linked)" });
-    } else if ((o.satLiquidDefault?.copyP || o.satVapourDefault?.copyP) && ctx.entries.has(`${o.satLiquidDefault?.copyP ?? o.satVapourDefault?.copyP}.p_Pa`)) {
-      const from = `${o.satLiquidDefault?.copyP ?? o.satVapourDefault?.copyP}.p_Pa`;
-      const src = ctx.entries.get(from)!;
-      p = src.value;
-      put(ctx, pName, p, src.u, { kind: 'copy', of: from, note: 'no pressure linked: the pressure of the port it leaves from' });
-    } else {
-      ctx.problems.push({ code: 'LINK_MISSING', message: `${port.name}: no pressure linked` });
-      return null;
-    }
-    if (xL) {
-      spec.state = 'px';
-      fromLink(ctx, `${port.name}.x`, xL);
-      stateWords = 'p and vapour fraction x';
-    } else if (TL) {
-      const Tmean = reading(ctx, TL).value;
-      const Ts = isWater ? tsat(p) : NaN;
-      const wet = isWater && Number.isFinite(Ts) && Number.isFinite(Tmean) && Tmean - Ts <= SATURATION_TOLERANCE_K;
-      if (o.wetFromEnergy) ctx.decisions.push({ pName, TL, water: isWater, fromEnergy: wet || !Number.isFinite(Tmean) });
-      if (o.wetFromEnergy && (wet || !Number.isFinite(Tmean))) {
-        spec.state = 'energy-balance';
-        stateWords = Number.isFinite(Tmean)
-          ? `from the energy balance: T = ${(Tmean - 273.15).toFixed(1)} degC is within ${SATURATION_TOLERANCE_K} K of saturation (${(Ts - 273.15).toFixed(1)} degC), so p and T do not fix the state`
-          : 'from the energy balance (no temperature reading this hour)';
-      } else {
-        spec.state = 'pT';
-        T = fromLink(ctx, `${port.name}.T_K`, TL);
-        stateWords = 'p and T';
-      }
-    } else if (o.wetFromEnergy) {
-      spec.state = 'energy-balance';
-      stateWords = 'from the energy balance (no temperature linked)';
-    } else if (o.satLiquidDefault) {
-      spec.state = 'sat-liquid';
-      stateWords = 'saturated liquid at p (no temperature linked)';
-    } else if (o.satVapourDefault) {
-      spec.state = 'sat-vapour';
-      stateWords = 'saturated vapour at p (no temperature linked)';
-    } else {
-      ctx.problems.push({ code: 'LINK_MISSING', message: `${port.name}: no temperature linked` });
-      return null;
-    }
-  }
+  const state = planState(ctx, port, o, fluid);
+  if (!state) return null;
+  spec.state = state.mode;
   if (fluid.kind === 'flue-gas') {
     if (!o2) {
       ctx.problems.push({ code: 'LINK_MISSING', message: `${port.name}: no O2 fraction linked` });
@@ -122,23 +52,93 @@ export function planPort(ctx: Ctx, port: EnginePort, o: PortOptions): PortSpec |
     }
     fromLink(ctx, `${port.name}.O2_fraction`, o2);
   }
-  let flowWords: string;
-  if (o.flowForced) {
-    spec.flow = o.flowForced;
-    flowWords = 'from the fuel flow and the measured O2 (combustion balance)';
-  } else if (fL) {
-    spec.flow = 'measured';
-    flowEntry(ctx, port, fL, { p, T });
-    flowWords = fL.quantity === 'massFlow' ? 'measured' : fL.quantity === 'volumeFlow' ? 'measured volume flow times density' : 'measured volume at reference conditions';
-  } else if (o.flowDefault && o.flowDefault !== 'none') {
-    spec.flow = o.flowDefault;
-    flowWords = o.flowDefault === 'mass-balance' ? 'from the mass balance' : o.flowDefault === 'energy-balance' ? 'from the energy balance' : 'from the combustion balance';
-  } else {
-    ctx.problems.push({ code: 'LINK_MISSING', message: `${port.name}: no flow linked` });
-    return null;
-  }
-  ctx.plans.push({ name: port.name, slot: port.slot, direction: o.direction, fluid: FLUID_WORDS[port.fluid!.kind], state: stateWords, flow: flowWords });
+  const flow = planFlow(ctx, port, o, state);
+  if (!flow) return null;
+  spec.flow = flow.mode;
+  ctx.plans.push({ name: port.name, slot: port.slot, direction: o.direction, fluid: FLUID_SHORT_LABELS[port.fluid!.kind], state: state.words, flow: flow.words });
   return spec;
+}
+
+/** How a port's state is known this hour, in words, with the p [Pa] and T [K] read (NaN when not read). */
+interface StatePlan {
+  mode: NonNullable<PortSpec['state']>;
+  words: string;
+  p: number;
+  T: number;
+}
+
+/** The port's state: the dead state, or its pressure and a second property (x, T, saturation or the energy balance). Null: a link is missing (a problem says which). */
+function planState(ctx: Ctx, port: EnginePort, o: PortOptions, fluid: NonNullable<PortSpec['fluid']>): StatePlan | null {
+  const pL = linkAt(ctx, port.name, 'pressure');
+  const TL = linkAt(ctx, port.name, 'temperature');
+  if (fluid.kind === 'fuel' && isCondensed(ctx.unit.fuel, fluid)) return { mode: 'ambient', words: 'at the dead state (a condensed fuel)', p: NaN, T: NaN };
+  if (o.ambientDefault && !(pL && TL)) {
+    const words = pL || TL ? 'at the dead state (p and T are both needed to use them)' : 'at the dead state (no p and T linked)';
+    return { mode: 'ambient', words, p: NaN, T: NaN };
+  }
+  const pName = `${port.name}.p_Pa`;
+  const p = planPressure(ctx, port, o, pL);
+  if (p === null) return null;
+  const isWater = fluid.kind === 'water';
+  const xL = isWater ? linkAt(ctx, port.name, 'vapourFraction') : undefined;
+  if (xL) {
+    fromLink(ctx, `${port.name}.x`, xL);
+    return { mode: 'px', words: 'p and vapour fraction x', p, T: NaN };
+  }
+  if (TL) {
+    const Tmean = reading(ctx, TL).value;
+    const Ts = isWater ? tsat(p) : NaN;
+    const wet = isWater && Number.isFinite(Ts) && Number.isFinite(Tmean) && Tmean - Ts <= SATURATION_TOLERANCE_K;
+    if (o.wetFromEnergy) ctx.decisions.push({ pName, TL, water: isWater, fromEnergy: wet || !Number.isFinite(Tmean) });
+    if (o.wetFromEnergy && (wet || !Number.isFinite(Tmean))) {
+      const words = Number.isFinite(Tmean)
+        ? `from the energy balance: T = ${(Tmean - 273.15).toFixed(1)} degC is within ${SATURATION_TOLERANCE_K} K of saturation (${(Ts - 273.15).toFixed(1)} degC), so p and T do not fix the state`
+        : 'from the energy balance (no temperature reading this hour)';
+      return { mode: 'energy-balance', words, p, T: NaN };
+    }
+    return { mode: 'pT', words: 'p and T', p, T: fromLink(ctx, `${port.name}.T_K`, TL) };
+  }
+  if (o.wetFromEnergy) return { mode: 'energy-balance', words: 'from the energy balance (no temperature linked)', p, T: NaN };
+  if (o.satLiquidDefault) return { mode: 'sat-liquid', words: 'saturated liquid at p (no temperature linked)', p, T: NaN };
+  if (o.satVapourDefault) return { mode: 'sat-vapour', words: 'saturated vapour at p (no temperature linked)', p, T: NaN };
+  ctx.problems.push({ code: 'LINK_MISSING', message: `${port.name}: no temperature linked` });
+  return null;
+}
+
+/** The port's pressure entry [Pa]: linked, the site's atmosphere, or copied from the port it leaves from. Null: none linked (a problem says so). */
+function planPressure(ctx: Ctx, port: EnginePort, o: PortOptions, pL: ReturnType<typeof linkAt>): number | null {
+  const pName = `${port.name}.p_Pa`;
+  if (pL) return fromLink(ctx, pName, pL);
+  if (o.pFromAtmosphere) {
+    put(ctx, pName, ctx.p_atm_Pa, 0, { kind: 'site', what: "atmospheric pressure (no pressure linked)" });
+    return ctx.p_atm_Pa;
+  }
+  const copyP = o.satLiquidDefault?.copyP ?? o.satVapourDefault?.copyP;
+  if ((o.satLiquidDefault?.copyP || o.satVapourDefault?.copyP) && ctx.entries.has(`${copyP}.p_Pa`)) {
+    const from = `${copyP}.p_Pa`;
+    const src = ctx.entries.get(from)!;
+    put(ctx, pName, src.value, src.u, { kind: 'copy', of: from, note: 'no pressure linked: the pressure of the port it leaves from' });
+    return src.value;
+  }
+  ctx.problems.push({ code: 'LINK_MISSING', message: `${port.name}: no pressure linked` });
+  return null;
+}
+
+/** How the port's mass flow is known: forced by the kind, linked, or the kind's default balance. Null: none linked (a problem says so). */
+function planFlow(ctx: Ctx, port: EnginePort, o: PortOptions, state: StatePlan): { mode: NonNullable<PortSpec['flow']>; words: string } | null {
+  if (o.flowForced) return { mode: o.flowForced, words: 'from the fuel flow and the measured O2 (combustion balance)' };
+  const fL = linkAt(ctx, port.name, 'massFlow', 'volumeFlow', 'standardVolumeFlow');
+  if (fL) {
+    flowEntry(ctx, port, fL, { p: state.p, T: state.T });
+    const words = fL.quantity === 'massFlow' ? 'measured' : fL.quantity === 'volumeFlow' ? 'measured volume flow times density' : 'measured volume at reference conditions';
+    return { mode: 'measured', words };
+  }
+  if (o.flowDefault && o.flowDefault !== 'none') {
+    const words = o.flowDefault === 'mass-balance' ? 'from the mass balance' : o.flowDefault === 'energy-balance' ? 'from the energy balance' : 'from the combustion balance';
+    return { mode: o.flowDefault, words };
+  }
+  ctx.problems.push({ code: 'LINK_MISSING', message: `${port.name}: no flow linked` });
+  return null;
 }
 
 /** Required measurements of the catalogue that have no link this hour (docs/plant-model.md). */

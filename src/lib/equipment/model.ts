@@ -26,6 +26,7 @@
 import { BALANCE_KINDS as UNIT_KINDS, type BalanceKind as UnitKind } from '../kinds';
 import type { BalancePort, TermRole, UnitBalance } from './balance';
 import { BalanceInputError } from './errors';
+import { StateMemo } from './fluid-common';
 import { fuelSpecOf, prepareFluid, type Environment, type Fluid, type FluidSpec, type PortMeasurement, type PortState } from './fluids';
 import {
   boilerBalance,
@@ -102,39 +103,6 @@ interface CompiledPort {
   memo: StateMemo;
 }
 
-/** Memo of the three most recently used port states, keyed by five numbers. */
-class StateMemo {
-  private keys = new Float64Array(15).fill(NaN);
-  private vals: (PortState | undefined)[] = [undefined, undefined, undefined];
-  private age = [0, 0, 0];
-  private clock = 0;
-  find(a: number, b: number, c: number, d: number, e: number): PortState | undefined {
-    const k = this.keys;
-    for (let i = 0, o = 0; i < 3; i++, o += 5) {
-      if (k[o] === a && k[o + 1] === b && k[o + 2] === c && k[o + 3] === d && k[o + 4] === e) {
-        this.age[i] = ++this.clock;
-        return this.vals[i]!;
-      }
-    }
-    return undefined;
-  }
-  put(a: number, b: number, c: number, d: number, e: number, v: PortState): PortState {
-    const k = this.keys;
-    let j = 0;
-    if (this.age[1] < this.age[j]) j = 1;
-    if (this.age[2] < this.age[j]) j = 2;
-    const o = 5 * j;
-    k[o] = a;
-    k[o + 1] = b;
-    k[o + 2] = c;
-    k[o + 3] = d;
-    k[o + 4] = e;
-    this.vals[j] = v;
-    this.age[j] = ++this.clock;
-    return v;
-  }
-}
-
 /** A unit model compiled for fast repeated evaluation. */
 export interface CompiledUnit {
   readonly kind: UnitKind;
@@ -152,6 +120,26 @@ function kindOk(kind: UnitKind): void {
   if (!UNIT_KINDS.includes(kind)) throw new BalanceInputError('INVALID_MODEL', 'kind', `unknown unit kind '${kind}' (one of ${UNIT_KINDS.join(', ')})`);
 }
 
+/** The vector's entry names, built in the order of the module comment; `add` refuses a name twice. */
+class Layout {
+  readonly names: string[] = ['T0_K', 'p0_Pa'];
+  add(n: string): number {
+    if (this.names.includes(n)) throw new BalanceInputError('INVALID_MODEL', n, 'two vector entries have this name (port names must be unique)');
+    this.names.push(n);
+    return this.names.length - 1;
+  }
+}
+
+/** The entries of a kind's own terms: power and efficiency, a machine's powers in and out, a generic volume's powers and heats (-1: none). */
+interface CompiledTerms {
+  iPower: number;
+  iEta: number;
+  iIn: number;
+  iOut: number;
+  powers: { spec: GenericTermSpec; i: number }[];
+  heats: { spec: GenericTermSpec; iQ: number; iT: number }[];
+}
+
 /**
  * Compiles a unit model: prepares fluids, fixes the vector layout, and memoises port states so that
  * a central-difference sweep recomputes only the ports an input touches.
@@ -159,176 +147,184 @@ function kindOk(kind: UnitKind): void {
  */
 export function compileUnit(kind: UnitKind, model: UnitModel): CompiledUnit {
   kindOk(kind);
-  const names: string[] = ['T0_K', 'p0_Pa'];
-  const add = (n: string): number => {
-    if (names.includes(n)) throw new BalanceInputError('INVALID_MODEL', n, 'two vector entries have this name (port names must be unique)');
-    names.push(n);
-    return names.length - 1;
-  };
+  const layout = new Layout();
   const portSpecs = model.ports ?? [];
   if (MACHINES.has(kind) && portSpecs.length) throw new BalanceInputError('INVALID_MODEL', 'ports', `a ${kind} has no ports, only powerIn_W and powerOut_W`);
   const fuelPortSpec = kind === 'boiler' ? portSpecs.find((p) => p.role === 'fuel') : undefined;
-  const ports: CompiledPort[] = portSpecs.map((spec) => {
-    const mode = spec.state ?? 'pT';
-    const flow = spec.flow ?? 'measured';
-    const fluid = prepareFluid(spec.fluid, fuelPortSpec ? fuelSpecOf(fuelPortSpec.fluid) : undefined);
-    const cp: CompiledPort = { spec, fluid, iM: -1, iP: -1, iV: -1, iO2: -1, fixedX: NaN, memo: new StateMemo() };
-    if (!['measured', 'mass-balance', 'energy-balance', 'fuel-ratio'].includes(flow)) {
-      throw new BalanceInputError('INVALID_MODEL', `${spec.name}.flow`, `unknown flow mode '${flow}'`);
-    }
-    if (flow === 'measured') cp.iM = add(`${spec.name}.mDot_kg_per_s`);
-    if (fluid.family === 'condensed-fuel' && mode !== 'ambient') {
-      throw new BalanceInputError('INVALID_MODEL', `${spec.name}.state`, "a condensed fuel is taken at the dead state: use state 'ambient'");
-    }
-    if (['px', 'sat-liquid', 'sat-vapour'].includes(mode) && fluid.family !== 'water') {
-      throw new BalanceInputError('INVALID_MODEL', `${spec.name}.state`, `state '${mode}' applies to water only`);
-    }
-    switch (mode) {
-      case 'pT':
-        cp.iP = add(`${spec.name}.p_Pa`);
-        cp.iV = add(`${spec.name}.T_K`);
-        break;
-      case 'px':
-        cp.iP = add(`${spec.name}.p_Pa`);
-        cp.iV = add(`${spec.name}.x`);
-        break;
-      case 'ph':
-        cp.iP = add(`${spec.name}.p_Pa`);
-        cp.iV = add(`${spec.name}.h_J_per_kg`);
-        break;
-      case 'sat-liquid':
-      case 'sat-vapour':
-        cp.iP = add(`${spec.name}.p_Pa`);
-        cp.fixedX = mode === 'sat-liquid' ? 0 : 1;
-        break;
-      case 'energy-balance':
-        cp.iP = add(`${spec.name}.p_Pa`);
-        break;
-      case 'ambient':
-        break;
-      default:
-        throw new BalanceInputError('INVALID_MODEL', `${spec.name}.state`, `unknown state mode '${mode}'`);
-    }
-    if (fluid.family === 'flue-gas') cp.iO2 = add(`${spec.name}.O2_fraction`);
-    return cp;
-  });
-  let iPower = -1;
-  let iEta = -1;
-  let iIn = -1;
-  let iOut = -1;
-  if (TURBINES.has(kind) || COMPRESSORS.has(kind)) {
-    iPower = add('power_W');
-    if (model.powerMeasured === 'electric') iEta = add(TURBINES.has(kind) ? 'generatorEfficiency' : 'motorEfficiency');
-  } else if (MACHINES.has(kind)) {
-    iIn = add('powerIn_W');
-    iOut = add('powerOut_W');
-  }
-  const powers = (model.powers ?? []).map((w) => ({ spec: w, i: add(`${w.name}.power_W`) }));
-  const heats = (model.heats ?? []).map((q) => ({ spec: q, iQ: add(`${q.name}.Q_W`), iT: add(`${q.name}.Tb_K`) }));
-  if (kind !== 'generic' && (powers.length || heats.length)) {
-    throw new BalanceInputError('INVALID_MODEL', 'powers', 'powers and heats are entries of a generic control volume only');
-  }
-  const nIn = names.length;
-
-  const portsOf = (x: ArrayLike<number>, env: Environment): BalancePort[] => {
-    const out: BalancePort[] = new Array(ports.length);
-    for (let k = 0; k < ports.length; k++) {
-      const cp = ports[k];
-      const spec = cp.spec;
-      const mode = spec.state ?? 'pT';
-      const flow = spec.flow ?? 'measured';
-      const V = spec.velocity_m_per_s ?? 0;
-      const z = spec.elevation_m ?? 0;
-      const mDot = cp.iM >= 0 ? x[cp.iM] : (flow as 'mass-balance' | 'energy-balance' | 'fuel-ratio');
-      const O2 = cp.iO2 >= 0 ? x[cp.iO2] : 0; // memo keys must not be NaN (NaN !== NaN)
-      let measured: BalancePort['measured'];
-      let state: PortState | undefined;
-      if (mode === 'energy-balance') {
-        measured = { fromEnergyBalance: true, p_Pa: x[cp.iP], velocity_m_per_s: V, elevation_m: z };
-      } else {
-        const m: PortMeasurement = { velocity_m_per_s: V, elevation_m: z };
-        let p: number;
-        let v = 0;
-        if (mode === 'ambient') {
-          p = env.p0_Pa;
-          m.T_K = env.T0_K;
-        } else {
-          p = x[cp.iP];
-          if (mode === 'pT') m.T_K = v = x[cp.iV];
-          else if (mode === 'px') m.x = v = x[cp.iV];
-          else if (mode === 'ph') m.h_J_per_kg = v = x[cp.iV];
-          else m.x = v = cp.fixedX;
-        }
-        m.p_Pa = p;
-        if (cp.iO2 >= 0) m.O2_fraction = O2;
-        measured = m;
-        const fl = cp.fluid;
-        state = cp.memo.find(p, v, O2, env.T0_K, env.p0_Pa) ?? cp.memo.put(p, v, O2, env.T0_K, env.p0_Pa, fl.state(m, env));
-      }
-      out[k] = { name: spec.name, direction: spec.direction, fluid: cp.fluid, mDot_kg_per_s: mDot, measured, state, role: spec.role, group: spec.group };
-    }
-    return out;
-  };
-
-  const genericPowers = (x: ArrayLike<number>) => {
-    const out = new Array(powers.length);
-    for (let k = 0; k < powers.length; k++) {
-      const { spec, i } = powers[k];
-      out[k] = { label: spec.name, role: spec.role, power_W: spec.direction === 'out' ? x[i] : -x[i] };
-    }
-    return out;
-  };
-  const genericHeats = (x: ArrayLike<number>) => {
-    const out = new Array(heats.length);
-    for (let k = 0; k < heats.length; k++) {
-      const { spec, iQ, iT } = heats[k];
-      out[k] = { label: spec.name, role: spec.role, Q_W: spec.direction === 'in' ? x[iQ] : -x[iQ], Tb_K: x[iT] };
-    }
-    return out;
-  };
-
+  const fuelOfFlueGas = fuelPortSpec ? fuelSpecOf(fuelPortSpec.fluid) : undefined;
+  const ports = portSpecs.map((spec) => compilePort(spec, fuelOfFlueGas, layout));
+  const terms = compileTerms(kind, model, layout);
+  const names = layout.names;
   const evaluate = (x: ArrayLike<number>, lean = false): UnitBalance => {
-    const companions = !lean;
-    if (x.length !== nIn) throw new BalanceInputError('INVALID_MODEL', 'x', `the ${kind} model has ${nIn} inputs (${names.join(', ')}), got ${x.length}`);
-    for (let i = 0; i < nIn; i++) {
-      if (!Number.isFinite(x[i])) throw new BalanceInputError(Number.isNaN(x[i]) ? 'MISSING_INPUT' : 'IMPOSSIBLE_INPUT', names[i], `needs a finite value, got ${x[i]}`);
-    }
-    const env: Environment = { T0_K: x[0], p0_Pa: x[1] };
-    checkEnv(env);
-    if (MACHINES.has(kind)) return machineBalance({ env, powerIn_W: x[iIn], powerOut_W: x[iOut], kind: kind as 'motor' | 'generator' });
-    const bp = portsOf(x, env);
-    if (TURBINES.has(kind)) {
-      return turbineBalance({ env, ports: bp, companions, power_W: x[iPower], powerMeasured: model.powerMeasured, generatorEfficiency: iEta >= 0 ? x[iEta] : undefined, kind: kind as 'turbine' });
-    }
-    if (COMPRESSORS.has(kind)) {
-      return compressorBalance({ env, ports: bp, companions, power_W: x[iPower], powerMeasured: model.powerMeasured, motorEfficiency: iEta >= 0 ? x[iEta] : undefined, kind: kind as 'pump' });
-    }
-    switch (kind) {
-      case 'heat-exchanger':
-        return heatExchangerBalance({ env, ports: bp, companions, belowDeadState: model.belowDeadState });
-      case 'boiler':
-        return boilerBalance({ env, ports: bp, companions });
-      case 'valve':
-        return valveBalance({ env, ports: bp, companions });
-      case 'mixer':
-      case 'deaerator':
-      case 'open-feedwater-heater':
-        return mixerBalance({ env, ports: bp, companions, kind });
-      case 'condenser':
-      case 'cooler':
-        return condenserBalance({ env, ports: bp, companions, kind });
-      default:
-        return genericBalance({
-          env,
-          ports: bp,
-          companions,
-          chemical: model.chemical,
-          powers: genericPowers(x),
-          heats: genericHeats(x),
-        });
-    }
+    checkVector(kind, names, x);
+    return runBalance(kind, model, ports, terms, x, !lean);
   };
   return { kind, model, names: Object.freeze(names), evaluate };
+}
+
+/** One port: its prepared fluid and its entries (flow, pressure, the state's second property, O2) by its modes. */
+function compilePort(spec: PortSpec, fuelOfFlueGas: ReturnType<typeof fuelSpecOf>, layout: Layout): CompiledPort {
+  const mode = spec.state ?? 'pT';
+  const flow = spec.flow ?? 'measured';
+  const fluid = prepareFluid(spec.fluid, fuelOfFlueGas);
+  const cp: CompiledPort = { spec, fluid, iM: -1, iP: -1, iV: -1, iO2: -1, fixedX: NaN, memo: new StateMemo() };
+  if (!['measured', 'mass-balance', 'energy-balance', 'fuel-ratio'].includes(flow)) {
+    throw new BalanceInputError('INVALID_MODEL', `${spec.name}.flow`, `unknown flow mode '${flow}'`);
+  }
+  if (flow === 'measured') cp.iM = layout.add(`${spec.name}.mDot_kg_per_s`);
+  if (fluid.family === 'condensed-fuel' && mode !== 'ambient') {
+    throw new BalanceInputError('INVALID_MODEL', `${spec.name}.state`, "a condensed fuel is taken at the dead state: use state 'ambient'");
+  }
+  if (['px', 'sat-liquid', 'sat-vapour'].includes(mode) && fluid.family !== 'water') {
+    throw new BalanceInputError('INVALID_MODEL', `${spec.name}.state`, `state '${mode}' applies to water only`);
+  }
+  switch (mode) {
+    case 'pT':
+      cp.iP = layout.add(`${spec.name}.p_Pa`);
+      cp.iV = layout.add(`${spec.name}.T_K`);
+      break;
+    case 'px':
+      cp.iP = layout.add(`${spec.name}.p_Pa`);
+      cp.iV = layout.add(`${spec.name}.x`);
+      break;
+    case 'ph':
+      cp.iP = layout.add(`${spec.name}.p_Pa`);
+      cp.iV = layout.add(`${spec.name}.h_J_per_kg`);
+      break;
+    case 'sat-liquid':
+    case 'sat-vapour':
+      cp.iP = layout.add(`${spec.name}.p_Pa`);
+      cp.fixedX = mode === 'sat-liquid' ? 0 : 1;
+      break;
+    case 'energy-balance':
+      cp.iP = layout.add(`${spec.name}.p_Pa`);
+      break;
+    case 'ambient':
+      break;
+    default:
+      throw new BalanceInputError('INVALID_MODEL', `${spec.name}.state`, `unknown state mode '${mode}'`);
+  }
+  if (fluid.family === 'flue-gas') cp.iO2 = layout.add(`${spec.name}.O2_fraction`);
+  return cp;
+}
+
+/** The kind's own entries after the ports' (see the module comment). */
+function compileTerms(kind: UnitKind, model: UnitModel, layout: Layout): CompiledTerms {
+  const t: CompiledTerms = { iPower: -1, iEta: -1, iIn: -1, iOut: -1, powers: [], heats: [] };
+  if (TURBINES.has(kind) || COMPRESSORS.has(kind)) {
+    t.iPower = layout.add('power_W');
+    if (model.powerMeasured === 'electric') t.iEta = layout.add(TURBINES.has(kind) ? 'generatorEfficiency' : 'motorEfficiency');
+  } else if (MACHINES.has(kind)) {
+    t.iIn = layout.add('powerIn_W');
+    t.iOut = layout.add('powerOut_W');
+  }
+  t.powers = (model.powers ?? []).map((w) => ({ spec: w, i: layout.add(`${w.name}.power_W`) }));
+  t.heats = (model.heats ?? []).map((q) => ({ spec: q, iQ: layout.add(`${q.name}.Q_W`), iT: layout.add(`${q.name}.Tb_K`) }));
+  if (kind !== 'generic' && (t.powers.length || t.heats.length)) {
+    throw new BalanceInputError('INVALID_MODEL', 'powers', 'powers and heats are entries of a generic control volume only');
+  }
+  return t;
+}
+
+/** A vector of the layout's length with every entry finite, or the error naming the entry. */
+function checkVector(kind: UnitKind, names: readonly string[], x: ArrayLike<number>): void {
+  const nIn = names.length;
+  if (x.length !== nIn) throw new BalanceInputError('INVALID_MODEL', 'x', `the ${kind} model has ${nIn} inputs (${names.join(', ')}), got ${x.length}`);
+  for (let i = 0; i < nIn; i++) {
+    if (!Number.isFinite(x[i])) throw new BalanceInputError(Number.isNaN(x[i]) ? 'MISSING_INPUT' : 'IMPOSSIBLE_INPUT', names[i], `needs a finite value, got ${x[i]}`);
+  }
+}
+
+/** The ports at x: each one's measurements and its state (memoised per port), or its pressure alone for an energy-balance state. */
+function portsAt(ports: readonly CompiledPort[], x: ArrayLike<number>, env: Environment): BalancePort[] {
+  const out: BalancePort[] = new Array(ports.length);
+  for (let k = 0; k < ports.length; k++) {
+    const cp = ports[k];
+    const spec = cp.spec;
+    const mode = spec.state ?? 'pT';
+    const flow = spec.flow ?? 'measured';
+    const V = spec.velocity_m_per_s ?? 0;
+    const z = spec.elevation_m ?? 0;
+    const mDot = cp.iM >= 0 ? x[cp.iM] : (flow as 'mass-balance' | 'energy-balance' | 'fuel-ratio');
+    const O2 = cp.iO2 >= 0 ? x[cp.iO2] : 0; // memo keys must not be NaN (NaN !== NaN)
+    let measured: BalancePort['measured'];
+    let state: PortState | undefined;
+    if (mode === 'energy-balance') {
+      measured = { fromEnergyBalance: true, p_Pa: x[cp.iP], velocity_m_per_s: V, elevation_m: z };
+    } else {
+      const m: PortMeasurement = { velocity_m_per_s: V, elevation_m: z };
+      let p: number;
+      let v = 0;
+      if (mode === 'ambient') {
+        p = env.p0_Pa;
+        m.T_K = env.T0_K;
+      } else {
+        p = x[cp.iP];
+        if (mode === 'pT') m.T_K = v = x[cp.iV];
+        else if (mode === 'px') m.x = v = x[cp.iV];
+        else if (mode === 'ph') m.h_J_per_kg = v = x[cp.iV];
+        else m.x = v = cp.fixedX;
+      }
+      m.p_Pa = p;
+      if (cp.iO2 >= 0) m.O2_fraction = O2;
+      measured = m;
+      const fl = cp.fluid;
+      state = cp.memo.find(p, v, O2, env.T0_K, env.p0_Pa) ?? cp.memo.put(p, v, O2, env.T0_K, env.p0_Pa, fl.state(m, env));
+    }
+    out[k] = { name: spec.name, direction: spec.direction, fluid: cp.fluid, mDot_kg_per_s: mDot, measured, state, role: spec.role, group: spec.group };
+  }
+  return out;
+}
+
+/** A generic volume's powers at x, positive out of the volume [W]. */
+function genericPowers(powers: CompiledTerms['powers'], x: ArrayLike<number>) {
+  const out = new Array(powers.length);
+  for (let k = 0; k < powers.length; k++) {
+    const { spec, i } = powers[k];
+    out[k] = { label: spec.name, role: spec.role, power_W: spec.direction === 'out' ? x[i] : -x[i] };
+  }
+  return out;
+}
+
+/** A generic volume's heats at x, positive into the volume [W], with their boundary temperatures [K]. */
+function genericHeats(heats: CompiledTerms['heats'], x: ArrayLike<number>) {
+  const out = new Array(heats.length);
+  for (let k = 0; k < heats.length; k++) {
+    const { spec, iQ, iT } = heats[k];
+    out[k] = { label: spec.name, role: spec.role, Q_W: spec.direction === 'in' ? x[iQ] : -x[iQ], Tb_K: x[iT] };
+  }
+  return out;
+}
+
+/** The kind's balance at a checked vector x. */
+function runBalance(kind: UnitKind, model: UnitModel, ports: readonly CompiledPort[], t: CompiledTerms, x: ArrayLike<number>, companions: boolean): UnitBalance {
+  const env: Environment = { T0_K: x[0], p0_Pa: x[1] };
+  checkEnv(env);
+  if (MACHINES.has(kind)) return machineBalance({ env, powerIn_W: x[t.iIn], powerOut_W: x[t.iOut], kind: kind as 'motor' | 'generator' });
+  const bp = portsAt(ports, x, env);
+  if (TURBINES.has(kind)) {
+    return turbineBalance({ env, ports: bp, companions, power_W: x[t.iPower], powerMeasured: model.powerMeasured, generatorEfficiency: t.iEta >= 0 ? x[t.iEta] : undefined, kind: kind as 'turbine' });
+  }
+  if (COMPRESSORS.has(kind)) {
+    return compressorBalance({ env, ports: bp, companions, power_W: x[t.iPower], powerMeasured: model.powerMeasured, motorEfficiency: t.iEta >= 0 ? x[t.iEta] : undefined, kind: kind as 'pump' });
+  }
+  switch (kind) {
+    case 'heat-exchanger':
+      return heatExchangerBalance({ env, ports: bp, companions, belowDeadState: model.belowDeadState });
+    case 'boiler':
+      return boilerBalance({ env, ports: bp, companions });
+    case 'valve':
+      return valveBalance({ env, ports: bp, companions });
+    case 'mixer':
+    case 'deaerator':
+    case 'open-feedwater-heater':
+      return mixerBalance({ env, ports: bp, companions, kind });
+    case 'condenser':
+    case 'cooler':
+      return condenserBalance({ env, ports: bp, companions, kind });
+    default:
+      return genericBalance({ env, ports: bp, companions, chemical: model.chemical, powers: genericPowers(t.powers, x), heats: genericHeats(t.heats, x) });
+  }
 }
 
 const compiled = new WeakMap<UnitModel, Map<UnitKind, CompiledUnit>>();

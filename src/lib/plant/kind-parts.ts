@@ -3,7 +3,8 @@
  * groups and the parameters several kinds share, each declared once.
  */
 import { UNIT_KIND_LABELS } from '../kinds';
-import type { FluidKind, LinkQuantity } from './port-terms';
+import type { FluidKind } from '../kinds';
+import type { LinkQuantity } from './port-terms';
 import type { KindSpec, MeasurementSpec, NumberParam, ParamSpec, PortRole, PortSlot } from './kind-spec';
 
 const FLOW: readonly LinkQuantity[] = ['massFlow', 'volumeFlow', 'standardVolumeFlow'];

@@ -4,7 +4,8 @@
  */
 import type { UnitKind } from '../kinds';
 import type { Quantity } from '../units/quantities';
-import type { FluidKind, LinkQuantity } from './port-terms';
+import type { FluidKind } from '../kinds';
+import type { LinkQuantity } from './port-terms';
 
 /** A measurement a kind expects: satisfied by a current link with any one of `anyOf`. */
 export interface MeasurementSpec {

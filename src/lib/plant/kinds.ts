@@ -10,10 +10,10 @@
  *   ./kind-parts.ts      the building blocks entries share
  *   ./kind-catalogue.ts  the entries
  */
-import { UNIT_KINDS, type UnitKind } from '../kinds';
+import { UNIT_KINDS, type FluidKind, type UnitKind } from '../kinds';
 import { SPECS } from './kind-catalogue';
 import type { KindSpec, MeasurementSpec, ParamSpec, ParamValue, PortSlot } from './kind-spec';
-import type { FluidKind, LinkQuantity } from './port-terms';
+import type { LinkQuantity } from './port-terms';
 
 export { UNIT_KINDS, UNIT_KIND_LABELS, isUnitKind, type UnitKind } from '../kinds';
 export * from './port-terms';

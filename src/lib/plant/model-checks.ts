@@ -6,7 +6,8 @@
 import { jsonPath } from '~/lib/zod-words';
 import { SPECIES_NAMES } from '../thermo/gas';
 import { canConvert } from '../units/convert';
-import { LINK_QUANTITIES, allowedQuantities, kindSpec, type FluidKind, type UnitKind } from './kinds';
+import type { FluidKind } from '../kinds';
+import { LINK_QUANTITIES, allowedQuantities, kindSpec, type UnitKind } from './kinds';
 import { BEGINNING_MS, COMPOSITION_SUM_TOLERANCE, type Composition, type LinkModel, type ModelIssue, type PortModel } from './model-schema';
 
 /** True when the runtime knows the IANA zone. */

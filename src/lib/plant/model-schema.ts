@@ -11,6 +11,7 @@ import { z } from 'zod';
 import { ELEVATION_MAX_m, ELEVATION_MIN_m } from './atmosphere';
 import { NormallyIdleSchema } from './idle';
 import { TagLimitsSchema } from './tag-limits';
+import type { FluidKind } from '../kinds';
 import { LINK_QUANTITY_NAMES, UNIT_KINDS, type LinkQuantity } from './kinds';
 
 export const MODEL_FORMAT = 'lossline-plant-model';
@@ -50,6 +51,9 @@ export const FluidSchema = z.discriminatedUnion('kind', [
   z.strictObject({ kind: z.literal('liquid'), cp_J_per_kgK: positive, rho_kg_per_m3: positive, label: z.string().max(120).optional() }),
 ]);
 export type Fluid = z.infer<typeof FluidSchema>;
+/** The schema's fluid kinds are exactly the one list's (src/lib/kinds.ts FLUID_KINDS): a compile-time check; tests/plant/fluid-kinds.test.ts checks the values. */
+type SameKinds<A, B> = [A] extends [B] ? ([B] extends [A] ? true : false) : false;
+export const FLUID_SCHEMA_MATCHES_FLUID_KINDS: SameKinds<Fluid['kind'], FluidKind> = true;
 
 export const FUEL_TYPES = ['natural-gas', 'light-fuel-oil', 'heavy-fuel-oil', 'bituminous-coal'] as const;
 

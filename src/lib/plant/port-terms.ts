@@ -4,24 +4,8 @@
  */
 import type { Quantity } from '../units/quantities';
 
-/**
- * What a port carries (see ./fluids.ts for the full descriptions):
- * water (water and steam, IAPWS-IF97), air (dry air), flue-gas (composition from a boiler's fuel and
- * the measured O2), fuel (the unit's own fuel definition), fuel-gas (a combustible gas by mole
- * fractions), gas-mixture (any ideal-gas mixture by mole fractions), liquid (incompressible, cp and density).
- */
-export const FLUID_KINDS = ['water', 'air', 'flue-gas', 'fuel', 'fuel-gas', 'gas-mixture', 'liquid'] as const;
-export type FluidKind = (typeof FLUID_KINDS)[number];
-
-export const FLUID_LABELS: Record<FluidKind, string> = {
-  water: 'water / steam',
-  air: 'air',
-  'flue-gas': 'flue gas',
-  fuel: "the unit's fuel",
-  'fuel-gas': 'fuel gas (composition)',
-  'gas-mixture': 'gas mixture (composition)',
-  liquid: 'incompressible liquid',
-};
+/** What a port carries: the one list of fluid kinds and their labels live in src/lib/kinds.ts. */
+export { FLUID_KINDS, FLUID_LABELS, isFluidKind, type FluidKind } from '../kinds';
 
 /**
  * What a tag link can measure, each with the engineering-unit quantity its unit must belong to

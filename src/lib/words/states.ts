@@ -6,8 +6,8 @@
  */
 import type { HourState } from '../hour-states';
 import type { CloseOutcome, NoticeKind, NoticeLife, NoticeStatus, NoticeTrend, PriorReason } from '../notice-view';
-import { UNIT_KINDS, UNIT_KIND_LABELS, type UnitKind } from '../kinds';
-import { FLUID_KINDS, FLUID_LABELS, LINK_QUANTITIES, LINK_QUANTITY_NAMES, kindSpec, type FluidKind, type LinkQuantity } from '../plant/kinds';
+import { FLUID_KINDS, FLUID_LABELS, UNIT_KINDS, UNIT_KIND_LABELS, type FluidKind, type UnitKind } from '../kinds';
+import { LINK_QUANTITIES, LINK_QUANTITY_NAMES, kindSpec, type LinkQuantity } from '../plant/kinds';
 import { quantityList, type Quantity } from '../units/quantities';
 import { code, type WordEntry } from './types';
 

@@ -8,7 +8,8 @@
 import { and, asc, eq, gt, isNull, lt, lte, or, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import { BEGINNING_MS, checkLink, type LinkModel, type LinkTarget } from '~/lib/plant/model';
-import { LINK_QUANTITY_NAMES, type FluidKind, type LinkQuantity, type UnitKind } from '~/lib/plant/kinds';
+import type { FluidKind } from '~/lib/kinds';
+import { LINK_QUANTITY_NAMES, type LinkQuantity, type UnitKind } from '~/lib/plant/kinds';
 import type { LinkVersion } from '~/lib/plant/link-version';
 import { defaultUncertainty } from '~/lib/plant/uncertainty';
 import { db } from '../db/client';

@@ -1,4 +1,4 @@
-import { FLUID_LABELS, type FluidKind } from '~/lib/plant/kinds';
+import { FLUID_LABELS, type FluidKind } from '~/lib/kinds';
 import type { Fluid } from '~/lib/plant/model';
 import { showComposition, parseComposition } from '../common';
 
