@@ -1,4 +1,4 @@
-import { useCallback, useEffect, useRef, useState } from 'react';
+import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { HourPanel } from './HourPanel';
 import { HourStateMark } from './HourStateMark';
 import { fmt, fmtU, hourFromAddress, hourInAddress, siteDay, siteDayStart, siteTime } from './format';
@@ -7,6 +7,7 @@ import { HOUR_STATES } from '~/lib/hour-states';
 import { DAY_MS } from '~/lib/time';
 import type { UnitHourView as HourRow, UnitInfo } from '~/lib/views/unit-hour';
 import { counted } from '~/lib/counts';
+import { siteWriter } from '~/lib/units/writer';
 
 /** The page's address with the opened hour (?hour=...), or without it. */
 function addressWith(iso: string | null): URL {
@@ -29,6 +30,11 @@ const hourLink = (iso: string) => `${window.location.origin}${window.location.pa
  */
 export default function UnitResults({ unit, initialFrom, initialTo, initialHour }: { unit: UnitInfo; initialFrom: string; initialTo: string; initialHour: string | null }) {
   const tz = unit.timeZone;
+  // Powers in the site's chosen display unit and locale (its settings), at fixed decimals per column.
+  const w = useMemo(() => siteWriter(unit.display?.units, unit.display?.p_atm_Pa), [unit.display]);
+  const pu = w.unit('power');
+  const pDecimals = pu === 'MW' ? 3 : pu === 'W' ? 0 : 1;
+  const pw = (v_W: number | null | undefined) => w.value(v_W, 'power', pDecimals);
   const [fromDay, setFromDay] = useState(siteDay(initialFrom, tz));
   const [toDay, setToDay] = useState(siteDay(new Date(new Date(initialTo).getTime() - 1).toISOString(), tz));
   const [rows, setRows] = useState<HourRow[] | null>(null);
@@ -159,10 +165,10 @@ export default function UnitResults({ unit, initialFrom, initialTo, initialHour 
               <tr>
                 <th>Hour ({tz})</th>
                 <th>State</th>
-                <th className="num">Fuel F [kW]</th>
-                <th className="num">Product P [kW]</th>
-                <th className="num">Loss L [kW]</th>
-                <th className="num">Destruction D [kW]</th>
+                <th className="num">Fuel F [{pu}]</th>
+                <th className="num">Product P [{pu}]</th>
+                <th className="num">Loss L [{pu}]</th>
+                <th className="num">Destruction D [{pu}]</th>
                 <th className="num">Efficiency [%] ± U (k = 2)</th>
                 <th className="num">First-law closure [%]</th>
                 <th className="num">Cost of D [{cur}/h]</th>
@@ -179,10 +185,10 @@ export default function UnitResults({ unit, initialFrom, initialTo, initialHour 
                     <td title={r.reasons.map((x) => x.message).join('\n')}>
                       <HourStateMark state={r.state} />
                     </td>
-                    <td className="num">{fmt(r.fuel_W, 1, 1e-3)}</td>
-                    <td className="num text-teal-deep">{fmt(r.product_W, 1, 1e-3)}</td>
-                    <td className="num text-copper-deep">{fmt(r.loss_W, 1, 1e-3)}</td>
-                    <td className="num text-copper-deep">{fmt(r.destruction_W, 1, 1e-3)}</td>
+                    <td className="num">{pw(r.fuel_W)}</td>
+                    <td className="num text-teal-deep">{pw(r.product_W)}</td>
+                    <td className="num text-copper-deep">{pw(r.loss_W)}</td>
+                    <td className="num text-copper-deep">{pw(r.destruction_W)}</td>
                     <td className="num whitespace-nowrap">
                       {r.efficiency === null ? '–' : fmtU(r.efficiency, r.efficiency_U, 1, 100)}
                     </td>
