@@ -133,7 +133,7 @@ function TrendTooltip({ active, payload, kind, timeZone, bucket, loadUnit, w }: 
   if (!active || !payload?.length) return null;
   const power = (v_W: number | null | undefined, U_W?: number | null) => w.withU(v_W, U_W, 'power');
   const p = payload[0]!.payload.point;
-  const when = bucket === 'hour' ? `${siteTime(p.t, timeZone)}–${siteTime(p.t + HOUR_MS, timeZone, 'HH:mm')}` : siteTime(p.t, timeZone, 'EEE d MMM yyyy');
+  const when = `${bucket === 'hour' ? `${siteTime(p.t, timeZone)}–${siteTime(p.t + HOUR_MS, timeZone, 'HH:mm')}` : siteTime(p.t, timeZone, 'EEE d MMM yyyy')} (${timeZone})`;
   const states = (Object.keys(p.states) as HourState[]).filter((s) => p.states[s] > 0);
   const e = p.expected;
   return (
@@ -313,7 +313,9 @@ function ScatterTooltip({ active, payload, kind, timeZone, loadUnit, w }: { acti
   if (d.s) {
     return (
       <div className="rounded border border-paper-edge bg-white px-3 py-2 text-xs shadow">
-        <p className="font-semibold">{siteTime(d.s.t, timeZone)}</p>
+        <p className="font-semibold">
+          {siteTime(d.s.t, timeZone)} ({timeZone})
+        </p>
         <p>Load: {showLoad(d.s.load, loadUnit, w)}</p>
         {kind === 'efficiency' ? <p>Efficiency: {pct(d.s.efficiency, d.s.efficiency_U)}</p> : <p>Destruction: {power(d.s.destruction_W)}</p>}
       </div>
