@@ -6,8 +6,8 @@ import { stamp, turbineWithHours } from './unit-hours-fixture';
 /**
  * One hour opens in place: a side sheet over the hour table, in view without scrolling, with the
  * focus inside it; Escape closes it and gives the focus back to the button that opened it; the
- * address names the hour, and that address opens the hour directly, also one outside the week the
- * page opens on. An invented site with a turbine and 10 days of unit hours written as the engine would.
+ * browser's Back closes it (the page stays) and Forward opens it again; the address names the hour,
+ * and that address opens the hour directly, also one outside the week the page opens on. An invented site with a turbine and 10 days of unit hours written as the engine would.
  */
 const FIRST = '2025-03-03T00:00:00Z';
 const HOURS = 24 * 10;
@@ -16,7 +16,7 @@ const unitWithHours = async (name: string): Promise<string> => (await turbineWit
 
 const inAddress = (iso: string) => `${new Date(iso).toISOString().slice(0, 16)}Z`;
 
-test('an hour opens in place, focused, closes with Escape back to its button, and its address opens it directly', async ({ page }) => {
+test('an hour opens in place, focused, closes with Escape back to its button or with Back (the page stays), and its address opens it directly', async ({ page }) => {
   test.setTimeout(240_000); // three page loads and an axe pass: slow on a shared machine
   const unitId = await unitWithHours(`E2E hour panel site ${stamp()}`);
   await page.setViewportSize({ width: 1440, height: 900 });
@@ -54,7 +54,26 @@ test('an hour opens in place, focused, closes with Escape back to its button, an
   await page.keyboard.press('Escape');
   await expect(panel).toHaveCount(0);
   await expect(button).toBeFocused();
-  expect(new URL(page.url()).searchParams.get('hour')).toBeNull();
+  await expect(page).toHaveURL((u) => u.pathname === `/units/${unitId}` && !u.searchParams.has('hour'));
+
+  // The browser's Back closes an opened hour and the page stays; Forward opens it again.
+  await button.click();
+  await expect(panel).toBeVisible();
+  await expect(page).toHaveURL((u) => u.searchParams.get('hour') === inAddress(hour));
+  await page.goBack();
+  await expect(panel).toHaveCount(0);
+  await expect(page).toHaveURL((u) => u.pathname === `/units/${unitId}` && !u.searchParams.has('hour'));
+  await expect(table.locator('tbody tr')).toHaveCount(24 * 7);
+  await expect(button).toBeFocused();
+  await page.goForward();
+  await expect(panel).toBeVisible();
+  await expect(panel.getByTestId('hour-figures')).toBeVisible();
+  await expect(page).toHaveURL((u) => u.searchParams.get('hour') === inAddress(hour));
+  // Closed by its button, the entry it pushed is gone again: one Back more leaves the hour list, not the hour.
+  await panel.getByRole('button', { name: 'Close the hour' }).click();
+  await expect(panel).toHaveCount(0);
+  await expect(page).toHaveURL((u) => u.pathname === `/units/${unitId}` && !u.searchParams.has('hour'));
+  await expect(table.locator('tbody tr')).toHaveCount(24 * 7);
 
   // The link opens the hour directly, and the close button gives the focus to that hour's row.
   await page.goto(link);

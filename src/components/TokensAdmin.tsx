@@ -58,7 +58,7 @@ export default function TokensAdmin({ sites }: { sites: { id: string; name: stri
           <input id="tok-name" className="field" value={name} onChange={(e) => setName(e.target.value)} placeholder="nightly historian export" />
         </div>
         <div>
-          <label className="label" htmlFor="tok-role">May</label>
+          <label className="label" htmlFor="tok-role">Allowed to</label>
           <select id="tok-role" className="field" value={role} onChange={(e) => setRole(e.target.value as 'operator' | 'admin')}>
             <option value="operator">send files</option>
             <option value="admin">send files and import the plant model</option>

@@ -51,7 +51,7 @@ export const CheckDriftPayload = z.object({
 });
 /** Same shape as the drift check's: the hours [fromMs, toMs) of a site, or of the listed units. */
 export const CheckUnitRulesPayload = CheckDriftPayload;
-/** The scheduled digest run; `day` (yyyy-MM-dd, UTC) only when sent by hand. */
+/** The scheduled digest run; `day` (yyyy-MM-dd, UTC) only when sent by hand: the run then stands at 12:00 UTC of it, and the mail names each site's own day at that instant. */
 export const NoticeDigestPayload = z.object({ day: z.string().regex(/^\d{4}-\d{2}-\d{2}$/).optional() });
 export const SendMailPayload = z.object({
   to: z.string().email(),

@@ -8,7 +8,7 @@ import { describe, expect, it } from 'vitest';
 import type { NoticeView } from '~/lib/notice-view';
 import { DEFAULT_DISPLAY_UNITS, type DisplayUnits } from '~/lib/units/display';
 import { CODE_PATTERN } from '~/lib/words';
-import { digestMail, escalationMail, noticeMail } from '~/server/services/notice-mail';
+import { digestDay, digestMail, escalationMail, noticeMail } from '~/server/services/notice-mail';
 
 function notice(units: DisplayUnits, over: Partial<NoticeView> = {}): NoticeView {
   const base = {
@@ -123,6 +123,24 @@ describe('notice mails in the site display units', () => {
     expect(d.text).toContain('+1.567 MW ± 0.070 MW');
     expect(d.text).toContain('+1,567 kW ± 70 kW');
     expect(figuresWith(d.text.split('Turbine T1')[0]!, 'kW')).toEqual([]);
+  });
+
+  it("the digest is dated by the site's own day in its zone, not the UTC day", () => {
+    // 2025-06-04 06:00 UTC is 2025-06-03 20:00 in Pacific/Honolulu (UTC-10, no summer time) and
+    // 2025-06-04 18:00 in Pacific/Auckland (UTC+12 in June): IANA tz database as shipped in Node's Intl.
+    const run = new Date('2025-06-04T06:00:00Z');
+    const honolulu = notice(MW_BARG, { timeZone: 'Pacific/Honolulu', siteName: 'Lava Point Works' });
+    const d = digestMail([honolulu], 'p@example.org', run);
+    expect(d.subject).toContain('(2025-06-03 (Pacific/Honolulu))');
+    expect(d.subject).not.toContain('2025-06-04');
+    expect(d.text).toContain('not yet closed on 2025-06-03 (Pacific/Honolulu):');
+    expect(d.html).toContain('2025-06-03 (Pacific/Honolulu)');
+    // 2025-06-04 13:00 UTC is already 2025-06-05 01:00 in Auckland (UTC+12), still 2025-06-04 14:00 in London (BST).
+    const late = new Date('2025-06-04T13:00:00Z');
+    const auckland = notice(MW_BARG, { timeZone: 'Pacific/Auckland', unitName: 'Turbine T1' });
+    expect(digestDay([auckland], late)).toBe('2025-06-05 (Pacific/Auckland)');
+    expect(digestDay([honolulu, auckland, notice(MW_BARG)], late)).toBe('2025-06-04 (Pacific/Honolulu, Europe/London); 2025-06-05 (Pacific/Auckland)');
+    expect(digestMail([auckland], 'p@example.org', late).subject).toContain('2025-06-05');
   });
 
   it('a running-while-idle notice in MW, its efficiency in percent', () => {

@@ -35,10 +35,10 @@ let plannerId: string;
  * The hours carry no cost of their own; the site has a fuel price of 36 EUR/MWh (LHV) and an
  * electricity price of 90 EUR/MWh: a compressor's fuel is electric power (docs/domain.md section 3).
  */
-async function unitWithNotice(label: string, extraHourU_W: number | null = 4000) {
+async function unitWithNotice(label: string, extraHourU_W: number | null = 4000, timeZone = 'Europe/Madrid') {
   const site = await createSite({
     name: `Notice site ${label} ${randomUUID().slice(0, 8)}`,
-    timeZone: 'Europe/Madrid',
+    timeZone,
     T0_K: 298.15,
     p0_Pa: 101325,
     currency: 'EUR',
@@ -155,6 +155,31 @@ describeIntegration('drift notices: figures, seen and closed, the daily digest',
 
     const open = await db().select({ n: sql<number>`count(*)::int` }).from(driftNotices).where(sql`${driftNotices.status} <> 'closed'`);
     expect(mail.subject).toContain(`${open[0]!.n} drift notice`);
+  });
+
+  it("the digest of a site far west of UTC is dated by the site's day, not the UTC day of the run", async () => {
+    const u = await unitWithNotice('honolulu', 4000, 'Pacific/Honolulu');
+    // A planner narrowed to that site, so the digest lists its notice alone.
+    const narrowId = `hnl-${randomUUID()}`;
+    const email = `${narrowId}@example.test`;
+    await db().insert(user).values({ id: narrowId, name: 'Island planner', email, role: 'planner', allSites: false });
+    await db().insert(personSites).values({ userId: narrowId, siteId: u.siteId });
+    try {
+      await setNoticePreferences(narrowId, { dailyDigest: true });
+      // The run at 06:00 UTC of an invented far day (fresh marker each run): in Pacific/Honolulu
+      // (UTC-10, no summer time; IANA tz database) it is 20:00 of the day before.
+      const runDay = Date.UTC(2300, 0, 1) + randomInt(0, 300_000) * 86_400_000;
+      const utcDay = new Date(runDay).toISOString().slice(0, 10);
+      const siteDay = new Date(runDay - 86_400_000).toISOString().slice(0, 10);
+      expect(await sendNoticeDigests(new Date(runDay + 6 * HOUR))).toContain(email);
+      const mail = await waitForMail(email, siteDay);
+      expect(mail.subject).toContain(`(${siteDay} (Pacific/Honolulu))`);
+      expect(mail.subject).not.toContain(utcDay);
+      expect(mail.text).toContain(`not yet closed on ${siteDay} (Pacific/Honolulu):`);
+      expect(mail.text).toContain(u.unitName);
+    } finally {
+      await db().delete(user).where(eq(user.id, narrowId));
+    }
   });
 
   it('mails a notice only to people who may use its site; the digest lists only their sites', async () => {

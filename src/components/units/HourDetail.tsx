@@ -274,7 +274,7 @@ export function HourDetail({ unit, hourStart }: { unit: UnitInfo; hourStart: str
                 <th className="num">Covered [%]</th>
                 <th>Quality</th>
                 <th>Link uncertainty</th>
-                <th>Link valid</th>
+                <th>Link valid ({tz})</th>
               </tr>
             </thead>
             <tbody>
@@ -349,7 +349,7 @@ export function HourDetail({ unit, hourStart }: { unit: UnitInfo; hourStart: str
           </ul>
         ) : null}
         <p>
-          Model version {hour.modelVersion}, inputs {hour.inputsHash}, computed {siteTime(hour.computedAt, tz, 'yyyy-MM-dd HH:mm:ss')} by {d?.engine ?? 'the engine'}.
+          Model version {hour.modelVersion}, computed {siteTime(hour.computedAt, tz, 'yyyy-MM-dd HH:mm:ss')} ({tz}) by {d?.engine ?? 'the engine'}.
           {hour.rebuilt?.matches ? ' Opened up from the stored tag hours: same inputs as the stored hour.' : ''}
         </p>
         {hour.rebuilt && !hour.rebuilt.matches && (

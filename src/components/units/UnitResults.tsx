@@ -1,4 +1,4 @@
-import { useCallback, useEffect, useRef, useState } from 'react';
+import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { HourPanel } from './HourPanel';
 import { HourStateMark } from './HourStateMark';
 import { fmt, fmtU, hourFromAddress, hourInAddress, siteDay, siteDayStart, siteTime } from './format';
@@ -7,14 +7,18 @@ import { HOUR_STATES } from '~/lib/hour-states';
 import { DAY_MS } from '~/lib/time';
 import type { UnitHourView as HourRow, UnitInfo } from '~/lib/views/unit-hour';
 import { counted } from '~/lib/counts';
+import { siteWriter } from '~/lib/units/writer';
 
-/** The page's address with the opened hour (?hour=...), or without it; replaced, so Back leaves the page. */
+/** The page's address with the opened hour (?hour=...), or without it. */
 function addressWith(iso: string | null): URL {
   const url = new URL(window.location.href);
   if (iso) url.searchParams.set('hour', hourInAddress(iso));
   else url.searchParams.delete('hour');
   return url;
 }
+
+/** The key of a history entry this page pushed for an opened hour (its value: the hour). */
+const HOUR_ENTRY = 'lossline.hour';
 
 /** The address that opens one hour of this unit directly (the page picks a range that holds it). */
 const hourLink = (iso: string) => `${window.location.origin}${window.location.pathname}?hour=${hourInAddress(iso)}`;
@@ -26,6 +30,11 @@ const hourLink = (iso: string) => `${window.location.origin}${window.location.pa
  */
 export default function UnitResults({ unit, initialFrom, initialTo, initialHour }: { unit: UnitInfo; initialFrom: string; initialTo: string; initialHour: string | null }) {
   const tz = unit.timeZone;
+  // Powers in the site's chosen display unit and locale (its settings), at fixed decimals per column.
+  const w = useMemo(() => siteWriter(unit.display?.units, unit.display?.p_atm_Pa), [unit.display]);
+  const pu = w.unit('power');
+  const pDecimals = pu === 'MW' ? 3 : pu === 'W' ? 0 : 1;
+  const pw = (v_W: number | null | undefined) => w.value(v_W, 'power', pDecimals);
   const [fromDay, setFromDay] = useState(siteDay(initialFrom, tz));
   const [toDay, setToDay] = useState(siteDay(new Date(new Date(initialTo).getTime() - 1).toISOString(), tz));
   const [rows, setRows] = useState<HourRow[] | null>(null);
@@ -34,24 +43,53 @@ export default function UnitResults({ unit, initialFrom, initialTo, initialHour 
   const openRef = useRef(open);
   const opener = useRef<HTMLElement | null>(null);
 
+  /*
+   * The address and the browser's history: opening an hour pushes an entry (?hour=...), so Back closes
+   * the panel and Forward opens it again; closing by Escape or the button goes back over that entry
+   * when this page pushed it, and otherwise (an address that opened the hour directly) replaces it.
+   */
   const openHour = useCallback((iso: string, button: HTMLElement) => {
     opener.current = button;
     openRef.current = iso;
     setOpen(iso);
-    window.history.replaceState(window.history.state, '', addressWith(iso));
+    window.history.pushState({ ...(window.history.state ?? {}), [HOUR_ENTRY]: iso }, '', addressWith(iso));
   }, []);
 
-  /** Closes the opened hour (once, however asked) and gives the focus back to what opened it. */
-  const closeHour = useCallback(() => {
+  /** Closes the panel on screen (once) and gives the focus back to what opened it; the address is the caller's. */
+  const closePanel = useCallback((): string | null => {
     const was = openRef.current;
-    if (!was) return;
+    if (!was) return null;
     openRef.current = null;
     setOpen(null);
-    window.history.replaceState(window.history.state, '', addressWith(null));
     const back = opener.current?.isConnected ? opener.current : document.querySelector<HTMLElement>(`tr[data-hour-ms="${Date.parse(was)}"] button[data-open-hour]`);
     opener.current = null;
     requestAnimationFrame(() => back?.focus());
+    return was;
   }, []);
+
+  /** Closes the opened hour (once, however asked: Escape, the button) and takes the hour out of the address. */
+  const closeHour = useCallback(() => {
+    const was = closePanel();
+    if (!was) return;
+    if ((window.history.state as Record<string, unknown> | null)?.[HOUR_ENTRY] === was) window.history.back();
+    else window.history.replaceState(window.history.state, '', addressWith(null));
+  }, [closePanel]);
+
+  // Back and Forward: the address says which hour is open, if any.
+  useEffect(() => {
+    const onPop = () => {
+      const hour = hourFromAddress(new URL(window.location.href).searchParams.get('hour'));
+      if (hour === openRef.current) return;
+      if (openRef.current) closePanel();
+      if (hour) {
+        opener.current = null;
+        openRef.current = hour;
+        setOpen(hour);
+      }
+    };
+    window.addEventListener('popstate', onPop);
+    return () => window.removeEventListener('popstate', onPop);
+  }, [closePanel]);
 
   const range = useCallback(() => {
     const from = siteDayStart(fromDay, tz);
@@ -127,10 +165,10 @@ export default function UnitResults({ unit, initialFrom, initialTo, initialHour 
               <tr>
                 <th>Hour ({tz})</th>
                 <th>State</th>
-                <th className="num">Fuel F [kW]</th>
-                <th className="num">Product P [kW]</th>
-                <th className="num">Loss L [kW]</th>
-                <th className="num">Destruction D [kW]</th>
+                <th className="num">Fuel F [{pu}]</th>
+                <th className="num">Product P [{pu}]</th>
+                <th className="num">Loss L [{pu}]</th>
+                <th className="num">Destruction D [{pu}]</th>
                 <th className="num">Efficiency [%] ± U (k = 2)</th>
                 <th className="num">First-law closure [%]</th>
                 <th className="num">Cost of D [{cur}/h]</th>
@@ -147,10 +185,10 @@ export default function UnitResults({ unit, initialFrom, initialTo, initialHour 
                     <td title={r.reasons.map((x) => x.message).join('\n')}>
                       <HourStateMark state={r.state} />
                     </td>
-                    <td className="num">{fmt(r.fuel_W, 1, 1e-3)}</td>
-                    <td className="num text-teal-deep">{fmt(r.product_W, 1, 1e-3)}</td>
-                    <td className="num text-copper-deep">{fmt(r.loss_W, 1, 1e-3)}</td>
-                    <td className="num text-copper-deep">{fmt(r.destruction_W, 1, 1e-3)}</td>
+                    <td className="num">{pw(r.fuel_W)}</td>
+                    <td className="num text-teal-deep">{pw(r.product_W)}</td>
+                    <td className="num text-copper-deep">{pw(r.loss_W)}</td>
+                    <td className="num text-copper-deep">{pw(r.destruction_W)}</td>
                     <td className="num whitespace-nowrap">
                       {r.efficiency === null ? '–' : fmtU(r.efficiency, r.efficiency_U, 1, 100)}
                     </td>

@@ -2,6 +2,7 @@ import { useState } from 'react';
 import { call } from '~/components/api';
 import { answerColumnNumbers } from '~/lib/ingest/column-numbers';
 import type { UploadRow } from '~/lib/upload-view';
+import { siteStamp } from '~/lib/site-time';
 
 const SEP_LABEL: Record<string, string> = { ',': 'comma', ';': 'semicolon', '\t': 'tab', '|': 'bar' };
 
@@ -10,7 +11,7 @@ const SEP_LABEL: Record<string, string> = { ',': 'comma', ';': 'semicolon', '\t'
  * check and correct. Saving stores it as a layout profile of the site: later files of the same shape
  * (same header fingerprint) are read with it without asking.
  */
-export function LayoutReview({ upload, onSaved }: { upload: UploadRow; onSaved: () => void }) {
+export function LayoutReview({ upload, onSaved, timeZone = 'UTC' }: { upload: UploadRow; onSaved: () => void; timeZone?: string }) {
   const detected = upload.detection!.profile;
   const [profile, setProfile] = useState<any>(detected);
   const [name, setName] = useState(`Layout of ${upload.fileName}`);
@@ -147,7 +148,7 @@ export function LayoutReview({ upload, onSaved }: { upload: UploadRow; onSaved: 
           <table className="grid-table">
             <thead>
               <tr>
-                <th>Time (UTC)</th>
+                <th>Time as read ({timeZone})</th>
                 {tagColumns.slice(0, 8).map((c) => (
                   <th key={c.index} className="num">{c.tag}{c.unit ? ` [${c.unit}]` : ''}</th>
                 ))}
@@ -156,7 +157,7 @@ export function LayoutReview({ upload, onSaved }: { upload: UploadRow; onSaved: 
             <tbody>
               {preview.slice(0, 6).map((r: any) => (
                 <tr key={r.line}>
-                  <td className="whitespace-nowrap">{r.timeIso ?? (r.timeChoices ? `${r.timeChoices.dmy ?? '?'} or ${r.timeChoices.mdy ?? '?'}` : r.timeText)}</td>
+                  <td className="whitespace-nowrap">{r.timeIso ? siteStamp(r.timeIso, timeZone, 'yyyy-MM-dd HH:mm:ss') : (r.timeChoices ? `${r.timeChoices.dmy ?? '?'} or ${r.timeChoices.mdy ?? '?'}` : r.timeText)}</td>
                   {r.cells.slice(0, 8).map((c: any, i: number) => (
                     <td key={i} className="num">{c.value ?? <span className="text-copper">{c.rejected ?? ''}</span>}</td>
                   ))}

@@ -120,7 +120,7 @@ export function UploadsTable({ rows, siteId, timeZone, open, setOpen, onRetry, o
                 <tr>
                   <td colSpan={7} className="bg-paper-deep/40">
                     {(r.status === 'needs-review' || r.status === 'failed') && r.detection ? (
-                      <LayoutReview upload={r} onSaved={onSaved} />
+                      <LayoutReview upload={r} onSaved={onSaved} timeZone={timeZone} />
                     ) : (
                       <UploadReport row={r} timeZone={timeZone} siteId={siteId} />
                     )}

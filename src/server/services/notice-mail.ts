@@ -4,7 +4,7 @@
  */
 import { signedWithU, writerOf, type SiteWriter } from '~/lib/units/writer';
 import { PALETTE } from '~/lib/palette';
-import { siteStampWithZone } from '~/lib/site-time';
+import { siteDay, siteStampWithZone, type Instant } from '~/lib/site-time';
 import { SAFETY_CAUTION } from '~/lib/caution';
 import type { NoticeView } from '~/lib/notice-view';
 import { escapeHtml } from '../mail';
@@ -97,7 +97,25 @@ export function escalationMail(n: NoticeView, to: string, step: number, fromCost
   return { to, subject, text, html };
 }
 
-export function digestMail(open: NoticeView[], to: string, day: string) {
+/**
+ * The date a digest is of, in the clock of each site it lists: '2025-06-03 (Pacific/Honolulu)', or
+ * several such, one per day with the zones it holds, when its sites' days differ. `at` is the instant of the run;
+ * a 'yyyy-MM-dd' text is taken as the day itself (as callers gave it before).
+ */
+export function digestDay(open: Pick<NoticeView, 'timeZone'>[], at: Instant): string {
+  if (typeof at === 'string' && /^\d{4}-\d{2}-\d{2}$/.test(at)) return at;
+  const zonesOfDay = new Map<string, string[]>();
+  for (const z of new Set(open.map((n) => n.timeZone))) {
+    const d = siteDay(at, z);
+    zonesOfDay.set(d, [...(zonesOfDay.get(d) ?? []), z]);
+  }
+  if (!zonesOfDay.size) return `${siteDay(at, 'UTC')} (UTC)`;
+  return [...zonesOfDay].map(([d, zones]) => `${d} (${zones.join(', ')})`).join('; ');
+}
+
+/** The daily digest: the notices not closed, dated by the day of their sites at the run's instant `at`. */
+export function digestMail(open: NoticeView[], to: string, at: Instant) {
+  const day = digestDay(open, at);
   const subject = `Lossline: ${open.length} drift notice${open.length === 1 ? '' : 's'} not closed (${day})`;
   const blocks = open.map((n) => [`${n.unitName} at ${n.siteName} - ${n.statusWord}`, ...noticeFigureLines(n).map((l) => `  ${l}`), `  ${n.url}`].join('\n'));
   const text = [`Drift notices not yet closed on ${day}:`, '', ...blocks.flatMap((b) => [b, '']), SAFETY_CAUTION].join('\n');

@@ -302,15 +302,16 @@ export async function setNoticePreferences(userId: string, input: z.infer<typeof
 }
 
 /**
- * The daily digest (job "notice-digest"): to each active person who opted in, one mail a day (UTC
- * day; the notice_digests row makes a second run the same day send nothing) listing the notices
- * not yet closed. Nobody is mailed when nothing is open.
+ * The daily digest (job "notice-digest"): to each active person who opted in, one mail a day listing
+ * the notices not yet closed, dated by each listed site's own day in its zone at the run (the
+ * notice_digests row, keyed by the run's UTC day, makes a second run the same day send nothing).
+ * Nobody is mailed when nothing is open.
  * @returns the addresses queued
  */
 export async function sendNoticeDigests(now = new Date()): Promise<string[]> {
   const open = await withDisplay(await listNotices({ status: 'not-closed' }));
   if (!open.length) return [];
-  const day = now.toISOString().slice(0, 10);
+  const day = now.toISOString().slice(0, 10); // the marker's key only; the mail names each site's day
   const people = await db()
     .select({ id: user.id, email: user.email, role: user.role, allSites: user.allSites })
     .from(noticePreferences)
@@ -326,7 +327,7 @@ export async function sendNoticeDigests(now = new Date()): Promise<string[]> {
       const [mark] = await tx.insert(noticeDigests).values({ userId: p.id, day, notices: theirs.length }).onConflictDoNothing().returning({ userId: noticeDigests.userId });
       if (!mark) return false;
       const boss = await queue();
-      await sendJob(boss, QUEUES.sendMail, digestMail(theirs, p.email, day), { retryLimit: 3, retryDelay: 30, db: { executeSql: exec as never } });
+      await sendJob(boss, QUEUES.sendMail, digestMail(theirs, p.email, now), { retryLimit: 3, retryDelay: 30, db: { executeSql: exec as never } });
       return true;
     });
     if (queued) sent.push(p.email);

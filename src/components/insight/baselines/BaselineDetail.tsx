@@ -6,7 +6,7 @@ import { StateMark } from '~/components/StateMark';
 import { useConfirm } from '~/components/ConfirmDialog';
 import { Notice } from '~/components/plant/common';
 import { call, messageOf, type Message } from '~/components/api';
-import { BASELINE_LOOK, CHECK_LOOK, at, dayOf, kW, pct, sig } from './looks';
+import { BASELINE_LOOK, CHECK_LOOK, atZ, dayOf, pct, sig } from './looks';
 import { TERM_LABELS, type BaselineSummary, type FitView, type ModelSummary } from './types';
 import { BaselineCoefficients, baselineScales, type SiteDisplayProp } from './BaselineCoefficients';
 
@@ -16,11 +16,14 @@ function CheckCell({ ok }: { ok: boolean }) {
   return <StateMark shape={look.shape} className={look.className} label={look.label} />;
 }
 
-function StatsTable({ b }: { b: BaselineSummary }) {
+function StatsTable({ b, display }: { b: BaselineSummary; display?: SiteDisplayProp }) {
   const rows: [string, ModelSummary | null, string][] = [
     ['Exergy destruction', b.destruction, 'kW'],
     ['Exergy efficiency', b.efficiency, '-'],
   ];
+  // Destruction's mean and s in the site's chosen power unit and locale (its settings).
+  const { w } = baselineScales(b, display);
+  const pu = w.unit('power');
   return (
     <table className="grid-table" data-testid="fit-stats">
       <thead>
@@ -41,8 +44,8 @@ function StatsTable({ b }: { b: BaselineSummary }) {
             <tr key={name} data-testid={`stats-${unit === 'kW' ? 'destruction' : 'efficiency'}`}>
               <td>{name}</td>
               <td className="num">{m.stats.n}</td>
-              <td className="num">{unit === 'kW' ? `${kW(m.stats.ybar)} kW` : sig(m.stats.ybar, 3)}</td>
-              <td className="num">{unit === 'kW' ? `${kW(m.stats.s, 2)} kW` : sig(m.stats.s, 3)}</td>
+              <td className="num">{unit === 'kW' ? `${w.value(m.stats.ybar, 'power')} ${pu}` : sig(m.stats.ybar, 3)}</td>
+              <td className="num">{unit === 'kW' ? `${w.delta(m.stats.s, 'power')} ${pu}` : sig(m.stats.s, 3)}</td>
               <td className="num">{sig(m.stats.r2, 3)}</td>
               <td className="num">
                 {pct(m.stats.cvRmse)} <span className="text-ink-faint">/ ≤ {pct(m.guideline14.cvRmseMax)}</span>
@@ -194,14 +197,14 @@ export default function BaselineDetail({ baselineId, canEdit, display }: { basel
           </h2>
           <p className="text-sm text-ink-soft">
             {b.siteName} · reference period {dayOf(b.periodFrom, b.timeZone)} to {dayOf(new Date(new Date(b.periodTo).getTime() - 1).toISOString(), b.timeZone)} ({b.timeZone}) · terms{' '}
-            {b.terms.map((t) => TERM_LABELS[t]).join(', ')} · fitted by {b.createdBy ?? 'someone'} on {at(b.createdAt, b.timeZone)}
+            {b.terms.map((t) => TERM_LABELS[t]).join(', ')} · fitted by {b.createdBy ?? 'someone'} on {atZ(b.createdAt, b.timeZone)}
           </p>
         </div>
         <span data-testid="baseline-status">
           <StateMark shape={look.shape} className={look.className} label={look.label} />
         </span>
       </div>
-      <StatsTable b={b} />
+      <StatsTable b={b} display={display} />
       <FitTrustNote b={b} />
       <p className="text-xs text-ink-faint">
         ASHRAE Guideline 14-2014 hourly criteria: CV(RMSE) at most 30 % and NMBE within ±10 % (limits from memory;{' '}
@@ -211,8 +214,8 @@ export default function BaselineDetail({ baselineId, canEdit, display }: { basel
       <BaselineCoefficients b={b} display={display} />
       {b.decidedAt && (
         <p className="text-sm text-ink-soft">
-          {b.status === 'discarded' ? 'Discarded' : 'Accepted'} by {b.decidedBy ?? 'someone'} on {at(b.decidedAt, b.timeZone)}
-          {b.retiredAt ? `; retired on ${at(b.retiredAt, b.timeZone)}` : ''}.
+          {b.status === 'discarded' ? 'Discarded' : 'Accepted'} by {b.decidedBy ?? 'someone'} on {atZ(b.decidedAt, b.timeZone)}
+          {b.retiredAt ? `; retired on ${atZ(b.retiredAt, b.timeZone)}` : ''}.
         </p>
       )}
       <Notice message={message} />

@@ -1,5 +1,5 @@
 import { fixed, significant } from '~/lib/format';
-import { siteDay, siteDayStart, siteStamp } from '~/lib/site-time';
+import { siteDay, siteDayStart, siteStamp, siteStampWithZone } from '~/lib/site-time';
 import type { MarkShape } from '~/components/StateMark';
 
 /** Baseline statuses in words and shapes; colour is only a third cue. */
@@ -25,6 +25,8 @@ export const sig = (v: number | null | undefined, digits = 4) => significant(v, 
 
 /** An instant as 'yyyy-MM-dd HH:mm' in a time zone. */
 export const at = (iso: string | null | undefined, tz: string) => (iso ? siteStamp(iso, tz) : '');
+/** An instant as 'yyyy-MM-dd HH:mm (Zone/Name)' in a time zone: for a time that stands alone in a sentence or cell. */
+export const atZ = (iso: string | null | undefined, tz: string) => (iso ? siteStampWithZone(iso, tz) : '');
 /** An instant as 'yyyy-MM-dd' in a time zone. */
 export const dayOf = (iso: string, tz: string) => siteDay(iso, tz);
 

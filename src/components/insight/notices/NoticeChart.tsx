@@ -1,5 +1,5 @@
 import { Bar, CartesianGrid, ComposedChart, Line, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
-import { at } from '../baselines/looks';
+import { at, atZ } from '../baselines/looks';
 import { significant } from '~/lib/format';
 import type { Notice, NoticeChartEvent } from './looks';
 import { drawnPoints, type ChartColumns } from '~/lib/analytics/chart-thin';
@@ -103,7 +103,7 @@ export function NoticeChart({ notice, chart, events }: { notice: Notice; chart: 
               label={{ value: 'cumulative sum [σ]', angle: 90, position: 'insideRight', fill: INK, fontSize: 11 }}
             />
             <Tooltip
-              labelFormatter={(t) => `${span === 'day' ? `${per} from ` : ''}${at(new Date(Number(t)).toISOString(), notice.timeZone)} (${notice.timeZone})`}
+              labelFormatter={(t) => `${span === 'day' ? `${per} from ` : ''}${atZ(new Date(Number(t)).toISOString(), notice.timeZone)}`}
               formatter={(v, name) => [w.number(Number(v), 2), name === 'residual' ? `residual [${unit}]` : 'cumulative sum [σ]']}
             />
             <Bar yAxisId="kW" dataKey="residual" name="residual" fill={COPPER} isAnimationActive={false} />
@@ -130,12 +130,13 @@ export function NoticeChart({ notice, chart, events }: { notice: Notice; chart: 
           {shown.map((e, i) => (
             <li key={`${e.label}-${e.t}`}>
               <span className="mr-1 inline-block border border-ink px-1 tabular-nums">{i + 1}</span>
-              {e.label} {at(e.t, notice.timeZone)}
+              {e.label} {atZ(e.t, notice.timeZone)}
             </li>
           ))}
         </ol>
       )}
       <figcaption className="mt-1 text-xs text-ink-faint">
+        Times on the axis are in the site’s clock ({notice.timeZone}).{' '}
         {span === 'day'
           ? `Over this span the chart shows one point per ${per} (site time): the mean residual and the largest cumulative sum of its steady hours. `
           : ''}

@@ -3,7 +3,7 @@ import { StateMark } from '~/components/StateMark';
 import { useConfirm, type ConfirmOptions } from '~/components/ConfirmDialog';
 import { Notice as Message } from '~/components/plant/common';
 import { call, messageOf, type Message as Msg } from '~/components/api';
-import { at, dayOf } from '../baselines/looks';
+import { at, atZ, dayOf } from '../baselines/looks';
 import { NoticeChart } from './NoticeChart';
 import type { ChartColumns } from '~/lib/analytics/chart-thin';
 import {
@@ -67,7 +67,7 @@ function Verdict({ n }: { n: Notice }) {
                 <td className="num">{f.signed(v.before_W, v.beforeU_W)}</td>
               </tr>
               <tr>
-                <td>Residual after the repair (first {v.afterHours} steady hours, to {at(v.hour, n.timeZone)})</td>
+                <td>Residual after the repair (first {v.afterHours} steady hours, to {atZ(v.hour, n.timeZone)})</td>
                 <td className="num" data-testid="verdict-after">
                   {f.signed(v.after_W, v.afterU_W)}
                 </td>
@@ -242,7 +242,7 @@ export default function NoticePanel({
         </div>
         {n.fadedSince && (
           <p className="rounded border border-slate px-3 py-2 text-sm" data-testid="notice-faded">
-            Faded since {at(n.fadedSince, n.timeZone)} ({n.timeZone}): over a day of steady hours the shift has gone. This notice takes no later signal; a
+            Faded since {atZ(n.fadedSince, n.timeZone)}: over a day of steady hours the shift has gone. This notice takes no later signal; a
             new shift opens a new notice.
           </p>
         )}
@@ -277,7 +277,7 @@ export default function NoticePanel({
         <table className="grid-table text-sm">
           <tbody>
             <tr>
-              <td>Now: mean of the last {hoursNow} steady hours{n.figuresHour ? ` (to ${at(n.figuresHour, n.timeZone)})` : ''}</td>
+              <td>Now: mean of the last {hoursNow} steady hours{n.figuresHour ? ` (to ${atZ(n.figuresHour, n.timeZone)})` : ''}</td>
               <td className="num">{f.signed(n.headline_W, n.headlineU_W)}</td>
             </tr>
             {n.sinceOnset_W !== null && (
@@ -306,8 +306,8 @@ export default function NoticePanel({
             <tr>
               <td>Sustained shift confirmed</td>
               <td className="num">
-                {at(n.signalHour, n.timeZone)}
-                {n.lastSignalHour !== n.signalHour && ` (still signalling ${at(n.lastSignalHour, n.timeZone)})`}
+                {atZ(n.signalHour, n.timeZone)}
+                {n.lastSignalHour !== n.signalHour && ` (still signalling ${atZ(n.lastSignalHour, n.timeZone)})`}
               </td>
             </tr>
             <tr>
@@ -345,17 +345,17 @@ export default function NoticePanel({
       <section className="card space-y-3" aria-label="What has been done">
         <h2>Record</h2>
         <ul className="space-y-1 text-sm" data-testid="notice-history">
-          <li>Opened {at(n.openedAt, n.timeZone)}; e-mailed to the maintenance planners and energy leads.</li>
+          <li>Opened {atZ(n.openedAt, n.timeZone)}; e-mailed to the maintenance planners and energy leads.</li>
           {n.escalationStep > 0 && <li>E-mailed again {n.escalationStep === 1 ? 'once' : `${n.escalationStep} times`} as its cost per day grew.</li>}
           {n.acknowledgedAt && (
             <li>
-              Seen by {n.acknowledgedBy ?? 'someone'} at {at(n.acknowledgedAt, n.timeZone)}
+              Seen by {n.acknowledgedBy ?? 'someone'} at {atZ(n.acknowledgedAt, n.timeZone)}
               {n.acknowledgeComment ? `: ${n.acknowledgeComment}` : ''}
             </li>
           )}
           {n.closedAt && (
             <li>
-              Closed by {n.closedBy ?? 'someone'} at {at(n.closedAt, n.timeZone)}
+              Closed by {n.closedBy ?? 'someone'} at {atZ(n.closedAt, n.timeZone)}
               {n.closeOutcome ? ` (${OUTCOME_WORDS[n.closeOutcome]}${n.repairedAt ? `, work done ${dayOf(n.repairedAt, n.timeZone)}` : ''}${n.newNormalFrom ? ` from ${dayOf(n.newNormalFrom, n.timeZone)}` : ''})` : ''}: {n.closeComment}
             </li>
           )}

@@ -2,7 +2,7 @@ import { useEffect, useMemo, useState } from 'react';
 import { StateMark } from '~/components/StateMark';
 import { Notice as Message } from '~/components/plant/common';
 import { call, messageOf, type Message as Msg } from '~/components/api';
-import { at } from '../baselines/looks';
+import { at, atZ } from '../baselines/looks';
 import { LIFE_LOOK, NOTICE_LOOK, TREND_LOOK, noticeFigures, type Notice } from './looks';
 
 type StatusFilter = 'not-closed' | 'open' | 'acknowledged' | 'closed' | 'all';
@@ -142,7 +142,7 @@ export default function NoticesList({ initial }: { initial?: Partial<ListFilter>
                     </td>
                     <td className="num">{n.headlineCost_per_day === null ? '–' : `${n.currency} ${fig.money(n.headlineCost_per_day)}`}</td>
                     <td>
-                      <StateMark shape={life.shape} className={life.className} label={n.life === 'faded' && n.fadedSince ? `faded since ${at(n.fadedSince, n.timeZone)}` : life.label} />
+                      <StateMark shape={life.shape} className={life.className} label={n.life === 'faded' && n.fadedSince ? `faded since ${atZ(n.fadedSince, n.timeZone)}` : life.label} />
                     </td>
                     <td>{n.kind !== 'drift' ? '–' : n.headlineExceeds === null ? 'not known' : n.headlineExceeds ? 'yes' : 'no'}</td>
                   </tr>

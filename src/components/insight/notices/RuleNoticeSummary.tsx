@@ -1,5 +1,5 @@
 import { StateMark } from '~/components/StateMark';
-import { at } from '../baselines/looks';
+import { at, atZ } from '../baselines/looks';
 import { NOTICE_LOOK, noticeFigures, type Notice } from './looks';
 
 /**
@@ -12,8 +12,8 @@ export default function RuleNoticeSummary({ notice: n }: { notice: Notice }) {
     ['Rule', n.kind === 'idle' ? (n.ruleText ?? 'normally idle') : (n.ruleText ?? 'a limit set for the unit')],
     ['Hours in a row before a notice', `more than ${n.ruleHours ?? 3}`],
     [`Running since (${n.timeZone})`, at(n.onsetHour, n.timeZone)],
-    ['Rule broken for more than the set hours at', at(n.signalHour, n.timeZone)],
-    ['Latest hour', at(n.lastSignalHour, n.timeZone)],
+    ['Rule broken for more than the set hours at', atZ(n.signalHour, n.timeZone)],
+    ['Latest hour', atZ(n.lastSignalHour, n.timeZone)],
     ['Hours of the latest run', String(n.hours)],
     ['Cost basis', n.costBasis ?? 'none: the hours carry no cost'],
   ];

@@ -23,8 +23,9 @@ import {
 import { COLORS, HourStateMark, STATE_LOOK } from './common';
 import type { ContextSpan, CurvePoint, ExpectedHour, NoticeMark, ScatterPoint, TrendPoint } from '~/lib/views/trend';
 export type { ContextSpan, CurvePoint, ExpectedHour, NoticeMark, ScatterPoint, TrendPoint };
-import { load as showLoad, loadAxis, num, pct, power, powerUnit, siteTime, type HourState } from './format';
+import { load as showLoad, loadAxis, pct, sitePowerUnit, siteTime, type HourState } from './format';
 import { significant } from '~/lib/format';
+import { writerOf, type SiteWriter } from '~/lib/units/writer';
 
 
 /** Fill patterns of the shaded states: idle lines, unsettled hatching, suspect dots. */
@@ -128,10 +129,11 @@ interface ChartRow {
 
 type Kind = 'efficiency' | 'destruction';
 
-function TrendTooltip({ active, payload, kind, timeZone, bucket, loadUnit }: { active?: boolean; payload?: { payload: ChartRow }[]; kind: Kind; timeZone: string; bucket: 'hour' | 'day'; loadUnit: string | null }) {
+function TrendTooltip({ active, payload, kind, timeZone, bucket, loadUnit, w }: { active?: boolean; payload?: { payload: ChartRow }[]; kind: Kind; timeZone: string; bucket: 'hour' | 'day'; loadUnit: string | null; w: SiteWriter }) {
   if (!active || !payload?.length) return null;
+  const power = (v_W: number | null | undefined, U_W?: number | null) => w.withU(v_W, U_W, 'power');
   const p = payload[0]!.payload.point;
-  const when = bucket === 'hour' ? `${siteTime(p.t, timeZone)}–${siteTime(p.t + HOUR_MS, timeZone, 'HH:mm')}` : siteTime(p.t, timeZone, 'EEE d MMM yyyy');
+  const when = `${bucket === 'hour' ? `${siteTime(p.t, timeZone)}–${siteTime(p.t + HOUR_MS, timeZone, 'HH:mm')}` : siteTime(p.t, timeZone, 'EEE d MMM yyyy')} (${timeZone})`;
   const states = (Object.keys(p.states) as HourState[]).filter((s) => p.states[s] > 0);
   const e = p.expected;
   return (
@@ -163,8 +165,8 @@ function TrendTooltip({ active, payload, kind, timeZone, bucket, loadUnit }: { a
           )}
         </>
       )}
-      {p.load !== null && <p>Load: {showLoad(p.load, loadUnit)}</p>}
-      {p.T0_K !== null && <p>T0: {num(p.T0_K - 273.15, 1)} °C</p>}
+      {p.load !== null && <p>Load: {showLoad(p.load, loadUnit, w)}</p>}
+      {p.T0_K !== null && <p>T0: {w.withU(p.T0_K, null, 'temperature', 1)}</p>}
       {p.reasons && p.reasons.length > 0 && <p className="mt-1 max-w-xs text-ink-soft">{p.reasons.join('; ')}</p>}
     </div>
   );
@@ -180,6 +182,7 @@ export function TimeChart({
   timeZone,
   bucket,
   loadUnit,
+  writer,
 }: {
   kind: Kind;
   points: TrendPoint[];
@@ -190,9 +193,12 @@ export function TimeChart({
   timeZone: string;
   bucket: 'hour' | 'day';
   loadUnit: string | null;
+  /** The site's writer (its display units and locale); the default units when none is given. */
+  writer?: SiteWriter;
 }) {
-  const maxD = Math.max(0, ...points.map((p) => Math.abs(p.destruction_W ?? 0)), ...points.map((p) => Math.abs(p.expected?.destructionHi_W ?? 0)));
-  const pu = powerUnit(maxD);
+  const w = writer ?? writerOf(null);
+  // The site's chosen power unit, whatever the size of the figures (kW stays kW at 20 MW).
+  const pu = sitePowerUnit(w);
   const rows: ChartRow[] = points.map((p) => {
     const e = p.expected;
     if (kind === 'efficiency') {
@@ -260,7 +266,7 @@ export function TimeChart({
             .map((n) => (
               <ReferenceLine key={n.id} x={n.onsetMs} stroke={COLORS.copper} strokeDasharray="3 3" label={<NoticeLabel />} ifOverflow="extendDomain" />
             ))}
-          <Tooltip content={<TrendTooltip kind={kind} timeZone={timeZone} bucket={bucket} loadUnit={loadUnit} />} isAnimationActive={false} />
+          <Tooltip content={<TrendTooltip kind={kind} timeZone={timeZone} bucket={bucket} loadUnit={loadUnit} w={w} />} isAnimationActive={false} />
         </ComposedChart>
       </ResponsiveContainer>
     </div>
@@ -300,14 +306,17 @@ export function TrendLegend({ kind, shown }: { kind: Kind; shown: Set<string> })
   );
 }
 
-function ScatterTooltip({ active, payload, kind, timeZone, loadUnit }: { active?: boolean; payload?: { payload: Record<string, unknown> }[]; kind: Kind; timeZone: string; loadUnit: string | null }) {
+function ScatterTooltip({ active, payload, kind, timeZone, loadUnit, w }: { active?: boolean; payload?: { payload: Record<string, unknown> }[]; kind: Kind; timeZone: string; loadUnit: string | null; w: SiteWriter }) {
   if (!active || !payload?.length) return null;
+  const power = (v_W: number | null | undefined) => w.withU(v_W, null, 'power');
   const d = payload[0]!.payload as { s?: ScatterPoint; c?: CurvePoint };
   if (d.s) {
     return (
       <div className="rounded border border-paper-edge bg-white px-3 py-2 text-xs shadow">
-        <p className="font-semibold">{siteTime(d.s.t, timeZone)}</p>
-        <p>Load: {showLoad(d.s.load, loadUnit)}</p>
+        <p className="font-semibold">
+          {siteTime(d.s.t, timeZone)} ({timeZone})
+        </p>
+        <p>Load: {showLoad(d.s.load, loadUnit, w)}</p>
         {kind === 'efficiency' ? <p>Efficiency: {pct(d.s.efficiency, d.s.efficiency_U)}</p> : <p>Destruction: {power(d.s.destruction_W)}</p>}
       </div>
     );
@@ -315,7 +324,7 @@ function ScatterTooltip({ active, payload, kind, timeZone, loadUnit }: { active?
   if (d.c) {
     return (
       <div className="rounded border border-paper-edge bg-white px-3 py-2 text-xs shadow">
-        <p className="font-semibold">Baseline at load {showLoad(d.c.load, loadUnit)}</p>
+        <p className="font-semibold">Baseline at load {showLoad(d.c.load, loadUnit, w)}</p>
         {kind === 'efficiency' ? (
           <p>
             Expected {pct(d.c.efficiency)} (band {pct(d.c.lo)} to {pct(d.c.hi)}, k = 2)
@@ -332,9 +341,25 @@ function ScatterTooltip({ active, payload, kind, timeZone, loadUnit }: { active?
 }
 
 /** Efficiency (or, for dissipative units, destruction) of steady hours against load, with the baseline's curve. */
-export function LoadScatter({ kind, scatter, curve, loadUnit, timeZone }: { kind: Kind; scatter: ScatterPoint[]; curve: CurvePoint[]; loadUnit: string | null; timeZone: string }) {
-  const ax = loadAxis(loadUnit);
-  const pu = powerUnit(Math.max(0, ...scatter.map((s) => Math.abs(s.destruction_W ?? 0))));
+export function LoadScatter({
+  kind,
+  scatter,
+  curve,
+  loadUnit,
+  timeZone,
+  writer,
+}: {
+  kind: Kind;
+  scatter: ScatterPoint[];
+  curve: CurvePoint[];
+  loadUnit: string | null;
+  timeZone: string;
+  /** The site's writer (its display units and locale); the default units when none is given. */
+  writer?: SiteWriter;
+}) {
+  const w = writer ?? writerOf(null);
+  const ax = loadAxis(loadUnit, w);
+  const pu = sitePowerUnit(w);
   const y = (v: number | null) => (v === null ? null : kind === 'efficiency' ? v * 100 : v / pu.factor);
   const pts = scatter.map((s) => ({ x: s.load * ax.scale, y: y(kind === 'efficiency' ? s.efficiency : s.destruction_W), s })).filter((p) => p.y !== null);
   const cur = curve.map((c) => ({
@@ -373,7 +398,7 @@ export function LoadScatter({ kind, scatter, curve, loadUnit, timeZone }: { kind
           {cur.length > 0 && <Area data={cur} dataKey="band" type="monotone" stroke="none" fill={kind === 'efficiency' ? COLORS.tealPale : COLORS.copperPale} isAnimationActive={false} />}
           {cur.length > 0 && <Line data={cur} dataKey="y" type="monotone" stroke={COLORS.ink} strokeDasharray="5 4" dot={false} isAnimationActive={false} />}
           <Scatter data={pts} dataKey="y" fill={dot} fillOpacity={0.7} shape="circle" isAnimationActive={false} />
-          <Tooltip content={<ScatterTooltip kind={kind} timeZone={timeZone} loadUnit={loadUnit} />} isAnimationActive={false} />
+          <Tooltip content={<ScatterTooltip kind={kind} timeZone={timeZone} loadUnit={loadUnit} w={w} />} isAnimationActive={false} />
         </ComposedChart>
       </ResponsiveContainer>
     </div>

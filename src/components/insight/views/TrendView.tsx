@@ -8,7 +8,8 @@ import type { NoticeStatus } from '~/lib/notice-view';
 import { useEffect, useMemo, useState, type ReactNode } from 'react';
 import { ErrorNote, HourStateMark, Loading, ViewsCaution } from './common';
 import { useApi } from '~/components/api';
-import { num, pct, power, siteTime, type HourState } from './format';
+import { pct, siteTime, type HourState } from './format';
+import { writerOf, type SiteDisplayUnits, type SiteWriter } from '~/lib/units/writer';
 import { PeriodPicker, periodFromSearch, periodQuery, syncSearch, type PeriodInfo, type PeriodValue } from './PeriodPicker';
 import { LoadScatter, TimeChart, TrendLegend } from './TrendCharts';
 import type { TrendAnswer } from '~/lib/views/trend';
@@ -44,7 +45,7 @@ function Stat({ label, value, sub, testId }: { label: string; value: string; sub
 }
 
 /** One quantity over the period: measured line, expected band, notices, and its legend. */
-function TimeCard({ kind, title, data, shown, children }: { kind: 'efficiency' | 'destruction'; title: string; data: TrendAnswer; shown: Set<string>; children?: ReactNode }) {
+function TimeCard({ kind, title, data, shown, w, children }: { kind: 'efficiency' | 'destruction'; title: string; data: TrendAnswer; shown: Set<string>; w: SiteWriter; children?: ReactNode }) {
   return (
     <section className="card">
       <h2>{title}</h2>
@@ -59,6 +60,7 @@ function TimeCard({ kind, title, data, shown, children }: { kind: 'efficiency' |
         timeZone={data.site.timeZone}
         bucket={data.bucket}
         loadUnit={data.loadUnit}
+        writer={w}
       />
       <TrendLegend kind={kind} shown={shown} />
       {children}
@@ -66,7 +68,11 @@ function TimeCard({ kind, title, data, shown, children }: { kind: 'efficiency' |
   );
 }
 
-export default function TrendView({ unitId, initialSearch }: { unitId: string; initialSearch: string }) {
+/** `display`: the site's display units (its settings), so powers are in the site's chosen unit whatever their size. */
+export default function TrendView({ unitId, initialSearch, display }: { unitId: string; initialSearch: string; display?: SiteDisplayUnits | null }) {
+  const w = useMemo(() => writerOf(display), [display]);
+  const power = (v_W: number | null | undefined, U_W?: number | null) => w.withU(v_W, U_W, 'power');
+  const unitP = w.unit('power');
   const [value, setValue] = useState<PeriodValue>(() => periodFromSearch(initialSearch, 'week'));
   const url = `/api/units/${unitId}/trend?${periodQuery(value)}`;
   const { data, error, loading } = useApi<TrendAnswer>(url);
@@ -124,9 +130,9 @@ export default function TrendView({ unitId, initialSearch }: { unitId: string; i
             </div>
           </div>
 
-          {hasEfficiency && <TimeCard kind="efficiency" title="Exergy efficiency" data={data} shown={shown} />}
+          {hasEfficiency && <TimeCard kind="efficiency" title="Exergy efficiency" data={data} shown={shown} w={w} />}
 
-          <TimeCard kind="destruction" title="Exergy destruction" data={data} shown={shown}>
+          <TimeCard kind="destruction" title="Exergy destruction" data={data} shown={shown} w={w}>
             {data.bucket === 'day' && <p className="mt-1 text-xs text-ink-faint">Long periods are drawn per local day: each point is the mean of that day's steady hours.</p>}
           </TimeCard>
 
@@ -136,7 +142,7 @@ export default function TrendView({ unitId, initialSearch }: { unitId: string; i
             {data.scatter.length === 0 ? (
               <p className="py-4 text-sm text-ink-faint">No steady hours with a load in this period.</p>
             ) : (
-              <LoadScatter kind={hasEfficiency ? 'efficiency' : 'destruction'} scatter={data.scatter} curve={data.curve} loadUnit={data.loadUnit} timeZone={data.site.timeZone} />
+              <LoadScatter kind={hasEfficiency ? 'efficiency' : 'destruction'} scatter={data.scatter} curve={data.curve} loadUnit={data.loadUnit} timeZone={data.site.timeZone} writer={w} />
             )}
             <p className="mt-1 text-xs text-ink-faint">
               Dots: steady hours of the period. Dashed line and band: the baseline at the period's mean ambient temperature (k = 2).
@@ -151,10 +157,10 @@ export default function TrendView({ unitId, initialSearch }: { unitId: string; i
               <table className="grid-table mt-2">
                 <thead>
                   <tr>
-                    <th>Onset (site time)</th>
+                    <th>Onset ({data.site.timeZone})</th>
                     <th>Shift</th>
                     <th>Status</th>
-                    <th className="num">Extra destruction [kW]</th>
+                    <th className="num">Extra destruction [{unitP}]</th>
                     <th className="num">Extra cost [{data.site.currency}/day]</th>
                   </tr>
                 </thead>
@@ -166,8 +172,8 @@ export default function TrendView({ unitId, initialSearch }: { unitId: string; i
                       </td>
                       <td>{n.direction === 'up' ? 'more destruction than expected' : 'less destruction than expected'}</td>
                       <td>{NOTICE_STATUS_WORDS[n.status as NoticeStatus]?.label ?? 'other'}</td>
-                      <td className="num">{power(n.extra_W, n.shiftU_W, { unit: 'kW', factor: 1e3 }).replace(/ kW/g, '')}</td>
-                      <td className="num">{num(n.extraCost_per_day)}</td>
+                      <td className="num">{power(n.extra_W, n.shiftU_W).split(` ${unitP}`).join('')}</td>
+                      <td className="num">{w.number(n.extraCost_per_day, 0)}</td>
                     </tr>
                   ))}
                 </tbody>

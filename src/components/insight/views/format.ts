@@ -4,6 +4,7 @@
  */
 import { fixed, pairU, sizeDecimals, withU } from '~/lib/format';
 import { siteStamp } from '~/lib/site-time';
+import type { SiteWriter } from '~/lib/units/writer';
 
 export { pairU };
 import type { HourState } from '~/lib/hour-states';
@@ -24,7 +25,13 @@ export function pct(v: number | null | undefined, U?: number | null, decimals = 
   return withU(v * 100, U === null || U === undefined ? null : U * 100, { unit: '%', decimals });
 }
 
-/** A display unit for powers [W] of this size: kW below 10 MW, MW above. */
+/** The site's chosen power unit (its display units, through its writer) as { unit, factor: W per shown unit }. */
+export function sitePowerUnit(w: SiteWriter): { unit: string; factor: number } {
+  const perW = w.shown(1, 'power');
+  return { unit: w.unit('power'), factor: perW ? 1 / perW : 1e3 };
+}
+
+/** A display unit for powers [W] of this size: kW below 10 MW, MW above (for figures of no site; a site's pages use sitePowerUnit). */
 export function powerUnit(maxAbs_W: number): { unit: 'kW' | 'MW'; factor: number } {
   return maxAbs_W >= 1e7 ? { unit: 'MW', factor: 1e6 } : { unit: 'kW', factor: 1e3 };
 }
@@ -69,16 +76,19 @@ export function num(v: number | null | undefined, decimals = 0): string {
 export const siteTime = (ms: number, timeZone: string, pattern = 'EEE d MMM yyyy, HH:mm'): string => siteStamp(ms, timeZone, pattern);
 
 /** A load with its unit as the engine reports it ('-' means a fraction of rating). */
-export function load(v: number | null | undefined, unit: string | null): string {
+export function load(v: number | null | undefined, unit: string | null, w?: SiteWriter): string {
   if (v === null || v === undefined || !Number.isFinite(v)) return '—';
   if (!unit || unit === '-' || unit === '1') return `${dec(v * 100, 1)} % of rating`;
-  if (unit === 'W') return power(v);
+  if (unit === 'W') return w ? w.withU(v, null, 'power') : power(v);
   return `${dec(v, Math.abs(v) >= 100 ? 0 : 2)} ${unit.replace('kg/s', 'kg/s')}`;
 }
 
 /** Axis label of the load for the scatter. */
-export function loadAxis(unit: string | null): { label: string; scale: number; suffix: string } {
+export function loadAxis(unit: string | null, w?: SiteWriter): { label: string; scale: number; suffix: string } {
   if (!unit || unit === '-' || unit === '1') return { label: 'Load [% of rating]', scale: 100, suffix: ' %' };
-  if (unit === 'W') return { label: 'Load [kW]', scale: 1e-3, suffix: ' kW' };
+  if (unit === 'W') {
+    const pu = w ? sitePowerUnit(w) : { unit: 'kW', factor: 1e3 };
+    return { label: `Load [${pu.unit}]`, scale: 1 / pu.factor, suffix: ` ${pu.unit}` };
+  }
   return { label: `Load [${unit}]`, scale: 1, suffix: ` ${unit}` };
 }
