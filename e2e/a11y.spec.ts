@@ -1,20 +1,24 @@
 import AxeBuilder from '@axe-core/playwright';
-import { expect, test, type Page } from '@playwright/test';
+import { expect, test, type Page, type Request } from '@playwright/test';
 import { navFor } from '~/lib/navigation';
 import type { Role } from '~/lib/roles';
 import { DEMO, DEMO_PASSWORD } from './helpers';
+import { codesOnPage } from './words-scan';
 
 /**
  * Every page each role can reach, at 1440 px, in one browser context per role and one page after
  * another: no WCAG 2.1 AA violation that axe-core finds (tags wcag2a, wcag2aa, wcag21a, wcag21aa),
  * no horizontal overflow of the document, the main navigation on one line, and every numeric column
- * head right-aligned over its numbers. The pages are the role's navigation plus the first detail
+ * head right-aligned over its numbers, no code or identifier of the word catalogue in the visible
+ * text, and no page transferring 300 KB or more (what the browser fetched for it, its cache warm from
+ * the pages before, as a person moving through the product would have it). The pages are the role's navigation plus the first detail
  * page each list links to (a site, a unit of the model, a unit's hours, a baseline, a notice, a
  * trend), so a new page is checked as soon as it is listed or linked. Every problem of every page is
  * collected before the test fails, so one run names them all.
  */
 const WCAG_21_AA = ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa'];
 const WIDTH = 1440;
+const MAX_PAGE_BYTES = 300 * 1024;
 
 /** Detail pages reached from the lists: the first link of each pattern found on the pages visited. */
 const DETAIL_PAGES = [
@@ -61,6 +65,7 @@ async function problemsOf(page: Page, path: string): Promise<string[]> {
   if (layout.scrollWidth > layout.clientWidth) out.push(`${path}: the page is ${layout.scrollWidth} px wide in a ${layout.clientWidth} px window (horizontal overflow)`);
   if (layout.navLines > 1) out.push(`${path}: the main navigation wraps onto ${layout.navLines} lines`);
   if (layout.heads.length) out.push(`${path}: numeric column heads not right-aligned: ${layout.heads.join('; ')}`);
+  for (const code of await codesOnPage(page)) out.push(`${path}: a code instead of words: ${code}`);
   return out;
 }
 
@@ -72,9 +77,19 @@ async function walk(page: Page, role: Role): Promise<{ visited: string[]; proble
   const problems: string[] = [];
   while (queue.length) {
     const path = queue.shift()!;
+    const requests: Request[] = [];
+    const listener = (r: Request) => requests.push(r);
+    page.on('requestfinished', listener);
     const res = await page.goto(path, SLOW);
     expect(res?.status(), `${path} answers for ${role}`).toBe(200);
     await settle(page);
+    page.off('requestfinished', listener);
+    let bytes = 0;
+    for (const r of requests) {
+      const s = await r.sizes();
+      bytes += s.responseBodySize + s.responseHeadersSize;
+    }
+    if (bytes >= MAX_PAGE_BYTES) problems.push(`${path}: ${Math.round(bytes / 1024)} KB transferred (limit ${MAX_PAGE_BYTES / 1024} KB)`);
     visited.push(path);
     problems.push(...(await problemsOf(page, path)));
     const hrefs = await page.locator('main a[href^="/"]').evaluateAll((as) => as.map((a) => a.getAttribute('href') ?? ''));
@@ -117,13 +132,14 @@ test('the pages before signing in meet WCAG 2.1 AA and fit 1440 px', async ({ br
   expect(problems).toEqual([]);
 });
 
-test('self-consistency: the checks see a violation, an overflow and a misaligned numeric head when there is one', async ({ page }) => {
+test('self-consistency: the checks see a violation, an overflow, a misaligned numeric head and a code when there is one', async ({ page }) => {
   await page.setViewportSize({ width: WIDTH, height: 900 });
   await page.setContent(
-    '<html lang="en"><body><main><img src="x.png"><div style="width:3000px">wide</div><table><tr><th class="num">x</th></tr></table></main></body></html>',
+    '<html lang="en"><body><main><p>Why: SPREAD_HIGH</p><img src="x.png"><div style="width:3000px">wide</div><table><tr><th class="num">x</th></tr></table></main></body></html>',
   );
   const problems = await problemsOf(page, 'sample');
   expect(problems.some((p) => p.includes('axe image-alt'))).toBe(true);
   expect(problems.some((p) => p.includes('horizontal overflow'))).toBe(true);
   expect(problems.some((p) => p.includes('numeric column heads'))).toBe(true);
+  expect(problems.some((p) => p.includes('a code instead of words') && p.includes('SPREAD_HIGH'))).toBe(true);
 });

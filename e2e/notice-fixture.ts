@@ -21,8 +21,8 @@ export async function noticeWithChart(name: string, opts: { first?: string; hour
     const baselineId = (
       await client.query<{ id: string }>(
         `insert into baselines (unit_id, version, status, period_from, period_to, terms, hours, destruction_model)
-         values ($1, 1, 'active', $2, $3, '["load"]'::jsonb, 168, '{}'::jsonb) returning id`,
-        [unitId, new Date(first - 14 * 24 * H).toISOString(), new Date(first - 7 * 24 * H).toISOString()],
+         values ($1, 1, 'active', $2, $3, '["load"]'::jsonb, 168, $4::jsonb) returning id`,
+        [unitId, new Date(first - 14 * 24 * H).toISOString(), new Date(first - 7 * 24 * H).toISOString(), JSON.stringify(flatModel())],
       )
     ).rows[0]!.id;
     const onsetStep = 240;
@@ -46,4 +46,25 @@ export async function noticeWithChart(name: string, opts: { first?: string; hour
   } finally {
     await client.end();
   }
+}
+
+/**
+ * A whole destruction model as a fit would store it (every field the pages read), invented for the
+ * fixture: 1.2 MW whatever the load, a residual spread of 21 kW over 168 hours. A row with an empty
+ * model is not one the product can write, and the baselines page rightly expects its statistics.
+ */
+function flatModel() {
+  const n = 168;
+  const p = 2;
+  const s = 2.1e4;
+  const ybar = 1.2e6;
+  return {
+    terms: ['load'],
+    centre: { load: 0.8, T_amb_K: 288.15 },
+    scale: { load: 0.1, T_amb_K: 5 },
+    beta: [ybar, 0],
+    zTzInv: [[1 / n, 0], [0, 1 / n]],
+    coefficients: { intercept: ybar, load: 0 },
+    stats: { n, p, dof: n - p, sse: s * s * (n - p), s, r2: 0, ybar, cvRmse: s / ybar, nmbe: 0 },
+  };
 }

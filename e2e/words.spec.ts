@@ -1,7 +1,7 @@
 import { expect, test, type Page } from '@playwright/test';
 import { NAV } from '~/lib/navigation';
-import { CODE_PATTERN } from '~/lib/words';
 import { DEMO, signIn } from './helpers';
+import { codesOnPage } from './words-scan';
 
 /**
  * Words, not codes: no page of the demo shows a code or identifier of the word catalogue
@@ -17,20 +17,6 @@ const DETAILS: [string, RegExp][] = [
   ['/notices', /^\/notices\/[0-9a-f-]{36}$/],
   ['/trends', /^\/trends\/[0-9a-f-]{36}$/],
 ];
-
-/** Every code found in the visible text (and option texts) of the page, with some text around it. */
-async function codesOnPage(page: Page): Promise<string[]> {
-  await page.waitForLoadState('networkidle');
-  await expect(page.getByTestId('loading')).toHaveCount(0);
-  const text = await page.evaluate(() => {
-    const options = [...document.querySelectorAll('option')].map((o) => o.textContent ?? '');
-    return [document.body.innerText, ...options].join('\n');
-  });
-  const found: string[] = [];
-  const all = new RegExp(CODE_PATTERN.source, 'g');
-  for (const m of text.matchAll(all)) found.push(`"${m[0]}" in "…${text.slice(Math.max(0, m.index! - 40), m.index! + m[0].length + 40).replace(/\s+/g, ' ')}…"`);
-  return found;
-}
 
 async function firstLink(page: Page, list: string, pattern: RegExp): Promise<string | null> {
   await page.goto(list);
