@@ -108,7 +108,7 @@ async function walk(page: Page, role: Role): Promise<{ visited: string[]; proble
 test.describe.configure({ timeout: 600_000 });
 
 for (const role of Object.keys(DEMO) as Role[]) {
-  test(`every page a ${role} reaches meets WCAG 2.1 AA (axe-core), fits 1440 px and keeps the navigation on one line`, async ({ browser }) => {
+  test(`every page a ${role} reaches meets WCAG 2.1 AA (axe-core), fits 1440 px, keeps the navigation on one line, shows words not codes and transfers under 300 KB`, async ({ browser }) => {
     const context = await browser.newContext({ viewport: { width: WIDTH, height: 900 } });
     const page = await context.newPage();
     await signIn(page, DEMO[role]);
