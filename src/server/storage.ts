@@ -14,21 +14,26 @@ import { env } from './env';
 
 let client: S3Client | undefined;
 
+/** The store's address and credentials, and checksums only where the store requires them. */
+function clientConfig() {
+  const e = env();
+  return {
+    endpoint: e.S3_ENDPOINT,
+    region: e.S3_REGION,
+    forcePathStyle: e.S3_FORCE_PATH_STYLE,
+    credentials: { accessKeyId: e.S3_ACCESS_KEY_ID, secretAccessKey: e.S3_SECRET_ACCESS_KEY },
+    requestChecksumCalculation: 'WHEN_REQUIRED' as const,
+    responseChecksumValidation: 'WHEN_REQUIRED' as const,
+  };
+}
+
 /**
  * The one S3 client. Locally it talks to the s3rver fake in fakes/; a hosted store is a change of
  * S3_* variables. requestChecksumCalculation 'WHEN_REQUIRED' keeps the presigner from adding an
  * empty-body CRC32 that a real store rejects on a browser PUT.
  */
 export function s3(): S3Client {
-  const e = env();
-  client ??= new S3Client({
-    endpoint: e.S3_ENDPOINT,
-    region: e.S3_REGION,
-    forcePathStyle: e.S3_FORCE_PATH_STYLE,
-    credentials: { accessKeyId: e.S3_ACCESS_KEY_ID, secretAccessKey: e.S3_SECRET_ACCESS_KEY },
-    requestChecksumCalculation: 'WHEN_REQUIRED',
-    responseChecksumValidation: 'WHEN_REQUIRED',
-  });
+  client ??= new S3Client(clientConfig());
   return client;
 }
 
@@ -72,15 +77,7 @@ let rawClient: S3Client | undefined;
  */
 function rawS3(): S3Client {
   if (rawClient) return rawClient;
-  const e = env();
-  rawClient = new S3Client({
-    endpoint: e.S3_ENDPOINT,
-    region: e.S3_REGION,
-    forcePathStyle: e.S3_FORCE_PATH_STYLE,
-    credentials: { accessKeyId: e.S3_ACCESS_KEY_ID, secretAccessKey: e.S3_SECRET_ACCESS_KEY },
-    requestChecksumCalculation: 'WHEN_REQUIRED',
-    responseChecksumValidation: 'WHEN_REQUIRED',
-  });
+  rawClient = new S3Client(clientConfig());
   rawClient.middlewareStack.add(
     (next) => async (args) => {
       const req = args.request as { headers?: Record<string, string> };

@@ -10,13 +10,14 @@ import { afterAll, beforeAll, expect, it, vi } from 'vitest';
 import { hashPassword } from 'better-auth/crypto';
 import { eq } from 'drizzle-orm';
 import { auth } from '~/server/auth';
-import { db, pgPool } from '~/server/db/client';
+import { db } from '~/server/db/client';
 import { account, user } from '~/server/db/schema';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '~/server/demo-accounts';
 import { guard } from '~/server/guard';
 import { ACCESS_MAX_AGE_MS, accessGeneration, hoursCacheLive, startHoursCache, stopHoursCache } from '~/server/hours-cache';
 import { updateUser } from '~/server/services/users';
 import { describeIntegration } from '../support/integration';
+import { queriesSent } from '../support/queries';
 
 const BASE = () => process.env.PUBLIC_BASE_URL ?? 'http://127.0.0.1:4331';
 const PASSWORD = 'session-cache-test-1';
@@ -24,20 +25,7 @@ const cookieOf = (res: Response) => res.headers.getSetCookie().map((c) => c.spli
 
 /** Counts the queries that read better-auth's session or user table while `run` runs. */
 async function sessionQueries(run: () => Promise<unknown>): Promise<number> {
-  const pool = pgPool() as unknown as { query: (...a: unknown[]) => Promise<unknown> };
-  const query = pool.query;
-  let n = 0;
-  pool.query = (...a: unknown[]) => {
-    const text = typeof a[0] === 'string' ? a[0] : (a[0] as { text?: string }).text;
-    if (text && /from "(session|user)"/.test(text)) n++;
-    return query.apply(pool, a);
-  };
-  try {
-    await run();
-  } finally {
-    pool.query = query;
-  }
-  return n;
+  return (await queriesSent((q) => /from "(session|user)"/.test(q.text), run)).length;
 }
 
 /** The guard's verdict on a request of `cookie` to an energy lead's API route (299: let through). */

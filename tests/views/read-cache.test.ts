@@ -5,7 +5,7 @@
  */
 import { afterAll, beforeAll, expect, it, vi } from 'vitest';
 import { and, eq } from 'drizzle-orm';
-import { db, pgPool } from '~/server/db/client';
+import { db } from '~/server/db/client';
 import { driftNotices, sites, unitHours } from '~/server/db/schema';
 import { siteOfParam } from '~/server/access';
 import { acceptBaseline, fitDraft } from '~/server/services/baselines';
@@ -14,6 +14,7 @@ import { hoursCacheLive, hoursGeneration, startHoursCache, stopHoursCache } from
 import { writeUnitHours } from '~/server/services/engine';
 import { dataSpan, overview, unitTrend } from '~/server/services/views';
 import { describeIntegration } from '../support/integration';
+import { queriesSent } from '../support/queries';
 import { addHours, at, HOUR, inventedSite } from './support';
 
 /** Counts the queries that read unit_hours for the site or unit `id` while `run` runs. */
@@ -23,20 +24,7 @@ async function unitHourQueries(id: string, run: () => Promise<unknown>): Promise
 
 /** Counts the queries whose text matches `table` and whose parameters name `id` while `run` runs. */
 async function queriesOf(table: RegExp, id: string, run: () => Promise<unknown>): Promise<number> {
-  const pool = pgPool() as unknown as { query: (...a: unknown[]) => Promise<unknown> };
-  const query = pool.query;
-  let n = 0;
-  pool.query = (...a: unknown[]) => {
-    const text = typeof a[0] === 'string' ? a[0] : (a[0] as { text?: string }).text;
-    if (text && table.test(text) && JSON.stringify(a[1] ?? []).includes(id)) n++;
-    return query.apply(pool, a);
-  };
-  try {
-    await run();
-  } finally {
-    pool.query = query;
-  }
-  return n;
+  return (await queriesSent((q) => table.test(q.text) && JSON.stringify(q.values).includes(id), run)).length;
 }
 
 describeIntegration('read cache of unit-hour figures', () => {

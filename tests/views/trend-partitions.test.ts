@@ -10,28 +10,14 @@ import { db, pgPool } from '~/server/db/client';
 import { ensureMonthPartitions } from '~/server/db/partitions';
 import { unitTrend } from '~/server/services/views';
 import { describeIntegration } from '../support/integration';
+import { queriesSent, type SentQuery } from '../support/queries';
 import { addHours, at, inventedSite } from './support';
 
-type Sent = { text: string; values: unknown[] };
+type Sent = SentQuery;
 
 /** The queries that name unit_hours, with their parameters, sent while `run` runs. */
 async function queriesOf(run: () => Promise<unknown>): Promise<Sent[]> {
-  const pool = pgPool() as unknown as { query: (...a: unknown[]) => Promise<unknown> };
-  const query = pool.query;
-  const sent: Sent[] = [];
-  pool.query = (...a: unknown[]) => {
-    // drizzle sends ({ text, rowMode, types }, values); the values may also ride in the first argument.
-    const first = typeof a[0] === 'string' ? { text: a[0] } : (a[0] as { text: string; values?: unknown[] });
-    const values = (a[1] as unknown[] | undefined) ?? first.values ?? [];
-    if (first.text.includes('unit_hours')) sent.push({ text: first.text, values });
-    return query.apply(pool, a);
-  };
-  try {
-    await run();
-  } finally {
-    pool.query = query;
-  }
-  return sent;
+  return queriesSent((q) => q.text.includes('unit_hours'), run);
 }
 
 /** Partitions of unit_hours a query's plan read when run (EXPLAIN ANALYZE, nodes with loops > 0). */
