@@ -130,6 +130,21 @@ describe('a later, larger shift', () => {
     // downwards: sizes count in the notice's direction
     expect(clearlyLarger({ ...cur, mean_W: -4000, U_W: 1000 }, { ...cur, mean_W: -2000 }, 'down')).toBe(true);
   });
+
+  it('hand-worked: the same fault at a higher duty is not larger; a larger fault at the same duty is', () => {
+    const cur = { hours: 24, fromMs: 0, toMs: 0, mean_W: 2000, U_W: 500, statU_W: 500, measU_W: null, nEff: 24, exceedsMeasurement: null };
+    // 4000 W against 2000 W passes in watts (as above). Expected 10 kW at the current window, 20 kW at the signal:
+    // 4000 / 20000 = 0.2 against 1.5 x 2000 / 10000 = 0.3: the same 20 % at twice the duty, absorbed.
+    expect(clearlyLarger({ ...cur, mean_W: 4000, U_W: 1000 }, cur, 'up', 0, { signal_W: 20_000, current_W: 10_000 })).toBe(false);
+    // At the same duty (10 kW both): 0.4 >= 0.3, a notice of its own, as without the duty.
+    expect(clearlyLarger({ ...cur, mean_W: 4000, U_W: 1000 }, cur, 'up', 0, { signal_W: 10_000, current_W: 10_000 })).toBe(true);
+    // 6100 W at 20 kW: 0.305 >= 0.3, larger in proportion too.
+    expect(clearlyLarger({ ...cur, mean_W: 6100, U_W: 1000 }, cur, 'up', 0, { signal_W: 20_000, current_W: 10_000 })).toBe(true);
+    // Larger in proportion only (a fixed extra on a light load): 2900 W fails in watts whatever the duty.
+    expect(clearlyLarger({ ...cur, mean_W: 2900, U_W: 10 }, cur, 'up', 0, { signal_W: 5_000, current_W: 10_000 })).toBe(false);
+    // No usable expected value (zero or negative): the size in watts decides alone.
+    expect(clearlyLarger({ ...cur, mean_W: 4000, U_W: 1000 }, cur, 'up', 0, { signal_W: 0, current_W: 10_000 })).toBe(true);
+  });
 });
 
 describe('repair verdict (IPMVP: adjusted baseline against the reporting period)', () => {

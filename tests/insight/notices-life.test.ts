@@ -171,6 +171,28 @@ describeIntegration('drift notices that live: headline, fading, larger shifts, e
     expectClose(second!.current_W!, 8 * s, { rtol: 1e-9 });
   });
 
+  it('the same fault at another duty stays on its notice; a larger one at that duty opens its own', async () => {
+    // A shift in proportion to the expected destruction (as fouling does): 20 % on a light load, then the
+    // same 20 % at full load (twice the watts: larger in watts, not in proportion), then 50 % at full load.
+    const u = await makeUnit('duty');
+    const rows = [...range(36, () => 0.2).map((f) => ({ load: 2, f })), ...range(24, () => 0.2).map((f) => ({ load: 24, f })), ...range(24, () => 0.5).map((f) => ({ load: 24, f }))];
+    await db()
+      .insert(unitHours)
+      .values(
+        rows.map(({ load, f }, j) => {
+          const D = (a + b * load) * (1 + f);
+          return { unitId: u.unitId, hourStart: hourOf(1 + j), state: 'steady' as const, load, T0_K: 291, destruction_W: D, destruction_U_W: U_W, destructionCost_per_h: cF * D * 3600, modelVersion: 'test', inputsHash: `d${j}` };
+        }),
+      );
+    await check(u);
+    const [first, second, ...more] = await notices(u.unitId);
+    expect(more).toHaveLength(0);
+    expect(first!.onsetHour.toISOString()).toBe(hourOf(1).toISOString());
+    expect(first!.supersededBy).toBe(second!.id);
+    expect(second!.priorReason).toBe('larger');
+    expect(second!.onsetHour.getTime()).toBeGreaterThanOrEqual(hourOf(61).getTime());
+  });
+
   it('escalation mails go exactly once per step when the cost per day has doubled since the last mail', async () => {
     const u = await makeUnit('escalate');
     expect((await noticeSettingsFor(u.siteId)).escalationMultiple).toBe(2);

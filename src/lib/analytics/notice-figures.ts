@@ -178,14 +178,29 @@ export function fadedAt(afterLastSignal: readonly ResidualHour[], sigma_W: numbe
  * when the shift has not changed (N the hours from onset to signal). Rule: with base = the larger of
  * the current size and that floor (in the notice's direction), the new size is at least
  * LARGER_FACTOR times the base and above it by more than LARGER_MARGIN sqrt(U_new^2 + U_cur^2).
+ *
+ * With the expected destruction of both windows given, the new size must also be LARGER_FACTOR times
+ * the base in proportion to its window's expected destruction: the same fault at another duty. A
+ * fouled exchanger destroys more at full load than on a light weekend; Monday's full-load hours
+ * against a weekend's current figure are the same fault, not a larger one (and a fixed extra that
+ * looks large in proportion on a light load is held back by the size in watts).
  * @param floor_W (k + h/N) sigma [W]; 0 to compare with the current size alone
+ * @param expected mean expected destruction of the signal's hours and of the current window [W]
  */
-export function clearlyLarger(signal: ShiftFigure, current: ShiftFigure, direction: Direction, floor_W = 0): boolean {
+export function clearlyLarger(signal: ShiftFigure, current: ShiftFigure, direction: Direction, floor_W = 0, expected?: DutyPair): boolean {
   if (signal.hours === 0 || current.hours === 0) return false;
   const s = sign(direction);
   const a = s * signal.mean_W;
   const base = Math.max(s * current.mean_W, floor_W, 0);
-  return a >= LARGER_FACTOR * base && a - base > LARGER_MARGIN * Math.sqrt(signal.U_W ** 2 + current.U_W ** 2);
+  const larger = a >= LARGER_FACTOR * base && a - base > LARGER_MARGIN * Math.sqrt(signal.U_W ** 2 + current.U_W ** 2);
+  if (!larger || !expected || !(expected.signal_W > 0) || !(expected.current_W > 0)) return larger;
+  return a / expected.signal_W >= LARGER_FACTOR * (base / expected.current_W);
+}
+
+/** Mean expected destruction of a signal's hours and of the current window [W]: the duty each size was measured at. */
+export interface DutyPair {
+  signal_W: number;
+  current_W: number;
 }
 
 export interface RepairVerdict {

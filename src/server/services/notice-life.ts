@@ -197,6 +197,8 @@ export async function reconcileNotices(tx: Tx, exec: Exec, ctx: Ctx, pending: Pe
   return { opened, signals };
 }
 
+const meanExpected = (hs: readonly Point[]) => (hs.length ? hs.reduce((t, p) => t + p.expected_W, 0) / hs.length : NaN);
+
 /** One CUSUM signal: absorbed, a re-run of a known one, or a new notice. */
 async function onSignal(tx: Tx, exec: Exec, ctx: Ctx, points: Point[], between: (a: number, b: number) => Point[], sig: DriftSignal): Promise<string | null> {
   const hours = points.filter((p) => p.step >= sig.onsetStep && p.step <= sig.step);
@@ -215,12 +217,14 @@ async function onSignal(tx: Tx, exec: Exec, ctx: Ctx, points: Point[], between: 
     if (faded !== null) {
       await tx.update(driftNotices).set({ fadedSince: new Date(faded) }).where(eq(driftNotices.id, live.id));
     } else {
-      const current = shiftFigure(between(live.onsetHour.getTime(), onsetMs).slice(-CURRENT_WINDOW_HOURS), ctx.sigma_W, ctx.phi);
+      const window = between(live.onsetHour.getTime(), onsetMs).slice(-CURRENT_WINDOW_HOURS);
+      const current = shiftFigure(window, ctx.sigma_W, ctx.phi);
       // The hours up to a crossing are picked by the stopping rule (their mean is at least k + h/N):
       // the new size must clear that floor too, so a re-signal of the same shift is absorbed.
       const sigFig = shiftFigure(hours, ctx.sigma_W, ctx.phi);
       const floor_W = (ctx.k + ctx.h / hours.length) * ctx.sigma_W;
-      if (!clearlyLarger(sigFig, current, d, floor_W)) {
+      const duty = { signal_W: meanExpected(hours), current_W: meanExpected(window) };
+      if (!clearlyLarger(sigFig, current, d, floor_W, duty)) {
         await tx.update(driftNotices).set({ lastSignalHour: new Date(signalMs) }).where(eq(driftNotices.id, live.id));
         return null;
       }
