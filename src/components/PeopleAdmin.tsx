@@ -117,10 +117,13 @@ function PeopleTable({ people, sites, selfId, patch, resend }: TableProps) {
 const InviteForm = InviteInput.pick({ name: true, email: true, role: true });
 type InviteForm = z.infer<typeof InviteForm>;
 
-export default function PeopleAdmin({ selfId, sites = [] }: { selfId: string; sites?: SiteRef[] }) {
+type Said = { ok: boolean; text: string } | null;
+type PersonPatch = { role?: Role; deactivated?: boolean; sites?: 'all' | string[] };
+
+/** The people list, read on mount and after each change; the outcome of each change in `message`. */
+function usePeople() {
   const [people, setPeople] = useState<Person[] | null>(null);
-  const [message, setMessage] = useState<{ ok: boolean; text: string } | null>(null);
-  const form = useForm<InviteForm>({ resolver: zodResolver(InviteForm), defaultValues: { name: '', email: '', role: 'operator' } });
+  const [message, setMessage] = useState<Said>(null);
 
   const load = useCallback(async () => {
     const data = await call('/api/admin/users', 'GET');
@@ -130,67 +133,70 @@ export default function PeopleAdmin({ selfId, sites = [] }: { selfId: string; si
     load().catch((e) => setMessage({ ok: false, text: e.message }));
   }, [load]);
 
-  async function invite(values: InviteForm) {
+  /** Runs a change, says `text` of its answer, runs `done`, and reads the list again (or says why it failed). */
+  async function change<T>(send: () => Promise<T>, text: (out: T) => string, done?: () => void): Promise<void> {
     try {
-      await call('/api/admin/users', 'POST', values);
-      setMessage({ ok: true, text: `Invitation sent to ${values.email}.` });
-      form.reset({ name: '', email: '', role: values.role });
+      const out = await send();
+      setMessage({ ok: true, text: text(out) });
+      done?.();
       await load();
     } catch (e) {
       setMessage({ ok: false, text: (e as Error).message });
     }
   }
-  async function patch(id: string, body: { role?: Role; deactivated?: boolean; sites?: 'all' | string[] }) {
-    try {
-      await call(`/api/admin/users/${id}`, 'PATCH', body);
-      setMessage({ ok: true, text: 'Saved.' });
-      await load();
-    } catch (e) {
-      setMessage({ ok: false, text: (e as Error).message });
-    }
-  }
+  const patch = (id: string, body: PersonPatch) => void change(() => call(`/api/admin/users/${id}`, 'PATCH', body), () => 'Saved.');
+  const resend = (p: Person) =>
+    void change(
+      () => call<{ sentTo: string }>(`/api/admin/users/${p.id}/resend`, 'POST', {}),
+      (out) => `Invitation sent again to ${out.sentTo}; the earlier link no longer works.`,
+    );
+  return { people, message, change, patch, resend };
+}
 
-  async function resend(p: Person) {
-    try {
-      const out = await call<{ sentTo: string }>(`/api/admin/users/${p.id}/resend`, 'POST', {});
-      setMessage({ ok: true, text: `Invitation sent again to ${out.sentTo}; the earlier link no longer works.` });
-      await load();
-    } catch (e) {
-      setMessage({ ok: false, text: (e as Error).message });
-    }
-  }
-
+/** Invite someone: name, e-mail and role, checked by the server's own rules. */
+function InviteSection({ onInvite }: { onInvite: (values: InviteForm, sent: () => void) => Promise<void> }) {
+  const form = useForm<InviteForm>({ resolver: zodResolver(InviteForm), defaultValues: { name: '', email: '', role: 'operator' } });
   const err = form.formState.errors;
+  const invite = (values: InviteForm) => onInvite(values, () => form.reset({ name: '', email: '', role: values.role }));
+  return (
+    <section className="card">
+      <h2 className="mb-3">Invite someone</h2>
+      <form onSubmit={form.handleSubmit(invite)} className="grid gap-3 sm:grid-cols-4" noValidate>
+        <div>
+          <label className="label" htmlFor="invite-name">Name</label>
+          <input id="invite-name" className="field" {...form.register('name')} />
+          {err.name && <p className="mt-1 text-xs text-alert">{err.name.message}</p>}
+        </div>
+        <div>
+          <label className="label" htmlFor="invite-email">E-mail</label>
+          <input id="invite-email" type="email" className="field" {...form.register('email')} />
+          {err.email && <p className="mt-1 text-xs text-alert">{err.email.message}</p>}
+        </div>
+        <div>
+          <label className="label" htmlFor="invite-role">Role</label>
+          <select id="invite-role" className="field" {...form.register('role')}>
+            {ROLES.map((r) => (
+              <option key={r} value={r}>{ROLE_LABELS[r]}</option>
+            ))}
+          </select>
+        </div>
+        <div className="flex items-end">
+          <button className="btn btn-primary" type="submit" disabled={form.formState.isSubmitting}>
+            Send invitation
+          </button>
+        </div>
+      </form>
+    </section>
+  );
+}
+
+/** The people page: invite someone, and everyone's role, sites and account. */
+export default function PeopleAdmin({ selfId, sites = [] }: { selfId: string; sites?: SiteRef[] }) {
+  const { people, message, change, patch, resend } = usePeople();
+  const onInvite = (values: InviteForm, sent: () => void) => change(() => call('/api/admin/users', 'POST', values), () => `Invitation sent to ${values.email}.`, sent);
   return (
     <div className="space-y-6">
-      <section className="card">
-        <h2 className="mb-3">Invite someone</h2>
-        <form onSubmit={form.handleSubmit(invite)} className="grid gap-3 sm:grid-cols-4" noValidate>
-          <div>
-            <label className="label" htmlFor="invite-name">Name</label>
-            <input id="invite-name" className="field" {...form.register('name')} />
-            {err.name && <p className="mt-1 text-xs text-alert">{err.name.message}</p>}
-          </div>
-          <div>
-            <label className="label" htmlFor="invite-email">E-mail</label>
-            <input id="invite-email" type="email" className="field" {...form.register('email')} />
-            {err.email && <p className="mt-1 text-xs text-alert">{err.email.message}</p>}
-          </div>
-          <div>
-            <label className="label" htmlFor="invite-role">Role</label>
-            <select id="invite-role" className="field" {...form.register('role')}>
-              {ROLES.map((r) => (
-                <option key={r} value={r}>{ROLE_LABELS[r]}</option>
-              ))}
-            </select>
-          </div>
-          <div className="flex items-end">
-            <button className="btn btn-primary" type="submit" disabled={form.formState.isSubmitting}>
-              Send invitation
-            </button>
-          </div>
-        </form>
-      </section>
+      <InviteSection onInvite={onInvite} />
       {message && (
         <p role={message.ok ? 'status' : 'alert'} className={message.ok ? 'notice-ok' : 'notice-error'}>{message.text}</p>
       )}

@@ -108,6 +108,72 @@ function checkName(name: unknown): void {
   }
 }
 
+/** Sends a reset link, or the invitation for an account that never set a password, from the queue. */
+async function sendPasswordLink({ user, url }: { user: { id: string; email: string; name: string }; url: string }): Promise<void> {
+  // An account that has never set a password gets the invitation wording: who invited, to which role and sites.
+  const mail = passwordMail(await invitationWords(user.id), user.email, user.name, url, RESET_LINK_SECONDS / 3600);
+  // From the queue (the worker sends it): the answer does not wait for the mail server.
+  await sendJob(await queue(), QUEUES.sendMail, mail, { retryLimit: 5, retryDelay: 30 });
+}
+
+/** After a reset: the invitation counts as accepted, other links end, and the sign-in failures are forgotten. */
+async function afterPasswordReset({ user }: { user: { id: string; email: string } }): Promise<void> {
+  await db()
+    .update(schema.invitations)
+    .set({ acceptedAt: new Date() })
+    .where(eq(schema.invitations.userId, user.id));
+  await endLinksOf(user.id);
+  await db().delete(schema.signInFailures).where(eq(schema.signInFailures.email, user.email.toLowerCase()));
+}
+
+/** Before a password change or reset: refuse a weak password; a change always ends every other session. */
+const beforeAuthRequest = createAuthMiddleware(async (ctx) => {
+  if (ctx.path === '/reset-password' || ctx.path === '/change-password') weakPassword(ctx.body?.newPassword);
+  if (ctx.path === '/change-password') {
+    // A changed password ends every other session, always.
+    return { context: { body: { ...ctx.body, revokeOtherSessions: true } } };
+  }
+});
+
+/** After a request: a deactivated person's refusal keeps Lossline's code; a changed password ends the person's links. */
+const afterAuthRequest = createAuthMiddleware(async (ctx) => {
+  const returned = ctx.context.returned;
+  if (returned instanceof APIError && (returned.body as { code?: string } | undefined)?.code === 'BANNED_USER') {
+    // The plugin refuses a deactivated person's new session; the answer keeps Lossline's code.
+    throw new APIError('FORBIDDEN', { code: 'ACCOUNT_DEACTIVATED', message: DEACTIVATED_MESSAGE });
+  }
+  if (ctx.path !== '/change-password') return;
+  const userId = ctx.context.session?.user.id ?? ctx.context.newSession?.user.id;
+  const ok = !(ctx.context.returned instanceof Error);
+  if (userId && ok) await endLinksOf(userId);
+});
+
+/** Requests per minute per address, kept in the database; sign-in and link requests have their own limits. */
+function rateLimitOf(e: AppEnv) {
+  return {
+    enabled: true,
+    storage: 'database' as const,
+    window: 60,
+    max: 300,
+    customRules: {
+      '/sign-in/email': { window: 60, max: e.SIGN_IN_LIMIT_PER_MINUTE },
+      '/request-password-reset': { window: 60, max: 5 },
+    },
+  };
+}
+
+/** Passwords: invitation only (no sign-up), length limits, links valid RESET_LINK_SECONDS, sessions ended by a reset. */
+const EMAIL_AND_PASSWORD = {
+  enabled: true,
+  disableSignUp: true,
+  minPasswordLength: MIN_PASSWORD_LENGTH,
+  maxPasswordLength: 128,
+  resetPasswordTokenExpiresIn: RESET_LINK_SECONDS,
+  revokeSessionsOnPasswordReset: true,
+  sendResetPassword: sendPasswordLink,
+  onPasswordReset: afterPasswordReset,
+};
+
 export function createAuth(e: AppEnv = env()) {
   const base = new URL(e.PUBLIC_BASE_URL);
   return betterAuth({
@@ -138,63 +204,14 @@ export function createAuth(e: AppEnv = env()) {
       },
     },
     verification: { storeIdentifier: { hash: async (id: string) => hashIdentifier(id) } },
-    emailAndPassword: {
-      enabled: true,
-      disableSignUp: true,
-      minPasswordLength: MIN_PASSWORD_LENGTH,
-      maxPasswordLength: 128,
-      resetPasswordTokenExpiresIn: RESET_LINK_SECONDS,
-      revokeSessionsOnPasswordReset: true,
-      sendResetPassword: async ({ user, url }) => {
-        // An account that has never set a password gets the invitation wording: who invited, to which role and sites.
-        const mail = passwordMail(await invitationWords(user.id), user.email, user.name, url, RESET_LINK_SECONDS / 3600);
-        // From the queue (the worker sends it): the answer does not wait for the mail server.
-        await sendJob(await queue(), QUEUES.sendMail, mail, { retryLimit: 5, retryDelay: 30 });
-      },
-      onPasswordReset: async ({ user }) => {
-        await db()
-          .update(schema.invitations)
-          .set({ acceptedAt: new Date() })
-          .where(eq(schema.invitations.userId, user.id));
-        await endLinksOf(user.id);
-        await db().delete(schema.signInFailures).where(eq(schema.signInFailures.email, user.email.toLowerCase()));
-      },
-    },
+    emailAndPassword: EMAIL_AND_PASSWORD,
     session: { expiresIn: 60 * 60 * 24 * 7, updateAge: 60 * 60 * 24 },
-    rateLimit: {
-      enabled: true,
-      storage: 'database',
-      window: 60,
-      max: 300,
-      customRules: {
-        '/sign-in/email': { window: 60, max: e.SIGN_IN_LIMIT_PER_MINUTE },
-        '/request-password-reset': { window: 60, max: 5 },
-      },
-    },
+    rateLimit: rateLimitOf(e),
     advanced: {
       ipAddress: { ipAddressHeaders: [CLIENT_IP_HEADER] },
       useSecureCookies: base.protocol === 'https:',
     },
-    hooks: {
-      before: createAuthMiddleware(async (ctx) => {
-        if (ctx.path === '/reset-password' || ctx.path === '/change-password') weakPassword(ctx.body?.newPassword);
-        if (ctx.path === '/change-password') {
-          // A changed password ends every other session, always.
-          return { context: { body: { ...ctx.body, revokeOtherSessions: true } } };
-        }
-      }),
-      after: createAuthMiddleware(async (ctx) => {
-        const returned = ctx.context.returned;
-        if (returned instanceof APIError && (returned.body as { code?: string } | undefined)?.code === 'BANNED_USER') {
-          // The plugin refuses a deactivated person's new session; the answer keeps Lossline's code.
-          throw new APIError('FORBIDDEN', { code: 'ACCOUNT_DEACTIVATED', message: DEACTIVATED_MESSAGE });
-        }
-        if (ctx.path !== '/change-password') return;
-        const userId = ctx.context.session?.user.id ?? ctx.context.newSession?.user.id;
-        const ok = !(ctx.context.returned instanceof Error);
-        if (userId && ok) await endLinksOf(userId);
-      }),
-    },
+    hooks: { before: beforeAuthRequest, after: afterAuthRequest },
     databaseHooks: {
       user: {
         create: { before: async (u) => void checkName(u.name) },

@@ -1,15 +1,32 @@
 import { useState } from 'react';
-import { DEFAULT_RULE_HOURS, WEEKDAYS, normallyIdleText, type NormallyIdle, type Weekday } from '~/lib/plant/idle';
+import { DEFAULT_RULE_HOURS, normallyIdleText, type NormallyIdle } from '~/lib/plant/idle';
+import { idleDeclaration, idleFormState, type IdleFormState } from '~/lib/plant/idle-form';
 import { Notice } from './common';
 import { call, messageOf, type Message } from '~/components/api';
+import { IdleWindowsFields, WhileRunningFields } from './IdleWindowsFields';
 
-const DAY_LABELS: Record<Weekday, string> = { mon: 'Mon', tue: 'Tue', wed: 'Wed', thu: 'Thu', fri: 'Fri', sat: 'Sat', sun: 'Sun' };
-const HOURS = Array.from({ length: 25 }, (_, h) => `${String(h).padStart(2, '0')}:00`);
-
-interface WindowRow {
-  days: Weekday[];
-  from: string;
-  to: string;
+/** The form's fields below "This unit is normally idle": when, while which units, and the hours. */
+function DeclarationFields({ unitId, otherUnits, s, update }: { unitId: string; otherUnits: string[]; s: IdleFormState; update: (f: (s: IdleFormState) => IdleFormState) => void }) {
+  return (
+    <>
+      <div className="flex flex-wrap gap-4 text-sm" role="radiogroup" aria-label="When">
+        <label className="flex items-center gap-2">
+          <input type="radio" name={`idle-when-${unitId}`} checked={s.always} onChange={() => update((x) => ({ ...x, always: true }))} /> always
+        </label>
+        <label className="flex items-center gap-2">
+          <input type="radio" name={`idle-when-${unitId}`} checked={!s.always} onChange={() => update((x) => ({ ...x, always: false }))} /> at these times of the week
+        </label>
+      </div>
+      {!s.always && <IdleWindowsFields windows={s.windows} setWindows={(f) => update((x) => ({ ...x, windows: f(x.windows) }))} />}
+      {otherUnits.length > 0 && <WhileRunningFields otherUnits={otherUnits} waitFor={s.waitFor} setWaitFor={(f) => update((x) => ({ ...x, waitFor: f(x.waitFor) }))} />}
+      <div>
+        <label className="label" htmlFor={`idle-hours-${unitId}`}>
+          Hours in a row before a notice [h]
+        </label>
+        <input id={`idle-hours-${unitId}`} className="field w-24 text-right" inputMode="numeric" value={s.hours} onChange={(e) => update((x) => ({ ...x, hours: e.target.value }))} />
+      </div>
+    </>
+  );
 }
 
 /**
@@ -33,32 +50,15 @@ export default function IdleDeclarationForm({
   canEdit: boolean;
 }) {
   const [saved, setSaved] = useState<NormallyIdle | null>(initial);
-  const [on, setOn] = useState(initial !== null);
-  const [always, setAlways] = useState(initial === null || initial.when === 'always');
-  const [windows, setWindows] = useState<WindowRow[]>(
-    initial && initial.when !== 'always'
-      ? initial.when.map((w) => ({ days: w.days ?? [...WEEKDAYS], from: w.from ?? '00:00', to: w.to ?? '24:00' }))
-      : [{ days: ['sat', 'sun'], from: '00:00', to: '24:00' }],
-  );
-  const [waitFor, setWaitFor] = useState<string[]>(initial?.whileRunning ?? []);
-  const [hours, setHours] = useState(String(initial?.hours ?? DEFAULT_RULE_HOURS));
+  const [s, update] = useState<IdleFormState>(() => idleFormState(initial));
   const [message, setMessage] = useState<Message>(null);
   const [busy, setBusy] = useState(false);
-
-  const setWindow = (i: number, w: Partial<WindowRow>) => setWindows((ws) => ws.map((x, j) => (j === i ? { ...x, ...w } : x)));
 
   async function save(e: React.FormEvent) {
     e.preventDefault();
     setBusy(true);
     setMessage(null);
-    const n = Number(hours);
-    const normallyIdle: NormallyIdle | null = on
-      ? {
-          when: always ? 'always' : windows.map((w) => ({ ...(w.days.length === 7 ? {} : { days: w.days }), from: w.from, to: w.to })),
-          ...(waitFor.length ? { whileRunning: waitFor } : {}),
-          ...(n !== DEFAULT_RULE_HOURS || initial?.hours !== undefined ? { hours: n } : {}),
-        }
-      : null;
+    const normallyIdle = idleDeclaration(s, initial);
     try {
       await call(`/api/sites/${siteId}/units/${unitId}`, 'PATCH', { normallyIdle });
       setSaved(normallyIdle);
@@ -84,84 +84,9 @@ export default function IdleDeclarationForm({
       <form onSubmit={save} className="space-y-3">
         <fieldset disabled={!canEdit} className="space-y-3">
           <label className="flex items-center gap-2 text-sm">
-            <input type="checkbox" checked={on} onChange={(e) => setOn(e.target.checked)} /> This unit is normally idle
+            <input type="checkbox" checked={s.on} onChange={(e) => update((x) => ({ ...x, on: e.target.checked }))} /> This unit is normally idle
           </label>
-          {on && (
-            <>
-              <div className="flex flex-wrap gap-4 text-sm" role="radiogroup" aria-label="When">
-                <label className="flex items-center gap-2">
-                  <input type="radio" name={`idle-when-${unitId}`} checked={always} onChange={() => setAlways(true)} /> always
-                </label>
-                <label className="flex items-center gap-2">
-                  <input type="radio" name={`idle-when-${unitId}`} checked={!always} onChange={() => setAlways(false)} /> at these times of the week
-                </label>
-              </div>
-              {!always && (
-                <ul className="space-y-2">
-                  {windows.map((w, i) => (
-                    <li key={i} className="flex flex-wrap items-center gap-2 text-sm" data-testid="idle-window">
-                      {WEEKDAYS.map((d) => (
-                        <label key={d} className="flex items-center gap-1">
-                          <input
-                            type="checkbox"
-                            checked={w.days.includes(d)}
-                            onChange={(e) => setWindow(i, { days: e.target.checked ? WEEKDAYS.filter((x) => x === d || w.days.includes(x)) : w.days.filter((x) => x !== d) })}
-                          />
-                          {DAY_LABELS[d]}
-                        </label>
-                      ))}
-                      <label className="ml-2 flex items-center gap-1">
-                        from
-                        <select className="field w-24" value={w.from} onChange={(e) => setWindow(i, { from: e.target.value })}>
-                          {HOURS.slice(0, 24).map((h) => (
-                            <option key={h}>{h}</option>
-                          ))}
-                        </select>
-                      </label>
-                      <label className="flex items-center gap-1">
-                        to
-                        <select className="field w-24" value={w.to} onChange={(e) => setWindow(i, { to: e.target.value })}>
-                          {HOURS.slice(1).map((h) => (
-                            <option key={h}>{h}</option>
-                          ))}
-                        </select>
-                      </label>
-                      {windows.length > 1 && (
-                        <button type="button" className="btn" onClick={() => setWindows((ws) => ws.filter((_, j) => j !== i))}>
-                          Remove
-                        </button>
-                      )}
-                    </li>
-                  ))}
-                  <li>
-                    <button type="button" className="btn" onClick={() => setWindows((ws) => [...ws, { days: ['mon', 'tue', 'wed', 'thu', 'fri'], from: '22:00', to: '06:00' }])}>
-                      Add a time
-                    </button>
-                    <span className="ml-2 text-xs text-ink-faint">An end at or before the start runs over midnight.</span>
-                  </li>
-                </ul>
-              )}
-              {otherUnits.length > 0 && (
-                <fieldset className="text-sm">
-                  <legend className="label">Only while these units run (e.g. the turbine a bypass valve stands in for)</legend>
-                  <div className="flex flex-wrap gap-3">
-                    {otherUnits.map((u) => (
-                      <label key={u} className="flex items-center gap-1">
-                        <input type="checkbox" checked={waitFor.includes(u)} onChange={(e) => setWaitFor((xs) => (e.target.checked ? [...xs, u] : xs.filter((x) => x !== u)))} />
-                        {u}
-                      </label>
-                    ))}
-                  </div>
-                </fieldset>
-              )}
-              <div>
-                <label className="label" htmlFor={`idle-hours-${unitId}`}>
-                  Hours in a row before a notice [h]
-                </label>
-                <input id={`idle-hours-${unitId}`} className="field w-24 text-right" inputMode="numeric" value={hours} onChange={(e) => setHours(e.target.value)} />
-              </div>
-            </>
-          )}
+          {s.on && <DeclarationFields unitId={unitId} otherUnits={otherUnits} s={s} update={update} />}
           {canEdit && (
             <button type="submit" className="btn" disabled={busy}>
               Save idle declaration

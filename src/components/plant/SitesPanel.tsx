@@ -25,9 +25,36 @@ const NewSite = z.object({
 });
 type NewSite = z.infer<typeof NewSite>;
 
-/** The list of sites; admins also create a site by hand or from a model file. */
-export default function SitesPanel({ sites, canEdit }: { sites: SiteSummary[]; canEdit: boolean }) {
-  const [message, setMessage] = useState<Message>(null);
+/** The sites, each with its clock and how many of its units can compute. */
+function SitesTable({ sites }: { sites: SiteSummary[] }) {
+  return (
+    <table className="grid-table">
+      <thead>
+        <tr>
+          <th>Site</th>
+          <th>Time zone</th>
+          <th className="num">Units</th>
+          <th className="num">Complete</th>
+        </tr>
+      </thead>
+      <tbody>
+        {sites.map((s) => (
+          <tr key={s.id}>
+            <td>
+              <a href={`/plant/${s.id}`}>{s.name}</a>
+            </td>
+            <td>{s.timeZone}</td>
+            <td className="num">{s.units}</td>
+            <td className="num">{s.complete}</td>
+          </tr>
+        ))}
+      </tbody>
+    </table>
+  );
+}
+
+/** The New site card (admins): by hand, or from a model file; either opens the new site's page. */
+function NewSiteSection({ onMessage }: { onMessage: (m: Message) => void }) {
   const form = useForm<NewSite>({ resolver: zodResolver(NewSite), defaultValues: { name: '', timeZone: 'UTC', elevation: '' } });
   const err = form.formState.errors;
 
@@ -40,7 +67,7 @@ export default function SitesPanel({ sites, canEdit }: { sites: SiteSummary[]; c
       });
       window.location.href = `/plant/${site.id}`;
     } catch (e) {
-      setMessage(messageOf(e));
+      onMessage(messageOf(e));
     }
   }
 
@@ -50,69 +77,52 @@ export default function SitesPanel({ sites, canEdit }: { sites: SiteSummary[]; c
       const out = await call<{ siteId: string }>('/api/sites/from-model', 'POST', await file.text());
       window.location.href = `/plant/${out.siteId}`;
     } catch (e) {
-      setMessage(messageOf(e));
+      onMessage(messageOf(e));
     }
   }
 
   return (
+    <section className="card">
+      <h2 className="mb-3">New site</h2>
+      <form onSubmit={form.handleSubmit(create)} className="grid gap-3 sm:grid-cols-4" noValidate>
+        <Field id="site-name" label="Name" error={err.name?.message}>
+          <input id="site-name" className="field" {...form.register('name')} />
+        </Field>
+        <Field id="site-tz" label="Time zone" error={err.timeZone?.message}>
+          <input id="site-tz" className="field" {...form.register('timeZone')} />
+        </Field>
+        <Field id="site-elevation" label="Elevation [m]" error={err.elevation?.message}>
+          <input id="site-elevation" className="field" inputMode="decimal" {...form.register('elevation')} />
+        </Field>
+        <div className="flex items-end">
+          <button className="btn btn-primary" type="submit" disabled={form.formState.isSubmitting}>
+            Create site
+          </button>
+        </div>
+      </form>
+      <div className="mt-4 border-t border-paper-edge pt-3">
+        <label className="label" htmlFor="site-from-file">
+          Or create a site from a model file (<a href="/help/model-file">its format</a>)
+        </label>
+        <input id="site-from-file" type="file" accept="application/json,.json" onChange={(e) => fromFile(e.target.files?.[0])} />
+      </div>
+    </section>
+  );
+}
+
+/** The list of sites; admins also create a site by hand or from a model file. */
+export default function SitesPanel({ sites, canEdit }: { sites: SiteSummary[]; canEdit: boolean }) {
+  const [message, setMessage] = useState<Message>(null);
+  return (
     <div className="space-y-6">
       <section className="card">
         <h2 className="mb-3">Sites</h2>
-        {sites.length === 0 ? (
-          <p className="text-sm text-ink-faint">No site yet.</p>
-        ) : (
-          <table className="grid-table">
-            <thead>
-              <tr>
-                <th>Site</th>
-                <th>Time zone</th>
-                <th className="num">Units</th>
-                <th className="num">Complete</th>
-              </tr>
-            </thead>
-            <tbody>
-              {sites.map((s) => (
-                <tr key={s.id}>
-                  <td>
-                    <a href={`/plant/${s.id}`}>{s.name}</a>
-                  </td>
-                  <td>{s.timeZone}</td>
-                  <td className="num">{s.units}</td>
-                  <td className="num">{s.complete}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        )}
+        {sites.length === 0 ? <p className="text-sm text-ink-faint">No site yet.</p> : <SitesTable sites={sites} />}
       </section>
       {canEdit && (
         <>
           <Notice message={message} />
-          <section className="card">
-            <h2 className="mb-3">New site</h2>
-            <form onSubmit={form.handleSubmit(create)} className="grid gap-3 sm:grid-cols-4" noValidate>
-              <Field id="site-name" label="Name" error={err.name?.message}>
-                <input id="site-name" className="field" {...form.register('name')} />
-              </Field>
-              <Field id="site-tz" label="Time zone" error={err.timeZone?.message}>
-                <input id="site-tz" className="field" {...form.register('timeZone')} />
-              </Field>
-              <Field id="site-elevation" label="Elevation [m]" error={err.elevation?.message}>
-                <input id="site-elevation" className="field" inputMode="decimal" {...form.register('elevation')} />
-              </Field>
-              <div className="flex items-end">
-                <button className="btn btn-primary" type="submit" disabled={form.formState.isSubmitting}>
-                  Create site
-                </button>
-              </div>
-            </form>
-            <div className="mt-4 border-t border-paper-edge pt-3">
-              <label className="label" htmlFor="site-from-file">
-                Or create a site from a model file (<a href="/help/model-file">its format</a>)
-              </label>
-              <input id="site-from-file" type="file" accept="application/json,.json" onChange={(e) => fromFile(e.target.files?.[0])} />
-            </div>
-          </section>
+          <NewSiteSection onMessage={setMessage} />
         </>
       )}
     </div>

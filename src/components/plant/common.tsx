@@ -1,6 +1,5 @@
 import { siteNowWall, siteStamp, siteWallTime } from '~/lib/site-time';
 import type { ReactNode } from 'react';
-import { canConvert, fromSI, toSI, type Quantity } from '~/lib/units';
 import type { Message } from '~/components/api';
 
 /** A status line, and the JSON path of each issue when the server sent some. */
@@ -38,20 +37,8 @@ export function Field({ id, label, error, children }: { id: string; label: strin
   );
 }
 
-/** SI value shown in a display unit, rounded for reading. */
-export function showSI(value_SI: number | undefined | null, unit: string, quantity: Quantity): string {
-  if (value_SI === undefined || value_SI === null) return '';
-  if (!canConvert(unit, quantity)) return String(value_SI);
-  return String(Number(fromSI(value_SI, unit, quantity).toPrecision(6)));
-}
-
-/** A number typed in a display unit, to SI. */
-export function readSI(text: string, unit: string, quantity: Quantity): number | null {
-  if (text.trim() === '') return null;
-  const v = Number(text.replace(',', '.'));
-  if (!Number.isFinite(v)) return NaN;
-  return toSI(v, unit, quantity);
-}
+/** SI values shown and typed in a display unit (the plant forms' one conversion, kept in src/lib). */
+export { readSI, showSI } from '~/lib/plant/site-settings-form';
 
 /** An instant as 'yyyy-MM-dd HH:mm' in the site's time zone ('from the start' for the epoch). */
 export function showInstant(iso: string | null | undefined, timeZone: string): string {

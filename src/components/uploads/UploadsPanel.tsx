@@ -1,31 +1,19 @@
 import { fixed } from '~/lib/format';
-import AwsS3 from '@uppy/aws-s3';
-import Uppy from '@uppy/core';
 import Dashboard from '@uppy/react/dashboard';
 import '@uppy/core/css/style.min.css';
 import '@uppy/dashboard/css/style.min.css';
-import { useEffect, useMemo, useState } from 'react';
+import { useEffect, useState } from 'react';
 import { call, useApi } from '~/components/api';
 import { counted } from '~/lib/counts';
 import type { UploadRow } from '~/lib/upload-view';
 import { UploadsTable } from './UploadsTable';
 import { uppyThemeCss } from './uppyTheme';
+import { useUppyUploads } from './useUppyUploads';
 
 interface Site {
   id: string;
   name: string;
   timeZone: string;
-}
-
-/** An empty JSON body: the API takes JSON, never form posts (which Astro's origin check refuses cross-site). */
-
-/** Files up to this size get their SHA-256 in the browser, so a repeat is known before it is sent. */
-const HASH_IN_BROWSER_BYTES = 256 * 1024 * 1024;
-
-async function sha256Hex(file: Blob): Promise<string | undefined> {
-  if (file.size > HASH_IN_BROWSER_BYTES || !globalThis.crypto?.subtle) return undefined;
-  const digest = await crypto.subtle.digest('SHA-256', await file.arrayBuffer());
-  return [...new Uint8Array(digest)].map((b) => b.toString(16).padStart(2, '0')).join('');
 }
 
 /** One page of the site's files as the API answers it. */
@@ -69,6 +57,24 @@ function Pager({ page, index, onNewer, onOlder }: { page: UploadPage; index: num
   );
 }
 
+/** The site the files go to, in its clock. */
+function SitePicker({ sites, siteId, setSiteId }: { sites: Site[]; siteId: string; setSiteId: (id: string) => void }) {
+  return (
+    <div className="flex flex-wrap items-end gap-3">
+      <div>
+        <label className="label" htmlFor="site">Site</label>
+        <select id="site" className="field" value={siteId} onChange={(e) => setSiteId(e.target.value)}>
+          {sites.map((s) => (
+            <option key={s.id} value={s.id}>{s.name} ({s.timeZone})</option>
+          ))}
+        </select>
+      </div>
+      <p className="pb-2 text-sm text-ink-soft">Local times in a file are read on this site's clock.</p>
+    </div>
+  );
+}
+
+/** The uploads page: the site, the drop zone, and the site's files page by page with their reports. */
 export default function UploadsPanel({ sites, initialSiteId }: { sites: Site[]; initialSiteId: string | null }) {
   const [siteId, setSiteId] = useState(initialSiteId ?? sites[0]?.id ?? '');
   const [error, setError] = useState<string | null>(null);
@@ -82,39 +88,7 @@ export default function UploadsPanel({ sites, initialSiteId }: { sites: Site[]; 
   });
   const rows = list.data?.uploads ?? null;
   const load = list.reload;
-
-  const uppy = useMemo(() => {
-    const u = new Uppy({ id: 'historian-files', autoProceed: false, restrictions: { maxFileSize: 4 * 1024 ** 3, allowedFileTypes: ['.csv', '.txt', '.tsv', 'text/*'] } });
-    u.use(AwsS3, {
-      shouldUseMultipart: false,
-      async getUploadParameters(file) {
-        const site = (file.meta as { siteId?: string }).siteId;
-        const body = { fileName: file.name, sizeBytes: file.size, contentType: file.type || 'text/csv', sha256: await sha256Hex(file.data as Blob) };
-        const data = await call<{ uploadId: string; url: string; headers: Record<string, string> }>(`/api/sites/${site}/uploads`, 'POST', body);
-        u.setFileMeta(file.id, { uploadId: data.uploadId });
-        return { method: 'PUT', url: data.url, headers: data.headers };
-      },
-    });
-    return u;
-  }, []);
-
-  useEffect(() => {
-    const onAdded = (file: { id: string }) => uppy.setFileMeta(file.id, { siteId });
-    uppy.getFiles().forEach((f) => uppy.setFileMeta(f.id, { siteId }));
-    uppy.on('file-added', onAdded);
-    return () => void uppy.off('file-added', onAdded);
-  }, [uppy, siteId]);
-
-  useEffect(() => {
-    const onSuccess = async (file: { meta: Record<string, unknown> } | undefined) => {
-      const id = file?.meta.uploadId as string | undefined;
-      if (!id) return;
-      await call(`/api/uploads/${id}/complete`, 'POST', {}).catch((e: Error) => setError(e.message));
-      load();
-    };
-    uppy.on('upload-success', onSuccess);
-    return () => void uppy.off('upload-success', onSuccess);
-  }, [uppy, load]);
+  const uppy = useUppyUploads(siteId, load, setError);
 
   async function retry(id: string) {
     await call(`/api/uploads/${id}/retry`, 'POST', {}).catch((e: Error) => setError(e.message));
@@ -126,17 +100,7 @@ export default function UploadsPanel({ sites, initialSiteId }: { sites: Site[]; 
   return (
     <div className="space-y-6">
       <style>{uppyThemeCss()}</style>
-      <div className="flex flex-wrap items-end gap-3">
-        <div>
-          <label className="label" htmlFor="site">Site</label>
-          <select id="site" className="field" value={siteId} onChange={(e) => setSiteId(e.target.value)}>
-            {sites.map((s) => (
-              <option key={s.id} value={s.id}>{s.name} ({s.timeZone})</option>
-            ))}
-          </select>
-        </div>
-        <p className="pb-2 text-sm text-ink-soft">Local times in a file are read on this site's clock.</p>
-      </div>
+      <SitePicker sites={sites} siteId={siteId} setSiteId={setSiteId} />
       <div className="card p-2">
         <Dashboard uppy={uppy} proudlyDisplayPoweredByUppy={false} height={260} width="100%" note="Historian or logger exports as CSV (comma, semicolon or tab separated), up to 4 GiB each." />
       </div>

@@ -110,116 +110,160 @@ interface PendingPoint {
  */
 export const SUSTAINED_HOURS = DRIFT_CHECK_DEFAULTS.sustainedHours;
 
+type DriftRow = typeof driftPoints.$inferInsert;
+type PrevRow = typeof driftPoints.$inferSelect;
+
+/** The unit's active baseline (its id, the end of its reference period and its fitted model), if any. */
+async function activeBaseline(tx: Tx, unitId: string) {
+  const [b] = await tx
+    .select({ id: baselines.id, periodTo: baselines.periodTo, model: baselines.destructionModel })
+    .from(baselines)
+    .where(and(eq(baselines.unitId, unitId), eq(baselines.status, 'active')));
+  return b ? { ...b, model: b.model as BaselineModel } : undefined;
+}
+
+/** AR(1) of the reference residuals; a baseline saved before it was stored behaves as phi = 0. */
+function ar1Of(model: BaselineModel): Ar1Model {
+  const s = model.stats.s;
+  return model.stats.phi !== undefined && model.stats.sInnovation !== undefined && model.stats.sInnovation > 0 ? { phi: model.stats.phi, sInnovation: model.stats.sInnovation } : { phi: 0, sInnovation: s };
+}
+
+/**
+ * Where the run resumes: drops the rows of an earlier baseline and the rows from the first affected
+ * hour on; returns the last row kept before it (if any) and the hour after which steady hours are read.
+ */
+async function resumePoint(tx: Tx, unitId: string, baselineId: string, periodTo: Date, fromMs: number): Promise<{ prev: PrevRow | undefined; after: Date }> {
+  // Rows of an earlier baseline say nothing about this one.
+  await tx.delete(driftPoints).where(and(eq(driftPoints.unitId, unitId), ne(driftPoints.baselineId, baselineId)));
+  const from = new Date(Math.max(Math.floor(fromMs / HOUR_MS) * HOUR_MS, periodTo.getTime()));
+  const [prev] = await tx
+    .select()
+    .from(driftPoints)
+    .where(and(eq(driftPoints.unitId, unitId), lt(driftPoints.hourStart, from)))
+    .orderBy(desc(driftPoints.hourStart))
+    .limit(1);
+  await tx.delete(driftPoints).where(and(eq(driftPoints.unitId, unitId), gte(driftPoints.hourStart, from)));
+  return { prev, after: prev ? prev.hourStart : new Date(periodTo.getTime() - 1) };
+}
+
+/** The unit's steady hours with load, T0 and destruction after `after` and not before the baseline's period end. */
+function steadyHoursAfter(tx: Tx, unitId: string, after: Date, periodTo: Date) {
+  return tx
+    .select({
+      hourStart: unitHours.hourStart,
+      load: unitHours.load,
+      T0_K: unitHours.T0_K,
+      destruction_W: unitHours.destruction_W,
+      destructionU_W: unitHours.destruction_U_W,
+      destructionCost_per_h: unitHours.destructionCost_per_h,
+    })
+    .from(unitHours)
+    .where(
+      and(
+        eq(unitHours.unitId, unitId),
+        eq(unitHours.state, 'steady'),
+        gt(unitHours.hourStart, after),
+        gte(unitHours.hourStart, periodTo),
+        isNotNull(unitHours.load),
+        isNotNull(unitHours.T0_K),
+        isNotNull(unitHours.destruction_W),
+      ),
+    )
+    .orderBy(asc(unitHours.hourStart));
+}
+type SteadyHour = Awaited<ReturnType<typeof steadyHoursAfter>>[number];
+
+/** Repair dates of the unit's notices closed as repaired [ms], earliest first. */
+async function repairTimes(tx: Tx, unitId: string): Promise<number[]> {
+  const rows = await tx
+    .select({ at: driftNotices.repairedAt })
+    .from(driftNotices)
+    .where(and(eq(driftNotices.unitId, unitId), eq(driftNotices.closeOutcome, 'repaired'), isNotNull(driftNotices.repairedAt)));
+  return rows.map((r) => r.at!.getTime()).sort((x, y) => x - y);
+}
+
+/** The CUSUM state to go on from: after a signal the sums restart at zero (resetOnSignal); the row keeps the crossing for the chart. */
+function resumeState(prev: PrevRow | undefined): CusumState {
+  if (!prev) return cusumInit();
+  return prev.signal ? { ...cusumInit(), step: prev.step } : { step: prev.step, cPlus: prev.cPlus, cMinus: prev.cMinus, nPlus: prev.nPlus, nMinus: prev.nMinus };
+}
+
+interface CusumRun {
+  unitId: string;
+  baselineId: string;
+  model: BaselineModel;
+  ar1: Ar1Model;
+  options: { k: number; h: number; resetOnSignal: boolean; minRunLength: number };
+  repairs: number[];
+}
+
+/**
+ * The CUSUM over the steady hours, from the state of `prev`: one drift row per hour and the hours that
+ * signalled. After a repair the sums restart at zero from the repair date. Pure.
+ */
+function runCusum(run: CusumRun, prev: PrevRow | undefined, after: Date, hours: SteadyHour[]): { rows: DriftRow[]; pending: PendingPoint[] } {
+  const { ar1, model } = run;
+  let state = resumeState(prev);
+  const rows: DriftRow[] = [];
+  const pending: PendingPoint[] = [];
+  let last: { r: number; ms: number } | null = prev ? { r: prev.residual_W, ms: prev.hourStart.getTime() } : null;
+  let lastMs = after.getTime();
+  for (const h of hours) {
+    if (run.repairs.some((r) => r > lastMs && r <= h.hourStart.getTime())) {
+      state = { ...cusumInit(), step: state.step };
+      last = null; // the innovation after a repair does not lean on the hour before it
+    }
+    lastMs = h.hourStart.getTime();
+    const expected_W = predict(model, h.load!, h.T0_K!);
+    const residual_W = h.destruction_W! - expected_W;
+    // The standardised one-step innovation; after a gap of g hours the g-step prediction (autocorrelation.ts).
+    // A baseline without spread (a perfect fit) gives no CUSUM input: the hour is counted as skipped, as before.
+    const x = ar1.sInnovation > 0 ? ar1Innovation(residual_W, last ? { r: last.r, hoursBack: (h.hourStart.getTime() - last.ms) / HOUR_MS } : null, ar1) : NaN;
+    last = { r: residual_W, ms: h.hourStart.getTime() };
+    const r = cusumStep(state, x, run.options);
+    state = r.state;
+    rows.push({
+      unitId: run.unitId,
+      hourStart: h.hourStart,
+      baselineId: run.baselineId,
+      step: state.step,
+      destruction_W: h.destruction_W!,
+      expected_W,
+      residual_W,
+      x,
+      cPlus: r.point.cPlus,
+      cMinus: r.point.cMinus,
+      nPlus: r.point.nPlus,
+      nMinus: r.point.nMinus,
+      signal: r.point.signals.length === 2 ? 'both' : (r.point.signals[0]?.direction ?? null),
+      destructionU_W: h.destructionU_W,
+      destructionCost_per_h: h.destructionCost_per_h,
+    });
+    if (r.point.signals.length) pending.push({ hourStart: h.hourStart, step: state.step, state, signals: r.point.signals });
+  }
+  return { rows, pending };
+}
+
 /** One unit: resume from the last row before the first affected hour and run to the last hour. */
 export async function checkUnit(unitId: string, fromMs: number): Promise<UnitCheck> {
   return inInsightTx(async (tx, exec) => {
     await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${'drift:' + unitId}))`);
-    const [b] = await tx
-      .select({ id: baselines.id, periodTo: baselines.periodTo, model: baselines.destructionModel })
-      .from(baselines)
-      .where(and(eq(baselines.unitId, unitId), eq(baselines.status, 'active')));
+    const b = await activeBaseline(tx, unitId);
     if (!b) return { unitId, outcome: 'no-baseline', hours: 0, signals: 0, opened: [] };
     const settings = await driftSettingsFor(unitId, tx);
-    const model = b.model as BaselineModel;
-    const s = model.stats.s;
-    // AR(1) of the reference residuals; a baseline saved before it was stored behaves as phi = 0.
-    const ar1: Ar1Model = model.stats.phi !== undefined && model.stats.sInnovation !== undefined && model.stats.sInnovation > 0 ? { phi: model.stats.phi, sInnovation: model.stats.sInnovation } : { phi: 0, sInnovation: s };
-
-    // Rows of an earlier baseline say nothing about this one.
-    await tx.delete(driftPoints).where(and(eq(driftPoints.unitId, unitId), ne(driftPoints.baselineId, b.id)));
-    const from = new Date(Math.max(Math.floor(fromMs / HOUR_MS) * HOUR_MS, b.periodTo.getTime()));
-    const [prev] = await tx
-      .select()
-      .from(driftPoints)
-      .where(and(eq(driftPoints.unitId, unitId), lt(driftPoints.hourStart, from)))
-      .orderBy(desc(driftPoints.hourStart))
-      .limit(1);
-    await tx.delete(driftPoints).where(and(eq(driftPoints.unitId, unitId), gte(driftPoints.hourStart, from)));
-
-    const after = prev ? prev.hourStart : new Date(b.periodTo.getTime() - 1);
-    const hours = await tx
-      .select({
-        hourStart: unitHours.hourStart,
-        load: unitHours.load,
-        T0_K: unitHours.T0_K,
-        destruction_W: unitHours.destruction_W,
-        destructionU_W: unitHours.destruction_U_W,
-        destructionCost_per_h: unitHours.destructionCost_per_h,
-      })
-      .from(unitHours)
-      .where(
-        and(
-          eq(unitHours.unitId, unitId),
-          eq(unitHours.state, 'steady'),
-          gt(unitHours.hourStart, after),
-          gte(unitHours.hourStart, b.periodTo),
-          isNotNull(unitHours.load),
-          isNotNull(unitHours.T0_K),
-          isNotNull(unitHours.destruction_W),
-        ),
-      )
-      .orderBy(asc(unitHours.hourStart));
-
-    // After a signal the sums restart at zero (resetOnSignal); the row keeps the crossing for the chart.
-    let state: CusumState = !prev
-      ? cusumInit()
-      : prev.signal
-        ? { ...cusumInit(), step: prev.step }
-        : { step: prev.step, cPlus: prev.cPlus, cMinus: prev.cMinus, nPlus: prev.nPlus, nMinus: prev.nMinus };
+    const ar1 = ar1Of(b.model);
+    const { prev, after } = await resumePoint(tx, unitId, b.id, b.periodTo, fromMs);
+    const hours = await steadyHoursAfter(tx, unitId, after, b.periodTo);
     const options = { k: settings.k, h: settings.h, resetOnSignal: true, minRunLength: SUSTAINED_HOURS };
-    const rows: (typeof driftPoints.$inferInsert)[] = [];
-    const pending: PendingPoint[] = [];
-    let last: { r: number; ms: number } | null = prev ? { r: prev.residual_W, ms: prev.hourStart.getTime() } : null;
-    // After a repair the sums restart at zero from the repair date (notices closed as repaired).
-    const repairs = (
-      await tx
-        .select({ at: driftNotices.repairedAt })
-        .from(driftNotices)
-        .where(and(eq(driftNotices.unitId, unitId), eq(driftNotices.closeOutcome, 'repaired'), isNotNull(driftNotices.repairedAt)))
-    )
-      .map((r) => r.at!.getTime())
-      .sort((x, y) => x - y);
-    let lastMs = after.getTime();
-    for (const h of hours) {
-      if (repairs.some((r) => r > lastMs && r <= h.hourStart.getTime())) {
-        state = { ...cusumInit(), step: state.step };
-        last = null; // the innovation after a repair does not lean on the hour before it
-      }
-      lastMs = h.hourStart.getTime();
-      const expected_W = predict(model, h.load!, h.T0_K!);
-      const residual_W = h.destruction_W! - expected_W;
-      // The standardised one-step innovation; after a gap of g hours the g-step prediction (autocorrelation.ts).
-      // A baseline without spread (a perfect fit) gives no CUSUM input: the hour is counted as skipped, as before.
-      const x = ar1.sInnovation > 0 ? ar1Innovation(residual_W, last ? { r: last.r, hoursBack: (h.hourStart.getTime() - last.ms) / HOUR_MS } : null, ar1) : NaN;
-      last = { r: residual_W, ms: h.hourStart.getTime() };
-      const r = cusumStep(state, x, options);
-      state = r.state;
-      rows.push({
-        unitId,
-        hourStart: h.hourStart,
-        baselineId: b.id,
-        step: state.step,
-        destruction_W: h.destruction_W!,
-        expected_W,
-        residual_W,
-        x,
-        cPlus: r.point.cPlus,
-        cMinus: r.point.cMinus,
-        nPlus: r.point.nPlus,
-        nMinus: r.point.nMinus,
-        signal: r.point.signals.length === 2 ? 'both' : (r.point.signals[0]?.direction ?? null),
-        destructionU_W: h.destructionU_W,
-        destructionCost_per_h: h.destructionCost_per_h,
-      });
-      if (r.point.signals.length) pending.push({ hourStart: h.hourStart, step: state.step, state, signals: r.point.signals });
-    }
+    const repairs = await repairTimes(tx, unitId);
+    const { rows, pending } = runCusum({ unitId, baselineId: b.id, model: b.model, ar1, options, repairs }, prev, after, hours);
     for (let i = 0; i < rows.length; i += 1000) await tx.insert(driftPoints).values(rows.slice(i, i + 1000));
 
     const [unit] = await tx.select({ siteId: plantUnits.siteId }).from(plantUnits).where(eq(plantUnits.id, unitId));
     const { opened, signals } = await reconcileNotices(
       tx,
       exec,
-      { unitId, siteId: unit!.siteId, baselineId: b.id, sigma_W: s, phi: ar1.phi, k: settings.k, h: settings.h },
+      { unitId, siteId: unit!.siteId, baselineId: b.id, sigma_W: b.model.stats.s, phi: ar1.phi, k: settings.k, h: settings.h },
       pending,
     );
     return { unitId, outcome: 'checked', hours: rows.length, signals, opened };

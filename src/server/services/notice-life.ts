@@ -63,14 +63,16 @@ type NoticeRow = typeof driftNotices.$inferSelect;
 
 const isLive = (n: NoticeRow) => n.status !== 'closed' && !n.fadedSince && !n.supersededBy;
 
-/** Runs the notice rules over the unit's saved drift rows; returns the ids of the notices opened. */
-export async function reconcileNotices(tx: Tx, exec: Exec, ctx: Ctx, pending: PendingSignals[]): Promise<{ opened: string[]; signals: number }> {
+type Between = (fromMs: number, toMs: number) => Point[];
+
+/** The unit's saved drift rows of this baseline, in hour order. */
+async function loadPoints(tx: Tx, ctx: Ctx): Promise<Point[]> {
   const rows = await tx
     .select()
     .from(driftPoints)
     .where(and(eq(driftPoints.unitId, ctx.unitId), eq(driftPoints.baselineId, ctx.baselineId)))
     .orderBy(asc(driftPoints.hourStart));
-  const points: Point[] = rows.map((r) => ({
+  return rows.map((r) => ({
     hourStart_ms: r.hourStart.getTime(),
     residual_W: r.residual_W,
     hourU_W: r.destructionU_W,
@@ -82,8 +84,10 @@ export async function reconcileNotices(tx: Tx, exec: Exec, ctx: Ctx, pending: Pe
     destruction_W: r.destruction_W,
     destructionCost_per_h: r.destructionCost_per_h,
   }));
-  const between = (fromMs: number, toMs: number) => points.filter((p) => p.hourStart_ms >= fromMs && p.hourStart_ms < toMs);
+}
 
+/** Each pending CUSUM signal in time order; returns the notices it opened and how many signals there were. */
+async function applySignals(tx: Tx, exec: Exec, ctx: Ctx, points: Point[], between: Between, pending: PendingSignals[]): Promise<{ opened: string[]; signals: number }> {
   const opened: string[] = [];
   let signals = 0;
   for (const p of pending) {
@@ -93,107 +97,146 @@ export async function reconcileNotices(tx: Tx, exec: Exec, ctx: Ctx, pending: Pe
       if (id) opened.push(id);
     }
   }
+  return { opened, signals };
+}
 
-  // Fading and live figures of every notice of this baseline that is not closed.
+/**
+ * One notice not closed: marks it faded when its shift has gone, stores its live figures as of the
+ * last drift row, and sends an escalation mail when its cost per day has grown past the site's multiple.
+ */
+async function refreshNotice(tx: Tx, exec: Exec, ctx: Ctx, between: Between, lastMs: number | null, n: NoticeRow): Promise<void> {
+  const d = n.direction;
+  let fadedSince = n.fadedSince;
+  if (isLive(n)) {
+    const f = fadedAt(between(n.lastSignalHour.getTime() + 1, Infinity), ctx.sigma_W, ctx.phi, d);
+    if (f !== null) fadedSince = new Date(f);
+  }
+  const since = between(n.onsetHour.getTime(), Infinity);
+  if (!since.length || lastMs === null) return;
+  const live = liveFigures(since, ctx.sigma_W, ctx.phi, d);
+  const cost = costPerDay(live.current, n.cF_per_J);
+  await tx
+    .update(driftNotices)
+    .set({
+      current_W: live.current.mean_W,
+      currentU_W: live.current.U_W,
+      currentMeasU_W: live.current.measU_W,
+      currentHours: live.current.hours,
+      currentExceeds: live.current.exceedsMeasurement,
+      currentCost_per_day: cost.cost_per_day,
+      currentCostU_per_day: cost.costU_per_day,
+      sinceOnset_W: live.sinceOnset.mean_W,
+      sinceOnsetU_W: live.sinceOnset.U_W,
+      sinceOnsetHours: live.sinceOnset.hours,
+      trend: live.trend,
+      figuresHour: new Date(lastMs),
+      fadedSince,
+    })
+    .where(eq(driftNotices.id, n.id));
+  // Escalation: a live notice of more destruction whose cost per day has grown past the multiple.
+  // (Notices opened before live figures existed stated their first figure in their mail.)
+  const mailed = n.mailedCost_per_day ?? n.extraCost_per_day;
+  if (!fadedSince && !n.supersededBy && d === 'up' && cost.cost_per_day !== null && mailed !== null && mailed > 0) {
+    const multiple = await escalationMultipleFor(tx, n.siteId);
+    if (cost.cost_per_day >= multiple * mailed) {
+      const step = n.escalationStep + 1;
+      await tx.update(driftNotices).set({ escalationStep: step, mailedCost_per_day: cost.cost_per_day }).where(eq(driftNotices.id, n.id));
+      await queueEscalationMails(tx, exec, n.id, step, mailed, cost.cost_per_day);
+    }
+  }
+}
+
+/** Fading and live figures of every notice of this baseline that is not closed. */
+async function refreshNotices(tx: Tx, exec: Exec, ctx: Ctx, points: Point[], between: Between): Promise<void> {
   const lastMs = points.length ? points[points.length - 1]!.hourStart_ms : null;
   const notClosed = await tx
     .select()
     .from(driftNotices)
     .where(and(eq(driftNotices.unitId, ctx.unitId), eq(driftNotices.kind, 'drift'), eq(driftNotices.baselineId, ctx.baselineId), ne(driftNotices.status, 'closed')));
-  for (const n of notClosed) {
-    const d = n.direction;
-    let fadedSince = n.fadedSince;
-    if (isLive(n)) {
-      const f = fadedAt(between(n.lastSignalHour.getTime() + 1, Infinity), ctx.sigma_W, ctx.phi, d);
-      if (f !== null) fadedSince = new Date(f);
-    }
-    const since = between(n.onsetHour.getTime(), Infinity);
-    if (!since.length || lastMs === null) continue;
-    const live = liveFigures(since, ctx.sigma_W, ctx.phi, d);
-    const cost = costPerDay(live.current, n.cF_per_J);
-    await tx
-      .update(driftNotices)
-      .set({
-        current_W: live.current.mean_W,
-        currentU_W: live.current.U_W,
-        currentMeasU_W: live.current.measU_W,
-        currentHours: live.current.hours,
-        currentExceeds: live.current.exceedsMeasurement,
-        currentCost_per_day: cost.cost_per_day,
-        currentCostU_per_day: cost.costU_per_day,
-        sinceOnset_W: live.sinceOnset.mean_W,
-        sinceOnsetU_W: live.sinceOnset.U_W,
-        sinceOnsetHours: live.sinceOnset.hours,
-        trend: live.trend,
-        figuresHour: new Date(lastMs),
-        fadedSince,
-      })
-      .where(eq(driftNotices.id, n.id));
-    // Escalation: a live notice of more destruction whose cost per day has grown past the multiple.
-    // (Notices opened before live figures existed stated their first figure in their mail.)
-    const mailed = n.mailedCost_per_day ?? n.extraCost_per_day;
-    if (!fadedSince && !n.supersededBy && d === 'up' && cost.cost_per_day !== null && mailed !== null && mailed > 0) {
-      const multiple = await escalationMultipleFor(tx, n.siteId);
-      if (cost.cost_per_day >= multiple * mailed) {
-        const step = n.escalationStep + 1;
-        await tx.update(driftNotices).set({ escalationStep: step, mailedCost_per_day: cost.cost_per_day }).where(eq(driftNotices.id, n.id));
-        await queueEscalationMails(tx, exec, n.id, step, mailed, cost.cost_per_day);
-      }
-    }
-  }
+  for (const n of notClosed) await refreshNotice(tx, exec, ctx, between, lastMs, n);
+}
 
-  // Repair verdicts.
+/**
+ * The notice that follows a repair whose shift is still there: a later notice of the same direction
+ * opened since the repair, or a new one naming the repaired notice. Returns its id (null when none
+ * opened) and whether it was opened here.
+ */
+async function followUpOf(tx: Tx, exec: Exec, ctx: Ctx, n: NoticeRow, after: Point[], afterMean_W: number): Promise<{ id: string | null; opened: boolean }> {
+  const [later] = await tx
+    .select({ id: driftNotices.id, onsetHour: driftNotices.onsetHour })
+    .from(driftNotices)
+    .where(and(eq(driftNotices.unitId, ctx.unitId), eq(driftNotices.kind, 'drift'), eq(driftNotices.direction, n.direction), ne(driftNotices.id, n.id)))
+    .orderBy(desc(driftNotices.onsetHour))
+    .limit(1);
+  if (later && later.onsetHour.getTime() >= n.repairedAt!.getTime()) return { id: later.id, opened: false };
+  const id = await openNotice(tx, exec, ctx, after, n.direction, { priorId: n.id, reason: 'after-repair', shift_sigma: afterMean_W / ctx.sigma_W });
+  return { id, opened: id !== null };
+}
+
+/** One repaired notice: its verdict once VERIFY_HOURS steady hours have passed; returns the id of a follow-up it opened. */
+async function verdictOfRepair(tx: Tx, exec: Exec, ctx: Ctx, between: Between, n: NoticeRow): Promise<string | null> {
+  const repairMs = n.repairedAt!.getTime();
+  const after = between(repairMs, Infinity).slice(0, VERIFY_HOURS);
+  if (after.length < VERIFY_HOURS) return null;
+  const beforeHours = between(n.onsetHour.getTime(), repairMs).slice(-CURRENT_WINDOW_HOURS);
+  // Without drift rows before the repair (another baseline since), the notice's first figure stands in.
+  const before = beforeHours.length
+    ? shiftFigure(beforeHours, ctx.sigma_W, ctx.phi)
+    : { ...shiftFigure([{ hourStart_ms: n.onsetHour.getTime(), residual_W: n.extra_W, hourU_W: null }], ctx.sigma_W, ctx.phi), hours: n.hours, U_W: n.shiftU_W ?? 0 };
+  const afterFig = shiftFigure(after, ctx.sigma_W, ctx.phi);
+  const v = repairVerdict(before, afterFig, n.direction, n.cF_per_J);
+  const verdictHour = new Date(after[after.length - 1]!.hourStart_ms);
+  let followUp: string | null = n.followUpNoticeId;
+  let opened: string | null = null;
+  if (!v.back && !followUp) {
+    const f = await followUpOf(tx, exec, ctx, n, after, afterFig.mean_W);
+    followUp = f.id;
+    if (f.opened) opened = f.id;
+  }
+  await tx
+    .update(driftNotices)
+    .set({
+      verdictHour,
+      verdictBack: v.back,
+      verdict: {
+        before_W: v.before.mean_W,
+        beforeU_W: v.before.U_W,
+        beforeHours: v.before.hours,
+        after_W: v.after.mean_W,
+        afterU_W: v.after.U_W,
+        afterHours: v.after.hours,
+        avoided_W: v.avoided_W,
+        avoidedU_W: v.avoidedU_W,
+        avoidedCost_per_month: v.avoidedCost_per_month,
+        avoidedCostU_per_month: v.avoidedCostU_per_month,
+      },
+      followUpNoticeId: followUp,
+    })
+    .where(eq(driftNotices.id, n.id));
+  return opened;
+}
+
+/** Repair verdicts of the unit's notices closed as repaired and not yet judged; returns the follow-ups opened. */
+async function repairVerdicts(tx: Tx, exec: Exec, ctx: Ctx, between: Between): Promise<string[]> {
   const repaired = await tx
     .select()
     .from(driftNotices)
     .where(and(eq(driftNotices.unitId, ctx.unitId), eq(driftNotices.kind, 'drift'), eq(driftNotices.closeOutcome, 'repaired'), isNotNull(driftNotices.repairedAt), isNull(driftNotices.verdictHour)));
+  const opened: string[] = [];
   for (const n of repaired) {
-    const repairMs = n.repairedAt!.getTime();
-    const after = between(repairMs, Infinity).slice(0, VERIFY_HOURS);
-    if (after.length < VERIFY_HOURS) continue;
-    const beforeHours = between(n.onsetHour.getTime(), repairMs).slice(-CURRENT_WINDOW_HOURS);
-    // Without drift rows before the repair (another baseline since), the notice's first figure stands in.
-    const before = beforeHours.length
-      ? shiftFigure(beforeHours, ctx.sigma_W, ctx.phi)
-      : { ...shiftFigure([{ hourStart_ms: n.onsetHour.getTime(), residual_W: n.extra_W, hourU_W: null }], ctx.sigma_W, ctx.phi), hours: n.hours, U_W: n.shiftU_W ?? 0 };
-    const afterFig = shiftFigure(after, ctx.sigma_W, ctx.phi);
-    const v = repairVerdict(before, afterFig, n.direction, n.cF_per_J);
-    const verdictHour = new Date(after[after.length - 1]!.hourStart_ms);
-    let followUp: string | null = n.followUpNoticeId;
-    if (!v.back && !followUp) {
-      const [later] = await tx
-        .select({ id: driftNotices.id, onsetHour: driftNotices.onsetHour })
-        .from(driftNotices)
-        .where(and(eq(driftNotices.unitId, ctx.unitId), eq(driftNotices.kind, 'drift'), eq(driftNotices.direction, n.direction), ne(driftNotices.id, n.id)))
-        .orderBy(desc(driftNotices.onsetHour))
-        .limit(1);
-      if (later && later.onsetHour.getTime() >= repairMs) followUp = later.id;
-      else {
-        followUp = await openNotice(tx, exec, ctx, after, n.direction, { priorId: n.id, reason: 'after-repair', shift_sigma: afterFig.mean_W / ctx.sigma_W });
-        if (followUp) opened.push(followUp);
-      }
-    }
-    await tx
-      .update(driftNotices)
-      .set({
-        verdictHour,
-        verdictBack: v.back,
-        verdict: {
-          before_W: v.before.mean_W,
-          beforeU_W: v.before.U_W,
-          beforeHours: v.before.hours,
-          after_W: v.after.mean_W,
-          afterU_W: v.after.U_W,
-          afterHours: v.after.hours,
-          avoided_W: v.avoided_W,
-          avoidedU_W: v.avoidedU_W,
-          avoidedCost_per_month: v.avoidedCost_per_month,
-          avoidedCostU_per_month: v.avoidedCostU_per_month,
-        },
-        followUpNoticeId: followUp,
-      })
-      .where(eq(driftNotices.id, n.id));
+    const id = await verdictOfRepair(tx, exec, ctx, between, n);
+    if (id) opened.push(id);
   }
+  return opened;
+}
+
+/** Runs the notice rules over the unit's saved drift rows; returns the ids of the notices opened. */
+export async function reconcileNotices(tx: Tx, exec: Exec, ctx: Ctx, pending: PendingSignals[]): Promise<{ opened: string[]; signals: number }> {
+  const points = await loadPoints(tx, ctx);
+  const between: Between = (fromMs, toMs) => points.filter((p) => p.hourStart_ms >= fromMs && p.hourStart_ms < toMs);
+  const { opened, signals } = await applySignals(tx, exec, ctx, points, between, pending);
+  await refreshNotices(tx, exec, ctx, points, between);
+  opened.push(...(await repairVerdicts(tx, exec, ctx, between)));
   return { opened, signals };
 }
 

@@ -14,30 +14,32 @@ import { fixed, mwhDecimals, reportNumbers } from './report-format';
 import { writerOf } from '~/lib/units/writer';
 import { labelOf } from '~/lib/words';
 import { siteStamp } from '~/lib/site-time';
-
 import { HOUR_STATES as STATES } from '~/lib/hour-states';
 
-/** The lines of the CSV, each already joined (CRLF is added by the writer). */
-export function reportCsvLines(r: ReportData): string[] {
-  const cur = r.site.currency;
+const line = (...cells: CsvCell[]) => csvLine(cells);
+/** Numbers of the CSV: the site's display units, plain decimals. */
+type Numbers = ReturnType<typeof reportNumbers>;
+
+/** The head: site, month, zone, period, when it was made, and the uncertainty note. */
+function headLines(r: ReportData): string[] {
   const tz = r.site.timeZone;
-  const p = reportNumbers(writerOf(r.display), true);
-  const P = p.powerUnit;
-  const line = (...cells: CsvCell[]) => csvLine(cells);
-  const out: string[] = [];
+  return [
+    line('Lossline monthly site report'),
+    line('site', r.site.name),
+    line('month', r.month, r.period.label),
+    line('time zone', r.site.timeZone),
+    line(`period start (${tz})`, siteStamp(r.period.fromMs, tz)),
+    line(`period end (${tz}; exclusive)`, siteStamp(r.period.toMs, tz)),
+    line(`generated (${tz})`, r.generated),
+    line('note', r.uncertaintyNote),
+  ];
+}
+
+/** The loss ledger: a row per unit and the site total. */
+function ledgerLines(r: ReportData): string[] {
+  const cur = r.site.currency;
   const dMWh = mwhDecimals(Math.max(0, ...r.ledger.rows.map((x) => x.destruction_MWh), r.ledger.totals.destruction_MWh));
-
-  out.push(line('Lossline monthly site report'));
-  out.push(line('site', r.site.name));
-  out.push(line('month', r.month, r.period.label));
-  out.push(line('time zone', r.site.timeZone));
-  out.push(line(`period start (${tz})`, siteStamp(r.period.fromMs, tz)));
-  out.push(line(`period end (${tz}; exclusive)`, siteStamp(r.period.toMs, tz)));
-  out.push(line(`generated (${tz})`, r.generated));
-  out.push(line('note', r.uncertaintyNote));
-  out.push('');
-
-  out.push(line('Loss ledger'));
+  const out = [line('Loss ledger')];
   out.push(
     line(
       'rank',
@@ -74,9 +76,13 @@ export function reportCsvLines(r: ReportData): string[] {
   }
   const t = r.ledger.totals;
   out.push(line('', 'site total', '', fixed(t.destruction_MWh, dMWh), fixed(t.destruction_U_MWh, dMWh), fixed(t.cost, 2), fixed(t.cost_U, 2), t.cost !== null || t.destruction_MWh > 0 ? '100.0' : '', '', '', ...STATES.map((s) => t.hours[s]), ''));
-  out.push('');
+  return out;
+}
 
-  out.push(line('Efficiency against baseline (means over the steady hours that have an expected value; over all steady hours when the unit has no baseline)'));
+/** Efficiency against baseline: a row per unit, destruction in the site's power unit. */
+function efficiencyLines(r: ReportData, p: Numbers): string[] {
+  const P = p.powerUnit;
+  const out = [line('Efficiency against baseline (means over the steady hours that have an expected value; over all steady hours when the unit has no baseline)')];
   out.push(
     line(
       'unit',
@@ -112,15 +118,21 @@ export function reportCsvLines(r: ReportData): string[] {
       ),
     );
   }
-  out.push('');
+  return out;
+}
 
-  out.push(line('Drift notices (opened in the month, or not closed)'));
+/** The drift notices opened in the month or not closed, times in the site's clock. */
+function noticeLines(r: ReportData, p: Numbers): string[] {
+  const cur = r.site.currency;
+  const tz = r.site.timeZone;
+  const P = p.powerUnit;
+  const at = (ms: number) => siteStamp(ms, r.site.timeZone);
+  const out = [line('Drift notices (opened in the month, or not closed)')];
   out.push(
     line('unit', 'direction', 'status', `onset (${tz})`, `signal (${tz})`, 'steady hours onset to signal [h]', `extra destruction [${P}]`, `shift U (k=2) [${P}]`, 'exceeds measurement uncertainty', `extra cost per day [${cur}]`),
   );
   if (!r.notices.length) out.push(line('none'));
   for (const n of r.notices) {
-    const at = (ms: number) => siteStamp(ms, r.site.timeZone);
     out.push(
       line(
         n.unitName,
@@ -136,22 +148,26 @@ export function reportCsvLines(r: ReportData): string[] {
       ),
     );
   }
-  out.push('');
+  return out;
+}
 
-  out.push(line('Data quality: hours by state'));
-  out.push(line('unit', ...STATES.map((s) => `${s} [h]`), 'no unit hour [h]'));
+/** Data quality: hours by state per unit, and the commonest reasons for hours that are not steady. */
+function qualityLines(r: ReportData): string[] {
+  const out = [line('Data quality: hours by state'), line('unit', ...STATES.map((s) => `${s} [h]`), 'no unit hour [h]')];
   for (const q of r.quality.units) out.push(line(q.name, ...STATES.map((s) => q.hours[s]), q.noHour));
   out.push('');
-
   out.push(line('Data quality: most frequent reasons for hours that are not steady'));
   out.push(line('reason', 'example', 'hours [h]'));
   if (!r.quality.reasons.length) out.push(line('none'));
   for (const q of r.quality.reasons) out.push(line(labelOf(q.code, 'other reason'), q.example, q.hours));
-  out.push('');
-
-  out.push(line('Caution'));
-  out.push(line(r.caution));
   return out;
+}
+
+/** The lines of the CSV, each already joined (CRLF is added by the writer); a blank line between sections. */
+export function reportCsvLines(r: ReportData): string[] {
+  const p = reportNumbers(writerOf(r.display), true);
+  const sections = [headLines(r), ledgerLines(r), efficiencyLines(r, p), noticeLines(r, p), qualityLines(r)];
+  return [...sections.flatMap((s) => [...s, '']), line('Caution'), line(r.caution)];
 }
 
 /** The whole CSV as text (UTF-8 with CRLF line ends, as spreadsheets expect). */

@@ -1,189 +1,40 @@
 /**
  * The monthly report as PDF (pdfkit), set in IBM Plex Sans embedded from @fontsource (WOFF files,
  * which pdfkit's font reader takes). Warm paper page, ink text, copper for destruction and loss,
- * teal for product; numbers right-aligned with their unit in the column head.
+ * teal for product; numbers right-aligned with their unit in the column head. One function a section;
+ * the page machinery (fonts, headings, tables) is report-pdf-writer.ts.
  */
 import { NOTICE_STATUS_WORDS } from '~/lib/words';
 import type { NoticeStatus } from '~/lib/notice-view';
-import { existsSync } from 'node:fs';
-import { createRequire } from 'node:module';
-import { join } from 'node:path';
-import PDFDocument from 'pdfkit';
 import type { ReportData } from './report';
-import { PALETTE } from '~/lib/palette';
 import { mwhDecimals, reportNumbers } from './report-format';
 import { writerOf } from '~/lib/units/writer';
 import { siteStampWithZone } from '~/lib/site-time';
 import { labelOf } from '~/lib/words';
 import { siteStamp } from '~/lib/site-time';
-
-/** Colours of the report, all from the one palette (src/lib/palette.ts). */
-const C = {
-  paper: PALETTE.paper.DEFAULT,
-  paperDeep: PALETTE.paper.deep,
-  edge: PALETTE.paper.edge,
-  ink: PALETTE.ink.DEFAULT,
-  soft: PALETTE.ink.soft,
-  faint: PALETTE.ink.faint,
-  copper: PALETTE.copper.DEFAULT,
-  copperPale: PALETTE.copper.pale,
-  teal: PALETTE.teal.DEFAULT,
-  amber: PALETTE.amber.DEFAULT,
-  amberDeep: PALETTE.amber.deep,
-  amberPale: PALETTE.amber.pale,
-};
-
-const MARGIN = 40;
-
-/** Paths of the two weights of IBM Plex Sans, or null when the package files cannot be found. */
-export function plexFontFiles(): { regular: string; semibold: string } | null {
-  const file = (w: number) => `@fontsource/ibm-plex-sans/files/ibm-plex-sans-latin-${w}-normal.woff`;
-  try {
-    const req = createRequire(import.meta.url);
-    return { regular: req.resolve(file(400)), semibold: req.resolve(file(600)) };
-  } catch {
-    const base = join(process.cwd(), 'node_modules');
-    const regular = join(base, file(400));
-    const semibold = join(base, file(600));
-    return existsSync(regular) && existsSync(semibold) ? { regular, semibold } : null;
-  }
-}
-
-interface Col {
-  head: string;
-  width: number;
-  align?: 'left' | 'right';
-}
-
-class Writer {
-  readonly doc: PDFKit.PDFDocument;
-  readonly width: number;
-  private readonly regular: string;
-  private readonly bold: string;
-
-  constructor(readonly r: ReportData) {
-    this.doc = new PDFDocument({
-      size: 'A4',
-      margins: { top: MARGIN, bottom: MARGIN + 14, left: MARGIN, right: MARGIN },
-      bufferPages: true,
-      info: { Title: `Lossline monthly site report: ${r.site.name}, ${r.period.label}`, Author: 'Lossline', Subject: 'Exergy loss ledger and baselines' },
-    });
-    const fonts = plexFontFiles();
-    if (fonts) {
-      this.doc.registerFont('plex', fonts.regular);
-      this.doc.registerFont('plex-semibold', fonts.semibold);
-      this.regular = 'plex';
-      this.bold = 'plex-semibold';
-    } else {
-      // The package files are missing: fall back to the PDF standard font rather than fail the report.
-      this.regular = 'Helvetica';
-      this.bold = 'Helvetica-Bold';
-    }
-    this.width = this.doc.page.width - 2 * MARGIN;
-    this.paint();
-    this.doc.on('pageAdded', () => this.paint());
-  }
-
-  private paint() {
-    const { doc } = this;
-    doc.save().rect(0, 0, doc.page.width, doc.page.height).fill(C.paper).restore();
-    doc.save().rect(0, 0, doc.page.width, 6).fill(C.copper).restore();
-    doc.fillColor(C.ink);
-  }
-
-  font(weight: 'regular' | 'bold', size: number, color: string = C.ink) {
-    return this.doc.font(weight === 'bold' ? this.bold : this.regular).fontSize(size).fillColor(color);
-  }
-
-  get bottom() {
-    return this.doc.page.height - this.doc.page.margins.bottom;
-  }
-
-  ensure(h: number) {
-    if (this.doc.y + h > this.bottom) this.doc.addPage();
-  }
-
-  heading(text: string, sub?: string) {
-    this.ensure(60);
-    this.doc.moveDown(0.8);
-    this.font('bold', 12.5).text(text, MARGIN, this.doc.y, { width: this.width });
-    if (sub) this.font('regular', 8, C.faint).text(sub, MARGIN, this.doc.y + 1, { width: this.width });
-    this.doc.moveDown(0.4);
-  }
-
-  para(text: string, size = 8.5, color: string = C.soft) {
-    this.font('regular', size, color).text(text, MARGIN, this.doc.y, { width: this.width });
-  }
-
-  table(cols: Col[], rows: string[][], opts: { total?: string[]; bar?: { col: number; values: (number | null)[] } } = {}) {
-    const { doc } = this;
-    const pad = 3;
-    const size = 7.8;
-    const headSize = 6.8;
-    const head = () => {
-      this.font('bold', headSize, C.soft);
-      const h = Math.max(...cols.map((c) => doc.heightOfString(c.head, { width: c.width - 2 * pad }))) + 2 * pad;
-      this.ensure(h + 16);
-      const y = doc.y;
-      doc.save().rect(MARGIN, y, this.width, h).fill(C.paperDeep).restore();
-      let x = MARGIN;
-      for (const c of cols) {
-        this.font('bold', headSize, C.soft).text(c.head, x + pad, y + pad, { width: c.width - 2 * pad, align: c.align ?? 'left' });
-        x += c.width;
-      }
-      doc.y = y + h;
-    };
-    const row = (cells: string[], bold: boolean, i: number | null) => {
-      this.font(bold ? 'bold' : 'regular', size);
-      const h = Math.max(...cells.map((t, k) => doc.heightOfString(t || ' ', { width: cols[k]!.width - 2 * pad }))) + 2 * pad + (opts.bar && i !== null ? 2.5 : 0);
-      if (doc.y + h > this.bottom) {
-        doc.addPage();
-        head();
-      }
-      const y = doc.y;
-      let x = MARGIN;
-      cells.forEach((t, k) => {
-        const c = cols[k]!;
-        this.font(bold ? 'bold' : 'regular', size).text(t, x + pad, y + pad, { width: c.width - 2 * pad, align: c.align ?? 'left' });
-        if (opts.bar && i !== null && k === opts.bar.col) {
-          const v = opts.bar.values[i];
-          if (v !== null && v !== undefined && v > 0) {
-            const w = (c.width - 2 * pad) * Math.min(1, v);
-            doc.save().rect(x + c.width - pad - w, y + h - 3.2, w, 2).fill(C.copper).restore();
-          }
-        }
-        x += c.width;
-      });
-      doc.save().moveTo(MARGIN, y + h).lineTo(MARGIN + this.width, y + h).lineWidth(0.4).stroke(C.edge).restore();
-      doc.y = y + h;
-    };
-    head();
-    rows.forEach((cells, i) => row(cells, false, i));
-    if (opts.total) row(opts.total, true, null);
-    doc.x = MARGIN;
-  }
-}
-
 import { HOUR_STATES as STATES } from '~/lib/hour-states';
+import { C, MARGIN, Writer } from './report-pdf-writer';
 
-/** Writes the report; returns the pdfkit document (a readable stream), already ended. */
-export function reportPdf(r: ReportData): PDFKit.PDFDocument {
-  const w = new Writer(r);
+export { plexFontFiles } from './report-pdf-writer';
+
+/** Numbers in the site's display units, grouped and with the decimal marker of its locale. */
+type Numbers = ReturnType<typeof reportNumbers>;
+
+/** The title block: site, month, hours and zone, when it was made, and the uncertainty note. */
+function titleBlock(w: Writer, r: ReportData): void {
   const { doc } = w;
-  const cur = r.site.currency;
   const tz = r.site.timeZone;
-  // Numbers in the site's display units, grouped and with the decimal marker of its locale.
-  const { fixed, fixedU, pct, power, powerU, powerUnit: P } = reportNumbers(writerOf(r.display));
-
-  // Title block.
   w.font('regular', 8, C.faint).text('LOSSLINE · MONTHLY SITE REPORT', MARGIN, MARGIN + 4, { characterSpacing: 0.6 });
   w.font('bold', 20).text(r.site.name, MARGIN, doc.y + 2, { width: w.width });
   w.font('regular', 12, C.soft).text(`${r.period.label}  ·  ${r.period.hours} hours  ·  time zone ${r.site.timeZone}`, { width: w.width });
   w.font('regular', 8, C.faint).text(`Generated ${r.generated} (${tz}). Period ${siteStampWithZone(r.period.fromMs, tz)} to ${siteStampWithZone(r.period.toMs, tz)} (end exclusive).`, { width: w.width });
   doc.moveDown(0.5);
   w.para(r.uncertaintyNote, 7.8, C.faint);
+}
 
-  // Caution.
+/** The caution, in an amber box. */
+function cautionBox(w: Writer, r: ReportData): void {
+  const { doc } = w;
   doc.moveDown(0.6);
   const y = doc.y;
   w.font('regular', 8.5);
@@ -193,8 +44,12 @@ export function reportPdf(r: ReportData): PDFKit.PDFDocument {
   w.font('regular', 8.5).text(r.caution, MARGIN + 12, doc.y + 2, { width: w.width - 24 });
   doc.y = y + h;
   doc.x = MARGIN;
+}
 
-  // Ledger.
+/** The loss ledger: units ranked by the cost of their destruction, with the site total. */
+function ledgerSection(w: Writer, r: ReportData, n: Numbers): void {
+  const { fixed, fixedU } = n;
+  const cur = r.site.currency;
   const t = r.ledger.totals;
   const rows = r.ledger.rows;
   const dDec = mwhDecimals(Math.max(0, ...rows.map((x) => x.destruction_MWh), t.destruction_MWh));
@@ -202,74 +57,86 @@ export function reportPdf(r: ReportData): PDFKit.PDFDocument {
     'Loss ledger',
     `Units ranked by the cost of their exergy destruction over steady hours. Share of the site's ${r.ledger.shareBasis}. Site total ${fixedU(t.destruction_MWh, t.destruction_U_MWh, dDec).replace(' ± ', ' MWh ± ')} MWh destroyed${t.cost !== null ? `, costing ${cur} ${fixedU(t.cost, t.cost_U, 0)}` : ''}.`,
   );
-  if (!rows.length) w.para('The site has no units.');
-  else
-    w.table(
-      [
-        { head: '#', width: 14, align: 'right' },
-        { head: 'Unit', width: 80 },
-        { head: 'Kind', width: 50 },
-        { head: 'Destruction [MWh]', width: 62, align: 'right' },
-        { head: `Cost [${cur}]`, width: 90, align: 'right' },
-        { head: 'Share [%]', width: 32, align: 'right' },
-        { head: 'Efficiency [%]', width: 52, align: 'right' },
-        { head: 'Steady [h]', width: 33, align: 'right' },
-        { head: 'Unsettled [h]', width: 38, align: 'right' },
-        { head: 'Idle [h]', width: 29, align: 'right' },
-        { head: 'Suspect [h]', width: 35.28, align: 'right' },
-      ],
-      rows.map((x) => [
-        String(x.rank),
-        x.name,
-        x.kindLabel,
-        fixedU(x.destruction_MWh, x.destruction_U_MWh, dDec),
-        x.cost === null ? 'no price' : fixedU(x.cost, x.cost_U, 0),
-        fixed(x.share === null ? null : x.share * 100, 1),
-        x.efficiencyMean === null ? '—' : fixedU(x.efficiencyMean * 100, x.efficiencyMean_U === null ? null : x.efficiencyMean_U * 100, 1),
-        ...STATES.map((s) => String(x.hours[s])),
-      ]),
-      {
-        bar: { col: 5, values: rows.map((x) => x.share) },
-        total: ['', 'Site total', '', fixedU(t.destruction_MWh, t.destruction_U_MWh, dDec), t.cost === null ? '' : fixedU(t.cost, t.cost_U, 0), fixed(100, 1), '', ...STATES.map((s) => String(t.hours[s]))],
-      },
-    );
-
-  // Where each unit's fuel exergy went: a stacked band per unit (teal product, light copper loss, copper destruction).
-  const flows = rows.filter((x) => x.fuel_MWh > 0);
-  if (flows.length) {
-    w.heading('Where each unit’s fuel exergy went', 'Share of each unit’s fuel exergy over steady hours: product (teal, left), loss (light copper, hatched), destruction (copper, right).');
-    const labelW = 120;
-    const barW = w.width - labelW - 70;
-    for (const x of flows) {
-      w.ensure(16);
-      const y = doc.y;
-      w.font('regular', 7.8).text(x.name, MARGIN, y + 2, { width: labelW - 6, lineBreak: false, ellipsis: true });
-      const f = x.fuel_MWh;
-      const parts: [number, string, boolean][] = [
-        [x.product_MWh / f, C.teal, false],
-        [x.loss_MWh / f, C.copperPale, true],
-        [x.destruction_MWh / f, C.copper, false],
-      ];
-      let px = MARGIN + labelW;
-      const end = px + barW; // the band never runs past its row's width (shares may sum above 1 by rounding)
-      for (const [share, color, hatch] of parts) {
-        const pw = Math.min(end - px, Math.max(0, Math.min(1, share)) * barW);
-        if (pw <= 0) continue;
-        doc.save().rect(px, y + 1, pw, 10).fill(color).restore();
-        if (hatch) {
-          doc.save().rect(px, y + 1, pw, 10).clip();
-          for (let hx = px - 10; hx < px + pw; hx += 4) doc.moveTo(hx, y + 11).lineTo(hx + 10, y + 1);
-          doc.lineWidth(0.5).stroke(C.copper).restore();
-        }
-        px += pw;
-      }
-      w.font('regular', 7.2, C.soft).text(x.efficiencyMean === null ? 'dissipative' : `efficiency ${pct(x.efficiencyMean)} %`, MARGIN + labelW + barW + 6, y + 2, { width: 64, align: 'right' });
-      doc.y = y + 14;
-      doc.x = MARGIN;
-    }
+  if (!rows.length) {
+    w.para('The site has no units.');
+    return;
   }
+  w.table(
+    [
+      { head: '#', width: 14, align: 'right' },
+      { head: 'Unit', width: 80 },
+      { head: 'Kind', width: 50 },
+      { head: 'Destruction [MWh]', width: 62, align: 'right' },
+      { head: `Cost [${cur}]`, width: 90, align: 'right' },
+      { head: 'Share [%]', width: 32, align: 'right' },
+      { head: 'Efficiency [%]', width: 52, align: 'right' },
+      { head: 'Steady [h]', width: 33, align: 'right' },
+      { head: 'Unsettled [h]', width: 38, align: 'right' },
+      { head: 'Idle [h]', width: 29, align: 'right' },
+      { head: 'Suspect [h]', width: 35.28, align: 'right' },
+    ],
+    rows.map((x) => [
+      String(x.rank),
+      x.name,
+      x.kindLabel,
+      fixedU(x.destruction_MWh, x.destruction_U_MWh, dDec),
+      x.cost === null ? 'no price' : fixedU(x.cost, x.cost_U, 0),
+      fixed(x.share === null ? null : x.share * 100, 1),
+      x.efficiencyMean === null ? '—' : fixedU(x.efficiencyMean * 100, x.efficiencyMean_U === null ? null : x.efficiencyMean_U * 100, 1),
+      ...STATES.map((s) => String(x.hours[s])),
+    ]),
+    {
+      bar: { col: 5, values: rows.map((x) => x.share) },
+      total: ['', 'Site total', '', fixedU(t.destruction_MWh, t.destruction_U_MWh, dDec), t.cost === null ? '' : fixedU(t.cost, t.cost_U, 0), fixed(100, 1), '', ...STATES.map((s) => String(t.hours[s]))],
+    },
+  );
+}
 
-  // Efficiency against baseline.
+type LedgerRow = ReportData['ledger']['rows'][number];
+
+/** One unit's band: teal product, light copper loss (hatched), copper destruction, then its efficiency. */
+function fuelBand(w: Writer, x: LedgerRow, n: Numbers, labelW: number, barW: number): void {
+  const { doc } = w;
+  w.ensure(16);
+  const y = doc.y;
+  w.font('regular', 7.8).text(x.name, MARGIN, y + 2, { width: labelW - 6, lineBreak: false, ellipsis: true });
+  const f = x.fuel_MWh;
+  const parts: [number, string, boolean][] = [
+    [x.product_MWh / f, C.teal, false],
+    [x.loss_MWh / f, C.copperPale, true],
+    [x.destruction_MWh / f, C.copper, false],
+  ];
+  let px = MARGIN + labelW;
+  const end = px + barW; // the band never runs past its row's width (shares may sum above 1 by rounding)
+  for (const [share, color, hatch] of parts) {
+    const pw = Math.min(end - px, Math.max(0, Math.min(1, share)) * barW);
+    if (pw <= 0) continue;
+    doc.save().rect(px, y + 1, pw, 10).fill(color).restore();
+    if (hatch) {
+      doc.save().rect(px, y + 1, pw, 10).clip();
+      for (let hx = px - 10; hx < px + pw; hx += 4) doc.moveTo(hx, y + 11).lineTo(hx + 10, y + 1);
+      doc.lineWidth(0.5).stroke(C.copper).restore();
+    }
+    px += pw;
+  }
+  w.font('regular', 7.2, C.soft).text(x.efficiencyMean === null ? 'dissipative' : `efficiency ${n.pct(x.efficiencyMean)} %`, MARGIN + labelW + barW + 6, y + 2, { width: 64, align: 'right' });
+  doc.y = y + 14;
+  doc.x = MARGIN;
+}
+
+/** Where each unit's fuel exergy went: a stacked band per unit with fuel (none when no unit had fuel). */
+function fuelBandsSection(w: Writer, r: ReportData, n: Numbers): void {
+  const flows = r.ledger.rows.filter((x) => x.fuel_MWh > 0);
+  if (!flows.length) return;
+  w.heading('Where each unit’s fuel exergy went', 'Share of each unit’s fuel exergy over steady hours: product (teal, left), loss (light copper, hatched), destruction (copper, right).');
+  const labelW = 120;
+  const barW = w.width - labelW - 70;
+  for (const x of flows) fuelBand(w, x, n, labelW, barW);
+}
+
+/** Efficiency against baseline: measured against expected over the same steady hours. */
+function efficiencySection(w: Writer, r: ReportData, n: Numbers): void {
+  const { fixed, fixedU, pct, power, powerU, powerUnit: P } = n;
   w.heading('Efficiency against baseline', 'Measured mean against the active baseline’s expected mean over the same steady hours. Difference in percentage points.');
   w.table(
     [
@@ -293,35 +160,44 @@ export function reportPdf(r: ReportData): PDFKit.PDFDocument {
       e.expectedDestruction_W === null ? '—' : power(e.expectedDestruction_W),
     ]),
   );
+}
 
-  // Notices.
+/** The drift notices opened in the month or not yet closed, times in the site's clock. */
+function noticesSection(w: Writer, r: ReportData, n: Numbers): void {
+  const { fixed, powerU, powerUnit: P } = n;
+  const tz = r.site.timeZone;
+  const cur = r.site.currency;
   w.heading('Drift notices', 'Opened in the month, or not yet closed. A notice is a sustained shift from the expected value: a prompt to look, not an alarm.');
-  if (!r.notices.length) w.para('No drift notices.');
-  else {
-    const at = (ms: number) => siteStamp(ms, r.site.timeZone);
-    w.table(
-      [
-        { head: 'Unit', width: 92 },
-        { head: 'Shift', width: 82 },
-        { head: 'Status', width: 58 },
-        { head: `Onset (${tz})`, width: 68 },
-        { head: `Signal (${tz})`, width: 68 },
-        { head: `Extra destruction [${P}]`, width: 72.28, align: 'right' },
-        { head: `Extra cost [${cur}/day]`, width: 75, align: 'right' },
-      ],
-      r.notices.map((n) => [
-        n.unitName,
-        n.direction === 'up' ? 'more destruction than expected' : 'less destruction than expected',
-        NOTICE_STATUS_WORDS[n.status as NoticeStatus]?.label ?? 'other',
-        at(n.onsetMs),
-        at(n.signalMs),
-        powerU(n.extra_W, n.shiftU_W) + (n.exceedsUncertainty === false ? ' (within uncertainty)' : ''),
-        fixed(n.extraCost_per_day, 0),
-      ]),
-    );
+  if (!r.notices.length) {
+    w.para('No drift notices.');
+    return;
   }
+  const at = (ms: number) => siteStamp(ms, r.site.timeZone);
+  w.table(
+    [
+      { head: 'Unit', width: 92 },
+      { head: 'Shift', width: 82 },
+      { head: 'Status', width: 58 },
+      { head: `Onset (${tz})`, width: 68 },
+      { head: `Signal (${tz})`, width: 68 },
+      { head: `Extra destruction [${P}]`, width: 72.28, align: 'right' },
+      { head: `Extra cost [${cur}/day]`, width: 75, align: 'right' },
+    ],
+    r.notices.map((x) => [
+      x.unitName,
+      x.direction === 'up' ? 'more destruction than expected' : 'less destruction than expected',
+      NOTICE_STATUS_WORDS[x.status as NoticeStatus]?.label ?? 'other',
+      at(x.onsetMs),
+      at(x.signalMs),
+      powerU(x.extra_W, x.shiftU_W) + (x.exceedsUncertainty === false ? ' (within uncertainty)' : ''),
+      fixed(x.extraCost_per_day, 0),
+    ]),
+  );
+}
 
-  // Data quality.
+/** Data quality: hours by state per unit, and the commonest reasons for hours that are not steady. */
+function qualitySection(w: Writer, r: ReportData): void {
+  const { doc } = w;
   w.heading('Data quality', 'Hours of the month by state for each unit; “no unit hour” means no data or not computed.');
   w.table(
     [
@@ -347,8 +223,11 @@ export function reportPdf(r: ReportData): PDFKit.PDFDocument {
       ],
       r.quality.reasons.map((q) => [labelOf(q.code, 'other reason'), q.example, String(q.hours)]),
     );
+}
 
-  // Footer on every page.
+/** The footer of every page: site, month, page of pages. */
+function pageFooters(w: Writer, r: ReportData): void {
+  const { doc } = w;
   const range = doc.bufferedPageRange();
   for (let i = range.start; i < range.start + range.count; i++) {
     doc.switchToPage(i);
@@ -358,8 +237,22 @@ export function reportPdf(r: ReportData): PDFKit.PDFDocument {
     w.font('regular', 7, C.faint).text(`Lossline · ${r.site.name} · ${r.period.label} · page ${i + 1} of ${range.count}`, MARGIN, fy, { width: w.width, align: 'right', lineBreak: false });
     doc.page.margins.bottom = keep;
   }
-  doc.end();
-  return doc;
+}
+
+/** Writes the report; returns the pdfkit document (a readable stream), already ended. */
+export function reportPdf(r: ReportData): PDFKit.PDFDocument {
+  const w = new Writer(r);
+  const n = reportNumbers(writerOf(r.display));
+  titleBlock(w, r);
+  cautionBox(w, r);
+  ledgerSection(w, r, n);
+  fuelBandsSection(w, r, n);
+  efficiencySection(w, r, n);
+  noticesSection(w, r, n);
+  qualitySection(w, r);
+  pageFooters(w, r);
+  w.doc.end();
+  return w.doc;
 }
 
 /** The whole PDF in memory (for tests and small sites). */

@@ -1,0 +1,110 @@
+import { zodResolver } from '@hookform/resolvers/zod';
+import { useForm } from 'react-hook-form';
+import { z } from 'zod';
+import { UNIT_KINDS } from '~/lib/kinds';
+import { kindSpec } from '~/lib/plant/kinds';
+import { UnitCreateInput } from '~/lib/plant/inputs';
+import { counted } from '~/lib/counts';
+import { Field } from './common';
+import { call, messageOf, type Message } from '~/components/api';
+import type { UnitJson } from './LinkForm';
+
+const NewUnit = UnitCreateInput.pick({ name: true, kind: true }).extend({ withPorts: z.boolean() });
+type NewUnit = z.infer<typeof NewUnit>;
+
+function StatusCell({ unit }: { unit: UnitJson }) {
+  const { complete, missing, conflicts } = unit.status;
+  if (complete) return <span className="font-medium text-teal-deep">✓ complete</span>;
+  return (
+    <span className="text-copper-deep">
+      {missing.length > 0 && <span>◇ {missing.length} missing</span>}
+      {missing.length > 0 && conflicts.length > 0 && ' · '}
+      {conflicts.length > 0 && <span>▲ {counted(conflicts.length, 'conflict', 'conflicts')}</span>}
+    </span>
+  );
+}
+
+/** The site's units with what each lacks. */
+function UnitsTable({ siteId, units }: { siteId: string; units: UnitJson[] }) {
+  return (
+    <table className="grid-table" data-testid="units-table">
+      <thead>
+        <tr>
+          <th>Unit</th>
+          <th>Kind</th>
+          <th className="num">Ports</th>
+          <th className="num">Links</th>
+          <th>Can compute?</th>
+        </tr>
+      </thead>
+      <tbody>
+        {units.map((u) => (
+          <tr key={u.id} data-testid={`unit-${u.name}`}>
+            <td>
+              <a href={`/plant/${siteId}/units/${u.id}`}>{u.name}</a>
+            </td>
+            <td>{kindSpec(u.kind).label}</td>
+            <td className="num">{u.ports.length}</td>
+            <td className="num">{u.links.length}</td>
+            <td>
+              <StatusCell unit={u} />
+            </td>
+          </tr>
+        ))}
+      </tbody>
+    </table>
+  );
+}
+
+/** Adds a unit of a kind, with its required ports if asked. */
+function AddUnitForm({ siteId, onMessage, onAdded }: { siteId: string; onMessage: (m: Message) => void; onAdded: () => Promise<void> }) {
+  const unitForm = useForm<NewUnit>({ resolver: zodResolver(NewUnit), defaultValues: { name: '', kind: 'let-down-valve', withPorts: true } });
+  const err = unitForm.formState.errors;
+
+  async function addUnit(v: NewUnit) {
+    try {
+      await call(`/api/sites/${siteId}/units`, 'POST', v);
+      onMessage({ ok: true, text: `Unit ${v.name} added.` });
+      unitForm.reset({ name: '', kind: v.kind, withPorts: v.withPorts });
+      await onAdded();
+    } catch (e) {
+      onMessage(messageOf(e));
+    }
+  }
+
+  return (
+    <form onSubmit={unitForm.handleSubmit(addUnit)} className="mt-4 grid gap-3 border-t border-paper-edge pt-3 sm:grid-cols-4" noValidate aria-label="Add a unit">
+      <Field id="u-name" label="Unit name" error={err.name?.message}>
+        <input id="u-name" className="field" {...unitForm.register('name')} />
+      </Field>
+      <Field id="u-kind" label="Kind" error={err.kind?.message}>
+        <select id="u-kind" className="field" {...unitForm.register('kind')}>
+          {UNIT_KINDS.map((k) => (
+            <option key={k} value={k}>
+              {kindSpec(k).label}
+            </option>
+          ))}
+        </select>
+      </Field>
+      <label className="flex items-end gap-2 pb-2 text-sm">
+        <input type="checkbox" {...unitForm.register('withPorts')} /> with its required ports
+      </label>
+      <div className="flex items-end">
+        <button className="btn btn-primary" type="submit" disabled={unitForm.formState.isSubmitting}>
+          Add unit
+        </button>
+      </div>
+    </form>
+  );
+}
+
+/** The Units card of the site page: the table, and for admins the form that adds one. */
+export default function SiteUnitsSection({ siteId, units, canEdit, onMessage, onAdded }: { siteId: string; units: UnitJson[]; canEdit: boolean; onMessage: (m: Message) => void; onAdded: () => Promise<void> }) {
+  return (
+    <section className="card">
+      <h2 className="mb-3">Units</h2>
+      {units.length === 0 ? <p className="text-sm text-ink-faint">No unit yet.</p> : <UnitsTable siteId={siteId} units={units} />}
+      {canEdit && <AddUnitForm siteId={siteId} onMessage={onMessage} onAdded={onAdded} />}
+    </section>
+  );
+}
