@@ -8,17 +8,21 @@
  *      with a real worker process, whose peak resident memory is read from /proc.
  * Prints: ingest_values_per_s, vs_pandas (pandas time / ours), end_to_end_s, worker_peak_rss_mb.
  * `npm run bench:ingest -- --mb 500` runs it on a 500 MB export instead of 70 MB.
+ * BENCH_INGEST_BROWSER=1 uploads as the uploads page does instead (the SHA-256 declared, a presigned
+ * PUT straight into the store, then complete): the worker hashes the stored bytes while it reads them.
  */
 import { spawn, spawnSync } from 'node:child_process';
+import { createHash } from 'node:crypto';
+import { request } from 'node:http';
 import { closeSync, createReadStream, mkdtempSync, openSync, readFileSync, readSync, rmSync, statSync, writeSync } from 'node:fs';
 import { loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { eq } from 'drizzle-orm';
 import { createFileIngest, sniffLayout } from '~/lib/ingest';
 import { closeDb, db } from '~/server/db/client';
-import { layoutProfiles, sites, uploads } from '~/server/db/schema';
+import { layoutProfiles, sites, uploads, user } from '~/server/db/schema';
 import { stopQueue } from '~/server/queue';
-import { receiveApiUpload } from '~/server/services/uploads';
+import { completeBrowserUpload, createBrowserUpload, receiveApiUpload } from '~/server/services/uploads';
 import { bytesPerRow } from './storage';
 import { cpuGroups, cpuSince, cpuSnapshot } from './cpu';
 
@@ -90,6 +94,32 @@ function peakRssMb(pid: number): number {
   return kb / 1024;
 }
 
+/**
+ * An upload as the uploads page makes it: the browser hashes the file (timed here too, it is part of
+ * the person's wait), the record is created, the bytes go by the presigned PUT, then complete.
+ */
+async function browserUpload(siteId: string, path: string): Promise<string> {
+  const hash = createHash('sha256');
+  for await (const chunk of createReadStream(path, { highWaterMark: 1024 * 1024 })) hash.update(chunk as Buffer);
+  // The person who uploads (the bench's services have no accounts): one made for the bench.
+  const [operator] = await db()
+    .insert(user)
+    .values({ id: `bench-${Date.now()}`, name: 'Bench operator', email: `bench-${Date.now()}@bench.lossline.test`, role: 'operator' })
+    .returning({ id: user.id });
+  const size = statSync(path).size;
+  const c = await createBrowserUpload(siteId, { fileName: 'bench.csv', sizeBytes: size, contentType: 'text/csv', sha256: hash.digest('hex') }, operator!.id);
+  await new Promise<void>((resolve, reject) => {
+    const req = request(c.url, { method: 'PUT', headers: { ...c.headers, 'content-length': String(size) } }, (res) => {
+      res.resume();
+      res.on('end', () => (res.statusCode === 200 ? resolve() : reject(new Error(`the store answered ${res.statusCode} to the PUT`))));
+    });
+    req.on('error', reject);
+    createReadStream(path, { highWaterMark: 1024 * 1024 }).pipe(req);
+  });
+  await completeBrowserUpload(c.uploadId);
+  return c.uploadId;
+}
+
 async function endToEnd(path: string) {
   const worker = spawn(process.execPath, [...(process.env.BENCH_WORKER_NODE_ARGS ?? '').split(' ').filter(Boolean), '--import', 'tsx', 'src/worker/main.ts'], { stdio: ['ignore', 'pipe', 'inherit'], env: { ...process.env, LOSSLINE_INGEST_TIMING: '1' } });
   await new Promise<void>((resolve, reject) => {
@@ -117,7 +147,11 @@ async function endToEnd(path: string) {
   // The size is passed as the files endpoint passes a request's Content-Length (one streamed PUT);
   // BENCH_INGEST_MULTIPART=1 leaves it out, as for a chunked request (multipart upload).
   const size = process.env.BENCH_INGEST_MULTIPART === '1' ? undefined : statSync(path).size;
-  const { uploadId } = await receiveApiUpload(site!.id, 'bench.csv', createReadStream(path, { highWaterMark: 1024 * 1024 }), {}, size);
+  console.log(`  upload path: ${process.env.BENCH_INGEST_BROWSER === '1' ? 'browser (presigned PUT, hashed by the worker while it reads)' : size === undefined ? 'machine, multipart' : 'machine, one streamed PUT'}`);
+  const uploadId =
+    process.env.BENCH_INGEST_BROWSER === '1'
+      ? await browserUpload(site!.id, path)
+      : (await receiveApiUpload(site!.id, 'bench.csv', createReadStream(path, { highWaterMark: 1024 * 1024 }), {}, size)).uploadId;
   const uploadedS = (performance.now() - t0) / 1000;
   let status = '';
   let peak = 0;

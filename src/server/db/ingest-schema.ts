@@ -40,7 +40,7 @@ export const uploads = pgTable(
     sizeBytes: bigint('size_bytes', { mode: 'number' }),
     /** SHA-256 of the stored bytes, computed by the server (never the client's word). */
     sha256: text('sha256'),
-    /** SHA-256 the browser declared; checked against the stored bytes before reading. */
+    /** SHA-256 the browser declared; checked against the stored bytes (hashed while they are read, before the commit). */
     declaredSha256: text('declared_sha256'),
     objectKey: text('object_key').notNull().unique(),
     source: text('source').notNull(), // 'browser' | 'api' | 'demo'

@@ -86,13 +86,14 @@ function perTagSummary(t: StreamResult['report']['tags'][number]) {
   };
 }
 
-/** Closes the upload's transaction with its summary: the file's tag hours become visible at once. */
+/** Closes the upload's transaction with its summary (and the hash taken during the read): the file's tag hours become visible at once. */
 export async function finish(up: typeof uploads.$inferSelect, profile: LayoutProfile, r: StreamResult, profileId: string | null, client: pg.PoolClient) {
   const { summary, state } = summaryOf(profile, r);
   // clock_timestamp(): the moment the upload finished (now() would be when its transaction began).
   await client.query(
-    `update uploads set status = $6, finished_at = clock_timestamp(), summary = $2, profile_id = $3, bytes_read = $4, rows_read = $5, detection = null where id = $1`,
-    [up.id, storableJson(summary), profileId, r.bytes, r.report.dataRowCount, state],
+    `update uploads set status = $6, finished_at = clock_timestamp(), summary = $2, profile_id = $3, bytes_read = $4, rows_read = $5, detection = null,
+       sha256 = coalesce($7, sha256) where id = $1`,
+    [up.id, storableJson(summary), profileId, r.bytes, r.report.dataRowCount, state, r.sha256],
   );
   await queueRecompute(up.siteId, r.report.firstTimeMs, r.report.lastTimeMs, client);
   await client.query('commit');

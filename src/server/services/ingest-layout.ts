@@ -56,9 +56,14 @@ async function decideLayout(up: Upload, timeZone: string) {
 
 /**
  * The layout to read the upload with and the saved profile's id; or the outcome when the upload
- * stops for a question.
+ * stops for a question. `beforeQuestion` runs before the upload stops for one: its outcome (the
+ * file repeats an earlier upload) ends the upload instead of the question.
  */
-export async function settleLayout(up: Upload, timeZone: string): Promise<{ profile: LayoutProfile; profileId: string | null } | IngestOutcome> {
+export async function settleLayout(
+  up: Upload,
+  timeZone: string,
+  beforeQuestion?: () => Promise<IngestOutcome | null>,
+): Promise<{ profile: LayoutProfile; profileId: string | null } | IngestOutcome> {
   const layout = await decideLayout(up, timeZone);
   const profile = layout.profile;
   const profileId = 'profileId' in layout ? layout.profileId : up.profileId;
@@ -74,6 +79,8 @@ export async function settleLayout(up: Upload, timeZone: string): Promise<{ prof
       encoding: 'encoding' in layout ? (layout.encoding ?? null) : null,
       disagreement: disagreement ?? null,
     } as Record<string, unknown>;
+    const instead = await beforeQuestion?.();
+    if (instead) return instead;
     if (up.source === 'browser' || questions.length === 0) {
       await db().update(uploads).set({ status: 'needs-review', detection: JSON.parse(storableJson(detection)) }).where(eq(uploads.id, up.id));
       return { kind: 'needs-review' };

@@ -5,6 +5,7 @@
  * (ingest-finish.ts), so a failure or a killed worker leaves no tag hour of it behind. Progress goes
  * through another connection, so the uploads page sees it live.
  */
+import { createHash } from 'node:crypto';
 import PQueue from 'p-queue';
 import { and, eq, isNull } from 'drizzle-orm';
 import type pg from 'pg';
@@ -38,6 +39,8 @@ export interface StreamResult {
   bytes: number;
   /** The site's good quality codes the file was read with. */
   goodCodes: string[];
+  /** SHA-256 of the bytes read, when the read was asked to hash them (an upload not hashed yet). */
+  sha256: string | null;
 }
 
 type Upload = typeof uploads.$inferSelect;
@@ -211,20 +214,26 @@ async function beginSiteTransaction(client: pg.PoolClient, siteId: string): Prom
   return latest.rows[0]?.last ? (latest.rows[0].last as Date).getTime() : null;
 }
 
-/** Streams the raw object through the ingest core and writes its tag hours in the open transaction. */
-export async function readIntoTransaction(up: Upload, profile: LayoutProfile, timeZone: string, siteCreatedAt: Date, client: pg.PoolClient): Promise<StreamResult> {
+/**
+ * Streams the raw object through the ingest core and writes its tag hours in the open transaction.
+ * With `hash`, the bytes are hashed on the way (SHA-256): an upload whose hash is not known yet (a
+ * browser upload) is downloaded once, and the caller checks for a repeat before the commit.
+ */
+export async function readIntoTransaction(up: Upload, profile: LayoutProfile, timeZone: string, siteCreatedAt: Date, client: pg.PoolClient, hash = false): Promise<StreamResult> {
   const ctx = await siteContext(up, profile, timeZone, siteCreatedAt);
   const queue = writeQueue();
   const latestExistingMs = await beginSiteTransaction(client, up.siteId);
   const writer = batchWriter(client, up, ctx, latestExistingMs, queue);
   const ingest = createFileIngest({ ...ctx.rereadOptions, profile, onHour: writer.onHour, onRejectedCell: writer.onRejectedCell });
   const stream = await objectStream(up.objectKey);
+  const hasher = hash ? createHash('sha256') : null;
   let bytes = 0;
   let lines = 0;
   let lastProgress = Date.now();
   for await (const chunk of stream) {
     const buf = chunk as Buffer;
     bytes += buf.length;
+    hasher?.update(buf);
     for (let i = buf.indexOf(10); i !== -1; i = buf.indexOf(10, i + 1)) lines++;
     ingest.push(new Uint8Array(buf.buffer, buf.byteOffset, buf.byteLength));
     await queue.throttle();
@@ -244,5 +253,5 @@ export async function readIntoTransaction(up: Upload, profile: LayoutProfile, ti
   if (writer.clashes.length > 0) ({ replaced, combined } = await mergeOverlappedHours(client, up.id, writer.clashes, { ...ctx.rereadOptions, profile }));
   const { hours, newTags, rejectsStored } = writer.counts;
   if (process.env.LOSSLINE_INGEST_TIMING) console.log(`[ingest] ${up.id}: ${hours} tag hours, database writes ${(queue.state.writeMs / 1000).toFixed(2)} s`);
-  return { report, encoding: encoding.encoding, hours, replaced, combined, newTags, rejectsStored, bytes, goodCodes: ctx.goodCodes };
+  return { report, encoding: encoding.encoding, hours, replaced, combined, newTags, rejectsStored, bytes, goodCodes: ctx.goodCodes, sha256: hasher ? hasher.digest('hex') : null };
 }

@@ -46,18 +46,8 @@ export async function ingestUpload(uploadId: string): Promise<IngestOutcome> {
 
 type Upload = typeof uploads.$inferSelect;
 
-/**
- * The stored object: its size and type as declared (browser), and its hash computed here. The hash
- * the browser declared is a claim; only the stored bytes decide what is a repeat. Returns the
- * outcome when the upload repeats an earlier one, else null.
- */
-async function checkStoredObject(up: Upload): Promise<IngestOutcome | null> {
-  if (up.source === 'browser') {
-    const mismatch = await storedObjectMismatch(up);
-    if (mismatch) throw new IngestError('SIZE_MISMATCH', mismatch, { declaredBytes: up.sizeBytes });
-  }
-  if (up.sha256) return null;
-  const sha256 = await hashObject(up.objectKey);
+/** The hash the browser declared is a claim; only the stored bytes decide. Throws when they differ. */
+function checkDeclaredHash(up: Upload, sha256: string) {
   if (up.declaredSha256 && up.declaredSha256 !== sha256) {
     throw new IngestError(
       'HASH_MISMATCH',
@@ -65,13 +55,42 @@ async function checkStoredObject(up: Upload): Promise<IngestOutcome | null> {
       { declared: up.declaredSha256, stored: sha256 },
     );
   }
+}
+
+/** Ends an upload whose bytes repeat an earlier upload's: done, not read, pointing at the first. */
+async function standAside(up: Upload, sha256: string, duplicateId: string): Promise<IngestOutcome> {
+  const summary = { duplicateOf: duplicateId, note: 'Same bytes as an earlier upload: not read again.' };
+  await db().update(uploads).set({ sha256, status: 'done', duplicateOf: duplicateId, finishedAt: sql`clock_timestamp()`, summary }).where(eq(uploads.id, up.id));
+  return { kind: 'done', summary };
+}
+
+/**
+ * An upload whose hash is not known yet (a browser upload) that stops for a layout question: its
+ * stored bytes are hashed first (one download; the read after the answer is the second), so a repeat
+ * of an earlier file is told as such instead of asking again. Returns the outcome of a repeat, else null.
+ */
+async function hashBeforeQuestion(up: Upload): Promise<IngestOutcome | null> {
+  const sha256 = await hashObject(up.objectKey);
+  checkDeclaredHash(up, sha256);
   await db().update(uploads).set({ sha256 }).where(eq(uploads.id, up.id));
   up.sha256 = sha256;
   const duplicate = await findDuplicate(up.siteId, sha256, up.id, { id: up.id, createdAt: up.createdAt });
+  return duplicate ? standAside(up, sha256, duplicate.id) : null;
+}
+
+/**
+ * The hash taken while the file was read (an upload not hashed before), checked before the commit:
+ * a hash other than the declared one fails the read; a repeat of another upload rolls it back and
+ * stands aside. Reads of one site are serialised by the site's ingest lock (ingest-stream.ts), so
+ * any other upload of these bytes has either committed (and is the first) or is queued with its hash
+ * known: it is the one read, whatever the order of creation. Returns the outcome of a repeat, else null.
+ */
+async function repeatBeforeCommit(up: Upload, sha256: string, client: pg.PoolClient): Promise<IngestOutcome | null> {
+  checkDeclaredHash(up, sha256);
+  const duplicate = await findDuplicate(up.siteId, sha256, up.id);
   if (!duplicate) return null;
-  const summary = { duplicateOf: duplicate.id, note: 'Same bytes as an earlier upload: not read again.' };
-  await db().update(uploads).set({ status: 'done', duplicateOf: duplicate.id, finishedAt: sql`clock_timestamp()`, summary }).where(eq(uploads.id, up.id));
-  return { kind: 'done', summary };
+  await client.query('rollback');
+  return standAside(up, sha256, duplicate.id);
 }
 
 async function ingestLocked(uploadId: string, client: pg.PoolClient): Promise<IngestOutcome> {
@@ -89,11 +108,16 @@ async function ingestLocked(uploadId: string, client: pg.PoolClient): Promise<In
   await client.query('delete from upload_rejects where upload_id = $1', [uploadId]);
 
   try {
-    const repeat = await checkStoredObject(up);
-    if (repeat) return repeat;
-    const layout = await settleLayout(up, timeZone);
+    if (up.source === 'browser') {
+      const mismatch = await storedObjectMismatch(up);
+      if (mismatch) throw new IngestError('SIZE_MISMATCH', mismatch, { declaredBytes: up.sizeBytes });
+    }
+    const layout = await settleLayout(up, timeZone, up.sha256 ? undefined : () => hashBeforeQuestion(up));
     if ('kind' in layout) return layout;
-    const result = await readIntoTransaction(up, layout.profile, timeZone, site?.createdAt ?? new Date(), client);
+    // Not hashed yet (a browser upload): hashed during the read, checked for a repeat before the commit.
+    const result = await readIntoTransaction(up, layout.profile, timeZone, site?.createdAt ?? new Date(), client, !up.sha256);
+    const repeat = result.sha256 ? await repeatBeforeCommit(up, result.sha256, client) : null;
+    if (repeat) return repeat;
     const { summary, state } = await finish(up, layout.profile, result, layout.profileId, client);
     if (process.env.LOSSLINE_INGEST_TIMING) console.log(`[ingest] ${uploadId}: read and committed in ${((performance.now() - startedMs) / 1000).toFixed(2)} s`);
     return { kind: state === 'done' ? 'done' : 'read-with-problems', summary };
