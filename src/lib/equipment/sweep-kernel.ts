@@ -279,7 +279,8 @@ class Kernel implements SweepKernel {
     let eb = -1;
     for (let k = 0; k < n; k++) {
       const p = ports[k]!;
-      if (p.flow === 'measured') inRange(`${p.name}.mDot_kg_per_s`, x[p.iM]!, 0, 1e6);
+      // the entry's name only when it fails (a template string per move costs an allocation)
+      if (p.flow === 'measured' && !(x[p.iM]! >= 0 && x[p.iM]! <= 1e6)) inRange(`${p.name}.mDot_kg_per_s`, x[p.iM]!, 0, 1e6);
       else if (p.flow === 'energy-balance') eb = k;
     }
     if (eb >= 0) {
@@ -332,16 +333,34 @@ class Kernel implements SweepKernel {
   private energyState(j: number, r: number): PortState {
     const p = this.ports[j]!;
     const pp = this.xs![p.iP]!;
-    inRange(`${p.name}.p_Pa`, pp, 1, 1e8);
+    if (!(pp >= 1 && pp <= 1e8)) inRange(`${p.name}.p_Pa`, pp, 1, 1e8);
     if (!(this.flows[j]! > 0)) throw new BalanceInputError('UNSOLVABLE', p.name, 'a state from the energy balance needs a flow > 0');
     const e = (p.sign === -1 ? r : -r) / this.flows[j]!;
     const h = e - 0.5 * p.V * p.V - G_m_per_s2 * p.z;
     if (this.ebState && this.ebKey[0] === pp && this.ebKey[1] === h) return this.ebState;
-    const st = p.fluid.statePH(pp, h, this.env, p.V, p.z);
+    const st = p.fluid.family === 'water' ? this.waterPH(p, pp, h) : p.fluid.statePH(pp, h, this.env, p.V, p.z);
     this.ebKey[0] = pp;
     this.ebKey[1] = h;
     return (this.ebState = st);
   }
+
+  /**
+   * A water state from the energy balance: what WaterFluid.statePH and finishState give, written into
+   * the kernel's scratch state (one IF97 (p, h) solve, no objects; the sweep reads no flags).
+   */
+  private waterPH(p: KPort, pp: number, h: number): PortState {
+    const st = (this.ebScratch ??= { p: NaN, T: NaN, h: NaN, s: NaN, x: null, phase: 'liquid', psi: NaN, ePh: NaN, eCh: null, h0: NaN, velocity_m_per_s: p.V, elevation_m: p.z, flags: NO_FLAGS });
+    st.phase = water.ths_ph(pp, h, st);
+    const dv = p.fluid.deadValues(this.env);
+    const ePh = flowExergy(st, dv.dead);
+    st.p = pp;
+    st.ePh = ePh;
+    st.psi = ePh + 0.5 * p.V * p.V + G_m_per_s2 * p.z;
+    st.eCh = dv.eCh;
+    st.h0 = dv.dead.h0;
+    return st;
+  }
+  private ebScratch: Mutable<PortState> | undefined;
   private xs: ArrayLike<number> | null = null;
 
   /** F, P, L in the order of the kind's terms; D as controlVolumeBalance sums it; efficiency. */
