@@ -9,7 +9,8 @@
  * - a pressure or temperature (or x, h, O2) at a port: that port's state once, from its fluid.
  * Flows, terms and D are summed in the same order as the full balance, so both give the same numbers to
  * rounding. Kinds and models it does not cover (mixers, several energy-balance states, motors) return
- * null from compileKernel and the sweep uses the full balance.
+ * null from compileKernel and the sweep uses the full balance. The kernel shares the compiled unit's
+ * prepared fluids, and so their memos: a flue gas's combustion at the point's O2 is worked out once.
  * @see ./balance.ts resolvePorts and assemble, ./kinds.ts (the SPECO split per kind) for the definitions
  */
 import { G_m_per_s2, flowExergy, water } from '../thermo';
@@ -89,7 +90,7 @@ function inRange(name: string, v: number, lo: number, hi: number): void {
 }
 
 /** The ports of the kernel, with the boiler's ambient air port appended when the model has none. */
-function kernelPorts(kind: UnitKind, model: UnitModel, names: readonly string[]): KPort[] | null {
+function kernelPorts(kind: UnitKind, model: UnitModel, names: readonly string[], fluids?: ReadonlyMap<string, Fluid>): KPort[] | null {
   const specs = [...(model.ports ?? [])];
   const fuelSpec = kind === 'boiler' ? specs.find((p) => p.role === 'fuel') : undefined;
   if (kind === 'boiler' && !specs.some((p) => p.role === 'air')) {
@@ -103,7 +104,7 @@ function kernelPorts(kind: UnitKind, model: UnitModel, names: readonly string[])
   for (const s of specs) {
     const state = s.state ?? 'pT';
     if (state === 'px' || state === 'ph' || state === 'pT' || state === 'ambient' || state === 'energy-balance' || state === 'sat-liquid' || state === 'sat-vapour') {
-      const fluid = prepareFluid(s.fluid, fuelSpec ? fuelSpecOf(fuelSpec.fluid as FluidSpec) : undefined);
+      const fluid = fluids?.get(s.name) ?? prepareFluid(s.fluid, fuelSpec ? fuelSpecOf(fuelSpec.fluid as FluidSpec) : undefined);
       const iV = state === 'pT' ? ix(`${s.name}.T_K`) : state === 'px' ? ix(`${s.name}.x`) : state === 'ph' ? ix(`${s.name}.h_J_per_kg`) : -1;
       const V = s.velocity_m_per_s ?? 0;
       const z = s.elevation_m ?? 0;
@@ -125,9 +126,9 @@ function kernelPorts(kind: UnitKind, model: UnitModel, names: readonly string[])
  * The kernel of (kind, model) with the vector layout `names`, or null when the kind or model is not
  * covered (the sweep then moves the full balance).
  */
-export function compileKernel(kind: UnitKind, model: UnitModel, names: readonly string[]): SweepKernel | null {
+export function compileKernel(kind: UnitKind, model: UnitModel, names: readonly string[], fluids?: ReadonlyMap<string, Fluid>): SweepKernel | null {
   if (!COVERED.has(kind)) return null;
-  const ports = kernelPorts(kind, model, names);
+  const ports = kernelPorts(kind, model, names, fluids);
   if (!ports || ports.length === 0) return null;
   let nEnergyStates = 0;
   for (const p of ports) if (p.mode === 'energy-balance') nEnergyStates++;
