@@ -13,14 +13,14 @@
  * prepared fluids, and so their memos: a flue gas's combustion at the point's O2 is worked out once.
  * @see ./balance.ts resolvePorts and assemble, ./kinds.ts (the SPECO split per kind) for the definitions
  */
-import { G_m_per_s2, flowExergy, water } from '../thermo';
+import { G_m_per_s2 } from '../thermo';
 import type { UnitBalance } from './balance';
 import type { BalanceKind as UnitKind } from '../kinds';
 import { BalanceInputError } from './errors';
 import { fuelSpecOf, prepareFluid, type Environment, type Fluid, type FluidSpec, type PortMeasurement, type PortState } from './fluids';
 import type { PortSpec, UnitModel } from './model';
+import { movedWaterPH, movedWaterPT, scratchState, type Mutable } from './sweep-states';
 
-const NO_FLAGS: readonly [] = Object.freeze([]) as readonly [];
 
 /** Role of a port's exergy in the split: 0 fuel (exergy into the volume), 1 product, 2 loss (out of it). */
 type Role = 0 | 1 | 2;
@@ -54,8 +54,6 @@ interface KPort {
   /** a moved water (p, T) state, overwritten by the next move */
   scratch?: Mutable<PortState>;
 }
-
-type Mutable<T> = { -readonly [K in keyof T]: T[K] };
 
 /** A compiled kernel: set the hour's point, then evaluate moved vectors. */
 export interface SweepKernel {
@@ -196,7 +194,7 @@ class Kernel implements SweepKernel {
     const v = p.iV >= 0 ? x[p.iV]! : p.mode === 'sat' ? p.fixedX : 0;
     const o = p.iO2 >= 0 ? x[p.iO2]! : 0;
     if (pp === p.p0 && v === p.v0 && o === p.o0) return p.st0;
-    if (p.mode === 'pT' && p.fluid.family === 'water') return this.waterPT(p, pp, v);
+    if (p.mode === 'pT' && p.fluid.family === 'water') return movedWaterPT((p.scratch ??= scratchState(p.V, p.z)), p.fluid, this.env, pp, v);
     const m = p.m;
     m.p_Pa = pp;
     if (p.mode === 'pT') m.T_K = v;
@@ -204,25 +202,6 @@ class Kernel implements SweepKernel {
     else m.x = v;
     if (p.iO2 >= 0) m.O2_fraction = o;
     return p.fluid.state(m, this.env);
-  }
-
-  /**
-   * A moved water (p, T) state: what the fluid's state gives (fluids.ts WaterFluid.state and finishState),
-   * without its near-saturation flag (the flag is the point's; the sweep reads no flags): one water.pt call.
-   */
-  private waterPT(p: KPort, pp: number, T: number): PortState {
-    // The port's scratch state: a moved state lives for one evaluate (states[] is refilled each time).
-    const st = (p.scratch ??= { p: NaN, T: NaN, h: NaN, s: NaN, x: null, phase: 'liquid', psi: NaN, ePh: NaN, eCh: null, h0: NaN, velocity_m_per_s: p.V, elevation_m: p.z, flags: NO_FLAGS });
-    st.phase = water.hs_pt(pp, T, st);
-    const dv = p.fluid.deadValues(this.env);
-    const ePh = flowExergy(st, dv.dead);
-    st.p = pp;
-    st.T = T;
-    st.ePh = ePh;
-    st.psi = ePh + 0.5 * p.V * p.V + G_m_per_s2 * p.z;
-    st.eCh = dv.eCh;
-    st.h0 = dv.dead.h0;
-    return st;
   }
 
   evaluate(x: ArrayLike<number>, out: Float64Array, o: number): void {
@@ -339,28 +318,12 @@ class Kernel implements SweepKernel {
     const e = (p.sign === -1 ? r : -r) / this.flows[j]!;
     const h = e - 0.5 * p.V * p.V - G_m_per_s2 * p.z;
     if (this.ebState && this.ebKey[0] === pp && this.ebKey[1] === h) return this.ebState;
-    const st = p.fluid.family === 'water' ? this.waterPH(p, pp, h) : p.fluid.statePH(pp, h, this.env, p.V, p.z);
+    const st = p.fluid.family === 'water' ? movedWaterPH((this.ebScratch ??= scratchState(p.V, p.z)), p.fluid, this.env, pp, h) : p.fluid.statePH(pp, h, this.env, p.V, p.z);
     this.ebKey[0] = pp;
     this.ebKey[1] = h;
     return (this.ebState = st);
   }
 
-  /**
-   * A water state from the energy balance: what WaterFluid.statePH and finishState give, written into
-   * the kernel's scratch state (one IF97 (p, h) solve, no objects; the sweep reads no flags).
-   */
-  private waterPH(p: KPort, pp: number, h: number): PortState {
-    const st = (this.ebScratch ??= { p: NaN, T: NaN, h: NaN, s: NaN, x: null, phase: 'liquid', psi: NaN, ePh: NaN, eCh: null, h0: NaN, velocity_m_per_s: p.V, elevation_m: p.z, flags: NO_FLAGS });
-    st.phase = water.ths_ph(pp, h, st);
-    const dv = p.fluid.deadValues(this.env);
-    const ePh = flowExergy(st, dv.dead);
-    st.p = pp;
-    st.ePh = ePh;
-    st.psi = ePh + 0.5 * p.V * p.V + G_m_per_s2 * p.z;
-    st.eCh = dv.eCh;
-    st.h0 = dv.dead.h0;
-    return st;
-  }
   private ebScratch: Mutable<PortState> | undefined;
   private xs: ArrayLike<number> | null = null;
 
