@@ -159,6 +159,79 @@ function fullHour(input: UnitHourInput, options: ComputeOptions, withU: boolean,
   return resultOf(input, options, dead, load, mapped?.load.unit ?? null, run, state, reasons, () => detailOf({ input, set, dead, mapped, minLoad, run, checks, notes }));
 }
 
+/**
+ * The row of an hour: its figures as own fields, its audit trail (`detail`) a getter of the class
+ * that builds it when first read. A class rather than an object literal with a getter: a literal's
+ * getter is a new accessor on every row, which cost about as much as the rest of the row.
+ */
+class UnitHourRow implements UnitHourResult {
+  state: UnitHourResult['state'];
+  reasons: EngineReason[];
+  load: number | null;
+  loadUnit: 'W' | 'kg/s' | null;
+  T0_K: number;
+  p0_Pa: number;
+  fuel_W: number | null;
+  product_W: number | null;
+  loss_W: number | null;
+  destruction_W: number | null;
+  efficiency: number | null;
+  efficiency_U: number | null;
+  destruction_U_W: number | null;
+  closure_pct: number | null;
+  entropyGeneration_W_per_K: number | null;
+  destructionCost_per_h: number | null;
+  modelVersion: string;
+  inputsHash: string;
+  #detail: Record<string, unknown> | undefined;
+  #detailFn: (() => Record<string, unknown>) | null;
+
+  constructor(
+    input: UnitHourInput,
+    options: ComputeOptions,
+    dead: DeadState,
+    load: number,
+    loadUnit: 'W' | 'kg/s' | null,
+    run: BalanceRun,
+    state: UnitHourResult['state'],
+    reasons: EngineReason[],
+    detailFn: () => Record<string, unknown>,
+  ) {
+    const { balance, unc } = run;
+    const D = balance ? balance.destruction_W : NaN;
+    const cost = input.cost && Number.isFinite(D) ? destructionCost_per_hour(input.cost.cF_per_J, D) : null;
+    const { modelVersion, inputsHash } = options.hashes ?? unitHourHashes(input, options);
+    this.state = state;
+    this.reasons = reasons;
+    this.load = finiteOrNull(load);
+    this.loadUnit = loadUnit;
+    this.T0_K = dead.T0_K;
+    this.p0_Pa = dead.p0_Pa;
+    this.fuel_W = balance ? finiteOrNull(balance.fuel_W) : null;
+    this.product_W = balance ? finiteOrNull(balance.product_W) : null;
+    this.loss_W = balance ? finiteOrNull(balance.loss_W) : null;
+    this.destruction_W = balance ? finiteOrNull(balance.destruction_W) : null;
+    this.efficiency = balance ? finiteOrNull(balance.efficiency) : null;
+    this.efficiency_U = unc?.efficiency ? finiteOrNull(unc.efficiency.U) : null;
+    this.destruction_U_W = unc ? finiteOrNull(unc.destruction_W.U) : null;
+    this.closure_pct = balance ? finiteOrNull(balance.energyClosure_pct) : null;
+    this.entropyGeneration_W_per_K = balance ? finiteOrNull(balance.entropyGeneration_W_per_K) : null;
+    this.destructionCost_per_h = finiteOrNull(cost);
+    this.modelVersion = modelVersion;
+    this.inputsHash = inputsHash;
+    this.#detail = undefined;
+    this.#detailFn = detailFn;
+  }
+
+  get detail(): Record<string, unknown> {
+    if (this.#detailFn) {
+      this.#detail = this.#detailFn();
+      this.#detailFn = null;
+    }
+    return this.#detail!;
+  }
+}
+
 /** The row of an hour, its detail built when first read. */
 function resultOf(
   input: UnitHourInput,
@@ -171,32 +244,5 @@ function resultOf(
   reasons: EngineReason[],
   detailFn: () => Record<string, unknown>,
 ): UnitHourResult {
-  const { balance, unc } = run;
-  const D = balance ? balance.destruction_W : NaN;
-  const cost = input.cost && Number.isFinite(D) ? destructionCost_per_hour(input.cost.cF_per_J, D) : null;
-  const { modelVersion, inputsHash } = options.hashes ?? unitHourHashes(input, options);
-  let detail: Record<string, unknown> | undefined;
-  return {
-    state,
-    reasons,
-    load: finiteOrNull(load),
-    loadUnit,
-    T0_K: dead.T0_K,
-    p0_Pa: dead.p0_Pa,
-    fuel_W: balance ? finiteOrNull(balance.fuel_W) : null,
-    product_W: balance ? finiteOrNull(balance.product_W) : null,
-    loss_W: balance ? finiteOrNull(balance.loss_W) : null,
-    destruction_W: balance ? finiteOrNull(balance.destruction_W) : null,
-    efficiency: balance ? finiteOrNull(balance.efficiency) : null,
-    efficiency_U: unc?.efficiency ? finiteOrNull(unc.efficiency.U) : null,
-    destruction_U_W: unc ? finiteOrNull(unc.destruction_W.U) : null,
-    closure_pct: balance ? finiteOrNull(balance.energyClosure_pct) : null,
-    entropyGeneration_W_per_K: balance ? finiteOrNull(balance.entropyGeneration_W_per_K) : null,
-    destructionCost_per_h: finiteOrNull(cost),
-    get detail() {
-      return (detail ??= detailFn());
-    },
-    modelVersion,
-    inputsHash,
-  };
+  return new UnitHourRow(input, options, dead, load, loadUnit, run, state, reasons, detailFn);
 }

@@ -56,11 +56,19 @@ const nodeSha256: ((b: Uint8Array) => string) | null = (() => {
 
 const ENCODER = new TextEncoder();
 let buf = new Uint8Array(4096);
+/** A view of the shared buffer for writing a number's bytes in one call (renewed with the buffer). */
+let bufView = new DataView(buf.buffer);
+function grow(n: number, keep: number): void {
+  const b = new Uint8Array(n);
+  if (keep > 0) b.set(buf.subarray(0, keep));
+  buf = b;
+  bufView = new DataView(buf.buffer);
+}
 
 /** UTF-8 bytes of a text into the shared buffer (ASCII without an encoder); returns the length. */
 function utf8Into(text: string): number {
   const n = text.length;
-  if (buf.length < n * 3) buf = new Uint8Array(n * 3);
+  if (buf.length < n * 3) grow(n * 3, 0);
   let ascii = true;
   for (let i = 0; i < n; i++) {
     const c = text.charCodeAt(i);
@@ -72,7 +80,7 @@ function utf8Into(text: string): number {
   }
   if (ascii) return n;
   const bytes = ENCODER.encode(text);
-  if (buf.length < bytes.length) buf = new Uint8Array(bytes.length);
+  if (buf.length < bytes.length) grow(bytes.length, 0);
   buf.set(bytes);
   return bytes.length;
 }
@@ -91,11 +99,6 @@ function digestBuffer(len: number): string {
   return bytesToHex(sha256(buf.subarray(0, len)));
 }
 
-/** A number's binary64 bytes through a typed-array view where the platform is little-endian (as the message wants). */
-const F64 = new Float64Array(1);
-const F64_BYTES = new Uint8Array(F64.buffer);
-const LITTLE_ENDIAN = ((F64[0] = 1), F64_BYTES[7] === 0x3f);
-
 /**
  * Builds a byte message for SHA-256 from texts and numbers without turning numbers into text: a number
  * is a marker byte (1) and its IEEE 754 binary64 bytes, little-endian (-0 as 0; null, undefined, NaN
@@ -105,13 +108,8 @@ const LITTLE_ENDIAN = ((F64[0] = 1), F64_BYTES[7] === 0x3f);
  */
 export class ByteHasher {
   private len = 0;
-  private view = new DataView(new ArrayBuffer(8));
   private room(n: number) {
-    if (buf.length < this.len + n) {
-      const b = new Uint8Array(Math.max(2 * buf.length, this.len + n));
-      b.set(buf.subarray(0, this.len));
-      buf = b;
-    }
+    if (buf.length < this.len + n) grow(Math.max(2 * buf.length, this.len + n), this.len);
   }
   /** Starts a new message (the buffer is shared: finish one message before starting another). */
   reset(): this {
@@ -143,13 +141,8 @@ export class ByteHasher {
       return this;
     }
     buf[this.len++] = 1;
-    if (LITTLE_ENDIAN) {
-      F64[0] = v === 0 ? 0 : v;
-      for (let i = 0; i < 8; i++) buf[this.len++] = F64_BYTES[i]!;
-    } else {
-      this.view.setFloat64(0, v === 0 ? 0 : v, true);
-      for (let i = 0; i < 8; i++) buf[this.len++] = this.view.getUint8(i);
-    }
+    bufView.setFloat64(this.len, v === 0 ? 0 : v, true);
+    this.len += 8;
     return this;
   }
   /** A small whole number (0 .. 2^32 - 1) as 4 bytes; anything else as num(). */
@@ -157,10 +150,8 @@ export class ByteHasher {
     if (!(Number.isInteger(v) && v >= 0 && v < 2 ** 32)) return this.num(v);
     this.room(5);
     buf[this.len++] = 3;
-    buf[this.len++] = v >>> 24;
-    buf[this.len++] = (v >>> 16) & 255;
-    buf[this.len++] = (v >>> 8) & 255;
-    buf[this.len++] = v & 255;
+    bufView.setUint32(this.len, v, false);
+    this.len += 4;
     return this;
   }
   /** One byte (a flag or a marker). */

@@ -114,6 +114,8 @@ export interface CompiledUnit {
    * efficiency ...) that F, P, L and D do not need (the uncertainty sweep)
    */
   evaluate(x: ArrayLike<number>, lean?: boolean): UnitBalance;
+  /** the prepared fluid of each port by name (the sweep kernel shares them, and so their memos) */
+  readonly fluids: ReadonlyMap<string, Fluid>;
 }
 
 function kindOk(kind: UnitKind): void {
@@ -159,7 +161,7 @@ export function compileUnit(kind: UnitKind, model: UnitModel): CompiledUnit {
     checkVector(kind, names, x);
     return runBalance(kind, model, ports, terms, x, !lean);
   };
-  return { kind, model, names: Object.freeze(names), evaluate };
+  return { kind, model, names: Object.freeze(names), evaluate, fluids: new Map(ports.map((p) => [p.spec.name, p.fluid])) };
 }
 
 /** One port: its prepared fluid and its entries (flow, pressure, the state's second property, O2) by its modes. */

@@ -9,17 +9,18 @@
  * - a pressure or temperature (or x, h, O2) at a port: that port's state once, from its fluid.
  * Flows, terms and D are summed in the same order as the full balance, so both give the same numbers to
  * rounding. Kinds and models it does not cover (mixers, several energy-balance states, motors) return
- * null from compileKernel and the sweep uses the full balance.
+ * null from compileKernel and the sweep uses the full balance. The kernel shares the compiled unit's
+ * prepared fluids, and so their memos: a flue gas's combustion at the point's O2 is worked out once.
  * @see ./balance.ts resolvePorts and assemble, ./kinds.ts (the SPECO split per kind) for the definitions
  */
-import { G_m_per_s2, flowExergy, water } from '../thermo';
+import { G_m_per_s2 } from '../thermo';
 import type { UnitBalance } from './balance';
 import type { BalanceKind as UnitKind } from '../kinds';
 import { BalanceInputError } from './errors';
 import { fuelSpecOf, prepareFluid, type Environment, type Fluid, type FluidSpec, type PortMeasurement, type PortState } from './fluids';
 import type { PortSpec, UnitModel } from './model';
+import { movedWaterPH, movedWaterPT, scratchState, type Mutable } from './sweep-states';
 
-const NO_FLAGS: readonly [] = Object.freeze([]) as readonly [];
 
 /** Role of a port's exergy in the split: 0 fuel (exergy into the volume), 1 product, 2 loss (out of it). */
 type Role = 0 | 1 | 2;
@@ -54,8 +55,6 @@ interface KPort {
   scratch?: Mutable<PortState>;
 }
 
-type Mutable<T> = { -readonly [K in keyof T]: T[K] };
-
 /** A compiled kernel: set the hour's point, then evaluate moved vectors. */
 export interface SweepKernel {
   /** takes the point's states from the full balance at x; false when the kernel cannot take this hour */
@@ -89,7 +88,7 @@ function inRange(name: string, v: number, lo: number, hi: number): void {
 }
 
 /** The ports of the kernel, with the boiler's ambient air port appended when the model has none. */
-function kernelPorts(kind: UnitKind, model: UnitModel, names: readonly string[]): KPort[] | null {
+function kernelPorts(kind: UnitKind, model: UnitModel, names: readonly string[], fluids?: ReadonlyMap<string, Fluid>): KPort[] | null {
   const specs = [...(model.ports ?? [])];
   const fuelSpec = kind === 'boiler' ? specs.find((p) => p.role === 'fuel') : undefined;
   if (kind === 'boiler' && !specs.some((p) => p.role === 'air')) {
@@ -103,7 +102,7 @@ function kernelPorts(kind: UnitKind, model: UnitModel, names: readonly string[])
   for (const s of specs) {
     const state = s.state ?? 'pT';
     if (state === 'px' || state === 'ph' || state === 'pT' || state === 'ambient' || state === 'energy-balance' || state === 'sat-liquid' || state === 'sat-vapour') {
-      const fluid = prepareFluid(s.fluid, fuelSpec ? fuelSpecOf(fuelSpec.fluid as FluidSpec) : undefined);
+      const fluid = fluids?.get(s.name) ?? prepareFluid(s.fluid, fuelSpec ? fuelSpecOf(fuelSpec.fluid as FluidSpec) : undefined);
       const iV = state === 'pT' ? ix(`${s.name}.T_K`) : state === 'px' ? ix(`${s.name}.x`) : state === 'ph' ? ix(`${s.name}.h_J_per_kg`) : -1;
       const V = s.velocity_m_per_s ?? 0;
       const z = s.elevation_m ?? 0;
@@ -125,9 +124,9 @@ function kernelPorts(kind: UnitKind, model: UnitModel, names: readonly string[])
  * The kernel of (kind, model) with the vector layout `names`, or null when the kind or model is not
  * covered (the sweep then moves the full balance).
  */
-export function compileKernel(kind: UnitKind, model: UnitModel, names: readonly string[]): SweepKernel | null {
+export function compileKernel(kind: UnitKind, model: UnitModel, names: readonly string[], fluids?: ReadonlyMap<string, Fluid>): SweepKernel | null {
   if (!COVERED.has(kind)) return null;
-  const ports = kernelPorts(kind, model, names);
+  const ports = kernelPorts(kind, model, names, fluids);
   if (!ports || ports.length === 0) return null;
   let nEnergyStates = 0;
   for (const p of ports) if (p.mode === 'energy-balance') nEnergyStates++;
@@ -195,7 +194,7 @@ class Kernel implements SweepKernel {
     const v = p.iV >= 0 ? x[p.iV]! : p.mode === 'sat' ? p.fixedX : 0;
     const o = p.iO2 >= 0 ? x[p.iO2]! : 0;
     if (pp === p.p0 && v === p.v0 && o === p.o0) return p.st0;
-    if (p.mode === 'pT' && p.fluid.family === 'water') return this.waterPT(p, pp, v);
+    if (p.mode === 'pT' && p.fluid.family === 'water') return movedWaterPT((p.scratch ??= scratchState(p.V, p.z)), p.fluid, this.env, pp, v);
     const m = p.m;
     m.p_Pa = pp;
     if (p.mode === 'pT') m.T_K = v;
@@ -203,25 +202,6 @@ class Kernel implements SweepKernel {
     else m.x = v;
     if (p.iO2 >= 0) m.O2_fraction = o;
     return p.fluid.state(m, this.env);
-  }
-
-  /**
-   * A moved water (p, T) state: what the fluid's state gives (fluids.ts WaterFluid.state and finishState),
-   * without its near-saturation flag (the flag is the point's; the sweep reads no flags): one water.pt call.
-   */
-  private waterPT(p: KPort, pp: number, T: number): PortState {
-    // The port's scratch state: a moved state lives for one evaluate (states[] is refilled each time).
-    const st = (p.scratch ??= { p: NaN, T: NaN, h: NaN, s: NaN, x: null, phase: 'liquid', psi: NaN, ePh: NaN, eCh: null, h0: NaN, velocity_m_per_s: p.V, elevation_m: p.z, flags: NO_FLAGS });
-    st.phase = water.hs_pt(pp, T, st);
-    const dv = p.fluid.deadValues(this.env);
-    const ePh = flowExergy(st, dv.dead);
-    st.p = pp;
-    st.T = T;
-    st.ePh = ePh;
-    st.psi = ePh + 0.5 * p.V * p.V + G_m_per_s2 * p.z;
-    st.eCh = dv.eCh;
-    st.h0 = dv.dead.h0;
-    return st;
   }
 
   evaluate(x: ArrayLike<number>, out: Float64Array, o: number): void {
@@ -279,7 +259,8 @@ class Kernel implements SweepKernel {
     let eb = -1;
     for (let k = 0; k < n; k++) {
       const p = ports[k]!;
-      if (p.flow === 'measured') inRange(`${p.name}.mDot_kg_per_s`, x[p.iM]!, 0, 1e6);
+      // the entry's name only when it fails (a template string per move costs an allocation)
+      if (p.flow === 'measured' && !(x[p.iM]! >= 0 && x[p.iM]! <= 1e6)) inRange(`${p.name}.mDot_kg_per_s`, x[p.iM]!, 0, 1e6);
       else if (p.flow === 'energy-balance') eb = k;
     }
     if (eb >= 0) {
@@ -332,16 +313,18 @@ class Kernel implements SweepKernel {
   private energyState(j: number, r: number): PortState {
     const p = this.ports[j]!;
     const pp = this.xs![p.iP]!;
-    inRange(`${p.name}.p_Pa`, pp, 1, 1e8);
+    if (!(pp >= 1 && pp <= 1e8)) inRange(`${p.name}.p_Pa`, pp, 1, 1e8);
     if (!(this.flows[j]! > 0)) throw new BalanceInputError('UNSOLVABLE', p.name, 'a state from the energy balance needs a flow > 0');
     const e = (p.sign === -1 ? r : -r) / this.flows[j]!;
     const h = e - 0.5 * p.V * p.V - G_m_per_s2 * p.z;
     if (this.ebState && this.ebKey[0] === pp && this.ebKey[1] === h) return this.ebState;
-    const st = p.fluid.statePH(pp, h, this.env, p.V, p.z);
+    const st = p.fluid.family === 'water' ? movedWaterPH((this.ebScratch ??= scratchState(p.V, p.z)), p.fluid, this.env, pp, h) : p.fluid.statePH(pp, h, this.env, p.V, p.z);
     this.ebKey[0] = pp;
     this.ebKey[1] = h;
     return (this.ebState = st);
   }
+
+  private ebScratch: Mutable<PortState> | undefined;
   private xs: ArrayLike<number> | null = null;
 
   /** F, P, L in the order of the kind's terms; D as controlVolumeBalance sums it; efficiency. */

@@ -62,7 +62,7 @@ const kernels = new WeakMap<CompiledUnit, SweepKernel | null>();
 /** The sweep kernel of a compiled unit (./sweep-kernel.ts), kept with it; null when not covered. */
 function kernelOf(c: CompiledUnit): SweepKernel | null {
   let k = kernels.get(c);
-  if (k === undefined) kernels.set(c, (k = compileKernel(c.kind, c.model, c.names)));
+  if (k === undefined) kernels.set(c, (k = compileKernel(c.kind, c.model, c.names, c.fluids)));
   return k;
 }
 

@@ -557,6 +557,22 @@ function hs_pt(p_Pa: number, T_K: number, out: { h: number; s: number }): WaterP
   out.s = OUT[1];
   return phaseOf(r, p_Pa, T_K, OUT[2]);
 }
+/**
+ * T, h, s and the vapour fraction (null outside the two-phase region) at p [Pa], h [J/kg] into `out`
+ * without allocating (the figures of `ph`); returns the phase as `ph` gives it.
+ */
+function ths_ph(p_Pa: number, h_J_per_kg: number, out: { T: number; h: number; s: number; x: number | null }): WaterPhase {
+  const region = solvePY(p_Pa, h_J_per_kg, IDX_H, 'water.ph');
+  out.T = resT;
+  out.h = OUT[0];
+  out.s = OUT[1];
+  if (region === 4) {
+    out.x = resX;
+    return 'two-phase';
+  }
+  out.x = null;
+  return phaseOf(region, p_Pa, resT, OUT[2]);
+}
 /** Specific volume [m3/kg] at p [Pa], T [K] without allocating (as `pt`). */
 function v_pt(p_Pa: number, T_K: number): number {
   checkPT(p_Pa, T_K, 'water.v_pt');
@@ -596,5 +612,5 @@ function h_ps(p_Pa: number, s_J_per_kgK: number): number {
  */
 export const water = {
   pt, ph, ps, px, tx, psat, tsat, region3,
-  h_pt, s_pt, hs_pt, v_pt, cp_pt, T_ph, s_ph, T_ps, h_ps,
+  h_pt, s_pt, hs_pt, ths_ph, v_pt, cp_pt, T_ph, s_ph, T_ps, h_ps,
 } as const;
