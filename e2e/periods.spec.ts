@@ -57,9 +57,50 @@ test('trend and ledger open on the latest full period with data, and say that th
   await expect(page.getByTestId('freshness')).toBeVisible();
   await expect(page.getByTestId('ledger-table')).toContainText('sum over steady hours of April 2025');
 
-  // The unit's results page says it too.
+  // The unit's results page says it too, and so does the site's section of the unit list.
   await page.goto(`/units/${unitId}`);
   await expect(page.getByTestId('freshness')).toContainText('Latest data:');
+  await page.goto(`/units?site=${siteId}&from=2025-05-12&to=2025-05-18`);
+  await expect(page.locator(`section[data-site="${siteId}"]`).getByTestId('freshness')).toContainText('Latest data:');
+  await expect(page.getByTestId('days-chosen')).toContainText('2025-05-12 to 2025-05-18 (UTC)');
+});
+
+test('reports and the overview open on the latest full period with data, and say that the data is old', async ({ page }) => {
+  test.setTimeout(150_000);
+  const name = `E2E report periods site ${stamp()}`;
+  // Hours to Friday 9 May 2025 16:00 UTC: May holds 209 of its 744 hours (under half), April all 720.
+  const { siteId } = await turbineWithHours(name, 'Periods turbine', FIRST, 24 * 38 + 17);
+  await signIn(page, DEMO['energy-lead']);
+  const firstMonth = FIRST.slice(0, 7);
+
+  // Reports: the month they open on (the one linked as latest) must be at least half computed while an
+  // earlier full month has data: April 2025 (720 h computed), not the 9 days of May.
+  await page.goto(`/reports?site=${siteId}`);
+  const section = page.getByTestId(`reports-site-${name}`);
+  await expect(section.getByTestId('freshness')).toContainText(/Latest data: .* ago/);
+  const latest = section.getByTestId('report-latest');
+  const pdf = await latest.getByRole('link', { name: /^PDF report of / }).getAttribute('href');
+  const month = /\/reports\/(\d{4}-\d{2})\/report\.pdf$/.exec(pdf ?? '')?.[1];
+  expect(month, `the latest report's link: ${pdf}`).toBeDefined();
+  const cells = await section.getByTestId(`report-${month}`).locator('td.num').allTextContents();
+  const computed = cells.reduce((sum, c) => sum + Number(c.replace(/[^\d]/g, '')), 0);
+  const [y, m] = month!.split('-').map(Number) as [number, number];
+  const monthHours = new Date(Date.UTC(y, m, 0)).getUTCDate() * 24; // the site is in UTC: no clock change
+  if (firstMonth < month!) expect(computed, `report month ${month}: ${computed} of ${monthHours} hours computed`).toBeGreaterThanOrEqual(monthHours / 2);
+  expect(month).toBe('2025-04');
+  await expect(latest).toContainText('Latest full month with data: April 2025');
+  // Each download link is named with its site and month (not a row of bare "PDF" links).
+  await expect(latest.getByRole('link', { name: `CSV report of ${name}, April 2025` })).toHaveAttribute('href', `/api/sites/${siteId}/reports/2025-04/report.csv`);
+  await expect(section.getByTestId('report-2025-05').getByRole('link', { name: `PDF report of ${name}, May 2025` })).toBeVisible();
+
+  // The overview has no calendar period: its figures are the 24 hours up to the latest computed hour,
+  // so all 24 of them are computed, and it says how old they are.
+  await page.goto('/');
+  const site = page.getByTestId(`overview-site-${name}`);
+  await expect(site.getByTestId('freshness')).toContainText(/Latest data: .* ago/);
+  await expect(site).toContainText('The 24 hours to 2025-05-09 17:00 (UTC), up to the latest computed hour');
+  const steady = Number(await site.getByTestId('overview-unit-Periods turbine').locator('td.num').first().textContent());
+  expect(steady, `overview: ${steady} of 24 hours computed`).toBeGreaterThanOrEqual(12);
 });
 
 test('every page for a signed-in admin transfers under 300 KB', async ({ page }) => {

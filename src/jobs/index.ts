@@ -16,7 +16,7 @@ export const QUEUES = {
   sendMail: 'send-mail',
   /** Idle and limit rules of units over an hour range (also run by every drift check); sent when a rule changes. */
   checkUnitRules: 'check-unit-rules',
-  /** Scheduled daily: one digest of drift notices not yet closed to each person who opted in. */
+  /** Scheduled hourly: one digest a day of drift notices not yet closed to each person who opted in, at 06:00 in the zone of their first site. */
   noticeDigest: 'notice-digest',
   /** Scheduled daily: month partitions ahead, each site's retention (src/server/db/partitions.ts). */
   partitionUpkeep: 'partition-upkeep',
@@ -51,7 +51,7 @@ export const CheckDriftPayload = z.object({
 });
 /** Same shape as the drift check's: the hours [fromMs, toMs) of a site, or of the listed units. */
 export const CheckUnitRulesPayload = CheckDriftPayload;
-/** The scheduled digest run; `day` (yyyy-MM-dd, UTC) only when sent by hand: the run then stands at 12:00 UTC of it, and the mail names each site's own day at that instant. */
+/** The scheduled digest run; `day` (yyyy-MM-dd, UTC) only when sent by hand: the run then stands at 12:00 UTC of it, mails everyone not yet mailed for their own day at that instant whatever their hour, and the mail names each site's own day. */
 export const NoticeDigestPayload = z.object({ day: z.string().regex(/^\d{4}-\d{2}-\d{2}$/).optional() });
 export const SendMailPayload = z.object({
   to: z.string().email(),

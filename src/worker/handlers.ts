@@ -5,6 +5,7 @@ import { checkDrift } from '../server/services/drift';
 import { computeUnitMonth, fanOutCompute, settleCompute } from '../server/services/engine-jobs';
 import { partitionUpkeep } from '../server/db/partitions';
 import { sendNoticeDigests } from '../server/services/notices';
+import { DIGEST_CRON } from '../lib/digest-time';
 import { ingestUpload } from '../server/services/ingest';
 
 
@@ -35,9 +36,10 @@ export async function registerHandlers(boss: PgBoss): Promise<{ ingestWorker: st
   await boss.work(QUEUES.checkUnitRules, { pollingIntervalSeconds: 1, batchSize: 1 }, async ([job]) => runUnitRules(job!.data));
   await boss.work(QUEUES.noticeDigest, { pollingIntervalSeconds: 5, batchSize: 1 }, async ([job]) => {
     const { day } = NoticeDigestPayload.parse(job!.data ?? {});
-    await sendNoticeDigests(day ? new Date(`${day}T12:00:00Z`) : new Date());
+    // Scheduled: every hour, each person's digest at 06:00 of their first site's zone; by hand: everyone now.
+    await sendNoticeDigests(day ? new Date(`${day}T12:00:00Z`) : new Date(), { anyHour: !!day });
   });
-  await boss.schedule(QUEUES.noticeDigest, '0 6 * * *', {}, { tz: 'UTC' });
+  await boss.schedule(QUEUES.noticeDigest, DIGEST_CRON, {}, { tz: 'UTC' });
   // --- storage: month partitions ahead and retention ---
   await boss.work(QUEUES.partitionUpkeep, { pollingIntervalSeconds: 30, batchSize: 1 }, async () => {
     const out = await partitionUpkeep();

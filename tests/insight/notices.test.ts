@@ -1,10 +1,11 @@
 import { randomInt, randomUUID } from 'node:crypto';
-import { eq, sql } from 'drizzle-orm';
+import { asc, eq, sql } from 'drizzle-orm';
 import { beforeAll, expect, it } from 'vitest';
 import { QUEUES, SendMailPayload } from '~/jobs';
 import { SAFETY_CAUTION } from '~/lib/caution';
 import { db } from '~/server/db/client';
-import { driftNotices, noticeDigests, noticeMails, personSites, unitHours, user } from '~/server/db/schema';
+import { driftNotices, noticeDigests, noticeMails, personSites, sites, unitHours, user } from '~/server/db/schema';
+import { siteWallTime } from '~/lib/site-time';
 import { sendMail } from '~/server/mail';
 import { queue } from '~/server/queue';
 import { acceptBaseline, fitDraft } from '~/server/services/baselines';
@@ -15,6 +16,7 @@ import {
   getNotice,
   listNotices,
   noticeDetail,
+  noticePreferencesFor,
   sendNoticeDigests,
   setNoticePreferences,
 } from '~/server/services/notices';
@@ -131,17 +133,23 @@ describeIntegration('drift notices: figures, seen and closed, the daily digest',
     expect((await listNotices({ status: 'not-closed' })).some((n) => n.id === u.noticeId)).toBe(false);
   });
 
-  it('the daily digest goes once a day to those who opted in, listing the notices not closed, with the caution', async () => {
+  it('the daily digest goes once a day, at 06:00 in the zone of the first site, to those who opted in, listing the notices not closed, with the caution', async () => {
     const u = await unitWithNotice('digest');
     await setNoticePreferences(plannerId, { dailyDigest: true });
     await setNoticePreferences(leadId, { dailyDigest: false });
+    // The demo planner is on every site: the zone of the first site by name is theirs.
+    const prefs = await noticePreferencesFor(plannerId);
+    const [firstSite] = await db().select({ name: sites.name, timeZone: sites.timeZone }).from(sites).orderBy(asc(sites.name)).limit(1);
+    expect(prefs.timeZone).toBe(firstSite!.timeZone);
+    expect(prefs.sendsAt).toContain(`06:00 ${firstSite!.timeZone} time (the zone of ${firstSite!.name}`);
     // An invented day far ahead, so repeated local runs do not meet an earlier digest's marker.
-    const day = new Date(Date.UTC(2300, 0, 1) + randomInt(0, 300_000) * 86_400_000);
-    const dayText = day.toISOString().slice(0, 10);
-    const first = await sendNoticeDigests(day);
+    const dayText = new Date(Date.UTC(2300, 0, 1) + randomInt(0, 300_000) * 86_400_000).toISOString().slice(0, 10);
+    const six = siteWallTime(`${dayText}T06:00`, firstSite!.timeZone)!;
+    expect(await sendNoticeDigests(new Date(six - HOUR))).not.toContain('planner@demo.lossline.test');
+    const first = await sendNoticeDigests(new Date(six));
     expect(first).toContain('planner@demo.lossline.test');
     expect(first).not.toContain('lead@demo.lossline.test');
-    expect(await sendNoticeDigests(new Date(day.getTime() + 3 * HOUR))).toEqual([]);
+    expect(await sendNoticeDigests(new Date(six + 3 * HOUR))).toEqual([]);
     const marks = await db().select().from(noticeDigests).where(eq(noticeDigests.day, dayText));
     expect(marks.map((m) => m.userId)).toEqual([plannerId]);
 
@@ -150,35 +158,66 @@ describeIntegration('drift notices: figures, seen and closed, the daily digest',
     expect(mail.text).toContain(`/notices/${u.noticeId}`);
     expect(mail.text).toContain('not an alarm');
     await new Promise((r) => setTimeout(r, 1500));
-    expect((await caughtMail()).filter((m) => m.subject.includes(dayText))).toHaveLength(1);
+    expect((await caughtMail()).filter((m) => m.to.includes('planner@demo.lossline.test') && m.subject.includes(dayText))).toHaveLength(1);
     await setNoticePreferences(plannerId, { dailyDigest: false });
 
     const open = await db().select({ n: sql<number>`count(*)::int` }).from(driftNotices).where(sql`${driftNotices.status} <> 'closed'`);
     expect(mail.subject).toContain(`${open[0]!.n} drift notice`);
   });
 
-  it("the digest of a site far west of UTC is dated by the site's day, not the UTC day of the run", async () => {
+  /** A planner narrowed to one site (its zone is theirs), opted in to the digest; removed by the returned function. */
+  async function narrowedPlanner(siteId: string, label: string) {
+    const id = `${label}-${randomUUID()}`;
+    const email = `${id}@example.test`;
+    await db().insert(user).values({ id, name: `Planner ${label}`, email, role: 'planner', allSites: false });
+    await db().insert(personSites).values({ userId: id, siteId });
+    await setNoticePreferences(id, { dailyDigest: true });
+    return { id, email, remove: () => db().delete(user).where(eq(user.id, id)) };
+  }
+
+  it("a planner of a site in Honolulu gets the digest at 06:00 there, dated by that day, not at 20:00 the evening before", async () => {
     const u = await unitWithNotice('honolulu', 4000, 'Pacific/Honolulu');
-    // A planner narrowed to that site, so the digest lists its notice alone.
-    const narrowId = `hnl-${randomUUID()}`;
-    const email = `${narrowId}@example.test`;
-    await db().insert(user).values({ id: narrowId, name: 'Island planner', email, role: 'planner', allSites: false });
-    await db().insert(personSites).values({ userId: narrowId, siteId: u.siteId });
+    const p = await narrowedPlanner(u.siteId, 'hnl');
     try {
-      await setNoticePreferences(narrowId, { dailyDigest: true });
-      // The run at 06:00 UTC of an invented far day (fresh marker each run): in Pacific/Honolulu
-      // (UTC-10, no summer time; IANA tz database) it is 20:00 of the day before.
+      expect((await noticePreferencesFor(p.id)).sendsAt).toContain('06:00 Pacific/Honolulu time');
+      // Pacific/Honolulu is UTC-10 with no summer time (IANA tz database): 06:00 UTC is 20:00 the day
+      // before there, 16:00 UTC is 06:00. An invented far day keeps each run's marker fresh.
       const runDay = Date.UTC(2300, 0, 1) + randomInt(0, 300_000) * 86_400_000;
-      const utcDay = new Date(runDay).toISOString().slice(0, 10);
-      const siteDay = new Date(runDay - 86_400_000).toISOString().slice(0, 10);
-      expect(await sendNoticeDigests(new Date(runDay + 6 * HOUR))).toContain(email);
-      const mail = await waitForMail(email, siteDay);
-      expect(mail.subject).toContain(`(${siteDay} (Pacific/Honolulu))`);
-      expect(mail.subject).not.toContain(utcDay);
-      expect(mail.text).toContain(`not yet closed on ${siteDay} (Pacific/Honolulu):`);
+      const day = new Date(runDay).toISOString().slice(0, 10);
+      expect(await sendNoticeDigests(new Date(runDay + 6 * HOUR))).not.toContain(p.email);
+      expect(await sendNoticeDigests(new Date(runDay + 16 * HOUR))).toContain(p.email);
+      const mail = await waitForMail(p.email, day);
+      expect(mail.subject).toContain(`(${day} (Pacific/Honolulu))`);
+      expect(mail.text).toContain(`not yet closed on ${day} (Pacific/Honolulu):`);
       expect(mail.text).toContain(u.unitName);
     } finally {
-      await db().delete(user).where(eq(user.id, narrowId));
+      await p.remove();
+    }
+  });
+
+  it('run every hour across both clock changes in New York, a planner there gets one digest each local day, at 06:00 local', async () => {
+    const u = await unitWithNotice('new-york', 4000, 'America/New_York');
+    const p = await narrowedPlanner(u.siteId, 'nyc');
+    try {
+      // 2031 (IANA tz database rules): 9 March 02:00 EST -> 03:00 EDT (a 23-hour day), 2 November
+      // 02:00 EDT -> 01:00 EST (a 25-hour day). Every hour on the hour, as the job is scheduled.
+      for (const [day, hours, sixUtc] of [
+        ['2031-03-09', 23, '2031-03-09T10:00:00Z'],
+        ['2031-11-02', 25, '2031-11-02T11:00:00Z'],
+      ] as const) {
+        const start = siteWallTime(`${day}T00:00`, 'America/New_York')!;
+        const sentAt: string[] = [];
+        for (let h = 0; h < hours; h++) {
+          if ((await sendNoticeDigests(new Date(start + h * HOUR))).includes(p.email)) sentAt.push(new Date(start + h * HOUR).toISOString());
+        }
+        expect(sentAt, day).toEqual([new Date(sixUtc).toISOString()]);
+        await waitForMail(p.email, `(${day} (America/New_York))`);
+      }
+      await new Promise((r) => setTimeout(r, 1500));
+      const theirs = (await caughtMail()).filter((m) => m.to.includes(p.email));
+      expect(theirs.map((m) => m.subject.match(/\((\d{4}-\d{2}-\d{2}) \(America\/New_York\)\)/)?.[1]).sort()).toEqual(['2031-03-09', '2031-11-02']);
+    } finally {
+      await p.remove();
     }
   });
 
@@ -194,7 +233,7 @@ describeIntegration('drift notices: figures, seen and closed, the daily digest',
       expect(mailed.map((m) => m.userId)).toContain(plannerId);
       expect(mailed.map((m) => m.userId)).not.toContain(narrowId);
       await setNoticePreferences(narrowId, { dailyDigest: true });
-      const sent = await sendNoticeDigests(new Date(Date.UTC(2031, 0, 2)));
+      const sent = await sendNoticeDigests(new Date(Date.UTC(2031, 0, 2, 6))); // 06:00 on the other site (UTC): their digest is due
       // Nothing is open on the narrowed planner's own site: no digest for them.
       expect(sent).not.toContain(`${narrowId}@example.test`);
     } finally {

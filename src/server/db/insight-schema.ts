@@ -246,7 +246,7 @@ export const noticePreferences = pgTable('notice_preferences', {
   updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
 });
 
-/** One digest per person and day (UTC), whatever the number of scheduled runs. */
+/** One digest per person and local day (in the zone of their first site, src/lib/digest-time.ts), whatever the number of runs. */
 export const noticeDigests = pgTable(
   'notice_digests',
   {

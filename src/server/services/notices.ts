@@ -12,7 +12,8 @@ import { z } from 'zod';
 import { QUEUES, sendJob, type SendMailPayload } from '~/jobs';
 type MailJob = z.infer<typeof SendMailPayload>;
 import { unitFuelCost } from '~/lib/engine/unit-cost';
-import { siteDayStart } from '~/lib/site-time';
+import { siteDay, siteDayStart } from '~/lib/site-time';
+import { digestDayDue, digestTimeWords, digestZoneOf } from '~/lib/digest-time';
 import { DAY_MS, hourCeil, hourFloor } from '~/lib/time';
 import type { UnitKind } from '~/lib/kinds';
 import type { Role } from '~/lib/roles';
@@ -288,9 +289,22 @@ export async function mailNoticeOpened(noticeId: string): Promise<string[]> {
 
 export const PreferencesInput = z.strictObject({ dailyDigest: z.boolean() });
 
+/** The sites a person may use, in the site list's order (by name), with their zones. */
+async function sitesOfPerson(p: { id: string; role: string; allSites: boolean }, all?: { id: string; name: string; timeZone: string }[]) {
+  const list = all ?? (await db().select({ id: sites.id, name: sites.name, timeZone: sites.timeZone }).from(sites).orderBy(asc(sites.name)));
+  const scope = await siteScopeFor({ ...p, role: p.role as Role });
+  return { scope, mine: scope === 'all' ? list : list.filter((s) => scope.includes(s.id)) };
+}
+
+/**
+ * The person's notice settings, and when their digest arrives in words (`sendsAt`): 06:00 in the zone
+ * of their first site (src/lib/digest-time.ts).
+ */
 export async function noticePreferencesFor(userId: string) {
   const [p] = await db().select().from(noticePreferences).where(eq(noticePreferences.userId, userId));
-  return { dailyDigest: p?.dailyDigest ?? false };
+  const [person] = await db().select({ id: user.id, role: user.role, allSites: user.allSites }).from(user).where(eq(user.id, userId));
+  const zone = person ? digestZoneOf((await sitesOfPerson(person)).mine) : null;
+  return { dailyDigest: p?.dailyDigest ?? false, timeZone: zone?.timeZone ?? null, sendsAt: digestTimeWords(zone) };
 }
 
 export async function setNoticePreferences(userId: string, input: z.infer<typeof PreferencesInput>) {
@@ -302,16 +316,18 @@ export async function setNoticePreferences(userId: string, input: z.infer<typeof
 }
 
 /**
- * The daily digest (job "notice-digest"): to each active person who opted in, one mail a day listing
- * the notices not yet closed, dated by each listed site's own day in its zone at the run (the
- * notice_digests row, keyed by the run's UTC day, makes a second run the same day send nothing).
- * Nobody is mailed when nothing is open.
+ * The daily digest (job "notice-digest", run every hour): to each active person who opted in, one
+ * mail per local day listing the notices not yet closed on their sites, sent in the first run from
+ * 06:00 in the zone of their first site (src/lib/digest-time.ts: until noon, so a missed run is made
+ * up the same morning). The notice_digests row, keyed by that local day, makes every later run of the
+ * day send nothing. Nobody is mailed when nothing is open.
+ * @param anyHour a run by hand: send to everyone not yet mailed for their local day at `now`, whatever the hour
  * @returns the addresses queued
  */
-export async function sendNoticeDigests(now = new Date()): Promise<string[]> {
+export async function sendNoticeDigests(now = new Date(), { anyHour = false } = {}): Promise<string[]> {
   const open = await withDisplay(await listNotices({ status: 'not-closed' }));
   if (!open.length) return [];
-  const day = now.toISOString().slice(0, 10); // the marker's key only; the mail names each site's day
+  const siteList = await db().select({ id: sites.id, name: sites.name, timeZone: sites.timeZone }).from(sites).orderBy(asc(sites.name));
   const people = await db()
     .select({ id: user.id, email: user.email, role: user.role, allSites: user.allSites })
     .from(noticePreferences)
@@ -319,8 +335,11 @@ export async function sendNoticeDigests(now = new Date()): Promise<string[]> {
     .where(and(eq(noticePreferences.dailyDigest, true), eq(user.deactivated, false), inArray(user.role, [...NOTICE_ACTORS])));
   const sent: string[] = [];
   for (const p of people) {
-    // Each person hears only of the sites they may use (src/server/access.ts).
-    const scope = await siteScopeFor({ ...p, role: p.role as Role });
+    // Each person hears only of the sites they may use (src/server/access.ts), at 06:00 of their first one.
+    const { scope, mine } = await sitesOfPerson(p, siteList);
+    const zone = digestZoneOf(mine);
+    const day = zone && (anyHour ? siteDay(now, zone.timeZone) : digestDayDue(zone.timeZone, now));
+    if (!day) continue;
     const theirs = scope === 'all' ? open : open.filter((n) => scope.includes(n.siteId));
     if (!theirs.length) continue;
     const queued = await inInsightTx(async (tx, exec) => {
