@@ -271,38 +271,19 @@ interface MixtureParts {
 function mixtureOf({ x, w, M, molar, perKg, sumXlnX }: MixtureParts): GasMixture {
   const Rs = R_J_per_molK / M;
   const ctx = 'ideal-gas mixture';
-
+  const kg = polynomialProperties(perKg, Rs, sumXlnX, ctx);
+  const mol = polynomialProperties(molar, R_J_per_molK, sumXlnX, ctx);
   const mix: GasMixture = {
     moleFractions: Object.freeze(x),
     massFractions: Object.freeze(w),
     M_kg_per_mol: M,
     R_J_per_kgK: Rs,
-    cp(T_K) {
-      checkT(T_K, ctx);
-      return evalCp(pick(perKg, T_K), T_K);
-    },
-    h(T_K) {
-      checkT(T_K, ctx);
-      return evalH(pick(perKg, T_K), T_K);
-    },
-    s(T_K, p_Pa) {
-      checkT(T_K, ctx);
-      checkP(p_Pa, ctx);
-      return evalS(pick(perKg, T_K), T_K) - Rs * (Math.log(p_Pa / P_REF_Pa) + sumXlnX);
-    },
-    cpMolar(T_K) {
-      checkT(T_K, ctx);
-      return evalCp(pick(molar, T_K), T_K);
-    },
-    hMolar(T_K) {
-      checkT(T_K, ctx);
-      return evalH(pick(molar, T_K), T_K);
-    },
-    sMolar(T_K, p_Pa) {
-      checkT(T_K, ctx);
-      checkP(p_Pa, ctx);
-      return evalS(pick(molar, T_K), T_K) - R_J_per_molK * (Math.log(p_Pa / P_REF_Pa) + sumXlnX);
-    },
+    cp: kg.cp,
+    h: kg.h,
+    s: kg.s,
+    cpMolar: mol.cp,
+    hMolar: mol.h,
+    sMolar: mol.s,
     T_h(h_J_per_kg) {
       const hLo = mix.h(T_MIN_K);
       const hHi = mix.h(T_MAX_K);
@@ -324,6 +305,27 @@ function mixtureOf({ x, w, M, molar, perKg, sumXlnX }: MixtureParts): GasMixture
   return Object.freeze(mix);
 }
 
+/**
+ * cp, h and s of a mixture from one precombined polynomial: per kg with the specific gas constant,
+ * per mol with R; s includes the pressure and mixing terms, R (ln(p / p_ref) + sum x_i ln x_i).
+ */
+function polynomialProperties(poly: ScaledPolynomial, R: number, sumXlnX: number, ctx: string) {
+  return {
+    cp(T_K: number): number {
+      checkT(T_K, ctx);
+      return evalCp(pick(poly, T_K), T_K);
+    },
+    h(T_K: number): number {
+      checkT(T_K, ctx);
+      return evalH(pick(poly, T_K), T_K);
+    },
+    s(T_K: number, p_Pa: number): number {
+      checkT(T_K, ctx);
+      checkP(p_Pa, ctx);
+      return evalS(pick(poly, T_K), T_K) - R * (Math.log(p_Pa / P_REF_Pa) + sumXlnX);
+    },
+  };
+}
 
 /**
  * Standard dry air: the NASA thermo.inp 'Air' composition (Gordon 1982), mole fractions
