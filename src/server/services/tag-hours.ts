@@ -5,7 +5,7 @@ import { TAG_HOUR_FLAGS, tagHourFlagNames, tagHourUploads, tagHours, tags, uploa
 import type { TagHour as EngineTagHour } from '~/lib/engine/types';
 import { ensureMonthPartitions } from '../db/partitions';
 import { replacedByExcluded } from '../db/upsert';
-import { DAY_MS } from '~/lib/time';
+import { DAY_MS, HOUR_S } from '~/lib/time';
 
 /** Longest range one request may ask for: 400 days of hours. */
 export const MAX_RANGE_MS = 400 * DAY_MS;
@@ -53,7 +53,7 @@ export async function tagHoursOf(siteId: string, tagName: string, from: Date, to
       first: r.first,
       last: r.last,
       samples: r.samples,
-      coveredFraction: r.coveredSeconds / 3600,
+      coveredFraction: r.coveredSeconds / HOUR_S,
       nonNumeric: r.nonNumeric,
       outOfRange: r.outOfRange,
       flatline: tagHourFlagNames(r.flags).includes('flatline'),
@@ -92,7 +92,7 @@ export async function writeTagHours(rows: readonly TagHourWrite[]): Promise<void
     first: r.first ?? null,
     last: r.last ?? null,
     samples: r.samples,
-    coveredSeconds: Math.round(r.coveredFraction * 3600),
+    coveredSeconds: Math.round(r.coveredFraction * HOUR_S),
     nonNumeric: Math.min(32767, r.nonNumeric ?? 0),
     outOfRange: Math.min(32767, r.outOfRange ?? 0),
     flags: r.flatline ? TAG_HOUR_FLAGS.flatline : 0,
