@@ -9,6 +9,9 @@ export type HourState = (typeof HOUR_STATES)[number];
 export const CONTEXT_STATES = ['unsettled', 'idle', 'suspect'] as const satisfies readonly HourState[];
 export type ContextState = (typeof CONTEXT_STATES)[number];
 
+/** How severe a state is, for ordering an hour's reasons most severe first: suspect, idle, unsettled, steady. */
+export const STATE_SEVERITY: Readonly<Record<HourState, number>> = { suspect: 3, idle: 2, unsettled: 1, steady: 0 };
+
 /** Hours of each state. */
 export type StateCounts = Record<HourState, number>;
 

@@ -7,6 +7,7 @@
  */
 import { TZDate } from '@date-fns/tz';
 import { format } from 'date-fns';
+import type { Weekday } from './plant/idle';
 
 export type Instant = number | string | Date;
 
@@ -54,4 +55,23 @@ export function siteMidnight(t: Instant, timeZone: string): number {
 /** Now as a wall time on site, for a datetime-local input. */
 export function siteNowWall(timeZone: string, nowMs = Date.now()): string {
   return siteStamp(nowMs, timeZone, "yyyy-MM-dd'T'HH:mm");
+}
+
+const formats = new Map<string, Intl.DateTimeFormat>();
+const SHORT_DAYS: Record<string, Weekday> = { Mon: 'mon', Tue: 'tue', Wed: 'wed', Thu: 'thu', Fri: 'fri', Sat: 'sat', Sun: 'sun' };
+
+/** Day of the week and hour (0-23) of an instant in a time zone. */
+export function localDayHour(ms: number, timeZone: string): { day: Weekday; hour: number } {
+  let f = formats.get(timeZone);
+  if (!f) {
+    f = new Intl.DateTimeFormat('en-GB', { timeZone, weekday: 'short', hour: '2-digit', hourCycle: 'h23' });
+    formats.set(timeZone, f);
+  }
+  let day: Weekday = 'mon';
+  let hour = 0;
+  for (const p of f.formatToParts(new Date(ms))) {
+    if (p.type === 'weekday') day = SHORT_DAYS[p.value] ?? 'mon';
+    if (p.type === 'hour') hour = Number(p.value) % 24;
+  }
+  return { day, hour };
 }

@@ -19,6 +19,7 @@
 import { LRUCache } from 'lru-cache';
 import pg from 'pg';
 import { env } from './env';
+import { MINUTE_MS } from '~/lib/time';
 
 export const HOURS_CHANNEL = 'lossline_hours_changed';
 /**
@@ -28,7 +29,7 @@ export const HOURS_CHANNEL = 'lossline_hours_changed';
  */
 export const ACCESS_CHANNEL = 'lossline_access_changed';
 /** Longest an entry of the sign-in cache is kept, whatever happens (a backstop; changes empty it at once). */
-export const ACCESS_MAX_AGE_MS = 60_000;
+export const ACCESS_MAX_AGE_MS = MINUTE_MS;
 
 /** Entries kept: a few per site (its span, the overview's sums) and per unit (its span). */
 const MAX_ENTRIES = 2000;

@@ -12,11 +12,11 @@
  *   unrounded values, self-consistency checked in tests/analytics/chart-thin.test.ts).
  */
 import type { ChartPoint } from './notice-figures';
+import { MINUTE_MS } from '../time';
 
 /** At most this many points reach a notice's chart (a plot about 1,000 px wide draws no more). */
 export const CHART_MAX_POINTS = 500;
 
-const MINUTE_MS = 60_000;
 
 /** A chart's points as columns, in the units and to the decimals the chart shows. */
 export interface ChartColumns {

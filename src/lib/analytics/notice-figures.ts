@@ -23,6 +23,7 @@
  * - Faded: see fadedAt. Clearly larger: see clearlyLarger. Repair verdict: see repairVerdict.
  */
 import { DAY_S, HOUR_MS } from '../time';
+import type { NoticeTrend } from '../notice-view';
 
 /** Steady hours of the current figure (the last day of steady operation); common practice. */
 export const CURRENT_WINDOW_HOURS = 24;
@@ -43,7 +44,7 @@ export const LARGER_MARGIN = 1.5;
 export const DAYS_PER_MONTH = 365.25 / 12;
 
 export type Direction = 'up' | 'down';
-export type Trend = 'growing' | 'steady' | 'receding';
+export type Trend = NoticeTrend;
 
 /** One steady hour as the drift check saved it. */
 export interface ResidualHour {

@@ -30,7 +30,7 @@
  * they are configurable per unit and per tag. Performance test codes (ASME PTC 19.1 and the PTC of
  * each equipment type) are the place to take site-specific limits from.
  */
-import type { HourState } from '../hour-states';
+import { STATE_SEVERITY, type HourState } from '../hour-states';
 
 /** Hourly statistics of one tag (field names as produced by the ingest's tag-hour aggregation). */
 export interface TagHourStats {
@@ -176,8 +176,6 @@ export interface HourClassification {
   reasons: HourReason[];
 }
 
-const RANK: Record<HourState, number> = { suspect: 3, idle: 2, unsettled: 1, steady: 0 };
-
 /**
  * Classifies one hour of one unit.
  *
@@ -204,7 +202,7 @@ export function classifyHour(
   reasons.push(...loadReasons(input.tags[limits.loadTag], sound, limits));
   for (const tag of keyTags) if (sound.has(tag)) reasons.push(...spreadReasons(tag, input.tags[tag]!, limits, lim));
 
-  reasons.sort((a, b) => RANK[b.state] - RANK[a.state]);
+  reasons.sort((a, b) => STATE_SEVERITY[b.state] - STATE_SEVERITY[a.state]);
   const state: HourState = reasons.length > 0 ? reasons[0].state : 'steady';
   return { state, reasons };
 }

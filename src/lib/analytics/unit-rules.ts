@@ -14,6 +14,9 @@
  */
 import type { HourState } from '../hour-states';
 import type { NormallyIdle, Weekday } from '../plant/idle';
+import { localDayHour } from '../site-time';
+
+export { localDayHour };
 import { DEFAULT_RULE_HOURS, WEEKDAYS } from '../plant/idle';
 import { HOUR_MS } from '../time';
 
@@ -60,26 +63,7 @@ export interface RuleRun {
   crossed: CrossedLimit[];
 }
 
-// ---- the site's clock ------------------------------------------------------------------------------
-
-const formats = new Map<string, Intl.DateTimeFormat>();
-const SHORT_DAYS: Record<string, Weekday> = { Mon: 'mon', Tue: 'tue', Wed: 'wed', Thu: 'thu', Fri: 'fri', Sat: 'sat', Sun: 'sun' };
-
-/** Day of the week and hour (0-23) of an instant in a time zone. */
-export function localDayHour(ms: number, timeZone: string): { day: Weekday; hour: number } {
-  let f = formats.get(timeZone);
-  if (!f) {
-    f = new Intl.DateTimeFormat('en-GB', { timeZone, weekday: 'short', hour: '2-digit', hourCycle: 'h23' });
-    formats.set(timeZone, f);
-  }
-  let day: Weekday = 'mon';
-  let hour = 0;
-  for (const p of f.formatToParts(new Date(ms))) {
-    if (p.type === 'weekday') day = SHORT_DAYS[p.value] ?? 'mon';
-    if (p.type === 'hour') hour = Number(p.value) % 24;
-  }
-  return { day, hour };
-}
+// ---- the site's clock (localDayHour lives in src/lib/site-time.ts) -------------------------------
 
 const clockHour = (hhmm: string) => Number(hhmm.slice(0, 2));
 const previousDay = (d: Weekday): Weekday => WEEKDAYS[(WEEKDAYS.indexOf(d) + 6) % 7]!;

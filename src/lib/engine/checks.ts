@@ -11,6 +11,7 @@ import type { LinkSet } from './linkset';
 import { sharedModel } from './linkset';
 import type { InputEntry, MappedUnit } from './map';
 import type { EngineHourState, EngineReason, EngineUnit } from './types';
+import { STATE_SEVERITY } from '../hour-states';
 
 /** The dead state of the hour and where it came from. */
 export interface DeadState {
@@ -174,8 +175,6 @@ export function checkBalance(run: BalanceRun, mapped: MappedUnit | null, params:
   return out;
 }
 
-const RANK: Record<EngineHourState, number> = { suspect: 3, idle: 2, unsettled: 1, steady: 0 };
-
 /** The hour's load as the steady-state test sees it (one exact figure, never spread or missing samples). */
 export function loadStats(load: number): TagHourStats {
   return { mean: Number.isFinite(load) ? load : null, stdDev: null, sampleCount: 1e9, coveredFraction: 1, flatline: false, outOfRangeCount: 0, nonNumericCount: 0 };
@@ -221,7 +220,7 @@ export function hourState(s: StateInputs): { state: EngineHourState; reasons: En
     if (idleCandidate) s.notes.push(`${c.code}: ${c.message}`);
     else reasons.push({ ...c, state: 'suspect' });
   }
-  reasons.sort((a, b) => RANK[b.state] - RANK[a.state]);
+  reasons.sort((a, b) => STATE_SEVERITY[b.state] - STATE_SEVERITY[a.state]);
   const state: EngineHourState = reasons.length ? reasons[0]!.state : 'steady';
   return { state, reasons: reasons.map(({ state: _s, ...r }) => r) };
 }

@@ -3,6 +3,10 @@
  * aggregator's options and interface, and one tag hour.
  */
 import type { SampleSink } from './reader-types';
+import { HOUR_S } from '../time';
+
+/** The frozen-value (flatline) limit of a tag with none of its own [s]: 4 h. Common practice (docs/domain.md section 6). */
+export const DEFAULT_FLATLINE_LIMIT_s = 4 * HOUR_S;
 
 export interface TagOptions {
   kind: 'analog' | 'status';

@@ -28,13 +28,11 @@
  * signal: no segment is drawn across them. Blank cells are no samples at all.
  */
 import { CellStatus } from './reader-types';
-import type { HourAggregator, HourAggregatorOptions, TagHour } from './aggregate-types';
+import { DEFAULT_FLATLINE_LIMIT_s, type HourAggregator, type HourAggregatorOptions, type TagHour } from './aggregate-types';
 import { HourClock, MS_PER_HOUR } from './time';
 import { IngestError } from './errors';
 
 export type { TagOptions, HourAggregatorOptions, TagHour, HourAggregator } from './aggregate-types';
-
-const DEFAULT_FLATLINE_S = 4 * 3600;
 
 // status of the pending sample (reader statuses plus one of our own)
 const S_OK = CellStatus.Ok;
@@ -173,7 +171,7 @@ class Aggregator implements HourAggregator {
     const b = k * W;
     S.fill(NaN, b, b + W);
     S[b + IS_STATUS] = o.kind === 'status' ? 1 : 0;
-    S[b + FLAT_MS] = (o.flatlineLimitSeconds ?? DEFAULT_FLATLINE_S) * 1000;
+    S[b + FLAT_MS] = (o.flatlineLimitSeconds ?? DEFAULT_FLATLINE_LIMIT_s) * 1000;
     S[b + V_MIN] = o.validMin ?? -Infinity;
     S[b + V_MAX] = o.validMax ?? Infinity;
     S[b + GAP_MS] = g * 1000;

@@ -16,6 +16,7 @@ import type { TagHour, TagOptions } from './aggregate';
 import { CellStatus } from './reader';
 import type { SampleSink } from './reader';
 import { classifyQuality, QualityClass } from './quality';
+import { HOUR_MS } from '../time';
 
 /** One stored sample. value null = not a number (raw holds the text) or blank (no raw); a bad
  *  quality makes the sample rejected whatever its value. */
@@ -230,7 +231,7 @@ export function mergeHours(
   for (const h of hours) {
     const lists = byTag.get(h.tag) ?? [];
     const prio = priorities.get(h.tag) ?? [];
-    const end = h.hourStartMs + 3_600_000;
+    const end = h.hourStartMs + HOUR_MS;
     contributors.set(
       tagHourKey(h.tag, h.hourStartMs),
       prio.filter((_, i) => lists[i]!.some((s) => s.timeMs >= h.hourStartMs && s.timeMs < end)),

@@ -9,6 +9,7 @@ import { parseNumberAt } from './numbers';
 import type { LayoutProfile } from './profile';
 import { dayFromScan, daysFromCivil, daysInMonth, LocalClock, newScan, scanDateTime, scanTimeOnly, timeOfDayMs, wallMsFromScan, wallMsFromSerial } from './time';
 import type { DateOrder } from './time';
+import { DAY_MS, HOUR_MS, MINUTE_MS } from '../time';
 
 let fastIsoOffset = NaN;
 
@@ -57,7 +58,7 @@ function fastIsoWallMs(text: string, s: number, e: number): number {
   }
   const year = y1 * 100 + y2;
   if (d > 28 && d > daysInMonth(year, mo)) return NaN;
-  return daysFromCivil(year, mo, d) * 86_400_000 + h * 3_600_000 + mi * 60_000 + sec * 1000 + ms;
+  return daysFromCivil(year, mo, d) * DAY_MS + h * HOUR_MS + mi * MINUTE_MS + sec * 1000 + ms;
 }
 
 /**
@@ -87,14 +88,14 @@ export function createTimeStep(p: LayoutProfile, clock: LocalClock): (rec: CsvRe
       if (scan.hasTime || !scanTimeOnly(t1, 0, t1.length, scan2)) return NaN;
       const day = dayFromScan(scan, order);
       const tod = timeOfDayMs(scan2);
-      wall = day * 86_400_000 + tod;
+      wall = day * DAY_MS + tod;
       offset = scan2.offsetMinutes;
     } else {
       wall = wallMsFromScan(scan, order);
     }
     if (wall !== wall) return NaN;
     if (offset === offset) {
-      const utc = wall - offset * 60_000;
+      const utc = wall - offset * MINUTE_MS;
       clock.noteAbsolute(utc);
       return utc;
     }
@@ -111,7 +112,7 @@ export function createTimeStep(p: LayoutProfile, clock: LocalClock): (rec: CsvRe
         if (wall === wall) {
           const offset = fastIsoOffset;
           if (offset === offset) {
-            const utc = wall - offset * 60_000;
+            const utc = wall - offset * MINUTE_MS;
             clock.noteAbsolute(utc);
             return utc;
           }

@@ -8,12 +8,14 @@
 import { z } from 'zod';
 import { jsonPath } from '~/lib/zod-words';
 import type { ModelIssue } from './model-issue';
+import { DEFAULT_FLATLINE_LIMIT_s } from '../ingest/aggregate-types';
+import { DAY_S } from '../time';
 
-/** The frozen-value limit of a tag not listed [s]: 4 h. Common practice (docs/domain.md section 6). */
-export const DEFAULT_FROZEN_LIMIT_s = 4 * 3600;
+/** The frozen-value limit of a tag not listed [s]: the reader's default, 4 h (src/lib/ingest/aggregate-types.ts). */
+export const DEFAULT_FROZEN_LIMIT_s = DEFAULT_FLATLINE_LIMIT_s;
 /** Bounds of a frozen-value limit [s]: a minute to 30 days. */
 export const FROZEN_LIMIT_MIN_s = 60;
-export const FROZEN_LIMIT_MAX_s = 30 * 24 * 3600;
+export const FROZEN_LIMIT_MAX_s = 30 * DAY_S;
 
 const fraction = (field: string, what: string) =>
   z

@@ -11,21 +11,30 @@
  *
  * @see McBride, Zehe & Gordon, NASA/TP-2002-211556 (2002), eqs. 4.9-4.11 (9-coefficient form).
  */
-import { NoConvergenceError, ThermoRangeError, requireRange } from './errors';
-import { NASA_SPECIES, type Element, type NasaRange, type NasaSpeciesData } from './species-data';
+import { ThermoRangeError } from './errors';
+import {
+  P_MAX_Pa,
+  P_MIN_Pa,
+  P_REF_Pa,
+  R_J_per_molK,
+  T_MAX_K,
+  T_MIN_K,
+  T_REF_K,
+  checkP,
+  checkT,
+  evalCp,
+  evalH,
+  evalS,
+  pick,
+  scalePolynomial,
+  scaleRange,
+  solveT,
+  type ScaledPolynomial,
+} from './nasa-polynomial';
+import { NASA_SPECIES, type Element, type NasaSpeciesData } from './species-data';
 
-/** Molar gas constant [J/(mol K)]: exact since the 2019 SI, N_A k = 8.314 462 618 153 24 (CODATA 2018 prints 8.314462618). */
-export const R_J_per_molK = 8.31446261815324;
-/** Standard-state (reference) pressure of the NASA data and of the mixture entropy [Pa]. */
-export const P_REF_Pa = 1e5;
-/** Reference temperature of formation enthalpies [K]. */
-export const T_REF_K = 298.15;
-/** Validity range of the polynomials [K]. */
-export const T_MIN_K = 200;
-export const T_MAX_K = 6000;
-/** Pressure range accepted by entropy functions [Pa]; ideal-gas behaviour is the caller's judgement. */
-export const P_MIN_Pa = 1;
-export const P_MAX_Pa = 1e8;
+export { P_MAX_Pa, P_MIN_Pa, P_REF_Pa, R_J_per_molK, T_MAX_K, T_MIN_K, T_REF_K };
+
 
 /** Names of the gas species with NASA data in the property core. */
 export type SpeciesName = keyof typeof NASA_SPECIES;
@@ -48,88 +57,6 @@ export interface Species {
   s0Molar(T_K: number): number;
 }
 
-/** Precombined polynomial of one temperature range, already scaled to the wanted unit. */
-interface ScaledRange {
-  /** cp = sum cpc[k] T^(k-2), k = 0..6 */
-  readonly cpc: Float64Array;
-  /** h = -cpc0/T + cpc1 ln T + cpc2 T + cpc3 T^2/2 + ... + b1 (stored as hc[0..7]) */
-  readonly hc: Float64Array;
-  /** s0 = -cpc0/(2T^2) - cpc1/T + cpc2 ln T + cpc3 T + ... + b2 (stored as sc[0..7]) */
-  readonly sc: Float64Array;
-}
-
-function scaleRange(a: readonly number[], b: readonly number[], factor: number): ScaledRange {
-  const cpc = new Float64Array(7);
-  const hc = new Float64Array(8);
-  const sc = new Float64Array(8);
-  for (let k = 0; k < 7; k++) cpc[k] = a[k] * factor;
-  hc[0] = -a[0] * factor;
-  hc[1] = a[1] * factor;
-  hc[2] = a[2] * factor;
-  hc[3] = (a[3] / 2) * factor;
-  hc[4] = (a[4] / 3) * factor;
-  hc[5] = (a[5] / 4) * factor;
-  hc[6] = (a[6] / 5) * factor;
-  hc[7] = b[0] * factor;
-  sc[0] = (-a[0] / 2) * factor;
-  sc[1] = -a[1] * factor;
-  sc[2] = a[2] * factor;
-  sc[3] = a[3] * factor;
-  sc[4] = (a[4] / 2) * factor;
-  sc[5] = (a[5] / 3) * factor;
-  sc[6] = (a[6] / 4) * factor;
-  sc[7] = b[1] * factor;
-  return { cpc, hc, sc };
-}
-
-function evalCp(r: ScaledRange, T: number): number {
-  const c = r.cpc;
-  const iT = 1 / T;
-  return c[0] * iT * iT + c[1] * iT + c[2] + T * (c[3] + T * (c[4] + T * (c[5] + T * c[6])));
-}
-
-function evalH(r: ScaledRange, T: number): number {
-  const c = r.hc;
-  return c[0] / T + c[1] * Math.log(T) + T * (c[2] + T * (c[3] + T * (c[4] + T * (c[5] + T * c[6])))) + c[7];
-}
-
-function evalS(r: ScaledRange, T: number): number {
-  const c = r.sc;
-  const iT = 1 / T;
-  return c[0] * iT * iT + c[1] * iT + c[2] * Math.log(T) + T * (c[3] + T * (c[4] + T * (c[5] + T * c[6]))) + c[7];
-}
-
-const T_MID_K = 1000;
-
-function checkT(T_K: number, context: string): void {
-  requireRange('T_K', T_K, T_MIN_K, T_MAX_K, 'K', context);
-}
-
-function checkP(p_Pa: number, context: string): void {
-  requireRange('p_Pa', p_Pa, P_MIN_Pa, P_MAX_Pa, 'Pa', context);
-}
-
-/** A pair of scaled ranges with the NASA breakpoint at 1000 K. */
-interface ScaledPolynomial {
-  readonly low: ScaledRange;
-  readonly high: ScaledRange;
-}
-
-function scalePolynomial(data: NasaSpeciesData, factor: number): ScaledPolynomial {
-  const [lo, hi] = data.ranges;
-  assertRanges(lo, hi);
-  return { low: scaleRange(lo.a, lo.b, factor), high: scaleRange(hi.a, hi.b, factor) };
-}
-
-function assertRanges(lo: NasaRange, hi: NasaRange): void {
-  if (lo.Tmin_K > T_MIN_K || lo.Tmax_K !== T_MID_K || hi.Tmin_K !== T_MID_K || hi.Tmax_K < T_MAX_K) {
-    throw new Error('NASA data block does not cover 200-1000-6000 K');
-  }
-}
-
-function pick(p: ScaledPolynomial, T: number): ScaledRange {
-  return T <= T_MID_K ? p.low : p.high;
-}
 
 function makeSpecies(name: SpeciesName): Species {
   const data: NasaSpeciesData = NASA_SPECIES[name];
@@ -274,6 +201,27 @@ export function normaliseFractions(fractions: Composition, what = 'fractions'): 
  */
 export function mixture(fractions: Composition, basis: 'mole' | 'mass'): GasMixture {
   const given = normaliseFractions(fractions, basis === 'mole' ? 'mole fractions' : 'mass fractions');
+  const { x, w } = bothBases(given, basis);
+  const names = Object.keys(x) as SpeciesName[];
+  let M = 0;
+  for (const n of names) M += x[n]! * species[n].M_kg_per_mol;
+  const lo = combinedRange(x, names, 0);
+  const hi = combinedRange(x, names, 1);
+  const molar: ScaledPolynomial = {
+    low: scaleRange(lo.a, lo.b, R_J_per_molK),
+    high: scaleRange(hi.a, hi.b, R_J_per_molK),
+  };
+  const perKg: ScaledPolynomial = {
+    low: scaleRange(lo.a, lo.b, R_J_per_molK / M),
+    high: scaleRange(hi.a, hi.b, R_J_per_molK / M),
+  };
+  let sumXlnX = 0;
+  for (const n of names) sumXlnX += x[n]! * Math.log(x[n]!);
+  return mixtureOf({ x, w, M, molar, perKg, sumXlnX });
+}
+
+/** Mole and mass fractions of a normalised composition given on either basis. */
+function bothBases(given: Composition, basis: 'mole' | 'mass'): { x: Composition; w: Composition } {
   const names = Object.keys(given) as SpeciesName[];
   const x: Composition = {};
   const w: Composition = {};
@@ -292,67 +240,50 @@ export function mixture(fractions: Composition, basis: 'mole' | 'mass'): GasMixt
       x[n] = given[n]! / species[n].M_kg_per_mol / nTot;
     }
   }
-  let M = 0;
-  for (const n of names) M += x[n]! * species[n].M_kg_per_mol;
+  return { x, w };
+}
 
-  // Mole-weighted NASA coefficients of the mixture.
-  const combine = (r: 0 | 1) => {
-    const a = [0, 0, 0, 0, 0, 0, 0];
-    const b = [0, 0];
-    for (const n of names) {
-      const rr = NASA_SPECIES[n].ranges[r];
-      for (let k = 0; k < 7; k++) a[k] += x[n]! * rr.a[k];
-      b[0] += x[n]! * rr.b[0];
-      b[1] += x[n]! * rr.b[1];
-    }
-    return { a, b };
-  };
-  const lo = combine(0);
-  const hi = combine(1);
-  const molar: ScaledPolynomial = {
-    low: scaleRange(lo.a, lo.b, R_J_per_molK),
-    high: scaleRange(hi.a, hi.b, R_J_per_molK),
-  };
-  const perKg: ScaledPolynomial = {
-    low: scaleRange(lo.a, lo.b, R_J_per_molK / M),
-    high: scaleRange(hi.a, hi.b, R_J_per_molK / M),
-  };
-  let sumXlnX = 0;
-  for (const n of names) sumXlnX += x[n]! * Math.log(x[n]!);
+/** Mole-weighted NASA coefficients of the mixture in one temperature range (0: low, 1: high). */
+function combinedRange(x: Composition, names: readonly SpeciesName[], r: 0 | 1): { a: number[]; b: number[] } {
+  const a = [0, 0, 0, 0, 0, 0, 0];
+  const b = [0, 0];
+  for (const n of names) {
+    const rr = NASA_SPECIES[n].ranges[r];
+    for (let k = 0; k < 7; k++) a[k] += x[n]! * rr.a[k];
+    b[0] += x[n]! * rr.b[0];
+    b[1] += x[n]! * rr.b[1];
+  }
+  return { a, b };
+}
+
+/** What a mixture's property functions close over. */
+interface MixtureParts {
+  readonly x: Composition;
+  readonly w: Composition;
+  readonly M: number;
+  readonly molar: ScaledPolynomial;
+  readonly perKg: ScaledPolynomial;
+  /** sum_i x_i ln x_i, the mixing term of the entropy [-] */
+  readonly sumXlnX: number;
+}
+
+/** The GasMixture of precombined polynomials: each property one polynomial evaluation. */
+function mixtureOf({ x, w, M, molar, perKg, sumXlnX }: MixtureParts): GasMixture {
   const Rs = R_J_per_molK / M;
   const ctx = 'ideal-gas mixture';
-
+  const kg = polynomialProperties(perKg, Rs, sumXlnX, ctx);
+  const mol = polynomialProperties(molar, R_J_per_molK, sumXlnX, ctx);
   const mix: GasMixture = {
     moleFractions: Object.freeze(x),
     massFractions: Object.freeze(w),
     M_kg_per_mol: M,
     R_J_per_kgK: Rs,
-    cp(T_K) {
-      checkT(T_K, ctx);
-      return evalCp(pick(perKg, T_K), T_K);
-    },
-    h(T_K) {
-      checkT(T_K, ctx);
-      return evalH(pick(perKg, T_K), T_K);
-    },
-    s(T_K, p_Pa) {
-      checkT(T_K, ctx);
-      checkP(p_Pa, ctx);
-      return evalS(pick(perKg, T_K), T_K) - Rs * (Math.log(p_Pa / P_REF_Pa) + sumXlnX);
-    },
-    cpMolar(T_K) {
-      checkT(T_K, ctx);
-      return evalCp(pick(molar, T_K), T_K);
-    },
-    hMolar(T_K) {
-      checkT(T_K, ctx);
-      return evalH(pick(molar, T_K), T_K);
-    },
-    sMolar(T_K, p_Pa) {
-      checkT(T_K, ctx);
-      checkP(p_Pa, ctx);
-      return evalS(pick(molar, T_K), T_K) - R_J_per_molK * (Math.log(p_Pa / P_REF_Pa) + sumXlnX);
-    },
+    cp: kg.cp,
+    h: kg.h,
+    s: kg.s,
+    cpMolar: mol.cp,
+    hMolar: mol.h,
+    sMolar: mol.s,
     T_h(h_J_per_kg) {
       const hLo = mix.h(T_MIN_K);
       const hHi = mix.h(T_MAX_K);
@@ -374,23 +305,26 @@ export function mixture(fractions: Composition, basis: 'mole' | 'mass'): GasMixt
   return Object.freeze(mix);
 }
 
-/** Safeguarded Newton iteration on [T_MIN_K, T_MAX_K] for a monotonically increasing f. */
-function solveT(f: (T: number) => number, df: (T: number) => number, what: string): number {
-  let lo = T_MIN_K;
-  let hi = T_MAX_K;
-  let T = 500;
-  let r = f(T);
-  for (let i = 0; i < 60; i++) {
-    if (r > 0) hi = T;
-    else lo = T;
-    let next = T - r / df(T);
-    if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
-    const step = Math.abs(next - T);
-    T = next;
-    r = f(T);
-    if (step < 1e-10 * T || r === 0) return T;
-  }
-  throw new NoConvergenceError(what, 60, r);
+/**
+ * cp, h and s of a mixture from one precombined polynomial: per kg with the specific gas constant,
+ * per mol with R; s includes the pressure and mixing terms, R (ln(p / p_ref) + sum x_i ln x_i).
+ */
+function polynomialProperties(poly: ScaledPolynomial, R: number, sumXlnX: number, ctx: string) {
+  return {
+    cp(T_K: number): number {
+      checkT(T_K, ctx);
+      return evalCp(pick(poly, T_K), T_K);
+    },
+    h(T_K: number): number {
+      checkT(T_K, ctx);
+      return evalH(pick(poly, T_K), T_K);
+    },
+    s(T_K: number, p_Pa: number): number {
+      checkT(T_K, ctx);
+      checkP(p_Pa, ctx);
+      return evalS(pick(poly, T_K), T_K) - R * (Math.log(p_Pa / P_REF_Pa) + sumXlnX);
+    },
+  };
 }
 
 /**

@@ -22,6 +22,7 @@ import {
   WATER_CONVENTIONAL_kg_per_m3,
 } from './constants';
 import type { Quantity } from './quantities';
+import { DAY_S, HOUR_S } from '../time';
 
 /** Reference conditions of a gas volume stated "at normal/standard conditions". */
 export interface ReferenceConditions {
@@ -74,8 +75,6 @@ export const SCF_REFERENCE: ReferenceConditions = {
 
 const PSI_Pa = POUND_FORCE_N / (INCH_m * INCH_m);
 const KGF_PER_CM2_Pa = STANDARD_GRAVITY_m_per_s2 / 1e-4;
-const HOUR_s = 3600;
-const DAY_s = 86400;
 const FT3_m3 = FOOT_m ** 3;
 const US_GALLON_m3 = 231 * INCH_m ** 3;
 const HP_W = 550 * FOOT_m * POUND_FORCE_N;
@@ -132,14 +131,14 @@ const powerUnits: Spec[] = [
   ['MW', 'megawatt', 1e6, EXACT],
   ['GW', 'gigawatt', 1e9, EXACT],
   ['hp', 'horsepower, mechanical (550 ft lbf/s)', HP_W, `${B8}: horsepower (550 ft lbf/s)`],
-  ['Btu/h', 'British thermal unit (IT) per hour', BTU_IT_J / HOUR_s, `${B8}: British thermal unit_IT per hour`],
-  ['kBtu/h', 'thousand Btu (IT) per hour (MBH)', (1e3 * BTU_IT_J) / HOUR_s, `${B8}: British thermal unit_IT per hour, x 1e3`],
-  ['MMBtu/h', 'million Btu (IT) per hour', (1e6 * BTU_IT_J) / HOUR_s, `${B8}: British thermal unit_IT per hour, x 1e6`],
-  ['kcal/h', 'kilocalorie (IT) per hour', (1e3 * CALORIE_IT_J) / HOUR_s, `${B8}: calorie_IT, per hour`],
-  ['Gcal/h', 'gigacalorie (IT) per hour', (1e9 * CALORIE_IT_J) / HOUR_s, `${B8}: calorie_IT, per hour`],
-  ['MJ/h', 'megajoule per hour', 1e6 / HOUR_s, EXACT],
-  ['GJ/h', 'gigajoule per hour', 1e9 / HOUR_s, EXACT],
-  ['TR', 'ton of refrigeration (12 000 Btu_IT/h)', (12000 * BTU_IT_J) / HOUR_s, `${B8}: ton of refrigeration (12 000 Btu_IT/h)`],
+  ['Btu/h', 'British thermal unit (IT) per hour', BTU_IT_J / HOUR_S, `${B8}: British thermal unit_IT per hour`],
+  ['kBtu/h', 'thousand Btu (IT) per hour (MBH)', (1e3 * BTU_IT_J) / HOUR_S, `${B8}: British thermal unit_IT per hour, x 1e3`],
+  ['MMBtu/h', 'million Btu (IT) per hour', (1e6 * BTU_IT_J) / HOUR_S, `${B8}: British thermal unit_IT per hour, x 1e6`],
+  ['kcal/h', 'kilocalorie (IT) per hour', (1e3 * CALORIE_IT_J) / HOUR_S, `${B8}: calorie_IT, per hour`],
+  ['Gcal/h', 'gigacalorie (IT) per hour', (1e9 * CALORIE_IT_J) / HOUR_S, `${B8}: calorie_IT, per hour`],
+  ['MJ/h', 'megajoule per hour', 1e6 / HOUR_S, EXACT],
+  ['GJ/h', 'gigajoule per hour', 1e9 / HOUR_S, EXACT],
+  ['TR', 'ton of refrigeration (12 000 Btu_IT/h)', (12000 * BTU_IT_J) / HOUR_S, `${B8}: ton of refrigeration (12 000 Btu_IT/h)`],
 ];
 
 const temperatureAsDifference: Spec[] = [
@@ -172,37 +171,37 @@ export const registry: Readonly<Record<Quantity, readonly UnitEntry[]>> = {
     ['kg/s', 'kilogram per second', 1, EXACT],
     ['g/s', 'gram per second', 1e-3, EXACT],
     ['kg/min', 'kilogram per minute', 1 / 60, EXACT],
-    ['kg/h', 'kilogram per hour', 1 / HOUR_s, EXACT],
-    ['t/h', 'tonne per hour', 1e3 / HOUR_s, `${B8}: ton, metric`],
-    ['t/d', 'tonne per day', 1e3 / DAY_s, `${B8}: ton, metric`],
+    ['kg/h', 'kilogram per hour', 1 / HOUR_S, EXACT],
+    ['t/h', 'tonne per hour', 1e3 / HOUR_S, `${B8}: ton, metric`],
+    ['t/d', 'tonne per day', 1e3 / DAY_S, `${B8}: ton, metric`],
     ['lb/s', 'pound per second', POUND_kg, `${B8}: pound (avoirdupois) per second`],
     ['lb/min', 'pound per minute', POUND_kg / 60, `${B8}: pound (avoirdupois) per minute`],
-    ['lb/h', 'pound per hour', POUND_kg / HOUR_s, `${B8}: pound (avoirdupois) per hour`],
-    ['klb/h', 'thousand pounds per hour', (1e3 * POUND_kg) / HOUR_s, `${B8}: pound (avoirdupois) per hour, x 1e3`],
+    ['lb/h', 'pound per hour', POUND_kg / HOUR_S, `${B8}: pound (avoirdupois) per hour`],
+    ['klb/h', 'thousand pounds per hour', (1e3 * POUND_kg) / HOUR_S, `${B8}: pound (avoirdupois) per hour, x 1e3`],
   ]),
   volumeFlow: table([
     ['m3/s', 'cubic metre per second (actual)', 1, EXACT],
     ['m3/min', 'cubic metre per minute (actual)', 1 / 60, EXACT],
-    ['m3/h', 'cubic metre per hour (actual)', 1 / HOUR_s, EXACT],
-    ['m3/d', 'cubic metre per day (actual)', 1 / DAY_s, EXACT],
+    ['m3/h', 'cubic metre per hour (actual)', 1 / HOUR_S, EXACT],
+    ['m3/d', 'cubic metre per day (actual)', 1 / DAY_S, EXACT],
     ['l/s', 'litre per second', 1e-3, `${B8}: liter`],
     ['l/min', 'litre per minute', 1e-3 / 60, `${B8}: liter`],
-    ['l/h', 'litre per hour', 1e-3 / HOUR_s, `${B8}: liter`],
+    ['l/h', 'litre per hour', 1e-3 / HOUR_S, `${B8}: liter`],
     ['ft3/s', 'cubic foot per second (actual)', FT3_m3, `${B8}: cubic foot per second`],
     ['ft3/min', 'cubic foot per minute (actual, acfm)', FT3_m3 / 60, `${B8}: cubic foot per minute`],
-    ['ft3/h', 'cubic foot per hour (actual)', FT3_m3 / HOUR_s, `${B8}: cubic foot per hour`],
+    ['ft3/h', 'cubic foot per hour (actual)', FT3_m3 / HOUR_S, `${B8}: cubic foot per hour`],
     ['gal/min', 'U.S. gallon per minute', US_GALLON_m3 / 60, `${B8}: gallon (U.S.) per minute (gpm)`],
   ]),
   standardVolumeFlow: table([
     standardFlow('Nm3/s', 'normal cubic metre per second', 1, 1, NORMAL_REFERENCE),
-    standardFlow('Nm3/h', 'normal cubic metre per hour', 1, HOUR_s, NORMAL_REFERENCE),
-    standardFlow('kNm3/h', 'thousand normal cubic metres per hour', 1e3, HOUR_s, NORMAL_REFERENCE),
-    standardFlow('Nm3/d', 'normal cubic metre per day', 1, DAY_s, NORMAL_REFERENCE),
-    standardFlow('Sm3/h', 'standard cubic metre per hour', 1, HOUR_s, STANDARD_REFERENCE),
-    standardFlow('Sm3/d', 'standard cubic metre per day', 1, DAY_s, STANDARD_REFERENCE),
+    standardFlow('Nm3/h', 'normal cubic metre per hour', 1, HOUR_S, NORMAL_REFERENCE),
+    standardFlow('kNm3/h', 'thousand normal cubic metres per hour', 1e3, HOUR_S, NORMAL_REFERENCE),
+    standardFlow('Nm3/d', 'normal cubic metre per day', 1, DAY_S, NORMAL_REFERENCE),
+    standardFlow('Sm3/h', 'standard cubic metre per hour', 1, HOUR_S, STANDARD_REFERENCE),
+    standardFlow('Sm3/d', 'standard cubic metre per day', 1, DAY_S, STANDARD_REFERENCE),
     standardFlow('scfm', 'standard cubic foot per minute', FT3_m3, 60, SCF_REFERENCE),
-    standardFlow('scfh', 'standard cubic foot per hour', FT3_m3, HOUR_s, SCF_REFERENCE),
-    standardFlow('MMscfd', 'million standard cubic feet per day', 1e6 * FT3_m3, DAY_s, SCF_REFERENCE),
+    standardFlow('scfh', 'standard cubic foot per hour', FT3_m3, HOUR_S, SCF_REFERENCE),
+    standardFlow('MMscfd', 'million standard cubic feet per day', 1e6 * FT3_m3, DAY_S, SCF_REFERENCE),
   ]),
   power: table(powerUnits),
   heatFlow: table(powerUnits),
@@ -212,10 +211,10 @@ export const registry: Readonly<Record<Quantity, readonly UnitEntry[]>> = {
     ['MJ', 'megajoule', 1e6, EXACT],
     ['GJ', 'gigajoule', 1e9, EXACT],
     ['TJ', 'terajoule', 1e12, EXACT],
-    ['Wh', 'watt hour', HOUR_s, `${B8}: watt hour`],
-    ['kWh', 'kilowatt hour', 1e3 * HOUR_s, `${B8}: kilowatt hour`],
-    ['MWh', 'megawatt hour', 1e6 * HOUR_s, `${B8}: kilowatt hour, x 1e3`],
-    ['GWh', 'gigawatt hour', 1e9 * HOUR_s, `${B8}: kilowatt hour, x 1e6`],
+    ['Wh', 'watt hour', HOUR_S, `${B8}: watt hour`],
+    ['kWh', 'kilowatt hour', 1e3 * HOUR_S, `${B8}: kilowatt hour`],
+    ['MWh', 'megawatt hour', 1e6 * HOUR_S, `${B8}: kilowatt hour, x 1e3`],
+    ['GWh', 'gigawatt hour', 1e9 * HOUR_S, `${B8}: kilowatt hour, x 1e6`],
     ['Btu', 'British thermal unit (IT)', BTU_IT_J, `${B8}: British thermal unit_IT`],
     ['MMBtu', 'million Btu (IT)', 1e6 * BTU_IT_J, `${B8}: British thermal unit_IT, x 1e6`],
     ['therm', 'therm (100 000 Btu_IT)', 1e5 * BTU_IT_J, `${B8}: therm (EC) 1.05506 E+08 J; here 1e5 Btu_IT exactly`],
@@ -245,7 +244,7 @@ export const registry: Readonly<Record<Quantity, readonly UnitEntry[]>> = {
   ]),
   speed: table([
     ['m/s', 'metre per second', 1, EXACT],
-    ['km/h', 'kilometre per hour', 1e3 / HOUR_s, EXACT],
+    ['km/h', 'kilometre per hour', 1e3 / HOUR_S, EXACT],
     ['ft/s', 'foot per second', FOOT_m, `${B8}: foot per second`],
     ['ft/min', 'foot per minute', FOOT_m / 60, `${B8}: foot per minute`],
   ]),

@@ -16,6 +16,7 @@
  */
 import type pg from 'pg';
 import { pgPool } from './client';
+import { MINUTE_MS } from '~/lib/time';
 
 export const PARTITIONED_TABLES = ['tag_hours', 'unit_hours'] as const;
 export type PartitionedTable = (typeof PARTITIONED_TABLES)[number];
@@ -44,7 +45,7 @@ export function partitionName(table: PartitionedTable, t: number): string {
  * process is looked up again after a minute).
  */
 const seen = new Map<string, number>();
-const SEEN_FOR_MS = 60_000;
+const SEEN_FOR_MS = MINUTE_MS;
 const known = {
   has: (name: string) => (seen.get(name) ?? -Infinity) > Date.now() - SEEN_FOR_MS,
   add: (name: string) => void seen.set(name, Date.now()),

@@ -11,9 +11,10 @@ import { rebuildUnitHour } from './engine';
 import { unitWithSite } from './plant-site-model';
 import { cachedHours } from '../hours-cache';
 import { isId } from '../access';
+import { MAX_RANGE_MS, checkHourRange } from './tag-hours';
 
-/** Longest range one request may ask for: 400 days of hours. */
-export const MAX_RANGE_MS = 400 * 24 * 3_600_000;
+/** Longest range one request may ask for (the one limit of tag-hours.ts). */
+export { MAX_RANGE_MS };
 
 /** A unit with its site, for the results API and page. */
 export async function unitHeader(unitId: string | undefined) {
@@ -57,10 +58,7 @@ const LIST_COLUMNS = {
   computedAt: unitHours.computedAt,
 };
 
-function range(from: Date, to: Date) {
-  if (!(to > from)) throw new AppError('VALIDATION_FAILED', '"to" must be after "from".');
-  if (to.getTime() - from.getTime() > MAX_RANGE_MS) throw new AppError('VALIDATION_FAILED', 'Ask for at most 400 days at a time.');
-}
+const range = checkHourRange;
 
 /**
  * A unit's hours with hour start in [from, to), oldest first, without the detail. Kept in the read

@@ -6,14 +6,14 @@ import type { UnitHourResult } from '~/lib/engine';
 import { unitHours } from '../db/schema';
 import { replacedByExcluded } from '../db/upsert';
 import type { Reader } from './engine-inputs';
+import { DAY_MS, hourCeil } from '~/lib/time';
 
-const HOUR_ms = 3_600_000;
 /** Rows per INSERT ... ON CONFLICT statement. */
 const WRITE_BATCH = 200;
 
 /** The span of hours the engine computes: 1900 to two days from now (uploads accept up to one). */
 export function saneSpan(nowMs = Date.now()): [number, number] {
-  return [Date.UTC(1900, 0, 1), Math.ceil((nowMs + 2 * 86_400_000) / HOUR_ms) * HOUR_ms];
+  return [Date.UTC(1900, 0, 1), hourCeil(nowMs + 2 * DAY_MS)];
 }
 
 /** The row of an hour whose computation failed: suspect, with the reason, no figures. */

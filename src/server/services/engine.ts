@@ -17,10 +17,10 @@ import { ensureMonthPartitions } from '../db/partitions';
 import { queue } from '../queue';
 import { chunkEnv, dataSpan, nextMonth, siteContext, unitInputs, type ChunkEnv, type Reader, type SiteContext } from './engine-inputs';
 import { faultRow, saneSpan, unitHourRowOf, writeUnitHours } from './engine-rows';
+import { HOUR_MS, hourFloor } from '~/lib/time';
 
 export { unitHourRowOf, writeUnitHours } from './engine-rows';
 
-const HOUR_ms = 3_600_000;
 
 export interface ComputeOptions {
   /** propagate uncertainties (default true) */
@@ -84,7 +84,7 @@ export async function planCompute(payload: { siteId: string; fromMs: number; toM
   if (!targets.length) return null;
   // Boilers first: their hours price the steam of the units downstream.
   targets = [...targets].sort((a, b) => Number(b.kind === 'boiler') - Number(a.kind === 'boiler'));
-  const span = await dataSpan(p.siteId, targets.map((u) => u.id), Math.floor(p.fromMs / HOUR_ms) * HOUR_ms, p.toMs);
+  const span = await dataSpan(p.siteId, targets.map((u) => u.id), hourFloor(p.fromMs), p.toMs);
   if (!span) return null;
   return { ctx, targets, lo: Math.max(span[0], p.fromMs), hi: Math.min(span[1], p.toMs) };
 }
@@ -207,7 +207,7 @@ async function unitMonthRows(tx: Reader, ctx: SiteContext, env: ChunkEnv, unit: 
     if (isBoiler) priceSteam(t, res.fuel_W, res.product_W, input.cost?.cF_per_J ?? null);
     rows.push(unitHourRowOf(unit.id, t, res, now));
     out.fromMs = Math.min(out.fromMs, t);
-    out.toMs = Math.max(out.toMs, t + HOUR_ms);
+    out.toMs = Math.max(out.toMs, t + HOUR_MS);
   }
   return rows;
 }
@@ -223,7 +223,7 @@ export async function rebuildUnitHour(unitId: string, hourStartMs: number, uncer
   const unit = ctx?.units.find((x) => x.id === unitId);
   if (!ctx || !unit) return null;
   const from = new Date(hourStartMs);
-  const to = new Date(hourStartMs + HOUR_ms);
+  const to = new Date(hourStartMs + HOUR_MS);
   const env = await chunkEnv(ctx, [unit], from, to, db());
   const ui = await unitInputs(ctx, env, unit, from, to, db());
   const input = ui.inputAt(hourStartMs)!;

@@ -9,6 +9,7 @@ import { QUEUES, sendJob } from '~/jobs';
 import { queue } from '../queue';
 import type { StreamResult } from './ingest-stream';
 import { storableJson } from './ingest-text';
+import { HOUR_MS, hourCeil, hourFloor } from '~/lib/time';
 
 const toIso = (ms: number | null) => (ms === null ? null : new Date(ms).toISOString());
 
@@ -19,8 +20,7 @@ const toIso = (ms: number | null) => (ms === null ? null : new Date(ms).toISOStr
  */
 async function queueRecompute(siteId: string, firstMs: number | null, lastMs: number | null, client: pg.PoolClient) {
   if (firstMs === null || lastMs === null) return;
-  const HOUR = 3_600_000;
-  const payload = { siteId, fromMs: Math.floor(firstMs / HOUR) * HOUR - HOUR, toMs: Math.ceil(lastMs / HOUR) * HOUR + HOUR };
+  const payload = { siteId, fromMs: hourFloor(firstMs) - HOUR_MS, toMs: hourCeil(lastMs) + HOUR_MS };
   const boss = await queue();
   await sendJob(boss, QUEUES.computeUnitHours, payload, {
     retryLimit: 2,

@@ -14,6 +14,7 @@ import { createFileIngest, mergeHours, tagHourKey, type FileIngestOptions, type 
 import { db } from '../db/client';
 import { TAG_HOUR_FLAGS, layoutProfiles, uploads } from '../db/schema';
 import { objectStream } from '../storage';
+import { HOUR_MS } from '~/lib/time';
 
 /** An overlapped tag hour: stored figures exist and this file brings the same hour again. */
 export interface ClashKey {
@@ -25,7 +26,6 @@ export interface ClashKey {
 /** Options every re-read uses (the current file's limits, window, codes and tag options). */
 export type RereadOptions = Omit<FileIngestOptions, 'onHour' | 'onSample' | 'onRejectedCell' | 'profile' | 'answer'>;
 
-const HOUR_MS = 3_600_000;
 /** Samples kept around an overlapped hour, so segments across its edges are drawn (the largest gap bridged). */
 const MARGIN_MS = 900_000;
 /** Overlapped tag hours recomputed per pass over the files (bounds the samples held in memory). */

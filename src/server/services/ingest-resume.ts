@@ -6,6 +6,7 @@ import { db } from '../db/client';
 import { QUEUES, sendJob } from '~/jobs';
 import { queue } from '../queue';
 import { withUploadLock } from './ingest-locks';
+import { INGEST_JOB_OPTIONS } from './uploads';
 
 /**
  * An upload left 'processing' by a worker that died is queued again, to be read from the start (its
@@ -34,7 +35,7 @@ export async function resumeInterruptedUploads(): Promise<number> {
       const res = await client.query(`update uploads set status = 'queued' where id = $1 and status in ('processing', 'queued')`, [id]);
       if (res.rowCount !== 1) return false; // it finished in between
       const boss = await queue();
-      await sendJob(boss, QUEUES.ingestFile, { uploadId: id }, { singletonKey: `${id}:resume:${Date.now()}`, retryLimit: 2, retryDelay: 5, expireInSeconds: 60 * 60 * 2 });
+      await sendJob(boss, QUEUES.ingestFile, { uploadId: id }, { singletonKey: `${id}:resume:${Date.now()}`, ...INGEST_JOB_OPTIONS });
       return true;
     });
     if (moved) resumed++;

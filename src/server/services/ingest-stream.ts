@@ -16,6 +16,7 @@ import { siteQualityCodes, tagLinks, tags, uploads } from '../db/schema';
 import { objectStream } from '../storage';
 import { mergeOverlappedHours, type ClashKey, type RereadOptions } from './ingest-merge';
 import { insertRejects, writeHours } from './ingest-write';
+import { HOUR_MS } from '~/lib/time';
 
 /** Tag hours written per statement. */
 const STAGE_BATCH = 5000;
@@ -58,7 +59,7 @@ export function timeWindowFor(siteCreatedAt: Date, nowMs = Date.now()): { minMs:
   const start = new Date(siteCreatedAt.getTime());
   start.setUTCFullYear(start.getUTCFullYear() - (Number.isFinite(years) && years >= 0 ? years : 30));
   start.setUTCHours(0, 0, 0, 0);
-  return { minMs: start.getTime(), maxMs: nowMs + (Number.isFinite(hours) && hours >= 0 ? hours : 24) * 3_600_000 };
+  return { minMs: start.getTime(), maxMs: nowMs + (Number.isFinite(hours) && hours >= 0 ? hours : 24) * HOUR_MS };
 }
 
 /** The site's good quality codes (the defaults when it set none). */

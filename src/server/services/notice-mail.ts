@@ -3,19 +3,12 @@
  * composition only, no I/O. Queueing them is the work of ./notices.ts.
  */
 import { signedWithU, writerOf, type SiteWriter } from '~/lib/units/writer';
-import { PALETTE } from '~/lib/palette';
 import { siteDay, siteStampWithZone, type Instant } from '~/lib/site-time';
 import { SAFETY_CAUTION } from '~/lib/caution';
 import type { NoticeView } from '~/lib/notice-view';
 import { escapeHtml } from '../mail';
 import { ruleFigureLines, ruleNoticeMail } from './unit-rule-words';
-
-
-/** The link and the caution every notice mail ends with, as text and as HTML. */
-const textTail = (url: string) => ['', `Open the notice: ${url}`, '', SAFETY_CAUTION];
-const htmlCaution = () => `<p style="border:1px solid ${PALETTE.amber.DEFAULT};background:${PALETTE.amber.pale};padding:8px">${escapeHtml(SAFETY_CAUTION)}</p>`;
-const htmlBody = (headHtml: string, lines: string[], url: string) =>
-  [`<p>${headHtml}</p>`, `<ul>${lines.map((l) => `<li>${escapeHtml(l)}</li>`).join('')}</ul>`, `<p><a href="${escapeHtml(url)}">Open the notice</a></p>`, htmlCaution()].join('\n');
+import { htmlBody, htmlCaution, textTail } from './notice-mail-parts';
 
 /** Figures of a notice in its site's display units and number style (src/lib/units/writer.ts). */
 export function noticeWords(n: Pick<NoticeView, 'display' | 'currency'>) {

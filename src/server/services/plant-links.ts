@@ -17,7 +17,7 @@ import { plantPorts, plantUnits, tagLinks, tags } from '../db/schema';
 import { AppError } from '../errors';
 import { inTransaction, openEndMs, type Tx } from './plant-tx';
 import type { Reader } from '../db/tx';
-import { HOUR_MS } from '~/lib/time';
+import { HOUR_MS, MINUTE_MS } from '~/lib/time';
 
 const instant = z.union([z.iso.datetime({ offset: true }), z.number().int()]).transform((v) => new Date(v));
 
@@ -159,7 +159,7 @@ export async function setLink(siteId: string, input: LinkInput, createdBy: strin
       .where(and(eq(tagLinks.unitId, unit.id), portId ? eq(tagLinks.portId, portId) : isNull(tagLinks.portId), eq(tagLinks.quantity, input.quantity)))
       .orderBy(asc(tagLinks.validFrom));
     const live = versions.filter((v) => v.validTo === null || v.validTo > v.validFrom);
-    const t = input.validFrom ?? (live.length ? new Date(Math.floor(Date.now() / 60_000) * 60_000) : new Date(BEGINNING_MS));
+    const t = input.validFrom ?? (live.length ? new Date(Math.floor(Date.now() / MINUTE_MS) * MINUTE_MS) : new Date(BEGINNING_MS));
     const uncertainty = input.uncertainty ?? defaultUncertainty(input.quantity, input.unit);
     const asModel: LinkModel = {
       quantity: input.quantity,

@@ -7,7 +7,7 @@
 import { and, asc, eq, gte, lt, sql } from 'drizzle-orm';
 import { db } from '../db/client';
 import { SAFETY_CAUTION } from '~/lib/caution';
-import type { HourState, StateCounts } from '~/lib/hour-states';
+import { zeroStateCounts, type HourState, type StateCounts } from '~/lib/hour-states';
 import { siteStamp } from '~/lib/site-time';
 import { kindLabel, ledgerFrom, type LedgerAnswer } from '~/lib/views/ledger';
 import { defaultPeriod, monthPeriod, resolvePeriod, type Period, type PeriodChoice } from '~/lib/views/period';
@@ -183,9 +183,9 @@ export async function reportMonths(siteId: string): Promise<{
     from unit_hours h join plant_units u on u.id = h.unit_id
     where u.site_id = ${site.id}
     group by 1, 2`);
-  const byMonth = new Map<string, Record<HourState, number>>();
+  const byMonth = new Map<string, StateCounts>();
   for (const r of res.rows) {
-    const m = byMonth.get(r.month) ?? { steady: 0, unsettled: 0, idle: 0, suspect: 0 };
+    const m = byMonth.get(r.month) ?? zeroStateCounts();
     m[r.state] = Number(r.n);
     byMonth.set(r.month, m);
   }

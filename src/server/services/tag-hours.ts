@@ -5,14 +5,20 @@ import { TAG_HOUR_FLAGS, tagHourFlagNames, tagHourUploads, tagHours, tags, uploa
 import type { TagHour as EngineTagHour } from '~/lib/engine/types';
 import { ensureMonthPartitions } from '../db/partitions';
 import { replacedByExcluded } from '../db/upsert';
+import { DAY_MS, HOUR_S } from '~/lib/time';
 
 /** Longest range one request may ask for: 400 days of hours. */
-export const MAX_RANGE_MS = 400 * 24 * 3600 * 1000;
+export const MAX_RANGE_MS = 400 * DAY_MS;
+
+/** Refuses a range that is empty, reversed or longer than MAX_RANGE_MS, in words. */
+export function checkHourRange(from: Date, to: Date): void {
+  if (!(to > from)) throw new AppError('VALIDATION_FAILED', '"to" must be after "from".');
+  if (to.getTime() - from.getTime() > MAX_RANGE_MS) throw new AppError('VALIDATION_FAILED', 'Ask for at most 400 days at a time.');
+}
 
 /** The tag hours of one tag between two instants (hour starts in [from, to)). */
 export async function tagHoursOf(siteId: string, tagName: string, from: Date, to: Date) {
-  if (!(to > from)) throw new AppError('VALIDATION_FAILED', '"to" must be after "from".');
-  if (to.getTime() - from.getTime() > MAX_RANGE_MS) throw new AppError('VALIDATION_FAILED', 'Ask for at most 400 days at a time.');
+  checkHourRange(from, to);
   const [tag] = await db()
     .select()
     .from(tags)
@@ -47,7 +53,7 @@ export async function tagHoursOf(siteId: string, tagName: string, from: Date, to
       first: r.first,
       last: r.last,
       samples: r.samples,
-      coveredFraction: r.coveredSeconds / 3600,
+      coveredFraction: r.coveredSeconds / HOUR_S,
       nonNumeric: r.nonNumeric,
       outOfRange: r.outOfRange,
       flatline: tagHourFlagNames(r.flags).includes('flatline'),
@@ -86,7 +92,7 @@ export async function writeTagHours(rows: readonly TagHourWrite[]): Promise<void
     first: r.first ?? null,
     last: r.last ?? null,
     samples: r.samples,
-    coveredSeconds: Math.round(r.coveredFraction * 3600),
+    coveredSeconds: Math.round(r.coveredFraction * HOUR_S),
     nonNumeric: Math.min(32767, r.nonNumeric ?? 0),
     outOfRange: Math.min(32767, r.outOfRange ?? 0),
     flags: r.flatline ? TAG_HOUR_FLAGS.flatline : 0,

@@ -3,10 +3,10 @@
  * opening mail and the digest. Kept apart from notices.ts, which calls into it for these kinds.
  */
 import { writerOf } from '~/lib/units/writer';
-import { PALETTE } from '~/lib/palette';
 import { siteStampWithZone } from '~/lib/site-time';
 import type { NoticeKind, NoticeView } from '~/lib/notice-view';
 import { escapeHtml } from '../mail';
+import { htmlBody, textTail } from './notice-mail-parts';
 
 /** The kinds in the product's words. */
 export const NOTICE_KIND_WORDS: Record<NoticeKind, string> = { drift: 'drift', idle: 'running while idle', limit: 'limit crossed' };
@@ -71,12 +71,7 @@ export function ruleNoticeMail(n: NoticeView, to: string, caution: string) {
       ? `${n.unitName} (${n.siteName}) is declared normally idle, and it has been running.`
       : `${n.unitName} (${n.siteName}) has crossed a limit set for it.`;
   const lines = ruleFigureLines(n);
-  const text = [intro, '', ...lines, '', `Open the notice: ${n.url}`, '', caution].join('\n');
-  const html = [
-    `<p>${escapeHtml(intro)}</p>`,
-    `<ul>${lines.map((l) => `<li>${escapeHtml(l)}</li>`).join('')}</ul>`,
-    `<p><a href="${escapeHtml(n.url)}">Open the notice</a></p>`,
-    `<p style="border:1px solid ${PALETTE.amber.DEFAULT};background:${PALETTE.amber.pale};padding:8px">${escapeHtml(caution)}</p>`,
-  ].join('\n');
+  const text = [intro, '', ...lines, ...textTail(n.url, caution)].join('\n');
+  const html = htmlBody(escapeHtml(intro), lines, n.url, caution);
   return { to, subject, text, html };
 }

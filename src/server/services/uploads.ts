@@ -2,10 +2,11 @@ import { createHash, randomUUID } from 'node:crypto';
 import { Transform, type Readable } from 'node:stream';
 import { and, desc, eq, inArray, ne, sql } from 'drizzle-orm';
 import { INGEST_ERROR_CATALOGUE } from '~/lib/ingest/errors';
-import Papa from 'papaparse';
 import type { LayoutProfile } from '~/lib/ingest/profile';
 import { z } from 'zod';
 import { QUEUES, sendJob } from '~/jobs';
+import { toCsv } from '~/lib/csv-write';
+import { HOUR_S } from '~/lib/time';
 import { db } from '../db/client';
 import { AppError } from '../errors';
 import { READ_STATUSES, layoutProfiles, sites, uploadRejects, uploads, type UploadStatus } from '../db/schema';
@@ -88,9 +89,12 @@ export async function findDuplicate(siteId: string, sha256: string, exceptId?: s
 /** NOTIFY channel that wakes the workers' ingest at once (src/worker/ingest-wake.ts). */
 export const INGEST_WAKE_CHANNEL = 'lossline_ingest_queued';
 
+/** How an upload's read job is queued, first or resumed: two retries, and two hours before pg-boss gives it up. */
+export const INGEST_JOB_OPTIONS = { retryLimit: 2, retryDelay: 5, expireInSeconds: 2 * HOUR_S } as const;
+
 export async function queueIngest(uploadId: string): Promise<void> {
   const boss = await queue();
-  await sendJob(boss, QUEUES.ingestFile, { uploadId }, { singletonKey: uploadId, retryLimit: 2, retryDelay: 5, expireInSeconds: 60 * 60 * 2 });
+  await sendJob(boss, QUEUES.ingestFile, { uploadId }, { singletonKey: uploadId, ...INGEST_JOB_OPTIONS });
   // Wakes a listening worker now instead of at its next poll (up to 0.5 s later); polling stays.
   await db()
     .execute(sql`select pg_notify(${INGEST_WAKE_CHANNEL}, '')`)
@@ -300,17 +304,9 @@ export async function confirmLayout(uploadId: string, profile: LayoutProfile, na
   return { profileId: saved!.id };
 }
 
-/** A cell a spreadsheet would run as a formula gets a leading apostrophe (CSV injection). */
-export function csvCell(value: unknown): string {
-  let s = value === null || value === undefined ? '' : String(value);
-  if (/^[=+\-@\t\r]/.test(s)) s = `'${s}`;
-  return /[",\n\r;]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
-}
-
-/** Every rejected cell of an upload as CSV (line, tag, time, text, reason); formula-like cells are
- * escaped by papaparse (escapeFormulae), so a spreadsheet never runs them. */
+/** Every rejected cell of an upload as CSV (line, tag, time, text, reason), written by toCsv
+ * (src/lib/csv-write.ts), so a formula-like cell never runs in a spreadsheet. */
 export async function rejectsCsv(uploadId: string): Promise<string> {
   const rows = await db().select().from(uploadRejects).where(eq(uploadRejects.uploadId, uploadId)).orderBy(uploadRejects.seq);
-  const data = rows.map((r) => [r.line, r.tag, r.time, r.raw, r.reason].map((v) => (v === null || v === undefined ? '' : String(v))));
-  return Papa.unparse({ fields: ['line', 'tag', 'time', 'text', 'reason'], data }, { escapeFormulae: true, newline: '\r\n' }) + '\r\n';
+  return toCsv([['line', 'tag', 'time', 'text', 'reason'], ...rows.map((r) => [r.line, r.tag, r.time, r.raw, r.reason])]);
 }

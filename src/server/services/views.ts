@@ -4,7 +4,7 @@
  * and the overview. The shaping and its rules live in src/lib/views (trend.ts, ledger.ts, period.ts).
  */
 import { and, asc, eq, gte, lt, sql } from 'drizzle-orm';
-import { HOUR_MS, DAY_MS } from '~/lib/time';
+import { HOUR_MS, DAY_MS, MINUTE_MS } from '~/lib/time';
 import { siteStamp } from '~/lib/site-time';
 import { periodFor, type DataSpan, type Period, type PeriodChoice, type PeriodQuery } from '~/lib/views/period';
 import { freshness, type Freshness } from '~/lib/views/freshness';
@@ -33,7 +33,7 @@ export type { FlowAnswer, LedgerAnswer, LedgerRow, OverviewSite } from '~/lib/vi
 const viewSite = (s: typeof sites.$inferSelect) => ({ id: s.id, name: s.name, timeZone: s.timeZone, currency: s.currency });
 
 /** The minute `nowMs` falls in: unit hours start on whole minutes, so "up to now" reads the same. */
-const minuteOf = (nowMs: number) => Math.floor(nowMs / 60_000) * 60_000;
+const minuteOf = (nowMs: number) => Math.floor(nowMs / MINUTE_MS) * MINUTE_MS;
 
 /**
  * First and last computed hour of a unit, or of a site's units (hours after now left out), for the

@@ -6,7 +6,8 @@
  *  - IAPWS SR5-05(2016) backward equations v(p,T) for region 3.
  * The numbers were transcribed mechanically from the public reproduction of these tables in the
  * python3-iapws package (module iapws97, version 1.5.2) and are proven by the releases' own
- * verification values in tests/thermo/water-if97.test.ts. Do not edit by hand.
+ * verification values in tests/thermo/water-if97.test.ts. Do not edit by hand. Longer than 400 lines
+ * because it is the published tables and nothing else.
  * I and J are exponents, n the coefficients; table numbers are those of the releases.
  */
 

@@ -1,6 +1,9 @@
 /**
  * Water and steam properties by IAPWS-IF97: the state functions that the rest of Lossline calls.
  * SI base units throughout (Pa, K, J/kg, J/(kg K), m3/kg, m/s).
+ * Longer than 400 lines on purpose: the region dispatch of every state function (p-T, p-h, p-s, h-s,
+ * saturation) sits in one file, so that the region boundaries are decided in one place; the regions'
+ * equations, backward equations and coefficients are already in files of their own.
  * @see IAPWS R7-97(2012) Revised Release on the IAPWS Industrial Formulation 1997
  * @see IAPWS SR3-03(2014), IAPWS SR5-05(2016) supplementary backward equations for region 3
  */
