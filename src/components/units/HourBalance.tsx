@@ -15,7 +15,9 @@ export function HourReasons({ hour }: { hour: Hour }) {
         <HourStateMark state={hour.state} />
       </div>
       {hour.reasons.length === 0 ? (
-        <p className="text-sm text-ink-soft">Every key tag is sound and steady, the load is above the minimum, and the balances close within their tolerances.</p>
+        <p className="text-sm text-ink-soft">
+          Every key tag is sound and steady, the load is above the minimum, and the balances close within their tolerances.
+        </p>
       ) : (
         <ul className="list-disc pl-5 text-sm" data-testid="hour-reasons">
           {hour.reasons.map((r, i) => (
@@ -55,7 +57,19 @@ function ExtraRows({ extras, w }: { extras: Record<string, number | null>; w: Si
 }
 
 /** F, P, L, D with their uncertainty, the closures and the cost of destruction of the hour. */
-export function HourBalance({ hour, b, cost, currency, w }: { hour: Hour; b: NonNullable<HourAudit['balance']>; cost: HourAudit['cost']; currency: string; w: SiteWriter }) {
+export function HourBalance({
+  hour,
+  b,
+  cost,
+  currency,
+  w,
+}: {
+  hour: Hour;
+  b: NonNullable<HourAudit['balance']>;
+  cost: HourAudit['cost'];
+  currency: string;
+  w: SiteWriter;
+}) {
   const kW = (v: number | null | undefined) => w.value(v, 'power');
   const P = w.unit('power');
   const rows: [string, string, string?][] = [
@@ -112,8 +126,8 @@ export function HourFootnote({ hour, unit, w }: { hour: Hour; unit: UnitInfo; w:
       </p>
       {hour.rebuilt && !hour.rebuilt.matches && (
         <p className="notice-error" data-testid="hour-rebuilt-differs">
-          The tag hours or the plant model of this hour changed after it was computed; the detail shows the hour as it would be computed
-          now, and the figures above are the stored ones until the recompute has run.
+          The tag hours or the plant model of this hour changed after it was computed; the detail shows the hour as it would be computed now, and the figures
+          above are the stored ones until the recompute has run.
         </p>
       )}
     </div>

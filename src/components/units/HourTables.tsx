@@ -48,7 +48,9 @@ export function HourPorts({ d, w }: { d: HourAudit; w: SiteWriter }) {
           ))}
         </tbody>
       </table>
-      {d.balanceKind === 'boiler' && <p className="mt-1 text-xs text-ink-soft">The boiler's exergy flows include the chemical exergy of fuel, air and flue gas.</p>}
+      {d.balanceKind === 'boiler' && (
+        <p className="mt-1 text-xs text-ink-soft">The boiler's exergy flows include the chemical exergy of fuel, air and flue gas.</p>
+      )}
     </div>
   );
 }

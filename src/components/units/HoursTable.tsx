@@ -14,7 +14,19 @@ interface TableProps {
 }
 
 /** One hour's row: its state, F P L D in the site's power unit, efficiency ± U, closure, cost, and the button that opens it. */
-function HourRowView({ r, isOpen, timeZone, pw, onOpen }: { r: HourRow; isOpen: boolean; timeZone: string; pw: (v_W: number | null | undefined) => string; onOpen: TableProps['onOpen'] }) {
+function HourRowView({
+  r,
+  isOpen,
+  timeZone,
+  pw,
+  onOpen,
+}: {
+  r: HourRow;
+  isOpen: boolean;
+  timeZone: string;
+  pw: (v_W: number | null | undefined) => string;
+  onOpen: TableProps['onOpen'];
+}) {
   const ms = Date.parse(r.hourStart);
   return (
     <tr className={isOpen ? 'bg-paper-deep' : undefined} data-hour={r.hourStart} data-hour-ms={ms}>

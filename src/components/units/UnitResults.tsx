@@ -60,7 +60,17 @@ function RangeForm({ timeZone, fromDay, toDay, setFromDay, setToDay, csvHref, ro
  * sheet over the table (./HourPanel.tsx), and the address names it (./useOpenHour.ts). Reads GET
  * /api/v1/units/{unitId}/hours (./useUnitHours.ts) and /hours/{hour}.
  */
-export default function UnitResults({ unit, initialFrom, initialTo, initialHour }: { unit: UnitInfo; initialFrom: string; initialTo: string; initialHour: string | null }) {
+export default function UnitResults({
+  unit,
+  initialFrom,
+  initialTo,
+  initialHour,
+}: {
+  unit: UnitInfo;
+  initialFrom: string;
+  initialTo: string;
+  initialHour: string | null;
+}) {
   const tz = unit.timeZone;
   // Powers in the site's chosen display unit and locale (its settings).
   const w = useMemo(() => siteWriter(unit.display?.units, unit.display?.p_atm_Pa), [unit.display]);

@@ -36,7 +36,9 @@ export function useOpenHour(initialHour: string | null): { open: string | null; 
     if (!was) return null;
     openRef.current = null;
     setOpen(null);
-    const back = opener.current?.isConnected ? opener.current : document.querySelector<HTMLElement>(`tr[data-hour-ms="${Date.parse(was)}"] button[data-open-hour]`);
+    const back = opener.current?.isConnected
+      ? opener.current
+      : document.querySelector<HTMLElement>(`tr[data-hour-ms="${Date.parse(was)}"] button[data-open-hour]`);
     opener.current = null;
     requestAnimationFrame(() => back?.focus());
     return was;
