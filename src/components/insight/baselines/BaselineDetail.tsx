@@ -1,12 +1,12 @@
-import { useEffect, useState } from 'react';
+import { useState } from 'react';
 import { significant } from '~/lib/format';
 import { PALETTE } from '~/lib/palette';
 import { CartesianGrid, ComposedChart, Legend, Line, ResponsiveContainer, Scatter, Tooltip, XAxis, YAxis } from 'recharts';
 import { StateMark } from '~/components/StateMark';
-import { useConfirm } from '~/components/ConfirmDialog';
 import { Notice } from '~/components/plant/common';
-import { call, messageOf, type Message } from '~/components/api';
-import { BASELINE_LOOK, CHECK_LOOK, atZ, dayOf, pct, sig } from './looks';
+import { useBaselineDecision } from './useBaselineDecision';
+import { periodDaysText } from '~/lib/views/baseline-fit-text';
+import { BASELINE_LOOK, CHECK_LOOK, atZ, pct, sig } from './looks';
 import { TERM_LABELS, type BaselineSummary, type FitView, type ModelSummary } from './types';
 import { BaselineCoefficients, baselineScales, type SiteDisplayProp } from './BaselineCoefficients';
 
@@ -124,12 +124,6 @@ function FitChart({ b, fit, display }: { b: BaselineSummary; fit: FitView; displ
   );
 }
 
-const DISCARD = {
-  title: 'Discard this baseline version?',
-  body: 'A discarded version can no longer be accepted; fit a new version to try again.',
-  confirm: 'Discard the version',
-  danger: true,
-};
 
 /** One baseline version: statistics against Guideline 14, the scatter, and accept or discard for drafts. */
 /** Whether the fit saw enough hours and load to be trusted or accepted (src/lib/analytics/fit-trust.ts). */
@@ -147,63 +141,54 @@ function FitTrustNote({ b }: { b: BaselineSummary }) {
   );
 }
 
+/** The heading of a version: unit, version, site, reference period, terms, who fitted it and when; its status. */
+function BaselineHeading({ b }: { b: BaselineSummary }) {
+  const look = BASELINE_LOOK[b.status]!;
+  return (
+    <div className="flex flex-wrap items-baseline justify-between gap-2">
+      <div>
+        <h2>
+          {b.unitName} · version {b.version}
+        </h2>
+        <p className="text-sm text-ink-soft">
+          {b.siteName} · reference period {periodDaysText(b.periodFrom, b.periodTo, b.timeZone)} ({b.timeZone}) · terms{' '}
+          {b.terms.map((t) => TERM_LABELS[t]).join(', ')} · fitted by {b.createdBy ?? 'someone'} on {atZ(b.createdAt, b.timeZone)}
+        </p>
+      </div>
+      <span data-testid="baseline-status">
+        <StateMark shape={look.shape} className={look.className} label={look.label} />
+      </span>
+    </div>
+  );
+}
+
+/** Accept or discard a draft, with a word when the fit is outside the Guideline 14 criteria. */
+function DecisionButtons({ b, busy, decide }: { b: BaselineSummary; busy: boolean; decide: (what: 'accept' | 'discard') => void }) {
+  return (
+    <div className="flex flex-wrap items-center gap-2">
+      <button type="button" className="btn btn-primary" disabled={busy || !b.trust.acceptable} onClick={() => decide('accept')}>
+        Accept as active baseline
+      </button>
+      <button type="button" className="btn" disabled={busy} onClick={() => decide('discard')}>
+        Discard
+      </button>
+      {!b.meetsGuideline14 && <span className="text-sm text-copper-deep">This fit is outside the Guideline 14 criteria; accept it only knowingly.</span>}
+    </div>
+  );
+}
+
+/** A baseline version, its fit and statistics; accept or discard a draft (./useBaselineDecision.ts). */
 export default function BaselineDetail({ baselineId, canEdit, display }: { baselineId: string; canEdit: boolean; display?: SiteDisplayProp }) {
-  const [data, setData] = useState<{ baseline: BaselineSummary; fit: FitView } | null>(null);
-  const [message, setMessage] = useState<Message>(null);
-  const [busy, setBusy] = useState(false);
-  const { dialog, ask } = useConfirm();
-
-  useEffect(() => {
-    let live = true;
-    setData(null);
-    call<{ baseline: BaselineSummary; fit: FitView }>(`/api/baselines/${baselineId}`)
-      .then((d) => live && setData(d))
-      .catch((e) => live && setMessage(messageOf(e)));
-    return () => {
-      live = false;
-    };
-  }, [baselineId]);
-
-  async function decide(what: 'accept' | 'discard') {
-    if (what === 'discard' && !(await ask(DISCARD))) return;
-    setBusy(true);
-    setMessage(null);
-    try {
-      const { baseline } = await call<{ baseline: BaselineSummary }>(`/api/baselines/${baselineId}/${what}`, 'POST', {});
-      setData((d) => (d ? { ...d, baseline } : d));
-      setMessage({
-        ok: true,
-        text: what === 'accept' ? `Version ${baseline.version} is now the active baseline of ${baseline.unitName}.` : `Version ${baseline.version} is discarded.`,
-      });
-    } catch (e) {
-      setMessage(messageOf(e));
-    } finally {
-      setBusy(false);
-    }
-  }
+  const { data, message, busy, dialog, decide } = useBaselineDecision(baselineId);
 
   if (!data) {
     return message ? <Notice message={message} /> : <p className="text-sm text-ink-faint" role="status">Loading the baseline…</p>;
   }
   const b = data.baseline;
-  const look = BASELINE_LOOK[b.status]!;
   return (
     <section className="card space-y-4" data-testid="baseline-detail">
       {dialog}
-      <div className="flex flex-wrap items-baseline justify-between gap-2">
-        <div>
-          <h2>
-            {b.unitName} · version {b.version}
-          </h2>
-          <p className="text-sm text-ink-soft">
-            {b.siteName} · reference period {dayOf(b.periodFrom, b.timeZone)} to {dayOf(new Date(new Date(b.periodTo).getTime() - 1).toISOString(), b.timeZone)} ({b.timeZone}) · terms{' '}
-            {b.terms.map((t) => TERM_LABELS[t]).join(', ')} · fitted by {b.createdBy ?? 'someone'} on {atZ(b.createdAt, b.timeZone)}
-          </p>
-        </div>
-        <span data-testid="baseline-status">
-          <StateMark shape={look.shape} className={look.className} label={look.label} />
-        </span>
-      </div>
+      <BaselineHeading b={b} />
       <StatsTable b={b} display={display} />
       <FitTrustNote b={b} />
       <p className="text-xs text-ink-faint">
@@ -219,17 +204,7 @@ export default function BaselineDetail({ baselineId, canEdit, display }: { basel
         </p>
       )}
       <Notice message={message} />
-      {canEdit && b.status === 'draft' && (
-        <div className="flex flex-wrap items-center gap-2">
-          <button type="button" className="btn btn-primary" disabled={busy || !b.trust.acceptable} onClick={() => decide('accept')}>
-            Accept as active baseline
-          </button>
-          <button type="button" className="btn" disabled={busy} onClick={() => decide('discard')}>
-            Discard
-          </button>
-          {!b.meetsGuideline14 && <span className="text-sm text-copper-deep">This fit is outside the Guideline 14 criteria; accept it only knowingly.</span>}
-        </div>
-      )}
+      {canEdit && b.status === 'draft' && <DecisionButtons b={b} busy={busy} decide={(what) => void decide(what)} />}
     </section>
   );
 }
