@@ -76,7 +76,7 @@ export function HoursTable({ rows, timeZone, currency, w, open, onOpen }: TableP
             <th className="num">Destruction D [{pu}]</th>
             <th className="num">Efficiency [%] ± U (k = 2)</th>
             <th className="num">First-law closure [%]</th>
-            <th className="num">Cost of D [{currency}/h]</th>
+            <th className="num">Cost of destruction [{currency}/h]</th>
             <th />
           </tr>
         </thead>

@@ -8,7 +8,7 @@ import { UploadReport } from './UploadReport';
 import { READ_STATES, UPLOAD_STATE_LOOK } from './uploadStates';
 
 const fmtBytes = (n: number | null) =>
-  n === null ? '' : n < 1024 ? `${n} B` : n < 1024 ** 2 ? `${(n / 1024).toFixed(1)} KiB` : `${(n / 1024 ** 2).toFixed(1)} MiB`;
+  n === null ? '' : n < 1024 ? `${n} B` : n < 1024 ** 2 ? `${fixed(n / 1024, 1)} KiB` : `${fixed(n / 1024 ** 2, 1)} MiB`;
 
 const FALLBACK_LOOK = { shape: 'ring' as const, className: 'text-slate' };
 

@@ -16,9 +16,9 @@ export default function DigestPreference() {
   async function change(next: boolean) {
     setMessage(null);
     try {
-      const d = await call<{ preferences: { dailyDigest: boolean } }>('/api/notices/preferences', 'PUT', { dailyDigest: next });
+      const d = await call<{ preferences: { dailyDigest: boolean; sendsAt: string } }>('/api/notices/preferences', 'PUT', { dailyDigest: next });
       setOn(d.preferences.dailyDigest);
-      setMessage({ ok: true, text: next ? 'You will get a digest each morning (06:00 UTC) while notices are open.' : 'No daily digest.' });
+      setMessage({ ok: true, text: next ? `You will get the digest. ${d.preferences.sendsAt}` : 'No daily digest.' });
     } catch (e) {
       setMessage(messageOf(e));
     }

@@ -106,7 +106,7 @@ function NoticeTable({ notices }: { notices: Notice[] }) {
             <th>Site</th>
             <th>Since</th>
             <th className="num">Extra destruction now (drift) or destruction</th>
-            <th className="num">Cost per day now</th>
+            <th className="num">Cost per day now (last 24 steady hours)</th>
             <th>Shift</th>
             <th>Beyond uncertainty</th>
           </tr>

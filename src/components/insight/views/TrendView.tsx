@@ -161,7 +161,7 @@ export default function TrendView({ unitId, initialSearch, display }: { unitId: 
                     <th>Shift</th>
                     <th>Status</th>
                     <th className="num">Extra destruction [{unitP}]</th>
-                    <th className="num">Extra cost [{data.site.currency}/day]</th>
+                    <th className="num">Extra cost at signal, onset to signal hours [{data.site.currency}/day]</th>
                   </tr>
                 </thead>
                 <tbody>
