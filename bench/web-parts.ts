@@ -8,7 +8,7 @@
  *   bench:web run; the server must be up and the bench's people made, i.e. after one bench:web run)
  *
  * Prints the median and p90 of BENCH_PARTS_ROUNDS (default 30) rounds per part, in ms. With
- * BENCH_WEB_PID (the server's process id) it also prints the server's CPU time per request of each
+ * BENCH_WEB_PID (the server's process id; with WEB_PROCESSES > 1 the primary's, its copies counted too) it also prints the server's CPU time per request of each
  * route over HTTP (user + system, from /proc/PID/stat): unlike wall time, it stays the same under
  * load, and 50 connections on 2 cores with p95 < 300 ms need it to be a few ms.
  */
@@ -80,11 +80,22 @@ async function cookieOf(email: string): Promise<string> {
 
 const SERVER_PID = process.env.BENCH_WEB_PID;
 
-/** CPU time of the server so far, ms (utime + stime of /proc/PID/stat, in clock ticks of 10 ms). */
+/** CPU time of the server so far, ms: utime + stime of /proc/PID/stat (clock ticks of 10 ms) of the
+ * process and its children (the copies WEB_PROCESSES > 1 starts under node:cluster). */
 function serverCpuMs(): number | null {
   if (!SERVER_PID) return null;
-  const fields = readFileSync(`/proc/${SERVER_PID}/stat`, 'utf8').split(') ')[1]!.split(' ');
-  return (Number(fields[11]) + Number(fields[12])) * 10;
+  const cpuOf = (pid: string): number => {
+    const fields = readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1]!.split(' ');
+    let children = '';
+    try {
+      children = readFileSync(`/proc/${pid}/task/${pid}/children`, 'utf8');
+    } catch {
+      // no children file (an older kernel): the process alone
+    }
+    const own = (Number(fields[11]) + Number(fields[12])) * 10;
+    return own + children.split(' ').filter(Boolean).reduce((sum, child) => sum + cpuOf(child), 0);
+  };
+  return cpuOf(SERVER_PID);
 }
 
 async function http(name: string, path: string, cookie: string, encoding = 'gzip') {

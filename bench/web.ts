@@ -105,6 +105,7 @@ async function main() {
   const all = [...latencies.values()].flat();
   for (const r of routes) console.log(`  ${line(r, latencies.get(r)!)}, not 2xx ${failed.get(r) ?? 0}`);
   const sorted = [...all].sort((a, b) => a - b);
+  console.log(`web processes ${process.env.WEB_PROCESSES ?? 1} (WEB_PROCESSES)`);
   console.log(`users ${USERS}, seconds ${SECONDS}, answers ${result.requests.total} (${result.requests.average.toFixed(1)}/s)`);
   console.log(`latency_p50_ms ${percentile(sorted, 50).toFixed(0)}`);
   console.log(`latency_p95_ms ${percentile(sorted, 95).toFixed(0)}`);
