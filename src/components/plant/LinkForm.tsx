@@ -1,34 +1,16 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useEffect, useMemo, useState } from 'react';
 import { useForm, type UseFormReturn } from 'react-hook-form';
-import type { UnitKind } from '~/lib/kinds';
 import { LINK_QUANTITIES, type LinkQuantity } from '~/lib/plant/kinds';
 import { LinkFormSchema, linkRequestBody, linkedText, proposedUnit, targetQuantity, targetsOf, type LinkFormValues, type Target } from '~/lib/plant/link-form';
-import type { LinkModel, PortModel } from '~/lib/plant/model';
-import type { UnitStatus } from '~/lib/plant/status';
 import { defaultUncertainty } from '~/lib/plant/uncertainty';
 import { canConvert } from '~/lib/units';
 import { Notice, wallTimeToIso } from './common';
 import { call, messageOf, type Message } from '~/components/api';
 import { TrustFields, WhatFields } from './LinkFormFields';
 
-export interface UnitJson {
-  id: string;
-  name: string;
-  kind: UnitKind;
-  description?: string;
-  parameters: Record<string, number | string>;
-  fuel?: unknown;
-  ports: (PortModel & { id: string })[];
-  links: LinkModel[];
-  status: UnitStatus;
-}
-export interface TagJson {
-  id: string;
-  name: string;
-  unitHint: string | null;
-  description?: string | null;
-}
+export type { TagJson, UnitJson } from './link-json';
+import type { TagJson, UnitJson } from './link-json';
 
 export { proposedUnit, targetsOf, type Target } from '~/lib/plant/link-form';
 

@@ -3,7 +3,7 @@ import { LINK_QUANTITIES, type LinkQuantity } from '~/lib/plant/kinds';
 import type { LinkFormValues, Target } from '~/lib/plant/link-form';
 import { unitsFor } from '~/lib/units';
 import { Field } from './common';
-import type { TagJson, UnitJson } from './LinkForm';
+import type { TagJson, UnitJson } from './link-json';
 
 export interface LinkFieldsProps {
   form: UseFormReturn<LinkFormValues>;
