@@ -1,14 +1,9 @@
 import { useEffect, useState } from 'react';
 
 import type { Period, PeriodChoice, Range } from '~/lib/views/period';
+import { pickRange, stepPeriod, type PeriodValue } from '~/lib/views/period-step';
 
-export type { Range };
-export interface PeriodValue {
-  range: Range;
-  anchor?: string;
-  from?: string;
-  to?: string;
-}
+export type { Range, PeriodValue };
 /** What the server answered for the period (src/lib/views/period.ts). */
 export type PeriodInfo = Pick<Period, 'range' | 'label' | 'firstDay' | 'lastDay' | 'prevAnchor' | 'nextAnchor' | 'hours' | 'timeZone'> & {
   /** Why the server chose this period (src/lib/views/period.ts periodFor). */
@@ -61,7 +56,6 @@ export function syncSearch(extra: Record<string, string | undefined>, v: PeriodV
   window.history.replaceState(null, '', url);
 }
 
-/** Day, week, month, year or custom, in the site's clock, with earlier and later steps. */
 /** A local date of the custom period. */
 function DayField({ id, label, value, onChange }: { id: string; label: string; value: string; onChange: (v: string) => void }) {
   return (
@@ -74,6 +68,86 @@ function DayField({ id, label, value, onChange }: { id: string; label: string; v
   );
 }
 
+/** The range buttons: day, week, month, year, custom (the chosen one pressed). */
+function RangeButtons({ range, onPick }: { range: Range; onPick: (r: Range) => void }) {
+  return (
+    <div role="group" aria-label="Range" className="inline-flex overflow-hidden rounded border border-ink/20">
+      {RANGES.map((r) => (
+        <button
+          key={r.key}
+          type="button"
+          aria-pressed={range === r.key}
+          onClick={() => onPick(r.key)}
+          className={`px-3 py-1.5 text-sm font-medium ${range === r.key ? 'bg-ink text-paper' : 'bg-white text-ink hover:bg-paper-deep'}`}
+        >
+          {r.label}
+        </button>
+      ))}
+    </div>
+  );
+}
+
+/** Earlier, later, and (except for a custom period) the latest full period with data. */
+function StepButtons({ range, ready, onStep, onLatest }: { range: Range; ready: boolean; onStep: (dir: -1 | 1) => void; onLatest: () => void }) {
+  return (
+    <div className="inline-flex items-center gap-1">
+      <button type="button" className="btn" onClick={() => onStep(-1)} disabled={!ready} aria-label="Earlier period">
+        ← Earlier
+      </button>
+      <button type="button" className="btn" onClick={() => onStep(1)} disabled={!ready} aria-label="Later period">
+        Later →
+      </button>
+      {range !== 'custom' && (
+        <button
+          type="button"
+          className="btn"
+          onClick={onLatest}
+          title={`Go to the latest full ${range} that has computed hours (not the calendar ${range} holding today)`}
+          data-testid="period-latest"
+        >
+          Latest full {range} with data
+        </button>
+      )}
+    </div>
+  );
+}
+
+/** The first and last day of a custom period, shown on submit. */
+function CustomDays({ from, to, setFrom, setTo, onShow }: { from: string; to: string; setFrom: (v: string) => void; setTo: (v: string) => void; onShow: () => void }) {
+  return (
+    <form
+      className="flex items-end gap-2"
+      onSubmit={(e) => {
+        e.preventDefault();
+        onShow();
+      }}
+    >
+      <DayField id="period-from" label="From (first day)" value={from} onChange={setFrom} />
+      <DayField id="period-to" label="To (last day)" value={to} onChange={setTo} />
+      <button type="submit" className="btn btn-primary">
+        Show
+      </button>
+    </form>
+  );
+}
+
+/** The shown period in words, its hours and zone, and why it was chosen. */
+function PeriodLabel({ info }: { info: PeriodInfo | null }) {
+  return (
+    <p className="ml-auto text-sm text-ink-soft" data-testid="period-label" aria-live="polite">
+      {info ? (
+        <>
+          <span className="font-semibold text-ink">{info.label}</span> · {info.hours} h · {info.timeZone}
+          {info.opened && OPENED_WORDS[info.opened] && <span data-testid="period-opened"> · {OPENED_WORDS[info.opened]}</span>}
+        </>
+      ) : (
+        ' '
+      )}
+    </p>
+  );
+}
+
+/** Day, week, month, year or custom, in the site's clock, with earlier and later steps. */
 export function PeriodPicker({ value, info, onChange }: { value: PeriodValue; info: PeriodInfo | null; onChange: (v: PeriodValue) => void }) {
   const [from, setFrom] = useState(value.from ?? info?.firstDay ?? '');
   const [to, setTo] = useState(value.to ?? info?.lastDay ?? '');
@@ -85,82 +159,18 @@ export function PeriodPicker({ value, info, onChange }: { value: PeriodValue; in
     }
   }, [info, value.range]);
 
-  const pick = (range: Range) => {
-    if (range === 'custom') onChange({ range, from: from || info?.firstDay, to: to || info?.lastDay });
-    else onChange({ range, anchor: value.range === 'custom' ? (value.from ?? info?.firstDay) : (value.anchor ?? info?.firstDay) });
-  };
+  const pick = (range: Range) => onChange(pickRange(range, value, info, from, to));
   const step = (dir: -1 | 1) => {
-    if (!info) return;
-    if (value.range === 'custom') {
-      const days = Math.round(info.hours / 24);
-      const shift = (d: string, n: number) => {
-        const t = new Date(`${d}T00:00:00Z`);
-        t.setUTCDate(t.getUTCDate() + n);
-        return t.toISOString().slice(0, 10);
-      };
-      onChange({ range: 'custom', from: shift(info.firstDay, dir * days), to: shift(info.lastDay, dir * days) });
-    } else onChange({ range: value.range, anchor: dir < 0 ? info.prevAnchor : info.nextAnchor });
+    const next = stepPeriod(value, info, dir);
+    if (next) onChange(next);
   };
 
   return (
     <div className="flex flex-wrap items-end gap-3" data-testid="period-picker">
-      <div role="group" aria-label="Range" className="inline-flex overflow-hidden rounded border border-ink/20">
-        {RANGES.map((r) => (
-          <button
-            key={r.key}
-            type="button"
-            aria-pressed={value.range === r.key}
-            onClick={() => pick(r.key)}
-            className={`px-3 py-1.5 text-sm font-medium ${value.range === r.key ? 'bg-ink text-paper' : 'bg-white text-ink hover:bg-paper-deep'}`}
-          >
-            {r.label}
-          </button>
-        ))}
-      </div>
-      <div className="inline-flex items-center gap-1">
-        <button type="button" className="btn" onClick={() => step(-1)} disabled={!info} aria-label="Earlier period">
-          ← Earlier
-        </button>
-        <button type="button" className="btn" onClick={() => step(1)} disabled={!info} aria-label="Later period">
-          Later →
-        </button>
-        {value.range !== 'custom' && (
-          <button
-            type="button"
-            className="btn"
-            onClick={() => onChange({ range: value.range })}
-            title={`Go to the latest full ${value.range} that has computed hours (not the calendar ${value.range} holding today)`}
-            data-testid="period-latest"
-          >
-            Latest full {value.range} with data
-          </button>
-        )}
-      </div>
-      {value.range === 'custom' && (
-        <form
-          className="flex items-end gap-2"
-          onSubmit={(e) => {
-            e.preventDefault();
-            onChange({ range: 'custom', from, to });
-          }}
-        >
-          <DayField id="period-from" label="From (first day)" value={from} onChange={setFrom} />
-          <DayField id="period-to" label="To (last day)" value={to} onChange={setTo} />
-          <button type="submit" className="btn btn-primary">
-            Show
-          </button>
-        </form>
-      )}
-      <p className="ml-auto text-sm text-ink-soft" data-testid="period-label" aria-live="polite">
-        {info ? (
-          <>
-            <span className="font-semibold text-ink">{info.label}</span> · {info.hours} h · {info.timeZone}
-            {info.opened && OPENED_WORDS[info.opened] && <span data-testid="period-opened"> · {OPENED_WORDS[info.opened]}</span>}
-          </>
-        ) : (
-          ' '
-        )}
-      </p>
+      <RangeButtons range={value.range} onPick={pick} />
+      <StepButtons range={value.range} ready={!!info} onStep={step} onLatest={() => onChange({ range: value.range })} />
+      {value.range === 'custom' && <CustomDays from={from} to={to} setFrom={setFrom} setTo={setTo} onShow={() => onChange({ range: 'custom', from, to })} />}
+      <PeriodLabel info={info} />
     </div>
   );
 }

@@ -23,9 +23,11 @@ import {
 import { COLORS, HourStateMark, STATE_LOOK } from './common';
 import type { ContextSpan, CurvePoint, ExpectedHour, NoticeMark, ScatterPoint, TrendPoint } from '~/lib/views/trend';
 export type { ContextSpan, CurvePoint, ExpectedHour, NoticeMark, ScatterPoint, TrendPoint };
-import { load as showLoad, loadAxis, pct, sitePowerUnit, siteTime, type HourState } from './format';
+import { loadAxis, sitePowerUnit } from './format';
 import { significant } from '~/lib/format';
 import { writerOf, type SiteWriter } from '~/lib/units/writer';
+import { loadScatterRows, timeChartRows, type ChartRow, type TrendChartKind as Kind } from '~/lib/views/trend-chart';
+import { ScatterTooltip, TrendTooltip } from './TrendTooltips';
 
 
 /** Fill patterns of the shaded states: idle lines, unsettled hatching, suspect dots. */
@@ -119,71 +121,8 @@ export function timeTicks(fromMs: number, toMs: number, timeZone: string): { tic
   return { ticks: out, pattern };
 }
 
-interface ChartRow {
-  t: number;
-  measured: number | null;
-  expected: number | null;
-  band: [number, number] | null;
-  point: TrendPoint;
-}
 
-type Kind = 'efficiency' | 'destruction';
-
-function TrendTooltip({ active, payload, kind, timeZone, bucket, loadUnit, w }: { active?: boolean; payload?: { payload: ChartRow }[]; kind: Kind; timeZone: string; bucket: 'hour' | 'day'; loadUnit: string | null; w: SiteWriter }) {
-  if (!active || !payload?.length) return null;
-  const power = (v_W: number | null | undefined, U_W?: number | null) => w.withU(v_W, U_W, 'power');
-  const p = payload[0]!.payload.point;
-  const when = `${bucket === 'hour' ? `${siteTime(p.t, timeZone)}–${siteTime(p.t + HOUR_MS, timeZone, 'HH:mm')}` : siteTime(p.t, timeZone, 'EEE d MMM yyyy')} (${timeZone})`;
-  const states = (Object.keys(p.states) as HourState[]).filter((s) => p.states[s] > 0);
-  const e = p.expected;
-  return (
-    <div className="rounded border border-paper-edge bg-white px-3 py-2 text-xs shadow" data-testid="trend-tooltip">
-      <p className="font-semibold">{when}</p>
-      <div className="mt-1 flex flex-wrap gap-2">
-        {states.length === 0 ? <span className="text-ink-faint">no unit hour</span> : states.map((s) => <HourStateMark key={s} state={s} count={bucket === 'day' ? p.states[s] : undefined} />)}
-      </div>
-      {kind === 'efficiency' ? (
-        <>
-          <p className="mt-1">
-            Efficiency{bucket === 'day' ? ' (mean of steady hours)' : ''}: <b>{pct(p.efficiency, p.efficiency_U)}</b>
-          </p>
-          {e && e.efficiency !== null && (
-            <p>
-              Expected: {pct(e.efficiency)} (band {pct(e.efficiencyLo)} to {pct(e.efficiencyHi)}, k = 2)
-            </p>
-          )}
-        </>
-      ) : (
-        <>
-          <p className="mt-1">
-            Destruction{bucket === 'day' ? ' (mean of steady hours)' : ''}: <b>{power(p.destruction_W, p.destruction_U_W)}</b>
-          </p>
-          {e && e.destruction_W !== null && (
-            <p>
-              Expected: {power(e.destruction_W)} (band {power(e.destructionLo_W)} to {power(e.destructionHi_W)}, k = 2)
-            </p>
-          )}
-        </>
-      )}
-      {p.load !== null && <p>Load: {showLoad(p.load, loadUnit, w)}</p>}
-      {p.T0_K !== null && <p>T0: {w.withU(p.T0_K, null, 'temperature', 1)}</p>}
-      {p.reasons && p.reasons.length > 0 && <p className="mt-1 max-w-xs text-ink-soft">{p.reasons.join('; ')}</p>}
-    </div>
-  );
-}
-
-export function TimeChart({
-  kind,
-  points,
-  context,
-  notices,
-  fromMs,
-  toMs,
-  timeZone,
-  bucket,
-  loadUnit,
-  writer,
-}: {
+export interface TimeChartProps {
   kind: Kind;
   points: TrendPoint[];
   context: ContextSpan[];
@@ -195,29 +134,13 @@ export function TimeChart({
   loadUnit: string | null;
   /** The site's writer (its display units and locale); the default units when none is given. */
   writer?: SiteWriter;
-}) {
+}
+
+export function TimeChart({ kind, points, context, notices, fromMs, toMs, timeZone, bucket, loadUnit, writer }: TimeChartProps) {
   const w = writer ?? writerOf(null);
   // The site's chosen power unit, whatever the size of the figures (kW stays kW at 20 MW).
   const pu = sitePowerUnit(w);
-  const rows: ChartRow[] = points.map((p) => {
-    const e = p.expected;
-    if (kind === 'efficiency') {
-      return {
-        t: p.t,
-        measured: p.efficiency === null ? null : p.efficiency * 100,
-        expected: e?.efficiency == null ? null : e.efficiency * 100,
-        band: e?.efficiencyLo == null || e?.efficiencyHi == null ? null : [e.efficiencyLo * 100, e.efficiencyHi * 100],
-        point: p,
-      };
-    }
-    return {
-      t: p.t,
-      measured: p.destruction_W === null ? null : p.destruction_W / pu.factor,
-      expected: e?.destruction_W == null ? null : e.destruction_W / pu.factor,
-      band: e?.destructionLo_W == null || e?.destructionHi_W == null ? null : [e.destructionLo_W / pu.factor, e.destructionHi_W / pu.factor],
-      point: p,
-    };
-  });
+  const rows: ChartRow[] = timeChartRows(points, kind, pu.factor);
   const { ticks, pattern } = timeTicks(fromMs, toMs, timeZone);
   const yAxis = niceTicks(rows.flatMap((r) => [r.measured, r.expected, ...(r.band ?? [])]));
   const prefix = `${kind}-pat`;
@@ -306,49 +229,7 @@ export function TrendLegend({ kind, shown }: { kind: Kind; shown: Set<string> })
   );
 }
 
-function ScatterTooltip({ active, payload, kind, timeZone, loadUnit, w }: { active?: boolean; payload?: { payload: Record<string, unknown> }[]; kind: Kind; timeZone: string; loadUnit: string | null; w: SiteWriter }) {
-  if (!active || !payload?.length) return null;
-  const power = (v_W: number | null | undefined) => w.withU(v_W, null, 'power');
-  const d = payload[0]!.payload as { s?: ScatterPoint; c?: CurvePoint };
-  if (d.s) {
-    return (
-      <div className="rounded border border-paper-edge bg-white px-3 py-2 text-xs shadow">
-        <p className="font-semibold">
-          {siteTime(d.s.t, timeZone)} ({timeZone})
-        </p>
-        <p>Load: {showLoad(d.s.load, loadUnit, w)}</p>
-        {kind === 'efficiency' ? <p>Efficiency: {pct(d.s.efficiency, d.s.efficiency_U)}</p> : <p>Destruction: {power(d.s.destruction_W)}</p>}
-      </div>
-    );
-  }
-  if (d.c) {
-    return (
-      <div className="rounded border border-paper-edge bg-white px-3 py-2 text-xs shadow">
-        <p className="font-semibold">Baseline at load {showLoad(d.c.load, loadUnit, w)}</p>
-        {kind === 'efficiency' ? (
-          <p>
-            Expected {pct(d.c.efficiency)} (band {pct(d.c.lo)} to {pct(d.c.hi)}, k = 2)
-          </p>
-        ) : (
-          <p>
-            Expected {power(d.c.destruction_W)} (band {power(d.c.dLo_W)} to {power(d.c.dHi_W)}, k = 2)
-          </p>
-        )}
-      </div>
-    );
-  }
-  return null;
-}
-
-/** Efficiency (or, for dissipative units, destruction) of steady hours against load, with the baseline's curve. */
-export function LoadScatter({
-  kind,
-  scatter,
-  curve,
-  loadUnit,
-  timeZone,
-  writer,
-}: {
+export interface LoadScatterProps {
   kind: Kind;
   scatter: ScatterPoint[];
   curve: CurvePoint[];
@@ -356,18 +237,14 @@ export function LoadScatter({
   timeZone: string;
   /** The site's writer (its display units and locale); the default units when none is given. */
   writer?: SiteWriter;
-}) {
+}
+
+/** Efficiency (or, for dissipative units, destruction) of steady hours against load, with the baseline's curve. */
+export function LoadScatter({ kind, scatter, curve, loadUnit, timeZone, writer }: LoadScatterProps) {
   const w = writer ?? writerOf(null);
   const ax = loadAxis(loadUnit, w);
   const pu = sitePowerUnit(w);
-  const y = (v: number | null) => (v === null ? null : kind === 'efficiency' ? v * 100 : v / pu.factor);
-  const pts = scatter.map((s) => ({ x: s.load * ax.scale, y: y(kind === 'efficiency' ? s.efficiency : s.destruction_W), s })).filter((p) => p.y !== null);
-  const cur = curve.map((c) => ({
-    x: c.load * ax.scale,
-    y: y(kind === 'efficiency' ? c.efficiency : c.destruction_W),
-    band: (kind === 'efficiency' ? c.lo !== null && c.hi !== null : c.dLo_W !== null && c.dHi_W !== null) ? [y(kind === 'efficiency' ? c.lo : c.dLo_W)!, y(kind === 'efficiency' ? c.hi : c.dHi_W)!] : null,
-    c,
-  }));
+  const { pts, cur } = loadScatterRows(scatter, curve, kind, ax.scale, pu.factor);
   const dot = kind === 'efficiency' ? COLORS.teal : COLORS.copper;
   const xAxis = niceTicks([...pts.map((p) => p.x), ...cur.map((c) => c.x)]);
   const yAxis = niceTicks([...pts.map((p) => p.y), ...cur.flatMap((c) => [c.y, ...(c.band ?? [])])]);

@@ -5,12 +5,12 @@
  */
 import { NOTICE_STATUS_WORDS } from '~/lib/words';
 import type { NoticeStatus } from '~/lib/notice-view';
-import { useEffect, useMemo, useState, type ReactNode } from 'react';
+import { useMemo, type ReactNode } from 'react';
 import { ErrorNote, HourStateMark, Loading, ViewsCaution } from './common';
-import { useApi } from '~/components/api';
 import { pct, siteTime, type HourState } from './format';
 import { writerOf, type SiteDisplayUnits, type SiteWriter } from '~/lib/units/writer';
-import { PeriodPicker, periodFromSearch, periodQuery, syncSearch, type PeriodInfo, type PeriodValue } from './PeriodPicker';
+import { useTrend } from './useTrend';
+import { PeriodPicker } from './PeriodPicker';
 import { LoadScatter, TimeChart, TrendLegend } from './TrendCharts';
 import type { TrendAnswer } from '~/lib/views/trend';
 
@@ -68,22 +68,105 @@ function TimeCard({ kind, title, data, shown, w, children }: { kind: 'efficiency
   );
 }
 
+/** The period's figures: steady hours, mean efficiency and destruction against expected, hours by state. */
+function TrendStats({ data, hasEfficiency, w }: { data: TrendAnswer; hasEfficiency: boolean; w: SiteWriter }) {
+  const power = (v_W: number | null | undefined, U_W?: number | null) => w.withU(v_W, U_W, 'power');
+  return (
+    <div className="grid grid-cols-2 gap-3 md:grid-cols-4">
+      <Stat
+        testId="stat-hours"
+        label="Steady hours"
+        value={`${data.summary.steadyHours} h of ${data.period.hours} h`}
+        sub={data.missingHours ? `${data.missingHours} h without a unit hour` : 'every hour has a unit hour'}
+      />
+      <Stat
+        testId="stat-efficiency"
+        label="Mean efficiency"
+        value={hasEfficiency ? pct(data.summary.efficiencyMean, data.summary.efficiencyMean_U) : 'none (dissipative)'}
+        sub={data.summary.expectedEfficiencyMean !== null ? `expected ${pct(data.summary.expectedEfficiencyMean)}` : undefined}
+      />
+      <Stat
+        testId="stat-destruction"
+        label="Mean destruction"
+        value={power(data.summary.destructionMean_W, data.summary.destructionMean_U_W)}
+        sub={data.summary.expectedDestructionMean_W !== null ? `expected ${power(data.summary.expectedDestructionMean_W)}` : undefined}
+      />
+      <div className="card">
+        <p className="text-xs font-medium uppercase tracking-wide text-ink-faint">Hours by state</p>
+        <div className="mt-1 flex flex-col gap-0.5" data-testid="state-hours">
+          {(Object.keys(data.stateHours) as HourState[]).map((s) => (
+            <HourStateMark key={s} state={s} count={data.stateHours[s]} />
+          ))}
+        </div>
+      </div>
+    </div>
+  );
+}
+
+/** Efficiency (or destruction) of the steady hours against load, with the baseline's curve. */
+function LoadCard({ data, hasEfficiency, w }: { data: TrendAnswer; hasEfficiency: boolean; w: SiteWriter }) {
+  return (
+    <section className="card">
+      <h2>{hasEfficiency ? 'Efficiency' : 'Destruction'} against load</h2>
+      <BaselineName b={data.baseline} />
+      {data.scatter.length === 0 ? (
+        <p className="py-4 text-sm text-ink-faint">No steady hours with a load in this period.</p>
+      ) : (
+        <LoadScatter kind={hasEfficiency ? 'efficiency' : 'destruction'} scatter={data.scatter} curve={data.curve} loadUnit={data.loadUnit} timeZone={data.site.timeZone} writer={w} />
+      )}
+      <p className="mt-1 text-xs text-ink-faint">
+        Dots: steady hours of the period. Dashed line and band: the baseline at the period's mean ambient temperature (k = 2).
+      </p>
+    </section>
+  );
+}
+
+/** The drift notices whose onset falls in the period, with the views' caution. */
+function TrendNotices({ data, w }: { data: TrendAnswer; w: SiteWriter }) {
+  const power = (v_W: number | null | undefined, U_W?: number | null) => w.withU(v_W, U_W, 'power');
+  const unitP = w.unit('power');
+  return (
+    <section className="card" data-testid="trend-notices">
+      <h2>Drift notices in the period</h2>
+      {data.notices.length === 0 ? (
+        <p className="text-sm text-ink-faint">None.</p>
+      ) : (
+        <table className="grid-table mt-2">
+          <thead>
+            <tr>
+              <th>Onset ({data.site.timeZone})</th>
+              <th>Shift</th>
+              <th>Status</th>
+              <th className="num">Extra destruction [{unitP}]</th>
+              <th className="num">Extra cost at signal, onset to signal hours [{data.site.currency}/day]</th>
+            </tr>
+          </thead>
+          <tbody>
+            {data.notices.map((n) => (
+              <tr key={n.id}>
+                <td>
+                  <a href={`/notices/${n.id}`}>{siteTime(n.onsetMs, data.site.timeZone)}</a>
+                </td>
+                <td>{n.direction === 'up' ? 'more destruction than expected' : 'less destruction than expected'}</td>
+                <td>{NOTICE_STATUS_WORDS[n.status as NoticeStatus]?.label ?? 'other'}</td>
+                <td className="num">{power(n.extra_W, n.shiftU_W).split(` ${unitP}`).join('')}</td>
+                <td className="num">{w.number(n.extraCost_per_day, 0)}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      )}
+      <div className="mt-3">
+        <ViewsCaution />
+      </div>
+    </section>
+  );
+}
+
 /** `display`: the site's display units (its settings), so powers are in the site's chosen unit whatever their size. */
 export default function TrendView({ unitId, initialSearch, display }: { unitId: string; initialSearch: string; display?: SiteDisplayUnits | null }) {
   const w = useMemo(() => writerOf(display), [display]);
-  const power = (v_W: number | null | undefined, U_W?: number | null) => w.withU(v_W, U_W, 'power');
-  const unitP = w.unit('power');
-  const [value, setValue] = useState<PeriodValue>(() => periodFromSearch(initialSearch, 'week'));
-  const url = `/api/units/${unitId}/trend?${periodQuery(value)}`;
-  const { data, error, loading } = useApi<TrendAnswer>(url);
-  const [info, setInfo] = useState<PeriodInfo | null>(null);
-  useEffect(() => {
-    if (data) setInfo({ ...data.period, timeZone: data.site.timeZone, opened: data.opened });
-  }, [data]);
-  const change = (v: PeriodValue) => {
-    setValue(v);
-    syncSearch({}, v);
-  };
+  const { value, change, info, data, error, loading } = useTrend(unitId, initialSearch);
   const shown = useMemo(() => new Set(data?.context.map((c) => c.state) ?? []), [data]);
   const total = data ? Object.values(data.stateHours).reduce((a, b) => a + b, 0) : 0;
   const hasEfficiency = !!data?.points.some((p) => p.efficiency !== null);
@@ -101,34 +184,7 @@ export default function TrendView({ unitId, initialSearch, display }: { unitId: 
       )}
       {data && !loading && total > 0 && (
         <>
-          <div className="grid grid-cols-2 gap-3 md:grid-cols-4">
-            <Stat
-              testId="stat-hours"
-              label="Steady hours"
-              value={`${data.summary.steadyHours} h of ${data.period.hours} h`}
-              sub={data.missingHours ? `${data.missingHours} h without a unit hour` : 'every hour has a unit hour'}
-            />
-            <Stat
-              testId="stat-efficiency"
-              label="Mean efficiency"
-              value={hasEfficiency ? pct(data.summary.efficiencyMean, data.summary.efficiencyMean_U) : 'none (dissipative)'}
-              sub={data.summary.expectedEfficiencyMean !== null ? `expected ${pct(data.summary.expectedEfficiencyMean)}` : undefined}
-            />
-            <Stat
-              testId="stat-destruction"
-              label="Mean destruction"
-              value={power(data.summary.destructionMean_W, data.summary.destructionMean_U_W)}
-              sub={data.summary.expectedDestructionMean_W !== null ? `expected ${power(data.summary.expectedDestructionMean_W)}` : undefined}
-            />
-            <div className="card">
-              <p className="text-xs font-medium uppercase tracking-wide text-ink-faint">Hours by state</p>
-              <div className="mt-1 flex flex-col gap-0.5" data-testid="state-hours">
-                {(Object.keys(data.stateHours) as HourState[]).map((s) => (
-                  <HourStateMark key={s} state={s} count={data.stateHours[s]} />
-                ))}
-              </div>
-            </div>
-          </div>
+          <TrendStats data={data} hasEfficiency={hasEfficiency} w={w} />
 
           {hasEfficiency && <TimeCard kind="efficiency" title="Exergy efficiency" data={data} shown={shown} w={w} />}
 
@@ -136,53 +192,9 @@ export default function TrendView({ unitId, initialSearch, display }: { unitId: 
             {data.bucket === 'day' && <p className="mt-1 text-xs text-ink-faint">Long periods are drawn per local day: each point is the mean of that day's steady hours.</p>}
           </TimeCard>
 
-          <section className="card">
-            <h2>{hasEfficiency ? 'Efficiency' : 'Destruction'} against load</h2>
-            <BaselineName b={data.baseline} />
-            {data.scatter.length === 0 ? (
-              <p className="py-4 text-sm text-ink-faint">No steady hours with a load in this period.</p>
-            ) : (
-              <LoadScatter kind={hasEfficiency ? 'efficiency' : 'destruction'} scatter={data.scatter} curve={data.curve} loadUnit={data.loadUnit} timeZone={data.site.timeZone} writer={w} />
-            )}
-            <p className="mt-1 text-xs text-ink-faint">
-              Dots: steady hours of the period. Dashed line and band: the baseline at the period's mean ambient temperature (k = 2).
-            </p>
-          </section>
+          <LoadCard data={data} hasEfficiency={hasEfficiency} w={w} />
 
-          <section className="card" data-testid="trend-notices">
-            <h2>Drift notices in the period</h2>
-            {data.notices.length === 0 ? (
-              <p className="text-sm text-ink-faint">None.</p>
-            ) : (
-              <table className="grid-table mt-2">
-                <thead>
-                  <tr>
-                    <th>Onset ({data.site.timeZone})</th>
-                    <th>Shift</th>
-                    <th>Status</th>
-                    <th className="num">Extra destruction [{unitP}]</th>
-                    <th className="num">Extra cost at signal, onset to signal hours [{data.site.currency}/day]</th>
-                  </tr>
-                </thead>
-                <tbody>
-                  {data.notices.map((n) => (
-                    <tr key={n.id}>
-                      <td>
-                        <a href={`/notices/${n.id}`}>{siteTime(n.onsetMs, data.site.timeZone)}</a>
-                      </td>
-                      <td>{n.direction === 'up' ? 'more destruction than expected' : 'less destruction than expected'}</td>
-                      <td>{NOTICE_STATUS_WORDS[n.status as NoticeStatus]?.label ?? 'other'}</td>
-                      <td className="num">{power(n.extra_W, n.shiftU_W).split(` ${unitP}`).join('')}</td>
-                      <td className="num">{w.number(n.extraCost_per_day, 0)}</td>
-                    </tr>
-                  ))}
-                </tbody>
-              </table>
-            )}
-            <div className="mt-3">
-              <ViewsCaution />
-            </div>
-          </section>
+          <TrendNotices data={data} w={w} />
         </>
       )}
     </div>
