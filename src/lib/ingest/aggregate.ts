@@ -29,7 +29,7 @@
  */
 import { CellStatus } from './reader-types';
 import { DEFAULT_FLATLINE_LIMIT_s, type HourAggregator, type HourAggregatorOptions, type TagHour } from './aggregate-types';
-import { HourClock, MS_PER_HOUR } from './time';
+import { HourClock } from './time';
 import { IngestError } from './errors';
 
 export type { TagOptions, HourAggregatorOptions, TagHour, HourAggregator } from './aggregate-types';
@@ -388,4 +388,3 @@ export function createHourAggregator(options: HourAggregatorOptions): HourAggreg
   return new Aggregator(options);
 }
 
-export { MS_PER_HOUR };

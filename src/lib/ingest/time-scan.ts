@@ -3,9 +3,8 @@
  * milliseconds of a scanned cell or of a spreadsheet serial day (see time.ts for what wall ms are).
  * Allocation-free: the scanner keeps its position in module registers and writes into a reused scan.
  */
-export const MS_PER_HOUR = 3_600_000;
-export const MS_PER_DAY = 86_400_000;
-export const MS_PER_MINUTE = 60_000;
+import { DAY_MS, HOUR_MS, MINUTE_MS } from '../time';
+
 /** Days from 1899-12-30 (spreadsheet day 0) to 1970-01-01. */
 export const SERIAL_DAY_OF_UNIX_EPOCH = 25569;
 
@@ -330,10 +329,10 @@ export function timeOfDayMs(out: DateTimeScan): number {
     if (h === 12) h = 0;
     if (out.meridiem === 2) h += 12;
   } else if (h === 24 && out.minute === 0 && out.second === 0 && out.millisecond === 0) {
-    return MS_PER_DAY; // 24:00 is the end of the day
+    return DAY_MS; // 24:00 is the end of the day
   }
   if (h > 23 || out.minute > 59 || out.second > 59) return NaN;
-  return h * MS_PER_HOUR + out.minute * MS_PER_MINUTE + out.second * 1000 + out.millisecond;
+  return h * HOUR_MS + out.minute * MINUTE_MS + out.second * 1000 + out.millisecond;
 }
 
 /** Wall milliseconds of a scanned date-time, or NaN. */
@@ -341,10 +340,10 @@ export function wallMsFromScan(out: DateTimeScan, order: DateOrder): number {
   const day = dayFromScan(out, order);
   if (day !== day) return NaN;
   const tod = out.hasTime ? timeOfDayMs(out) : 0;
-  return day * MS_PER_DAY + tod;
+  return day * DAY_MS + tod;
 }
 
 /** Wall milliseconds of a spreadsheet serial date (days since 1899-12-30, fraction = time of day). */
 export function wallMsFromSerial(serialDays: number): number {
-  return Math.round((serialDays - SERIAL_DAY_OF_UNIX_EPOCH) * MS_PER_DAY);
+  return Math.round((serialDays - SERIAL_DAY_OF_UNIX_EPOCH) * DAY_MS);
 }

@@ -8,7 +8,7 @@
  */
 import { tzOffset } from '@date-fns/tz';
 import { IngestError } from './errors';
-import { MS_PER_DAY, MS_PER_HOUR, MS_PER_MINUTE } from './time-scan';
+import { DAY_MS, HOUR_MS, MINUTE_MS } from '../time';
 
 export * from './time-scan';
 
@@ -57,7 +57,7 @@ interface WallInfo {
   offsetLateMinutes: number;
 }
 
-const BUCKET_MS = 15 * MS_PER_MINUTE;
+const BUCKET_MS = 15 * MINUTE_MS;
 const CACHE_LIMIT = 20000;
 
 /**
@@ -78,10 +78,10 @@ export function createWallClassifier(timeZone: string): (wallMs: number) => Wall
     let info = cache.get(key);
     if (!info) {
       const w = key * BUCKET_MS;
-      const before = offsetMinutesAt(timeZone, w - MS_PER_DAY);
-      const after = offsetMinutesAt(timeZone, w + MS_PER_DAY);
-      const okBefore = offsetMinutesAt(timeZone, w - before * MS_PER_MINUTE) === before;
-      const okAfter = after !== before && offsetMinutesAt(timeZone, w - after * MS_PER_MINUTE) === after;
+      const before = offsetMinutesAt(timeZone, w - DAY_MS);
+      const after = offsetMinutesAt(timeZone, w + DAY_MS);
+      const okBefore = offsetMinutesAt(timeZone, w - before * MINUTE_MS) === before;
+      const okAfter = after !== before && offsetMinutesAt(timeZone, w - after * MINUTE_MS) === after;
       if (okBefore && okAfter) {
         info = {
           kind: WallKind.Repeated,
@@ -137,15 +137,15 @@ export class LocalClock {
     let utc: number;
     if (info.kind === WallKind.Normal) {
       this.secondPass = false;
-      utc = wallMs - info.offsetEarlyMinutes * MS_PER_MINUTE;
+      utc = wallMs - info.offsetEarlyMinutes * MINUTE_MS;
     } else if (info.kind === WallKind.Gap) {
       this.secondPass = false;
-      utc = wallMs - info.offsetEarlyMinutes * MS_PER_MINUTE;
+      utc = wallMs - info.offsetEarlyMinutes * MINUTE_MS;
       this.stats.gapCount++;
       if (this.stats.gapLines.length < this.maxLines) this.stats.gapLines.push(line);
     } else {
-      const early = wallMs - info.offsetEarlyMinutes * MS_PER_MINUTE;
-      const late = wallMs - info.offsetLateMinutes * MS_PER_MINUTE;
+      const early = wallMs - info.offsetEarlyMinutes * MINUTE_MS;
+      const late = wallMs - info.offsetLateMinutes * MINUTE_MS;
       if (!this.secondPass && early <= this.lastUtcMs && late > this.lastUtcMs) this.secondPass = true;
       utc = this.secondPass ? late : early;
       if (this.secondPass) this.stats.repeatedSecondPassCount++;
@@ -194,9 +194,9 @@ export class HourClock {
     const last = this.last;
     if (utcMs >= last.startMs && utcMs < last.endMs) return last;
     if (this.fixedOffset !== null) {
-      const o = this.fixedOffset * MS_PER_MINUTE;
-      const start = Math.floor((utcMs + o) / MS_PER_HOUR) * MS_PER_HOUR - o;
-      this.last = { startMs: start, endMs: start + MS_PER_HOUR, offsetMinutes: this.fixedOffset };
+      const o = this.fixedOffset * MINUTE_MS;
+      const start = Math.floor((utcMs + o) / HOUR_MS) * HOUR_MS - o;
+      this.last = { startMs: start, endMs: start + HOUR_MS, offsetMinutes: this.fixedOffset };
       return this.last;
     }
     const key = Math.floor(utcMs / BUCKET_MS);
@@ -213,10 +213,10 @@ export class HourClock {
   private compute(utcMs: number): HourSpan {
     const tz = this.timeZone;
     const o = offsetMinutesAt(tz, utcMs);
-    const oMs = o * MS_PER_MINUTE;
-    const localStart = Math.floor((utcMs + oMs) / MS_PER_HOUR) * MS_PER_HOUR;
+    const oMs = o * MINUTE_MS;
+    const localStart = Math.floor((utcMs + oMs) / HOUR_MS) * HOUR_MS;
     let start = localStart - oMs;
-    let end = start + MS_PER_HOUR;
+    let end = start + HOUR_MS;
     if (offsetMinutesAt(tz, start) !== o) start = this.firstWithOffset(start, utcMs, o);
     if (offsetMinutesAt(tz, end - 1) !== o) end = this.firstWithoutOffset(utcMs, end, o);
     return { startMs: start, endMs: end, offsetMinutes: o };
@@ -224,25 +224,25 @@ export class HourClock {
 
   /** Smallest whole minute in (lo, hi] with offset o, knowing lo has another offset and hi has o. */
   private firstWithOffset(lo: number, hi: number, o: number): number {
-    let a = Math.floor(lo / MS_PER_MINUTE);
-    let b = Math.ceil(hi / MS_PER_MINUTE);
+    let a = Math.floor(lo / MINUTE_MS);
+    let b = Math.ceil(hi / MINUTE_MS);
     while (b - a > 1) {
       const m = (a + b) >> 1;
-      if (offsetMinutesAt(this.timeZone, m * MS_PER_MINUTE) === o) b = m;
+      if (offsetMinutesAt(this.timeZone, m * MINUTE_MS) === o) b = m;
       else a = m;
     }
-    return Math.min(b * MS_PER_MINUTE, hi);
+    return Math.min(b * MINUTE_MS, hi);
   }
 
   /** Smallest whole minute in (lo, hi) whose offset differs from o, knowing lo has o. */
   private firstWithoutOffset(lo: number, hi: number, o: number): number {
-    let a = Math.floor(lo / MS_PER_MINUTE);
-    let b = Math.ceil(hi / MS_PER_MINUTE);
+    let a = Math.floor(lo / MINUTE_MS);
+    let b = Math.ceil(hi / MINUTE_MS);
     while (b - a > 1) {
       const m = (a + b) >> 1;
-      if (offsetMinutesAt(this.timeZone, m * MS_PER_MINUTE) === o) a = m;
+      if (offsetMinutesAt(this.timeZone, m * MINUTE_MS) === o) a = m;
       else b = m;
     }
-    return b * MS_PER_MINUTE;
+    return b * MINUTE_MS;
   }
 }
