@@ -135,11 +135,11 @@ function plannedHour(input: UnitHourInput, options: ComputeOptions, withU: boole
   const checks = checkBalance(run, mapped, params, notes);
   // Most hours are steady: the quick test says so without the statistics objects and words of the full one.
   if (run.computed.length === 0 && clearlySteady(set, input.tagHours, input.site.p_atm_Pa, checks.closures, load, mapped.minLoad, params)) {
-    return resultOf(input, options, dead, load, mapped.load.unit, run, 'steady', [], () => fullHour(input, options, withU, dead).detail);
+    return new UnitHourRow(input, options, dead, load, mapped.load.unit, run, 'steady', [], () => fullHour(input, options, withU, dead).detail);
   }
   const tags = keyTagStats(input, set, load);
   const { state, reasons } = hourState({ set, tags, closures: checks.closures, mapped, load, minLoad: mapped.minLoad, problems: [], computed: run.computed, params, notes });
-  return resultOf(input, options, dead, load, mapped.load.unit, run, state, reasons, () => fullHour(input, options, withU, dead).detail);
+  return new UnitHourRow(input, options, dead, load, mapped.load.unit, run, state, reasons, () => fullHour(input, options, withU, dead).detail);
 }
 
 /** An hour through the full mapping, which also keeps the plan of its link set and choices. */
@@ -156,7 +156,7 @@ function fullHour(input: UnitHourInput, options: ComputeOptions, withU: boolean,
   keepPlan(input, mapped, run.entries.length ? run.entries.map((e) => e.name) : null);
   const checks = checkBalance(run, mapped, params, notes);
   const { state, reasons } = hourState({ set, tags, closures: checks.closures, mapped, load, minLoad, problems, computed: run.computed, params, notes });
-  return resultOf(input, options, dead, load, mapped?.load.unit ?? null, run, state, reasons, () => detailOf({ input, set, dead, mapped, minLoad, run, checks, notes }));
+  return new UnitHourRow(input, options, dead, load, mapped?.load.unit ?? null, run, state, reasons, () => detailOf({ input, set, dead, mapped, minLoad, run, checks, notes }));
 }
 
 /**
@@ -230,19 +230,4 @@ class UnitHourRow implements UnitHourResult {
     }
     return this.#detail!;
   }
-}
-
-/** The row of an hour, its detail built when first read. */
-function resultOf(
-  input: UnitHourInput,
-  options: ComputeOptions,
-  dead: DeadState,
-  load: number,
-  loadUnit: 'W' | 'kg/s' | null,
-  run: BalanceRun,
-  state: UnitHourResult['state'],
-  reasons: EngineReason[],
-  detailFn: () => Record<string, unknown>,
-): UnitHourResult {
-  return new UnitHourRow(input, options, dead, load, loadUnit, run, state, reasons, detailFn);
 }

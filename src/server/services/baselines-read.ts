@@ -112,6 +112,10 @@ export async function activeBaseline(unitId: string): Promise<BaselineSummary | 
   const [r] = await summaryQuery().where(and(eq(baselines.unitId, unitId), eq(baselines.status, 'active')));
   return r ? toSummary(r) : null;
 }
+/** A steady hour of the unit with what a baseline and the drift check need: load, T0 and destruction. */
+export const usableSteadyHour = (unitId: string) =>
+  and(eq(unitHours.unitId, unitId), eq(unitHours.state, 'steady'), isNotNull(unitHours.load), isNotNull(unitHours.T0_K), isNotNull(unitHours.destruction_W));
+
 /** Steady hours of a unit with what a baseline needs, oldest first. */
 export async function steadyHours(unitId: string, from: Date, to: Date) {
   return db()
@@ -125,15 +129,7 @@ export async function steadyHours(unitId: string, from: Date, to: Date) {
     })
     .from(unitHours)
     .where(
-      and(
-        eq(unitHours.unitId, unitId),
-        eq(unitHours.state, 'steady'),
-        gte(unitHours.hourStart, from),
-        lt(unitHours.hourStart, to),
-        isNotNull(unitHours.load),
-        isNotNull(unitHours.T0_K),
-        isNotNull(unitHours.destruction_W),
-      ),
+      and(usableSteadyHour(unitId), gte(unitHours.hourStart, from), lt(unitHours.hourStart, to)),
     )
     .orderBy(asc(unitHours.hourStart));
 }

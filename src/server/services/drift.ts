@@ -24,6 +24,7 @@ import { isId } from '../access';
 import { AppError } from '../errors';
 import { inInsightTx, type Tx } from './drift-tx';
 import { reconcileNotices } from './notice-life';
+import { usableSteadyHour } from './baselines-read';
 import { HOUR_MS } from '~/lib/time';
 
 
@@ -159,15 +160,7 @@ function steadyHoursAfter(tx: Tx, unitId: string, after: Date, periodTo: Date) {
     })
     .from(unitHours)
     .where(
-      and(
-        eq(unitHours.unitId, unitId),
-        eq(unitHours.state, 'steady'),
-        gt(unitHours.hourStart, after),
-        gte(unitHours.hourStart, periodTo),
-        isNotNull(unitHours.load),
-        isNotNull(unitHours.T0_K),
-        isNotNull(unitHours.destruction_W),
-      ),
+      and(usableSteadyHour(unitId), gt(unitHours.hourStart, after), gte(unitHours.hourStart, periodTo)),
     )
     .orderBy(asc(unitHours.hourStart));
 }
