@@ -3,6 +3,7 @@
  * docker-free-start.sh as `node --import tsx src/worker/main.ts`; SIGTERM stops it gracefully
  * (the job in hand finishes or is left for retry).
  */
+import './heap'; // first: sets how far the heap grows before the rest loads (heap.ts)
 import { QUEUES, SendMailPayload } from '../jobs';
 import { closeDb } from '../server/db/client';
 import { sendMail } from '../server/mail';
