@@ -126,7 +126,7 @@ export function computeUnitHour(input: UnitHourInput, options: ComputeOptions = 
 /** An hour through its plan; null when the balance fails (the full mapping words why). */
 function plannedHour(input: UnitHourInput, options: ComputeOptions, withU: boolean, dead: DeadState, plan: HourPlan, load: number): UnitHourResult | null {
   const run: BalanceRun = { balance: null, unc: null, entries: [], balanceError: null, computed: [] };
-  balanceAt(run, plan.kind, plan.model, plan.x, plan.u, withU);
+  balanceAt(run, plan.kind, plan.model, plan.x, plan.u, withU, true);
   if (!run.balance) return null;
   const params = unitParameters(input.unit);
   const notes: string[] = [];
