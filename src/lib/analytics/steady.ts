@@ -94,9 +94,26 @@ export const LOW_RANGE_FRACTION = 0.1;
  * @returns the smallest spread limit the tag can have this hour [unit of the statistics]
  */
 export function resolvableSpread(mean: number, inst: InstrumentResolution | undefined, factor = 2): number {
-  if (!inst || !Number.isFinite(mean)) return 0;
+  return resolvableSpreadOf(inst ? resolutionTerms(inst) : null, mean, factor);
+}
+
+/** An instrument's terms of resolvableSpread that do not depend on the reading (a caller testing many hours keeps them). */
+export interface ResolutionTerms {
+  uAbs: number;
+  uRel: number;
+  /** LOW_RANGE_FRACTION x span (0 without a span) */
+  low: number;
+}
+
+export function resolutionTerms(inst: InstrumentResolution): ResolutionTerms {
   const span = inst.span !== null && inst.span !== undefined && Number.isFinite(inst.span) && inst.span > 0 ? inst.span : 0;
-  const u = (inst.uAbs ?? 0) + (inst.uRel ?? 0) * Math.max(Math.abs(mean), LOW_RANGE_FRACTION * span);
+  return { uAbs: inst.uAbs ?? 0, uRel: inst.uRel ?? 0, low: LOW_RANGE_FRACTION * span };
+}
+
+/** resolvableSpread from the instrument's kept terms (null: no instrument, 0). */
+export function resolvableSpreadOf(t: ResolutionTerms | null, mean: number, factor = 2): number {
+  if (!t || !Number.isFinite(mean)) return 0;
+  const u = t.uAbs + t.uRel * Math.max(Math.abs(mean), t.low);
   return Number.isFinite(u) && u > 0 ? factor * u : 0;
 }
 
