@@ -68,6 +68,12 @@ const XS: Float64Array[] = [];
 const S_EFF: Float64Array[] = [];
 const S_D: Float64Array[] = [];
 
+/** Output j at the point with its standard and expanded uncertainty (a function, not a closure per call). */
+function uncertain(y0: Float64Array, variance: Float64Array, j: number, k: number): Uncertain {
+  const s = Math.sqrt(variance[j]);
+  return { value: y0[j], u: s, U: k * s };
+}
+
 const kernels = new WeakMap<CompiledUnit, SweepKernel | null>();
 /** The sweep kernel of a compiled unit (./sweep-kernel.ts), kept with it; null when not covered. */
 function kernelOf(c: CompiledUnit): SweepKernel | null {
@@ -154,18 +160,14 @@ export function unitHourWithUncertainty(
       if (j === 4) sEff[i] = cj;
     }
   }
-  const unc = (j: number): Uncertain => {
-    const s = Math.sqrt(variance[j]);
-    return { value: y0[j], u: s, U: k * s };
-  };
   return {
     balance,
     k,
-    fuel_W: unc(0),
-    product_W: balance.product_W === null ? null : unc(1),
-    loss_W: unc(2),
-    destruction_W: unc(3),
-    efficiency: balance.efficiency === null ? null : unc(4),
+    fuel_W: uncertain(y0, variance, 0, k),
+    product_W: balance.product_W === null ? null : uncertain(y0, variance, 1, k),
+    loss_W: uncertain(y0, variance, 2, k),
+    destruction_W: uncertain(y0, variance, 3, k),
+    efficiency: balance.efficiency === null ? null : uncertain(y0, variance, 4, k),
     names: c.names,
     sensitivity: { efficiency: sEff, destruction_W: sD },
     unavailable,
