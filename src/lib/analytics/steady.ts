@@ -31,6 +31,9 @@
  * each equipment type) are the place to take site-specific limits from.
  */
 import { STATE_SEVERITY, type HourState } from '../hour-states';
+import { resolvableSpread, type InstrumentResolution } from './resolution';
+
+export { LOW_RANGE_FRACTION, resolutionTerms, resolvableSpread, resolvableSpreadOf, type InstrumentResolution, type ResolutionTerms } from './resolution';
 
 /** Hourly statistics of one tag (field names as produced by the ingest's tag-hour aggregation). */
 export interface TagHourStats {
@@ -54,16 +57,6 @@ export interface TagHourStats {
   badQualityCount?: number;
 }
 
-/** What a tag's instrument can resolve: its standard uncertainty and range, in the unit of the statistics. */
-export interface InstrumentResolution {
-  /** Standard uncertainty, absolute [unit of the statistics]. */
-  uAbs?: number;
-  /** Standard uncertainty relative to the reading [-] (0.01 for 1 % of reading). */
-  uRel?: number;
-  /** Span of the instrument, validMax - validMin [unit of the statistics]; null/absent when unknown. */
-  span?: number | null;
-}
-
 /** Per-tag spread limit (and the tag's own coverage rule). */
 export interface SpreadLimit {
   /** Largest stdDev / |mean| [-]. */
@@ -74,30 +67,6 @@ export interface SpreadLimit {
   instrument?: InstrumentResolution;
   /** The tag's own least covered fraction of the hour [-]; absent: SteadyLimits.minCoveredFraction. */
   minCoveredFraction?: number;
-}
-
-/**
- * Share of the span below which a relative (% of reading) uncertainty stops shrinking with the
- * reading [-]: 0.1, a 10:1 turndown. Common practice (flow meters are specified in % of reading over
- * a turndown of about 10:1 for vortex and magnetic meters, less for orifice plates); configurable by
- * giving the tag an absolute uncertainty instead.
- */
-export const LOW_RANGE_FRACTION = 0.1;
-
-/**
- * The spread an instrument cannot resolve at a reading: factor x u, with u the absolute standard
- * uncertainty plus the relative one taken of max(|mean|, LOW_RANGE_FRACTION x span).
- *
- * @param mean the hour's mean [unit of the statistics]
- * @param inst the instrument's uncertainty and span (see InstrumentResolution); absent gives 0
- * @param factor multiple of u [-]; default 2 (the expanded uncertainty U, k = 2)
- * @returns the smallest spread limit the tag can have this hour [unit of the statistics]
- */
-export function resolvableSpread(mean: number, inst: InstrumentResolution | undefined, factor = 2): number {
-  if (!inst || !Number.isFinite(mean)) return 0;
-  const span = inst.span !== null && inst.span !== undefined && Number.isFinite(inst.span) && inst.span > 0 ? inst.span : 0;
-  const u = (inst.uAbs ?? 0) + (inst.uRel ?? 0) * Math.max(Math.abs(mean), LOW_RANGE_FRACTION * span);
-  return Number.isFinite(u) && u > 0 ? factor * u : 0;
 }
 
 /** A balance closure residual of the hour, e.g. (mDot_in - mDot_out) / mDot_in. */
@@ -145,7 +114,6 @@ export const STEADY_DEFAULTS = {
   maxOutOfRangeCount: 0,
   maxBalanceResidual: 0.05,
 } as const;
-
 
 export type HourReasonCode =
   | 'TAG_MISSING'

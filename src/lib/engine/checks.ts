@@ -78,15 +78,31 @@ function failed(run: BalanceRun, err: unknown): void {
 }
 
 /**
+ * A planned hour reads only its row's figures and checks from the balance (its audit trail is rebuilt
+ * through the full mapping when read): no isentropic companions (h(p, s) calls, audit trail only), and
+ * the sensitivities in the sweep's scratch arrays, valid until its next call.
+ */
+const FIGURES_ONLY = { isentropic: false, scratchSensitivity: true } as const;
+
+/**
  * The balance at the input vector x (finite, in the model's order) with its uncertainty when asked,
  * into run; a balance that cannot be formed is recorded as run.balanceError and a BALANCE_FAILED reason.
+ * figuresOnly: the caller reads only the row's figures and checks, never the audit trail's (FIGURES_ONLY).
  */
-export function balanceAt(run: BalanceRun, kind: MappedUnit['balanceKind'], model: MappedUnit['model'], x: Float64Array, u: Float64Array, withU: boolean): BalanceRun {
+export function balanceAt(
+  run: BalanceRun,
+  kind: MappedUnit['balanceKind'],
+  model: MappedUnit['model'],
+  x: Float64Array,
+  u: Float64Array,
+  withU: boolean,
+  figuresOnly = false,
+): BalanceRun {
   try {
     if (withU) {
-      run.unc = unitHourWithUncertainty(kind, model, x, u);
+      run.unc = figuresOnly ? unitHourWithUncertainty(kind, model, x, u, FIGURES_ONLY) : unitHourWithUncertainty(kind, model, x, u);
       run.balance = run.unc.balance;
-    } else run.balance = evaluateUnitHour(kind, model, x);
+    } else run.balance = evaluateUnitHour(kind, model, x, figuresOnly ? FIGURES_ONLY : {});
   } catch (err) {
     failed(run, err);
   }

@@ -31,7 +31,7 @@ import { balanceAt, checkBalance, hourState, loadStats, runBalance, type Balance
 import { LOAD_KEY, T0_RANGE_K, finiteOrNull } from './constants';
 import { detailOf } from './detail';
 import { keepPlan, planHour, type HourPlan } from './hour-plan';
-import { linkSetOf, unitHourHashes, type ComputeOptions, type LinkSet } from './linkset';
+import { hashesOf, linkSetOf, type ComputeOptions, type LinkSet } from './linkset';
 import { cachedConverter, mapUnitHour, unitParameters, type MappedUnit } from './map';
 import { linkConverter } from './map-port';
 import { clearlySteady } from './steady-fast';
@@ -126,7 +126,7 @@ export function computeUnitHour(input: UnitHourInput, options: ComputeOptions = 
 /** An hour through its plan; null when the balance fails (the full mapping words why). */
 function plannedHour(input: UnitHourInput, options: ComputeOptions, withU: boolean, dead: DeadState, plan: HourPlan, load: number): UnitHourResult | null {
   const run: BalanceRun = { balance: null, unc: null, entries: [], balanceError: null, computed: [] };
-  balanceAt(run, plan.kind, plan.model, plan.x, plan.u, withU);
+  balanceAt(run, plan.kind, plan.model, plan.x, plan.u, withU, true);
   if (!run.balance) return null;
   const params = unitParameters(input.unit);
   const notes: string[] = [];
@@ -135,11 +135,11 @@ function plannedHour(input: UnitHourInput, options: ComputeOptions, withU: boole
   const checks = checkBalance(run, mapped, params, notes);
   // Most hours are steady: the quick test says so without the statistics objects and words of the full one.
   if (run.computed.length === 0 && clearlySteady(set, input.tagHours, input.site.p_atm_Pa, checks.closures, load, mapped.minLoad, params)) {
-    return new UnitHourRow(input, options, dead, load, mapped.load.unit, run, 'steady', [], () => fullHour(input, options, withU, dead).detail);
+    return new UnitHourRow(input, set, options, dead, load, mapped.load.unit, run, 'steady', [], () => fullHour(input, options, withU, dead).detail);
   }
   const tags = keyTagStats(input, set, load);
   const { state, reasons } = hourState({ set, tags, closures: checks.closures, mapped, load, minLoad: mapped.minLoad, problems: [], computed: run.computed, params, notes });
-  return new UnitHourRow(input, options, dead, load, mapped.load.unit, run, state, reasons, () => fullHour(input, options, withU, dead).detail);
+  return new UnitHourRow(input, set, options, dead, load, mapped.load.unit, run, state, reasons, () => fullHour(input, options, withU, dead).detail);
 }
 
 /** An hour through the full mapping, which also keeps the plan of its link set and choices. */
@@ -156,7 +156,7 @@ function fullHour(input: UnitHourInput, options: ComputeOptions, withU: boolean,
   keepPlan(input, mapped, run.entries.length ? run.entries.map((e) => e.name) : null);
   const checks = checkBalance(run, mapped, params, notes);
   const { state, reasons } = hourState({ set, tags, closures: checks.closures, mapped, load, minLoad, problems, computed: run.computed, params, notes });
-  return new UnitHourRow(input, options, dead, load, mapped?.load.unit ?? null, run, state, reasons, () => detailOf({ input, set, dead, mapped, minLoad, run, checks, notes }));
+  return new UnitHourRow(input, set, options, dead, load, mapped?.load.unit ?? null, run, state, reasons, () => detailOf({ input, set, dead, mapped, minLoad, run, checks, notes }));
 }
 
 /**
@@ -188,6 +188,7 @@ class UnitHourRow implements UnitHourResult {
 
   constructor(
     input: UnitHourInput,
+    set: LinkSet,
     options: ComputeOptions,
     dead: DeadState,
     load: number,
@@ -200,7 +201,7 @@ class UnitHourRow implements UnitHourResult {
     const { balance, unc } = run;
     const D = balance ? balance.destruction_W : NaN;
     const cost = input.cost && Number.isFinite(D) ? destructionCost_per_hour(input.cost.cF_per_J, D) : null;
-    const { modelVersion, inputsHash } = options.hashes ?? unitHourHashes(input, options);
+    const { modelVersion, inputsHash } = options.hashes ?? hashesOf(set, input, options);
     this.state = state;
     this.reasons = reasons;
     this.load = finiteOrNull(load);

@@ -24,6 +24,15 @@ type Fill =
   | { k: 'p0' }
   | { k: 'copy'; of: number };
 
+/**
+ * A fill with every field of every kind, in one order: the hour's loop over a plan's fills then meets
+ * objects of one shape (five shapes made its reads megamorphic).
+ */
+function fill(f: Fill): Fill {
+  const all = { k: f.k, link: null, conv: null, rel: false, uEng: 0, value: 0, u: 0, of: -1 } as Record<string, unknown>;
+  return Object.assign(all, f) as unknown as Fill;
+}
+
 /** The plan of one combination of choices. */
 export interface HourPlan {
   /** the mapping of the hour that made the plan (its kind, model, load words, mass check, minimum load) */
@@ -74,20 +83,20 @@ function linkOf(input: UnitHourInput, id: string): EngineLink | undefined {
 
 /** The fill of an entry of the mapping, or null when the plan cannot express it (volume flows). */
 function fillOf(input: UnitHourInput, mapped: MappedUnit, name: string, order: string[]): Fill | null {
-  if (name === 'T0_K') return { k: 'T0' };
-  if (name === 'p0_Pa') return { k: 'p0' };
+  if (name === 'T0_K') return fill({ k: 'T0' });
+  if (name === 'p0_Pa') return fill({ k: 'p0' });
   const e = mapped.entries.get(name)!;
   const s = e.source;
-  if (s.kind === 'parameter' || (s.kind === 'site' && s.what !== 'missing')) return { k: 'const', value: e.value, u: e.u };
+  if (s.kind === 'parameter' || (s.kind === 'site' && s.what !== 'missing')) return fill({ k: 'const', value: e.value, u: e.u });
   if (s.kind === 'copy') {
     const of = order.indexOf(s.of);
-    return of >= 0 && of < order.indexOf(name) ? { k: 'copy', of } : null;
+    return of >= 0 && of < order.indexOf(name) ? fill({ k: 'copy', of }) : null;
   }
   if (s.kind !== 'tag' || s.note || s.quantity === 'volumeFlow' || s.quantity === 'standardVolumeFlow') return null;
   const link = linkOf(input, s.linkId);
   if (!link) return null;
   try {
-    return { k: 'link', link, conv: linkConverter(link, input.site.p_atm_Pa), rel: link.uncertaintyMode === 'relative', uEng: link.uncertainty };
+    return fill({ k: 'link', link, conv: linkConverter(link, input.site.p_atm_Pa), rel: link.uncertaintyMode === 'relative', uEng: link.uncertainty });
   } catch {
     return null;
   }

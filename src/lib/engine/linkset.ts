@@ -172,7 +172,12 @@ const hasher = new ByteHasher();
  * hash is unchanged.
  */
 export function unitHourHashes(input: UnitHourInput, options: ComputeOptions = {}): { modelVersion: string; inputsHash: string } {
-  const { modelVersion, usedTags } = linkSetOf(input);
+  return hashesOf(linkSetOf(input), input, options);
+}
+
+/** unitHourHashes with the hour's link set at hand (the engine has looked it up already). */
+export function hashesOf(set: LinkSet, input: UnitHourInput, options: ComputeOptions): { modelVersion: string; inputsHash: string } {
+  const { modelVersion, usedTags } = set;
   const h = hasher.reset().text(modelVersion).num(options.uncertainty ?? true).num(input.cost?.cF_per_J ?? null);
   // The tags come in the model version's fixed order, so their names need not be hashed again.
   for (const t of usedTags) {

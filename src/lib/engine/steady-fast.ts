@@ -14,18 +14,22 @@
  *   below what its instrument resolves.
  * tests/engine/steady-fast.test.ts holds it equal to the full test on random hours.
  */
-import { STEADY_DEFAULTS, aboveLimit, resolvableSpread, type BalanceClosure, type SpreadLimit } from '../analytics';
+import { STEADY_DEFAULTS, aboveLimit, resolutionTerms, resolvableSpreadOf, type BalanceClosure, type ResolutionTerms } from '../analytics';
 import { LOAD_KEY, num } from './constants';
 import type { LinkSet } from './linkset';
 import { linkConverter } from './map-port';
 import type { Converter } from '../units/convert';
 import type { EngineLink, TagHour } from './types';
 
+/** A key tag with its converter and its spread limit's fields read once (the limits' objects differ in shape). */
 interface KeyTag {
   link: EngineLink;
   conv: Converter;
   factor: number;
-  limit: SpreadLimit | undefined;
+  /** the limit's own maxRelSpread, maxStd and instrument terms */
+  ownRel: number | undefined;
+  maxStd: number | undefined;
+  inst: ResolutionTerms | null;
   minCovered: number | undefined;
 }
 
@@ -50,23 +54,32 @@ function prepare(set: LinkSet, p_atm_Pa: number): KeyTag[] | null {
       break;
     }
     const limit = set.spread[link.tagName];
-    tags.push({ link, conv, factor: Math.abs(conv.factor), limit, minCovered: limit?.minCoveredFraction });
+    const inst = limit?.instrument;
+    tags.push({
+      link,
+      conv,
+      factor: Math.abs(conv.factor),
+      ownRel: limit?.maxRelSpread,
+      maxStd: limit?.maxStd,
+      inst: inst ? resolutionTerms(inst) : null,
+      minCovered: limit?.minCoveredFraction,
+    });
   }
   prepared.set(set, { p_atm_Pa, tags });
   return tags;
 }
 
 /** Whether a key tag's spread is above its limit (classifyHour's rule), mean and spread in SI. */
-function spreadHigh(mean: number, spread: number, own: SpreadLimit | undefined, defaultRel: number): boolean {
-  const maxRel = own?.maxRelSpread ?? (own?.maxStd === undefined ? defaultRel : undefined);
-  const floor = resolvableSpread(mean, own?.instrument, STEADY_DEFAULTS.resolutionFactor);
+function spreadHigh(mean: number, spread: number, k: KeyTag, defaultRel: number): boolean {
+  const maxRel = k.ownRel ?? (k.maxStd === undefined ? defaultRel : undefined);
+  const floor = resolvableSpreadOf(k.inst, mean, STEADY_DEFAULTS.resolutionFactor);
   if (maxRel !== undefined && mean !== 0) {
     const rel = spread / Math.abs(mean);
     const relLimit = Math.max(maxRel, floor / Math.abs(mean));
     if (aboveLimit(rel, relLimit)) return true;
   }
-  if (own?.maxStd !== undefined) {
-    const absLimit = Math.max(own.maxStd, floor);
+  if (k.maxStd !== undefined) {
+    const absLimit = Math.max(k.maxStd, floor);
     if (aboveLimit(spread, absLimit)) return true;
   }
   return false;
@@ -105,7 +118,7 @@ export function clearlySteady(
     const statusShare = cells > 0 ? th.nonNumeric / cells : 0;
     if (statusShare > STEADY_DEFAULTS.maxNonNumericFraction) return false;
     const spread = th.min !== null && th.max !== null ? (th.max - th.min) * k.factor : th.std !== null ? th.std * k.factor : null;
-    if (spread !== null && Number.isFinite(spread) && spreadHigh(mean, spread, k.limit, set.relLimit)) return false;
+    if (spread !== null && Number.isFinite(spread) && spreadHigh(mean, spread, k, set.relLimit)) return false;
   }
   for (let i = 0; i < closures.length; i++) {
     const b = closures[i]!;

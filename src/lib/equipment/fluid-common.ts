@@ -19,30 +19,49 @@ import {
 import { BalanceInputError, requireInput } from './errors';
 import type { DeadValues, Environment, FluidSpec, FuelSpec, PortFlag, PortMeasurement, PortPhase, PortState } from './fluid-types';
 
-/** A small least-recently-used memo of up to three entries keyed by two numbers (no closures: hot path). */
+/**
+ * A small least-recently-used memo of up to three entries keyed by two numbers (no closures: hot path).
+ * Its slots are fields, not arrays: a flue gas at a new O2 is a new fluid with its own memo, several per hour.
+ */
 export class Memo2<V> {
-  private k0 = [NaN, NaN, NaN];
-  private k1 = [NaN, NaN, NaN];
-  private v: (V | undefined)[] = [undefined, undefined, undefined];
-  private age = [0, 0, 0];
+  private a0 = NaN;
+  private b0 = NaN;
+  private v0: V | undefined = undefined;
+  private t0 = 0;
+  private a1 = NaN;
+  private b1 = NaN;
+  private v1: V | undefined = undefined;
+  private t1 = 0;
+  private a2 = NaN;
+  private b2 = NaN;
+  private v2: V | undefined = undefined;
+  private t2 = 0;
   private clock = 0;
   find(a: number, b: number): V | undefined {
-    for (let i = 0; i < 3; i++) {
-      if (this.k0[i] === a && this.k1[i] === b) {
-        this.age[i] = ++this.clock;
-        return this.v[i];
-      }
+    if (this.a0 === a && this.b0 === b) {
+      this.t0 = ++this.clock;
+      return this.v0;
+    }
+    if (this.a1 === a && this.b1 === b) {
+      this.t1 = ++this.clock;
+      return this.v1;
+    }
+    if (this.a2 === a && this.b2 === b) {
+      this.t2 = ++this.clock;
+      return this.v2;
     }
     return undefined;
   }
   put(a: number, b: number, value: V): V {
+    // the oldest slot (the first of equals), as a scan of the three ages
     let j = 0;
-    if (this.age[1] < this.age[j]) j = 1;
-    if (this.age[2] < this.age[j]) j = 2;
-    this.k0[j] = a;
-    this.k1[j] = b;
-    this.v[j] = value;
-    this.age[j] = ++this.clock;
+    let age = this.t0;
+    if (this.t1 < age) (j = 1), (age = this.t1);
+    if (this.t2 < age) j = 2;
+    const t = ++this.clock;
+    if (j === 0) (this.a0 = a), (this.b0 = b), (this.v0 = value), (this.t0 = t);
+    else if (j === 1) (this.a1 = a), (this.b1 = b), (this.v1 = value), (this.t1 = t);
+    else (this.a2 = a), (this.b2 = b), (this.v2 = value), (this.t2 = t);
     return value;
   }
 }

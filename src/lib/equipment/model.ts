@@ -111,9 +111,10 @@ export interface CompiledUnit {
   readonly names: readonly string[];
   /**
    * the balance at x (SI, in the order of names); lean = true skips companion figures (isentropic
-   * efficiency ...) that F, P, L and D do not need (the uncertainty sweep)
+   * efficiency ...) that F, P, L and D do not need (the uncertainty sweep); isentropic = false (default
+   * !lean) skips only the isentropic companions (h(p, s) calls), keeping port records and flags
    */
-  evaluate(x: ArrayLike<number>, lean?: boolean): UnitBalance;
+  evaluate(x: ArrayLike<number>, lean?: boolean, isentropic?: boolean): UnitBalance;
   /** the prepared fluid of each port by name (the sweep kernel shares them, and so their memos) */
   readonly fluids: ReadonlyMap<string, Fluid>;
 }
@@ -157,9 +158,9 @@ export function compileUnit(kind: UnitKind, model: UnitModel): CompiledUnit {
   const ports = portSpecs.map((spec) => compilePort(spec, fuelOfFlueGas, layout));
   const terms = compileTerms(kind, model, layout);
   const names = layout.names;
-  const evaluate = (x: ArrayLike<number>, lean = false): UnitBalance => {
+  const evaluate = (x: ArrayLike<number>, lean = false, isentropic = !lean): UnitBalance => {
     checkVector(kind, names, x);
-    return runBalance(kind, model, ports, terms, x, !lean);
+    return runBalance(kind, model, ports, terms, x, !lean, isentropic);
   };
   return { kind, model, names: Object.freeze(names), evaluate, fluids: new Map(ports.map((p) => [p.spec.name, p.fluid])) };
 }
@@ -299,16 +300,16 @@ function genericHeats(heats: CompiledTerms['heats'], x: ArrayLike<number>) {
 }
 
 /** The kind's balance at a checked vector x. */
-function runBalance(kind: UnitKind, model: UnitModel, ports: readonly CompiledPort[], t: CompiledTerms, x: ArrayLike<number>, companions: boolean): UnitBalance {
+function runBalance(kind: UnitKind, model: UnitModel, ports: readonly CompiledPort[], t: CompiledTerms, x: ArrayLike<number>, companions: boolean, isentropic: boolean): UnitBalance {
   const env: Environment = { T0_K: x[0], p0_Pa: x[1] };
   checkEnv(env);
   if (MACHINES.has(kind)) return machineBalance({ env, powerIn_W: x[t.iIn], powerOut_W: x[t.iOut], kind: kind as 'motor' | 'generator' });
   const bp = portsAt(ports, x, env);
   if (TURBINES.has(kind)) {
-    return turbineBalance({ env, ports: bp, companions, power_W: x[t.iPower], powerMeasured: model.powerMeasured, generatorEfficiency: t.iEta >= 0 ? x[t.iEta] : undefined, kind: kind as 'turbine' });
+    return turbineBalance({ env, ports: bp, companions, isentropic, power_W: x[t.iPower], powerMeasured: model.powerMeasured, generatorEfficiency: t.iEta >= 0 ? x[t.iEta] : undefined, kind: kind as 'turbine' });
   }
   if (COMPRESSORS.has(kind)) {
-    return compressorBalance({ env, ports: bp, companions, power_W: x[t.iPower], powerMeasured: model.powerMeasured, motorEfficiency: t.iEta >= 0 ? x[t.iEta] : undefined, kind: kind as 'pump' });
+    return compressorBalance({ env, ports: bp, companions, isentropic, power_W: x[t.iPower], powerMeasured: model.powerMeasured, motorEfficiency: t.iEta >= 0 ? x[t.iEta] : undefined, kind: kind as 'pump' });
   }
   switch (kind) {
     case 'heat-exchanger':
@@ -378,10 +379,11 @@ export function inputVector(kind: UnitKind, model: UnitModel, values: Readonly<R
  * @param kind unit kind
  * @param model the unit model (compiled once per object and memoised)
  * @param measurements SI values in the order of inputNames(kind, model)
+ * @param options isentropic: false skips the isentropic companions (default true)
  * @returns the UnitBalance
  * @throws BalanceInputError for missing or impossible inputs; ThermoRangeError outside property ranges
  * @see docs/domain.md s.3
  */
-export function evaluateUnitHour(kind: UnitKind, model: UnitModel, measurements: ArrayLike<number>): UnitBalance {
-  return compiledUnit(kind, model).evaluate(measurements);
+export function evaluateUnitHour(kind: UnitKind, model: UnitModel, measurements: ArrayLike<number>, options: { isentropic?: boolean } = {}): UnitBalance {
+  return compiledUnit(kind, model).evaluate(measurements, false, options.isentropic ?? true);
 }

@@ -63,6 +63,9 @@ class Kernel implements SweepKernel {
   private readonly flue: number;
   private readonly fuel: number;
   private readonly refuseBelowT0: boolean;
+  /** the kind's family, read once (every move asks) */
+  private readonly turbine: boolean;
+  private readonly compressor: boolean;
   private env: Environment = { T0_K: NaN, p0_Pa: NaN };
   /** the energy-balance state of the last move, by (p, h) */
   private ebKey = [NaN, NaN];
@@ -75,6 +78,8 @@ class Kernel implements SweepKernel {
     private readonly ports: KPort[],
   ) {
     this.n = ports.length;
+    this.turbine = TURBINES.has(kind);
+    this.compressor = COMPRESSORS.has(kind);
     this.flows = new Float64Array(this.n);
     this.states = new Array(this.n).fill(null);
     this.iPower = names.indexOf('power_W');
@@ -141,16 +146,16 @@ class Kernel implements SweepKernel {
 
   /** Net power out of the volume [W] (shaft for turbines, minus shaft for compressors, generic sum). */
   private work(x: ArrayLike<number>): number {
-    if (TURBINES.has(this.kind) || COMPRESSORS.has(this.kind)) {
+    if (this.turbine || this.compressor) {
       const P = x[this.iPower]!;
       inRange('power_W', P, -1e12, 1e12);
       let shaft = P;
       if (this.electric) {
         const eta = x[this.iEta]!;
         inRange('efficiency', eta, 1e-6, 1);
-        shaft = TURBINES.has(this.kind) ? P / eta : P * eta;
+        shaft = this.turbine ? P / eta : P * eta;
       }
-      return TURBINES.has(this.kind) ? shaft : -shaft;
+      return this.turbine ? shaft : -shaft;
     }
     let W = 0;
     for (const w of this.powers) {
@@ -252,7 +257,7 @@ class Kernel implements SweepKernel {
     let dIn = 0;
     let dOut = 0;
     const T0 = this.env.T0_K;
-    if (COMPRESSORS.has(kind)) F += -W;
+    if (this.compressor) F += -W;
     for (let k = 0; k < n; k++) {
       const st = states[k]!;
       const ex = this.chemical ? st.psi + (st.eCh ?? 0) : st.psi;
@@ -264,7 +269,7 @@ class Kernel implements SweepKernel {
       else dOut -= into;
     }
     let hasProduct = kind !== 'valve' && kind !== 'condenser' && kind !== 'cooler';
-    if (TURBINES.has(kind)) P += W;
+    if (this.turbine) P += W;
     if (kind === 'generic') {
       hasProduct = ports.some((p) => p.role === 1);
       for (const w of this.powers) {
@@ -289,7 +294,7 @@ class Kernel implements SweepKernel {
         if (e >= 0) dIn += e;
         else dOut -= e;
       }
-    } else if (W !== 0 || TURBINES.has(kind) || COMPRESSORS.has(kind)) {
+    } else if (W !== 0 || this.turbine || this.compressor) {
       if (-W >= 0) dIn += -W;
       else dOut -= -W;
     }

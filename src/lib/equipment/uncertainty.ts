@@ -40,6 +40,13 @@ export interface UncertaintyOptions {
   relStep?: number;
   /** move the full (lean) balance for every input instead of the sweep kernel (the check of the kernel) */
   fullSweep?: boolean;
+  /** false: the balance at the point without its isentropic companions (h(p, s) calls; see UnitModel's evaluate) */
+  isentropic?: boolean;
+  /**
+   * true: the sensitivities in arrays this module keeps and overwrites on its next call, for a caller
+   * that reads only the uncertainties (no two typed arrays per call)
+   */
+  scratchSensitivity?: boolean;
 }
 
 const N_OUT = 5; // fuel, product, loss, destruction, efficiency
@@ -57,6 +64,15 @@ const YS = new Float64Array(2 * N_OUT);
 const VAR = new Float64Array(N_OUT);
 /** the moved vector by its length (the full balance checks the length) */
 const XS: Float64Array[] = [];
+/** the sensitivities by the vector's length, for scratchSensitivity */
+const S_EFF: Float64Array[] = [];
+const S_D: Float64Array[] = [];
+
+/** Output j at the point with its standard and expanded uncertainty (a function, not a closure per call). */
+function uncertain(y0: Float64Array, variance: Float64Array, j: number, k: number): Uncertain {
+  const s = Math.sqrt(variance[j]);
+  return { value: y0[j], u: s, U: k * s };
+}
 
 const kernels = new WeakMap<CompiledUnit, SweepKernel | null>();
 /** The sweep kernel of a compiled unit (./sweep-kernel.ts), kept with it; null when not covered. */
@@ -107,7 +123,7 @@ export function unitHourWithUncertainty(
   }
   const k = options.k ?? 2;
   const relStep = options.relStep ?? 1e-6;
-  const balance = c.evaluate(x);
+  const balance = c.evaluate(x, false, options.isentropic ?? true);
   let kernel = options.fullSweep ? null : kernelOf(c);
   if (kernel && !kernel.setPoint(x, balance)) kernel = null;
   // Scratch kept between calls (nothing here calls back into this function): the moved vector and outputs.
@@ -117,8 +133,8 @@ export function unitHourWithUncertainty(
   for (let i = 0; i < n; i++) xs[i] = x[i]!;
   const ys = YS;
   const variance = VAR.fill(0);
-  const sEff = new Float64Array(n);
-  const sD = new Float64Array(n);
+  const sEff = options.scratchSensitivity ? (S_EFF[n] ??= new Float64Array(n)).fill(0) : new Float64Array(n);
+  const sD = options.scratchSensitivity ? (S_D[n] ??= new Float64Array(n)).fill(0) : new Float64Array(n);
   const unavailable: string[] = [];
   for (let i = 0; i < n; i++) {
     const ui = u[i];
@@ -144,18 +160,14 @@ export function unitHourWithUncertainty(
       if (j === 4) sEff[i] = cj;
     }
   }
-  const unc = (j: number): Uncertain => {
-    const s = Math.sqrt(variance[j]);
-    return { value: y0[j], u: s, U: k * s };
-  };
   return {
     balance,
     k,
-    fuel_W: unc(0),
-    product_W: balance.product_W === null ? null : unc(1),
-    loss_W: unc(2),
-    destruction_W: unc(3),
-    efficiency: balance.efficiency === null ? null : unc(4),
+    fuel_W: uncertain(y0, variance, 0, k),
+    product_W: balance.product_W === null ? null : uncertain(y0, variance, 1, k),
+    loss_W: uncertain(y0, variance, 2, k),
+    destruction_W: uncertain(y0, variance, 3, k),
+    efficiency: balance.efficiency === null ? null : uncertain(y0, variance, 4, k),
     names: c.names,
     sensitivity: { efficiency: sEff, destruction_W: sD },
     unavailable,

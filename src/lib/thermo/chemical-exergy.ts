@@ -74,7 +74,9 @@ export function mixtureChemicalExergy(moleFractions: Composition, T0_K = T0_STD_
   const x = normaliseFractions(moleFractions, 'mole fractions');
   let e = 0;
   let M = 0;
-  for (const [n, xi] of Object.entries(x) as [SpeciesName, number][]) {
+  for (const key in x) {
+    const n = key as SpeciesName;
+    const xi = x[n]!;
     e += xi * standardChemicalExergy(n) + R_J_per_molK * T0_K * xi * Math.log(xi);
     M += xi * species[n].M_kg_per_mol;
   }

@@ -144,24 +144,29 @@ function balance(fuel: Fuel, A: number, w: number): CombustionResult {
     O2,
     Ar: a.Ar + A * (xa.Ar ?? 0),
   };
+  // The products in the order of `moles` (a fixed list rather than Object.entries: no entry arrays per
+  // call, the same order of summation).
   let wet = 0;
   let mass = 0;
-  for (const [n, v] of Object.entries(moles) as [SpeciesName, number][]) {
+  for (let i = 0; i < PRODUCTS.length; i++) {
+    const n = PRODUCTS[i]!;
+    const v = moles[n]!;
     wet += v;
     mass += v * species[n].M_kg_per_mol;
   }
   const dry = wet - moles.H2O!;
   const wetX: Composition = {};
   const dryX: Composition = {};
-  for (const [n, v] of Object.entries(moles) as [SpeciesName, number][]) {
+  // the products present (moles > 0), in the same order; a new object instead of deleting the absent ones
+  const present: Composition = {};
+  for (let i = 0; i < PRODUCTS.length; i++) {
+    const n = PRODUCTS[i]!;
+    const v = moles[n]!;
     if (v > 0) wetX[n] = v / wet;
     if (v > 0 && n !== 'H2O') dryX[n] = v / dry;
+    if (v > 0) present[n] = v;
   }
-  for (const n of Object.keys(moles) as SpeciesName[]) if (!(moles[n]! > 0)) delete moles[n];
   const airDry_kg = A * dryAir.M_kg_per_mol;
-  const airX: Composition = {};
-  for (const [n, v] of Object.entries(xa) as [SpeciesName, number][]) airX[n] = v / (1 + w);
-  if (w > 0) airX.H2O = w / (1 + w);
   return Object.freeze({
     lambda: (A * xa.O2!) / O2min,
     excessAir: (A * xa.O2!) / O2min - 1,
@@ -170,7 +175,7 @@ function balance(fuel: Fuel, A: number, w: number): CombustionResult {
     airDry_mol_per_kgFuel: A,
     airDry_kg_per_kgFuel: airDry_kg,
     air_kg_per_kgFuel: airDry_kg + A * w * species.H2O.M_kg_per_mol,
-    flue_mol_per_kgFuel: Object.freeze(moles),
+    flue_mol_per_kgFuel: Object.freeze(present),
     flueWet_mol_per_kgFuel: wet,
     flueDry_mol_per_kgFuel: dry,
     flue_kg_per_kgFuel: mass,
@@ -180,6 +185,21 @@ function balance(fuel: Fuel, A: number, w: number): CombustionResult {
     O2_wet: O2 / wet,
     O2_dry: O2 / dry,
     flueGas: mixture(wetX, 'mole'),
-    combustionAir: w > 0 ? mixture(airX, 'mole') : dryAir,
+    combustionAir: w > 0 ? humidAir(w) : dryAir,
   });
+}
+
+/** The products of `balance`, in the order of its `moles`. */
+const PRODUCTS: readonly SpeciesName[] = ['CO2', 'H2O', 'SO2', 'N2', 'O2', 'Ar'];
+
+/** Humid combustion air with w mol water per mol dry air, as a mixture (the last one kept: a site's air is one humidity). */
+let lastAir: { w: number; mix: GasMixture } | null = null;
+function humidAir(w: number): GasMixture {
+  if (lastAir && lastAir.w === w) return lastAir.mix;
+  const xa = DRY_AIR_MOLE_FRACTIONS;
+  const airX: Composition = {};
+  for (const [n, v] of Object.entries(xa) as [SpeciesName, number][]) airX[n] = v / (1 + w);
+  airX.H2O = w / (1 + w);
+  lastAir = { w, mix: mixture(airX, 'mole') };
+  return lastAir.mix;
 }

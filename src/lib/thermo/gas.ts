@@ -168,8 +168,10 @@ export const FRACTION_SUM_TOLERANCE = 1e-6;
  * @throws ThermoRangeError for unknown names, negative or non-finite entries, or a sum off by more than 1e-6
  */
 export function normaliseFractions(fractions: Composition, what = 'fractions'): Composition {
+  // for-in visits a plain object's own keys in the order of Object.entries, without an array per entry
   let sum = 0;
-  for (const [name, x] of Object.entries(fractions)) {
+  for (const name in fractions) {
+    const x = fractions[name as SpeciesName];
     if (!(name in NASA_SPECIES)) {
       throw new ThermoRangeError(`${what}.${name}`, x ?? NaN, `a species of ${SPECIES_NAMES.join(', ')}`, 'unknown species');
     }
@@ -181,7 +183,9 @@ export function normaliseFractions(fractions: Composition, what = 'fractions'): 
     throw new ThermoRangeError(`sum of ${what}`, sum, `1 ± ${FRACTION_SUM_TOLERANCE} [-]`);
   }
   const out: Composition = {};
-  for (const [name, x] of Object.entries(fractions) as [SpeciesName, number | undefined][]) {
+  for (const key in fractions) {
+    const name = key as SpeciesName;
+    const x = fractions[name];
     if (x !== undefined && x > 0) out[name] = x / sum;
   }
   return out;

@@ -13,6 +13,11 @@ export interface PortBalanceInput {
   ports: BalancePort[];
   /** false skips companion figures (isentropic efficiency ...) that F, P, L, D do not need; default true */
   companions?: boolean;
+  /**
+   * false skips the isentropic companions (an h(p, s) call per outlet: turbines, compressors) and keeps
+   * everything else (port records, flags): a caller that reads only the figures and checks; default true
+   */
+  isentropic?: boolean;
 }
 
 export function roleGroup(p: BalancePort): string {

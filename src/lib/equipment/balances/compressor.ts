@@ -41,7 +41,7 @@ export function compressorBalance(input: CompressorInput): UnitBalance {
   const terms: UnitTerm[] = [{ label: 'shaft power', role: 'fuel', exergy_W: shaft }];
   for (const p of res.ports) terms.push(streamTerm(p, 'product', false));
   const extras: Record<string, number> = { shaftPower_W: shaft };
-  if (res.ports.length === 2 && input.companions !== false) {
+  if (res.ports.length === 2 && input.companions !== false && input.isentropic !== false) {
     const inP = res.ports[0].direction === 'in' ? res.ports[0] : res.ports[1];
     const outP = inP === res.ports[0] ? res.ports[1] : res.ports[0];
     const a = inP.state;

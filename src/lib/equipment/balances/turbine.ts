@@ -48,7 +48,7 @@ export function turbineBalance(input: TurbineInput): UnitBalance {
   let inlet: ResolvedPort | null = null;
   let nIn = 0;
   for (const p of res.ports) if (p.direction === 'in') (inlet = p), nIn++;
-  if (nIn === 1 && input.companions !== false) {
+  if (nIn === 1 && input.companions !== false && input.isentropic !== false) {
     const hin = inlet!.state.h;
     const sin = inlet!.state.s;
     let actual = 0;
