@@ -110,3 +110,32 @@ export function significant(v: number | null | undefined, digits = 3, style: Num
   const e = String(exp).split('').map((c) => SUPERSCRIPT[c] ?? c).join('');
   return `${m.replace(/^-/, '−')} × 10${e}`;
 }
+
+/** Drops the trailing zeros of a formatted number's decimals (and a decimal marker left alone): "62.50" -> "62.5", "400.00" -> "400". */
+function dropZeros(s: string, decimal: string): string {
+  const [head, tail] = s.split(' × ') as [string, string | undefined];
+  const at = head.lastIndexOf(decimal);
+  if (at < 0 || !/^\d+$/.test(head.slice(at + decimal.length))) return s;
+  const frac = head.slice(at + decimal.length).replace(/0+$/, '');
+  const out = frac ? `${head.slice(0, at)}${decimal}${frac}` : head.slice(0, at);
+  return tail === undefined ? out : `${out} × ${tail}`;
+}
+
+/**
+ * A number with at most `maxDecimals` decimals and no trailing zeros, grouped, never "-0": a limit or
+ * setting as a person set it ("400", "62.5", "1 250.75").
+ */
+export function upTo(v: number | null | undefined, maxDecimals: number, style: NumberStyle = {}): string {
+  if (absent(v)) return style.none ?? '—';
+  return dropZeros(fixed(v, maxDecimals, style), style.decimal ?? '.');
+}
+
+/**
+ * A number to at most `digits` significant figures without trailing zeros ("0.05", "1.23"; whole digits kept: "1 235"),
+ * as `significant` writes it otherwise: for thresholds and sums whose trailing zeros would claim a
+ * precision nobody set.
+ */
+export function figures(v: number | null | undefined, digits = 3, style: NumberStyle = {}): string {
+  if (absent(v)) return style.none ?? '—';
+  return dropZeros(significant(v, digits, style), style.decimal ?? '.');
+}
