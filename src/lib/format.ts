@@ -103,7 +103,9 @@ export function significant(v: number | null | undefined, digits = 3, style: Num
   if (v === 0) return fixed(0, Math.max(0, digits - 1), style);
   const exp = Math.floor(Math.log10(Math.abs(v)));
   if (exp >= -3 && exp < 6) return fixed(v, Math.max(0, digits - 1 - exp), style);
-  const mantissa = v / 10 ** exp;
+  // Below about 1e-308 the power 10 ** exp underflows to 0: the mantissa then comes from the exponent form.
+  const scale = 10 ** exp;
+  const mantissa = scale > 0 && Number.isFinite(scale) ? v / scale : Number(v.toExponential(15).split('e')[0]);
   const m = fixed(mantissa, Math.max(0, digits - 1), style);
   // Rounding the mantissa can reach 10 (9.996 -> 10.0): carry into the exponent.
   if (Math.abs(Number(m.replace(style.decimal ?? '.', '.'))) >= 10) return significant(Math.sign(v) * 10 ** (exp + 1), digits, style);

@@ -84,5 +84,8 @@ describe('limits and settings without trailing zeros', () => {
     expect(figures(2.5e-9, 3)).toBe('2.5 × 10⁻⁹');
     expect(figures(-0.00012, 2)).toBe('−1.2 × 10⁻⁴');
     expect(figures(0, 3)).toBe('0');
+    // Number.MIN_VALUE = 2^-1074 = 4.940656...e-324 (IEEE 754 binary64, smallest subnormal): 10 ** -324 underflows to 0.
+    expect(figures(Number.MIN_VALUE, 3)).toBe('4.94 × 10⁻³²⁴');
+    expect(significant(Number.MIN_VALUE, 3)).toBe('4.94 × 10⁻³²⁴');
   });
 });
