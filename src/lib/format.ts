@@ -4,6 +4,9 @@
  * - digits grouped by three with a thin space (SI Brochure, 9th ed., 5.4.4), or a given separator;
  * - a value with its expanded uncertainty U: U to two significant digits and the value to the same
  *   decimal place (JCGM 100:2008, 7.2.6), "1 567 ± 70", never "1 567 ± 69.95".
+ * - a limit or setting as a person set it, without trailing zeros: `upTo` (at most n decimals) and
+ *   `figures` (at most n significant figures). Reason texts, notes, mails and messages use these too,
+ *   never toFixed, toLocaleString or a raw `${number}`.
  * A site's locale gives its separators through `localeStyle('de-DE')` (1.234,5); without one the
  * thin space groups and the point marks decimals. Pure.
  */
