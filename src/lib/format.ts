@@ -4,6 +4,9 @@
  * - digits grouped by three with a thin space (SI Brochure, 9th ed., 5.4.4), or a given separator;
  * - a value with its expanded uncertainty U: U to two significant digits and the value to the same
  *   decimal place (JCGM 100:2008, 7.2.6), "1 567 ± 70", never "1 567 ± 69.95".
+ * - a limit or setting as a person set it, without trailing zeros: `upTo` (at most n decimals) and
+ *   `figures` (at most n significant figures). Reason texts, notes, mails and messages use these too,
+ *   never toFixed, toLocaleString or a raw `${number}`.
  * A site's locale gives its separators through `localeStyle('de-DE')` (1.234,5); without one the
  * thin space groups and the point marks decimals. Pure.
  */
@@ -103,10 +106,41 @@ export function significant(v: number | null | undefined, digits = 3, style: Num
   if (v === 0) return fixed(0, Math.max(0, digits - 1), style);
   const exp = Math.floor(Math.log10(Math.abs(v)));
   if (exp >= -3 && exp < 6) return fixed(v, Math.max(0, digits - 1 - exp), style);
-  const mantissa = v / 10 ** exp;
+  // Below about 1e-308 the power 10 ** exp underflows to 0: the mantissa then comes from the exponent form.
+  const scale = 10 ** exp;
+  const mantissa = scale > 0 && Number.isFinite(scale) ? v / scale : Number(v.toExponential(15).split('e')[0]);
   const m = fixed(mantissa, Math.max(0, digits - 1), style);
   // Rounding the mantissa can reach 10 (9.996 -> 10.0): carry into the exponent.
   if (Math.abs(Number(m.replace(style.decimal ?? '.', '.'))) >= 10) return significant(Math.sign(v) * 10 ** (exp + 1), digits, style);
   const e = String(exp).split('').map((c) => SUPERSCRIPT[c] ?? c).join('');
   return `${m.replace(/^-/, '−')} × 10${e}`;
+}
+
+/** Drops the trailing zeros of a formatted number's decimals (and a decimal marker left alone): "62.50" -> "62.5", "400.00" -> "400". */
+function dropZeros(s: string, decimal: string): string {
+  const [head, tail] = s.split(' × ') as [string, string | undefined];
+  const at = head.lastIndexOf(decimal);
+  if (at < 0 || !/^\d+$/.test(head.slice(at + decimal.length))) return s;
+  const frac = head.slice(at + decimal.length).replace(/0+$/, '');
+  const out = frac ? `${head.slice(0, at)}${decimal}${frac}` : head.slice(0, at);
+  return tail === undefined ? out : `${out} × ${tail}`;
+}
+
+/**
+ * A number with at most `maxDecimals` decimals and no trailing zeros, grouped, never "-0": a limit or
+ * setting as a person set it ("400", "62.5", "1 250.75").
+ */
+export function upTo(v: number | null | undefined, maxDecimals: number, style: NumberStyle = {}): string {
+  if (absent(v)) return style.none ?? '—';
+  return dropZeros(fixed(v, maxDecimals, style), style.decimal ?? '.');
+}
+
+/**
+ * A number to at most `digits` significant figures without trailing zeros ("0.05", "1.23"; whole digits kept: "1 235"),
+ * as `significant` writes it otherwise: for thresholds and sums whose trailing zeros would claim a
+ * precision nobody set.
+ */
+export function figures(v: number | null | undefined, digits = 3, style: NumberStyle = {}): string {
+  if (absent(v)) return style.none ?? '—';
+  return dropZeros(significant(v, digits, style), style.decimal ?? '.');
 }

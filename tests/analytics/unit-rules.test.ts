@@ -5,9 +5,10 @@
  * The Summer Time Order 2002, last Sunday of March and of October).
  */
 import { describe, expect, it } from 'vitest';
-import { crossedLimits, idleRuns, inIdleTime, limitRuns, localDayHour, type RuleHour, type RuleHourState } from '~/lib/analytics/unit-rules';
+import { crossedLimits, idleRuns, inIdleTime, limitRuns, limitText, localDayHour, type RuleHour, type RuleHourState } from '~/lib/analytics/unit-rules';
 import { NormallyIdleSchema, normallyIdleText, type NormallyIdle } from '~/lib/plant/idle';
 import { expectClose } from '../support/expect-close';
+import { THIN_SPACE, localeStyle } from '~/lib/format';
 
 const H = 3_600_000;
 const T0 = Date.UTC(2025, 0, 6, 0); // Monday 2025-01-06 00:00 UTC = 00:00 GMT in London
@@ -156,5 +157,16 @@ describe('the limit rule', () => {
     expectClose(run!.cost_per_day!, 20 * 24, { rtol: 1e-12 }); // mean of 10, 10, 30, 30 per hour
     expect(limitRuns(hs, { minEfficiency: 0.8, hours: 4 })).toEqual([]);
     expect(limitRuns(hs, {})).toEqual([]);
+  });
+});
+
+describe('the words of a crossed limit', () => {
+  it('the limit as set, through the one formatter: no trailing zeros, grouped in the style given (CLDR en-GB: comma)', () => {
+    expect(limitText('cost', { maxCost_per_day: 1500 }, 'EUR')).toBe(`cost of destruction above EUR 1${THIN_SPACE}500 per day`);
+    expect(limitText('cost', { maxCost_per_day: 1500.5 }, 'GBP', localeStyle('en-GB'))).toBe('cost of destruction above GBP 1,500.5 per day');
+    expect(limitText('cost', { maxCost_per_day: 99.999 }, 'EUR')).toBe('cost of destruction above EUR 100 per day');
+    expect(limitText('efficiency', { minEfficiency: 0.625 }, 'EUR')).toBe('exergy efficiency below 62.5 %');
+    expect(limitText('efficiency', { minEfficiency: 0.7 }, 'EUR', localeStyle('de-DE'))).toBe('exergy efficiency below 70 %');
+    expect(limitText('efficiency', { minEfficiency: 0.7251 }, 'EUR', localeStyle('de-DE'))).toBe('exergy efficiency below 72,5 %');
   });
 });

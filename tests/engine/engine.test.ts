@@ -6,6 +6,7 @@ import { createHash } from 'node:crypto';
 import { describe, expect, it } from 'vitest';
 import { computeUnitHour, costKindOf, sha256Hex, canonicalJson, steamCost, ENGINE_VERSION } from '~/lib/engine';
 import { ByteHasher } from '~/lib/engine/hash';
+import { THIN_SPACE } from '~/lib/format';
 import { expectClose } from '../support/expect-close';
 import { ALL_CASES, boilerCase, heatExchangerCase, pumpCase, refCase, turbineCase, valveCase } from './cases';
 import { HOUR0, hoursOf, inputOf, linksOf, siteOf, unitOf } from './support';
@@ -112,7 +113,7 @@ describe('hour states', () => {
     const r = computeUnitHour(inputOf(c, { TG_MW: { mean: 0.4, min: 0.39, max: 0.41 } }));
     expect(r.state).toBe('idle');
     expect(reasonCodes(r)).toContain('BELOW_MIN_LOAD');
-    expect(r.reasons.find((x) => x.code === 'BELOW_MIN_LOAD')!.message).toMatch(/400\.0 kW is below the minimum load 1000\.0 kW/);
+    expect(r.reasons.find((x) => x.code === 'BELOW_MIN_LOAD')!.message).toBe(`power 400.0 kW is below the minimum load 1${THIN_SPACE}000.0 kW`); // grouped by the one formatter (src/lib/format.ts)
     expect(r.load).toBeCloseTo(4e5, 3);
   });
 

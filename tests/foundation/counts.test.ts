@@ -1,12 +1,13 @@
 import { describe, expect, it } from 'vitest';
 import { counted, nonZeroParts, plural } from '~/lib/counts';
+import { THIN_SPACE } from '~/lib/format';
 
 describe('count sentences (self-consistency: English grammar of number)', () => {
   it('reads naturally at 0, at 1 and above', () => {
     expect(counted(0, 'drift notice', 'drift notices')).toBe('no drift notices');
     expect(counted(1, 'drift notice', 'drift notices')).toBe('1 drift notice');
     expect(counted(2, 'drift notice', 'drift notices')).toBe('2 drift notices');
-    expect(counted(12345, 'file', 'files')).toBe('12,345 files');
+    expect(counted(12345, 'file', 'files')).toBe(`12${THIN_SPACE}345 files`); // grouped as every number (src/lib/format.ts, SI Brochure 5.4.4)
   });
 
   it('takes its own words for none', () => {

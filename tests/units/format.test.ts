@@ -4,7 +4,7 @@
  * groups of three separated by a thin space).
  */
 import { describe, expect, it } from 'vitest';
-import { THIN_SPACE as T, decimalsForU, fixed, localeStyle, significant, sizeDecimals, withU } from '~/lib/format';
+import { THIN_SPACE as T, decimalsForU, figures, fixed, localeStyle, significant, sizeDecimals, upTo, withU } from '~/lib/format';
 
 describe('numbers as people read them', () => {
   it('GUM 7.2.6: 1567.3 with U = 69.95 reads 1 567 ± 70, not 1 567 ± 69.95', () => {
@@ -61,5 +61,31 @@ describe('significant figures without e-notation', () => {
     expect(significant(123.456, 4)).toBe('123.5');
     expect(significant(9.9996e-5, 3)).toBe('1.00 × 10⁻⁴');
     expect(significant(0, 3)).toBe('0.00');
+  });
+});
+
+describe('limits and settings without trailing zeros', () => {
+  it('upTo: at most the decimals asked for, trailing zeros dropped, grouped, never "-0"', () => {
+    expect(upTo(400, 2)).toBe('400');
+    expect(upTo(62.5, 1)).toBe('62.5');
+    expect(upTo(1250.756, 2)).toBe(`1${T}250.76`);
+    expect(upTo(1000.004, 2)).toBe(`1${T}000`);
+    expect(upTo(-0.001, 2)).toBe('0');
+    expect(upTo(-1234.5, 2, localeStyle('de-DE'))).toBe('-1.234,5');
+    expect(upTo(1234, 2, localeStyle('de-DE'))).toBe('1.234');
+    expect(upTo(null, 2)).toBe('—');
+  });
+  it('figures: significant figures without the trailing zeros nobody set', () => {
+    expect(figures(0.05, 3)).toBe('0.05');
+    expect(figures(0.0512345, 3)).toBe('0.0512');
+    expect(figures(1.0000004, 6)).toBe('1');
+    expect(figures(0.99999996, 6)).toBe('1');
+    expect(figures(1234.5, 3)).toBe(`1${T}235`); // as significant: whole digits are kept
+    expect(figures(2.5e-9, 3)).toBe('2.5 × 10⁻⁹');
+    expect(figures(-0.00012, 2)).toBe('−1.2 × 10⁻⁴');
+    expect(figures(0, 3)).toBe('0');
+    // Number.MIN_VALUE = 2^-1074 = 4.940656...e-324 (IEEE 754 binary64, smallest subnormal): 10 ** -324 underflows to 0.
+    expect(figures(Number.MIN_VALUE, 3)).toBe('4.94 × 10⁻³²⁴');
+    expect(significant(Number.MIN_VALUE, 3)).toBe('4.94 × 10⁻³²⁴');
   });
 });

@@ -7,6 +7,7 @@
  * the figures here are *common practice* defaults, named as such on the page. Pure; no I/O.
  */
 import type { BaselineModel } from './baseline';
+import { fixed } from '../format';
 
 export const FIT_TRUST = {
   /**
@@ -38,7 +39,8 @@ export interface FitTrust {
   warnings: string[];
 }
 
-const pct = (x: number) => `${(100 * x).toFixed(1)} %`;
+const pct = (x: number) => `${fixed(100 * x, 1)} %`;
+const hoursOf = (n: number) => fixed(n, 0);
 
 /** The trust of a fitted model (its observation count, coefficient count and load spread). */
 export function fitTrust(model: Pick<BaselineModel, 'stats' | 'centre' | 'scale' | 'terms'>): FitTrust {
@@ -53,11 +55,11 @@ export function fitTrust(model: Pick<BaselineModel, 'stats' | 'centre' | 'scale'
   const acceptable = n >= minHours;
   if (!acceptable) {
     warnings.push(
-      `Fitted on ${n} steady hours for ${p} coefficients: at least ${minHours} are needed to accept it (${FIT_TRUST.minHoursPerCoefficient} hours per coefficient, and no fewer than ${FIT_TRUST.minAcceptHours}; common practice). Choose a longer reference period.`,
+      `Fitted on ${hoursOf(n)} steady hours for ${p} coefficients: at least ${hoursOf(minHours)} are needed to accept it (${FIT_TRUST.minHoursPerCoefficient} hours per coefficient, and no fewer than ${FIT_TRUST.minAcceptHours}; common practice). Choose a longer reference period.`,
     );
   } else if (n < FIT_TRUST.trustedHours) {
     warnings.push(
-      `Fitted on only ${n} steady hours, less than a week (${FIT_TRUST.trustedHours} h; common practice): R² and the Guideline 14 figures look better than the baseline will do on new hours.`,
+      `Fitted on only ${hoursOf(n)} steady hours, less than a week (${FIT_TRUST.trustedHours} h; common practice): R² and the Guideline 14 figures look better than the baseline will do on new hours.`,
     );
   }
   if (loadCv !== null && loadCv < FIT_TRUST.minLoadCv) {

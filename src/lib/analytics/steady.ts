@@ -31,6 +31,7 @@
  * each equipment type) are the place to take site-specific limits from.
  */
 import { STATE_SEVERITY, type HourState } from '../hour-states';
+import { figures, fixed } from '../format';
 import { resolvableSpread, type InstrumentResolution } from './resolution';
 
 export { LOW_RANGE_FRACTION, resolutionTerms, resolvableSpread, resolvableSpreadOf, type InstrumentResolution, type ResolutionTerms } from './resolution';
@@ -193,7 +194,7 @@ function tagHealthReasons(tag: string, st: TagHourStats | null | undefined, limi
       tag,
       value: st.outOfRangeCount,
       limit: lim.maxOutOfRangeCount,
-      message: `${tag}: ${st.outOfRangeCount} sample(s) outside the valid range`,
+      message: `${tag}: ${fixed(st.outOfRangeCount, 0)} sample(s) outside the valid range`,
     });
   }
   const minCovered = limits.spread?.[tag]?.minCoveredFraction ?? lim.minCoveredFraction;
@@ -204,7 +205,7 @@ function tagHealthReasons(tag: string, st: TagHourStats | null | undefined, limi
       tag,
       value: st.coveredFraction,
       limit: minCovered,
-      message: `${tag}: data cover ${(100 * st.coveredFraction).toFixed(0)} % of the hour with ${st.sampleCount} sample(s) (need ${(100 * minCovered).toFixed(0)} % and ${lim.minSamples})`,
+      message: `${tag}: data cover ${fixed(100 * st.coveredFraction, 0)} % of the hour with ${fixed(st.sampleCount, 0)} sample(s) (need ${fixed(100 * minCovered, 0)} % and ${fixed(lim.minSamples, 0)})`,
     });
   }
   const cells = st.sampleCount + st.nonNumericCount + (st.badQualityCount ?? 0);
@@ -216,7 +217,7 @@ function tagHealthReasons(tag: string, st: TagHourStats | null | undefined, limi
       tag,
       value: statusShare,
       limit: lim.maxNonNumericFraction,
-      message: `${tag}: ${(100 * statusShare).toFixed(0)} % of the hour's cells are status words or bad quality`,
+      message: `${tag}: ${fixed(100 * statusShare, 0)} % of the hour's cells are status words or bad quality`,
     });
   }
   return reasons;
@@ -235,7 +236,7 @@ function balanceReasons(balances: readonly BalanceClosure[], lim: Limits): HourR
         value: b.residual,
         limit: tol,
         message: Number.isFinite(b.residual)
-          ? `${b.name} balance misses by ${(100 * b.residual).toFixed(1)} % (tolerance ${(100 * tol).toFixed(1)} %)`
+          ? `${b.name} balance misses by ${fixed(100 * b.residual, 1)} % (tolerance ${fixed(100 * tol, 1)} %)`
           : `${b.name} balance could not be computed`,
       });
     }
@@ -253,7 +254,7 @@ function loadReasons(load: TagHourStats | null | undefined, sound: ReadonlySet<s
       tag: limits.loadTag,
       value: load.mean,
       limit: limits.minLoad,
-      message: `load ${load.mean} is below the minimum load ${limits.minLoad}`,
+      message: `load ${figures(load.mean, 4)} is below the minimum load ${figures(limits.minLoad, 4)}`,
     },
   ];
 }
@@ -278,7 +279,7 @@ function spreadReasons(tag: string, st: TagHourStats, limits: SteadyLimits, lim:
           tag,
           value: rel,
           limit: relLimit,
-          message: `${tag}: spread ${shown} % of the mean, above its limit ${shownLimit} % (${(100 * maxRel).toFixed(1)} % of the mean${floorNote(floor)}; a spread at the limit counts as settled)`,
+          message: `${tag}: spread ${shown} % of the mean, above its limit ${shownLimit} % (${fixed(100 * maxRel, 1)} % of the mean${floorNote(floor)}; a spread at the limit counts as settled)`,
         },
       ];
     }
@@ -302,7 +303,7 @@ function spreadReasons(tag: string, st: TagHourStats, limits: SteadyLimits, lim:
   return [];
 }
 
-const fmt = (v: number) => Number(v.toPrecision(3)).toString();
+const fmt = (v: number) => figures(v, 3);
 
 /**
  * The rule of every spread limit: a value AT its limit is inside (settled); only a value above it is
@@ -321,18 +322,18 @@ export function aboveLimit(value: number, limit: number): boolean {
 export function distinctFigures(value: number, limit: number, significant?: number): [string, string] {
   if (significant !== undefined) {
     for (let p = significant; p <= 12; p++) {
-      const a = Number(value.toPrecision(p)).toString();
-      const b = Number(limit.toPrecision(p)).toString();
+      const a = figures(value, p);
+      const b = figures(limit, p);
       if (a !== b) return [a, b];
     }
-    return [String(value), String(limit)];
+    return [figures(value, 17), figures(limit, 17)];
   }
   for (let d = 1; d <= 10; d++) {
-    const a = value.toFixed(d);
-    const b = limit.toFixed(d);
+    const a = fixed(value, d);
+    const b = fixed(limit, d);
     if (a !== b) return [a, b];
   }
-  return [String(value), String(limit)];
+  return [figures(value, 17), figures(limit, 17)];
 }
 /** The instrument's floor in a reason's words (formatted only when a reason is written). */
 const floorNote = (floor: number) => (floor > 0 ? `; what the instrument resolves: ${fmt(floor)}` : '');

@@ -19,6 +19,7 @@ import { localDayHour } from '../site-time';
 export { localDayHour };
 import { DEFAULT_RULE_HOURS, WEEKDAYS } from '../plant/idle';
 import { HOUR_MS } from '../time';
+import { upTo, type NumberStyle } from '../format';
 
 
 export type RuleHourState = HourState;
@@ -159,8 +160,12 @@ export function limitRuns(hours: readonly RuleHour[], limits: UnitLimits): RuleR
   return longRuns(hours, (h) => crossedLimits(h, limits), limits.hours ?? DEFAULT_RULE_HOURS);
 }
 
-/** The words of a crossed limit for a notice: "cost of destruction above GBP 400 per day". */
-export function limitText(which: CrossedLimit, limits: UnitLimits, currency: string): string {
-  if (which === 'cost') return `cost of destruction above ${currency} ${limits.maxCost_per_day!.toLocaleString('en-GB', { maximumFractionDigits: 2 })} per day`;
-  return `exergy efficiency below ${(limits.minEfficiency! * 100).toLocaleString('en-GB', { maximumFractionDigits: 1 })} %`;
+/**
+ * The words of a crossed limit for a notice: "cost of destruction above GBP 400 per day", the limit as
+ * set (at most 2 decimals of money, 1 of a percentage), in `style`'s separators (src/lib/format.ts;
+ * thin-space grouping and a decimal point by default).
+ */
+export function limitText(which: CrossedLimit, limits: UnitLimits, currency: string, style: NumberStyle = {}): string {
+  if (which === 'cost') return `cost of destruction above ${currency} ${upTo(limits.maxCost_per_day, 2, style)} per day`;
+  return `exergy efficiency below ${upTo(limits.minEfficiency! * 100, 1, style)} %`;
 }

@@ -12,6 +12,7 @@ import { sharedModel } from './linkset';
 import type { InputEntry, MappedUnit } from './map';
 import type { EngineHourState, EngineReason, EngineUnit } from './types';
 import { STATE_SEVERITY } from '../hour-states';
+import { fixed } from '../format';
 
 /** The dead state of the hour and where it came from. */
 export interface DeadState {
@@ -149,8 +150,8 @@ function entropyCheck(run: BalanceRun, balance: UnitBalance, notes: string[]): B
     run.computed.push({
       code: 'ENTROPY_CHECK_FAILED',
       message:
-        `destruction ${(D / 1e3).toFixed(1)} kW and T0 Sgen ${((D - gs) / 1e3).toFixed(1)} kW differ by ${(Math.abs(gs) / 1e3).toFixed(1)} kW, ` +
-        `more than ${(100 * ENTROPY_CHECK_TOLERANCE).toFixed(0)} % of D and more than its uncertainty (U = ${(U_D / 1e3).toFixed(1)} kW): the data do not close the first law`,
+        `destruction ${fixed(D / 1e3, 1)} kW and T0 Sgen ${fixed((D - gs) / 1e3, 1)} kW differ by ${fixed(Math.abs(gs) / 1e3, 1)} kW, ` +
+        `more than ${fixed(100 * ENTROPY_CHECK_TOLERANCE, 0)} % of D and more than its uncertainty (U = ${fixed(U_D / 1e3, 1)} kW): the data do not close the first law`,
     });
   }
   return { residual_W: gs, share: gs / scale };
@@ -227,7 +228,7 @@ export function hourState(s: StateInputs): { state: EngineHourState; reasons: En
     let message = r.message;
     if (r.code === 'BELOW_MIN_LOAD' && s.mapped) {
       const u = s.mapped.load.unit === 'W' ? { f: 1e-3, s: 'kW' } : { f: 3.6, s: 't/h' };
-      message = `${s.mapped.load.label} ${(s.load * u.f).toFixed(1)} ${u.s} is below the minimum load ${(s.minLoad * u.f).toFixed(1)} ${u.s}${s.minLoad > 0 ? '' : ' (the unit is not running)'}`;
+      message = `${s.mapped.load.label} ${fixed(s.load * u.f, 1)} ${u.s} is below the minimum load ${fixed(s.minLoad * u.f, 1)} ${u.s}${s.minLoad > 0 ? '' : ' (the unit is not running)'}`;
     }
     reasons.push({ code: r.code, message, ...(r.tag && r.tag !== LOAD_KEY ? { tag: r.tag } : {}), state: r.state });
   }

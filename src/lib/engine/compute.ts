@@ -36,6 +36,7 @@ import { cachedConverter, mapUnitHour, unitParameters, type MappedUnit } from '.
 import { linkConverter } from './map-port';
 import { clearlySteady } from './steady-fast';
 import type { EngineLink, EngineReason, TagHour, UnitHourInput, UnitHourResult } from './types';
+import { upTo } from '../format';
 
 export { ENGINE_VERSION, ENERGY_CLOSURE_TOLERANCE, ENTROPY_CHECK_TOLERANCE, SPREAD_O2_ABS, SPREAD_X_ABS } from './constants';
 export { unitHourHashes, type ComputeOptions } from './linkset';
@@ -146,7 +147,7 @@ function plannedHour(input: UnitHourInput, options: ComputeOptions, withU: boole
 function fullHour(input: UnitHourInput, options: ComputeOptions, withU: boolean, dead: DeadState): UnitHourResult {
   const params = unitParameters(input.unit);
   const notes: string[] = [];
-  if (dead.source.startsWith('fallback')) notes.push(`dead state: ${dead.source}; T0 = ${dead.T0_K} K (the site's setting)`);
+  if (dead.source.startsWith('fallback')) notes.push(`dead state: ${dead.source}; T0 = ${upTo(dead.T0_K, 3)} K (the site's setting)`);
   const { mapped, problems } = mapHour(input, notes);
   const set = linkSetOf(input);
   const load = mapped?.load.value ?? NaN;

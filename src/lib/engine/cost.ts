@@ -20,8 +20,11 @@ import { fuelChemicalExergy } from '../thermo/chemical-exergy';
 import type { EnergyPrice, FuelDefinition } from '../plant/model';
 import { fuelSpecOfDefinition } from './map';
 import type { CostBasis, EngineUnit } from './types';
+import { fixed, upTo } from '../format';
 
-const fmt = (c_per_J: number, currency: string) => `${(c_per_J * 3.6e9).toFixed(2)} ${currency}/MWh of exergy`;
+const fmt = (c_per_J: number, currency: string) => `${fixed(c_per_J * 3.6e9, 2)} ${currency}/MWh of exergy`;
+/** A price as the site set it [currency/MWh]. */
+const price$ = (price_per_MWh: number) => upTo(price_per_MWh, 4);
 
 /** The price a boiler's fuel names, else the site's first fuel price (same currency as the site). */
 export function fuelPriceOf(prices: readonly EnergyPrice[], fuel: FuelDefinition | null, currency: string): EnergyPrice | null {
@@ -44,7 +47,7 @@ export function fuelExergyCost(prices: readonly EnergyPrice[], fuel: FuelDefinit
   const f = buildFuel(fuelSpecOfDefinition(fuel));
   const phi = fuelChemicalExergy(f, T0_K) / f.LHV_J_per_kg;
   const c = fuelExergyCost_per_J(price.price_per_MWh, phi);
-  return { cF_per_J: c, basis: `fuel '${price.name}' at ${price.price_per_MWh} ${currency}/MWh (LHV), exergy/LHV = ${phi.toFixed(4)}: ${fmt(c, currency)}` };
+  return { cF_per_J: c, basis: `fuel '${price.name}' at ${price$(price.price_per_MWh)} ${currency}/MWh (LHV), exergy/LHV = ${fixed(phi, 4)}: ${fmt(c, currency)}` };
 }
 
 /** Unit cost of electricity as exergy, from the site's first electricity price; null without one. */
@@ -52,7 +55,7 @@ export function electricityCost(prices: readonly EnergyPrice[], currency: string
   const price = prices.find((p) => p.kind === 'electricity' && p.currency === currency);
   if (!price) return null;
   const c = electricityExergyCost_per_J(price.price_per_MWh);
-  return { cF_per_J: c, basis: `electricity '${price.name}' at ${price.price_per_MWh} ${currency}/MWh: ${fmt(c, currency)}` };
+  return { cF_per_J: c, basis: `electricity '${price.name}' at ${price$(price.price_per_MWh)} ${currency}/MWh: ${fmt(c, currency)}` };
 }
 
 /** A boiler's hour as the steam cost needs it. */
@@ -80,7 +83,7 @@ export function steamCost(boilers: readonly BoilerHour[], fallback: CostBasis | 
       P += b.product_W!;
     }
     const c = productExergyCost_per_J(cost / F, F, P);
-    const eff = ok.length === 1 ? `, boiler ${ok[0]!.name} exergy efficiency ${((100 * ok[0]!.product_W!) / ok[0]!.fuel_W!).toFixed(1)} %` : '';
+    const eff = ok.length === 1 ? `, boiler ${ok[0]!.name} exergy efficiency ${fixed((100 * ok[0]!.product_W!) / ok[0]!.fuel_W!, 1)} %` : '';
     return { cF_per_J: c, basis: `steam from ${ok.map((b) => b.name).join(', ')} this hour: fuel exergy cost / boiler exergy efficiency${eff}: ${fmt(c, currency)}` };
   }
   if (!fallback) return null;

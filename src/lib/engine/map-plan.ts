@@ -7,6 +7,7 @@ import { FLUID_SHORT_LABELS, type FluidKind } from '../kinds';
 import { kindSpec, measurementsFor } from '../plant/kinds';
 import { flowEntry, fluidSpecOf, fromLink, isCondensed, linkAt, put, reading, tsat, type Ctx } from './map-port';
 import type { EngineLink, EnginePort, EngineReason, EngineUnit } from './types';
+import { fixed, upTo } from '../format';
 
 export interface PortOptions {
   direction: 'in' | 'out';
@@ -92,7 +93,7 @@ function planState(ctx: Ctx, port: EnginePort, o: PortOptions, fluid: NonNullabl
     if (o.wetFromEnergy) ctx.decisions.push({ pName, TL, water: isWater, fromEnergy: wet || !Number.isFinite(Tmean) });
     if (o.wetFromEnergy && (wet || !Number.isFinite(Tmean))) {
       const words = Number.isFinite(Tmean)
-        ? `from the energy balance: T = ${(Tmean - 273.15).toFixed(1)} degC is within ${SATURATION_TOLERANCE_K} K of saturation (${(Ts - 273.15).toFixed(1)} degC), so p and T do not fix the state`
+        ? `from the energy balance: T = ${fixed(Tmean - 273.15, 1)} degC is within ${upTo(SATURATION_TOLERANCE_K, 3)} K of saturation (${fixed(Ts - 273.15, 1)} degC), so p and T do not fix the state`
         : 'from the energy balance (no temperature reading this hour)';
       return { mode: 'energy-balance', words, p, T: NaN };
     }

@@ -14,6 +14,7 @@ import type { InputEntry, InputSource, PortPlan, WetDecision } from './map-types
 export type { WetDecision } from './map-types';
 import { fuelFluidOf, fuelSpecOfDefinition, normalised } from './map-fuel';
 import type { EngineLink, EnginePort, EngineReason, EngineUnit, FlueGasSource, TagHour } from './types';
+import { figures } from '../format';
 
 export interface Ctx {
   unit: EngineUnit;
@@ -181,7 +182,7 @@ export function flowEntry(ctx: Ctx, port: EnginePort, link: EngineLink, pT: { p:
       });
     } else {
       mDot = r.value * M;
-      note = `amount of substance ${r.value} mol/s times molar mass ${M} kg/mol`;
+      note = `amount of substance ${figures(r.value, 6)} mol/s times molar mass ${figures(M, 6)} kg/mol`;
     }
   } else {
     const rho = Number.isFinite(r.value) ? density(ctx, port.fluid, pT.p, pT.T) : null;
@@ -193,7 +194,7 @@ export function flowEntry(ctx: Ctx, port: EnginePort, link: EngineLink, pT: { p:
       });
     } else if (rho !== null) {
       mDot = r.value * rho;
-      note = `volume flow ${r.value} m3/s times density ${rho} kg/m3 at the port's p and T`;
+      note = `volume flow ${figures(r.value, 6)} m3/s times density ${figures(rho, 6)} kg/m3 at the port's p and T`;
     }
   }
   put(ctx, name, mDot, Math.abs(mDot) * rel, { kind: 'tag', tag: link.tagName, linkId: link.id, quantity: link.quantity, engUnit: link.engUnit, reading: r.reading, ...(note ? { note } : {}) });

@@ -4,6 +4,7 @@
  * names the input and says what was expected, so the hourly engine can store it as the hour's reason.
  * Property-range failures of the property core keep their own type (`ThermoRangeError`).
  */
+import { figures } from '../format';
 
 /** Why a balance was refused. Codes are permanent: callers may store and match them. */
 export type BalanceErrorCode =
@@ -36,7 +37,7 @@ export function requireInput(input: string, value: number, lo: number, hi: numbe
     throw new BalanceInputError(
       Number.isNaN(value) || value === undefined ? 'MISSING_INPUT' : 'IMPOSSIBLE_INPUT',
       input,
-      `${what ? what + ' ' : ''}= ${value} is outside ${lo}..${hi} ${unit}`,
+      `${what ? what + ' ' : ''}= ${figures(value, 6, { none: 'no value' })} is outside ${figures(lo, 6)}..${figures(hi, 6)} ${unit}`,
     );
   }
 }

@@ -6,6 +6,7 @@ import { deadState, water } from '../thermo';
 import { BalanceInputError, requireInput } from './errors';
 import { Memo2, finishState, need } from './fluid-common';
 import type { DeadValues, Environment, Fluid, FluidSpec, PortFlag, PortMeasurement, PortState } from './fluid-types';
+import { upTo } from '../format';
 
 /** Default tolerance of the near-saturation flag [K] (common practice: about the RTD uncertainty). */
 export const SATURATION_TOLERANCE_K = 1;
@@ -29,7 +30,7 @@ export class WaterFluid implements Fluid {
       throw new BalanceInputError(
         'IMPOSSIBLE_INPUT',
         'T0_K',
-        `water's dead state needs T0 >= ${WATER_T_MIN_K} K, got ${env.T0_K} K (IAPWS-IF97 has no liquid below 0 degC); use a fixed site T0 for water units in frost`,
+        `water's dead state needs T0 >= ${upTo(WATER_T_MIN_K, 2)} K, got ${upTo(env.T0_K, 2)} K (IAPWS-IF97 has no liquid below 0 degC); use a fixed site T0 for water units in frost`,
       );
     }
     return this.memo.put(env.T0_K, env.p0_Pa, { dead: deadState.water(env.T0_K, env.p0_Pa), eCh: null });

@@ -8,6 +8,7 @@ import { G_m_per_s2 } from '../thermo';
 import type { BalancePort, PortStateInput, ResolvedPort } from './ports';
 import { BalanceInputError, requireInput } from './errors';
 import { fluidOf, type Environment, type Fluid, type PortState } from './fluids';
+import { figures } from '../format';
 
 function isEnergyBalanceState(m: PortStateInput): m is { fromEnergyBalance: true; p_Pa: number; velocity_m_per_s?: number; elevation_m?: number } {
   return typeof m === 'object' && m !== null && (m as { fromEnergyBalance?: boolean }).fromEnergyBalance === true;
@@ -263,7 +264,7 @@ function solveCommonExpansion(
       states[j] = fluids[j].statePH(m.p_Pa, h, env, m.velocity_m_per_s ?? 0, m.elevation_m ?? 0);
     } catch (err) {
       if (err instanceof BalanceInputError) throw err;
-      throw new BalanceInputError('UNSOLVABLE', ports[j].name, `the expansion line gives h = ${h} J/kg at p = ${m.p_Pa} Pa, outside the property range (${(err as Error).message})`);
+      throw new BalanceInputError('UNSOLVABLE', ports[j].name, `the expansion line gives h = ${figures(h / 1e3, 6)} kJ/kg at p = ${figures(m.p_Pa, 6)} Pa, outside the property range (${(err as Error).message})`);
     }
   }
   return eta;
@@ -279,6 +280,6 @@ function stateFromEnergy(port: BalancePort, fluid: Fluid, e: number, env: Enviro
     return fluid.statePH(m.p_Pa, h, env, V, z);
   } catch (err) {
     if (err instanceof BalanceInputError) throw err;
-    throw new BalanceInputError('UNSOLVABLE', port.name, `the energy balance gives h = ${h} J/kg at p = ${m.p_Pa} Pa, outside the property range (${(err as Error).message})`);
+    throw new BalanceInputError('UNSOLVABLE', port.name, `the energy balance gives h = ${figures(h / 1e3, 6)} kJ/kg at p = ${figures(m.p_Pa, 6)} Pa, outside the property range (${(err as Error).message})`);
   }
 }

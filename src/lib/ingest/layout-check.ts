@@ -11,6 +11,7 @@
  *   more than 20 times the median step: a month where the sequence steps an hour).
  */
 import { IngestError } from './errors';
+import { fixed } from '../format';
 import type { LayoutProfile, LayoutQuestion } from './profile';
 import { createRowReader } from './reader';
 import type { SampleSink } from './reader';
@@ -116,8 +117,8 @@ export function checkLayoutAgainstSample(
       question: {
         field: 'decimalMark',
         message:
-          `The layout reads numbers with a decimal ${profile.decimalMark === ',' ? 'comma' : 'point'}, but then only ${Math.round(100 * rate(here))} % of this file's ` +
-          `values are numbers; with a decimal ${otherMark === ',' ? 'comma' : 'point'} ${Math.round(100 * rate(alt))} % are. Which decimal mark does this file use?`,
+          `The layout reads numbers with a decimal ${profile.decimalMark === ',' ? 'comma' : 'point'}, but then only ${fixed(100 * rate(here), 0)} % of this file's ` +
+          `values are numbers; with a decimal ${otherMark === ',' ? 'comma' : 'point'} ${fixed(100 * rate(alt), 0)} % are. Which decimal mark does this file use?`,
         choices: ['.', ','],
         blocking: true,
       },

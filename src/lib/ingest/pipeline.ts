@@ -8,6 +8,7 @@ import type { TagHour, TagOptions } from './aggregate';
 import { createDecoder } from './decode';
 import type { EncodingDecision } from './decode';
 import { IngestError } from './errors';
+import { fixed } from '../format';
 import type { LayoutProfile } from './profile';
 import { createRowReader } from './reader';
 import type { ReadReport, RejectedCell, RowReader, RowReaderOptions } from './reader';
@@ -131,7 +132,7 @@ export function checkRejectedShare(report: ReadReport, profile: LayoutProfile, m
   const mark = profile.decimalMark === ',' ? 'a decimal comma' : 'a decimal point';
   throw new IngestError(
     'MOSTLY_REJECTED',
-    `${bad} of ${total} values (${Math.round((100 * bad) / total)} %) could not be read as numbers (for example ${examples}), so nothing was stored. ` +
+    `${fixed(bad, 0)} of ${fixed(total, 0)} values (${fixed((100 * bad) / total, 0)} %) could not be read as numbers (for example ${examples}), so nothing was stored. ` +
       `The layout reads numbers with ${mark}${profile.thousandsSeparator ? ` and '${profile.thousandsSeparator}' between thousands` : ''}: ` +
       'is that right for this file? Check the layout (decimal mark, columns) and upload again.',
     { rejected: bad, values: report.valueCount, decimalMark: profile.decimalMark, question: { field: 'decimalMark', choices: ['.', ','] } },

@@ -9,6 +9,10 @@ import type { IngestWarning, IngestWarningCode, ReadReport, TagReadSummary } fro
 import type { ReadTally, TagState, TagTable, WarningCounter } from './reader-tally';
 import type { LocalClockStats } from './time';
 import { isoUtc } from './time';
+import { fixed } from '../format';
+
+/** A count in the words of a warning, grouped by the one formatter (src/lib/format.ts). */
+const n = (count: number) => fixed(count, 0);
 
 /** What the report is made from. */
 export interface ReadEnd {
@@ -43,7 +47,7 @@ export function assertDataRows(e: ReadEnd): void {
   throw new IngestError(
     'HEADER_ONLY',
     t.badTime.count > 0
-      ? `No row has a readable time (${t.badTime.count} tried, for example ${quoted(t.badTimeExamples)}). Check the time settings of the layout.`
+      ? `No row has a readable time (${n(t.badTime.count)} tried, for example ${quoted(t.badTimeExamples)}). Check the time settings of the layout.`
       : 'The file has header lines but no data rows. Export a time range that contains data.',
     { unreadableTimes: t.badTime.count },
   );
@@ -93,30 +97,30 @@ export function readWarnings(e: ReadEnd): IngestWarning[] {
   const add = (code: IngestWarningCode, c: WarningCounter, message: string) => {
     if (c.count > 0) out.push({ code, message, count: c.count, lines: c.lines });
   };
-  add('RAGGED_ROWS', t.ragged, `${t.ragged.count} row(s) do not have ${e.p.columnCount} fields; missing cells were read as blank, extra cells ignored.`);
-  add('UNREADABLE_TIMES', t.badTime, `${t.badTime.count} row(s) have a time that cannot be read (for example ${quoted(t.badTimeExamples)}); those rows were skipped.`);
-  add('DUPLICATE_TIMES', t.duplicates, `${t.duplicates.count} row(s) repeat the time of the row before (for the same tag); the later value wins.`);
-  add('BACKWARDS_TIMES', t.backwards, `${t.backwards.count} row(s) have a time earlier than the row before (for the same tag); the aggregator drops them.`);
+  add('RAGGED_ROWS', t.ragged, `${n(t.ragged.count)} row(s) do not have ${n(e.p.columnCount)} fields; missing cells were read as blank, extra cells ignored.`);
+  add('UNREADABLE_TIMES', t.badTime, `${n(t.badTime.count)} row(s) have a time that cannot be read (for example ${quoted(t.badTimeExamples)}); those rows were skipped.`);
+  add('DUPLICATE_TIMES', t.duplicates, `${n(t.duplicates.count)} row(s) repeat the time of the row before (for the same tag); the later value wins.`);
+  add('BACKWARDS_TIMES', t.backwards, `${n(t.backwards.count)} row(s) have a time earlier than the row before (for the same tag); the aggregator drops them.`);
   out.push(...clockWarnings(e.clock));
-  add('UNKNOWN_QUALITY', t.unknownQuality, `${t.unknownQuality.count} quality cell(s) are not known words or codes (${quoted(t.unknownQualityTexts)}); their values were used as uncertain.`);
+  add('UNKNOWN_QUALITY', t.unknownQuality, `${n(t.unknownQuality.count)} quality cell(s) are not known words or codes (${quoted(t.unknownQualityTexts)}); their values were used as uncertain.`);
   if (e.malformedQuoteCount > 0) {
-    out.push({ code: 'MALFORMED_QUOTES', message: `${e.malformedQuoteCount} quoted field(s) have text after the closing quote; it was kept.`, count: e.malformedQuoteCount, lines: [] });
+    out.push({ code: 'MALFORMED_QUOTES', message: `${n(e.malformedQuoteCount)} quoted field(s) have text after the closing quote; it was kept.`, count: e.malformedQuoteCount, lines: [] });
   }
-  add('BLANK_TAG_NAMES', t.blankTags, `${t.blankTags.count} row(s) have no tag name and were skipped.`);
-  add('BAD_TAG_NAMES', t.badTagNames, `${t.badTagNames.count} row(s) have a tag name longer than ${MAX_TAG_NAME_CHARS} characters or made of control characters; they were skipped.`);
+  add('BLANK_TAG_NAMES', t.blankTags, `${n(t.blankTags.count)} row(s) have no tag name and were skipped.`);
+  add('BAD_TAG_NAMES', t.badTagNames, `${n(t.badTagNames.count)} row(s) have a tag name longer than ${n(MAX_TAG_NAME_CHARS)} characters or made of control characters; they were skipped.`);
   add(
     'TIMES_OUTSIDE_WINDOW',
     t.outsideWindow,
-    `${t.outsideWindow.count} row(s) have a time outside the accepted window (${windowIso(e.window.minMs)} to ${windowIso(e.window.maxMs)}), for example ` +
+    `${n(t.outsideWindow.count)} row(s) have a time outside the accepted window (${windowIso(e.window.minMs)} to ${windowIso(e.window.maxMs)}), for example ` +
       `${quoted(t.outsideWindowExamples)}; their cells were rejected.`,
   );
-  add('IMPOSSIBLE_VALUES', t.impossible, `${t.impossible.count} value(s) are physically impossible and were rejected, for example ${quoted(t.impossibleExamples)}.`);
+  add('IMPOSSIBLE_VALUES', t.impossible, `${n(t.impossible.count)} value(s) are physically impossible and were rejected, for example ${quoted(t.impossibleExamples)}.`);
   const empty = e.tags.states.filter((st) => valueCountOf(e, st) === 0 && st.textCount + st.impossibleCount > 0);
   if (empty.length > 0) {
     out.push({
       code: 'COLUMNS_WITHOUT_NUMBERS',
       message:
-        `${empty.length} tag(s) hold no usable number in the whole file: ` +
+        `${n(empty.length)} tag(s) hold no usable number in the whole file: ` +
         empty
           .slice(0, 10)
           .map((st) => `${st.tag} (for example '${[...st.texts.keys()][0] ?? ''}')`)
@@ -138,8 +142,8 @@ function clockWarnings(cs: LocalClockStats): IngestWarning[] {
     out.push({
       code: 'DST_REPEATED_HOUR',
       message:
-        `${repeated} local time(s) fall in the hour repeated when clocks go back; resolved by order: ` +
-        `${cs.repeatedFirstPassCount} read as the first pass (summer offset), ${cs.repeatedSecondPassCount} as the second pass (after the time stepped back).` +
+        `${n(repeated)} local time(s) fall in the hour repeated when clocks go back; resolved by order: ` +
+        `${n(cs.repeatedFirstPassCount)} read as the first pass (summer offset), ${n(cs.repeatedSecondPassCount)} as the second pass (after the time stepped back).` +
         (cs.repeatedSecondPassCount === 0 ? ' No step back was seen, so none was read as the second pass; check those rows.' : ''),
       count: repeated,
       lines: cs.repeatedLines,
@@ -148,7 +152,7 @@ function clockWarnings(cs: LocalClockStats): IngestWarning[] {
   if (cs.gapCount > 0) {
     out.push({
       code: 'DST_GAP',
-      message: `${cs.gapCount} local time(s) fall in the hour skipped when clocks go forward, so they never happened on a correct clock; read with the offset before the change (02:30 as 03:30 summer time).`,
+      message: `${n(cs.gapCount)} local time(s) fall in the hour skipped when clocks go forward, so they never happened on a correct clock; read with the offset before the change (02:30 as 03:30 summer time).`,
       count: cs.gapCount,
       lines: cs.gapLines,
     });

@@ -9,6 +9,7 @@
  * header rows, layout and columns (sniff-header.ts) and the number format (sniff-numbers.ts).
  */
 import { IngestError } from './errors';
+import { fixed } from '../format';
 import { fnv1a64Hex, normaliseHeaderCell } from './fingerprint';
 import { LayoutProfileSchema } from './profile';
 import type { LayoutProfile, LayoutQuestion } from './profile';
@@ -50,7 +51,7 @@ export function sniffLayout(sampleText: string, options: SniffOptions = {}): Lay
   };
 
   const { sep, score, records } = chooseSeparator(text, true, options.maxRecords ?? 400);
-  take({ notes: [`Separator ${JSON.stringify(sep)} splits the lines most consistently (score ${score.toFixed(2)}).`], questions: [], confidence: score < 0.9 ? 0.8 : 1 });
+  take({ notes: [`Separator ${JSON.stringify(sep)} splits the lines most consistently (score ${fixed(score, 2)}).`], questions: [], confidence: score < 0.9 ? 0.8 : 1 });
   const m = modeCount(records);
   const dataStart = findDataStart(records, m);
   if (dataStart < 0) {
@@ -170,7 +171,7 @@ function noDataRowReason(text: string, records: { fields: string[]; line: number
   if (!complete && droppedTail > text.length) {
     throw new IngestError(
       'RECORD_TOO_LONG',
-      `Line ${(records.at(-1)?.line ?? 0) + 1} is longer than the first ${Math.round((text.length + droppedTail) / 1024)} KiB of the file read to decide its layout, ` +
+      `Line ${fixed((records.at(-1)?.line ?? 0) + 1, 0)} is longer than the first ${fixed((text.length + droppedTail) / 1024, 0)} KiB of the file read to decide its layout, ` +
         'so no data row could be seen. Either the file is not a CSV export, the separator is wrong, or a quote is never closed. Check the export settings.',
       { sampleCharacters: text.length + droppedTail },
       (records.at(-1)?.line ?? 0) + 1,

@@ -6,6 +6,7 @@
 import { jsonPath } from '~/lib/zod-words';
 import { SPECIES_NAMES } from '../thermo/gas';
 import { canConvert } from '../units/convert';
+import { figures } from '../format';
 import type { FluidKind } from '../kinds';
 import { LINK_QUANTITIES, allowedQuantities, kindSpec, type UnitKind } from './kinds';
 import { BEGINNING_MS, COMPOSITION_SUM_TOLERANCE, type Composition, type LinkModel, type ModelIssue, type PortModel } from './model-schema';
@@ -32,7 +33,7 @@ export function checkComposition(c: Composition, at: readonly PropertyKey[]): Mo
   }
   if (Object.keys(c).length === 0) out.push({ path: jsonPath(at), message: 'Give at least one species with its mole fraction.' });
   else if (Math.abs(sum - 1) > COMPOSITION_SUM_TOLERANCE) {
-    out.push({ path: jsonPath(at), message: `Mole fractions sum to ${Number(sum.toPrecision(6))}; they must sum to 1 (within ${COMPOSITION_SUM_TOLERANCE}).` });
+    out.push({ path: jsonPath(at), message: `Mole fractions sum to ${figures(sum, 6)}; they must sum to 1 (within ${figures(COMPOSITION_SUM_TOLERANCE, 3)}).` });
   }
   return out;
 }

@@ -7,6 +7,7 @@
  */
 import { jsonPath, humanErrorMap, humanIssues } from '~/lib/zod-words';
 import { canConvert } from '../units/convert';
+import { figures } from '../format';
 import { kindSpec } from './kinds';
 import { checkTagLimits } from './tag-limits';
 import { COMPOSITION_SUM_TOLERANCE, PlantModelSchema, type ModelIssue, type PlantModel, type PortModel, type UnitModel } from './model-schema';
@@ -26,7 +27,7 @@ export function checkUnit(unit: UnitModel, at: readonly PropertyKey[], ctx: { bo
     if (unit.fuel.by === 'ultimate') {
       const sum = Object.values(unit.fuel.ultimate).reduce<number>((a, b) => a + (b ?? 0), 0);
       if (Math.abs(sum - 1) > COMPOSITION_SUM_TOLERANCE) {
-        out.push({ path: jsonPath([...at, 'fuel', 'ultimate']), message: `Mass fractions sum to ${Number(sum.toPrecision(6))}; they must sum to 1 (moisture and ash included).` });
+        out.push({ path: jsonPath([...at, 'fuel', 'ultimate']), message: `Mass fractions sum to ${figures(sum, 6)}; they must sum to 1 (moisture and ash included).` });
       }
     }
     if (unit.fuel.price !== undefined && !ctx.priceNames.has(unit.fuel.price)) {

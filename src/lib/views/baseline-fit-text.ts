@@ -4,6 +4,7 @@
  */
 import { QUADRATIC_TERMS, type BaselineTerm } from '../analytics/baseline';
 import { siteDay } from '../site-time';
+import { fixed } from '../format';
 
 /** A unit's computed hours as GET /api/units/{unitId}/baselines answers them (ISO instants). */
 export interface HourSpan {
@@ -17,7 +18,7 @@ export interface HourSpan {
 export function spanText(span: HourSpan | null, timeZone: string): string {
   if (span === null) return 'Looking up the unit’s hours…';
   if (span.hours === 0 || !span.first || !span.last) return 'This unit has no computed hours yet.';
-  return `${span.hours} computed hours from ${siteDay(span.first, timeZone)} to ${siteDay(span.last, timeZone)}, ${span.steady} of them steady. Only steady hours are fitted.`;
+  return `${fixed(span.hours, 0)} computed hours from ${siteDay(span.first, timeZone)} to ${siteDay(span.last, timeZone)}, ${fixed(span.steady, 0)} of them steady. Only steady hours are fitted.`;
 }
 
 /** The terms with `t` switched: taken out when present, else put in at its place in the terms' order. */

@@ -5,6 +5,7 @@
  * through src/lib/site-time.ts. Pure.
  */
 import { siteStamp } from '../site-time';
+import { upTo } from '../format';
 import type { SiteWriter } from '../units/writer';
 import { inputWords, labelOf } from '../words';
 import type { HourAudit } from './unit-hour';
@@ -51,7 +52,8 @@ export function tagQualityText(h: TagHour['hour']): string {
 /** A link's uncertainty as its form states it: "0.5 % of reading" or "0.2 bar". */
 export function linkUncertaintyText(t: TagHour): string {
   if (!t.uncertainty) return '';
-  return t.uncertainty.mode === 'relative' ? `${t.uncertainty.value} % of reading` : `${t.uncertainty.value} ${t.engUnit}`;
+  const v = upTo(t.uncertainty.value, 6);
+  return t.uncertainty.mode === 'relative' ? `${v} % of reading` : `${v} ${t.engUnit}`;
 }
 
 /** When a link is valid, in the site's clock: "from the start", "from 2024-03-01 00:00 to 2024-06-01 00:00". */

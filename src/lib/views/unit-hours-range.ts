@@ -3,6 +3,7 @@
  * hours (JSON or CSV) and the count of its hours by state. Pure.
  */
 import { counted } from '../counts';
+import { fixed } from '../format';
 import { HOUR_STATES } from '../hour-states';
 import { siteDayStart } from '../site-time';
 import { DAY_MS } from '../time';
@@ -25,6 +26,6 @@ export function unitHoursUrl(unitId: string, range: { from: string; to: string }
 /** "24 hours: 20 steady, 3 unsettled, 1 idle": the hours and those of each state there are, in the states' order. */
 export function stateCountsText(rows: readonly { state: string }[]): string {
   const counts = rows.reduce<Record<string, number>>((m, r) => ((m[r.state] = (m[r.state] ?? 0) + 1), m), {});
-  const parts = HOUR_STATES.filter((s) => counts[s]).map((s) => `${counts[s]} ${s}`);
+  const parts = HOUR_STATES.filter((s) => counts[s]).map((s) => `${fixed(counts[s]!, 0)} ${s}`);
   return `${counted(rows.length, 'hour', 'hours')}: ${parts.join(', ')}`;
 }

@@ -14,6 +14,9 @@
 import { and, asc, eq, gte, inArray, isNotNull, lt, max, ne, or, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import { CheckUnitRulesPayload, QUEUES, sendJob } from '~/jobs';
+import { writerOf } from '~/lib/units/writer';
+import type { NumberStyle } from '~/lib/format';
+import { siteDisplay } from './display-units';
 import { idleRuns, limitRuns, limitText, type CrossedLimit, type RuleHour, type RuleRun, type UnitLimits } from '~/lib/analytics/unit-rules';
 import { DEFAULT_RULE_HOURS, MAX_RULE_HOURS, normallyIdleText, type NormallyIdle } from '~/lib/plant/idle';
 import { db } from '../db/client';
@@ -107,6 +110,8 @@ export async function checkUnitRules(payload: z.input<typeof CheckUnitRulesPaylo
     ? new Set((await db().select({ name: plantUnits.name }).from(plantUnits).where(inArray(plantUnits.id, [...listed]))).map((u) => u.name))
     : null;
   const out: UnitRuleCheck[] = [];
+  // The limits in a rule's words are written in the site's number style, as its mails write money.
+  const style = units.some((u) => u.limits) ? writerOf(await siteDisplay(p.siteId)).style : {};
   for (const u of units) {
     const waitsFor = u.normallyIdle?.whileRunning ?? [];
     if (listed && !listed.has(u.id) && !waitsFor.some((n) => names!.has(n))) continue;
@@ -114,7 +119,7 @@ export async function checkUnitRules(payload: z.input<typeof CheckUnitRulesPaylo
     if (u.normallyIdle) out.push(await checkIdle(u.id, u.normallyIdle, u.timeZone, p.siteId, fromMs, p.toMs));
     const l = u.limits;
     if (l && (l.maxCost_per_day !== null || l.minEfficiency !== null)) {
-      out.push(await checkLimits(u.id, { maxCost_per_day: l.maxCost_per_day, minEfficiency: l.minEfficiency, hours: l.hours }, u.currency, fromMs, p.toMs));
+      out.push(await checkLimits(u.id, { maxCost_per_day: l.maxCost_per_day, minEfficiency: l.minEfficiency, hours: l.hours }, u.currency, style, fromMs, p.toMs));
     }
   }
   return out;
@@ -179,14 +184,14 @@ async function checkIdle(unitId: string, decl: NormallyIdle, timeZone: string, s
   });
 }
 
-async function checkLimits(unitId: string, limits: UnitLimits, currency: string, fromMs: number, toMs: number): Promise<UnitRuleCheck> {
+async function checkLimits(unitId: string, limits: UnitLimits, currency: string, style: NumberStyle, fromMs: number, toMs: number): Promise<UnitRuleCheck> {
   return inInsightTx(async (tx, exec) => {
     await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${'unit-rules:' + unitId}))`);
     const covered = await coveredUntilMs(tx, unitId, 'limit');
     const hours = (await ruleHours(tx, unitId, fromMs, toMs)).filter((h) => h.hourStartMs > covered);
     const runs = limitRuns(hours, limits);
     const opened = await record(tx, exec, unitId, 'limit', runs, (crossed) => ({
-      ruleText: crossed.map((c) => limitText(c as CrossedLimit, limits, currency)).join('; '),
+      ruleText: crossed.map((c) => limitText(c as CrossedLimit, limits, currency, style)).join('; '),
       ruleHours: limits.hours ?? DEFAULT_RULE_HOURS,
       ruleCrossed: crossed,
       ruleLimits: { maxCost_per_day: limits.maxCost_per_day ?? null, minEfficiency: limits.minEfficiency ?? null },

@@ -14,7 +14,7 @@ export default function RuleNoticeSummary({ notice: n }: { notice: Notice }) {
     [`Running since (${n.timeZone})`, at(n.onsetHour, n.timeZone)],
     ['Rule broken for more than the set hours at', atZ(n.signalHour, n.timeZone)],
     ['Latest hour', atZ(n.lastSignalHour, n.timeZone)],
-    ['Hours of the latest run', String(n.hours)],
+    ['Hours of the latest run', f.w.number(n.hours, 0)],
     ['Cost basis', n.costBasis ?? 'none: the hours carry no cost'],
   ];
   if (n.meanEfficiency !== null && n.kind === 'limit') rows.splice(6, 0, ['Exergy efficiency (mean of the latest run)', `${f.w.value(n.meanEfficiency, 'ratio', 1)} %`]);

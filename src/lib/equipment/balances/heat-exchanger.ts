@@ -6,6 +6,7 @@
 import { assemble, resolvePorts, type UnitBalance, type UnitTerm } from '../balance';
 import { BalanceInputError } from '../errors';
 import { checkEnv, requirePorts, requireSides, roleGroup, streamTerm, type PortBalanceInput } from './common';
+import { upTo } from '../../format';
 
 /** Heat exchanger: ports with role 'hot' or 'cold'. */
 export interface HeatExchangerInput extends PortBalanceInput {
@@ -39,7 +40,7 @@ export function heatExchangerBalance(input: HeatExchangerInput): UnitBalance {
         throw new BalanceInputError(
           'BELOW_DEAD_STATE',
           p.name,
-          `T = ${p.state.T} K is below T0 = ${input.env.T0_K} K; hot-side decrease / cold-side increase is not the fuel/product split there (set belowDeadState: 'flag' to compute anyway)`,
+          `T = ${upTo(p.state.T, 2)} K is below T0 = ${upTo(input.env.T0_K, 2)} K; hot-side decrease / cold-side increase is not the fuel/product split there (set belowDeadState: 'flag' to compute anyway)`,
         );
       }
       if (!flags.includes('below-dead-state-definitions')) flags.push('below-dead-state-definitions');
