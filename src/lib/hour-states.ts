@@ -2,6 +2,7 @@
  * The states of a unit hour (docs/design.md "Hour states"), one list for the engine, the database,
  * the views, reports and islands. Only steady hours feed efficiency, destruction and cost figures.
  */
+import { isOneOf } from './one-of';
 export const HOUR_STATES = ['steady', 'unsettled', 'idle', 'suspect'] as const;
 export type HourState = (typeof HOUR_STATES)[number];
 
@@ -18,4 +19,4 @@ export type StateCounts = Record<HourState, number>;
 /** No hours of any state. */
 export const zeroStateCounts = (): StateCounts => ({ steady: 0, unsettled: 0, idle: 0, suspect: 0 });
 
-export const isHourState = (s: unknown): s is HourState => typeof s === 'string' && (HOUR_STATES as readonly string[]).includes(s);
+export const isHourState = (s: unknown): s is HourState => isOneOf(HOUR_STATES, s);

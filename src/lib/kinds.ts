@@ -11,6 +11,7 @@
  * fixture of the balances and the hour's audit trail the API answers with), so they stay as they are;
  * where a unit kind runs a balance of another name, BALANCE_KINDS_OF_UNIT_KIND says so.
  */
+import { isOneOf } from './one-of';
 
 /** Kinds of unit of the plant model, in the order of docs/domain.md section 3 (stored names). */
 export const UNIT_KINDS = [
@@ -29,7 +30,7 @@ export const UNIT_KINDS = [
 export type UnitKind = (typeof UNIT_KINDS)[number];
 
 export function isUnitKind(k: unknown): k is UnitKind {
-  return typeof k === 'string' && (UNIT_KINDS as readonly string[]).includes(k);
+  return isOneOf(UNIT_KINDS, k);
 }
 
 /** What a unit kind is called on the screens (the catalogue's label, the words catalogue's word). */
@@ -74,7 +75,7 @@ export const BALANCE_KINDS = [
 export type BalanceKind = (typeof BALANCE_KINDS)[number];
 
 export function isBalanceKind(k: unknown): k is BalanceKind {
-  return typeof k === 'string' && (BALANCE_KINDS as readonly string[]).includes(k);
+  return isOneOf(BALANCE_KINDS, k);
 }
 
 /**
@@ -139,7 +140,7 @@ export const FLUID_KINDS = ['water', 'air', 'flue-gas', 'fuel', 'fuel-gas', 'gas
 export type FluidKind = (typeof FLUID_KINDS)[number];
 
 export function isFluidKind(k: unknown): k is FluidKind {
-  return typeof k === 'string' && (FLUID_KINDS as readonly string[]).includes(k);
+  return isOneOf(FLUID_KINDS, k);
 }
 
 /** What a fluid kind is called on the screens, in the help and in the words catalogue. */

@@ -1,3 +1,5 @@
+import { isOneOf } from './one-of';
+
 /** The four roles of Lossline (docs/design.md, "People and what they may do"). */
 export const ROLES = ['admin', 'energy-lead', 'operator', 'planner'] as const;
 export type Role = (typeof ROLES)[number];
@@ -10,7 +12,7 @@ export const ROLE_LABELS: Record<Role, string> = {
 };
 
 export function isRole(value: unknown): value is Role {
-  return typeof value === 'string' && (ROLES as readonly string[]).includes(value);
+  return isOneOf(ROLES, value);
 }
 
 /** Every role; for endpoints any signed-in person may call. */

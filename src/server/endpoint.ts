@@ -14,6 +14,7 @@
 import type { APIContext, APIRoute } from 'astro';
 import { z } from 'zod';
 import { UUID_PARAMS, canUseSite, isId } from './access';
+import { answer } from './answer';
 import { AppError, apiError, fromDomainError } from './errors';
 import { humanErrorMap, humanIssues, summary, type Where } from '~/lib/zod-words';
 
@@ -118,6 +119,23 @@ export function endpoint<S extends EndpointSpec>(spec: S, run: Handler<S>): Endp
 export function requireSite(locals: App.Locals, siteId: string): void {
   if (canUseSite(locals, siteId)) return;
   throw new AppError('FORBIDDEN', locals.apiToken ? 'This API token belongs to another site.' : 'You have no access to this site. Ask an admin to add it to your sites.');
+}
+
+/**
+ * A read of one site under /api/v1/sites/{siteId}: the wrapper's checks, then the caller must be
+ * allowed the site (requireSite), then the service's value is the 200 answer of the route's schema.
+ *
+ *   export const GET = siteRead({ query: PageQuery, answers: { 200: UnitsPage }, doc }, (siteId, { query }) => unitsPage(siteId, query));
+ */
+export function siteRead<A extends z.ZodType, S extends EndpointSpec>(
+  spec: S & { answers: { 200: A } },
+  read: (siteId: string, input: Input<S>) => Promise<z.input<A>>,
+): Endpoint {
+  return endpoint(spec, async ({ locals }, input) => {
+    const siteId = input.params.siteId!;
+    requireSite(locals, siteId);
+    return answer(spec.answers[200], await read(siteId, input));
+  });
 }
 
 const toDate = (v: string) => new Date(/^\d+$/.test(v) ? Number(v) : v);

@@ -4,6 +4,7 @@ import { IngestError } from '~/lib/ingest/errors';
 import { NoConvergenceError, ThermoRangeError } from '~/lib/thermo/errors';
 import { UnitError } from '~/lib/units/errors';
 import type { Issue } from '~/lib/zod-words';
+import { isOneOf } from '~/lib/one-of';
 
 /**
  * Error codes of Lossline's HTTP API: a small closed list. A code never changes once published; the
@@ -54,7 +55,7 @@ export class AppError extends Error {
 }
 
 export function isErrorCode(code: unknown): code is ErrorCode {
-  return typeof code === 'string' && (ERROR_CODES as readonly string[]).includes(code);
+  return isOneOf(ERROR_CODES, code);
 }
 
 export function apiError(code: ErrorCode, message: string, issues?: readonly Issue[], status?: number): Response {

@@ -39,6 +39,18 @@ export const PHI_MAX = 0.95;
 /** Fewest pairs of consecutive hours to fit phi on (two days); with fewer, phi = 0. Common practice. */
 export const MIN_AR1_PAIRS = 48;
 
+/**
+ * Calls `f` with each pair of consecutive residuals that are an hour apart (when hour starts are
+ * given) and both finite: the pairs the AR(1) fit and its innovation spread are taken over.
+ */
+function eachHourPair(residuals: ArrayLike<number>, hourStartMs: ArrayLike<number> | undefined, f: (a: number, b: number) => void): void {
+  for (let i = 1; i < residuals.length; i++) {
+    if (hourStartMs && hourStartMs[i] - hourStartMs[i - 1] !== HOUR_MS) continue;
+    const a = residuals[i - 1];
+    const b = residuals[i];
+    if (Number.isFinite(a) && Number.isFinite(b)) f(a, b);
+  }
+}
 
 /**
  * Fits AR(1) by least squares through the origin on pairs of consecutive hours:
@@ -59,15 +71,11 @@ export function fitAr1(residuals: ArrayLike<number>, hourStartMs?: ArrayLike<num
   let sxy = 0;
   let sxx = 0;
   let pairs = 0;
-  for (let i = 1; i < n; i++) {
-    if (hourStartMs && hourStartMs[i] - hourStartMs[i - 1] !== HOUR_MS) continue;
-    const a = residuals[i - 1];
-    const b = residuals[i];
-    if (!Number.isFinite(a) || !Number.isFinite(b)) continue;
+  eachHourPair(residuals, hourStartMs, (a, b) => {
     sxy += a * b;
     sxx += a * a;
     pairs++;
-  }
+  });
   if (pairs < MIN_AR1_PAIRS || !(sxx > 0)) {
     let ss = 0;
     let m = 0;
@@ -80,13 +88,9 @@ export function fitAr1(residuals: ArrayLike<number>, hourStartMs?: ArrayLike<num
   }
   const phi = Math.max(-PHI_MAX, Math.min(PHI_MAX, sxy / sxx));
   let sse = 0;
-  for (let i = 1; i < n; i++) {
-    if (hourStartMs && hourStartMs[i] - hourStartMs[i - 1] !== HOUR_MS) continue;
-    const a = residuals[i - 1];
-    const b = residuals[i];
-    if (!Number.isFinite(a) || !Number.isFinite(b)) continue;
+  eachHourPair(residuals, hourStartMs, (a, b) => {
     sse += (b - phi * a) ** 2;
-  }
+  });
   return { phi, sInnovation: Math.sqrt(sse / (pairs - 1)), pairs, n };
 }
 

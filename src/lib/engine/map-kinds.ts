@@ -63,8 +63,21 @@ function tools(m: KindMapping) {
   };
 }
 
+/**
+ * The rest of a machine whose load is its power (turbines, pumps, compressors, fans): the power
+ * entry as the load, minLoad_W, and the mass check of its one stream unless a port's flow comes from
+ * the mass balance.
+ */
+function byPower(m: KindMapping, balanceKind: BalanceKind): KindResult {
+  const { ctx, params, specs } = m;
+  const load: MappedUnit['load'] = { value: ctx.entries.get('power_W')?.value ?? NaN, unit: 'W', label: 'power', tags: tagsOf(ctx, ['power_W']) };
+  const minLoad = num(params, 'minLoad_W', 0);
+  const massCheck: MappedUnit['massCheck'] = specs.some((s) => s.flow === 'mass-balance') ? null : { groups: ['main'] };
+  return { balanceKind, load, minLoad, massCheck, loadNames: ['power_W'] };
+}
+
 function turbineMapper(m: KindMapping): KindResult {
-  const { ctx, params, model, specs, unit } = m;
+  const { ctx, params, model, unit } = m;
   const { add, bySlot, powerEntry } = tools(m);
   const balanceKind: BalanceKind = 'turbine';
   for (const p of bySlot('inlet')) add(planPort(ctx, p, { direction: 'in' }));
@@ -78,14 +91,11 @@ function turbineMapper(m: KindMapping): KindResult {
   if (params.wetExhaustMethod === 'condenser-heat-balance') {
     ctx.notes.push("wet exhaust method 'condenser-heat-balance' is worked as the turbine's own energy balance (the condenser is a unit of its own)");
   }
-  const load: MappedUnit['load'] = { value: ctx.entries.get('power_W')?.value ?? NaN, unit: 'W', label: 'power', tags: tagsOf(ctx, ['power_W']) };
-  const minLoad = num(params, 'minLoad_W', 0);
-  const massCheck: MappedUnit['massCheck'] = specs.some((s) => s.flow === 'mass-balance') ? null : { groups: ['main'] };
-  return { balanceKind, load, minLoad, massCheck, loadNames: ['power_W'] };
+  return byPower(m, balanceKind);
 }
 
 function rotatingMachineMapper(m: KindMapping): KindResult {
-  const { ctx, params, model, specs, unit } = m;
+  const { ctx, params, model, unit } = m;
   const { add, bySlot, powerEntry } = tools(m);
   const balanceKind = unit.kind as 'compressor' | 'pump' | 'fan';
   for (const p of bySlot('inlet')) add(planPort(ctx, p, { direction: 'in' }));
@@ -95,10 +105,7 @@ function rotatingMachineMapper(m: KindMapping): KindResult {
     model.powerMeasured = 'electric';
     put(ctx, 'motorEfficiency', num(params, 'driveEfficiency', 0.95), 0, { kind: 'parameter', key: 'driveEfficiency' });
   } else model.powerMeasured = 'shaft';
-  const load: MappedUnit['load'] = { value: ctx.entries.get('power_W')?.value ?? NaN, unit: 'W', label: 'power', tags: tagsOf(ctx, ['power_W']) };
-  const minLoad = num(params, 'minLoad_W', 0);
-  const massCheck: MappedUnit['massCheck'] = specs.some((s) => s.flow === 'mass-balance') ? null : { groups: ['main'] };
-  return { balanceKind, load, minLoad, massCheck, loadNames: ['power_W'] };
+  return byPower(m, balanceKind);
 }
 
 function heatExchangerMapper(m: KindMapping): KindResult {

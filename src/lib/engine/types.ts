@@ -6,6 +6,7 @@ import type { HourState } from '../hour-states';
 import type { EnergyPrice, Fluid as PlantFluid, FuelDefinition } from '../plant/model';
 import type { LinkQuantity, ParamValue, UnitKind as PlantKind } from '../plant/kinds';
 import type { LinkVersionFigures } from '../plant/link-version';
+import type { UnitHourRow } from './compute';
 
 /** A unit of the plant model (src/lib/plant), parameters in SI keyed as in the catalogue. */
 export interface EngineUnit {
@@ -104,25 +105,9 @@ export interface EngineReason {
   tag?: string;
 }
 
-/** One unit hour as the engine computes it (the unit_hours row, src/server/db/results-schema.ts). */
-export interface UnitHourResult {
-  state: EngineHourState;
-  reasons: EngineReason[];
-  load: number | null;
-  loadUnit: 'W' | 'kg/s' | null;
-  T0_K: number;
-  p0_Pa: number;
-  fuel_W: number | null;
-  product_W: number | null;
-  loss_W: number | null;
-  destruction_W: number | null;
-  efficiency: number | null;
-  efficiency_U: number | null;
-  destruction_U_W: number | null;
-  closure_pct: number | null;
-  entropyGeneration_W_per_K: number | null;
-  destructionCost_per_h: number | null;
-  detail: Record<string, unknown>;
-  modelVersion: string;
-  inputsHash: string;
-}
+/**
+ * One unit hour as the engine computes it (the unit_hours row, src/server/db/results-schema.ts): the
+ * public fields of the engine's row class (UnitHourRow, compute.ts), where they are declared once,
+ * with `detail` (the audit trail, a getter there) as a plain field.
+ */
+export type UnitHourResult = { -readonly [K in keyof UnitHourRow]: UnitHourRow[K] };

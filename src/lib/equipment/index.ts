@@ -27,30 +27,8 @@ export type {
   UnitBalance,
   UnitTerm,
 } from './balance';
-export {
-  boilerBalance,
-  compressorBalance,
-  condenserBalance,
-  genericBalance,
-  heatExchangerBalance,
-  machineBalance,
-  mixerBalance,
-  turbineBalance,
-  valveBalance,
-} from './kinds';
-export type {
-  BoilerInput,
-  CompressorInput,
-  CondenserInput,
-  GenericHeat,
-  GenericInput,
-  GenericPower,
-  HeatExchangerInput,
-  MachineInput,
-  MixerInput,
-  PortBalanceInput,
-  TurbineInput,
-} from './kinds';
+// every balance and its input type, and checkEnv: kinds.ts is the one entry of ./balances
+export * from './kinds';
 export { compileUnit, compiledUnit, evaluateUnitHour, inputNames, inputVector } from './model';
 export { unitHourWithUncertainty } from './uncertainty';
 export type { Uncertain, UncertaintyOptions, UnitHourUncertainty } from './uncertainty';

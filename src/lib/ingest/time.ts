@@ -224,24 +224,22 @@ export class HourClock {
 
   /** Smallest whole minute in (lo, hi] with offset o, knowing lo has another offset and hi has o. */
   private firstWithOffset(lo: number, hi: number, o: number): number {
-    let a = Math.floor(lo / MINUTE_MS);
-    let b = Math.ceil(hi / MINUTE_MS);
-    while (b - a > 1) {
-      const m = (a + b) >> 1;
-      if (offsetMinutesAt(this.timeZone, m * MINUTE_MS) === o) b = m;
-      else a = m;
-    }
-    return Math.min(b * MINUTE_MS, hi);
+    return Math.min(this.firstMinuteWhere(lo, hi, (ms) => offsetMinutesAt(this.timeZone, ms) === o), hi);
   }
 
   /** Smallest whole minute in (lo, hi) whose offset differs from o, knowing lo has o. */
   private firstWithoutOffset(lo: number, hi: number, o: number): number {
+    return this.firstMinuteWhere(lo, hi, (ms) => offsetMinutesAt(this.timeZone, ms) !== o);
+  }
+
+  /** Bisection over whole minutes: the first minute after lo where `holds` turns true, knowing it is false at lo and true by hi. */
+  private firstMinuteWhere(lo: number, hi: number, holds: (ms: number) => boolean): number {
     let a = Math.floor(lo / MINUTE_MS);
     let b = Math.ceil(hi / MINUTE_MS);
     while (b - a > 1) {
       const m = (a + b) >> 1;
-      if (offsetMinutesAt(this.timeZone, m * MINUTE_MS) === o) a = m;
-      else b = m;
+      if (holds(m * MINUTE_MS)) b = m;
+      else a = m;
     }
     return b * MINUTE_MS;
   }

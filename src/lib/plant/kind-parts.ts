@@ -8,27 +8,19 @@ import type { LinkQuantity } from './port-terms';
 import type { KindSpec, MeasurementSpec, NumberParam, ParamSpec, PortRole, PortSlot } from './kind-spec';
 
 const FLOW: readonly LinkQuantity[] = ['massFlow', 'volumeFlow', 'standardVolumeFlow'];
-export const p = (need: MeasurementSpec['need'] = 'required', note?: string): MeasurementSpec => ({
-  key: 'p',
-  label: 'pressure',
-  anyOf: ['pressure'],
-  need,
-  ...(note ? { note } : {}),
-});
-export const T = (need: MeasurementSpec['need'] = 'required', note?: string): MeasurementSpec => ({
-  key: 'T',
-  label: 'temperature',
-  anyOf: ['temperature'],
-  need,
-  ...(note ? { note } : {}),
-});
-export const flow = (need: MeasurementSpec['need'] = 'required', note?: string): MeasurementSpec => ({
-  key: 'flow',
-  label: 'flow',
-  anyOf: FLOW,
-  need,
-  ...(note ? { note } : {}),
-});
+/** A measurement of a port (p, T, flow): required unless said, with an optional note. */
+const measurement =
+  (key: string, label: string, anyOf: readonly LinkQuantity[]) =>
+  (need: MeasurementSpec['need'] = 'required', note?: string): MeasurementSpec => ({
+    key,
+    label,
+    anyOf,
+    need,
+    ...(note ? { note } : {}),
+  });
+export const p = measurement('p', 'pressure', ['pressure']);
+export const T = measurement('T', 'temperature', ['temperature']);
+export const flow = measurement('flow', 'flow', FLOW);
 export const x = (): MeasurementSpec => ({
   key: 'x',
   label: 'vapour fraction',

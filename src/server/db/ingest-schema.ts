@@ -15,9 +15,10 @@ import {
   uuid,
 } from 'drizzle-orm/pg-core';
 import type { LayoutProfile } from '~/lib/ingest/profile';
+import { HOUR_S } from '~/lib/time';
 import type { UploadDetection, UploadSummary } from '~/lib/upload-summary';
 import { user } from './auth-schema';
-import { sites } from './plant-schema';
+import { idColumn, siteIdColumn } from './columns';
 
 /** Upload states, in Lossline's words (also the API's). */
 export const UPLOAD_STATUSES = ['awaiting-file', 'queued', 'needs-review', 'processing', 'done', 'read-with-problems', 'failed'] as const;
@@ -32,10 +33,8 @@ export type UploadStatus = (typeof UPLOAD_STATUSES)[number];
 export const uploads = pgTable(
   'uploads',
   {
-    id: uuid('id').primaryKey().default(sql`gen_random_uuid()`),
-    siteId: uuid('site_id')
-      .notNull()
-      .references(() => sites.id, { onDelete: 'cascade' }),
+    id: idColumn(),
+    siteId: siteIdColumn(),
     fileName: text('file_name').notNull(),
     sizeBytes: bigint('size_bytes', { mode: 'number' }),
     /** SHA-256 of the stored bytes, computed by the server (never the client's word). */
@@ -68,9 +67,7 @@ export const uploads = pgTable(
  * without a row uses DEFAULT_GOOD_QUALITY_CODES.
  */
 export const siteQualityCodes = pgTable('site_quality_codes', {
-  siteId: uuid('site_id')
-    .primaryKey()
-    .references(() => sites.id, { onDelete: 'cascade' }),
+  siteId: siteIdColumn().primaryKey(),
   goodCodes: jsonb('good_codes').$type<string[]>().notNull(),
   updatedBy: text('updated_by').references(() => user.id, { onDelete: 'set null' }),
   updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
@@ -80,10 +77,8 @@ export const siteQualityCodes = pgTable('site_quality_codes', {
 export const layoutProfiles = pgTable(
   'layout_profiles',
   {
-    id: uuid('id').primaryKey().default(sql`gen_random_uuid()`),
-    siteId: uuid('site_id')
-      .notNull()
-      .references(() => sites.id, { onDelete: 'cascade' }),
+    id: idColumn(),
+    siteId: siteIdColumn(),
     fingerprint: text('fingerprint').notNull(),
     name: text('name').notNull(),
     profile: jsonb('profile').$type<LayoutProfile>().notNull(),
@@ -97,12 +92,10 @@ export const layoutProfiles = pgTable(
 export const tags = pgTable(
   'tags',
   {
-    id: uuid('id').primaryKey().default(sql`gen_random_uuid()`),
+    id: idColumn(),
     /** A narrow key for the tag's hours (4 bytes instead of 16 in every tag hour and its index). */
     seq: integer('seq').notNull().unique().generatedAlwaysAsIdentity(),
-    siteId: uuid('site_id')
-      .notNull()
-      .references(() => sites.id, { onDelete: 'cascade' }),
+    siteId: siteIdColumn(),
     name: text('name').notNull(),
     /** Unit text from the file's units row, if any (a hint for the admin who links it). */
     unitHint: text('unit_hint'),
@@ -110,7 +103,7 @@ export const tags = pgTable(
     /** 'analog' (mean by linear interpolation) or 'status' (mean by step hold). */
     kind: text('kind').notNull().default('analog'),
     /** Frozen-value limit [s] (the model file's tags[].frozenLimit_s). */
-    flatlineLimitSeconds: integer('flatline_limit_seconds').notNull().default(4 * 3600),
+    flatlineLimitSeconds: integer('flatline_limit_seconds').notNull().default(4 * HOUR_S),
     /** The tag's own spread limit in the steady-state test (tags[].spreadLimit); null: its unit's. */
     spreadLimit: doublePrecision('spread_limit'),
     /** The tag's own least coverage of the hour [-] (tags[].minCoverage); null: its unit's. */
@@ -179,8 +172,11 @@ export const tagHours = pgTable(
   (t) => [primaryKey({ columns: [t.tagId, t.hourStart] })],
 );
 
-/** Covered fraction [-] of a tag hour, as SQL (covered_s / 3600). */
-export const coveredFractionSql = sql<number>`(${tagHours.coveredSeconds}::float8 / 3600.0)`;
+/**
+ * Covered fraction [-] of a tag hour, as SQL (covered_s / HOUR_S). The hour's length is written into the
+ * text as the literal 3600.0 (sql.raw), not sent as a parameter: the statement's text stays what it was.
+ */
+export const coveredFractionSql = sql<number>`(${tagHours.coveredSeconds}::float8 / ${sql.raw(HOUR_S.toFixed(1))})`;
 /** Flatline flag of a tag hour, as SQL. */
 export const flatlineSql = sql<boolean>`((${tagHours.flags} & ${TAG_HOUR_FLAGS.flatline}) <> 0)`;
 
@@ -203,7 +199,7 @@ export const tagHourUploads = pgTable(
 export const tagHourHistory = pgTable(
   'tag_hour_history',
   {
-    id: uuid('id').primaryKey().default(sql`gen_random_uuid()`),
+    id: idColumn(),
     /** tags.seq */
     tagId: integer('tag_id').notNull(),
     hourStart: timestamp('hour_start', { withTimezone: true }).notNull(),

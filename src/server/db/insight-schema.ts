@@ -4,7 +4,7 @@ import { sql } from 'drizzle-orm';
 import { boolean, date, doublePrecision, index, integer, jsonb, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid, type AnyPgColumn } from 'drizzle-orm/pg-core';
 import type { BaselineModel, BaselineTerm } from '~/lib/analytics/baseline';
 import { user } from './auth-schema';
-import { plantUnits, sites } from './plant-schema';
+import { idColumn, siteIdColumn, unitIdColumn } from './columns';
 
 export const BASELINE_STATUSES = ['draft', 'active', 'discarded', 'retired'] as const;
 export type BaselineStatus = (typeof BASELINE_STATUSES)[number];
@@ -20,10 +20,8 @@ export type BaselineStatus = (typeof BASELINE_STATUSES)[number];
 export const baselines = pgTable(
   'baselines',
   {
-    id: uuid('id').primaryKey().default(sql`gen_random_uuid()`),
-    unitId: uuid('unit_id')
-      .notNull()
-      .references(() => plantUnits.id, { onDelete: 'cascade' }),
+    id: idColumn(),
+    unitId: unitIdColumn(),
     version: integer('version').notNull(),
     status: text('status').$type<BaselineStatus>().notNull().default('draft'),
     /** Reference period [periodFrom, periodTo), hour starts. */
@@ -50,9 +48,7 @@ export const baselines = pgTable(
 
 /** Per-unit CUSUM settings (docs/domain.md section 7: k = 0.5, h = 8 by default); energy leads edit. */
 export const driftSettings = pgTable('drift_settings', {
-  unitId: uuid('unit_id')
-    .primaryKey()
-    .references(() => plantUnits.id, { onDelete: 'cascade' }),
+  unitId: unitIdColumn().primaryKey(),
   k: doublePrecision('k').notNull().default(0.5),
   h: doublePrecision('h').notNull().default(5),
   updatedBy: text('updated_by').references(() => user.id, { onDelete: 'set null' }),
@@ -68,9 +64,7 @@ export const driftSettings = pgTable('drift_settings', {
 export const driftPoints = pgTable(
   'drift_points',
   {
-    unitId: uuid('unit_id')
-      .notNull()
-      .references(() => plantUnits.id, { onDelete: 'cascade' }),
+    unitId: unitIdColumn(),
     hourStart: timestamp('hour_start', { withTimezone: true }).notNull(),
     baselineId: uuid('baseline_id')
       .notNull()
@@ -115,13 +109,9 @@ export type StoredVerdict = Omit<VerdictView, 'hour' | 'back'>;
 export const driftNotices = pgTable(
   'drift_notices',
   {
-    id: uuid('id').primaryKey().default(sql`gen_random_uuid()`),
-    siteId: uuid('site_id')
-      .notNull()
-      .references(() => sites.id, { onDelete: 'cascade' }),
-    unitId: uuid('unit_id')
-      .notNull()
-      .references(() => plantUnits.id, { onDelete: 'cascade' }),
+    id: idColumn(),
+    siteId: siteIdColumn(),
+    unitId: unitIdColumn(),
     baselineId: uuid('baseline_id').references(() => baselines.id, { onDelete: 'set null' }),
     /**
      * 'drift' (a CUSUM signal), 'idle' (a unit declared normally idle runs) or 'limit' (a unit crossed a
@@ -282,9 +272,7 @@ export const noticeEscalations = pgTable(
 
 /** Per-site notice settings an energy lead sets: the growth of cost per day that sends an escalation mail. */
 export const noticeSiteSettings = pgTable('notice_site_settings', {
-  siteId: uuid('site_id')
-    .primaryKey()
-    .references(() => sites.id, { onDelete: 'cascade' }),
+  siteId: siteIdColumn().primaryKey(),
   /** Multiple of the cost per day at the last mail that sends the next one [-]; default 2. */
   escalationMultiple: doublePrecision('escalation_multiple').notNull().default(2),
   updatedBy: text('updated_by').references(() => user.id, { onDelete: 'set null' }),

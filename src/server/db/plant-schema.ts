@@ -8,6 +8,7 @@ import type { NormallyIdle } from '~/lib/plant/idle';
 import type { DisplayUnits } from '~/lib/units/display';
 import { user } from './auth-schema';
 import { tags } from './ingest-schema';
+import { idColumn, siteIdColumn, unitIdColumn } from './columns';
 
 /**
  * A plant: its clock, its atmosphere and its dead state. p_atm_Pa turns gauge readings absolute; when
@@ -15,7 +16,7 @@ import { tags } from './ingest-schema';
  * Dead state: fixed T0_K and p0_Pa, or T0 hourly from an ambient-temperature tag with T0_K as fallback.
  */
 export const sites = pgTable('sites', {
-  id: uuid('id').primaryKey().default(sql`gen_random_uuid()`),
+  id: idColumn(),
   name: text('name').notNull().unique(),
   timeZone: text('time_zone').notNull().default('UTC'),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
@@ -40,10 +41,8 @@ export const sites = pgTable('sites', {
 export const plantUnits = pgTable(
   'plant_units',
   {
-    id: uuid('id').primaryKey().default(sql`gen_random_uuid()`),
-    siteId: uuid('site_id')
-      .notNull()
-      .references(() => sites.id, { onDelete: 'cascade' }),
+    id: idColumn(),
+    siteId: siteIdColumn(),
     name: text('name').notNull(),
     kind: text('kind').$type<UnitKind>().notNull(),
     description: text('description'),
@@ -62,10 +61,8 @@ export const plantUnits = pgTable(
 export const plantPorts = pgTable(
   'plant_ports',
   {
-    id: uuid('id').primaryKey().default(sql`gen_random_uuid()`),
-    unitId: uuid('unit_id')
-      .notNull()
-      .references(() => plantUnits.id, { onDelete: 'cascade' }),
+    id: idColumn(),
+    unitId: unitIdColumn(),
     name: text('name').notNull(),
     /** The kind's port slot ('inlet', 'extraction' ...); role and stream are copied from it. */
     slot: text('slot').notNull(),
@@ -89,13 +86,9 @@ export const plantPorts = pgTable(
 export const tagLinks = pgTable(
   'tag_links',
   {
-    id: uuid('id').primaryKey().default(sql`gen_random_uuid()`),
-    siteId: uuid('site_id')
-      .notNull()
-      .references(() => sites.id, { onDelete: 'cascade' }),
-    unitId: uuid('unit_id')
-      .notNull()
-      .references(() => plantUnits.id, { onDelete: 'cascade' }),
+    id: idColumn(),
+    siteId: siteIdColumn(),
+    unitId: unitIdColumn(),
     portId: uuid('port_id').references(() => plantPorts.id, { onDelete: 'cascade' }),
     tagId: uuid('tag_id')
       .notNull()

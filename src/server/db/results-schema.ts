@@ -1,11 +1,11 @@
 import { sql } from 'drizzle-orm';
-import { doublePrecision, jsonb, pgTable, primaryKey, text, timestamp, uuid } from 'drizzle-orm/pg-core';
+import { doublePrecision, jsonb, pgTable, primaryKey, text, timestamp } from 'drizzle-orm/pg-core';
 import type { EngineReason } from '~/lib/engine/types';
-import { plantUnits } from './plant-schema';
 
 /** Hour states, in Lossline's words (src/lib/hour-states.ts). Only steady hours feed trends, baselines, drift. */
 export { HOUR_STATES, type HourState } from '~/lib/hour-states';
 import type { HourState } from '~/lib/hour-states';
+import { unitIdColumn } from './columns';
 
 /**
  * One unit's steady-state exergy balance for one local clock hour (hourStart = the UTC instant it
@@ -21,9 +21,7 @@ import type { HourState } from '~/lib/hour-states';
 export const unitHours = pgTable(
   'unit_hours',
   {
-    unitId: uuid('unit_id')
-      .notNull()
-      .references(() => plantUnits.id, { onDelete: 'cascade' }),
+    unitId: unitIdColumn(),
     hourStart: timestamp('hour_start', { withTimezone: true }).notNull(),
     state: text('state').$type<HourState>().notNull(),
     /** Why the hour has its state: [{ code, message, tag? }], most severe first. */

@@ -1,7 +1,6 @@
-import { sql } from 'drizzle-orm';
-import { index, pgTable, primaryKey, text, timestamp, uuid } from 'drizzle-orm/pg-core';
+import { index, pgTable, primaryKey, text, timestamp } from 'drizzle-orm/pg-core';
 import { user } from './auth-schema';
-import { sites } from './plant-schema';
+import { idColumn, siteIdColumn } from './columns';
 
 export * from './auth-schema';
 export * from './plant-schema';
@@ -14,7 +13,7 @@ export * from './unit-rules-schema';
 export const invitations = pgTable(
   'invitations',
   {
-    id: uuid('id').primaryKey().default(sql`gen_random_uuid()`),
+    id: idColumn(),
     userId: text('user_id')
       .notNull()
       .references(() => user.id, { onDelete: 'cascade' }),
@@ -32,10 +31,8 @@ export const invitations = pgTable(
 export const apiTokens = pgTable(
   'api_tokens',
   {
-    id: uuid('id').primaryKey().default(sql`gen_random_uuid()`),
-    siteId: uuid('site_id')
-      .notNull()
-      .references(() => sites.id, { onDelete: 'cascade' }),
+    id: idColumn(),
+    siteId: siteIdColumn(),
     name: text('name').notNull(),
     tokenHash: text('token_hash').notNull().unique(),
     prefix: text('prefix').notNull(),
@@ -58,9 +55,7 @@ export const personSites = pgTable(
     userId: text('user_id')
       .notNull()
       .references(() => user.id, { onDelete: 'cascade' }),
-    siteId: uuid('site_id')
-      .notNull()
-      .references(() => sites.id, { onDelete: 'cascade' }),
+    siteId: siteIdColumn(),
     grantedAt: timestamp('granted_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [primaryKey({ columns: [t.userId, t.siteId] }), index('person_sites_site_idx').on(t.siteId)],

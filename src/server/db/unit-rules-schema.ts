@@ -1,7 +1,7 @@
 // Per-unit limits of the unit rules (src/server/services/unit-rules.ts); energy leads edit them.
-import { doublePrecision, integer, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core';
+import { doublePrecision, integer, pgTable, text, timestamp } from 'drizzle-orm/pg-core';
 import { user } from './auth-schema';
-import { plantUnits } from './plant-schema';
+import { unitIdColumn } from './columns';
 
 /**
  * A unit's limits: a cost of destruction per day above which, or an exergy efficiency below which,
@@ -9,9 +9,7 @@ import { plantUnits } from './plant-schema';
  * be unset. The normally-idle declaration lives with the unit (plant_units.normally_idle).
  */
 export const unitLimits = pgTable('unit_limits', {
-  unitId: uuid('unit_id')
-    .primaryKey()
-    .references(() => plantUnits.id, { onDelete: 'cascade' }),
+  unitId: unitIdColumn().primaryKey(),
   /** [currency of the site per day] */
   maxCost_per_day: doublePrecision('max_cost_per_day'),
   /** [-] */

@@ -1,10 +1,9 @@
 import { BaselinesPage } from '~/lib/api/baselines';
 import { PageQuery } from '~/lib/api/paging';
-import { answer } from '~/server/answer';
-import { endpoint, requireSite } from '~/server/endpoint';
+import { siteRead } from '~/server/endpoint';
 import { baselinesPage } from '~/server/services/site-api';
 
-export const GET = endpoint(
+export const GET = siteRead(
   {
     query: PageQuery,
     answers: { 200: BaselinesPage },
@@ -15,8 +14,5 @@ export const GET = endpoint(
       group: 'Results',
     },
   },
-  async ({ locals }, { params, query }) => {
-    requireSite(locals, params.siteId!);
-    return answer(BaselinesPage, await baselinesPage(params.siteId!, query));
-  },
+  (siteId, { query }) => baselinesPage(siteId, query),
 );

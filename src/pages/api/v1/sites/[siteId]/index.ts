@@ -1,9 +1,8 @@
 import { SiteAnswer } from '~/lib/api/sites';
-import { answer } from '~/server/answer';
-import { endpoint, requireSite } from '~/server/endpoint';
+import { siteRead } from '~/server/endpoint';
 import { siteAnswer } from '~/server/services/site-api';
 
-export const GET = endpoint(
+export const GET = siteRead(
   {
     answers: { 200: SiteAnswer },
     doc: {
@@ -12,8 +11,5 @@ export const GET = endpoint(
       group: 'Site',
     },
   },
-  async ({ locals }, { params }) => {
-    requireSite(locals, params.siteId!);
-    return answer(SiteAnswer, await siteAnswer(params.siteId!));
-  },
+  (siteId) => siteAnswer(siteId),
 );

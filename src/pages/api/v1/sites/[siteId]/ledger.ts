@@ -1,10 +1,9 @@
 import { LedgerAnswerSchema } from '~/lib/api/ledger';
 import { PeriodQuery } from '~/lib/views/period';
-import { answer } from '~/server/answer';
-import { endpoint, requireSite } from '~/server/endpoint';
+import { siteRead } from '~/server/endpoint';
 import { siteLedger } from '~/server/services/views';
 
-export const GET = endpoint(
+export const GET = siteRead(
   {
     query: PeriodQuery,
     answers: { 200: LedgerAnswerSchema },
@@ -15,8 +14,5 @@ export const GET = endpoint(
       group: 'Results',
     },
   },
-  async ({ locals }, { params, query }) => {
-    requireSite(locals, params.siteId!);
-    return answer(LedgerAnswerSchema, await siteLedger(params.siteId!, query));
-  },
+  (siteId, { query }) => siteLedger(siteId, query),
 );

@@ -1,10 +1,9 @@
 import { NoticesFilter, NoticesPage } from '~/lib/api/notices';
 import { PageQuery } from '~/lib/api/paging';
-import { answer } from '~/server/answer';
-import { endpoint, requireSite } from '~/server/endpoint';
+import { siteRead } from '~/server/endpoint';
 import { noticesPage } from '~/server/services/site-api';
 
-export const GET = endpoint(
+export const GET = siteRead(
   {
     query: PageQuery.extend(NoticesFilter.shape),
     answers: { 200: NoticesPage },
@@ -15,9 +14,5 @@ export const GET = endpoint(
       group: 'Results',
     },
   },
-  async ({ locals }, { params, query }) => {
-    requireSite(locals, params.siteId!);
-    const { limit, cursor, ...filter } = query;
-    return answer(NoticesPage, await noticesPage(params.siteId!, filter, { limit, cursor }));
-  },
+  (siteId, { query: { limit, cursor, ...filter } }) => noticesPage(siteId, filter, { limit, cursor }),
 );

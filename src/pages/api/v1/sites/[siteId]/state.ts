@@ -1,10 +1,9 @@
 import { SiteStateAnswer } from '~/lib/api/state';
-import { answer } from '~/server/answer';
-import { endpoint, requireSite } from '~/server/endpoint';
+import { siteRead } from '~/server/endpoint';
 import { getSite } from '~/server/services/plant';
 import { siteProcessingState } from '~/server/services/site-state';
 
-export const GET = endpoint(
+export const GET = siteRead(
   {
     answers: { 200: SiteStateAnswer },
     doc: {
@@ -14,9 +13,8 @@ export const GET = endpoint(
       group: 'Files',
     },
   },
-  async ({ locals }, { params }) => {
-    requireSite(locals, params.siteId!);
-    await getSite(params.siteId!);
-    return answer(SiteStateAnswer, await siteProcessingState(params.siteId!));
+  async (siteId) => {
+    await getSite(siteId);
+    return siteProcessingState(siteId);
   },
 );

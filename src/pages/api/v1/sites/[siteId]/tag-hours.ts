@@ -1,7 +1,6 @@
 import { z } from 'zod';
 import { TagHoursAnswer } from '~/lib/api/hours';
-import { answer } from '~/server/answer';
-import { endpoint, requireSite } from '~/server/endpoint';
+import { siteRead } from '~/server/endpoint';
 import { tagHoursOf } from '~/server/services/tag-hours';
 
 const Query = z.object({
@@ -10,14 +9,11 @@ const Query = z.object({
   to: z.iso.datetime({ offset: true }),
 });
 
-export const GET = endpoint(
+export const GET = siteRead(
   {
     query: Query,
     answers: { 200: TagHoursAnswer },
     doc: { summary: 'A tag’s hourly statistics', description: 'Hours starting in [from, to), at most 400 days.', group: 'Hours' },
   },
-  async ({ locals }, { params, query }) => {
-    requireSite(locals, params.siteId!);
-    return answer(TagHoursAnswer, await tagHoursOf(params.siteId!, query.tag, new Date(query.from), new Date(query.to)));
-  },
+  (siteId, { query }) => tagHoursOf(siteId, query.tag, new Date(query.from), new Date(query.to)),
 );

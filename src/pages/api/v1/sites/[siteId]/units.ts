@@ -1,10 +1,9 @@
 import { PageQuery } from '~/lib/api/paging';
 import { UnitsPage } from '~/lib/api/sites';
-import { answer } from '~/server/answer';
-import { endpoint, requireSite } from '~/server/endpoint';
+import { siteRead } from '~/server/endpoint';
 import { unitsPage } from '~/server/services/site-api';
 
-export const GET = endpoint(
+export const GET = siteRead(
   {
     query: PageQuery,
     answers: { 200: UnitsPage },
@@ -15,8 +14,5 @@ export const GET = endpoint(
       group: 'Site',
     },
   },
-  async ({ locals }, { params, query }) => {
-    requireSite(locals, params.siteId!);
-    return answer(UnitsPage, await unitsPage(params.siteId!, query));
-  },
+  (siteId, { query }) => unitsPage(siteId, query),
 );

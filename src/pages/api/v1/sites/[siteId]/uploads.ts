@@ -1,10 +1,9 @@
 import { PageQuery } from '~/lib/api/paging';
 import { UploadsFilter, UploadsPage } from '~/lib/api/uploads';
-import { answer } from '~/server/answer';
-import { endpoint, requireSite } from '~/server/endpoint';
+import { siteRead } from '~/server/endpoint';
 import { uploadsPage } from '~/server/services/site-api';
 
-export const GET = endpoint(
+export const GET = siteRead(
   {
     query: PageQuery.extend(UploadsFilter.shape),
     answers: { 200: UploadsPage },
@@ -14,9 +13,5 @@ export const GET = endpoint(
       group: 'Files',
     },
   },
-  async ({ locals }, { params, query }) => {
-    requireSite(locals, params.siteId!);
-    const { limit, cursor, ...filter } = query;
-    return answer(UploadsPage, await uploadsPage(params.siteId!, filter, { limit, cursor }));
-  },
+  (siteId, { query: { limit, cursor, ...filter } }) => uploadsPage(siteId, filter, { limit, cursor }),
 );
