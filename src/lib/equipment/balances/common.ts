@@ -30,6 +30,12 @@ export function termsOf(ports: ResolvedPort[], role: TermRole, chemical: boolean
   return out;
 }
 
+/** How many ports a kind takes, in words: "2", "1 to 3" or "at least 1". */
+export function portCount(min: number, max: number): string {
+  if (max === min) return String(min);
+  return Number.isFinite(max) ? `${min} to ${max}` : `at least ${min}`;
+}
+
 /**
  * Checks the dead state: T0 200..400 K, p0 50..120 kPa (the property core's range).
  * @throws BalanceInputError('IMPOSSIBLE_INPUT') naming T0_K or p0_Pa
@@ -50,10 +56,10 @@ export function requirePorts(kind: string, ports: BalancePort[], minIn: number, 
   const ni = countDir(ports, 'in');
   const no = countDir(ports, 'out');
   if (ni < minIn || ni > maxIn) {
-    throw new BalanceInputError(ni < minIn ? 'MISSING_INPUT' : 'INVALID_MODEL', 'ports', `a ${kind} needs ${maxIn === minIn ? minIn : `${minIn}..${maxIn}`} inlet port(s), got ${ni}`);
+    throw new BalanceInputError(ni < minIn ? 'MISSING_INPUT' : 'INVALID_MODEL', 'ports', `a ${kind} needs ${portCount(minIn, maxIn)} inlet port(s), got ${ni}`);
   }
   if (no < minOut || no > maxOut) {
-    throw new BalanceInputError(no < minOut ? 'MISSING_INPUT' : 'INVALID_MODEL', 'ports', `a ${kind} needs ${maxOut === minOut ? minOut : `${minOut}..${maxOut}`} outlet port(s), got ${no}`);
+    throw new BalanceInputError(no < minOut ? 'MISSING_INPUT' : 'INVALID_MODEL', 'ports', `a ${kind} needs ${portCount(minOut, maxOut)} outlet port(s), got ${no}`);
   }
 }
 
