@@ -5,6 +5,7 @@ import { z } from 'zod';
 import { InviteInput } from '~/lib/people';
 import { ROLES, ROLE_LABELS, type Role } from '../lib/roles';
 import { call } from '~/components/api';
+import { GridTable, ACTIONS } from '~/components/ui/GridTable';
 
 interface Person {
   id: string;
@@ -63,52 +64,47 @@ interface TableProps {
 function PeopleTable({ people, sites, selfId, patch, resend }: TableProps) {
   return (
     <div className="overflow-x-auto">
-    <table className="grid-table">
-      <thead>
-        <tr><th>Name</th><th>E-mail</th><th>Role</th><th>Sites</th><th>Account</th><th><span className="sr-only">Actions</span></th></tr>
-      </thead>
-      <tbody>
-        {people.map((p) => (
-          <tr key={p.id} data-testid={`person-${p.email}`}>
-            <td>{p.name}</td>
-            <td>{p.email}</td>
-            <td>
-              <select
-                aria-label={`Role of ${p.name}`}
-                className="field py-0.5"
-                value={p.role}
-                onChange={(e) => patch(p.id, { role: e.target.value as Role })}
+    <GridTable columns={['Name', 'E-mail', 'Role', 'Sites', 'Account', ACTIONS]}>
+      {people.map((p) => (
+        <tr key={p.id} data-testid={`person-${p.email}`}>
+          <td>{p.name}</td>
+          <td>{p.email}</td>
+          <td>
+            <select
+              aria-label={`Role of ${p.name}`}
+              className="field py-0.5"
+              value={p.role}
+              onChange={(e) => patch(p.id, { role: e.target.value as Role })}
+            >
+              {ROLES.map((r) => (
+                <option key={r} value={r}>{ROLE_LABELS[r]}</option>
+              ))}
+            </select>
+          </td>
+          <td>
+            <SitesCell person={p} sites={sites} onChange={(v) => patch(p.id, { sites: v })} />
+          </td>
+          <td>{p.deactivated ? 'deactivated' : p.pending ? 'invited, no password yet' : 'active'}</td>
+          <td className="whitespace-nowrap text-right">
+            {p.pending && !p.deactivated && (
+              <button className="btn mr-2" type="button" aria-label={`Resend the invitation to ${p.name}`} onClick={() => resend(p)}>
+                Resend invitation
+              </button>
+            )}
+            {p.id !== selfId && (
+              <button
+                className="btn"
+                type="button"
+                aria-label={`${p.deactivated ? 'Reactivate' : 'Deactivate'} ${p.name}`}
+                onClick={() => patch(p.id, { deactivated: !p.deactivated })}
               >
-                {ROLES.map((r) => (
-                  <option key={r} value={r}>{ROLE_LABELS[r]}</option>
-                ))}
-              </select>
-            </td>
-            <td>
-              <SitesCell person={p} sites={sites} onChange={(v) => patch(p.id, { sites: v })} />
-            </td>
-            <td>{p.deactivated ? 'deactivated' : p.pending ? 'invited, no password yet' : 'active'}</td>
-            <td className="whitespace-nowrap text-right">
-              {p.pending && !p.deactivated && (
-                <button className="btn mr-2" type="button" aria-label={`Resend the invitation to ${p.name}`} onClick={() => resend(p)}>
-                  Resend invitation
-                </button>
-              )}
-              {p.id !== selfId && (
-                <button
-                  className="btn"
-                  type="button"
-                  aria-label={`${p.deactivated ? 'Reactivate' : 'Deactivate'} ${p.name}`}
-                  onClick={() => patch(p.id, { deactivated: !p.deactivated })}
-                >
-                  {p.deactivated ? 'Reactivate' : 'Deactivate'}
-                </button>
-              )}
-            </td>
-          </tr>
-        ))}
-      </tbody>
-    </table>
+                {p.deactivated ? 'Reactivate' : 'Deactivate'}
+              </button>
+            )}
+          </td>
+        </tr>
+      ))}
+    </GridTable>
     </div>
   );
 }

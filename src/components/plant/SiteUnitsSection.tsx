@@ -8,6 +8,7 @@ import { counted } from '~/lib/counts';
 import { Field } from './common';
 import { call, messageOf, type Message } from '~/components/api';
 import type { UnitJson } from './LinkForm';
+import { GridTable, num } from '~/components/ui/GridTable';
 
 const NewUnit = UnitCreateInput.pick({ name: true, kind: true }).extend({ withPorts: z.boolean() });
 type NewUnit = z.infer<typeof NewUnit>;
@@ -27,32 +28,21 @@ function StatusCell({ unit }: { unit: UnitJson }) {
 /** The site's units with what each lacks. */
 function UnitsTable({ siteId, units }: { siteId: string; units: UnitJson[] }) {
   return (
-    <table className="grid-table" data-testid="units-table">
-      <thead>
-        <tr>
-          <th>Unit</th>
-          <th>Kind</th>
-          <th className="num">Ports</th>
-          <th className="num">Links</th>
-          <th>Can compute?</th>
+    <GridTable testId="units-table" columns={['Unit', 'Kind', num('Ports'), num('Links'), 'Can compute?']}>
+      {units.map((u) => (
+        <tr key={u.id} data-testid={`unit-${u.name}`}>
+          <td>
+            <a href={`/plant/${siteId}/units/${u.id}`}>{u.name}</a>
+          </td>
+          <td>{kindSpec(u.kind).label}</td>
+          <td className="num">{u.ports.length}</td>
+          <td className="num">{u.links.length}</td>
+          <td>
+            <StatusCell unit={u} />
+          </td>
         </tr>
-      </thead>
-      <tbody>
-        {units.map((u) => (
-          <tr key={u.id} data-testid={`unit-${u.name}`}>
-            <td>
-              <a href={`/plant/${siteId}/units/${u.id}`}>{u.name}</a>
-            </td>
-            <td>{kindSpec(u.kind).label}</td>
-            <td className="num">{u.ports.length}</td>
-            <td className="num">{u.links.length}</td>
-            <td>
-              <StatusCell unit={u} />
-            </td>
-          </tr>
-        ))}
-      </tbody>
-    </table>
+      ))}
+    </GridTable>
   );
 }
 

@@ -6,6 +6,7 @@ import { ELEVATION_MAX_m, ELEVATION_MIN_m } from '~/lib/plant/atmosphere';
 import { SiteInput } from '~/lib/plant/inputs';
 import { Field, Notice } from './common';
 import { call, messageOf, type Message } from '~/components/api';
+import { GridTable, num } from '~/components/ui/GridTable';
 
 export interface SiteSummary {
   id: string;
@@ -28,28 +29,18 @@ type NewSite = z.infer<typeof NewSite>;
 /** The sites, each with its clock and how many of its units can compute. */
 function SitesTable({ sites }: { sites: SiteSummary[] }) {
   return (
-    <table className="grid-table">
-      <thead>
-        <tr>
-          <th>Site</th>
-          <th>Time zone</th>
-          <th className="num">Units</th>
-          <th className="num">Complete</th>
+    <GridTable columns={['Site', 'Time zone', num('Units'), num('Complete')]}>
+      {sites.map((s) => (
+        <tr key={s.id}>
+          <td>
+            <a href={`/plant/${s.id}`}>{s.name}</a>
+          </td>
+          <td>{s.timeZone}</td>
+          <td className="num">{s.units}</td>
+          <td className="num">{s.complete}</td>
         </tr>
-      </thead>
-      <tbody>
-        {sites.map((s) => (
-          <tr key={s.id}>
-            <td>
-              <a href={`/plant/${s.id}`}>{s.name}</a>
-            </td>
-            <td>{s.timeZone}</td>
-            <td className="num">{s.units}</td>
-            <td className="num">{s.complete}</td>
-          </tr>
-        ))}
-      </tbody>
-    </table>
+      ))}
+    </GridTable>
   );
 }
 

@@ -2,6 +2,7 @@ import { StateMark } from '~/components/StateMark';
 import { BASELINE_LOOK, pct } from './looks';
 import { ALL_TERMS, TERM_LABELS, type BaselineSummary, type BaselineTerm } from './types';
 import { periodDaysText, toggledTerms } from '~/lib/views/baseline-fit-text';
+import { GridTable, num } from '~/components/ui/GridTable';
 
 export interface UnitChoice {
   id: string;
@@ -97,37 +98,25 @@ export function VersionsSection({ unitName, versions }: { unitName: string; vers
       ) : versions.length === 0 ? (
         <p className="text-sm text-ink-faint">No baseline yet for this unit.</p>
       ) : (
-        <table className="grid-table">
-          <thead>
-            <tr>
-              <th className="num">Version</th>
-              <th>Status</th>
-              <th>Period</th>
-              <th className="num">Hours</th>
-              <th className="num">CV(RMSE) destruction [%]</th>
-              <th>By</th>
-            </tr>
-          </thead>
-          <tbody>
-            {versions.map((v) => {
-              const look = BASELINE_LOOK[v.status]!;
-              return (
-                <tr key={v.id}>
-                  <td className="num">
-                    <a href={`/baselines/${v.id}`}>v{v.version}</a>
-                  </td>
-                  <td>
-                    <StateMark shape={look.shape} className={look.className} label={look.label} />
-                  </td>
-                  <td>{periodDaysText(v.periodFrom, v.periodTo, v.timeZone)}</td>
-                  <td className="num">{v.hours}</td>
-                  <td className="num">{pct(v.destruction.stats.cvRmse)}</td>
-                  <td>{v.createdBy ?? ''}</td>
-                </tr>
-              );
-            })}
-          </tbody>
-        </table>
+        <GridTable columns={[num('Version'), 'Status', 'Period', num('Hours'), num('CV(RMSE) destruction [%]'), 'By']}>
+          {versions.map((v) => {
+            const look = BASELINE_LOOK[v.status]!;
+            return (
+              <tr key={v.id}>
+                <td className="num">
+                  <a href={`/baselines/${v.id}`}>v{v.version}</a>
+                </td>
+                <td>
+                  <StateMark shape={look.shape} className={look.className} label={look.label} />
+                </td>
+                <td>{periodDaysText(v.periodFrom, v.periodTo, v.timeZone)}</td>
+                <td className="num">{v.hours}</td>
+                <td className="num">{pct(v.destruction.stats.cvRmse)}</td>
+                <td>{v.createdBy ?? ''}</td>
+              </tr>
+            );
+          })}
+        </GridTable>
       )}
     </section>
   );
