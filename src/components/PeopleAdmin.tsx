@@ -6,6 +6,7 @@ import { InviteInput } from '~/lib/people';
 import { ROLES, ROLE_LABELS, type Role } from '../lib/roles';
 import { call } from '~/components/api';
 import { GridTable, ACTIONS } from '~/components/ui/GridTable';
+import { Field, FormInput, Options, SubmitCell } from '~/components/ui/Field';
 
 interface Person {
   id: string;
@@ -152,35 +153,19 @@ function usePeople() {
 /** Invite someone: name, e-mail and role, checked by the server's own rules. */
 function InviteSection({ onInvite }: { onInvite: (values: InviteForm, sent: () => void) => Promise<void> }) {
   const form = useForm<InviteForm>({ resolver: zodResolver(InviteForm), defaultValues: { name: '', email: '', role: 'operator' } });
-  const err = form.formState.errors;
   const invite = (values: InviteForm) => onInvite(values, () => form.reset({ name: '', email: '', role: values.role }));
   return (
     <section className="card">
       <h2 className="mb-3">Invite someone</h2>
       <form onSubmit={form.handleSubmit(invite)} className="grid gap-3 sm:grid-cols-4" noValidate>
-        <div>
-          <label className="label" htmlFor="invite-name">Name</label>
-          <input id="invite-name" className="field" {...form.register('name')} />
-          {err.name && <p className="mt-1 text-xs text-alert">{err.name.message}</p>}
-        </div>
-        <div>
-          <label className="label" htmlFor="invite-email">E-mail</label>
-          <input id="invite-email" type="email" className="field" {...form.register('email')} />
-          {err.email && <p className="mt-1 text-xs text-alert">{err.email.message}</p>}
-        </div>
-        <div>
-          <label className="label" htmlFor="invite-role">Role</label>
+        <FormInput form={form} name="name" id="invite-name" label="Name" />
+        <FormInput form={form} name="email" id="invite-email" label="E-mail" type="email" />
+        <Field id="invite-role" label="Role">
           <select id="invite-role" className="field" {...form.register('role')}>
-            {ROLES.map((r) => (
-              <option key={r} value={r}>{ROLE_LABELS[r]}</option>
-            ))}
+            <Options choices={ROLES.map((r) => [r, ROLE_LABELS[r]] as const)} />
           </select>
-        </div>
-        <div className="flex items-end">
-          <button className="btn btn-primary" type="submit" disabled={form.formState.isSubmitting}>
-            Send invitation
-          </button>
-        </div>
+        </Field>
+        <SubmitCell busy={form.formState.isSubmitting}>Send invitation</SubmitCell>
       </form>
     </section>
   );

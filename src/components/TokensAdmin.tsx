@@ -3,6 +3,7 @@ import { call, useApi } from '~/components/api';
 import { siteStamp } from '~/lib/site-time';
 import { useConfirm } from '~/components/ConfirmDialog';
 import { GridTable, ACTIONS } from '~/components/ui/GridTable';
+import { SubmitCell } from '~/components/ui/Field';
 
 interface Token {
   id: string;
@@ -65,7 +66,7 @@ export default function TokensAdmin({ sites }: { sites: { id: string; name: stri
             <option value="admin">send files and import the plant model</option>
           </select>
         </div>
-        <div className="flex items-end"><button className="btn btn-primary" type="submit">Issue token</button></div>
+        <SubmitCell>Issue token</SubmitCell>
       </form>
       {error && <p role="alert" className="notice-error">{error}</p>}
       {secret && (

@@ -5,7 +5,7 @@ import { UNIT_KINDS } from '~/lib/kinds';
 import { kindSpec } from '~/lib/plant/kinds';
 import { UnitCreateInput } from '~/lib/plant/inputs';
 import { counted } from '~/lib/counts';
-import { Field } from './common';
+import { Field, FormInput, SubmitCell } from '~/components/ui/Field';
 import { call, messageOf, type Message } from '~/components/api';
 import type { UnitJson } from './LinkForm';
 import { GridTable, num } from '~/components/ui/GridTable';
@@ -64,9 +64,7 @@ function AddUnitForm({ siteId, onMessage, onAdded }: { siteId: string; onMessage
 
   return (
     <form onSubmit={unitForm.handleSubmit(addUnit)} className="mt-4 grid gap-3 border-t border-paper-edge pt-3 sm:grid-cols-4" noValidate aria-label="Add a unit">
-      <Field id="u-name" label="Unit name" error={err.name?.message}>
-        <input id="u-name" className="field" {...unitForm.register('name')} />
-      </Field>
+      <FormInput form={unitForm} name="name" id="u-name" label="Unit name" />
       <Field id="u-kind" label="Kind" error={err.kind?.message}>
         <select id="u-kind" className="field" {...unitForm.register('kind')}>
           {UNIT_KINDS.map((k) => (
@@ -79,11 +77,7 @@ function AddUnitForm({ siteId, onMessage, onAdded }: { siteId: string; onMessage
       <label className="flex items-end gap-2 pb-2 text-sm">
         <input type="checkbox" {...unitForm.register('withPorts')} /> with its required ports
       </label>
-      <div className="flex items-end">
-        <button className="btn btn-primary" type="submit" disabled={unitForm.formState.isSubmitting}>
-          Add unit
-        </button>
-      </div>
+      <SubmitCell busy={unitForm.formState.isSubmitting}>Add unit</SubmitCell>
     </form>
   );
 }

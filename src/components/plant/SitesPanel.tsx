@@ -4,7 +4,8 @@ import { useForm } from 'react-hook-form';
 import { z } from 'zod';
 import { ELEVATION_MAX_m, ELEVATION_MIN_m } from '~/lib/plant/atmosphere';
 import { SiteInput } from '~/lib/plant/inputs';
-import { Field, Notice } from './common';
+import { Notice } from './common';
+import { FormInput, SubmitCell } from '~/components/ui/Field';
 import { call, messageOf, type Message } from '~/components/api';
 import { GridTable, num } from '~/components/ui/GridTable';
 
@@ -47,7 +48,6 @@ function SitesTable({ sites }: { sites: SiteSummary[] }) {
 /** The New site card (admins): by hand, or from a model file; either opens the new site's page. */
 function NewSiteSection({ onMessage }: { onMessage: (m: Message) => void }) {
   const form = useForm<NewSite>({ resolver: zodResolver(NewSite), defaultValues: { name: '', timeZone: 'UTC', elevation: '' } });
-  const err = form.formState.errors;
 
   async function create(v: NewSite) {
     try {
@@ -76,20 +76,10 @@ function NewSiteSection({ onMessage }: { onMessage: (m: Message) => void }) {
     <section className="card">
       <h2 className="mb-3">New site</h2>
       <form onSubmit={form.handleSubmit(create)} className="grid gap-3 sm:grid-cols-4" noValidate>
-        <Field id="site-name" label="Name" error={err.name?.message}>
-          <input id="site-name" className="field" {...form.register('name')} />
-        </Field>
-        <Field id="site-tz" label="Time zone" error={err.timeZone?.message}>
-          <input id="site-tz" className="field" {...form.register('timeZone')} />
-        </Field>
-        <Field id="site-elevation" label="Elevation [m]" error={err.elevation?.message}>
-          <input id="site-elevation" className="field" inputMode="decimal" {...form.register('elevation')} />
-        </Field>
-        <div className="flex items-end">
-          <button className="btn btn-primary" type="submit" disabled={form.formState.isSubmitting}>
-            Create site
-          </button>
-        </div>
+        <FormInput form={form} name="name" id="site-name" label="Name" />
+        <FormInput form={form} name="timeZone" id="site-tz" label="Time zone" />
+        <FormInput form={form} name="elevation" id="site-elevation" label="Elevation [m]" inputMode="decimal" />
+        <SubmitCell busy={form.formState.isSubmitting}>Create site</SubmitCell>
       </form>
       <div className="mt-4 border-t border-paper-edge pt-3">
         <label className="label" htmlFor="site-from-file">
