@@ -77,9 +77,7 @@ function PeopleTable({ people, sites, selfId, patch, resend }: TableProps) {
               value={p.role}
               onChange={(e) => patch(p.id, { role: e.target.value as Role })}
             >
-              {ROLES.map((r) => (
-                <option key={r} value={r}>{ROLE_LABELS[r]}</option>
-              ))}
+              <Options choices={ROLES.map((r) => [r, ROLE_LABELS[r]] as const)} />
             </select>
           </td>
           <td>

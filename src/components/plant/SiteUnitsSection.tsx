@@ -5,7 +5,7 @@ import { UNIT_KINDS } from '~/lib/kinds';
 import { kindSpec } from '~/lib/plant/kinds';
 import { UnitCreateInput } from '~/lib/plant/inputs';
 import { counted } from '~/lib/counts';
-import { Field, FormInput, SubmitCell } from '~/components/ui/Field';
+import { Field, FormInput, Options, SubmitCell } from '~/components/ui/Field';
 import { call, messageOf, type Message } from '~/components/api';
 import type { UnitJson } from './LinkForm';
 import { GridTable, num } from '~/components/ui/GridTable';
@@ -67,11 +67,7 @@ function AddUnitForm({ siteId, onMessage, onAdded }: { siteId: string; onMessage
       <FormInput form={unitForm} name="name" id="u-name" label="Unit name" />
       <Field id="u-kind" label="Kind" error={err.kind?.message}>
         <select id="u-kind" className="field" {...unitForm.register('kind')}>
-          {UNIT_KINDS.map((k) => (
-            <option key={k} value={k}>
-              {kindSpec(k).label}
-            </option>
-          ))}
+          <Options choices={UNIT_KINDS.map((k) => [k, kindSpec(k).label] as const)} />
         </select>
       </Field>
       <label className="flex items-end gap-2 pb-2 text-sm">

@@ -3,6 +3,7 @@ import { BASELINE_LOOK, pct } from './looks';
 import { ALL_TERMS, TERM_LABELS, type BaselineSummary, type BaselineTerm } from './types';
 import { periodDaysText, toggledTerms } from '~/lib/views/baseline-fit-text';
 import { GridTable, num } from '~/components/ui/GridTable';
+import { Field, Options } from '~/components/ui/Field';
 
 export interface UnitChoice {
   id: string;
@@ -34,18 +35,11 @@ interface PeriodProps {
 export function PeriodFields({ units, unitId, setUnitId, timeZone, from, setFrom, to, setTo }: PeriodProps) {
   return (
     <div className="grid gap-4 sm:grid-cols-3">
-      <div>
-        <label className="label" htmlFor="b-unit">
-          Unit
-        </label>
+      <Field id="b-unit" label="Unit">
         <select id="b-unit" className="field" value={unitId} onChange={(e) => setUnitId(e.target.value)}>
-          {units.map((u) => (
-            <option key={u.id} value={u.id}>
-              {u.siteName} · {u.name}
-            </option>
-          ))}
+          <Options choices={units.map((u) => [u.id, <>{u.siteName} · {u.name}</>] as const)} />
         </select>
-      </div>
+      </Field>
       <div>
         <label className="label" htmlFor="b-from">
           First day {timeZone ? `(${timeZone})` : ''}
