@@ -1,4 +1,4 @@
-import type { HTMLAttributes, ReactNode } from 'react';
+import type { FormEvent, HTMLAttributes, ReactNode } from 'react';
 import { get, type FieldValues, type Path, type UseFormReturn } from 'react-hook-form';
 
 /** A field's error under it, or nothing. */
@@ -65,3 +65,9 @@ export function Options({ choices }: { choices: readonly (readonly [string, Reac
     </>
   );
 }
+
+/** A form's onSubmit that keeps the page and runs `act` (forms that only show or fit, sending nothing themselves). */
+export const submitTo = (act: () => void) => (e: FormEvent) => {
+  e.preventDefault();
+  act();
+};
