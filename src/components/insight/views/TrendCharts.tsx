@@ -53,6 +53,9 @@ export function StatePatterns({ prefix }: { prefix: string }) {
 /** The text of the charts' axes: their ticks and labels. */
 const AXIS_TEXT = { fontSize: 11, fill: COLORS.soft };
 
+/** A numeric axis on nice ticks (niceTicks; recharts picks its own when there are none). */
+const valueAxis = (a: ReturnType<typeof niceTicks>) => ({ domain: a?.domain ?? ['auto', 'auto'], ticks: a?.ticks, tick: AXIS_TEXT });
+
 /** The value axis's label of a chart of efficiency or destruction (in the site's power unit). */
 const yLabel = (kind: Kind, powerUnit: string) => ({
   value: kind === 'efficiency' ? 'Efficiency [%]' : `Destruction [${powerUnit}]`,
@@ -173,10 +176,8 @@ export function TimeChart({ kind, points, context, notices, fromMs, toMs, timeZo
             allowDataOverflow
           />
           <YAxis
-            tick={AXIS_TEXT}
+            {...valueAxis(yAxis)}
             width={56}
-            domain={yAxis?.domain ?? ['auto', 'auto']}
-            ticks={yAxis?.ticks}
             allowDataOverflow
             label={yLabel(kind, pu.unit)}
           />
@@ -267,9 +268,7 @@ export function LoadScatter({ kind, scatter, curve, loadUnit, timeZone, writer }
           <XAxis
             dataKey="x"
             type="number"
-            domain={xAxis?.domain ?? ['auto', 'auto']}
-            ticks={xAxis?.ticks}
-            tick={AXIS_TEXT}
+            {...valueAxis(xAxis)}
             tickFormatter={(v: number) => significant(v, 3)}
             label={{ value: ax.label, position: 'insideBottom', offset: -10, style: AXIS_TEXT }}
             allowDuplicatedCategory={false}
@@ -277,9 +276,7 @@ export function LoadScatter({ kind, scatter, curve, loadUnit, timeZone, writer }
           <YAxis
             dataKey="y"
             type="number"
-            domain={yAxis?.domain ?? ['auto', 'auto']}
-            ticks={yAxis?.ticks}
-            tick={AXIS_TEXT}
+            {...valueAxis(yAxis)}
             width={56}
             label={yLabel(kind, pu.unit)}
           />
