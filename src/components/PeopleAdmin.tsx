@@ -5,6 +5,8 @@ import { z } from 'zod';
 import { InviteInput } from '~/lib/people';
 import { ROLES, ROLE_LABELS, type Role } from '../lib/roles';
 import { call } from '~/components/api';
+import { GridTable, ACTIONS } from '~/components/ui/GridTable';
+import { Field, FormInput, Options, SubmitCell } from '~/components/ui/Field';
 
 interface Person {
   id: string;
@@ -63,52 +65,45 @@ interface TableProps {
 function PeopleTable({ people, sites, selfId, patch, resend }: TableProps) {
   return (
     <div className="overflow-x-auto">
-    <table className="grid-table">
-      <thead>
-        <tr><th>Name</th><th>E-mail</th><th>Role</th><th>Sites</th><th>Account</th><th><span className="sr-only">Actions</span></th></tr>
-      </thead>
-      <tbody>
-        {people.map((p) => (
-          <tr key={p.id} data-testid={`person-${p.email}`}>
-            <td>{p.name}</td>
-            <td>{p.email}</td>
-            <td>
-              <select
-                aria-label={`Role of ${p.name}`}
-                className="field py-0.5"
-                value={p.role}
-                onChange={(e) => patch(p.id, { role: e.target.value as Role })}
+    <GridTable columns={['Name', 'E-mail', 'Role', 'Sites', 'Account', ACTIONS]}>
+      {people.map((p) => (
+        <tr key={p.id} data-testid={`person-${p.email}`}>
+          <td>{p.name}</td>
+          <td>{p.email}</td>
+          <td>
+            <select
+              aria-label={`Role of ${p.name}`}
+              className="field py-0.5"
+              value={p.role}
+              onChange={(e) => patch(p.id, { role: e.target.value as Role })}
+            >
+              <Options choices={ROLES.map((r) => [r, ROLE_LABELS[r]] as const)} />
+            </select>
+          </td>
+          <td>
+            <SitesCell person={p} sites={sites} onChange={(v) => patch(p.id, { sites: v })} />
+          </td>
+          <td>{p.deactivated ? 'deactivated' : p.pending ? 'invited, no password yet' : 'active'}</td>
+          <td className="whitespace-nowrap text-right">
+            {p.pending && !p.deactivated && (
+              <button className="btn mr-2" type="button" aria-label={`Resend the invitation to ${p.name}`} onClick={() => resend(p)}>
+                Resend invitation
+              </button>
+            )}
+            {p.id !== selfId && (
+              <button
+                className="btn"
+                type="button"
+                aria-label={`${p.deactivated ? 'Reactivate' : 'Deactivate'} ${p.name}`}
+                onClick={() => patch(p.id, { deactivated: !p.deactivated })}
               >
-                {ROLES.map((r) => (
-                  <option key={r} value={r}>{ROLE_LABELS[r]}</option>
-                ))}
-              </select>
-            </td>
-            <td>
-              <SitesCell person={p} sites={sites} onChange={(v) => patch(p.id, { sites: v })} />
-            </td>
-            <td>{p.deactivated ? 'deactivated' : p.pending ? 'invited, no password yet' : 'active'}</td>
-            <td className="whitespace-nowrap text-right">
-              {p.pending && !p.deactivated && (
-                <button className="btn mr-2" type="button" aria-label={`Resend the invitation to ${p.name}`} onClick={() => resend(p)}>
-                  Resend invitation
-                </button>
-              )}
-              {p.id !== selfId && (
-                <button
-                  className="btn"
-                  type="button"
-                  aria-label={`${p.deactivated ? 'Reactivate' : 'Deactivate'} ${p.name}`}
-                  onClick={() => patch(p.id, { deactivated: !p.deactivated })}
-                >
-                  {p.deactivated ? 'Reactivate' : 'Deactivate'}
-                </button>
-              )}
-            </td>
-          </tr>
-        ))}
-      </tbody>
-    </table>
+                {p.deactivated ? 'Reactivate' : 'Deactivate'}
+              </button>
+            )}
+          </td>
+        </tr>
+      ))}
+    </GridTable>
     </div>
   );
 }
@@ -156,35 +151,19 @@ function usePeople() {
 /** Invite someone: name, e-mail and role, checked by the server's own rules. */
 function InviteSection({ onInvite }: { onInvite: (values: InviteForm, sent: () => void) => Promise<void> }) {
   const form = useForm<InviteForm>({ resolver: zodResolver(InviteForm), defaultValues: { name: '', email: '', role: 'operator' } });
-  const err = form.formState.errors;
   const invite = (values: InviteForm) => onInvite(values, () => form.reset({ name: '', email: '', role: values.role }));
   return (
     <section className="card">
       <h2 className="mb-3">Invite someone</h2>
       <form onSubmit={form.handleSubmit(invite)} className="grid gap-3 sm:grid-cols-4" noValidate>
-        <div>
-          <label className="label" htmlFor="invite-name">Name</label>
-          <input id="invite-name" className="field" {...form.register('name')} />
-          {err.name && <p className="mt-1 text-xs text-alert">{err.name.message}</p>}
-        </div>
-        <div>
-          <label className="label" htmlFor="invite-email">E-mail</label>
-          <input id="invite-email" type="email" className="field" {...form.register('email')} />
-          {err.email && <p className="mt-1 text-xs text-alert">{err.email.message}</p>}
-        </div>
-        <div>
-          <label className="label" htmlFor="invite-role">Role</label>
+        <FormInput form={form} name="name" id="invite-name" label="Name" />
+        <FormInput form={form} name="email" id="invite-email" label="E-mail" type="email" />
+        <Field id="invite-role" label="Role">
           <select id="invite-role" className="field" {...form.register('role')}>
-            {ROLES.map((r) => (
-              <option key={r} value={r}>{ROLE_LABELS[r]}</option>
-            ))}
+            <Options choices={ROLES.map((r) => [r, ROLE_LABELS[r]] as const)} />
           </select>
-        </div>
-        <div className="flex items-end">
-          <button className="btn btn-primary" type="submit" disabled={form.formState.isSubmitting}>
-            Send invitation
-          </button>
-        </div>
+        </Field>
+        <SubmitCell busy={form.formState.isSubmitting}>Send invitation</SubmitCell>
       </form>
     </section>
   );

@@ -2,6 +2,8 @@ import { useState } from 'react';
 import { call, useApi } from '~/components/api';
 import { siteStamp } from '~/lib/site-time';
 import { useConfirm } from '~/components/ConfirmDialog';
+import { GridTable, ACTIONS } from '~/components/ui/GridTable';
+import { SubmitCell } from '~/components/ui/Field';
 
 interface Token {
   id: string;
@@ -64,7 +66,7 @@ export default function TokensAdmin({ sites }: { sites: { id: string; name: stri
             <option value="admin">send files and import the plant model</option>
           </select>
         </div>
-        <div className="flex items-end"><button className="btn btn-primary" type="submit">Issue token</button></div>
+        <SubmitCell>Issue token</SubmitCell>
       </form>
       {error && <p role="alert" className="notice-error">{error}</p>}
       {secret && (
@@ -73,21 +75,18 @@ export default function TokensAdmin({ sites }: { sites: { id: string; name: stri
           <code data-testid="new-token" className="select-all break-all">{secret}</code>
         </div>
       )}
-      <table className="grid-table">
-        <thead><tr><th>Name</th><th>Starts with</th><th>Allowed to send</th><th>Issued ({tz})</th><th>Last used ({tz})</th><th><span className="sr-only">Actions</span></th></tr></thead>
-        <tbody>
-          {tokens.map((t) => (
-            <tr key={t.id}>
-              <td>{t.name}</td>
-              <td><code>{t.prefix}…</code></td>
-              <td>{t.role === 'admin' ? 'files and model' : 'files'}</td>
-              <td className="tabular-nums">{siteStamp(t.createdAt, tz)}</td>
-              <td className="tabular-nums">{t.lastUsedAt ? siteStamp(t.lastUsedAt, tz) : 'never'}</td>
-              <td className="text-right">{t.revokedAt ? 'revoked' : <button className="btn" type="button" aria-label={`Revoke ${t.name}`} onClick={() => revoke(t)}>Revoke</button>}</td>
-            </tr>
-          ))}
-        </tbody>
-      </table>
+      <GridTable columns={['Name', 'Starts with', 'Allowed to send', <>Issued ({tz})</>, <>Last used ({tz})</>, ACTIONS]}>
+        {tokens.map((t) => (
+          <tr key={t.id}>
+            <td>{t.name}</td>
+            <td><code>{t.prefix}…</code></td>
+            <td>{t.role === 'admin' ? 'files and model' : 'files'}</td>
+            <td className="tabular-nums">{siteStamp(t.createdAt, tz)}</td>
+            <td className="tabular-nums">{t.lastUsedAt ? siteStamp(t.lastUsedAt, tz) : 'never'}</td>
+            <td className="text-right">{t.revokedAt ? 'revoked' : <button className="btn" type="button" aria-label={`Revoke ${t.name}`} onClick={() => revoke(t)}>Revoke</button>}</td>
+          </tr>
+        ))}
+      </GridTable>
     </div>
   );
 }

@@ -1,4 +1,5 @@
 import { Notice } from '../plant/common';
+import { Field } from '~/components/ui/Field';
 import type { UnitLimits, UnitLimitsFields } from '~/lib/views/unit-limits';
 import { useUnitLimits } from './useUnitLimits';
 
@@ -6,24 +7,15 @@ import { useUnitLimits } from './useUnitLimits';
 function LimitsFields({ unitId, canEdit, limits, fields, setField, busy, save }: { unitId: string; canEdit: boolean; limits: UnitLimits | null; fields: UnitLimitsFields; setField: (k: keyof UnitLimitsFields) => (v: string) => void; busy: boolean; save: (e: React.FormEvent) => void }) {
   return (
     <form className="flex flex-wrap items-end gap-3" onSubmit={save}>
-      <div>
-        <label className="label" htmlFor={`lim-cost-${unitId}`}>
-          Cost of destruction above [{limits?.currency ?? ''}/day]
-        </label>
+      <Field id={`lim-cost-${unitId}`} label={<>Cost of destruction above [{limits?.currency ?? ''}/day]</>}>
         <input id={`lim-cost-${unitId}`} className="field w-32 text-right" inputMode="decimal" value={fields.cost} onChange={(e) => setField('cost')(e.target.value)} disabled={!canEdit} />
-      </div>
-      <div>
-        <label className="label" htmlFor={`lim-eff-${unitId}`}>
-          Exergy efficiency below [%]
-        </label>
+      </Field>
+      <Field id={`lim-eff-${unitId}`} label="Exergy efficiency below [%]">
         <input id={`lim-eff-${unitId}`} className="field w-24 text-right" inputMode="decimal" value={fields.eff} onChange={(e) => setField('eff')(e.target.value)} disabled={!canEdit} />
-      </div>
-      <div>
-        <label className="label" htmlFor={`lim-hours-${unitId}`}>
-          Hours in a row [h]
-        </label>
+      </Field>
+      <Field id={`lim-hours-${unitId}`} label="Hours in a row [h]">
         <input id={`lim-hours-${unitId}`} className="field w-20 text-right" inputMode="numeric" value={fields.hours} onChange={(e) => setField('hours')(e.target.value)} disabled={!canEdit} />
-      </div>
+      </Field>
       {canEdit && (
         <button type="submit" className="btn" disabled={busy}>
           Save limits

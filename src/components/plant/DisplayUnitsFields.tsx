@@ -1,4 +1,5 @@
 import type { UseFormRegister } from 'react-hook-form';
+import { Field, Options } from '~/components/ui/Field';
 import { DISPLAY_CHOICES, shownUnit, type DisplayUnits } from '~/lib/units/display';
 
 /** The display-unit fields of the site settings form (values are the registry's unit names). */
@@ -26,18 +27,11 @@ export const displayUnitsOf = (v: DisplayFields): DisplayUnits => ({ power: v.du
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
 export function DisplayUnitsFields({ register, chosen }: { register: UseFormRegister<any>; chosen: boolean }) {
   const pick = (id: string, label: string, name: keyof DisplayFields, choices: readonly string[]) => (
-    <div>
-      <label className="label" htmlFor={id}>
-        {label}
-      </label>
+    <Field id={id} label={label}>
       <select id={id} className="field" {...register(name)}>
-        {choices.map((c) => (
-          <option key={c} value={c}>
-            {shownUnit(c)}
-          </option>
-        ))}
+        <Options choices={choices.map((c) => [c, shownUnit(c)] as const)} />
       </select>
-    </div>
+    </Field>
   );
   return (
     <fieldset className="grid gap-3 sm:grid-cols-5" aria-describedby="du-note">
@@ -46,18 +40,11 @@ export function DisplayUnitsFields({ register, chosen }: { register: UseFormRegi
       {pick('du-mass', 'Mass flow', 'duMassFlow', DISPLAY_CHOICES.massFlow)}
       {pick('du-temp', 'Temperature', 'duTemperature', DISPLAY_CHOICES.temperature)}
       {pick('du-press', 'Pressure', 'duPressure', DISPLAY_CHOICES.pressure)}
-      <div>
-        <label className="label" htmlFor="du-locale">
-          Numbers written as
-        </label>
+      <Field id="du-locale" label="Numbers written as">
         <select id="du-locale" className="field" {...register('duLocale')}>
-          {LOCALES.map(([v, l]) => (
-            <option key={v} value={v}>
-              {l}
-            </option>
-          ))}
+          <Options choices={LOCALES} />
         </select>
-      </div>
+      </Field>
       <p id="du-note" className="text-xs text-ink-soft sm:col-span-5">
         {chosen ? 'Chosen for this site.' : 'Taken from the units of the linked tags until you save a choice.'} Values are stored in SI whatever is chosen here.
       </p>

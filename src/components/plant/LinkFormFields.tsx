@@ -2,7 +2,7 @@ import type { UseFormReturn } from 'react-hook-form';
 import { LINK_QUANTITIES, type LinkQuantity } from '~/lib/plant/kinds';
 import type { LinkFormValues, Target } from '~/lib/plant/link-form';
 import { unitsFor } from '~/lib/units';
-import { Field } from './common';
+import { Field, Options } from '~/components/ui/Field';
 import type { TagJson, UnitJson } from './link-json';
 
 export interface LinkFieldsProps {
@@ -27,11 +27,7 @@ export function WhatFields({ form, p, units, tags, fixed, unit, targets, quantit
         <Field id={`${p}-unit`} label="Unit" error={err.unitId?.message}>
           <select id={`${p}-unit`} className="field" {...form.register('unitId')}>
             <option value="">Choose…</option>
-            {units.map((u) => (
-              <option key={u.id} value={u.id}>
-                {u.name}
-              </option>
-            ))}
+            <Options choices={units.map((u) => [u.id, u.name] as const)} />
           </select>
         </Field>
       )}

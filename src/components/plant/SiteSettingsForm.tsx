@@ -2,48 +2,30 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { useFieldArray, useForm, type UseFormReturn } from 'react-hook-form';
 import { SiteSettingsFormSchema, siteSettingsPatch, siteSettingsValues, type SiteSettingsFormValues as Settings } from '~/lib/plant/site-settings-form';
-import { Field } from './common';
+import { FormInput } from '~/components/ui/Field';
 import { call, messageOf, type Message } from '~/components/api';
 import { DisplayUnitsFields } from './DisplayUnitsFields';
 import type { Overview } from './site-overview';
 
 /** The site's name, clock, atmosphere, dead state and currency. */
 function SettingsFields({ form, canEdit, elevationOnly, setElevationOnly }: { form: UseFormReturn<Settings>; canEdit: boolean; elevationOnly: boolean; setElevationOnly: (on: boolean) => void }) {
-  const err = form.formState.errors;
   return (
     <fieldset disabled={!canEdit} className="grid gap-3 sm:grid-cols-4">
-      <Field id="s-name" label="Name" error={err.name?.message}>
-        <input id="s-name" className="field" {...form.register('name')} />
-      </Field>
-      <Field id="s-tz" label="Time zone (IANA)" error={err.timeZone?.message}>
-        <input id="s-tz" className="field" {...form.register('timeZone')} />
-      </Field>
-      <Field id="s-elev" label="Elevation [m]" error={err.elevation?.message}>
-        <input id="s-elev" className="field" inputMode="decimal" {...form.register('elevation')} />
-      </Field>
-      <Field id="s-patm" label="Atmospheric pressure [kPa]" error={err.pAtm?.message}>
-        <input id="s-patm" className="field" inputMode="decimal" {...form.register('pAtm')} disabled={elevationOnly} />
+      <FormInput form={form} name="name" id="s-name" label="Name" />
+      <FormInput form={form} name="timeZone" id="s-tz" label="Time zone (IANA)" />
+      <FormInput form={form} name="elevation" id="s-elev" label="Elevation [m]" inputMode="decimal" />
+      <FormInput form={form} name="pAtm" id="s-patm" label="Atmospheric pressure [kPa]" inputMode="decimal" disabled={elevationOnly}>
         {canEdit && (
           <label className="mt-1 flex items-center gap-1 text-xs text-ink-soft">
             <input type="checkbox" checked={elevationOnly} onChange={(e) => setElevationOnly(e.target.checked)} /> from the elevation (standard atmosphere)
           </label>
         )}
-      </Field>
-      <Field id="s-t0" label="Dead state T0 [°C] (fallback when a tag is set)" error={err.T0?.message}>
-        <input id="s-t0" className="field" inputMode="decimal" {...form.register('T0')} />
-      </Field>
-      <Field id="s-p0" label="Dead state p0 [kPa]" error={err.p0?.message}>
-        <input id="s-p0" className="field" inputMode="decimal" {...form.register('p0')} />
-      </Field>
-      <Field id="s-t0tag" label="T0 from ambient tag (optional)" error={err.t0Tag?.message}>
-        <input id="s-t0tag" className="field" {...form.register('t0Tag')} />
-      </Field>
-      <Field id="s-t0unit" label="Its unit" error={err.t0TagUnit?.message}>
-        <input id="s-t0unit" className="field" {...form.register('t0TagUnit')} />
-      </Field>
-      <Field id="s-cur" label="Currency" error={err.currency?.message}>
-        <input id="s-cur" className="field" {...form.register('currency')} />
-      </Field>
+      </FormInput>
+      <FormInput form={form} name="T0" id="s-t0" label="Dead state T0 [°C] (fallback when a tag is set)" inputMode="decimal" />
+      <FormInput form={form} name="p0" id="s-p0" label="Dead state p0 [kPa]" inputMode="decimal" />
+      <FormInput form={form} name="t0Tag" id="s-t0tag" label="T0 from ambient tag (optional)" />
+      <FormInput form={form} name="t0TagUnit" id="s-t0unit" label="Its unit" />
+      <FormInput form={form} name="currency" id="s-cur" label="Currency" />
     </fieldset>
   );
 }

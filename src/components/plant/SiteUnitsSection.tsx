@@ -5,9 +5,10 @@ import { UNIT_KINDS } from '~/lib/kinds';
 import { kindSpec } from '~/lib/plant/kinds';
 import { UnitCreateInput } from '~/lib/plant/inputs';
 import { counted } from '~/lib/counts';
-import { Field } from './common';
+import { Field, FormInput, Options, SubmitCell } from '~/components/ui/Field';
 import { call, messageOf, type Message } from '~/components/api';
 import type { UnitJson } from './LinkForm';
+import { GridTable, num } from '~/components/ui/GridTable';
 
 const NewUnit = UnitCreateInput.pick({ name: true, kind: true }).extend({ withPorts: z.boolean() });
 type NewUnit = z.infer<typeof NewUnit>;
@@ -27,32 +28,21 @@ function StatusCell({ unit }: { unit: UnitJson }) {
 /** The site's units with what each lacks. */
 function UnitsTable({ siteId, units }: { siteId: string; units: UnitJson[] }) {
   return (
-    <table className="grid-table" data-testid="units-table">
-      <thead>
-        <tr>
-          <th>Unit</th>
-          <th>Kind</th>
-          <th className="num">Ports</th>
-          <th className="num">Links</th>
-          <th>Can compute?</th>
+    <GridTable testId="units-table" columns={['Unit', 'Kind', num('Ports'), num('Links'), 'Can compute?']}>
+      {units.map((u) => (
+        <tr key={u.id} data-testid={`unit-${u.name}`}>
+          <td>
+            <a href={`/plant/${siteId}/units/${u.id}`}>{u.name}</a>
+          </td>
+          <td>{kindSpec(u.kind).label}</td>
+          <td className="num">{u.ports.length}</td>
+          <td className="num">{u.links.length}</td>
+          <td>
+            <StatusCell unit={u} />
+          </td>
         </tr>
-      </thead>
-      <tbody>
-        {units.map((u) => (
-          <tr key={u.id} data-testid={`unit-${u.name}`}>
-            <td>
-              <a href={`/plant/${siteId}/units/${u.id}`}>{u.name}</a>
-            </td>
-            <td>{kindSpec(u.kind).label}</td>
-            <td className="num">{u.ports.length}</td>
-            <td className="num">{u.links.length}</td>
-            <td>
-              <StatusCell unit={u} />
-            </td>
-          </tr>
-        ))}
-      </tbody>
-    </table>
+      ))}
+    </GridTable>
   );
 }
 
@@ -74,26 +64,16 @@ function AddUnitForm({ siteId, onMessage, onAdded }: { siteId: string; onMessage
 
   return (
     <form onSubmit={unitForm.handleSubmit(addUnit)} className="mt-4 grid gap-3 border-t border-paper-edge pt-3 sm:grid-cols-4" noValidate aria-label="Add a unit">
-      <Field id="u-name" label="Unit name" error={err.name?.message}>
-        <input id="u-name" className="field" {...unitForm.register('name')} />
-      </Field>
+      <FormInput form={unitForm} name="name" id="u-name" label="Unit name" />
       <Field id="u-kind" label="Kind" error={err.kind?.message}>
         <select id="u-kind" className="field" {...unitForm.register('kind')}>
-          {UNIT_KINDS.map((k) => (
-            <option key={k} value={k}>
-              {kindSpec(k).label}
-            </option>
-          ))}
+          <Options choices={UNIT_KINDS.map((k) => [k, kindSpec(k).label] as const)} />
         </select>
       </Field>
       <label className="flex items-end gap-2 pb-2 text-sm">
         <input type="checkbox" {...unitForm.register('withPorts')} /> with its required ports
       </label>
-      <div className="flex items-end">
-        <button className="btn btn-primary" type="submit" disabled={unitForm.formState.isSubmitting}>
-          Add unit
-        </button>
-      </div>
+      <SubmitCell busy={unitForm.formState.isSubmitting}>Add unit</SubmitCell>
     </form>
   );
 }

@@ -4,8 +4,10 @@ import { useForm } from 'react-hook-form';
 import { z } from 'zod';
 import { ELEVATION_MAX_m, ELEVATION_MIN_m } from '~/lib/plant/atmosphere';
 import { SiteInput } from '~/lib/plant/inputs';
-import { Field, Notice } from './common';
+import { Notice } from './common';
+import { FormInput, SubmitCell } from '~/components/ui/Field';
 import { call, messageOf, type Message } from '~/components/api';
+import { GridTable, num } from '~/components/ui/GridTable';
 
 export interface SiteSummary {
   id: string;
@@ -28,35 +30,24 @@ type NewSite = z.infer<typeof NewSite>;
 /** The sites, each with its clock and how many of its units can compute. */
 function SitesTable({ sites }: { sites: SiteSummary[] }) {
   return (
-    <table className="grid-table">
-      <thead>
-        <tr>
-          <th>Site</th>
-          <th>Time zone</th>
-          <th className="num">Units</th>
-          <th className="num">Complete</th>
+    <GridTable columns={['Site', 'Time zone', num('Units'), num('Complete')]}>
+      {sites.map((s) => (
+        <tr key={s.id}>
+          <td>
+            <a href={`/plant/${s.id}`}>{s.name}</a>
+          </td>
+          <td>{s.timeZone}</td>
+          <td className="num">{s.units}</td>
+          <td className="num">{s.complete}</td>
         </tr>
-      </thead>
-      <tbody>
-        {sites.map((s) => (
-          <tr key={s.id}>
-            <td>
-              <a href={`/plant/${s.id}`}>{s.name}</a>
-            </td>
-            <td>{s.timeZone}</td>
-            <td className="num">{s.units}</td>
-            <td className="num">{s.complete}</td>
-          </tr>
-        ))}
-      </tbody>
-    </table>
+      ))}
+    </GridTable>
   );
 }
 
 /** The New site card (admins): by hand, or from a model file; either opens the new site's page. */
 function NewSiteSection({ onMessage }: { onMessage: (m: Message) => void }) {
   const form = useForm<NewSite>({ resolver: zodResolver(NewSite), defaultValues: { name: '', timeZone: 'UTC', elevation: '' } });
-  const err = form.formState.errors;
 
   async function create(v: NewSite) {
     try {
@@ -85,20 +76,10 @@ function NewSiteSection({ onMessage }: { onMessage: (m: Message) => void }) {
     <section className="card">
       <h2 className="mb-3">New site</h2>
       <form onSubmit={form.handleSubmit(create)} className="grid gap-3 sm:grid-cols-4" noValidate>
-        <Field id="site-name" label="Name" error={err.name?.message}>
-          <input id="site-name" className="field" {...form.register('name')} />
-        </Field>
-        <Field id="site-tz" label="Time zone" error={err.timeZone?.message}>
-          <input id="site-tz" className="field" {...form.register('timeZone')} />
-        </Field>
-        <Field id="site-elevation" label="Elevation [m]" error={err.elevation?.message}>
-          <input id="site-elevation" className="field" inputMode="decimal" {...form.register('elevation')} />
-        </Field>
-        <div className="flex items-end">
-          <button className="btn btn-primary" type="submit" disabled={form.formState.isSubmitting}>
-            Create site
-          </button>
-        </div>
+        <FormInput form={form} name="name" id="site-name" label="Name" />
+        <FormInput form={form} name="timeZone" id="site-tz" label="Time zone" />
+        <FormInput form={form} name="elevation" id="site-elevation" label="Elevation [m]" inputMode="decimal" />
+        <SubmitCell busy={form.formState.isSubmitting}>Create site</SubmitCell>
       </form>
       <div className="mt-4 border-t border-paper-edge pt-3">
         <label className="label" htmlFor="site-from-file">

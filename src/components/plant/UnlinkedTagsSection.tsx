@@ -1,36 +1,27 @@
 import { useState } from 'react';
 import LinkForm, { type TagJson } from './LinkForm';
 import type { Overview } from './site-overview';
+import { GridTable } from '~/components/ui/GridTable';
 
 /** The unlinked tags, each with a button that opens the link form for it (admins). */
 function UnlinkedTable({ unlinked, canLink, linking, setLinking }: { unlinked: TagJson[]; canLink: boolean; linking: string | null; setLinking: (tag: string | null) => void }) {
   return (
-    <table className="grid-table" data-testid="unlinked-tags">
-      <thead>
-        <tr>
-          <th>Tag</th>
-          <th>Unit in the export</th>
-          <th>Description</th>
-          <th></th>
+    <GridTable testId="unlinked-tags" columns={['Tag', 'Unit in the export', 'Description', '']}>
+      {unlinked.map((t) => (
+        <tr key={t.id} data-testid={`unlinked-${t.name}`}>
+          <td className="font-mono text-xs">{t.name}</td>
+          <td>{t.unitHint ?? ''}</td>
+          <td>{t.description ?? ''}</td>
+          <td className="text-right">
+            {canLink && (
+              <button type="button" className="btn" onClick={() => setLinking(linking === t.name ? null : t.name)}>
+                Link {t.name}…
+              </button>
+            )}
+          </td>
         </tr>
-      </thead>
-      <tbody>
-        {unlinked.map((t) => (
-          <tr key={t.id} data-testid={`unlinked-${t.name}`}>
-            <td className="font-mono text-xs">{t.name}</td>
-            <td>{t.unitHint ?? ''}</td>
-            <td>{t.description ?? ''}</td>
-            <td className="text-right">
-              {canLink && (
-                <button type="button" className="btn" onClick={() => setLinking(linking === t.name ? null : t.name)}>
-                  Link {t.name}…
-                </button>
-              )}
-            </td>
-          </tr>
-        ))}
-      </tbody>
-    </table>
+      ))}
+    </GridTable>
   );
 }
 

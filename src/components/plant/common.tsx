@@ -1,5 +1,4 @@
 import { siteNowWall, siteStamp, siteWallTime } from '~/lib/site-time';
-import type { ReactNode } from 'react';
 import type { Message } from '~/components/api';
 
 /** A status line, and the JSON path of each issue when the server sent some. */
@@ -21,21 +20,8 @@ export function Notice({ message }: { message: Message }) {
   );
 }
 
-export function FieldError({ text }: { text?: string }) {
-  return text ? <p className="mt-1 text-xs text-alert">{text}</p> : null;
-}
-
-export function Field({ id, label, error, children }: { id: string; label: string; error?: string; children: ReactNode }) {
-  return (
-    <div>
-      <label className="label" htmlFor={id}>
-        {label}
-      </label>
-      {children}
-      <FieldError text={error} />
-    </div>
-  );
-}
+/** The labelled form field, kept in src/components/ui/Field.tsx. */
+export { Field, FieldError } from '~/components/ui/Field';
 
 /** SI values shown and typed in a display unit (the plant forms' one conversion, kept in src/lib). */
 export { readSI, showSI } from '~/lib/plant/site-settings-form';

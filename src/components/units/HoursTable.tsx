@@ -2,6 +2,7 @@ import { HourStateMark } from './HourStateMark';
 import { fmt, fmtU, siteTime } from './format';
 import type { UnitHourView as HourRow } from '~/lib/views/unit-hour';
 import type { SiteWriter } from '~/lib/units/writer';
+import { GridTable, num } from '~/components/ui/GridTable';
 
 interface TableProps {
   rows: HourRow[];
@@ -65,27 +66,11 @@ export function HoursTable({ rows, timeZone, currency, w, open, onOpen }: TableP
   const openMs = open !== null ? Date.parse(open) : null;
   return (
     <div className="card overflow-x-auto p-0">
-      <table className="grid-table" data-testid="unit-hours">
-        <thead>
-          <tr>
-            <th>Hour ({timeZone})</th>
-            <th>State</th>
-            <th className="num">Fuel F [{pu}]</th>
-            <th className="num">Product P [{pu}]</th>
-            <th className="num">Loss L [{pu}]</th>
-            <th className="num">Destruction D [{pu}]</th>
-            <th className="num">Efficiency [%] ± U (k = 2)</th>
-            <th className="num">First-law closure [%]</th>
-            <th className="num">Cost of destruction [{currency}/h]</th>
-            <th />
-          </tr>
-        </thead>
-        <tbody>
-          {rows.map((r) => (
-            <HourRowView key={r.hourStart} r={r} isOpen={openMs === Date.parse(r.hourStart)} timeZone={timeZone} pw={pw} onOpen={onOpen} />
-          ))}
-        </tbody>
-      </table>
+      <GridTable testId="unit-hours" columns={[<>Hour ({timeZone})</>, 'State', num(<>Fuel F [{pu}]</>), num(<>Product P [{pu}]</>), num(<>Loss L [{pu}]</>), num(<>Destruction D [{pu}]</>), num('Efficiency [%] ± U (k = 2)'), num('First-law closure [%]'), num(<>Cost of destruction [{currency}/h]</>), '']}>
+        {rows.map((r) => (
+          <HourRowView key={r.hourStart} r={r} isOpen={openMs === Date.parse(r.hourStart)} timeZone={timeZone} pw={pw} onOpen={onOpen} />
+        ))}
+      </GridTable>
     </div>
   );
 }

@@ -7,6 +7,7 @@ import { useUnitHours } from './useUnitHours';
 import type { UnitHourView as HourRow, UnitInfo } from '~/lib/views/unit-hour';
 import { dayRange, stateCountsText, unitHoursUrl } from '~/lib/views/unit-hours-range';
 import { siteWriter } from '~/lib/units/writer';
+import { submitTo } from '~/components/ui/Field';
 
 /** The address that opens one hour of this unit directly (the page picks a range that holds it). */
 const hourLink = (iso: string) => `${window.location.origin}${window.location.pathname}?hour=${hourInAddress(iso)}`;
@@ -27,10 +28,7 @@ function RangeForm({ timeZone, fromDay, toDay, setFromDay, setToDay, csvHref, ro
   return (
     <form
       className="card flex flex-wrap items-end gap-4"
-      onSubmit={(e) => {
-        e.preventDefault();
-        onShow();
-      }}
+      onSubmit={submitTo(onShow)}
     >
       <label>
         <span className="label">First day ({timeZone})</span>

@@ -6,6 +6,7 @@ import { StateMark } from '../StateMark';
 import { LayoutReview } from './LayoutReview';
 import { UploadReport } from './UploadReport';
 import { READ_STATES, UPLOAD_STATE_LOOK } from './uploadStates';
+import { GridTable, ACTIONS, num } from '~/components/ui/GridTable';
 
 const fmtBytes = (n: number | null) =>
   n === null ? '' : n < 1024 ? `${n} B` : n < 1024 ** 2 ? `${fixed(n / 1024, 1)} KiB` : `${fixed(n / 1024 ** 2, 1)} MiB`;
@@ -100,37 +101,24 @@ interface TableProps {
 export function UploadsTable({ rows, siteId, timeZone, open, setOpen, onRetry, onSaved }: TableProps) {
   return (
     <div className="overflow-x-auto">
-      <table className="grid-table" data-testid="uploads-table">
-        <thead>
-          <tr>
-            <th>File</th>
-            <th>Uploaded ({timeZone})</th>
-            <th className="num">Size</th>
-            <th>State</th>
-            <th className="w-40">Progress</th>
-            <th className="num">Rows</th>
-            <th><span className="sr-only">Actions</span></th>
-          </tr>
-        </thead>
-        <tbody>
-          {rows.map((r) => (
-            <Fragment key={r.uploadId}>
-              <UploadTableRow r={r} timeZone={timeZone} isOpen={open === r.uploadId} onToggle={() => setOpen(open === r.uploadId ? null : r.uploadId)} onRetry={() => onRetry(r.uploadId)} />
-              {open === r.uploadId && (
-                <tr>
-                  <td colSpan={7} className="bg-paper-deep/40">
-                    {(r.status === 'needs-review' || r.status === 'failed') && r.detection ? (
-                      <LayoutReview upload={r} onSaved={onSaved} timeZone={timeZone} />
-                    ) : (
-                      <UploadReport row={r} timeZone={timeZone} siteId={siteId} />
-                    )}
-                  </td>
-                </tr>
-              )}
-            </Fragment>
-          ))}
-        </tbody>
-      </table>
+      <GridTable testId="uploads-table" columns={['File', <>Uploaded ({timeZone})</>, num('Size'), 'State', { label: 'Progress', className: 'w-40' }, num('Rows'), ACTIONS]}>
+        {rows.map((r) => (
+          <Fragment key={r.uploadId}>
+            <UploadTableRow r={r} timeZone={timeZone} isOpen={open === r.uploadId} onToggle={() => setOpen(open === r.uploadId ? null : r.uploadId)} onRetry={() => onRetry(r.uploadId)} />
+            {open === r.uploadId && (
+              <tr>
+                <td colSpan={7} className="bg-paper-deep/40">
+                  {(r.status === 'needs-review' || r.status === 'failed') && r.detection ? (
+                    <LayoutReview upload={r} onSaved={onSaved} timeZone={timeZone} />
+                  ) : (
+                    <UploadReport row={r} timeZone={timeZone} siteId={siteId} />
+                  )}
+                </td>
+              </tr>
+            )}
+          </Fragment>
+        ))}
+      </GridTable>
     </div>
   );
 }

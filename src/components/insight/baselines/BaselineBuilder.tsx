@@ -6,6 +6,7 @@ import DriftSettingsForm from './DriftSettingsForm';
 import type { BaselineTerm } from './types';
 import { useBaselineFit } from './useBaselineFit';
 import { spanText } from '~/lib/views/baseline-fit-text';
+import { submitTo } from '~/components/ui/Field';
 
 export type { UnitChoice };
 
@@ -31,10 +32,7 @@ export default function BaselineBuilder({ units, initialUnitId, initialFrom = nu
     <div className="space-y-6">
       <form
         className="card space-y-4"
-        onSubmit={(e) => {
-          e.preventDefault();
-          void fit(terms);
-        }}
+        onSubmit={submitTo(() => void fit(terms))}
         aria-label="Fit a baseline"
       >
         <PeriodFields units={units} unitId={unitId} setUnitId={setUnitId} timeZone={unit?.timeZone ?? null} from={from} setFrom={setFrom} to={to} setTo={setTo} />

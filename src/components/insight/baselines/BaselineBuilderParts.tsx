@@ -2,6 +2,8 @@ import { StateMark } from '~/components/StateMark';
 import { BASELINE_LOOK, pct } from './looks';
 import { ALL_TERMS, TERM_LABELS, type BaselineSummary, type BaselineTerm } from './types';
 import { periodDaysText, toggledTerms } from '~/lib/views/baseline-fit-text';
+import { GridTable, num } from '~/components/ui/GridTable';
+import { Field, Options } from '~/components/ui/Field';
 
 export interface UnitChoice {
   id: string;
@@ -33,18 +35,11 @@ interface PeriodProps {
 export function PeriodFields({ units, unitId, setUnitId, timeZone, from, setFrom, to, setTo }: PeriodProps) {
   return (
     <div className="grid gap-4 sm:grid-cols-3">
-      <div>
-        <label className="label" htmlFor="b-unit">
-          Unit
-        </label>
+      <Field id="b-unit" label="Unit">
         <select id="b-unit" className="field" value={unitId} onChange={(e) => setUnitId(e.target.value)}>
-          {units.map((u) => (
-            <option key={u.id} value={u.id}>
-              {u.siteName} · {u.name}
-            </option>
-          ))}
+          <Options choices={units.map((u) => [u.id, <>{u.siteName} · {u.name}</>] as const)} />
         </select>
-      </div>
+      </Field>
       <div>
         <label className="label" htmlFor="b-from">
           First day {timeZone ? `(${timeZone})` : ''}
@@ -97,37 +92,25 @@ export function VersionsSection({ unitName, versions }: { unitName: string; vers
       ) : versions.length === 0 ? (
         <p className="text-sm text-ink-faint">No baseline yet for this unit.</p>
       ) : (
-        <table className="grid-table">
-          <thead>
-            <tr>
-              <th className="num">Version</th>
-              <th>Status</th>
-              <th>Period</th>
-              <th className="num">Hours</th>
-              <th className="num">CV(RMSE) destruction [%]</th>
-              <th>By</th>
-            </tr>
-          </thead>
-          <tbody>
-            {versions.map((v) => {
-              const look = BASELINE_LOOK[v.status]!;
-              return (
-                <tr key={v.id}>
-                  <td className="num">
-                    <a href={`/baselines/${v.id}`}>v{v.version}</a>
-                  </td>
-                  <td>
-                    <StateMark shape={look.shape} className={look.className} label={look.label} />
-                  </td>
-                  <td>{periodDaysText(v.periodFrom, v.periodTo, v.timeZone)}</td>
-                  <td className="num">{v.hours}</td>
-                  <td className="num">{pct(v.destruction.stats.cvRmse)}</td>
-                  <td>{v.createdBy ?? ''}</td>
-                </tr>
-              );
-            })}
-          </tbody>
-        </table>
+        <GridTable columns={[num('Version'), 'Status', 'Period', num('Hours'), num('CV(RMSE) destruction [%]'), 'By']}>
+          {versions.map((v) => {
+            const look = BASELINE_LOOK[v.status]!;
+            return (
+              <tr key={v.id}>
+                <td className="num">
+                  <a href={`/baselines/${v.id}`}>v{v.version}</a>
+                </td>
+                <td>
+                  <StateMark shape={look.shape} className={look.className} label={look.label} />
+                </td>
+                <td>{periodDaysText(v.periodFrom, v.periodTo, v.timeZone)}</td>
+                <td className="num">{v.hours}</td>
+                <td className="num">{pct(v.destruction.stats.cvRmse)}</td>
+                <td>{v.createdBy ?? ''}</td>
+              </tr>
+            );
+          })}
+        </GridTable>
       )}
     </section>
   );

@@ -4,6 +4,7 @@ import { coefficientsInDisplay, type Coefficients } from '~/lib/units/baseline-u
 import { siteWriter } from '~/lib/units/writer';
 import { BASELINE_TERM_WORDS } from '~/lib/words';
 import type { BaselineSummary } from './types';
+import { GridTable, num } from '~/components/ui/GridTable';
 
 export interface SiteDisplayProp {
   units: DisplayUnits;
@@ -38,18 +39,12 @@ export function BaselineCoefficients({ b, display }: { b: BaselineSummary; displ
   };
   const terms = (['intercept', 'load', 'T_amb', 'load^2', 'T_amb^2', 'load*T_amb'] as const).filter((t) => dest[t] !== undefined || (eff && eff[t] !== undefined));
   return (
-    <table className="grid-table mt-3 text-xs" data-testid="fit-coefficients">
-      <caption className="mb-1 text-left text-ink-soft">
-        Load in {load.unit}, ambient temperature (the hour's T0) in {T.unit}; three significant figures.
-      </caption>
-      <thead>
-        <tr>
-          <th>Term</th>
-          <th className="num">Destruction [{power.unit}]</th>
-          <th className="num">Efficiency [%]</th>
-        </tr>
-      </thead>
-      <tbody>
+    <GridTable
+      className="mt-3 text-xs"
+      testId="fit-coefficients"
+      caption={<>Load in {load.unit}, ambient temperature (the hour's T0) in {T.unit}; three significant figures.</>}
+      columns={['Term', num(<>Destruction [{power.unit}]</>), num('Efficiency [%]')]}
+    >
         {terms.map((t) => (
           <tr key={t}>
             <td>
@@ -60,7 +55,6 @@ export function BaselineCoefficients({ b, display }: { b: BaselineSummary; displ
             <td className="num">{eff ? significant(eff[t], 3, { ...w.style, none: '–' }) : '–'}</td>
           </tr>
         ))}
-      </tbody>
-    </table>
+    </GridTable>
   );
 }

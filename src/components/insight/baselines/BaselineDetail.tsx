@@ -9,6 +9,7 @@ import { periodDaysText } from '~/lib/views/baseline-fit-text';
 import { BASELINE_LOOK, CHECK_LOOK, atZ, pct, sig } from './looks';
 import { TERM_LABELS, type BaselineSummary, type FitView, type ModelSummary } from './types';
 import { BaselineCoefficients, baselineScales, type SiteDisplayProp } from './BaselineCoefficients';
+import { GridTable, num } from '~/components/ui/GridTable';
 
 /** The Guideline 14 criteria row of one model. */
 function CheckCell({ ok }: { ok: boolean }) {
@@ -25,49 +26,35 @@ function StatsTable({ b, display }: { b: BaselineSummary; display?: SiteDisplayP
   const { w } = baselineScales(b, display);
   const pu = w.unit('power');
   return (
-    <table className="grid-table" data-testid="fit-stats">
-      <thead>
-        <tr>
-          <th>Model</th>
-          <th className="num">Hours</th>
-          <th className="num">Mean</th>
-          <th className="num">s</th>
-          <th className="num">R² [-]</th>
-          <th className="num">CV(RMSE) [%]</th>
-          <th className="num">NMBE [%]</th>
-          <th>Guideline 14, hourly</th>
-        </tr>
-      </thead>
-      <tbody>
-        {rows.map(([name, m, unit]) =>
-          m ? (
-            <tr key={name} data-testid={`stats-${unit === 'kW' ? 'destruction' : 'efficiency'}`}>
-              <td>{name}</td>
-              <td className="num">{m.stats.n}</td>
-              <td className="num">{unit === 'kW' ? `${w.value(m.stats.ybar, 'power')} ${pu}` : sig(m.stats.ybar, 3)}</td>
-              <td className="num">{unit === 'kW' ? `${w.delta(m.stats.s, 'power')} ${pu}` : sig(m.stats.s, 3)}</td>
-              <td className="num">{sig(m.stats.r2, 3)}</td>
-              <td className="num">
-                {pct(m.stats.cvRmse)} <span className="text-ink-faint">/ ≤ {pct(m.guideline14.cvRmseMax)}</span>
-              </td>
-              <td className="num">
-                {pct(m.stats.nmbe)} <span className="text-ink-faint">/ ± {pct(m.guideline14.nmbeMax)}</span>
-              </td>
-              <td>
-                <CheckCell ok={m.guideline14.meets} />
-              </td>
-            </tr>
-          ) : (
-            <tr key={name}>
-              <td>{name}</td>
-              <td colSpan={7} className="text-ink-faint">
-                No efficiency for this unit (no product exergy in its steady hours).
-              </td>
-            </tr>
-          ),
-        )}
-      </tbody>
-    </table>
+    <GridTable testId="fit-stats" columns={['Model', num('Hours'), num('Mean'), num('s'), num('R² [-]'), num('CV(RMSE) [%]'), num('NMBE [%]'), 'Guideline 14, hourly']}>
+      {rows.map(([name, m, unit]) =>
+        m ? (
+          <tr key={name} data-testid={`stats-${unit === 'kW' ? 'destruction' : 'efficiency'}`}>
+            <td>{name}</td>
+            <td className="num">{m.stats.n}</td>
+            <td className="num">{unit === 'kW' ? `${w.value(m.stats.ybar, 'power')} ${pu}` : sig(m.stats.ybar, 3)}</td>
+            <td className="num">{unit === 'kW' ? `${w.delta(m.stats.s, 'power')} ${pu}` : sig(m.stats.s, 3)}</td>
+            <td className="num">{sig(m.stats.r2, 3)}</td>
+            <td className="num">
+              {pct(m.stats.cvRmse)} <span className="text-ink-faint">/ ≤ {pct(m.guideline14.cvRmseMax)}</span>
+            </td>
+            <td className="num">
+              {pct(m.stats.nmbe)} <span className="text-ink-faint">/ ± {pct(m.guideline14.nmbeMax)}</span>
+            </td>
+            <td>
+              <CheckCell ok={m.guideline14.meets} />
+            </td>
+          </tr>
+        ) : (
+          <tr key={name}>
+            <td>{name}</td>
+            <td colSpan={7} className="text-ink-faint">
+              No efficiency for this unit (no product exergy in its steady hours).
+            </td>
+          </tr>
+        ),
+      )}
+    </GridTable>
   );
 }
 

@@ -1,6 +1,6 @@
-import { useEffect, useState } from 'react';
 import { Notice } from '~/components/plant/common';
-import { call, messageOf, type Message } from '~/components/api';
+import { Field } from '~/components/ui/Field';
+import { useUnitSetting } from '../useUnitSetting';
 
 interface Settings {
   k: number;
@@ -9,44 +9,18 @@ interface Settings {
   updatedAt: string | null;
 }
 
+const decimal = (text: string) => Number(text.replace(',', '.'));
+
 /** A unit's CUSUM k and h; energy leads and admins change them, everyone reads them. */
 export default function DriftSettingsForm({ unitId, canEdit }: { unitId: string; canEdit: boolean }) {
-  const [settings, setSettings] = useState<Settings | null>(null);
-  const [k, setK] = useState('');
-  const [h, setH] = useState('');
-  const [message, setMessage] = useState<Message>(null);
-  const [busy, setBusy] = useState(false);
-
-  useEffect(() => {
-    let live = true;
-    setSettings(null);
-    call<{ settings: Settings }>(`/api/units/${unitId}/drift-settings`)
-      .then(({ settings }) => {
-        if (!live) return;
-        setSettings(settings);
-        setK(String(settings.k));
-        setH(String(settings.h));
-      })
-      .catch((e) => live && setMessage(messageOf(e)));
-    return () => {
-      live = false;
-    };
-  }, [unitId]);
-
-  async function save(e: React.FormEvent) {
-    e.preventDefault();
-    setBusy(true);
-    setMessage(null);
-    try {
-      const out = await call<{ settings: Settings }>(`/api/units/${unitId}/drift-settings`, 'PUT', { k: Number(k.replace(',', '.')), h: Number(h.replace(',', '.')) });
-      setSettings(out.settings);
-      setMessage({ ok: true, text: 'Saved. The unit’s drift check runs again over all its hours since the baseline.' });
-    } catch (err) {
-      setMessage(messageOf(err));
-    } finally {
-      setBusy(false);
-    }
-  }
+  const { value: settings, fields, setField, message, busy, save } = useUnitSetting<Settings, { k: string; h: string }>({
+    url: `/api/units/${unitId}/drift-settings`,
+    key: 'settings',
+    empty: { k: '', h: '' },
+    toFields: (s) => ({ k: String(s.k), h: String(s.h) }),
+    toBody: (f) => ({ k: decimal(f.k), h: decimal(f.h) }),
+    saved: 'Saved. The unit’s drift check runs again over all its hours since the baseline.',
+  });
 
   return (
     <section className="card" aria-label="Drift settings">
@@ -61,18 +35,12 @@ export default function DriftSettingsForm({ unitId, canEdit }: { unitId: string;
         <p className="text-sm text-ink-faint">Loading…</p>
       ) : (
         <form className="flex flex-wrap items-end gap-3" onSubmit={save}>
-          <div>
-            <label className="label" htmlFor={`k-${unitId}`}>
-              Allowance k [σ]
-            </label>
-            <input id={`k-${unitId}`} className="field w-24 text-right" inputMode="decimal" value={k} onChange={(e) => setK(e.target.value)} disabled={!canEdit} />
-          </div>
-          <div>
-            <label className="label" htmlFor={`h-${unitId}`}>
-              Decision limit h [σ]
-            </label>
-            <input id={`h-${unitId}`} className="field w-24 text-right" inputMode="decimal" value={h} onChange={(e) => setH(e.target.value)} disabled={!canEdit} />
-          </div>
+          <Field id={`k-${unitId}`} label="Allowance k [σ]">
+            <input id={`k-${unitId}`} className="field w-24 text-right" inputMode="decimal" value={fields.k} onChange={(e) => setField('k')(e.target.value)} disabled={!canEdit} />
+          </Field>
+          <Field id={`h-${unitId}`} label="Decision limit h [σ]">
+            <input id={`h-${unitId}`} className="field w-24 text-right" inputMode="decimal" value={fields.h} onChange={(e) => setField('h')(e.target.value)} disabled={!canEdit} />
+          </Field>
           {canEdit && (
             <button type="submit" className="btn" disabled={busy}>
               Save drift settings

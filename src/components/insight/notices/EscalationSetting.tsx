@@ -1,5 +1,6 @@
 import { useEffect, useState } from 'react';
 import { Notice } from '~/components/plant/common';
+import { Options } from '~/components/ui/Field';
 import { call, messageOf, type Message } from '~/components/api';
 
 interface Settings {
@@ -44,11 +45,7 @@ export default function EscalationSetting({ sites }: { sites: { id: string; name
         <label className="flex flex-col gap-1">
           <span className="label">Site</span>
           <select className="field" value={siteId} onChange={(e) => setSiteId(e.target.value)}>
-            {sites.map((s) => (
-              <option key={s.id} value={s.id}>
-                {s.name}
-              </option>
-            ))}
+            <Options choices={sites.map((s) => [s.id, s.name] as const)} />
           </select>
         </label>
         <label className="flex flex-col gap-1">

@@ -5,6 +5,7 @@ import { call, messageOf, type Message as Msg } from '~/components/api';
 import { at, atZ } from '../baselines/looks';
 import { LIFE_LOOK, NOTICE_LOOK, TREND_LOOK, noticeFigures, type Notice } from './looks';
 import { noticeQuery, siteChoices, unitChoices, type ListFilter, type NoticeSort, type StatusFilter } from '~/lib/views/notice-filter';
+import { GridTable, num } from '~/components/ui/GridTable';
 
 export type { ListFilter };
 
@@ -97,26 +98,11 @@ function NoticeRow({ n }: { n: Notice }) {
 function NoticeTable({ notices }: { notices: Notice[] }) {
   return (
     <div className="overflow-x-auto">
-      <table className="grid-table" data-testid="notice-list">
-        <thead>
-          <tr>
-            <th>Status</th>
-            <th>Kind</th>
-            <th>Unit</th>
-            <th>Site</th>
-            <th>Since</th>
-            <th className="num">Extra destruction now (drift) or destruction</th>
-            <th className="num">Cost per day now (last 24 steady hours)</th>
-            <th>Shift</th>
-            <th>Beyond uncertainty</th>
-          </tr>
-        </thead>
-        <tbody>
-          {notices.map((n) => (
-            <NoticeRow key={n.id} n={n} />
-          ))}
-        </tbody>
-      </table>
+      <GridTable testId="notice-list" columns={['Status', 'Kind', 'Unit', 'Site', 'Since', num('Extra destruction now (drift) or destruction'), num('Cost per day now (last 24 steady hours)'), 'Shift', 'Beyond uncertainty']}>
+        {notices.map((n) => (
+          <NoticeRow key={n.id} n={n} />
+        ))}
+      </GridTable>
     </div>
   );
 }

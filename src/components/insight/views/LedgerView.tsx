@@ -9,6 +9,7 @@ import { FlowPicture } from './FlowPicture';
 import FreshnessNote from './FreshnessNote';
 import { LedgerSection } from './LedgerTable';
 import { useLedger } from './useLedger';
+import { Field, Options } from '~/components/ui/Field';
 import { PeriodPicker, periodFromSearch, syncSearch, type PeriodInfo, type PeriodValue } from './PeriodPicker';
 
 type LedgerSite = { id: string; name: string; timeZone: string; currency: string };
@@ -17,18 +18,11 @@ type LedgerSite = { id: string; name: string; timeZone: string; currency: string
 function SiteAndPeriod({ sites, siteId, onSite, value, info, onPeriod }: { sites: LedgerSite[]; siteId: string; onSite: (id: string) => void; value: PeriodValue; info: PeriodInfo | null; onPeriod: (v: PeriodValue) => void }) {
   return (
     <div className="flex flex-wrap items-end gap-4">
-      <div>
-        <label className="label" htmlFor="ledger-site">
-          Site
-        </label>
+      <Field id="ledger-site" label="Site">
         <select id="ledger-site" className="field" value={siteId} onChange={(e) => onSite(e.target.value)}>
-          {sites.map((s) => (
-            <option key={s.id} value={s.id}>
-              {s.name}
-            </option>
-          ))}
+          <Options choices={sites.map((s) => [s.id, s.name] as const)} />
         </select>
-      </div>
+      </Field>
       <div className="flex-1">
         <PeriodPicker value={value} info={info} onChange={onPeriod} />
       </div>

@@ -2,6 +2,7 @@ import { useEffect, useState } from 'react';
 
 import type { Period, PeriodChoice, Range } from '~/lib/views/period';
 import { pickRange, stepPeriod, type PeriodValue } from '~/lib/views/period-step';
+import { submitTo } from '~/components/ui/Field';
 
 export type { Range, PeriodValue };
 /** What the server answered for the period (src/lib/views/period.ts). */
@@ -117,10 +118,7 @@ function CustomDays({ from, to, setFrom, setTo, onShow }: { from: string; to: st
   return (
     <form
       className="flex items-end gap-2"
-      onSubmit={(e) => {
-        e.preventDefault();
-        onShow();
-      }}
+      onSubmit={submitTo(onShow)}
     >
       <DayField id="period-from" label="From (first day)" value={from} onChange={setFrom} />
       <DayField id="period-to" label="To (last day)" value={to} onChange={setTo} />

@@ -50,6 +50,20 @@ export function StatePatterns({ prefix }: { prefix: string }) {
   );
 }
 
+/** The text of the charts' axes: their ticks and labels. */
+const AXIS_TEXT = { fontSize: 11, fill: COLORS.soft };
+
+/** A numeric axis on nice ticks (niceTicks; recharts picks its own when there are none). */
+const valueAxis = (a: ReturnType<typeof niceTicks>) => ({ domain: a?.domain ?? ['auto', 'auto'], ticks: a?.ticks, tick: AXIS_TEXT });
+
+/** The value axis's label of a chart of efficiency or destruction (in the site's power unit). */
+const yLabel = (kind: Kind, powerUnit: string) => ({
+  value: kind === 'efficiency' ? 'Efficiency [%]' : `Destruction [${powerUnit}]`,
+  angle: -90,
+  position: 'insideLeft' as const,
+  style: { ...AXIS_TEXT, textAnchor: 'middle' as const },
+});
+
 const shade = (prefix: string, state: ContextSpan['state']) =>
   function ShadeShape(props: { x?: number; y?: number; width?: number; height?: number }) {
     const { x = 0, y = 0, width = 0, height = 0 } = props;
@@ -158,16 +172,14 @@ export function TimeChart({ kind, points, context, notices, fromMs, toMs, timeZo
             domain={[fromMs, toMs]}
             ticks={ticks}
             tickFormatter={(t: number) => siteStamp(t, timeZone, pattern)}
-            tick={{ fontSize: 11, fill: COLORS.soft }}
+            tick={AXIS_TEXT}
             allowDataOverflow
           />
           <YAxis
-            tick={{ fontSize: 11, fill: COLORS.soft }}
+            {...valueAxis(yAxis)}
             width={56}
-            domain={yAxis?.domain ?? ['auto', 'auto']}
-            ticks={yAxis?.ticks}
             allowDataOverflow
-            label={{ value: kind === 'efficiency' ? 'Efficiency [%]' : `Destruction [${pu.unit}]`, angle: -90, position: 'insideLeft', style: { fontSize: 11, fill: COLORS.soft, textAnchor: 'middle' } }}
+            label={yLabel(kind, pu.unit)}
           />
           {context.map((c) => (
             <ReferenceArea key={`${c.state}-${c.fromMs}`} x1={Math.max(c.fromMs, fromMs)} x2={Math.min(c.toMs, toMs)} ifOverflow="hidden" shape={shade(prefix, c.state)} />
@@ -256,21 +268,17 @@ export function LoadScatter({ kind, scatter, curve, loadUnit, timeZone, writer }
           <XAxis
             dataKey="x"
             type="number"
-            domain={xAxis?.domain ?? ['auto', 'auto']}
-            ticks={xAxis?.ticks}
-            tick={{ fontSize: 11, fill: COLORS.soft }}
+            {...valueAxis(xAxis)}
             tickFormatter={(v: number) => significant(v, 3)}
-            label={{ value: ax.label, position: 'insideBottom', offset: -10, style: { fontSize: 11, fill: COLORS.soft } }}
+            label={{ value: ax.label, position: 'insideBottom', offset: -10, style: AXIS_TEXT }}
             allowDuplicatedCategory={false}
           />
           <YAxis
             dataKey="y"
             type="number"
-            domain={yAxis?.domain ?? ['auto', 'auto']}
-            ticks={yAxis?.ticks}
-            tick={{ fontSize: 11, fill: COLORS.soft }}
+            {...valueAxis(yAxis)}
             width={56}
-            label={{ value: kind === 'efficiency' ? 'Efficiency [%]' : `Destruction [${pu.unit}]`, angle: -90, position: 'insideLeft', style: { fontSize: 11, fill: COLORS.soft, textAnchor: 'middle' } }}
+            label={yLabel(kind, pu.unit)}
           />
           {cur.length > 0 && <Area data={cur} dataKey="band" type="monotone" stroke="none" fill={kind === 'efficiency' ? COLORS.tealPale : COLORS.copperPale} isAnimationActive={false} />}
           {cur.length > 0 && <Line data={cur} dataKey="y" type="monotone" stroke={COLORS.ink} strokeDasharray="5 4" dot={false} isAnimationActive={false} />}

@@ -16,34 +16,25 @@ export function TrendTooltip({ active, payload, kind, timeZone, bucket, loadUnit
   const when = `${bucket === 'hour' ? `${siteTime(p.t, timeZone)}–${siteTime(p.t + HOUR_MS, timeZone, 'HH:mm')}` : siteTime(p.t, timeZone, 'EEE d MMM yyyy')} (${timeZone})`;
   const states = (Object.keys(p.states) as HourState[]).filter((s) => p.states[s] > 0);
   const e = p.expected;
+  // The figure shown, measured and expected: efficiency or destruction.
+  const fig =
+    kind === 'efficiency'
+      ? { name: 'Efficiency', value: pct(p.efficiency, p.efficiency_U), expected: e && e.efficiency !== null ? [pct(e.efficiency), pct(e.efficiencyLo), pct(e.efficiencyHi)] : null }
+      : { name: 'Destruction', value: power(p.destruction_W, p.destruction_U_W), expected: e && e.destruction_W !== null ? [power(e.destruction_W), power(e.destructionLo_W), power(e.destructionHi_W)] : null };
   return (
     <div className="rounded border border-paper-edge bg-white px-3 py-2 text-xs shadow" data-testid="trend-tooltip">
       <p className="font-semibold">{when}</p>
       <div className="mt-1 flex flex-wrap gap-2">
         {states.length === 0 ? <span className="text-ink-faint">no unit hour</span> : states.map((s) => <HourStateMark key={s} state={s} count={bucket === 'day' ? p.states[s] : undefined} />)}
       </div>
-      {kind === 'efficiency' ? (
-        <>
-          <p className="mt-1">
-            Efficiency{bucket === 'day' ? ' (mean of steady hours)' : ''}: <b>{pct(p.efficiency, p.efficiency_U)}</b>
-          </p>
-          {e && e.efficiency !== null && (
-            <p>
-              Expected: {pct(e.efficiency)} (band {pct(e.efficiencyLo)} to {pct(e.efficiencyHi)}, k = 2)
-            </p>
-          )}
-        </>
-      ) : (
-        <>
-          <p className="mt-1">
-            Destruction{bucket === 'day' ? ' (mean of steady hours)' : ''}: <b>{power(p.destruction_W, p.destruction_U_W)}</b>
-          </p>
-          {e && e.destruction_W !== null && (
-            <p>
-              Expected: {power(e.destruction_W)} (band {power(e.destructionLo_W)} to {power(e.destructionHi_W)}, k = 2)
-            </p>
-          )}
-        </>
+      <p className="mt-1">
+        {fig.name}
+        {bucket === 'day' ? ' (mean of steady hours)' : ''}: <b>{fig.value}</b>
+      </p>
+      {fig.expected && (
+        <p>
+          Expected: {fig.expected[0]} (band {fig.expected[1]} to {fig.expected[2]}, k = 2)
+        </p>
       )}
       {p.load !== null && <p>Load: {showLoad(p.load, loadUnit, w)}</p>}
       {p.T0_K !== null && <p>T0: {w.withU(p.T0_K, null, 'temperature', 1)}</p>}

@@ -13,6 +13,7 @@ import { useTrend } from './useTrend';
 import { PeriodPicker } from './PeriodPicker';
 import { LoadScatter, TimeChart, TrendLegend } from './TrendCharts';
 import type { TrendAnswer } from '~/lib/views/trend';
+import { GridTable, num } from '~/components/ui/GridTable';
 
 function BaselineName({ b }: { b: TrendAnswer['baseline'] }) {
   return (
@@ -131,30 +132,19 @@ function TrendNotices({ data, w }: { data: TrendAnswer; w: SiteWriter }) {
       {data.notices.length === 0 ? (
         <p className="text-sm text-ink-faint">None.</p>
       ) : (
-        <table className="grid-table mt-2">
-          <thead>
-            <tr>
-              <th>Onset ({data.site.timeZone})</th>
-              <th>Shift</th>
-              <th>Status</th>
-              <th className="num">Extra destruction [{unitP}]</th>
-              <th className="num">Extra cost at signal, onset to signal hours [{data.site.currency}/day]</th>
+        <GridTable className="mt-2" columns={[<>Onset ({data.site.timeZone})</>, 'Shift', 'Status', num(<>Extra destruction [{unitP}]</>), num(<>Extra cost at signal, onset to signal hours [{data.site.currency}/day]</>)]}>
+          {data.notices.map((n) => (
+            <tr key={n.id}>
+              <td>
+                <a href={`/notices/${n.id}`}>{siteTime(n.onsetMs, data.site.timeZone)}</a>
+              </td>
+              <td>{n.direction === 'up' ? 'more destruction than expected' : 'less destruction than expected'}</td>
+              <td>{NOTICE_STATUS_WORDS[n.status as NoticeStatus]?.label ?? 'other'}</td>
+              <td className="num">{power(n.extra_W, n.shiftU_W).split(` ${unitP}`).join('')}</td>
+              <td className="num">{w.number(n.extraCost_per_day, 0)}</td>
             </tr>
-          </thead>
-          <tbody>
-            {data.notices.map((n) => (
-              <tr key={n.id}>
-                <td>
-                  <a href={`/notices/${n.id}`}>{siteTime(n.onsetMs, data.site.timeZone)}</a>
-                </td>
-                <td>{n.direction === 'up' ? 'more destruction than expected' : 'less destruction than expected'}</td>
-                <td>{NOTICE_STATUS_WORDS[n.status as NoticeStatus]?.label ?? 'other'}</td>
-                <td className="num">{power(n.extra_W, n.shiftU_W).split(` ${unitP}`).join('')}</td>
-                <td className="num">{w.number(n.extraCost_per_day, 0)}</td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
+          ))}
+        </GridTable>
       )}
       <div className="mt-3">
         <ViewsCaution />

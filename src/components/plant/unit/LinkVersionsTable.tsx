@@ -2,6 +2,7 @@ import type { ReactNode } from 'react';
 import { LINK_QUANTITIES } from '~/lib/plant/kinds';
 import type { LinkVersionAnswer } from '~/lib/plant/link-version';
 import { showInstant } from '../common';
+import { GridTable } from '~/components/ui/GridTable';
 
 type Link = LinkVersionAnswer;
 
@@ -74,15 +75,7 @@ export default function LinkVersionsTable({ links, timeZone, actions = null }: {
   const cols = columns(timeZone, actions);
   return (
     <div className={current ? 'overflow-x-auto' : 'mt-2 overflow-x-auto'}>
-      <table className="grid-table" data-testid={current ? 'links-table' : 'history-table'}>
-        <thead>
-          <tr>
-            {cols.map((c, i) => (
-              <th key={i}>{c.head}</th>
-            ))}
-          </tr>
-        </thead>
-        <tbody>
+      <GridTable testId={current ? 'links-table' : 'history-table'} columns={cols.map((c) => c.head)}>
           {links.map((l) => (
             <tr
               key={l.id}
@@ -96,8 +89,7 @@ export default function LinkVersionsTable({ links, timeZone, actions = null }: {
               ))}
             </tr>
           ))}
-        </tbody>
-      </table>
+      </GridTable>
     </div>
   );
 }

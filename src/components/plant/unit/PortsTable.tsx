@@ -3,6 +3,7 @@ import type { Fluid } from '~/lib/plant/model';
 import { showSI } from '../common';
 import type { UnitJson } from '../LinkForm';
 import { describeFluid } from './fluids';
+import { GridTable, ACTIONS } from '~/components/ui/GridTable';
 
 type Port = UnitJson['ports'][number];
 
@@ -16,39 +17,27 @@ export default function PortsTable({ unit, canEdit, onRemove }: { unit: UnitJson
   if (unit.ports.length === 0) return <p className="text-sm text-ink-faint">No port yet.</p>;
   return (
     <div className="overflow-x-auto">
-      <table className="grid-table" data-testid="ports-table">
-        <thead>
-          <tr>
-            <th>Port</th>
-            <th>Slot</th>
-            <th>Fluid / boundary</th>
-            <th>
-              <span className="sr-only">Actions</span>
-            </th>
-          </tr>
-        </thead>
-        <tbody>
-          {unit.ports.map((p) => {
-            const slot = spec.ports.find((s) => s.slot === p.slot);
-            return (
-              <tr key={p.id} data-testid={`port-${p.name}`}>
-                <td>{p.name}</td>
-                <td>
-                  {slot?.label ?? p.slot} ({slot?.role})
-                </td>
-                <td>{slot?.stream === 'heat' ? boundaryText(p) : describeFluid(p.fluid as Fluid | undefined)}</td>
-                <td className="text-right">
-                  {canEdit && (
-                    <button type="button" className="btn py-0.5 text-xs" aria-label={`Remove port ${p.name}`} onClick={() => onRemove(p)}>
-                      Remove
-                    </button>
-                  )}
-                </td>
-              </tr>
-            );
-          })}
-        </tbody>
-      </table>
+      <GridTable testId="ports-table" columns={['Port', 'Slot', 'Fluid / boundary', ACTIONS]}>
+        {unit.ports.map((p) => {
+          const slot = spec.ports.find((s) => s.slot === p.slot);
+          return (
+            <tr key={p.id} data-testid={`port-${p.name}`}>
+              <td>{p.name}</td>
+              <td>
+                {slot?.label ?? p.slot} ({slot?.role})
+              </td>
+              <td>{slot?.stream === 'heat' ? boundaryText(p) : describeFluid(p.fluid as Fluid | undefined)}</td>
+              <td className="text-right">
+                {canEdit && (
+                  <button type="button" className="btn py-0.5 text-xs" aria-label={`Remove port ${p.name}`} onClick={() => onRemove(p)}>
+                    Remove
+                  </button>
+                )}
+              </td>
+            </tr>
+          );
+        })}
+      </GridTable>
     </div>
   );
 }
