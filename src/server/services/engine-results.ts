@@ -34,8 +34,8 @@ export async function unitHeader(unitId: string | undefined) {
 }
 export type UnitHeader = Awaited<ReturnType<typeof unitHeader>>;
 
-/** The columns of a unit hour without its detail, as the API names them. */
-const LIST_COLUMNS = {
+/** The columns of a unit hour without its detail, as the API names them (the trend reads a few of them). */
+export const LIST_COLUMNS = {
   hourStart: unitHours.hourStart,
   state: unitHours.state,
   reasons: unitHours.reasons,

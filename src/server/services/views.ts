@@ -26,6 +26,7 @@ import { AppError } from '../errors';
 import { expectedBand, openNoticeCount, siteNotices } from './views-insight';
 import { getSite, unitWithSite } from './plant-site-model';
 import { cachedHours } from '../hours-cache';
+import { LIST_COLUMNS } from './engine-results';
 
 export type { TrendAnswer } from '~/lib/views/trend';
 export type { FlowAnswer, LedgerAnswer, LedgerRow, OverviewSite } from '~/lib/views/ledger';
@@ -110,6 +111,11 @@ async function trendParts(unitId: string, q: PeriodQuery, nowMs?: number) {
   return { unit, site, period, opened, now, body };
 }
 
+/** The columns of the unit-hour list a trend reads. */
+const TREND_COLUMNS = (({ hourStart, state, reasons, load, loadUnit, T0_K, efficiency, efficiency_U, destruction_W, destruction_U_W }) => ({
+  hourStart, state, reasons, load, loadUnit, T0_K, efficiency, efficiency_U, destruction_W, destruction_U_W,
+}))(LIST_COLUMNS);
+
 async function trendBody(
   unit: typeof plantUnits.$inferSelect,
   site: typeof sites.$inferSelect,
@@ -117,18 +123,7 @@ async function trendBody(
 ): Promise<Omit<TrendAnswer, 'opened' | 'freshness'>> {
   const unitId = unit.id;
   const rows = await db()
-    .select({
-      hourStart: unitHours.hourStart,
-      state: unitHours.state,
-      reasons: unitHours.reasons,
-      load: unitHours.load,
-      loadUnit: unitHours.loadUnit,
-      T0_K: unitHours.T0_K,
-      efficiency: unitHours.efficiency,
-      efficiency_U: unitHours.efficiency_U,
-      destruction_W: unitHours.destruction_W,
-      destruction_U_W: unitHours.destruction_U_W,
-    })
+    .select(TREND_COLUMNS)
     .from(unitHours)
     .where(and(eq(unitHours.unitId, unitId), gte(unitHours.hourStart, new Date(period.fromMs)), lt(unitHours.hourStart, new Date(period.toMs))))
     .orderBy(asc(unitHours.hourStart));
