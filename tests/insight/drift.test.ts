@@ -258,6 +258,31 @@ describeIntegration('drift check: CUSUM on residuals through the service, saved 
     expect(mail.text).toContain('licensed engineers');
   });
 
+  it('a notice of less destruction is mailed to the energy leads only: no maintenance work, the baseline is the lead\'s to judge', async () => {
+    const u = await makeUnit('less');
+    // The hand-worked series mirrored: the lower sum C- crosses h at step 8 (a downward signal).
+    await addHours(u.unitId, 1, R.map((r) => -r));
+    const runs = await checkDrift({ siteId: u.siteId, fromMs: after0, toMs: hourOf(10).getTime() + HOUR });
+    const opened = runs.flatMap((x) => x.opened);
+    expect(opened).toHaveLength(1);
+    const [n] = await notices(u.unitId);
+    expect(n!.direction).toBe('down');
+
+    const leads = await db().select({ id: user.id }).from(user).where(and(eq(user.role, 'energy-lead'), eq(user.deactivated, false)));
+    const planners = await db().select({ id: user.id }).from(user).where(and(eq(user.role, 'planner'), eq(user.deactivated, false)));
+    expect(leads.length).toBeGreaterThan(0);
+    expect(planners.length).toBeGreaterThan(0);
+    const marks = await db().select({ userId: noticeMails.userId }).from(noticeMails).where(eq(noticeMails.noticeId, opened[0]!));
+    expect(marks.map((m) => m.userId).sort()).toEqual(leads.map((l) => l.id).sort());
+
+    await waitForMail('lead@demo.lossline.test', u.unitName);
+    await mailQueueDrained();
+    await new Promise((r) => setTimeout(r, 500));
+    const mine = (await caughtMail()).filter((m) => m.subject.includes(u.unitName));
+    expect(mine.filter((m) => m.to.includes('lead@demo.lossline.test'))).toHaveLength(1);
+    expect(mine.filter((m) => m.to.includes('planner@demo.lossline.test'))).toHaveLength(0);
+  });
+
   it('new k and h drop the saved state and queue a check of all hours', async () => {
     const u = await makeUnit('settings');
     await addHours(u.unitId, 1, R.slice(0, 6));

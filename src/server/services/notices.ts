@@ -7,7 +7,7 @@
  * per person (notice_preferences, notice_digests).
  */
 import { personMayUseSite, siteScopeFor } from '../access';
-import { and, asc, eq, inArray, ne, sql } from 'drizzle-orm';
+import { and, asc, eq, inArray, ne } from 'drizzle-orm';
 import { z } from 'zod';
 import { QUEUES, sendJob, type SendMailPayload } from '~/jobs';
 type MailJob = z.infer<typeof SendMailPayload>;
@@ -46,8 +46,20 @@ import { getNotice, listNotices, noticeQueryOn, toView } from './notice-read';
 import { oneWithDisplay, withDisplay } from './notice-display';
 
 
-/** Who receives a notice's opening mail. */
+/** Who receives a notice's opening mail: planners and energy leads (docs/notices.md, "E-mail"). */
 export const NOTICE_RECIPIENT_ROLES: readonly Role[] = ['planner', 'energy-lead'];
+/**
+ * Who receives the opening mail of a notice of LESS destruction than expected: the energy leads
+ * only. Less destruction is no work for maintenance; it says the baseline no longer describes the
+ * unit (a better operation, a repair, or an instrument that has drifted), which is the energy
+ * lead's to judge. Planners still see the notice in the list.
+ */
+export const LESS_DESTRUCTION_RECIPIENT_ROLES: readonly Role[] = ['energy-lead'];
+
+/** The roles a notice's mails go to, by its direction. */
+export function noticeRecipientRoles(direction: 'up' | 'down'): readonly Role[] {
+  return direction === 'down' ? LESS_DESTRUCTION_RECIPIENT_ROLES : NOTICE_RECIPIENT_ROLES;
+}
 /** Who may acknowledge and close notices, and opt in to the digest. */
 export const NOTICE_ACTORS: readonly Role[] = ['admin', 'energy-lead', 'planner'];
 
@@ -205,12 +217,17 @@ export async function closeNotice(noticeId: string, userId: string, comment: str
 
 // ---- mail (the texts are in ./notice-mail.ts) -----------------------------------------------------
 
-/** Active planners and energy leads who may use the notice's site, by address. */
-function noticeRecipients(tx: Tx, noticeId: string) {
+/**
+ * Active people of the notice's recipient roles (noticeRecipientRoles: planners and energy leads, or
+ * energy leads only for less destruction) who may use the notice's site, by address.
+ */
+async function noticeRecipients(tx: Tx, noticeId: string) {
+  const [n] = await tx.select({ siteId: driftNotices.siteId, direction: driftNotices.direction }).from(driftNotices).where(eq(driftNotices.id, noticeId));
+  if (!n) return [];
   return tx
     .select({ id: user.id, email: user.email })
     .from(user)
-    .where(and(inArray(user.role, [...NOTICE_RECIPIENT_ROLES]), eq(user.deactivated, false), personMayUseSite(sql`(select ${driftNotices.siteId} from ${driftNotices} where ${driftNotices.id} = ${noticeId})`)))
+    .where(and(inArray(user.role, [...noticeRecipientRoles(n.direction)]), eq(user.deactivated, false), personMayUseSite(n.siteId)))
     .orderBy(asc(user.email));
 }
 

@@ -151,7 +151,7 @@ function SeenForm({ busy, onSeen }: { busy: boolean; onSeen: (body: Record<strin
 function NoticeHistory({ n }: { n: Notice }) {
   return (
     <ul className="space-y-1 text-sm" data-testid="notice-history">
-      <li>Opened {atZ(n.openedAt, n.timeZone)}; e-mailed to the maintenance planners and energy leads.</li>
+      <li>Opened {atZ(n.openedAt, n.timeZone)}; e-mailed to {n.direction === 'down' ? 'the energy leads (less destruction is theirs to judge)' : 'the maintenance planners and energy leads'}.</li>
       {n.escalationStep > 0 && <li>E-mailed again {n.escalationStep === 1 ? 'once' : `${n.escalationStep} times`} as its cost per day grew.</li>}
       {n.acknowledgedAt && (
         <li>
