@@ -233,6 +233,9 @@ describe('combustion balance', () => {
     expect(() => combustionFromO2(f, { O2_fraction: 0.2094, basis: 'dry' })).toThrow(ThermoRangeError);
     expect(() => combustionAtLambda(f, 0.9)).toThrow(ThermoRangeError);
     expect(() => gaseousFuel({ N2: 0.5, CO2: 0.5 })).toThrow(ThermoRangeError);
+    // Nothing to oxidise: the stoichiometric O2 demand C + H/4 + S - O/2 is zero (water: H/4 = O/2).
+    expect(() => gaseousFuel({ N2: 0.5, CO2: 0.5 }, 'flue gas')).toThrow(/flue gas does not burn/);
+    expect(() => condensedFuel({ C: 0, H: 0, moisture: 0.5, ash: 0.5 }, 1e6, 'wet ash')).toThrow(/wet ash does not burn/);
     expect(() => condensedFuel({ C: 0.8, H: 0.1 }, 40e6)).toThrow(ThermoRangeError);
     expect(() => combustionAtLambda(f, 1.1, { H2O_mol_per_molDryAir: 0.01, humidityRatio_kg_per_kg: 0.01 })).toThrow(ThermoRangeError);
   });

@@ -97,8 +97,11 @@ function emptyAtoms(): Record<Element, number> {
   return { C: 0, H: 0, O: 0, N: 0, S: 0, Ar: 0 };
 }
 
-function o2Demand(atoms: Record<Element, number>): number {
-  return atoms.C + atoms.H / 4 + atoms.S - atoms.O / 2;
+/** Stoichiometric O2 demand [mol per kg of fuel]; refuses a fuel that needs none (it does not burn). */
+function o2Demand(atoms: Record<Element, number>, label: string): number {
+  const O2min = atoms.C + atoms.H / 4 + atoms.S - atoms.O / 2;
+  if (!(O2min > 0)) throw new ThermoRangeError('stoichiometric O2 demand', O2min, '> 0 mol/kg', `${label} does not burn`);
+  return O2min;
 }
 
 /**
@@ -157,8 +160,7 @@ export function gaseousFuel(moleFractions: Composition, label = 'fuel gas'): Fue
   }
   const atoms = emptyAtoms();
   for (const el of ELEMENTS) atoms[el] = perMol[el] / M;
-  const O2min = o2Demand(atoms);
-  if (!(O2min > 0)) throw new ThermoRangeError('stoichiometric O2 demand', O2min, '> 0 mol/kg', `${label} does not burn`);
+  const O2min = o2Demand(atoms, label);
   return Object.freeze({
     label,
     phase: 'gas' as const,
@@ -193,8 +195,7 @@ export function condensedFuel(ultimate: UltimateAnalysis, LHV_J_per_kg: number, 
   atoms.O = (u.O ?? 0) / ATOMIC_MASS_kg_per_mol.O + (u.moisture ?? 0) / MH2O;
   atoms.N = (u.N ?? 0) / ATOMIC_MASS_kg_per_mol.N;
   atoms.S = (u.S ?? 0) / ATOMIC_MASS_kg_per_mol.S;
-  const O2min = o2Demand(atoms);
-  if (!(O2min > 0)) throw new ThermoRangeError('stoichiometric O2 demand', O2min, '> 0 mol/kg', `${label} does not burn`);
+  const O2min = o2Demand(atoms, label);
   return Object.freeze({
     label,
     phase: 'condensed' as const,
