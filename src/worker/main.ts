@@ -9,6 +9,7 @@ import { closeDb } from '../server/db/client';
 import { sendMail } from '../server/mail';
 import { queue, stopQueue } from '../server/queue';
 import { resumeInterruptedUploads, sweepSeconds } from '../server/services/ingest';
+import { stopReaderThreads, warmReaderThread } from '../server/services/ingest-thread-pool';
 import { registerHandlers } from './handlers';
 import { wakeOnIngestNotify } from './ingest-wake';
 
@@ -21,6 +22,9 @@ const { ingestWorker } = await registerHandlers(boss);
 const stopWakeUps = wakeOnIngestNotify(boss, ingestWorker);
 const resumed = await resumeInterruptedUploads();
 if (resumed) console.log(`[worker] queued ${resumed} upload(s) again that a stopped worker left half-read`);
+// The parse of a read runs on a thread of its own (ingest-thread-pool.ts): one is started now, so the
+// first upload does not wait for it to load.
+if (!(await warmReaderThread())) console.log('[worker] no reader thread: uploads are parsed on the main thread (INGEST_READ_THREADS)');
 console.log('[worker] ready');
 
 // A worker that dies while reading leaves its upload 'processing': every live worker looks for such
@@ -40,6 +44,7 @@ async function shutdown(signal: string) {
   console.log(`[worker] ${signal}: stopping`);
   await stopWakeUps();
   await stopQueue();
+  await stopReaderThreads();
   await closeDb();
   process.exit(0);
 }

@@ -29,6 +29,12 @@ export interface HourAggregatorOptions {
   maxGapSeconds?: number;
   /** Receives each finished tag hour. */
   onHour: (hour: TagHour) => void;
+  /**
+   * Instead of onHour: each finished hour written into `fields` in the packed layout of
+   * hour-pack.ts (SLOT), the tag slot left to the receiver. No object is made per hour (the
+   * reader's thread packs hours this way); `fields` is reused for the next hour.
+   */
+  onHourFields?: (tag: string, fields: Float64Array) => void;
 }
 
 export interface TagHour {

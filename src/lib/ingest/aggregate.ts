@@ -31,6 +31,7 @@ import { CellStatus } from './reader-types';
 import { DEFAULT_FLATLINE_LIMIT_s, type HourAggregator, type HourAggregatorOptions, type TagHour } from './aggregate-types';
 import { HourClock } from './time';
 import { IngestError } from './errors';
+import { HOUR_FIELDS, SLOT, methodCode } from './hour-pack';
 
 export type { TagOptions, HourAggregatorOptions, TagHour, HourAggregator } from './aggregate-types';
 
@@ -149,9 +150,12 @@ class Aggregator implements HourAggregator {
   private S = new Float64Array(16 * W);
   private readonly clock: HourClock;
   private readonly defaultGapS: number;
+  /** The packed hour handed to onHourFields, reused (null: hours go to onHour as objects). */
+  private readonly fields: Float64Array | null;
 
   constructor(private readonly options: HourAggregatorOptions) {
     this.clock = new HourClock(options.timeZone);
+    this.fields = options.onHourFields ? new Float64Array(HOUR_FIELDS) : null;
     this.defaultGapS = options.maxGapSeconds ?? 900;
     if (!(this.defaultGapS >= 0)) throw new IngestError('INVALID_OPTIONS', `maxGapSeconds must be 0 or more, got ${this.defaultGapS}.`);
   }
@@ -348,7 +352,12 @@ class Aggregator implements HourAggregator {
       const haveSamples = c > 0;
       const tag = this.names[b / W];
       if (tag === undefined) throw new IngestError('READER_FAULT', `The hour aggregator closed an hour of tag ${b / W}, which was never announced.`);
-      this.options.onHour({
+      const min = haveSamples ? S[b + MN]! : covered > 0 ? S[b + PMN]! : null;
+      const max = haveSamples ? S[b + MX]! : covered > 0 ? S[b + PMX]! : null;
+      if (this.fields) {
+        writeFields(this.fields, S, b, mean, method, std, min, max, haveSamples, covered, start, end);
+        this.options.onHourFields!(tag, this.fields);
+      } else this.options.onHour({
         tag,
         hourStartMs: start,
         hourEndMs: end,
@@ -356,8 +365,8 @@ class Aggregator implements HourAggregator {
         mean,
         meanMethod: method,
         stdDev: std,
-        min: haveSamples ? S[b + MN]! : covered > 0 ? S[b + PMN]! : null,
-        max: haveSamples ? S[b + MX]! : covered > 0 ? S[b + PMX]! : null,
+        min,
+        max,
         first: haveSamples ? S[b + F_V]! : null,
         firstMs: haveSamples ? S[b + F_T]! : null,
         last: haveSamples ? S[b + LA_V]! : null,
@@ -378,6 +387,46 @@ class Aggregator implements HourAggregator {
     S[b + H_S] = NaN;
     S[b + H_E] = NaN;
   }
+}
+
+/** A finished hour in the packed layout of hour-pack.ts (the same figures onHour's object carries). */
+function writeFields(
+  f: Float64Array,
+  S: Float64Array,
+  b: number,
+  mean: number | null,
+  method: TagHour['meanMethod'],
+  std: number | null,
+  min: number | null,
+  max: number | null,
+  haveSamples: boolean,
+  covered: number,
+  start: number,
+  end: number,
+): void {
+  f[SLOT.meanMethod] = methodCode(method);
+  f[SLOT.flatline] = S[b + MAX_RUN]! > S[b + FLAT_MS]! ? 1 : 0;
+  f[SLOT.hourStartMs] = start;
+  f[SLOT.hourEndMs] = end;
+  f[SLOT.utcOffsetMinutes] = S[b + H_O]!;
+  f[SLOT.mean] = mean ?? NaN;
+  f[SLOT.stdDev] = std ?? NaN;
+  f[SLOT.min] = min ?? NaN;
+  f[SLOT.max] = max ?? NaN;
+  f[SLOT.first] = haveSamples ? S[b + F_V]! : NaN;
+  f[SLOT.firstMs] = haveSamples ? S[b + F_T]! : NaN;
+  f[SLOT.last] = haveSamples ? S[b + LA_V]! : NaN;
+  f[SLOT.lastMs] = haveSamples ? S[b + LA_T]! : NaN;
+  f[SLOT.sampleCount] = S[b + CNT]!;
+  f[SLOT.coveredSeconds] = covered / 1000;
+  f[SLOT.coveredFraction] = covered / (end - start);
+  f[SLOT.nonNumericCount] = S[b + C_TEXT]!;
+  f[SLOT.badQualityCount] = S[b + C_BAD]!;
+  f[SLOT.outOfRangeCount] = S[b + C_RANGE]!;
+  f[SLOT.uncertainCount] = S[b + C_UNC]!;
+  f[SLOT.duplicateCount] = S[b + C_DUP]!;
+  f[SLOT.outOfOrderCount] = S[b + C_OOO]!;
+  f[SLOT.maxUnchangedSeconds] = S[b + MAX_RUN]! / 1000;
 }
 
 /**

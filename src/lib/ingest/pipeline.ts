@@ -26,6 +26,8 @@ export interface FileIngestOptions {
   tagOptions?: (tag: string) => Partial<TagOptions>;
   maxGapSeconds?: number;
   onHour: (hour: TagHour) => void;
+  /** Instead of onHour: each hour in the packed layout (see HourAggregatorOptions.onHourFields). */
+  onHourFields?: (tag: string, fields: Float64Array) => void;
   onRejectedCell?: (cell: RejectedCell) => void;
   /** Characters of text held for sniffing; default 65536. */
   sampleChars?: number;
@@ -67,6 +69,7 @@ export function createFileIngest(options: FileIngestOptions): FileIngest {
     tagOptions: options.tagOptions,
     maxGapSeconds: options.maxGapSeconds,
     onHour: options.onHour,
+    onHourFields: options.onHourFields,
   });
   let held = '';
   let profile: LayoutProfile | null = null;

@@ -9,8 +9,10 @@ import { createHash } from 'node:crypto';
 import PQueue from 'p-queue';
 import { and, eq, isNull } from 'drizzle-orm';
 import type pg from 'pg';
-import { createFileIngest, qualityCodesOf, valueLimitsFor, type LayoutProfile, type RejectedCell, type TagHour } from '~/lib/ingest';
-import { isLinkQuantity, unitsQuantityOf } from '~/lib/plant/kinds';
+import { createFileIngest, qualityCodesOf, type LayoutProfile, type RejectedCell, type TagHour } from '~/lib/ingest';
+import { createHourUnpacker } from '~/lib/ingest/hour-pack';
+import { readOptionsOf, type SiteReadFacts } from './ingest-options';
+import { startThreadRead } from './ingest-thread-pool';
 import { db } from '../db/client';
 import { siteQualityCodes, tagLinks, tags, uploads } from '../db/schema';
 import { objectStream } from '../storage';
@@ -77,29 +79,16 @@ async function siteContext(up: Upload, profile: LayoutProfile, timeZone: string,
     .from(tagLinks)
     .innerJoin(tags, eq(tags.id, tagLinks.tagId))
     .where(and(eq(tags.siteId, up.siteId), isNull(tagLinks.validTo)));
-  const linkOf = new Map(linked.map((l) => [l.name, l]));
   const goodCodes = await goodQualityCodes(up.siteId);
-  const byName = new Map(known.map((t) => [t.name, t]));
-  const rereadOptions: RereadOptions = {
+  // Plain data, so the reader's thread builds the same options (ingest-options.ts).
+  const facts: SiteReadFacts = {
     timeZone,
     timeWindow: timeWindowFor(siteCreatedAt),
     goodQualityCodes: goodCodes,
-    valueLimits: (tag, unit) => {
-      const link = linkOf.get(tag);
-      if (link && isLinkQuantity(link.quantity)) return valueLimitsFor(link.engUnit, unitsQuantityOf(link.quantity));
-      return valueLimitsFor(unit ?? byName.get(tag)?.unitHint ?? null);
-    },
-    tagOptions: (tag) => {
-      const t = byName.get(tag);
-      if (!t) return {};
-      return {
-        kind: t.kind === 'status' ? 'status' : 'analog',
-        flatlineLimitSeconds: t.flatlineLimitSeconds,
-        validMin: t.validMin ?? undefined,
-        validMax: t.validMax ?? undefined,
-      };
-    },
+    tags: known.map((t) => ({ name: t.name, kind: t.kind, flatlineLimitSeconds: t.flatlineLimitSeconds, validMin: t.validMin, validMax: t.validMax, unitHint: t.unitHint })),
+    links: linked,
   };
+  const rereadOptions: RereadOptions = readOptionsOf(facts);
   const tagId = new Map(known.map((t) => [t.name, String(t.seq)])); // tags.seq, the key of tag hours
   const unitOf = new Map<string, string | null>();
   const descOf = new Map<string, string | null>();
@@ -107,7 +96,7 @@ async function siteContext(up: Upload, profile: LayoutProfile, timeZone: string,
     unitOf.set(c.tag, c.unit);
     descOf.set(c.tag, c.description);
   }
-  return { goodCodes, rereadOptions, tagId, unitOf, descOf };
+  return { goodCodes, facts, rereadOptions, tagId, unitOf, descOf };
 }
 
 /**
@@ -220,39 +209,67 @@ async function beginSiteTransaction(client: pg.PoolClient, siteId: string): Prom
  * With `hash`, the bytes are hashed on the way (SHA-256): an upload whose hash is not known yet (a
  * browser upload) is downloaded once, and the caller checks for a repeat before the commit.
  */
-export async function readIntoTransaction(up: Upload, profile: LayoutProfile, timeZone: string, siteCreatedAt: Date, client: pg.PoolClient, hash = false): Promise<StreamResult> {
+export async function readIntoTransaction(up: Upload, profile: LayoutProfile, timeZone: string, siteCreatedAt: Date, client: pg.PoolClient, hash = false, source?: AsyncIterable<Buffer>): Promise<StreamResult> {
   const ctx = await siteContext(up, profile, timeZone, siteCreatedAt);
   const queue = writeQueue();
   const latestExistingMs = await beginSiteTransaction(client, up.siteId);
   const writer = batchWriter(client, up, ctx, latestExistingMs, queue);
-  const ingest = createFileIngest({ ...ctx.rereadOptions, profile, onHour: writer.onHour, onRejectedCell: writer.onRejectedCell });
-  const stream = await objectStream(up.objectKey);
-  const hasher = hash ? createHash('sha256') : null;
-  let bytes = 0;
-  let lines = 0;
-  let lastProgress = Date.now();
-  for await (const chunk of stream) {
-    const buf = chunk as Buffer;
-    bytes += buf.length;
-    hasher?.update(buf);
-    for (let i = buf.indexOf(10); i !== -1; i = buf.indexOf(10, i + 1)) lines++;
-    ingest.push(new Uint8Array(buf.buffer, buf.byteOffset, buf.byteLength));
-    await queue.throttle();
-    queue.check();
-    if (Date.now() - lastProgress > PROGRESS_EVERY_MS) {
-      lastProgress = Date.now();
-      void db().update(uploads).set({ bytesRead: bytes, rowsRead: lines }).where(eq(uploads.id, up.id)).catch(() => undefined);
+  const parse = await parser(ctx, profile, writer);
+  try {
+    const stream = source ?? (await objectStream(up.objectKey));
+    const hasher = hash ? createHash('sha256') : null;
+    let bytes = 0;
+    let lines = 0;
+    let lastProgress = Date.now();
+    for await (const chunk of stream) {
+      const buf = chunk as Buffer;
+      bytes += buf.length;
+      hasher?.update(buf);
+      for (let i = buf.indexOf(10); i !== -1; i = buf.indexOf(10, i + 1)) lines++;
+      await parse.push(new Uint8Array(buf.buffer, buf.byteOffset, buf.byteLength));
+      await queue.throttle();
+      queue.check();
+      if (Date.now() - lastProgress > PROGRESS_EVERY_MS) {
+        lastProgress = Date.now();
+        void db().update(uploads).set({ bytesRead: bytes, rowsRead: lines }).where(eq(uploads.id, up.id)).catch(() => undefined);
+      }
     }
+      const { report, encoding } = await parse.end();
+    writer.flush();
+      await queue.idle();
+      queue.check();
+    let replaced = 0;
+    let combined = 0;
+    // Hours another file brought too: recomputed from the samples of both (ingest-merge.ts).
+    if (writer.clashes.length > 0) ({ replaced, combined } = await mergeOverlappedHours(client, up.id, writer.clashes, { ...ctx.rereadOptions, profile }));
+    const { hours, newTags, rejectsStored } = writer.counts;
+    if (process.env.LOSSLINE_INGEST_TIMING) console.log(`[ingest] ${up.id}: ${hours} tag hours, database writes ${(queue.state.writeMs / 1000).toFixed(2)} s`);
+    return { report, encoding, hours, replaced, combined, newTags, rejectsStored, bytes, goodCodes: ctx.goodCodes, sha256: hasher ? hasher.digest('hex') : null };
+  } finally {
+    parse.drop();
   }
-  const { report, encoding } = ingest.end();
-  writer.flush();
-  await queue.idle();
-  queue.check();
-  let replaced = 0;
-  let combined = 0;
-  // Hours another file brought too: recomputed from the samples of both (ingest-merge.ts).
-  if (writer.clashes.length > 0) ({ replaced, combined } = await mergeOverlappedHours(client, up.id, writer.clashes, { ...ctx.rereadOptions, profile }));
-  const { hours, newTags, rejectsStored } = writer.counts;
-  if (process.env.LOSSLINE_INGEST_TIMING) console.log(`[ingest] ${up.id}: ${hours} tag hours, database writes ${(queue.state.writeMs / 1000).toFixed(2)} s`);
-  return { report, encoding: encoding.encoding, hours, replaced, combined, newTags, rejectsStored, bytes, goodCodes: ctx.goodCodes, sha256: hasher ? hasher.digest('hex') : null };
+}
+
+/**
+ * The parse of the file: on a reader thread when one can be had (ingest-thread-pool.ts), so that
+ * it runs beside this thread's download, hash and database writes; else here, as one step of the
+ * loop. Either way the writer gets the same hours and rejected cells in the same order.
+ */
+async function parser(ctx: SiteContext, profile: LayoutProfile, writer: ReturnType<typeof batchWriter>) {
+  const unpack = createHourUnpacker();
+  const thread = await startThreadRead(ctx.facts, profile, {
+    onHours: (batch) => unpack(batch, writer.onHour),
+    onRejects: (cells) => cells.forEach(writer.onRejectedCell),
+  });
+  if (thread) return { threaded: true, push: (bytes: Uint8Array) => thread.push(bytes), end: () => thread.end(), drop: () => thread.drop() };
+  const ingest = createFileIngest({ ...ctx.rereadOptions, profile, onHour: writer.onHour, onRejectedCell: writer.onRejectedCell });
+  return {
+    threaded: false,
+    push: async (bytes: Uint8Array) => ingest.push(bytes),
+    end: async () => {
+      const { report, encoding } = ingest.end();
+      return { report, encoding: encoding.encoding };
+    },
+    drop: () => undefined,
+  };
 }

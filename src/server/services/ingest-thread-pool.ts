@@ -1,0 +1,228 @@
+/**
+ * The reader threads of this process (ingest-thread.ts) and one read's conversation with one of
+ * them. A thread is started on first need (or ahead by warmReaderThread) and kept for the next read;
+ * at most INGEST_READ_THREADS (default 2) run at once. Where none can be had (the setting is 0, all
+ * are busy, or a thread cannot start, as in a build without the source files), the caller parses on
+ * its own thread as before: the result is the same, only slower.
+ */
+import { existsSync } from 'node:fs';
+import { dirname, join } from 'node:path';
+import { fileURLToPath, pathToFileURL } from 'node:url';
+import { Worker } from 'node:worker_threads';
+import { IngestError, type LayoutProfile, type RejectedCell } from '~/lib/ingest';
+import type { PackedHours } from '~/lib/ingest/hour-pack';
+import type { SiteReadFacts } from './ingest-options';
+import type { ReaderThreadIn, ReaderThreadOut, ThreadError } from './ingest-thread';
+
+/** Chunks sent to the thread and not yet parsed (each at most a chunk of the byte stream). */
+const CHUNKS_IN_FLIGHT = 32;
+/** How long a new thread may take to load before the read goes on without it [ms]. */
+const START_TIMEOUT_MS = 30_000;
+
+function maxThreads(): number {
+  const n = Number(process.env.INGEST_READ_THREADS ?? 2);
+  return Number.isInteger(n) && n >= 0 ? n : 2;
+}
+
+/** The thread's source file: beside this module, or in the checkout the process runs from (a built web server). */
+function threadFile(): string | null {
+  let here: string | null = null;
+  try {
+    here = join(dirname(fileURLToPath(import.meta.url)), 'ingest-thread.ts');
+  } catch {
+    here = null;
+  }
+  return [here, join(process.cwd(), 'src/server/services/ingest-thread.ts')].find((f): f is string => f !== null && existsSync(f)) ?? null;
+}
+
+interface PooledThread {
+  worker: Worker;
+  ready: Promise<boolean>;
+  onMessage: ((m: ReaderThreadOut) => void) | null;
+  onDeath: ((err: Error) => void) | null;
+}
+
+const idle: PooledThread[] = [];
+let running = 0;
+let jobs = 0;
+
+function spawnThread(): PooledThread | null {
+  const file = threadFile();
+  if (!file) return null;
+  // The thread loads TypeScript as the worker process does (tsx), registered inside the thread.
+  const code = `import('tsx/esm/api').then(({ register }) => { register(); return import(${JSON.stringify(pathToFileURL(file).href)}); })`;
+  let worker: Worker;
+  try {
+    worker = new Worker(code, { eval: true });
+  } catch {
+    return null;
+  }
+  const t: PooledThread = { worker, ready: Promise.resolve(false), onMessage: null, onDeath: null };
+  t.ready = new Promise<boolean>((resolve) => {
+    const timer = setTimeout(() => resolve(false), START_TIMEOUT_MS);
+    worker.on('message', (m: ReaderThreadOut) => {
+      if (m.type === 'ready') {
+        clearTimeout(timer);
+        resolve(true);
+        return;
+      }
+      t.onMessage?.(m);
+    });
+    const die = (err: Error) => {
+      clearTimeout(timer);
+      resolve(false);
+      const i = idle.indexOf(t);
+      if (i >= 0) idle.splice(i, 1);
+      t.onDeath?.(err);
+    };
+    worker.on('error', die);
+    worker.on('exit', (code) => die(new Error(`the reader thread stopped (exit code ${code})`)));
+  });
+  return t;
+}
+
+/** Starts one reader thread ahead of the first read (the worker at its start; a bench before it times). */
+export async function warmReaderThread(): Promise<boolean> {
+  if (maxThreads() === 0 || idle.length > 0 || running > 0) return idle.length > 0 || running > 0;
+  const t = spawnThread();
+  if (!t) return false;
+  if (!(await t.ready)) {
+    await t.worker.terminate().catch(() => undefined);
+    return false;
+  }
+  t.worker.unref();
+  idle.push(t);
+  return true;
+}
+
+/** Stops the idle reader threads (tests and a worker's shutdown). */
+export async function stopReaderThreads(): Promise<void> {
+  const all = idle.splice(0);
+  await Promise.all(all.map((t) => t.worker.terminate().catch(() => undefined)));
+}
+
+async function acquire(): Promise<PooledThread | null> {
+  while (idle.length > 0) {
+    const t = idle.pop()!;
+    if (await t.ready) return t;
+  }
+  if (running + idle.length >= maxThreads()) return null;
+  const t = spawnThread();
+  if (!t) return null;
+  if (!(await t.ready)) {
+    await t.worker.terminate().catch(() => undefined);
+    return null;
+  }
+  return t;
+}
+
+function errorFrom(e: ThreadError): Error {
+  if (e.name === 'IngestError' && e.code) return new IngestError(e.code as IngestError['code'], e.message, e.details ?? {}, e.line ?? null);
+  // A fault of the reading code keeps its kind, so it is told as a reader fault (ingest-failure.ts).
+  if (e.name === 'TypeError') return new TypeError(e.message);
+  if (e.name === 'RangeError') return new RangeError(e.message);
+  return new Error(e.message);
+}
+
+export interface ThreadRead {
+  /** Sends a chunk; resolves when fewer than CHUNKS_IN_FLIGHT wait in the thread. Throws the thread's failure. */
+  push(bytes: Uint8Array): Promise<void>;
+  /** Ends the file; resolves with the thread's report once every batch has been handed over. */
+  end(): Promise<{ report: Extract<ReaderThreadOut, { type: 'done' }>['report']; encoding: string }>;
+  /** Abandons the read (the caller failed); the thread goes back to the pool. */
+  drop(): void;
+}
+
+/**
+ * Starts a read on a reader thread: `onHours` and `onRejects` receive the thread's batches in order.
+ * Null when no thread can be had (the caller parses on its own thread).
+ */
+export async function startThreadRead(
+  facts: SiteReadFacts,
+  profile: LayoutProfile,
+  handlers: { onHours: (batch: PackedHours) => void; onRejects: (cells: RejectedCell[]) => void },
+): Promise<ThreadRead | null> {
+  if (maxThreads() === 0) return null;
+  const t = await acquire();
+  if (!t) return null;
+  running++;
+  t.worker.ref();
+  const job = ++jobs;
+  let sent = 0;
+  let read = 0;
+  let failure: Error | null = null;
+  let finished = false;
+  /** The push waiting for the thread to catch up, and the end waiting for its answer. */
+  let wake: (() => void) | null = null;
+  let answer: ((m: Extract<ReaderThreadOut, { type: 'done' }> | null) => void) | null = null;
+  const release = (alive: boolean) => {
+    if (finished) return;
+    finished = true;
+    running--;
+    t.onMessage = null;
+    t.onDeath = null;
+    if (!alive) return;
+    t.worker.unref();
+    idle.push(t);
+  };
+  const stop = (err: Error) => {
+    failure ??= err;
+    wake?.();
+    wake = null;
+    answer?.(null);
+    answer = null;
+  };
+  t.onMessage = (m) => {
+    if (!('job' in m) || m.job !== job) return;
+    try {
+      if (m.type === 'hours') handlers.onHours(m.batch);
+      else if (m.type === 'rejects') handlers.onRejects(m.cells);
+      else if (m.type === 'read') {
+        read = m.chunks;
+        if (sent - read < CHUNKS_IN_FLIGHT) {
+          wake?.();
+          wake = null;
+        }
+      } else if (m.type === 'failed') stop(errorFrom(m.error));
+      else if (m.type === 'done') {
+        answer?.(m);
+        answer = null;
+      }
+    } catch (err) {
+      // A handler's failure (the writer refused a batch) ends the read; the thread is told to drop it.
+      t.worker.postMessage({ type: 'drop', job } satisfies ReaderThreadIn);
+      stop(err as Error);
+    }
+  };
+  t.onDeath = (err) => {
+    stop(err);
+    release(false);
+  };
+  const send = (m: ReaderThreadIn, transfer: ArrayBuffer[] = []) => t.worker.postMessage(m, transfer);
+  send({ type: 'start', job, facts, profile });
+  return {
+    async push(bytes) {
+      if (failure) throw failure;
+      // A copy the thread owns (the stream's buffer may share its memory with others).
+      const own = new Uint8Array(bytes);
+      send({ type: 'chunk', job, bytes: own }, [own.buffer as ArrayBuffer]);
+      sent++;
+      if (sent - read >= CHUNKS_IN_FLIGHT) await new Promise<void>((resolve) => (wake = resolve));
+      if (failure) throw failure;
+    },
+    async end() {
+      const m = failure ? null : await new Promise<Extract<ReaderThreadOut, { type: 'done' }> | null>((resolve) => {
+        answer = resolve;
+        send({ type: 'end', job });
+      });
+      release(true);
+      if (!m) throw failure ?? new Error('the reader thread ended without an answer');
+      return { report: m.report, encoding: m.encoding };
+    },
+    drop() {
+      if (finished) return;
+      send({ type: 'drop', job });
+      release(true);
+    },
+  };
+}
