@@ -220,13 +220,13 @@ async function beginSiteTransaction(client: pg.PoolClient, siteId: string): Prom
  * With `hash`, the bytes are hashed on the way (SHA-256): an upload whose hash is not known yet (a
  * browser upload) is downloaded once, and the caller checks for a repeat before the commit.
  */
-export async function readIntoTransaction(up: Upload, profile: LayoutProfile, timeZone: string, siteCreatedAt: Date, client: pg.PoolClient, hash = false): Promise<StreamResult> {
+export async function readIntoTransaction(up: Upload, profile: LayoutProfile, timeZone: string, siteCreatedAt: Date, client: pg.PoolClient, hash = false, source?: AsyncIterable<Buffer>): Promise<StreamResult> {
   const ctx = await siteContext(up, profile, timeZone, siteCreatedAt);
   const queue = writeQueue();
   const latestExistingMs = await beginSiteTransaction(client, up.siteId);
   const writer = batchWriter(client, up, ctx, latestExistingMs, queue);
   const ingest = createFileIngest({ ...ctx.rereadOptions, profile, onHour: writer.onHour, onRejectedCell: writer.onRejectedCell });
-  const stream = await objectStream(up.objectKey);
+  const stream = source ?? (await objectStream(up.objectKey));
   const hasher = hash ? createHash('sha256') : null;
   let bytes = 0;
   let lines = 0;
