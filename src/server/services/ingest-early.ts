@@ -20,6 +20,7 @@
  * itself holds what the worker's read holds (bounded batches), per read running.
  */
 import { PassThrough } from 'node:stream';
+import { isDeepStrictEqual } from 'node:util';
 import { eq, sql } from 'drizzle-orm';
 import type pg from 'pg';
 import { db } from '../db/client';
@@ -28,6 +29,7 @@ import { finish } from './ingest-finish';
 import { LAYOUT_SAMPLE_BYTES, judgeLayout, saveDetectedProfile } from './ingest-layout';
 import { withUploadLock } from './ingest-locks';
 import { readIntoTransaction } from './ingest-stream';
+import { storableJson } from './ingest-text';
 
 type Upload = typeof uploads.$inferSelect;
 
@@ -212,7 +214,7 @@ async function readLocked(
     // upload that breaks leaves nothing). Another file of this shape saved a different one first:
     // give up, the worker reads with that one.
     const saved = await saveDetectedProfile(up, judged.profile);
-    if (saved.profile !== judged.profile) throw new Error('another profile of this layout was saved meanwhile');
+    if (!isDeepStrictEqual(saved.profile, JSON.parse(storableJson(judged.profile)))) throw new Error('another profile of this layout was saved meanwhile');
     profileId = saved.profileId;
   }
   const { state } = await finish(up, judged.profile, result, profileId, client);
