@@ -158,7 +158,7 @@ async function readEarly(up: Upload, branch: PassThrough, put: Promise<PutResult
       up.id,
       async (client): Promise<EarlyVerdict> => {
         try {
-          return await readLocked(up, client, timeZone, site?.createdAt ?? new Date(), chunks, put, repeatOf);
+          return await readLocked(up, client, timeZone, site?.createdAt ?? new Date(), chunks, put, repeatOf, startedMs);
         } catch (err) {
           await drain();
           await client.query('rollback').catch(() => undefined);
@@ -190,12 +190,14 @@ async function readLocked(
   chunks: AsyncIterator<Buffer>,
   put: Promise<PutResult>,
   repeatOf: RepeatCheck,
+  startedMs: number,
 ): Promise<EarlyVerdict> {
   const { head, bytes } = await readHead(chunks, LAYOUT_SAMPLE_BYTES);
   const judged = await judgeLayout(up, timeZone, new Uint8Array(Buffer.concat(head, bytes)));
   if (judged.kind === 'question') throw new Error('the layout has a question for a person');
   // Hashed by the upload's counter, not here; the site's lock only tried (SiteIngestBusy).
   const result = await readIntoTransaction(up, judged.profile, timeZone, siteCreatedAt, client, false, headThenRest(head, chunks), { waitForSite: false });
+  if (process.env.LOSSLINE_INGEST_TIMING) console.log(`[ingest] ${up.id}: whole body read ${((performance.now() - startedMs) / 1000).toFixed(2)} s after the reader started`);
   const { sha256, bytes: size } = await put;
   await db().update(uploads).set({ sha256, sizeBytes: size, status: 'processing' }).where(eq(uploads.id, up.id));
   // The repeat check of the upload, under the site's ingest lock as the worker's before its commit.

@@ -219,6 +219,7 @@ export async function receiveApiUpload(
   by: { apiTokenId?: string; userId?: string },
   sizeBytes?: number,
 ): Promise<{ uploadId: string; duplicateOf: string | null; readWhileUploading: boolean }> {
+  const receivedMs = performance.now();
   fileName = checkFileName(fileName);
   if (sizeBytes !== undefined && !(Number.isSafeInteger(sizeBytes) && sizeBytes >= 0)) sizeBytes = undefined;
   if (sizeBytes !== undefined && sizeBytes > MAX_UPLOAD_BYTES) throw new AppError('PAYLOAD_TOO_LARGE', 'Files above 4 GiB are not accepted: split the export.');
@@ -249,6 +250,7 @@ export async function receiveApiUpload(
       stored = store;
     }
     await putRawStream(objectKey, stored, RAW_CONTENT_TYPE, sizeBytes);
+    if (early && process.env.LOSSLINE_INGEST_TIMING) console.log(`[ingest] ${id}: body in the store ${((performance.now() - receivedMs) / 1000).toFixed(2)} s after it began to arrive`);
   } catch (err) {
     // The reader stops and rolls back first: nothing of a broken body is ever committed.
     await early?.abort(err as Error);
