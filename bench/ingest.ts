@@ -154,11 +154,16 @@ async function endToEnd(path: string) {
   // BENCH_INGEST_MULTIPART=1 leaves it out, as for a chunked request (multipart upload).
   const size = process.env.BENCH_INGEST_MULTIPART === '1' ? undefined : statSync(path).size;
   console.log(`  upload path: ${process.env.BENCH_INGEST_BROWSER === '1' ? 'browser (presigned PUT, hashed by the worker while it reads)' : size === undefined ? 'machine, multipart' : 'machine, one streamed PUT'}`);
+  // This process's resident memory while it uploads (and, read while uploading, reads) the file.
+  const rssBeforeMb = process.memoryUsage().rss / 1024 ** 2;
+  let rssPeakMb = rssBeforeMb;
+  const sampler = setInterval(() => (rssPeakMb = Math.max(rssPeakMb, process.memoryUsage().rss / 1024 ** 2)), 100);
   const { uploadId, readWhileUploading } =
     process.env.BENCH_INGEST_BROWSER === '1'
       ? { uploadId: await browserUpload(site!.id, path), readWhileUploading: false }
       : await receiveApiUpload(site!.id, 'bench.csv', createReadStream(path, { highWaterMark: 1024 * 1024 }), {}, size);
   const uploadedS = (performance.now() - t0) / 1000;
+  clearInterval(sampler);
   console.log(`  read while uploading: ${readWhileUploading ? 'yes (read and committed in this process before the endpoint answered)' : 'no (read by the worker)'}`);
   let status = '';
   let peak = 0;
@@ -182,6 +187,7 @@ async function endToEnd(path: string) {
       `  upload and read together ${uploadedS.toFixed(2)} s: record at ${at(u!.createdAt)} s, reader started at ${at(u!.startedAt!)} s, committed at ${at(u!.finishedAt!)} s, endpoint answered at ${uploadedS.toFixed(2)} s`,
     );
     console.log('  (cpu "bench" below is this process: the upload and the read; the worker only idles)');
+    console.log(`  this process's rss ${rssBeforeMb.toFixed(0)} MB before the upload, peak ${rssPeakMb.toFixed(0)} MB while it uploaded and read (sampled every 100 ms)`);
   } else {
     const queuedS = (u!.startedAt!.getTime() - u!.createdAt.getTime()) / 1000 - uploadedS;
     console.log(`  upload into the store ${uploadedS.toFixed(2)} s, waiting for the worker ${queuedS.toFixed(2)} s, reading and committing ${((u!.finishedAt!.getTime() - u!.startedAt!.getTime()) / 1000).toFixed(2)} s`);
@@ -189,7 +195,7 @@ async function endToEnd(path: string) {
   peak = Math.max(peak, peakRssMb(worker.pid!));
   console.log(`  cpu seconds: ${cpuSince(cpu0, cpuSnapshot(await cpuGroups(worker.pid!)))}`);
   worker.kill('SIGTERM');
-  return { seconds, peakMb: peak };
+  return { seconds, peakMb: peak, readWhileUploading };
 }
 
 const dir = mkdtempSync(join(tmpdir(), 'lossline-bench-'));
@@ -213,7 +219,7 @@ try {
     const e2e = await endToEnd(file);
     console.log(`end_to_end_s ${e2e.seconds.toFixed(2)}`);
     console.log(`end_to_end_vs_in_process ${(e2e.seconds / ours.seconds).toFixed(2)}`);
-    console.log(`worker_peak_rss_mb ${e2e.peakMb.toFixed(0)}`);
+    console.log(`worker_peak_rss_mb ${e2e.peakMb.toFixed(0)}${e2e.readWhileUploading ? ' (the worker only idled: the file was read while uploading, in this process)' : ''}`);
     const st = await bytesPerRow('tag_hours');
     console.log(`load_average_after ${loadavg().map((x) => x.toFixed(2)).join(' ')}`);
     console.log(`tag_hour_bytes ${st.perRow.toFixed(1)}  (${st.rows} rows, ${(st.bytes / 1e6).toFixed(1)} MB with indexes; target <= 120)`);
