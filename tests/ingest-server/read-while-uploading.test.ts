@@ -228,6 +228,39 @@ describeIntegration('reading a machine upload while it is uploading', () => {
     }
   });
 
+  it('the settings: a body above INGEST_WHILE_UPLOADING_MAX_MB, or one beside a running read with INGEST_WHILE_UPLOADING_AT_ONCE=1, goes to the worker', async () => {
+    const body = wideFile('2026-06-07T00:00:00Z', 6000); // about 220 KB
+    const siteId = await newSite('settings', body);
+    const otherSite = await newSite('settings beside', body);
+
+    process.env.INGEST_WHILE_UPLOADING_MAX_MB = '0.1'; // 104,857 bytes
+    const big = await receiveApiUpload(siteId, 'big.csv', chunked(body), {}, body.length);
+    delete process.env.INGEST_WHILE_UPLOADING_MAX_MB;
+    expect(big.readWhileUploading).toBe(false);
+    expect((await row(big.uploadId)).startedAt).toBeNull();
+    expect(await workerJobs(big.uploadId)).toBe(1);
+
+    // One read while uploading runs (its client sends slowly); the next upload meanwhile is not read so.
+    let release!: () => void;
+    const held = new Promise<void>((r) => (release = r));
+    async function* slow() {
+      yield body.subarray(0, 64 * 1024);
+      await held;
+      yield body.subarray(64 * 1024);
+    }
+    const first = receiveApiUpload(otherSite, 'slow.csv', Readable.from(slow()), {}, body.length);
+    await new Promise((r) => setTimeout(r, 200)); // the slow upload's reader has begun
+    const small = wideFile('2026-06-09T00:00:00Z', 600);
+    const beside = await within(receiveApiUpload(siteId, 'beside.csv', chunked(small), {}, small.length), 20_000, 'the upload beside');
+    expect(beside.readWhileUploading).toBe(false);
+    expect((await row(beside.uploadId)).startedAt).toBeNull();
+    expect(await workerJobs(beside.uploadId)).toBe(1);
+    release();
+    const slowOut = await within(first, 20_000, 'the slow upload');
+    expect(slowOut.readWhileUploading).toBe(true);
+    expect((await row(slowOut.uploadId)).status).toBe('done');
+  });
+
   it("(e) with the site's ingest lock held by another read, the upload is queued for the worker and its PUT completes", async () => {
     const body = wideFile('2026-06-05T00:00:00Z', 40_000); // about 1.5 MB: far more than the branches hold
     const siteId = await newSite('busy', body);
