@@ -206,7 +206,7 @@ export class SiteIngestBusy extends Error {
   }
 }
 
-/** How a read takes the site's ingest lock: waiting for it (the default), or not at all (`wait: false`). */
+/** How a read takes the site's ingest lock: waiting for it (the default), or only tried (`waitForSite: false`). */
 export interface SiteLockOptions {
   /** false: when another read holds the site's lock, throw SiteIngestBusy (the transaction is open; roll it back). */
   waitForSite?: boolean;
