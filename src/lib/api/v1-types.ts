@@ -81,7 +81,7 @@ export interface paths {
         put?: never;
         /**
          * Send a historian file
-         * @description The request body is the CSV file itself; name it with ?name= or X-File-Name. It is read in the background: follow it at /api/v1/uploads/{uploadId}, and the site’s figures at /api/v1/sites/{siteId}/state.
+         * @description The request body is the CSV file itself; name it with ?name= or X-File-Name. A file with a Content-Length in a layout the site already reads may be read while it arrives, and is then already read (done) when the answer comes; any other file is read in the background. Either way, follow it at /api/v1/uploads/{uploadId}, and the site’s figures at /api/v1/sites/{siteId}/state.
          *
          *     Who: Site token; signed-in roles: admin, energy-lead, operator.
          */

@@ -19,22 +19,32 @@ const SAMPLE_BYTES = 96 * 1024;
 
 type Upload = typeof uploads.$inferSelect;
 
+/** Bytes read from the start of a file to decide its layout. */
+export const LAYOUT_SAMPLE_BYTES = SAMPLE_BYTES;
+
+const emptyFile = () => new IngestError('EMPTY_FILE', 'The file is empty (0 bytes). Export the data again and upload the new file.');
+
 async function headBytes(key: string, n: number, size: number | null): Promise<Uint8Array> {
-  if (size === 0) throw new IngestError('EMPTY_FILE', 'The file is empty (0 bytes). Export the data again and upload the new file.');
+  if (size === 0) throw emptyFile();
   const out = await s3().send(new GetObjectCommand({ Bucket: bucket(), Key: key, Range: `bytes=0-${n - 1}` }));
   const chunks: Buffer[] = [];
   for await (const c of out.Body as Readable) chunks.push(c as Buffer);
   return new Uint8Array(Buffer.concat(chunks));
 }
 
-/** Decides the layout from the file's first bytes: a saved profile of the site, or a fresh sniff. */
-async function decideLayout(up: Upload, timeZone: string) {
+/**
+ * Decides the layout from the file's first bytes: a saved profile of the site, or a fresh sniff.
+ * `head` gives those bytes (at most LAYOUT_SAMPLE_BYTES, fewer only when the file is shorter)
+ * instead of a ranged GET of the stored object: a read fed by the upload's own body.
+ */
+async function decideLayout(up: Upload, timeZone: string, head?: Uint8Array) {
   if (up.profileId) {
     // A person confirmed this layout for this very upload: no second guessing.
     const [p] = await db().select().from(layoutProfiles).where(eq(layoutProfiles.id, up.profileId));
     if (p) return { profile: p.profile, saved: true as const, confirmed: true as const };
   }
-  const bytes = await headBytes(up.objectKey, SAMPLE_BYTES, up.sizeBytes);
+  if (head && head.length === 0) throw emptyFile();
+  const bytes = head ? head.subarray(0, SAMPLE_BYTES) : await headBytes(up.objectKey, SAMPLE_BYTES, up.sizeBytes);
   const decoder = createDecoder();
   const text = decoder.push(bytes) + (bytes.length < SAMPLE_BYTES ? decoder.end() : '');
   const complete = bytes.length < SAMPLE_BYTES;
@@ -55,16 +65,17 @@ async function decideLayout(up: Upload, timeZone: string) {
 }
 
 /**
- * The layout to read the upload with and the saved profile's id; or the outcome when the upload
- * stops for a question. `beforeQuestion` runs before the upload stops for one: its outcome (the
- * file repeats an earlier upload) ends the upload instead of the question.
+ * What the layout decision comes to, with no effect on the upload: the profile to read with
+ * (`detected`: the file's own layout, which the read saves as the site's profile first), or the
+ * question a person must answer (with what the uploads page shows for it).
  */
-export async function settleLayout(
-  up: Upload,
-  timeZone: string,
-  beforeQuestion?: () => Promise<IngestOutcome | null>,
-): Promise<{ profile: LayoutProfile; profileId: string | null } | IngestOutcome> {
-  const layout = await decideLayout(up, timeZone);
+export type LayoutJudgement =
+  | { kind: 'read'; profile: LayoutProfile; profileId: string | null; detected: boolean }
+  | { kind: 'question'; profile: LayoutProfile; questions: LayoutProfile['questions']; detection: Record<string, unknown>; disagreement: unknown };
+
+/** Judges the upload's layout (see LayoutJudgement); `head` as for decideLayout. */
+export async function judgeLayout(up: Upload, timeZone: string, head?: Uint8Array): Promise<LayoutJudgement> {
+  const layout = await decideLayout(up, timeZone, head);
   const profile = layout.profile;
   const profileId = 'profileId' in layout ? layout.profileId : up.profileId;
   // The layout against the file's own values (decimal mark, date order): never guess.
@@ -79,6 +90,24 @@ export async function settleLayout(
       encoding: 'encoding' in layout ? (layout.encoding ?? null) : null,
       disagreement: disagreement ?? null,
     } as Record<string, unknown>;
+    return { kind: 'question', profile, questions, detection, disagreement };
+  }
+  return { kind: 'read', profile, profileId: profileId ?? null, detected: !layout.saved };
+}
+
+/**
+ * The layout to read the upload with and the saved profile's id; or the outcome when the upload
+ * stops for a question. `beforeQuestion` runs before the upload stops for one: its outcome (the
+ * file repeats an earlier upload) ends the upload instead of the question.
+ */
+export async function settleLayout(
+  up: Upload,
+  timeZone: string,
+  beforeQuestion?: () => Promise<IngestOutcome | null>,
+): Promise<{ profile: LayoutProfile; profileId: string | null } | IngestOutcome> {
+  const judged = await judgeLayout(up, timeZone);
+  if (judged.kind === 'question') {
+    const { questions, detection, disagreement } = judged;
     const instead = await beforeQuestion?.();
     if (instead) return instead;
     if (up.source === 'browser' || questions.length === 0) {
@@ -100,15 +129,15 @@ export async function settleLayout(
       .where(eq(uploads.id, up.id));
     return { kind: 'failed', reason };
   }
-  if (!layout.saved) return saveDetectedProfile(up, profile);
-  return { profile, profileId: profileId ?? null };
+  if (judged.detected) return saveDetectedProfile(up, judged.profile);
+  return { profile: judged.profile, profileId: judged.profileId };
 }
 
 /**
  * A machine upload of a shape the file itself decides: the decision is kept as the site's profile.
  * jsonb holds no NUL character: the stored copy goes without them (a header cell may carry one).
  */
-async function saveDetectedProfile(up: Upload, profile: LayoutProfile): Promise<{ profile: LayoutProfile; profileId: string }> {
+export async function saveDetectedProfile(up: Upload, profile: LayoutProfile): Promise<{ profile: LayoutProfile; profileId: string }> {
   const clean = JSON.parse(storableJson(profile)) as typeof profile;
   const [saved] = await db()
     .insert(layoutProfiles)

@@ -187,14 +187,33 @@ function batchWriter(client: pg.PoolClient, up: Upload, ctx: SiteContext, latest
   return { counts, clashes, onHour, onRejectedCell, flush };
 }
 
+/** The site's ingest lock is held by another read, and the read was asked not to wait for it. */
+export class SiteIngestBusy extends Error {
+  constructor(siteId: string) {
+    super(`Another file of site ${siteId} is being read.`);
+    this.name = 'SiteIngestBusy';
+  }
+}
+
+/** How a read takes the site's ingest lock: waiting for it (the default), or only tried (`waitForSite: false`). */
+export interface SiteLockOptions {
+  /** false: when another read holds the site's lock, throw SiteIngestBusy (the transaction is open; roll it back). */
+  waitForSite?: boolean;
+}
+
 /**
  * Opens the upload's transaction under the site's ingest lock (one file of a site at a time writes
  * tag hours, so shared hours are combined in a defined order) and returns the site's latest stored
- * hour: hours after it cannot clash.
+ * hour: hours after it cannot clash. With `waitForSite: false` the lock is only tried.
  */
-async function beginSiteTransaction(client: pg.PoolClient, siteId: string): Promise<number | null> {
+async function beginSiteTransaction(client: pg.PoolClient, siteId: string, options: SiteLockOptions = {}): Promise<number | null> {
   await client.query('begin');
-  await client.query('select pg_advisory_xact_lock(hashtextextended($1, 0))', ['ingest-site:' + siteId]);
+  if (options.waitForSite === false) {
+    const { rows } = await client.query('select pg_try_advisory_xact_lock(hashtextextended($1, 0)) as ok', ['ingest-site:' + siteId]);
+    if (!rows[0].ok) throw new SiteIngestBusy(siteId);
+  } else {
+    await client.query('select pg_advisory_xact_lock(hashtextextended($1, 0))', ['ingest-site:' + siteId]);
+  }
   const latest = await client.query(
     `select max(l.hour_start) as last from tags t
        cross join lateral (select hour_start from tag_hours where tag_id = t.seq order by hour_start desc limit 1) l
@@ -208,11 +227,22 @@ async function beginSiteTransaction(client: pg.PoolClient, siteId: string): Prom
  * Streams the raw object through the ingest core and writes its tag hours in the open transaction.
  * With `hash`, the bytes are hashed on the way (SHA-256): an upload whose hash is not known yet (a
  * browser upload) is downloaded once, and the caller checks for a repeat before the commit.
+ * `source` gives the bytes instead of the stored object (a read fed by the upload's own body,
+ * ingest-early.ts); `options` how the site's ingest lock is taken (beginSiteTransaction).
  */
-export async function readIntoTransaction(up: Upload, profile: LayoutProfile, timeZone: string, siteCreatedAt: Date, client: pg.PoolClient, hash = false, source?: AsyncIterable<Buffer>): Promise<StreamResult> {
+export async function readIntoTransaction(
+  up: Upload,
+  profile: LayoutProfile,
+  timeZone: string,
+  siteCreatedAt: Date,
+  client: pg.PoolClient,
+  hash = false,
+  source?: AsyncIterable<Buffer>,
+  options: SiteLockOptions = {},
+): Promise<StreamResult> {
   const ctx = await siteContext(up, profile, timeZone, siteCreatedAt);
   const queue = writeQueue();
-  const latestExistingMs = await beginSiteTransaction(client, up.siteId);
+  const latestExistingMs = await beginSiteTransaction(client, up.siteId, options);
   const writer = batchWriter(client, up, ctx, latestExistingMs, queue);
   const parse = await parser(ctx, profile, writer);
   try {
@@ -234,10 +264,10 @@ export async function readIntoTransaction(up: Upload, profile: LayoutProfile, ti
         void db().update(uploads).set({ bytesRead: bytes, rowsRead: lines }).where(eq(uploads.id, up.id)).catch(() => undefined);
       }
     }
-      const { report, encoding } = await parse.end();
+    const { report, encoding } = await parse.end();
     writer.flush();
-      await queue.idle();
-      queue.check();
+    await queue.idle();
+    queue.check();
     let replaced = 0;
     let combined = 0;
     // Hours another file brought too: recomputed from the samples of both (ingest-merge.ts).

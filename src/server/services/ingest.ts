@@ -8,6 +8,7 @@
  *   ingest-finish.ts  the summary, the engine's recompute queued, the commit
  *   ingest-failure.ts what a failed read leaves (failed with a reason, or queued again)
  *   ingest-resume.ts  uploads a dead worker left half-read, taken over
+ *   ingest-early.ts   a machine upload read while it arrives, in the web process (else read here)
  */
 import { createHash } from 'node:crypto';
 import { eq, sql } from 'drizzle-orm';

@@ -1,5 +1,5 @@
 import { createHash, randomUUID } from 'node:crypto';
-import { Transform, type Readable } from 'node:stream';
+import { PassThrough, Transform, type Readable } from 'node:stream';
 import { and, desc, eq, inArray, ne, sql } from 'drizzle-orm';
 import { INGEST_ERROR_CATALOGUE } from '~/lib/ingest/errors';
 import type { LayoutProfile } from '~/lib/ingest/profile';
@@ -12,6 +12,7 @@ import { AppError } from '../errors';
 import { READ_STATUSES, layoutProfiles, sites, uploadRejects, uploads, type UploadStatus } from '../db/schema';
 import { queue } from '../queue';
 import { objectHead, objectSize, presignPut, putRawStream } from '../storage';
+import { startEarlyRead } from './ingest-early';
 
 /** Largest file accepted [bytes]: 4 GiB (a year of one-minute data for a few hundred tags fits easily). */
 export const MAX_UPLOAD_BYTES = 4 * 1024 ** 3;
@@ -206,9 +207,19 @@ class HashCounter extends Transform {
  * A machine upload (scheduled export with a site API token): the body streams into the store while
  * it is hashed; nothing is held in memory beyond a few parts. With `sizeBytes` (the request's
  * Content-Length) it goes in as one streamed PUT, otherwise as a multipart upload (storage.ts).
- * Answers with the upload id.
+ * With `sizeBytes` within INGEST_WHILE_UPLOADING_MAX_MB, the counted body is also read while it
+ * arrives (ingest-early.ts): the upload is then read (or stands aside as a repeat) when this returns;
+ * when that reader gives up, the worker reads the stored file as before.
+ * Answers with the upload id, the earlier upload it repeats, and whether it was read while uploading.
  */
-export async function receiveApiUpload(siteId: string, fileName: string, body: Readable, by: { apiTokenId?: string; userId?: string }, sizeBytes?: number) {
+export async function receiveApiUpload(
+  siteId: string,
+  fileName: string,
+  body: Readable,
+  by: { apiTokenId?: string; userId?: string },
+  sizeBytes?: number,
+): Promise<{ uploadId: string; duplicateOf: string | null; readWhileUploading: boolean }> {
+  const receivedMs = performance.now();
   fileName = checkFileName(fileName);
   if (sizeBytes !== undefined && !(Number.isSafeInteger(sizeBytes) && sizeBytes >= 0)) sizeBytes = undefined;
   if (sizeBytes !== undefined && sizeBytes > MAX_UPLOAD_BYTES) throw new AppError('PAYLOAD_TOO_LARGE', 'Files above 4 GiB are not accepted: split the export.');
@@ -218,30 +229,55 @@ export async function receiveApiUpload(siteId: string, fileName: string, body: R
   const [row] = await db()
     .insert(uploads)
     .values({ id, siteId, fileName, objectKey, source: 'api', apiTokenId: by.apiTokenId ?? null, uploadedBy: by.userId ?? null, status: 'awaiting-file' })
-    .returning({ createdAt: uploads.createdAt });
+    .returning();
   const counter = new HashCounter(MAX_UPLOAD_BYTES, sizeBytes);
+  const early = sizeBytes !== undefined ? startEarlyRead(row!, sizeBytes, (sha256) => findDuplicate(siteId, sha256, id, { id, createdAt: row!.createdAt })) : null;
   try {
     // An error of the body (a broken connection) stops the counter, and so the store's request.
     body.on('error', (err) => counter.destroy(err));
-    await putRawStream(objectKey, body.pipe(counter), RAW_CONTENT_TYPE, sizeBytes);
+    let stored: Readable = body.pipe(counter);
+    if (early) {
+      // Two branches of the counted body, the store's and the reader's: pipe() holds the body while
+      // either branch is full, so the slower one sets the pace and memory stays bounded.
+      const store = new PassThrough();
+      store.on('error', () => undefined); // told through putRawStream
+      counter.on('error', (err) => {
+        store.destroy(err);
+        early.branch.destroy(err);
+      });
+      counter.pipe(store);
+      counter.pipe(early.branch);
+      stored = store;
+    }
+    await putRawStream(objectKey, stored, RAW_CONTENT_TYPE, sizeBytes);
+    if (early && process.env.LOSSLINE_INGEST_TIMING) console.log(`[ingest] ${id}: body in the store ${((performance.now() - receivedMs) / 1000).toFixed(2)} s after it began to arrive`);
   } catch (err) {
+    // The reader stops and rolls back first: nothing of a broken body is ever committed.
+    await early?.abort(err as Error);
+    counter.destroy();
     const reason = err instanceof AppError ? err.message : `The file did not arrive whole: ${(err as Error).message}`;
     await db().update(uploads).set({ status: 'failed', failureReason: reason, finishedAt: sql`clock_timestamp()` }).where(eq(uploads.id, id));
     if (err instanceof AppError) throw err;
     throw new AppError('VALIDATION_FAILED', reason);
   }
   const sha256 = counter.hash.digest('hex');
+  if (early) {
+    const verdict = await early.settle({ sha256, bytes: counter.bytes });
+    if (verdict.kind === 'read') return { uploadId: id, duplicateOf: null, readWhileUploading: true };
+    if (verdict.kind === 'repeat') return { uploadId: id, duplicateOf: verdict.duplicateOf, readWhileUploading: false };
+    // It gave up: the worker reads the stored file, as for any other upload.
+  }
   const duplicate = await findDuplicate(siteId, sha256, id, { id, createdAt: row!.createdAt });
   if (duplicate) {
     await db()
       .update(uploads)
       .set({ sha256, sizeBytes: counter.bytes, status: 'done', duplicateOf: duplicate.id, finishedAt: sql`clock_timestamp()`, summary: { duplicateOf: duplicate.id, note: 'Same bytes as an earlier upload: not read again.' } })
       .where(eq(uploads.id, id));
-    return { uploadId: id, duplicateOf: duplicate.id };
+    return { uploadId: id, duplicateOf: duplicate.id, readWhileUploading: false };
   }
   await db().update(uploads).set({ sha256, sizeBytes: counter.bytes, status: 'queued' }).where(eq(uploads.id, id));
   await queueIngest(id);
-  return { uploadId: id, duplicateOf: null };
+  return { uploadId: id, duplicateOf: null, readWhileUploading: false };
 }
 
 export async function getUploadRow(uploadId: string) {

@@ -12,7 +12,8 @@ const Query = z.object({ name: z.string().max(1000).optional() });
 
 /**
  * A scheduled export posts its file as the request body (Authorization: Bearer <site token>).
- * The name comes from ?name= or the X-File-Name header. Answers 202 { uploadId }.
+ * The name comes from ?name= or the X-File-Name header. Answers 202 { uploadId, duplicateOf }; the
+ * upload may already be read by then (read while uploading, services/ingest-early.ts).
  */
 export const POST = endpoint(
   {
@@ -21,7 +22,7 @@ export const POST = endpoint(
     doc: {
       summary: 'Send a historian file',
       description:
-        'The request body is the CSV file itself; name it with ?name= or X-File-Name. It is read in the background: follow it at /api/v1/uploads/{uploadId}, and the site’s figures at /api/v1/sites/{siteId}/state.',
+        'The request body is the CSV file itself; name it with ?name= or X-File-Name. A file with a Content-Length in a layout the site already reads may be read while it arrives, and is then already read (done) when the answer comes; any other file is read in the background. Either way, follow it at /api/v1/uploads/{uploadId}, and the site’s figures at /api/v1/sites/{siteId}/state.',
       group: 'Files',
       upload: ['text/csv', 'application/octet-stream'],
     },
@@ -36,6 +37,6 @@ export const POST = endpoint(
     const length = request.headers.get('content-length');
     const sizeBytes = length !== null && /^\d{1,12}$/.test(length) ? Number(length) : undefined;
     const out = await receiveApiUpload(siteId, name, body, locals.apiToken ? { apiTokenId: locals.apiToken.id } : { userId: locals.user!.id }, sizeBytes);
-    return answer(FileAccepted, out, { status: 202 });
+    return answer(FileAccepted, { uploadId: out.uploadId, duplicateOf: out.duplicateOf }, { status: 202 });
   },
 );
