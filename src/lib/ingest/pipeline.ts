@@ -61,6 +61,9 @@ export interface FileIngest {
   end(): FileIngestResult;
 }
 
+/** Bytes decoded and parsed at a time. */
+const PIECE_BYTES = 65536;
+
 export function createFileIngest(options: FileIngestOptions): FileIngest {
   const decoder = createDecoder();
   const sampleChars = options.sampleChars ?? 65536;
@@ -108,7 +111,10 @@ export function createFileIngest(options: FileIngestOptions): FileIngest {
 
   return {
     push(chunk: Uint8Array): void {
-      feed(decoder.push(chunk));
+      // Read in pieces of at most PIECE_BYTES whatever the caller's chunks: a 1 MiB chunk decoded and
+      // parsed whole made the read of a 70 MB export twice as slow as 64 KiB pieces (1.67 s against
+      // 0.77 s in one process, tests/ingest/pipeline.test.ts checks the pieces give the same hours).
+      for (let o = 0; o < chunk.length; o += PIECE_BYTES) feed(decoder.push(o === 0 && chunk.length <= PIECE_BYTES ? chunk : chunk.subarray(o, o + PIECE_BYTES)));
     },
     end(): FileIngestResult {
       feed(decoder.end());

@@ -262,8 +262,10 @@ export async function startThreadRead(
   return {
     async push(bytes) {
       if (failure) throw failure;
-      // A copy the thread owns (the stream's buffer may share its memory with others).
-      const own = new Uint8Array(bytes);
+      // A copy the thread owns (the stream's buffer may share its memory with others, and a body
+      // read while uploading goes to the store too); not zero-filled first.
+      const own = Buffer.allocUnsafeSlow(bytes.byteLength);
+      own.set(bytes);
       send({ type: 'chunk', job, bytes: own }, [own.buffer as ArrayBuffer]);
       sent++;
       if (sent - read >= CHUNKS_IN_FLIGHT) await new Promise<void>((resolve) => (wake = resolve));
