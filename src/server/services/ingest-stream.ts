@@ -17,7 +17,7 @@ import { db } from '../db/client';
 import { siteQualityCodes, tagLinks, tags, uploads } from '../db/schema';
 import { objectStream } from '../storage';
 import { mergeOverlappedHours, type ClashKey, type RereadOptions } from './ingest-merge';
-import { insertRejects, writeHours } from './ingest-write';
+import { insertRejects, noteUploadTags, writeHours, type UploadTagSpans } from './ingest-write';
 import { HOUR_MS } from '~/lib/time';
 
 /** Tag hours written per statement. */
@@ -132,6 +132,7 @@ type SiteContext = Awaited<ReturnType<typeof siteContext>>;
 function batchWriter(client: pg.PoolClient, up: Upload, ctx: SiteContext, latestExistingMs: number | null, queue: ReturnType<typeof writeQueue>) {
   const counts = { hours: 0, newTags: 0, rejectsStored: 0 };
   const clashes: ClashKey[] = [];
+  const spans: UploadTagSpans = new Map();
   let batch: TagHour[] = [];
   let rejects: RejectedCell[] = [];
   let rejectSeq = 0;
@@ -159,7 +160,7 @@ function batchWriter(client: pg.PoolClient, up: Upload, ctx: SiteContext, latest
     counts.hours += rows.length;
     queue.enqueue(async () => {
       await ensureTags(rows.map((h) => h.tag));
-      clashes.push(...(await writeHours(client, up.id, rows, ctx.tagId, latestExistingMs)));
+      clashes.push(...(await writeHours(client, rows, ctx.tagId, latestExistingMs, spans)));
     });
   };
   const flushRejects = () => {
@@ -184,7 +185,7 @@ function batchWriter(client: pg.PoolClient, up: Upload, ctx: SiteContext, latest
     flushHours();
     flushRejects();
   };
-  return { counts, clashes, onHour, onRejectedCell, flush };
+  return { counts, clashes, spans, onHour, onRejectedCell, flush };
 }
 
 /** The site's ingest lock is held by another read, and the read was asked not to wait for it. */
@@ -268,6 +269,7 @@ export async function readIntoTransaction(
     writer.flush();
     await queue.idle();
     queue.check();
+    await noteUploadTags(client, up.id, writer.spans);
     let replaced = 0;
     let combined = 0;
     // Hours another file brought too: recomputed from the samples of both (ingest-merge.ts).

@@ -21,14 +21,15 @@ import { storable } from './ingest-text';
  *
  * Where the writes go (docs/scale.md): the month partitions the batch needs are made first; new
  * hours go in by COPY sorted by their key; which upload brought which tag's hours is one row per
- * upload and tag (tag_hour_uploads), not an array in every tag hour.
+ * upload and tag (tag_hour_uploads, gathered in `spans` and written once by noteUploadTags), not an
+ * array in every tag hour.
  */
 export async function writeHours(
   client: pg.PoolClient,
-  uploadId: string,
   rows: TagHour[],
   tagId: Map<string, string>,
   latestExistingMs: number | null,
+  spans: UploadTagSpans,
 ): Promise<ClashKey[]> {
   let minMs = Infinity;
   let maxMs = -Infinity;
@@ -37,7 +38,7 @@ export async function writeHours(
     if (h.hourStartMs > maxMs) maxMs = h.hourStartMs;
   }
   await ensureMonthPartitions(client, 'tag_hours', minMs, maxMs);
-  await noteUploadTags(client, uploadId, rows, tagId);
+  widenSpans(spans, rows, tagId);
   // The usual case, new hours only, goes in by COPY. Hours after the site's latest stored hour (read
   // once, under the site's ingest lock) cannot clash; otherwise one query looks for clashes.
   if (latestExistingMs === null || minMs > latestExistingMs) {
@@ -57,28 +58,36 @@ export async function writeHours(
   return rows.filter((h) => taken.has(`${tagId.get(h.tag)}@${h.hourStartMs}`)).map((h) => ({ tag: h.tag, tagId: tagId.get(h.tag)!, hourStartMs: h.hourStartMs }));
 }
 
-/** Which uploads brought which tag's hours: one row per upload and tag, widened batch by batch. */
-async function noteUploadTags(client: pg.PoolClient, uploadId: string, rows: TagHour[], tagId: Map<string, string>) {
-  const span = new Map<string, [number, number]>();
+/** The first and last hour of each tag an upload brought, by tags.seq (gathered over its batches). */
+export type UploadTagSpans = Map<string, [number, number]>;
+
+function widenSpans(spans: UploadTagSpans, rows: TagHour[], tagId: Map<string, string>) {
   for (const h of rows) {
     const id = tagId.get(h.tag)!;
-    const s = span.get(id);
-    if (!s) span.set(id, [h.hourStartMs, h.hourStartMs]);
+    const s = spans.get(id);
+    if (!s) spans.set(id, [h.hourStartMs, h.hourStartMs]);
     else {
       if (h.hourStartMs < s[0]) s[0] = h.hourStartMs;
       if (h.hourStartMs > s[1]) s[1] = h.hourStartMs;
     }
   }
-  const ids = [...span.keys()];
+}
+
+/**
+ * Which uploads brought which tag's hours: one row per upload and tag, written once when the file is
+ * read (one statement instead of one per batch; the merge step after it reads other uploads' rows only).
+ */
+export async function noteUploadTags(client: pg.PoolClient, uploadId: string, spans: UploadTagSpans) {
+  if (spans.size === 0) return;
+  const ids = [...spans.keys()];
   await client.query(
     `insert into tag_hour_uploads (upload_id, tag_id, first_hour, last_hour)
      select $1, * from unnest($2::int[], $3::timestamptz[], $4::timestamptz[])
      on conflict (upload_id, tag_id) do update set first_hour = least(tag_hour_uploads.first_hour, excluded.first_hour),
        last_hour = greatest(tag_hour_uploads.last_hour, excluded.last_hour)`,
-    [uploadId, ids, ids.map((i) => isoOf(span.get(i)![0])), ids.map((i) => isoOf(span.get(i)![1]))],
+    [uploadId, ids, ids.map((i) => isoOf(spans.get(i)![0])), ids.map((i) => isoOf(spans.get(i)![1]))],
   );
 }
-
 
 /** ISO text of an instant, cached: the tags of a wide file share their hour starts. */
 const isoCache = new Map<number, string>();
