@@ -57,6 +57,8 @@ export interface FileIngestResult {
 
 export interface FileIngest {
   push(chunk: Uint8Array): void;
+  /** True while pushed bytes are still held (the encoding is not decided yet): they must not be reused. */
+  readonly holdsInput: boolean;
   /** Ends the file: flushes every open hour. Throws IngestError for fatal problems. */
   end(): FileIngestResult;
 }
@@ -115,6 +117,9 @@ export function createFileIngest(options: FileIngestOptions): FileIngest {
       // parsed whole made the read of a 70 MB export twice as slow as 64 KiB pieces (1.67 s against
       // 0.77 s in one process, tests/ingest/pipeline.test.ts checks the pieces give the same hours).
       for (let o = 0; o < chunk.length; o += PIECE_BYTES) feed(decoder.push(o === 0 && chunk.length <= PIECE_BYTES ? chunk : chunk.subarray(o, o + PIECE_BYTES)));
+    },
+    get holdsInput(): boolean {
+      return !decoder.decision;
     },
     end(): FileIngestResult {
       feed(decoder.end());

@@ -35,7 +35,8 @@ export interface ThreadError {
 export type ReaderThreadOut =
   | { type: 'hours'; job: number; batch: PackedHours }
   | { type: 'rejects'; job: number; cells: RejectedCell[] }
-  | { type: 'read'; job: number; chunks: number }
+  /** A chunk parsed; its memory handed back for the next chunk. */
+  | { type: 'read'; job: number; chunks: number; spare?: ArrayBuffer }
   | { type: 'done'; job: number; report: ReturnType<FileIngest['end']>['report']; encoding: string }
   | { type: 'failed'; job: number; error: ThreadError }
   | { type: 'ready' };
@@ -95,7 +96,9 @@ if (port) {
       if (m.type === 'chunk') {
         ingest.push(m.bytes);
         chunks++;
-        post({ type: 'read', job, chunks });
+        // The chunk's memory goes back for the next chunk, unless the reader still holds it.
+        const spare = ingest.holdsInput ? undefined : (m.bytes.buffer as ArrayBuffer);
+        post({ type: 'read', job, chunks, spare }, spare ? [spare] : []);
         return;
       }
       const { report, encoding } = ingest.end();
