@@ -46,10 +46,19 @@ function float4(v: number | null): number | null {
  * tagSeq gives each row's tags.seq.
  */
 export function encodeTagHours(rows: TagHour[], tagSeq: (h: TagHour) => number): Buffer {
-  const keyed = rows.map((h) => ({ h, id: tagSeq(h) }));
-  // Sorted by (tag, hour): each tag's index entries go in as one run.
-  keyed.sort((a, b) => a.id - b.id || a.h.hourStartMs - b.h.hourStartMs);
-  const buf = Buffer.allocUnsafe(SIGNATURE.length + 8 + keyed.length * ROW_BYTES + 2);
+  // Sorted by (tag, hour): each tag's index entries go in as one run (an order of row numbers, so
+  // no object is made per row).
+  const n = rows.length;
+  const ids = new Int32Array(n);
+  const starts = new Float64Array(n);
+  const order = new Uint32Array(n);
+  for (let i = 0; i < n; i++) {
+    ids[i] = tagSeq(rows[i]!);
+    starts[i] = rows[i]!.hourStartMs;
+    order[i] = i;
+  }
+  order.sort((a, b) => ids[a]! - ids[b]! || starts[a]! - starts[b]!);
+  const buf = Buffer.allocUnsafe(SIGNATURE.length + 8 + n * ROW_BYTES + 2);
   let o = SIGNATURE.copy(buf, 0);
   o = buf.writeInt32BE(0, o); // flags
   o = buf.writeInt32BE(0, o); // header extension length
@@ -68,9 +77,12 @@ export function encodeTagHours(rows: TagHour[], tagSeq: (h: TagHour) => number):
     o = buf.writeInt32BE(2, o);
     return (o = buf.writeInt16BE(v, o));
   };
-  for (const { h, id } of keyed) {
+  for (let k = 0; k < n; k++) {
+    const i = order[k]!;
+    const h = rows[i]!;
+    const id = ids[i]!;
     o = buf.writeInt16BE(FIELDS, o);
-    const us = (h.hourStartMs - PG_EPOCH_MS) * 1000; // exact below 2^53 (until the year 287000)
+    const us = (starts[i]! - PG_EPOCH_MS) * 1000; // exact below 2^53 (until the year 287000)
     const hi = Math.floor(us / TWO_32);
     o = buf.writeInt32BE(8, o);
     o = buf.writeInt32BE(hi, o);
