@@ -52,6 +52,13 @@ const known = {
   delete: (name: string) => void seen.delete(name),
 };
 
+/** True when every month partition of `table` covering [fromMs, toMs] was seen to exist lately. */
+export function monthPartitionsKnown(table: PartitionedTable, fromMs: number, toMs: number): boolean {
+  if (!Number.isFinite(fromMs) || !Number.isFinite(toMs)) return true;
+  for (let m = monthStart(fromMs); m <= toMs; m = nextMonthStart(m)) if (!known.has(partitionName(table, m))) return false;
+  return true;
+}
+
 /**
  * Makes sure the month partitions of `table` covering hour starts [fromMs, toMs] exist. Runs on its
  * own pooled connection, one short transaction per missing month.

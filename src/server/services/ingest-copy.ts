@@ -41,11 +41,18 @@ function float4(v: number | null): number | null {
   return f;
 }
 
-/**
- * One batch as a binary COPY stream (header, rows sorted by the primary key's order, trailer).
- * tagSeq gives each row's tags.seq.
- */
+/** The header of a binary COPY stream: signature, flags, header extension length. */
+export const COPY_HEADER = Buffer.concat([SIGNATURE, Buffer.alloc(8)]);
+/** The trailer of a binary COPY stream (a field count of -1). */
+export const COPY_TRAILER = Buffer.from([0xff, 0xff]);
+
+/** One batch as a whole binary COPY stream (header, rows, trailer). */
 export function encodeTagHours(rows: TagHour[], tagSeq: (h: TagHour) => number): Buffer {
+  return Buffer.concat([COPY_HEADER, encodeTagHourRows(rows, tagSeq), COPY_TRAILER]);
+}
+
+/** The rows of one batch in binary COPY format, sorted by the primary key's order (no header or trailer). */
+export function encodeTagHourRows(rows: TagHour[], tagSeq: (h: TagHour) => number): Buffer {
   // Sorted by (tag, hour): each tag's index entries go in as one run (an order of row numbers, so
   // no object is made per row).
   const n = rows.length;
@@ -58,10 +65,8 @@ export function encodeTagHours(rows: TagHour[], tagSeq: (h: TagHour) => number):
     order[i] = i;
   }
   order.sort((a, b) => ids[a]! - ids[b]! || starts[a]! - starts[b]!);
-  const buf = Buffer.allocUnsafe(SIGNATURE.length + 8 + n * ROW_BYTES + 2);
-  let o = SIGNATURE.copy(buf, 0);
-  o = buf.writeInt32BE(0, o); // flags
-  o = buf.writeInt32BE(0, o); // header extension length
+  const buf = Buffer.allocUnsafe(n * ROW_BYTES);
+  let o = 0;
   const int4 = (v: number | null) => {
     if (v === null) return (o = buf.writeInt32BE(-1, o));
     o = buf.writeInt32BE(4, o);
@@ -100,6 +105,5 @@ export function encodeTagHours(rows: TagHour[], tagSeq: (h: TagHour) => number):
     int2(count16(h.outOfRangeCount));
     int2(readerFlags(h));
   }
-  o = buf.writeInt16BE(-1, o);
   return buf.subarray(0, o);
 }

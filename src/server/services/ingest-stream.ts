@@ -17,7 +17,7 @@ import { db } from '../db/client';
 import { siteQualityCodes, tagLinks, tags, uploads } from '../db/schema';
 import { objectStream } from '../storage';
 import { mergeOverlappedHours, type ClashKey, type RereadOptions } from './ingest-merge';
-import { insertRejects, noteUploadTags, writeHours, type UploadTagSpans } from './ingest-write';
+import { TagHourCopy, insertRejects, noteUploadTags, writeHours, type UploadTagSpans } from './ingest-write';
 import { HOUR_MS } from '~/lib/time';
 
 /** Tag hours written per statement. */
@@ -123,7 +123,10 @@ function writeQueue() {
   const check = () => {
     if (state.failure) throw state.failure;
   };
-  return { state, enqueue, check, throttle: () => writes.onSizeLessThan(MAX_IN_FLIGHT), idle: () => writes.onIdle() };
+  const fail = (err: unknown) => {
+    state.failure ??= err;
+  };
+  return { state, enqueue, check, fail, throttle: () => writes.onSizeLessThan(MAX_IN_FLIGHT), idle: () => writes.onIdle() };
 }
 
 type SiteContext = Awaited<ReturnType<typeof siteContext>>;
@@ -133,12 +136,15 @@ function batchWriter(client: pg.PoolClient, up: Upload, ctx: SiteContext, latest
   const counts = { hours: 0, newTags: 0, rejectsStored: 0 };
   const clashes: ClashKey[] = [];
   const spans: UploadTagSpans = new Map();
+  // One COPY open across batches; every query on the connection ends it first (ingest-write.ts).
+  const copy = new TagHourCopy(client);
   let batch: TagHour[] = [];
   let rejects: RejectedCell[] = [];
   let rejectSeq = 0;
   async function ensureTags(names: string[]) {
     const missing = [...new Set(names)].filter((n) => !ctx.tagId.has(n));
     if (!missing.length) return;
+    await copy.end();
     for (const n of missing) ctx.tagId.set(n, ''); // claimed; filled below
     const res = await client.query(
       `insert into tags (site_id, name, unit_hint, description, last_upload_id)
@@ -160,7 +166,7 @@ function batchWriter(client: pg.PoolClient, up: Upload, ctx: SiteContext, latest
     counts.hours += rows.length;
     queue.enqueue(async () => {
       await ensureTags(rows.map((h) => h.tag));
-      clashes.push(...(await writeHours(client, rows, ctx.tagId, latestExistingMs, spans)));
+      clashes.push(...(await writeHours(client, rows, ctx.tagId, latestExistingMs, spans, copy)));
     });
   };
   const flushRejects = () => {
@@ -169,7 +175,10 @@ function batchWriter(client: pg.PoolClient, up: Upload, ctx: SiteContext, latest
     rejects = [];
     const start = rejectSeq;
     rejectSeq += rows.length;
-    queue.enqueue(() => insertRejects(client, up.id, start, rows));
+    queue.enqueue(async () => {
+      await copy.end();
+      await insertRejects(client, up.id, start, rows);
+    });
   };
   const onHour = (h: TagHour) => {
     batch.push(h);
@@ -185,7 +194,15 @@ function batchWriter(client: pg.PoolClient, up: Upload, ctx: SiteContext, latest
     flushHours();
     flushRejects();
   };
-  return { counts, clashes, spans, onHour, onRejectedCell, flush };
+  /** Ends the open COPY (after the last batch, before anything else runs on the connection). */
+  const endCopy = () => copy.end();
+  /** After a failure: the queued writes are skipped, the running one ends, and an open COPY is stopped. */
+  const stop = async (err: unknown) => {
+    queue.fail(err);
+    await queue.idle();
+    await copy.abort(err instanceof Error ? err : new Error(String(err)));
+  };
+  return { counts, clashes, spans, onHour, onRejectedCell, flush, endCopy, stop };
 }
 
 /** The site's ingest lock is held by another read, and the read was asked not to wait for it. */
@@ -269,6 +286,7 @@ export async function readIntoTransaction(
     writer.flush();
     await queue.idle();
     queue.check();
+    await writer.endCopy();
     await noteUploadTags(client, up.id, writer.spans);
     let replaced = 0;
     let combined = 0;
@@ -277,6 +295,9 @@ export async function readIntoTransaction(
     const { hours, newTags, rejectsStored } = writer.counts;
     if (process.env.LOSSLINE_INGEST_TIMING) console.log(`[ingest] ${up.id}: ${hours} tag hours, database writes ${(queue.state.writeMs / 1000).toFixed(2)} s`);
     return { report, encoding, hours, replaced, combined, newTags, rejectsStored, bytes, goodCodes: ctx.goodCodes, sha256: hasher ? hasher.digest('hex') : null };
+  } catch (err) {
+    await writer.stop(err);
+    throw err;
   } finally {
     parse.drop();
   }
