@@ -43,6 +43,9 @@ const S_UNCERTAIN = CellStatus.Uncertain;
 const S_BLANK = CellStatus.Blank;
 
 // Per-tag state lives in one Float64Array, W slots per tag (one buffer keeps the hot loop fast).
+// The slot constants, their helpers and writeFields stay in this file although it passes 400 lines:
+// moved into a module of their own (imported constants on the hot path), the read of the 70 MB bench
+// export took 0.99 to 1.06 CPU s instead of 0.77 to 0.88 (measured in alternation, 3 December 2026).
 // Tag k owns S[k * W, k * W + W), and S always holds at least n * W values (addTag grows it), so a
 // read S[b + SLOT] with b = k * W of a known tag and SLOT < W is inside the buffer: those reads carry
 // a non-null assertion (no check at run time on the hot path).
