@@ -17,7 +17,7 @@ import { IngestError } from '~/lib/ingest';
 import { db } from '../db/client';
 import { sites, uploads } from '../db/schema';
 import { objectStream } from '../storage';
-import { findDuplicate, storedObjectMismatch } from './uploads';
+import { findDuplicate, repeatToYieldTo, storedObjectMismatch } from './uploads';
 import { failedRead, type IngestOutcome } from './ingest-failure';
 import { finish } from './ingest-finish';
 import { settleLayout } from './ingest-layout';
@@ -94,6 +94,18 @@ async function repeatBeforeCommit(up: Upload, sha256: string, client: pg.PoolCli
   return standAside(up, sha256, duplicate.id);
 }
 
+/**
+ * An upload whose hash was known before the read (a machine upload): another copy of the same bytes
+ * may have been read meanwhile (two copies sent together each found no earlier one read), so before
+ * the commit it yields as repeatToYieldTo says. Returns the outcome of a repeat, else null.
+ */
+async function knownRepeatBeforeCommit(up: Upload, sha256: string, client: pg.PoolClient): Promise<IngestOutcome | null> {
+  const first = await repeatToYieldTo(up.siteId, sha256, up);
+  if (!first) return null;
+  await client.query('rollback');
+  return standAside(up, sha256, first.id);
+}
+
 async function ingestLocked(uploadId: string, client: pg.PoolClient): Promise<IngestOutcome> {
   const startedMs = performance.now();
   const [up] = await db().select().from(uploads).where(eq(uploads.id, uploadId));
@@ -117,7 +129,7 @@ async function ingestLocked(uploadId: string, client: pg.PoolClient): Promise<In
     if ('kind' in layout) return layout;
     // Not hashed yet (a browser upload): hashed during the read, checked for a repeat before the commit.
     const result = await readIntoTransaction(up, layout.profile, timeZone, site?.createdAt ?? new Date(), client, !up.sha256);
-    const repeat = result.sha256 ? await repeatBeforeCommit(up, result.sha256, client) : null;
+    const repeat = result.sha256 ? await repeatBeforeCommit(up, result.sha256, client) : up.sha256 ? await knownRepeatBeforeCommit(up, up.sha256, client) : null;
     if (repeat) return repeat;
     const { summary, state } = await finish(up, layout.profile, result, layout.profileId, client);
     if (process.env.LOSSLINE_INGEST_TIMING) console.log(`[ingest] ${uploadId}: read and committed in ${((performance.now() - startedMs) / 1000).toFixed(2)} s`);

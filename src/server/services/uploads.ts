@@ -87,6 +87,31 @@ export async function findDuplicate(siteId: string, sha256: string, exceptId?: s
   return rows[0] ?? null;
 }
 
+/**
+ * The upload a read of known bytes yields to before its commit (under the site's ingest lock): one
+ * whose read of the same bytes is committed, whenever it was made, or one made earlier that waits to
+ * be read. So two copies that arrive together are read once whichever is read first: the later-made
+ * one yields to the earlier while both wait, and whichever commits second yields to the first.
+ */
+export async function repeatToYieldTo(siteId: string, sha256: string, up: { id: string; createdAt: Date }) {
+  const rows = await db()
+    .select({ id: uploads.id })
+    .from(uploads)
+    .where(
+      and(
+        eq(uploads.siteId, siteId),
+        eq(uploads.sha256, sha256),
+        ne(uploads.id, up.id),
+        sql`${uploads.duplicateOf} is null`,
+        sql`(${inArray(uploads.status, [...READ_STATUSES])} or (${inArray(uploads.status, ['queued', 'processing', 'needs-review'])}
+          and (${uploads.createdAt}, ${uploads.id}) < (${up.createdAt.toISOString()}::timestamptz, ${up.id}::uuid)))`,
+      ),
+    )
+    .orderBy(uploads.createdAt)
+    .limit(1);
+  return rows[0] ?? null;
+}
+
 /** NOTIFY channel that wakes the workers' ingest at once (src/worker/ingest-wake.ts). */
 export const INGEST_WAKE_CHANNEL = 'lossline_ingest_queued';
 
@@ -231,7 +256,7 @@ export async function receiveApiUpload(
     .values({ id, siteId, fileName, objectKey, source: 'api', apiTokenId: by.apiTokenId ?? null, uploadedBy: by.userId ?? null, status: 'awaiting-file' })
     .returning();
   const counter = new HashCounter(MAX_UPLOAD_BYTES, sizeBytes);
-  const early = sizeBytes !== undefined ? startEarlyRead(row!, sizeBytes, (sha256) => findDuplicate(siteId, sha256, id, { id, createdAt: row!.createdAt })) : null;
+  const early = sizeBytes !== undefined ? startEarlyRead(row!, sizeBytes, (sha256) => repeatToYieldTo(siteId, sha256, row!)) : null;
   try {
     // An error of the body (a broken connection) stops the counter, and so the store's request.
     body.on('error', (err) => counter.destroy(err));
