@@ -46,11 +46,6 @@ export const COPY_HEADER = Buffer.concat([SIGNATURE, Buffer.alloc(8)]);
 /** The trailer of a binary COPY stream (a field count of -1). */
 export const COPY_TRAILER = Buffer.from([0xff, 0xff]);
 
-/** One batch as a whole binary COPY stream (header, rows, trailer). */
-export function encodeTagHours(rows: TagHour[], tagSeq: (h: TagHour) => number): Buffer {
-  return Buffer.concat([COPY_HEADER, encodeTagHourRows(rows, tagSeq), COPY_TRAILER]);
-}
-
 /** The rows of one batch in binary COPY format, sorted by the primary key's order (no header or trailer). */
 export function encodeTagHourRows(rows: TagHour[], tagSeq: (h: TagHour) => number): Buffer {
   // Sorted by (tag, hour): each tag's index entries go in as one run (an order of row numbers, so

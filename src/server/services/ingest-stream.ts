@@ -314,10 +314,9 @@ async function parser(ctx: SiteContext, profile: LayoutProfile, writer: ReturnTy
     onHours: (batch) => unpack(batch, writer.onHour),
     onRejects: (cells) => cells.forEach(writer.onRejectedCell),
   });
-  if (thread) return { threaded: true, push: (bytes: Uint8Array) => thread.push(bytes), end: () => thread.end(), drop: () => thread.drop() };
+  if (thread) return { push: (bytes: Uint8Array) => thread.push(bytes), end: () => thread.end(), drop: () => thread.drop() };
   const ingest = createFileIngest({ ...ctx.rereadOptions, profile, onHour: writer.onHour, onRejectedCell: writer.onRejectedCell });
   return {
-    threaded: false,
     push: async (bytes: Uint8Array) => ingest.push(bytes),
     end: async () => {
       const { report, encoding } = ingest.end();
